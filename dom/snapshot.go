@@ -1,0 +1,111 @@
+package dom
+
+// SnapshotVersion is the version of the Snapshot layout. A browser read pass
+// must send the same version; Walk rejects others.
+const SnapshotVersion = 1
+
+// Snapshot is one chart as rendered: the root <svg> element and its subtree,
+// flattened in document order, with each element's resolved paint and its
+// transform to page CSS pixels. It is what both ways in produce: the static
+// builder (Build) from markup and CSS, and the extension's read pass from
+// the live DOM. It is designed to cross the JavaScript–Go boundary as one
+// compact JSON document: short keys, numbers rather than strings, and no
+// per-element objects beyond the node itself.
+//
+// <use> elements are expanded (their referenced content appears as their
+// children), so a snapshot never refers to anything outside itself except
+// paint servers, whose colours are resolved into Paint.
+type Snapshot struct {
+	Version int `json:"v"`
+	// Source names the page or file the chart came from.
+	Source string `json:"source,omitempty"`
+	// Path is the stable id of the root <svg> within the page, such as
+	// "svg0" or "iframe1/svg2".
+	Path string `json:"path"`
+	// Box is the root <svg>'s viewport in page CSS px: x, y, width, height.
+	Box [4]float64 `json:"box"`
+	// Background is the colour behind the chart (0xRRGGBBAA), from the
+	// nearest ancestor with an opaque background; white when none is known.
+	Background uint32 `json:"bg"`
+	// Nodes are the elements of the chart in document order; Nodes[0] is
+	// the root <svg>.
+	Nodes []Node `json:"nodes"`
+	// Problems lists what could not be read, each naming the element.
+	Problems []string `json:"problems,omitempty"`
+}
+
+// Node is one element of a Snapshot.
+//
+// Coordinates in Geom and D are in the element's local user units; CTM maps
+// them to page CSS px. Colours are 0xRRGGBBAA, not premultiplied.
+type Node struct {
+	// Parent is the index of the parent node, -1 for the root.
+	Parent int32 `json:"p"`
+	// Tag is the lowercase local name: "svg", "g", "rect", "text", ….
+	Tag string `json:"t"`
+	// Name is the stable path of the element within the page, used as the
+	// mark id, such as "svg0/g1/circle3".
+	Name string `json:"n"`
+	// Geom holds the tag's numeric geometry attributes in this order:
+	//	rect, image, svg: x y width height rx ry
+	//	circle: cx cy r
+	//	ellipse: cx cy rx ry
+	//	line: x1 y1 x2 y2
+	//	text: x y font-size
+	Geom []float64 `json:"g,omitempty"`
+	// D is the path data of a <path>, or the points of a <polyline> or
+	// <polygon>.
+	D string `json:"d,omitempty"`
+	// CTM is the matrix (a b c d e f) from local user units to page CSS px.
+	CTM [6]float64 `json:"m"`
+	// BBox, when the browser measured it, is the element's box in page CSS
+	// px (x y width height). Empty in static snapshots.
+	BBox []float64 `json:"b,omitempty"`
+	// Fill and Stroke are the computed paints.
+	Fill   Paint `json:"f"`
+	Stroke Paint `json:"s"`
+	// FillOpacity, StrokeOpacity and Opacity are the computed values of the
+	// properties, each within [0, 1]. Opacity is this element's own;
+	// ancestors' opacities are on the ancestors.
+	FillOpacity   float64 `json:"fo"`
+	StrokeOpacity float64 `json:"so"`
+	Opacity       float64 `json:"o"`
+	// StrokeWidth is in local user units.
+	StrokeWidth float64 `json:"sw"`
+	// Flags holds Hidden, Invisible, Clipped, NoPointer.
+	Flags uint8 `json:"x,omitempty"`
+	// Text is the text content of <text>, <title> and <desc>.
+	Text string `json:"tx,omitempty"`
+	// Label is the element's aria-label, if any.
+	Label string `json:"al,omitempty"`
+}
+
+// Node flags.
+const (
+	// Hidden: display:none on this element (the subtree is not rendered).
+	Hidden uint8 = 1 << iota
+	// Invisible: visibility is hidden or collapse.
+	Invisible
+	// Clipped: a clip-path or mask applies.
+	Clipped
+	// NoPointer: pointer-events: none.
+	NoPointer
+)
+
+// Paint is a computed fill or stroke.
+type Paint struct {
+	// Kind is PaintNone, PaintColour or PaintServer.
+	Kind uint8 `json:"k"`
+	// RGBA is the colour (0xRRGGBBAA). For a paint server it is the colour
+	// the server paints in the middle of its area (WCAG: "take the central
+	// colour"), and Stops lists every colour it paints.
+	RGBA  uint32   `json:"c,omitempty"`
+	Stops []uint32 `json:"st,omitempty"`
+}
+
+// Paint kinds.
+const (
+	PaintNone uint8 = iota
+	PaintColour
+	PaintServer
+)
