@@ -505,8 +505,14 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 		dx, dy float64
 	}
 	var pairs []pair
+	siblings := map[int32]int{}
 	for _, c := range cands {
-		if c.role != "" {
+		siblings[c.n.Parent]++
+	}
+	for _, c := range cands {
+		// Legend entries come in small groups; a swatch is never one of
+		// dozens of siblings.
+		if c.role != "" || siblings[c.n.Parent] > 20 {
 			continue
 		}
 		b := c.g.BBox
