@@ -29,9 +29,9 @@ func TestParseColorSyntaxes(t *testing.T) {
 	// CSS Color 4 §5 (hex), §5.1 (rgb), §7 (hsl); expected values by the
 	// spec's definitions (hsl(120 100% 25%) is the spec's green example).
 	for _, c := range []struct {
-		in   string
-		hex  string
-		a    float64
+		in  string
+		hex string
+		a   float64
 	}{
 		{"#f00", "#ff0000", 1},
 		{"#F008", "#ff0000", 0x88 / 255.0},

@@ -71,7 +71,7 @@ func TestArcImplementationNotes(t *testing.T) {
 	// Large arc, sweep 1: through the far side, bottom of the circle centred at (5, 8.66).
 	p = mid("M0,0 A10,10 0 1 1 10,0")
 	assert.InDelta(t, 5, p.X, 0.4)
-	assert.InDelta(t, -(10+math.Sqrt(75)), p.Y, 0.05)
+	assert.InDelta(t, -(10 + math.Sqrt(75)), p.Y, 0.05)
 	// Radii scaled up: a half circle of radius 5.
 	p = mid("M0,0 A1,1 0 0 1 10,0")
 	assert.InDelta(t, 5, p.X, 0.4)

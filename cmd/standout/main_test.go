@@ -1,0 +1,115 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+	"standout/perception/colour"
+)
+
+func runCmd(args ...string) (int, string, string) {
+	var out, errb bytes.Buffer
+	code := run(args, &out, &errb)
+	return code, out.String(), errb.String()
+}
+
+func TestPaletteJSON(t *testing.T) {
+	// Red and green of equal lightness-ish, and a blue: the red/green pair
+	// must collapse for deutan and protan readers (Machado et al. 2009 at
+	// severity 1), and stay apart for normal vision.
+	code, out, errs := runCmd("palette", "--json", "#d62728", "#2ca02c", "#1f77b4")
+	require.Equal(t, 0, code, errs)
+	var rep paletteReport
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	assert.Equal(t, 1, rep.Version)
+	require.Len(t, rep.Colors, 3)
+	assert.Equal(t, "#d62728", rep.Colors[0].Input)
+	assert.Equal(t, "#d62728", rep.Colors[0].Hex)
+	// Contrast against white: the WCAG 2.x ratio the colour package
+	// verifies against the published examples, unrounded.
+	assert.Equal(t, colour.ContrastRatio(colour.MustHex("#d62728"), colour.MustHex("#ffffff")), rep.Colors[0].Contrast)
+	require.Len(t, rep.Pairs, 3)
+	rg := rep.Pairs[0]
+	assert.Equal(t, [2]int{0, 1}, [2]int{rg.A, rg.B})
+	for _, v := range []string{"normal", "protan", "deutan", "tritan", "achromat"} {
+		require.Contains(t, rg.Vision, v)
+	}
+	assert.True(t, rg.Vision["normal"].Noticeable)
+	assert.False(t, rg.Vision["deutan"].Noticeable)
+	assert.Less(t, rg.Vision["deutan"].DeltaE2000, rg.Vision["normal"].DeltaE2000/3)
+	// The raw JSON uses the documented keys.
+	var raw map[string]any
+	require.NoError(t, json.Unmarshal([]byte(out), &raw))
+	pair := raw["pairs"].([]any)[0].(map[string]any)
+	normal := pair["vision"].(map[string]any)["normal"].(map[string]any)
+	assert.Contains(t, normal, "deltaE2000")
+	assert.Contains(t, normal, "noticeable")
+}
+
+func TestPaletteFailOnAndErrors(t *testing.T) {
+	code, _, _ := runCmd("palette", "--fail-on", "cvd", "#d62728", "#2ca02c")
+	assert.Equal(t, 1, code)
+	code, _, _ = runCmd("palette", "--fail-on", "normal", "#d62728", "#2ca02c")
+	assert.Equal(t, 0, code)
+	code, _, _ = runCmd("palette", "--fail-on", "contrast", "#ffff00", "#000000")
+	assert.Equal(t, 1, code, "yellow on white is below 3:1")
+	code, _, errs := runCmd("palette", "#d62728", "bluish")
+	assert.Equal(t, 2, code)
+	assert.Contains(t, errs, `"bluish"`)
+	code, _, errs = runCmd("palette", "--background", "nope", "red", "blue")
+	assert.Equal(t, 2, code)
+	assert.Contains(t, errs, "nope")
+	code, _, _ = runCmd("palette", "red")
+	assert.Equal(t, 2, code)
+	code, _, _ = runCmd("palette", "--severity", "2", "red", "blue")
+	assert.Equal(t, 2, code)
+	code, out, _ := runCmd("palette", "red", "blue", "--mark", "bar", "--size", "20")
+	assert.Equal(t, 0, code)
+	assert.Contains(t, out, "Contrast against the background")
+}
+
+func TestCheckJSONAndExitCodes(t *testing.T) {
+	dir := t.TempDir()
+	page := filepath.Join(dir, "p.html")
+	require.NoError(t, os.WriteFile(page, []byte(`<svg width="200" height="100"><rect width="200" height="100" fill="#fff"/>
+	<circle cx="10" cy="10" r="4" fill="#1f77b4"/><circle cx="30" cy="10" r="4" fill="#1f77b4" opacity="0.5"/><circle cx="50" cy="10" r="4" stroke="red" fill="none"/></svg>`), 0o644))
+	code, out, errs := runCmd("check", "--json", page)
+	require.Equal(t, 0, code, errs)
+	var rep report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	require.Len(t, rep.Pages, 1)
+	require.Len(t, rep.Pages[0].Charts, 1)
+	c := rep.Pages[0].Charts[0]
+	require.Len(t, c.Marks, 3)
+	assert.Equal(t, "point", c.Marks[0].Kind)
+	assert.Equal(t, "circle", c.Marks[0].Shape)
+	assert.Equal(t, "#1f77b4", *c.Marks[0].Fill)
+	assert.Nil(t, c.Marks[0].Stroke)
+	assert.Equal(t, 0.5, c.Marks[1].Opacity)
+	assert.Nil(t, c.Marks[2].Fill)
+	assert.Equal(t, [4]float64{6, 6, 8, 8}, c.Marks[0].BBox)
+	assert.Equal(t, 1, c.Furniture["background"])
+
+	code, _, errs = runCmd("check", filepath.Join(dir, "missing.html"))
+	assert.Equal(t, 2, code)
+	assert.Contains(t, errs, "missing.html")
+	code, _, _ = runCmd("check")
+	assert.Equal(t, 2, code)
+	code, _, _ = runCmd("frobnicate")
+	assert.Equal(t, 2, code)
+}
+
+func TestDemo(t *testing.T) {
+	code, out, errs := runCmd("demo")
+	require.Equal(t, 0, code, errs)
+	// The invented page holds a deutan collapse and a low-contrast series.
+	assert.Contains(t, out, "collapse for [deutan]")
+	assert.Contains(t, out, "below the 3:1")
+	assert.True(t, strings.Contains(out, "Caution:"))
+}

@@ -1,0 +1,58 @@
+package dom
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// benchExtract times Build + Walk over one document.
+func benchExtract(b *testing.B, doc []byte) {
+	b.SetBytes(int64(len(doc)))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		p, err := Build(bytes.NewReader(doc), Options{Source: "bench"})
+		if err != nil {
+			b.Fatal(err)
+		}
+		for j := range p.Charts {
+			if _, err := Walk(&p.Charts[j]); err != nil {
+				b.Fatal(err)
+			}
+		}
+	}
+}
+
+// BenchmarkCorpusLargest is the largest corpus chart (10,858 circles).
+func BenchmarkCorpusLargest(b *testing.B) {
+	dir := corpusDir(b)
+	doc, err := os.ReadFile(filepath.Join(dir, "observable-plot/athletesHeightWeight.svg"))
+	if err != nil {
+		b.Fatal(err)
+	}
+	benchExtract(b, doc)
+}
+
+// BenchmarkPage5MB is a 5 MB page of circles.
+func BenchmarkPage5MB(b *testing.B) {
+	s := manyCircles(1)
+	n := 5 << 20 / (len(manyCircles(1001)) - len(s)) * 1000
+	benchExtract(b, []byte(manyCircles(n)))
+}
+
+func BenchmarkMarks10k(b *testing.B)  { benchExtract(b, []byte(manyCircles(10000))) }
+func BenchmarkMarks100k(b *testing.B) { benchExtract(b, []byte(manyCircles(100000))) }
+
+func BenchmarkPathParse(b *testing.B) {
+	d := "M0,0" + strings.Repeat("C1,2 3,4 5,6A5,5,0,0,1,10,10L3,4", 1000)
+	b.SetBytes(int64(len(d)))
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if _, _, err := ParsePath(d); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
