@@ -778,6 +778,9 @@ func makeMark(c *cand) Mark {
 			m.Size = c.g.Length
 		}
 	case KindLine:
+		if m.Fill == nil || c.fillA == 0 {
+			m.Area = 0 // an unfilled line encloses nothing the reader sees
+		}
 		m.Size = c.strokeW
 		for _, s := range c.g.Subpaths {
 			m.Vertices = append(m.Vertices, s.Pts...)
