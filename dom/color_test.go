@@ -1,6 +1,7 @@
 package dom
 
 import (
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -83,4 +84,19 @@ func TestTransforms(t *testing.T) {
 		_, err := ParseTransform(bad)
 		assert.Error(t, err, bad)
 	}
+}
+
+func TestWhereHasZeroSpecificity(t *testing.T) {
+	// Selectors 4 §4.4: :where() contributes no specificity, so a later
+	// type selector overrides it, and a presentation attribute does not.
+	doc := `<style>:where(.a) { fill: red } circle { fill: blue } :where(.b) { fill: green }</style>
+	<svg width="100" height="100"><circle class="a" r="3"/><circle class="b" r="3" fill="orange"/></svg>`
+	p, err := Build(strings.NewReader(doc), Options{})
+	require.NoError(t, err)
+	assert.Empty(t, p.Problems)
+	n := p.Charts[0].Nodes
+	assert.Equal(t, "#0000ff", Hex(n[1].Fill.RGBA))
+	// The type selector (0,0,1) beats :where(.b) (0,0,0), and both beat
+	// the presentation attribute.
+	assert.Equal(t, "#0000ff", Hex(n[2].Fill.RGBA))
 }

@@ -45,6 +45,7 @@ func parseSheet(text string, order *int, where string) ([]rule, []string) {
 	}
 	var cur []cascadia.Sel
 	var curDecls []decl
+	zero := false
 	inRule := false
 	for {
 		gt, _, data := p.Next()
@@ -69,7 +70,18 @@ func parseSheet(text string, order *int, where string) ([]rule, []string) {
 		case css.BeginRulesetGrammar, css.QualifiedRuleGrammar:
 			text := joinTokens(p.Values())
 			cur = cur[:0]
+			zero = false
 			group, err := cascadia.ParseGroup(text)
+			if err != nil {
+				// cascadia lacks :where(); a selector list made only of
+				// :where(…) wrappers matches like its contents with zero
+				// specificity (Selectors 4 §4.4).
+				if inner, ok := unwrapWhere(text); ok {
+					if g2, err2 := cascadia.ParseGroup(inner); err2 == nil {
+						group, err, zero = g2, nil, true
+					}
+				}
+			}
 			if err != nil {
 				problems = append(problems, fmt.Sprintf("%s: selector %q is not supported and its rule is ignored (%v)", where, clip(text, 80), err))
 			}
@@ -88,6 +100,9 @@ func parseSheet(text string, order *int, where string) ([]rule, []string) {
 			if inRule && applies() && len(curDecls) > 0 {
 				for _, s := range cur {
 					sp := s.Specificity()
+					if zero {
+						sp = cascadia.Specificity{}
+					}
 					*order++
 					rules = append(rules, rule{sel: s, spec: sp[0]<<20 | sp[1]<<10 | sp[2], order: *order, decls: curDecls})
 				}
@@ -170,4 +185,33 @@ func clip(s string, n int) string {
 		return s
 	}
 	return s[:n] + "…"
+}
+
+// unwrapWhere turns ":where(a b),:where(c)" into "a b,c". It reports false
+// when any part of the list is not a single :where(…).
+func unwrapWhere(sel string) (string, bool) {
+	var parts []string
+	depth, start := 0, 0
+	for i := 0; i < len(sel); i++ {
+		switch sel[i] {
+		case '(':
+			depth++
+		case ')':
+			depth--
+		case ',':
+			if depth == 0 {
+				parts = append(parts, sel[start:i])
+				start = i + 1
+			}
+		}
+	}
+	parts = append(parts, sel[start:])
+	for i, p := range parts {
+		p = strings.TrimSpace(p)
+		if !strings.HasPrefix(p, ":where(") || !strings.HasSuffix(p, ")") {
+			return "", false
+		}
+		parts[i] = p[len(":where(") : len(p)-1]
+	}
+	return strings.Join(parts, ","), true
 }
