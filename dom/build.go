@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/andybalholm/cascadia"
 	"golang.org/x/net/html"
 )
 
@@ -28,6 +29,9 @@ type Options struct {
 	Source string
 	// Dark selects the dark value of light-dark().
 	Dark bool
+	// Select is a CSS selector whose matches are recorded in each
+	// snapshot's Selected list (an intended emphasis).
+	Select string
 }
 
 // Page is what the static builder found in one document.
@@ -59,6 +63,13 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	}
 	page := &Page{Source: opt.Source}
 	b := &builder{opt: opt, ids: map[string]*html.Node{}, page: page}
+	if opt.Select != "" {
+		sel, err := cascadia.ParseGroup(opt.Select)
+		if err != nil {
+			return nil, fmt.Errorf("dom: selector %q: %w", opt.Select, err)
+		}
+		b.sel = sel
+	}
 	b.casc = &cascader{problems: &page.Problems, dark: opt.Dark}
 	order := 0
 	var svgs []*html.Node
@@ -100,6 +111,7 @@ type builder struct {
 	page *Page
 	html map[*html.Node]*computed // computed styles of HTML ancestors
 	snap *Snapshot
+	sel  cascadia.SelectorGroup
 }
 
 // walkNodes visits n and its descendants in document order without
@@ -435,6 +447,9 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 	}
 	idx := int32(len(snap.Nodes))
 	snap.Nodes = append(snap.Nodes, node)
+	if b.sel != nil && b.sel.Match(n) {
+		snap.Selected = append(snap.Selected, idx)
+	}
 	if tag == "text" || tag == "title" || tag == "desc" || notRendered[tag] {
 		return nil
 	}

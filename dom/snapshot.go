@@ -30,6 +30,9 @@ type Snapshot struct {
 	// Nodes are the elements of the chart in document order; Nodes[0] is
 	// the root <svg>.
 	Nodes []Node `json:"nodes"`
+	// Selected lists the nodes that matched Options.Select (the caller's
+	// declared emphasis), as indices into Nodes.
+	Selected []int32 `json:"sel,omitempty"`
 	// Problems lists what could not be read, each naming the element.
 	Problems []string `json:"problems,omitempty"`
 }

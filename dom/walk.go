@@ -76,6 +76,9 @@ type Chart struct {
 	// "hidden", "image", "legend-label".
 	Furniture map[string]int
 	Problems  []string
+	// Selected lists the indices into Marks of the marks that matched the
+	// caller's selector, or sit inside an element that did.
+	Selected []int
 }
 
 type cand struct {
@@ -221,6 +224,24 @@ func Walk(s *Snapshot) (*Chart, error) {
 		ch.Marks = append(ch.Marks, makeMark(t))
 	}
 	sort.SliceStable(ch.Marks, func(i, j int) bool { return ch.Marks[i].Node < ch.Marks[j].Node })
+	if len(s.Selected) > 0 {
+		sel := make([]bool, n)
+		for _, k := range s.Selected {
+			if k >= 0 && int(k) < n {
+				sel[k] = true
+			}
+		}
+		for i := range s.Nodes {
+			if p := s.Nodes[i].Parent; p >= 0 && sel[p] {
+				sel[i] = true
+			}
+		}
+		for i, m := range ch.Marks {
+			if sel[m.Node] {
+				ch.Selected = append(ch.Selected, i)
+			}
+		}
+	}
 	w, h := s.Box[2], s.Box[3]
 	switch {
 	case w > 0 && h > 0 && w <= 64 && h <= 64:

@@ -11,6 +11,8 @@ import (
 	"strings"
 
 	"standout/dom"
+	"standout/perception"
+	"standout/perception/colour"
 )
 
 // ReportVersion is the version of the check --json document (see
@@ -32,18 +34,26 @@ type reportMark struct {
 	Size        float64    `json:"size"`
 	Text        string     `json:"text,omitempty"`
 	Label       string     `json:"label,omitempty"`
+	// Analysis (absent for legend swatches).
+	Verdict     string                  `json:"verdict,omitempty"`
+	Channels    []string                `json:"channels,omitempty"`
+	SearchSlope []float64               `json:"searchSlopeMsPerMark,omitempty"`
+	CVD         map[string]reportResult `json:"cvd,omitempty"`
 }
 
 type reportChart struct {
-	Path       string         `json:"path"`
-	IsChart    bool           `json:"isChart"`
-	Reason     string         `json:"reason,omitempty"`
-	Box        [4]float64     `json:"box"`
-	Background string         `json:"background"`
-	Marks      []reportMark   `json:"marks"`
-	Legend     []reportMark   `json:"legend"`
-	Furniture  map[string]int `json:"furniture"`
-	Problems   []string       `json:"problems"`
+	Path       string          `json:"path"`
+	IsChart    bool            `json:"isChart"`
+	Reason     string          `json:"reason,omitempty"`
+	Box        [4]float64      `json:"box"`
+	Background string          `json:"background"`
+	Marks      []reportMark    `json:"marks"`
+	Legend     []reportMark    `json:"legend"`
+	Furniture  map[string]int  `json:"furniture"`
+	Problems   []string        `json:"problems"`
+	Findings   []reportFinding `json:"findings"`
+	Groups     *reportGroups   `json:"groups,omitempty"`
+	Emphasis   *reportEmphasis `json:"emphasis,omitempty"`
 }
 
 type reportPage struct {
@@ -94,9 +104,18 @@ func paintAlpha(m dom.Mark) float64 {
 	return 1
 }
 
-// checkFile builds and walks every chart of one file.
-func checkFile(name string, r io.Reader) (reportPage, []*dom.Chart, error) {
-	page, err := dom.Build(r, dom.Options{Source: name})
+// checkOptions are the analysis settings of a check.
+type checkOptions struct {
+	selector string
+	ids      map[string]bool
+	params   perception.Params
+}
+
+var defaultCheck = checkOptions{params: perception.DefaultParams}
+
+// checkFile builds, walks and analyses every chart of one file.
+func checkFile(name string, r io.Reader, opt checkOptions) (reportPage, []*dom.Chart, error) {
+	page, err := dom.Build(r, dom.Options{Source: name, Select: opt.selector})
 	if err != nil {
 		return reportPage{}, nil, err
 	}
@@ -117,6 +136,11 @@ func checkFile(name string, r io.Reader) (reportPage, []*dom.Chart, error) {
 		for _, m := range ch.Legend {
 			rc.Legend = append(rc.Legend, toReportMark(m))
 		}
+		rc.Findings = []reportFinding{}
+		if ch.IsChart {
+			res := perception.Analyse(toPerception(ch, opt.ids), opt.params)
+			attachAnalysis(&rc, ch, res)
+		}
 		rp.Charts = append(rp.Charts, rc)
 	}
 	return rp, charts, nil
@@ -133,8 +157,13 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("check", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	asJSON := fs.Bool("json", false, "write the versioned JSON report")
+	emphasis := fs.String("emphasis", "", "the intended emphasis: mark ids (comma-separated) or a CSS selector")
+	severity := fs.Float64("cvd-severity", 1, "CVD severity within [0, 1] for the re-analysis")
+	distance := fs.Float64("distance-cm", colour.DefaultViewing.DistanceCM, "viewing distance in cm")
+	ppi := fs.Float64("px-per-inch", colour.DefaultViewing.CSSPxPerInch, "CSS px per physical inch")
+	failOn := fs.String("fail-on", "", "exit 1 when a finding reaches this severity: info, warning or error")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: standout check [--json] FILE…")
+		fmt.Fprintln(stderr, "usage: standout check [flags] FILE…")
 		fs.PrintDefaults()
 	}
 	if err := parseFlags(fs, args); err != nil {
@@ -144,6 +173,32 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		fs.Usage()
 		return 2
 	}
+	if !(*severity >= 0 && *severity <= 1) || !(*distance > 0) || !(*ppi > 0) {
+		fmt.Fprintln(stderr, "standout check: --cvd-severity must be within [0, 1]; --distance-cm and --px-per-inch must be positive")
+		return 2
+	}
+	failRank := -1
+	switch *failOn {
+	case "":
+	case "info", "warning", "error":
+		failRank = perception.Severity(*failOn).Rank()
+	default:
+		fmt.Fprintf(stderr, "standout check: --fail-on %q: want info, warning or error\n", *failOn)
+		return 2
+	}
+	opt := defaultCheck
+	opt.params.Severity = *severity
+	opt.params.ND.Viewing = colour.Viewing{DistanceCM: *distance, CSSPxPerInch: *ppi}
+	if e := strings.TrimSpace(*emphasis); e != "" {
+		if looksLikeIDs(e) {
+			opt.ids = map[string]bool{}
+			for _, id := range strings.Split(e, ",") {
+				opt.ids[strings.TrimSpace(id)] = true
+			}
+		} else {
+			opt.selector = e
+		}
+	}
 	rep := report{Schema: "standout-report", Version: ReportVersion, Caution: caution}
 	var all [][]*dom.Chart
 	for _, name := range fs.Args() {
@@ -152,7 +207,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 			fmt.Fprintf(stderr, "standout check: %v\n", err)
 			return 2
 		}
-		rp, charts, err := checkFile(name, f)
+		rp, charts, err := checkFile(name, f, opt)
 		f.Close()
 		if err != nil {
 			// No partial report: the run stops with the reason.
@@ -169,12 +224,29 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 			fmt.Fprintln(stderr, "standout check:", err)
 			return 2
 		}
-		return 0
+	} else {
+		for i, p := range rep.Pages {
+			writeMarksText(stdout, p, all[i])
+		}
 	}
-	for i, p := range rep.Pages {
-		writeMarksText(stdout, p, all[i])
+	if failRank >= 0 {
+		for _, p := range rep.Pages {
+			for _, c := range p.Charts {
+				for _, f := range c.Findings {
+					if perception.Severity(f.Severity).Rank() >= failRank {
+						return 1
+					}
+				}
+			}
+		}
 	}
 	return 0
+}
+
+// looksLikeIDs tells mark ids ("svg0/g1/rect2,svg0/g1/rect3") from a CSS
+// selector: ids are paths with slashes and no selector punctuation.
+func looksLikeIDs(s string) bool {
+	return strings.Contains(s, "/") && !strings.ContainsAny(s, "#.[]:> ")
 }
 
 // writeMarksText lists each chart with its marks grouped by kind, shape and
@@ -229,5 +301,24 @@ func writeMarksText(w io.Writer, p reportPage, charts []*dom.Chart) {
 		for _, pr := range c.Problems {
 			fmt.Fprintf(w, "    note: %s\n", pr)
 		}
+		if sum := verdictSummary(c); sum != "" {
+			fmt.Fprintf(w, "    at a glance: %s.\n", sum)
+		}
+		for _, f := range c.Findings {
+			fmt.Fprintf(w, "    [%s] %s\n", f.Severity, f.Message)
+			if f.Fix != nil {
+				state := "checked: the emphasis then pops out for every vision type"
+				if !f.Fix.Verified {
+					state = "not enough on its own: colour alone cannot make it pop for every reader"
+				}
+				what := "recolour the emphasis"
+				if f.Fix.Kind == "mute-others" {
+					what = "mute the other marks"
+				}
+				fmt.Fprintf(w, "        fix: %s with `%s` (%s)\n", what, f.Fix.CSS, state)
+			}
+		}
 	}
 }
+
+func fmtInt(n int) string { return fmt.Sprint(n) }

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"fmt"
 	"encoding/json"
 	"os"
 	"path/filepath"
@@ -109,7 +110,64 @@ func TestDemo(t *testing.T) {
 	code, out, errs := runCmd("demo")
 	require.Equal(t, 0, code, errs)
 	// The invented page holds a deutan collapse and a low-contrast series.
-	assert.Contains(t, out, "collapse for [deutan]")
-	assert.Contains(t, out, "below the 3:1")
+	assert.Contains(t, out, "For deutan readers #c0392b and #3f9b3a look the same")
+	assert.Contains(t, out, "need 3:1")
+	assert.Contains(t, out, "pops out at a glance")
 	assert.True(t, strings.Contains(out, "Caution:"))
+}
+
+func TestCheckAnalysis(t *testing.T) {
+	dir := t.TempDir()
+	page := filepath.Join(dir, "bars.html")
+	// Six grey bars and one orange: the orange pops out; named by a CSS
+	// selector it is the declared emphasis.
+	var b strings.Builder
+	b.WriteString(`<svg width="300" height="200"><g>`)
+	for i := 0; i < 7; i++ {
+		fill := "#595959"
+		cls := ""
+		if i == 3 {
+			fill, cls = "#e0611a", ` class="hero"`
+		}
+		b.WriteString(fmt.Sprintf(`<rect%s x="%d" y="%d" width="20" height="%d" fill="%s"/>`, cls, 10+i*30, 200-40-i*10, 40+i*10, fill))
+	}
+	b.WriteString(`</g></svg>`)
+	require.NoError(t, os.WriteFile(page, []byte(b.String()), 0o644))
+	code, out, errs := runCmd("check", "--json", "--emphasis", ".hero", page)
+	require.Equal(t, 0, code, errs)
+	var rep report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	c := rep.Pages[0].Charts[0]
+	require.Len(t, c.Marks, 7)
+	hero := c.Marks[3]
+	assert.Equal(t, "pops", hero.Verdict)
+	assert.Contains(t, hero.Channels, "hue")
+	for _, v := range []string{"protan", "deutan", "tritan", "achromat"} {
+		require.Contains(t, hero.CVD, v)
+	}
+	assert.Equal(t, "blends", c.Marks[0].Verdict)
+	require.NotNil(t, c.Emphasis)
+	assert.Equal(t, []string{hero.ID}, c.Emphasis.Marks)
+	assert.False(t, c.Emphasis.Inferred)
+	var ids []string
+	for _, f := range c.Findings {
+		ids = append(ids, f.ID)
+		assert.NotEmpty(t, f.Source)
+		assert.NotEmpty(t, f.Message)
+	}
+	assert.Contains(t, ids, "emphasis-pops")
+	// The same by mark id, and --fail-on.
+	code, out, _ = runCmd("check", "--json", "--emphasis", hero.ID, page)
+	require.Equal(t, 0, code)
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	assert.Equal(t, []string{hero.ID}, rep.Pages[0].Charts[0].Emphasis.Marks)
+	code, _, _ = runCmd("check", "--fail-on", "info", page)
+	assert.Equal(t, 1, code)
+	code, _, _ = runCmd("check", "--fail-on", "error", page)
+	assert.Equal(t, 0, code)
+	code, _, _ = runCmd("check", "--fail-on", "loud", page)
+	assert.Equal(t, 2, code)
+	code, _, errs = runCmd("check", "--emphasis", "[[[", page)
+	assert.Equal(t, 2, code)
+	assert.Contains(t, errs, "[[[")
 }

@@ -1,0 +1,229 @@
+package main
+
+import (
+	"math"
+	"strings"
+
+	"standout/dom"
+	"standout/perception"
+	"standout/perception/colour"
+)
+
+// toPerception converts a walked chart into the analysis input: each mark's
+// painted colour composited over the chart background, its size channel
+// and geometry.
+func toPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
+	bg := dom.Unpack(ch.Background).SRGB
+	in := perception.Input{Background: bg}
+	conv := func(m dom.Mark) perception.Mark {
+		pm := perception.Mark{ID: m.ID, Kind: string(m.Kind), Size: m.Size, Angle: m.Angle, Fold: m.Fold,
+			Shape: string(m.Shape), X: m.Centroid.X, Y: m.Centroid.Y}
+		filled := m.Fill != nil && m.FillOpacity > 0 && (m.Area > 0 || m.Kind == dom.KindText)
+		switch {
+		case filled:
+			pm.Colour = colour.Over(dom.Unpack(*m.Fill), m.FillOpacity*m.Opacity, bg)
+			if m.Stroke != nil && m.StrokeOpacity > 0 && m.StrokeWidth > 0 {
+				pm.Outline = colour.Over(dom.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
+				pm.HasOutline = true
+			}
+		case m.Stroke != nil:
+			pm.Colour = colour.Over(dom.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
+		default:
+			pm.Colour = bg
+		}
+		pm.MinPx, pm.MaxPx = math.Min(m.BBox[2], m.BBox[3]), math.Max(m.BBox[2], m.BBox[3])
+		switch m.Kind {
+		case dom.KindPoint:
+			pm.Type = colour.Point
+			if !filled {
+				pm.MinPx = math.Max(m.StrokeWidth, 0.5)
+				pm.Type = colour.Line
+			}
+		case dom.KindBar, dom.KindRule:
+			pm.Type, pm.Length = colour.Bar, true
+			if m.Kind == dom.KindRule {
+				pm.Type, pm.MinPx = colour.Line, math.Max(m.StrokeWidth, 0.5)
+			}
+		case dom.KindLine:
+			pm.Type, pm.MinPx = colour.Line, math.Max(m.StrokeWidth, 0.5)
+			for _, v := range m.Vertices {
+				pm.Vertices = append(pm.Vertices, [2]float64{v.X, v.Y})
+			}
+		case dom.KindText:
+			pm.Type, pm.MinPx = colour.Line, math.Max(m.Size/8, 0.5) // stroke weight of text, about an eighth of the size
+		default:
+			pm.Type = colour.Area
+		}
+		return pm
+	}
+	for i, m := range ch.Marks {
+		in.Marks = append(in.Marks, conv(m))
+		if emphasisIDs[m.ID] {
+			in.Emphasis = append(in.Emphasis, i)
+		}
+		if m.Kind == dom.KindText {
+			in.Labelled = true
+		}
+	}
+	in.Emphasis = append(in.Emphasis, ch.Selected...)
+	in.Emphasis = uniq(in.Emphasis)
+	for _, m := range ch.Legend {
+		in.Legend = append(in.Legend, conv(m))
+	}
+	return in
+}
+
+func uniq(v []int) []int {
+	seen := map[int]bool{}
+	var out []int
+	for _, x := range v {
+		if !seen[x] {
+			seen[x] = true
+			out = append(out, x)
+		}
+	}
+	return out
+}
+
+type reportResult struct {
+	Verdict  string    `json:"verdict"`
+	Channels []string  `json:"channels"`
+	SlopeMs  []float64 `json:"searchSlopeMsPerMark,omitempty"`
+}
+
+type reportFix struct {
+	Kind     string             `json:"kind"`
+	CSS      string             `json:"css"`
+	Margin   map[string]float64 `json:"marginND"`
+	Verified bool               `json:"verified"`
+}
+
+type reportFinding struct {
+	ID       string     `json:"id"`
+	Severity string     `json:"severity"`
+	Marks    []string   `json:"marks"`
+	Message  string     `json:"message"`
+	Source   string     `json:"source"`
+	Fix      *reportFix `json:"fix,omitempty"`
+}
+
+type reportPartition struct {
+	Cue    string `json:"cue"`
+	Groups int    `json:"groups"`
+}
+
+type reportAgreement struct {
+	A        string  `json:"a"`
+	B        string  `json:"b"`
+	ARI      float64 `json:"ari"`
+	Relation string  `json:"relation"`
+}
+
+type reportGroups struct {
+	Partitions []reportPartition `json:"partitions"`
+	Agreement  []reportAgreement `json:"agreement"`
+}
+
+type reportEmphasis struct {
+	Marks    []string        `json:"marks"`
+	Inferred bool            `json:"inferred"`
+	Holds    map[string]bool `json:"holds"`
+}
+
+func channelNames(cs []perception.Channel) []string {
+	out := []string{}
+	for _, c := range cs {
+		out = append(out, string(c))
+	}
+	return out
+}
+
+// attachAnalysis adds the analysis to a report chart.
+func attachAnalysis(rc *reportChart, ch *dom.Chart, res *perception.Result) {
+	for i := range rc.Marks {
+		r := res.Marks[i]
+		rc.Marks[i].Verdict = string(r[0].Verdict)
+		rc.Marks[i].Channels = channelNames(r[0].Channels)
+		rc.Marks[i].SearchSlope = []float64{r[0].SlopeMs[0], r[0].SlopeMs[1]}
+		rc.Marks[i].CVD = map[string]reportResult{}
+		for vi, v := range perception.Visions[1:] {
+			x := r[vi+1]
+			rc.Marks[i].CVD[v.String()] = reportResult{Verdict: string(x.Verdict), Channels: channelNames(x.Channels)}
+		}
+	}
+	ids := func(idx []int) []string {
+		out := []string{}
+		for _, i := range idx {
+			if i >= 0 && i < len(ch.Marks) {
+				out = append(out, ch.Marks[i].ID)
+			}
+		}
+		return out
+	}
+	rc.Findings = []reportFinding{}
+	for _, f := range res.Findings {
+		rf := reportFinding{ID: f.ID, Severity: string(f.Severity), Marks: ids(f.Marks), Message: f.Message, Source: f.Source}
+		if f.Fix != nil {
+			m := map[string]float64{}
+			for k, v := range f.Fix.Margin {
+				m[k] = math.Round(v*100) / 100
+			}
+			rf.Fix = &reportFix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Margin: m, Verified: f.Fix.Verified}
+		}
+		rc.Findings = append(rc.Findings, rf)
+	}
+	rc.Groups = &reportGroups{Partitions: []reportPartition{}, Agreement: []reportAgreement{}}
+	for _, p := range res.Groups.Partitions {
+		rc.Groups.Partitions = append(rc.Groups.Partitions, reportPartition{Cue: string(p.Cue), Groups: p.Groups})
+	}
+	for _, a := range res.Groups.Agreements {
+		rc.Groups.Agreement = append(rc.Groups.Agreement, reportAgreement{A: string(a.A), B: string(a.B), ARI: math.Round(a.ARI*1000) / 1000, Relation: a.Relation})
+	}
+	em := &reportEmphasis{Marks: ids(res.Emphasis), Inferred: res.Inferred, Holds: map[string]bool{}}
+	for vi, v := range perception.Visions {
+		em.Holds[v.String()] = res.Holds[vi]
+	}
+	rc.Emphasis = em
+}
+
+// verdictSummary says in one sentence how the marks fare.
+func verdictSummary(rc reportChart) string {
+	count := map[string]int{}
+	chans := map[string]int{}
+	for _, m := range rc.Marks {
+		count[m.Verdict]++
+		if m.Verdict == "pops" {
+			for _, c := range m.Channels {
+				chans[c]++
+			}
+		}
+	}
+	var parts []string
+	if n := count["pops"]; n > 0 {
+		var cs []string
+		for _, c := range perception.Channels {
+			if chans[string(c)] > 0 {
+				cs = append(cs, string(c))
+			}
+		}
+		parts = append(parts, plural(n, "mark pops out", "marks pop out")+" ("+strings.Join(cs, ", ")+")")
+	}
+	if n := count["conjunction"]; n > 0 {
+		parts = append(parts, plural(n, "mark needs a serial search for a conjunction", "marks need a serial search for a conjunction"))
+	}
+	if n := count["blends"]; n > 0 {
+		parts = append(parts, plural(n, "mark blends in", "marks blend in"))
+	}
+	return strings.Join(parts, "; ")
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return itoa(n) + " " + many
+}
+
+func itoa(n int) string {
+	return strings.TrimSpace(strings.Replace(fmtInt(n), " ", "", -1))
+}

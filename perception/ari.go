@@ -1,0 +1,47 @@
+package perception
+
+// AdjustedRandIndex compares two partitions of the same items given as
+// label slices (Hubert & Arabie 1985, "Comparing partitions", J.
+// Classification 2(1), 193–218):
+//
+//	ARI = [Σ_ij C(n_ij,2) − E] / [½(Σ_i C(a_i,2) + Σ_j C(b_j,2)) − E]
+//	E   = Σ_i C(a_i,2)·Σ_j C(b_j,2) / C(n,2)
+//
+// with n_ij the contingency table and a_i, b_j its margins. It is 1 for
+// identical partitions up to relabelling, about 0 for chance agreement,
+// and may be negative. When the denominator is 0 (both partitions trivial
+// in the same way, or n < 2) it returns 1, as scikit-learn does.
+func AdjustedRandIndex(a, b []int) float64 {
+	if len(a) != len(b) {
+		panic("perception: AdjustedRandIndex of partitions of different lengths")
+	}
+	n := len(a)
+	if n < 2 {
+		return 1
+	}
+	type pair struct{ x, y int }
+	nij := map[pair]int{}
+	ai, bj := map[int]int{}, map[int]int{}
+	for k := range a {
+		nij[pair{a[k], b[k]}]++
+		ai[a[k]]++
+		bj[b[k]]++
+	}
+	c2 := func(x int) float64 { return float64(x) * float64(x-1) / 2 }
+	var sij, sa, sb float64
+	for _, v := range nij {
+		sij += c2(v)
+	}
+	for _, v := range ai {
+		sa += c2(v)
+	}
+	for _, v := range bj {
+		sb += c2(v)
+	}
+	e := sa * sb / c2(n)
+	den := (sa+sb)/2 - e
+	if den == 0 {
+		return 1
+	}
+	return (sij - e) / den
+}

@@ -1,0 +1,335 @@
+package perception
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"standout/perception/colour"
+)
+
+// Severity ranks findings.
+type Severity string
+
+// Severities, lowest first.
+const (
+	Info    Severity = "info"
+	Warning Severity = "warning"
+	Error   Severity = "error"
+)
+
+// Rank orders severities: info 0, warning 1, error 2.
+func (s Severity) Rank() int {
+	switch s {
+	case Warning:
+		return 1
+	case Error:
+		return 2
+	}
+	return 0
+}
+
+// Finding is one statement about a chart.
+type Finding struct {
+	// ID is a stable kebab-case identifier of the rule.
+	ID       string
+	Severity Severity
+	Marks    []int
+	Message  string
+	// Source names the published finding or standard behind the rule.
+	Source string
+	Fix    *Fix
+}
+
+const (
+	srcSearch   = "Treisman & Gelade 1980; Nothdurft 1993; Duncan & Humphreys 1989"
+	srcCVD      = "Machado, Oliveira & Fernandes 2009"
+	srcContrast = "WCAG 2.x SC 1.4.11 Non-text Contrast"
+	srcText     = "WCAG 2.x SC 1.4.3 Contrast (Minimum)"
+	srcColour   = "WCAG 2.x SC 1.4.1 Use of Color"
+	srcHues     = "Ware, Information Visualization, ch. 4 (six distinct colours are easy)"
+	srcGroup    = "Palmer & Rock 1994; Kubovy, Holcombe & Wagemans 1998; Hubert & Arabie 1985"
+	srcND       = "Szafir 2018; Stone, Szafir & Setlur 2014"
+)
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
+}
+
+func visionNames(vs []colour.Deficiency) string {
+	var s []string
+	for _, v := range vs {
+		s = append(s, v.String())
+	}
+	return strings.Join(s, ", ")
+}
+
+func findings(in Input, p Params, res *Result) []Finding {
+	var out []Finding
+	out = append(out, emphasisFindings(in, p, res)...)
+	out = append(out, contrastFindings(in)...)
+	out = append(out, categoryFindings(in, p, res)...)
+	out = append(out, groupingFindings(res)...)
+	sort.SliceStable(out, func(a, b int) bool { return out[a].Severity.Rank() > out[b].Severity.Rank() })
+	return out
+}
+
+func emphasisFindings(in Input, p Params, res *Result) []Finding {
+	var out []Finding
+	em := res.Emphasis
+	if len(em) == 0 {
+		if res.Inferred && len(in.Marks) > 1 {
+			out = append(out, Finding{ID: "no-standout-mark", Severity: Info, Message: "No single mark or small group stands apart from the rest; if the chart means to emphasise something, nothing carries it at a glance.", Source: srcSearch})
+		}
+		return out
+	}
+	who := "The emphasised " + plural(len(em), "mark", "marks")
+	if res.Inferred {
+		who = "The " + plural(len(em), "mark that stands out", fmt.Sprintf("%d marks that stand out", len(em)))
+	}
+	normal := res.Holds[0]
+	if normal {
+		chans := res.Marks[em[0]][0].Channels
+		var cs []string
+		for _, c := range chans {
+			cs = append(cs, string(c))
+		}
+		slope := res.Marks[em[0]][0].SlopeMs
+		out = append(out, Finding{ID: "emphasis-pops", Severity: Info, Marks: em,
+			Message: fmt.Sprintf("%s %s out at a glance through %s (estimated search slope %g–%g ms per mark).", who, plural(len(em), "pops", "pop"), strings.Join(cs, " and "), slope[0], slope[1]),
+			Source:  srcSearch})
+		var lost []colour.Deficiency
+		for vi, v := range Visions[1:] {
+			if !res.Holds[vi+1] {
+				lost = append(lost, v)
+			}
+		}
+		if len(lost) > 0 {
+			f := Finding{ID: "emphasis-lost-cvd", Severity: Error, Marks: em,
+				Message: fmt.Sprintf("%s no longer %s out for %s readers (severity %.2g): the difference that carries it is one they do not see.", who, plural(len(em), "stands", "stand"), visionNames(lost), p.Severity),
+				Source:  srcCVD + "; " + srcSearch}
+			f.Fix = suggestFix(in, p, em)
+			out = append(out, f)
+		}
+		return out
+	}
+	v := res.Marks[em[0]][0]
+	best, bestS := Channel(""), 0.0
+	for c, s := range v.Salience {
+		if s > bestS {
+			best, bestS = c, s
+		}
+	}
+	why := "no feature channel separates it from the other marks"
+	if best != "" && bestS > 0 {
+		why = fmt.Sprintf("its strongest channel, %s, reaches only %.0f%% of what pop-out needs, given how similar the nearest other mark is and how much the others vary", best, 100*bestS)
+	}
+	id, sev, what := "emphasis-lost", Error, "does not stand out"
+	if v.Verdict == Conjunction {
+		id, sev, what = "emphasis-by-conjunction", Warning, "can be found only as a combination of features the other marks each have, which takes a slow, serial search"
+	}
+	f := Finding{ID: id, Severity: sev, Marks: em,
+		Message: fmt.Sprintf("%s %s: %s (estimated %g–%g ms per mark, %.1f–%.1f s for this chart).", who, what, why, v.SlopeMs[0], v.SlopeMs[1], v.SearchMs[0]/1000, v.SearchMs[1]/1000),
+		Source:  srcSearch}
+	f.Fix = suggestFix(in, p, em)
+	out = append(out, f)
+	return out
+}
+
+func contrastFindings(in Input) []Finding {
+	type agg struct {
+		marks []int
+		cr    float64
+		text  bool
+	}
+	low := map[string]*agg{}
+	var keys []string
+	for i, m := range in.Marks {
+		if m.Kind == "cell" {
+			continue // heat maps fall under the "essential" exception of SC 1.4.11
+		}
+		cr := colour.ContrastRatio(m.Colour, in.Background)
+		if m.HasOutline {
+			cr = math.Max(cr, colour.ContrastRatio(m.Outline, in.Background))
+		}
+		need := colour.NonTextContrast
+		if m.Kind == "text" {
+			need = colour.TextContrast
+		}
+		if cr >= need {
+			continue
+		}
+		h := m.Colour.Hex()
+		a, ok := low[h]
+		if !ok {
+			a = &agg{cr: cr, text: m.Kind == "text"}
+			low[h] = a
+			keys = append(keys, h)
+		}
+		a.marks = append(a.marks, i)
+	}
+	var out []Finding
+	for _, h := range keys {
+		a := low[h]
+		if a.text {
+			out = append(out, Finding{ID: "text-contrast-low", Severity: Warning, Marks: a.marks,
+				Message: fmt.Sprintf("%d text %s in %s %s %.2f:1 against the background; text needs 4.5:1.", len(a.marks), plural(len(a.marks), "mark", "marks"), h, plural(len(a.marks), "has", "have"), math.Floor(a.cr*100)/100),
+				Source:  srcText})
+			continue
+		}
+		out = append(out, Finding{ID: "mark-contrast-low", Severity: Error, Marks: a.marks,
+			Message: fmt.Sprintf("%d %s in %s %s only %.2f:1 against the background; graphics needed to understand a chart need 3:1.", len(a.marks), plural(len(a.marks), "mark", "marks"), h, plural(len(a.marks), "has", "have"), math.Floor(a.cr*100)/100),
+			Source:  srcContrast})
+	}
+	return out
+}
+
+// categoryFindings checks the categorical colours: how many, whether they
+// are the only cue, and which merge for readers with CVD.
+func categoryFindings(in Input, p Params, res *Result) []Finding {
+	var out []Finding
+	type col struct {
+		c     colour.SRGB
+		marks []int
+		nd    [3]float64
+	}
+	byHex := map[colour.SRGB]*col{}
+	var cols []*col
+	shapes := map[string]bool{}
+	for i, m := range in.Marks {
+		if m.Kind == "text" {
+			continue
+		}
+		shapes[m.Shape] = true
+		c, ok := byHex[m.Colour]
+		if !ok {
+			c = &col{c: m.Colour, nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)}
+			byHex[m.Colour] = c
+			cols = append(cols, c)
+		}
+		c.marks = append(c.marks, i)
+	}
+	if len(cols) < 2 || len(cols) > 20 {
+		return out // one colour, or a continuous ramp
+	}
+	// Noticeably different categories for normal vision.
+	distinct := 0
+	for a := range cols {
+		alone := true
+		for b := 0; b < a; b++ {
+			if !colour.Noticeable(colour.SRGBToLab(cols[a].c), colour.SRGBToLab(cols[b].c), cols[a].nd) {
+				alone = false
+			}
+		}
+		if alone {
+			distinct++
+		}
+	}
+	if distinct > p.MaxHues {
+		out = append(out, Finding{ID: "too-many-hues", Severity: Warning,
+			Message: fmt.Sprintf("The chart uses %d distinguishable colours as categories; beyond %d they are hard to tell apart and to match to a legend.", distinct, p.MaxHues),
+			Source:  srcHues})
+	}
+	if distinct >= 2 && len(shapes) == 1 && !in.Labelled {
+		// SC 1.4.1: colour alone, unless the colours also differ by 3:1.
+		lumOK := true
+		for a := range cols {
+			for b := a + 1; b < len(cols); b++ {
+				if colour.ContrastRatio(cols[a].c, cols[b].c) < 3 {
+					lumOK = false
+				}
+			}
+		}
+		if !lumOK {
+			out = append(out, Finding{ID: "colour-only-categories", Severity: Warning,
+				Message: "Categories differ by colour alone: no shape, pattern or direct label repeats the distinction, and the colours do not differ by 3:1 in luminance.",
+				Source:  srcColour})
+		}
+	}
+	for vi, v := range Visions[1:] {
+		var pairs []string
+		var marks []int
+		for a := range cols {
+			for b := a + 1; b < len(cols); b++ {
+				la, lb := colour.SRGBToLab(cols[a].c), colour.SRGBToLab(cols[b].c)
+				nd := cols[a].nd
+				if !colour.Noticeable(la, lb, nd) {
+					continue
+				}
+				sa := colour.SRGBToLab(colour.Simulate(v, p.Severity, cols[a].c))
+				sb := colour.SRGBToLab(colour.Simulate(v, p.Severity, cols[b].c))
+				if !colour.Noticeable(sa, sb, nd) {
+					pairs = append(pairs, cols[a].c.Hex()+" and "+cols[b].c.Hex())
+					marks = append(marks, cols[a].marks...)
+					marks = append(marks, cols[b].marks...)
+				}
+			}
+		}
+		_ = vi
+		if len(pairs) > 0 {
+			out = append(out, Finding{ID: "categories-merge-cvd", Severity: Warning, Marks: dedupe(marks),
+				Message: fmt.Sprintf("For %s readers %s look the same at this mark size.", v, strings.Join(pairs, "; ")),
+				Source:  srcCVD + "; " + srcND})
+		}
+	}
+	// Legend entries.
+	for _, v := range Visions {
+		var pairs []string
+		for a := range in.Legend {
+			for b := a + 1; b < len(in.Legend); b++ {
+				ma, mb := in.Legend[a], in.Legend[b]
+				nd := p.ND.For(ma.Type, ma.MinPx, ma.MaxPx)
+				sa := colour.SRGBToLab(colour.Simulate(v, p.Severity, ma.Colour))
+				sb := colour.SRGBToLab(colour.Simulate(v, p.Severity, mb.Colour))
+				if ma.Colour != mb.Colour && ma.Shape == mb.Shape && !colour.Noticeable(sa, sb, nd) {
+					pairs = append(pairs, ma.Colour.Hex()+" and "+mb.Colour.Hex())
+				}
+			}
+		}
+		if len(pairs) > 0 {
+			out = append(out, Finding{ID: "legend-entries-merge", Severity: Warning,
+				Message: fmt.Sprintf("For %s readers the legend swatches %s cannot be told apart.", v, strings.Join(pairs, "; ")),
+				Source:  srcCVD + "; " + srcND})
+		}
+	}
+	return out
+}
+
+func groupingFindings(res *Result) []Finding {
+	var out []Finding
+	important := map[[2]Cue]bool{
+		{CueProximity, CueColour}: true, {CueColour, CueConnected}: true, {CueProximity, CueConnected}: true,
+		{CueColour, CueShape}: true, {CueProximity, CueShape}: true,
+	}
+	for _, a := range res.Groups.Agreements {
+		if !important[[2]Cue{a.A, a.B}] {
+			continue
+		}
+		switch a.Relation {
+		case "conflict":
+			out = append(out, Finding{ID: "grouping-conflict", Severity: Warning,
+				Message: fmt.Sprintf("Grouping by %s and grouping by %s carve the marks differently (adjusted Rand index %.2f): readers see two competing structures.", a.A, a.B, a.ARI),
+				Source:  srcGroup})
+		case "agree":
+			out = append(out, Finding{ID: "grouping-agrees", Severity: Info,
+				Message: fmt.Sprintf("Grouping by %s and by %s agree (adjusted Rand index %.2f).", a.A, a.B, a.ARI),
+				Source:  srcGroup})
+		}
+	}
+	return out
+}
+
+func dedupe(v []int) []int {
+	sort.Ints(v)
+	out := v[:0]
+	for i, x := range v {
+		if i == 0 || x != v[i-1] {
+			out = append(out, x)
+		}
+	}
+	return out
+}

@@ -1,0 +1,188 @@
+package perception
+
+import (
+	"math"
+
+	"standout/perception/colour"
+)
+
+// Fix is a suggested change for a failed emphasis.
+type Fix struct {
+	// Kind is "recolour-emphasis" or "mute-others".
+	Kind string
+	// CSS is a ready-to-paste declaration, e.g. "fill: #1a5fb4".
+	CSS string
+	// Colour is the suggested colour.
+	Colour colour.SRGB
+	// Margin is, per vision type, the smallest noticeable-difference
+	// distance (in units of ND) between the emphasis and any other mark
+	// after the change.
+	Margin map[string]float64
+	// Verified is true when the analysis, re-run with the change, finds
+	// the emphasis popping out for every vision type.
+	Verified bool
+}
+
+// suggestFix searches the sRGB gamut on a CIELAB grid for the emphasis
+// colour that maximises the worst-case noticeable difference from the
+// other marks across normal vision and every CVD type, keeping at least
+// 3:1 against the background (WCAG SC 1.4.11). It also tries muting the
+// other marks to one grey; the better of the two that verifies is
+// returned.
+func suggestFix(in Input, p Params, em []int) *Fix {
+	if len(em) == 0 {
+		return nil
+	}
+	kind := in.Marks[em[0]].Kind
+	isEm := map[int]bool{}
+	for _, i := range em {
+		isEm[i] = true
+	}
+	var others []colour.SRGB
+	seen := map[colour.SRGB]bool{}
+	for i, m := range in.Marks {
+		if m.Kind == kind && !isEm[i] && !seen[m.Colour] {
+			seen[m.Colour] = true
+			others = append(others, m.Colour)
+		}
+	}
+	if len(others) == 0 {
+		return nil
+	}
+	t := in.Marks[em[0]]
+	nd := p.ND.For(t.Type, t.MinPx, t.MaxPx)
+	sim := func(v colour.Deficiency, c colour.SRGB) colour.Lab {
+		return colour.SRGBToLab(colour.Simulate(v, p.Severity, c))
+	}
+	simOthers := make([][]colour.Lab, len(Visions))
+	for vi, v := range Visions {
+		for _, o := range others {
+			simOthers[vi] = append(simOthers[vi], sim(v, o))
+		}
+	}
+	worst := func(c colour.SRGB) (float64, map[string]float64) {
+		w := math.Inf(1)
+		m := map[string]float64{}
+		for vi, v := range Visions {
+			sc := sim(v, c)
+			mv := math.Inf(1)
+			for _, o := range simOthers[vi] {
+				mv = math.Min(mv, colour.NDUnits(sc, o, nd))
+			}
+			m[v.String()] = mv
+			w = math.Min(w, mv)
+		}
+		return w, m
+	}
+	var best colour.SRGB
+	bestW := -1.0
+	for L := 20.0; L <= 90; L += 5 {
+		for a := -96.0; a <= 96; a += 8 {
+			for b := -96.0; b <= 96; b += 8 {
+				c := colour.LabToSRGB(colour.Lab{L: L, A: a, B: b})
+				if !c.InGamut() {
+					continue
+				}
+				c = c.Clamped()
+				if colour.ContrastRatio(c, in.Background) < colour.NonTextContrast {
+					continue
+				}
+				if w, _ := worst(c); w > bestW {
+					best, bestW = c, w
+				}
+			}
+		}
+	}
+	var fixes []*Fix
+	if bestW > 0 {
+		c := quantise(best)
+		_, m := worst(c)
+		f := &Fix{Kind: "recolour-emphasis", CSS: "fill: " + c.Hex(), Colour: c, Margin: m}
+		f.Verified = verify(in, p, em, func(i int, mk *Mark) {
+			if isEm[i] {
+				mk.Colour = c
+			}
+		})
+		fixes = append(fixes, f)
+	}
+	// Muting: the other marks become one grey that still meets 3:1.
+	tc := t.Colour
+	var bestG colour.SRGB
+	bestGW := -1.0
+	for L := 10.0; L <= 95; L += 2.5 {
+		g := colour.LabToSRGB(colour.Lab{L: L}).Clamped()
+		if colour.ContrastRatio(g, in.Background) < colour.NonTextContrast {
+			continue
+		}
+		w := math.Inf(1)
+		for _, v := range Visions {
+			w = math.Min(w, colour.NDUnits(sim(v, tc), sim(v, g), nd))
+		}
+		if w > bestGW {
+			bestG, bestGW = g, w
+		}
+	}
+	if bestGW > 0 {
+		g := quantise(bestG)
+		m := map[string]float64{}
+		for _, v := range Visions {
+			m[v.String()] = colour.NDUnits(sim(v, tc), sim(v, g), nd)
+		}
+		f := &Fix{Kind: "mute-others", CSS: "fill: " + g.Hex(), Colour: g, Margin: m}
+		f.Verified = verify(in, p, em, func(i int, mk *Mark) {
+			if !isEm[i] && mk.Kind == kind {
+				mk.Colour = g
+			}
+		})
+		fixes = append(fixes, f)
+	}
+	var pick *Fix
+	for _, f := range fixes {
+		if pick == nil || f.Verified && !pick.Verified || f.Verified == pick.Verified && minMargin(f) > minMargin(pick) {
+			pick = f
+		}
+	}
+	return pick
+}
+
+func minMargin(f *Fix) float64 {
+	m := math.Inf(1)
+	for _, v := range f.Margin {
+		m = math.Min(m, v)
+	}
+	return m
+}
+
+// quantise rounds a colour to 8 bits, as CSS will.
+func quantise(c colour.SRGB) colour.SRGB {
+	r, g, b := c.RGB8()
+	return colour.SRGB8(r, g, b)
+}
+
+// verify re-runs salience with a change applied and reports whether every
+// emphasised mark pops for every vision type.
+func verify(in Input, p Params, em []int, change func(int, *Mark)) bool {
+	marks := append([]Mark(nil), in.Marks...)
+	for i := range marks {
+		change(i, &marks[i])
+	}
+	kind := in.Marks[em[0]].Kind
+	var idx []int
+	pos := map[int]int{}
+	for i, m := range marks {
+		if m.Kind == kind {
+			pos[i] = len(idx)
+			idx = append(idx, i)
+		}
+	}
+	for _, v := range Visions {
+		d := newDisplay(&p, marks, idx, v, p.Severity)
+		r := d.judge()
+		for _, i := range em {
+			if r[pos[i]].Verdict != Pops {
+				return false
+			}
+		}
+	}
+	return true
+}

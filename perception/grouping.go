@@ -1,0 +1,253 @@
+package perception
+
+import (
+	"math"
+	"sort"
+
+	"standout/perception/colour"
+)
+
+// Cue names a grouping cue.
+type Cue string
+
+// Grouping cues.
+const (
+	CueProximity Cue = "proximity"
+	CueColour    Cue = "colour"
+	CueShape     Cue = "shape"
+	CueConnected Cue = "connectedness"
+	CueRows      Cue = "rows"
+	CueColumns   Cue = "columns"
+)
+
+// Partition is one cue's grouping of the point-like marks.
+type Partition struct {
+	Cue    Cue
+	Labels []int // per analysed mark, a group number
+	Groups int
+}
+
+// Agreement compares two partitions.
+type Agreement struct {
+	A, B Cue
+	ARI  float64
+	// Relation is "agree", "conflict" or "partial".
+	Relation string
+}
+
+// Grouping is the partitions of the marks by each cue and their pairwise
+// agreement. Marks lists the indices of the marks that were grouped
+// (discrete marks; lines are the connectors).
+type Grouping struct {
+	Marks      []int
+	Partitions []Partition
+	Agreements []Agreement
+}
+
+type unionFind []int
+
+func newUF(n int) unionFind {
+	u := make(unionFind, n)
+	for i := range u {
+		u[i] = i
+	}
+	return u
+}
+
+func (u unionFind) find(i int) int {
+	for u[i] != i {
+		u[i] = u[u[i]]
+		i = u[i]
+	}
+	return i
+}
+
+func (u unionFind) union(a, b int) { u[u.find(a)] = u.find(b) }
+
+func (u unionFind) labels() ([]int, int) {
+	ids := map[int]int{}
+	out := make([]int, len(u))
+	for i := range u {
+		r := u.find(i)
+		if _, ok := ids[r]; !ok {
+			ids[r] = len(ids)
+		}
+		out[i] = ids[r]
+	}
+	return out, len(ids)
+}
+
+func group(in Input, p Params) Grouping {
+	var g Grouping
+	var lines []Mark
+	for i, m := range in.Marks {
+		if len(m.Vertices) >= 2 {
+			lines = append(lines, m)
+			continue
+		}
+		if m.Kind == "text" {
+			continue
+		}
+		g.Marks = append(g.Marks, i)
+	}
+	n := len(g.Marks)
+	if n < 3 {
+		return g
+	}
+	xs, ys := make([]float64, n), make([]float64, n)
+	for k, i := range g.Marks {
+		xs[k], ys[k] = in.Marks[i].X, in.Marks[i].Y
+	}
+	grd := newGrid(xs, ys)
+
+	// Proximity: single linkage at ProximityRatio × median nearest-neighbour
+	// distance.
+	nn := make([]float64, n)
+	for k := range g.Marks {
+		if j := grd.knn(k, 1); len(j) == 1 {
+			nn[k] = math.Hypot(xs[j[0]]-xs[k], ys[j[0]]-ys[k])
+		}
+	}
+	sorted := append([]float64(nil), nn...)
+	sort.Float64s(sorted)
+	thr := p.ProximityRatio * sorted[n/2]
+	uf := newUF(n)
+	if thr > 0 {
+		for k := range g.Marks {
+			for _, j := range grd.within(xs[k], ys[k], thr) {
+				if j != k {
+					uf.union(k, j)
+				}
+			}
+		}
+	}
+	g.add(CueProximity, uf)
+
+	// Colour similarity: marks whose colours are not noticeably different
+	// (at the smaller mark's size) fall together.
+	type cbin struct {
+		c   colour.SRGB
+		lab colour.Lab
+		nd  [3]float64
+		ks  []int
+	}
+	bins := map[colour.SRGB]*cbin{}
+	var order []*cbin
+	for k, i := range g.Marks {
+		m := in.Marks[i]
+		b, ok := bins[m.Colour]
+		if !ok {
+			b = &cbin{c: m.Colour, lab: colour.SRGBToLab(m.Colour), nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)}
+			bins[m.Colour] = b
+			order = append(order, b)
+		}
+		b.ks = append(b.ks, k)
+	}
+	uf = newUF(n)
+	if len(order) <= 2048 {
+		for a := range order {
+			for _, k := range order[a].ks[1:] {
+				uf.union(order[a].ks[0], k)
+			}
+			for b := a + 1; b < len(order); b++ {
+				nd := order[a].nd
+				if !colour.Noticeable(order[a].lab, order[b].lab, nd) {
+					uf.union(order[a].ks[0], order[b].ks[0])
+				}
+			}
+		}
+	}
+	g.add(CueColour, uf)
+
+	// Shape class.
+	uf = newUF(n)
+	first := map[string]int{}
+	for k, i := range g.Marks {
+		s := in.Marks[i].Shape
+		if f, ok := first[s]; ok {
+			uf.union(f, k)
+		} else {
+			first[s] = k
+		}
+	}
+	g.add(CueShape, uf)
+
+	// Connectedness: marks whose centres lie on the same line.
+	if len(lines) > 0 {
+		uf = newUF(n)
+		for _, l := range lines {
+			tol := l.MinPx/2 + p.ConnectTolerancePx
+			prev := -1
+			for s := 0; s+1 < len(l.Vertices); s++ {
+				a, b := l.Vertices[s], l.Vertices[s+1]
+				cx, cy := (a[0]+b[0])/2, (a[1]+b[1])/2
+				r := math.Hypot(b[0]-a[0], b[1]-a[1])/2 + tol
+				for _, k := range grd.within(cx, cy, r) {
+					if segDist(xs[k], ys[k], a, b) <= tol {
+						if prev >= 0 {
+							uf.union(prev, k)
+						}
+						prev = k
+					}
+				}
+			}
+		}
+		g.add(CueConnected, uf)
+	}
+
+	// Alignment: shared rows and columns (centres within 1 px).
+	for _, cue := range []Cue{CueRows, CueColumns} {
+		uf = newUF(n)
+		idx := make([]int, n)
+		for k := range idx {
+			idx[k] = k
+		}
+		coord := ys
+		if cue == CueColumns {
+			coord = xs
+		}
+		sort.Slice(idx, func(a, b int) bool { return coord[idx[a]] < coord[idx[b]] })
+		for a := 1; a < n; a++ {
+			if coord[idx[a]]-coord[idx[a-1]] <= 1 {
+				uf.union(idx[a], idx[a-1])
+			}
+		}
+		g.add(cue, uf)
+	}
+
+	for a := 0; a < len(g.Partitions); a++ {
+		for b := a + 1; b < len(g.Partitions); b++ {
+			pa, pb := g.Partitions[a], g.Partitions[b]
+			ari := AdjustedRandIndex(pa.Labels, pb.Labels)
+			rel := "partial"
+			switch {
+			case ari >= p.AgreeARI:
+				rel = "agree"
+			case ari <= p.ConflictARI:
+				rel = "conflict"
+			}
+			g.Agreements = append(g.Agreements, Agreement{A: pa.Cue, B: pb.Cue, ARI: ari, Relation: rel})
+		}
+	}
+	return g
+}
+
+// add keeps a partition only when it structures the marks: more than one
+// group, and some group with more than one mark.
+func (g *Grouping) add(c Cue, uf unionFind) {
+	labels, k := uf.labels()
+	if k <= 1 || k >= len(labels) {
+		return
+	}
+	g.Partitions = append(g.Partitions, Partition{Cue: c, Labels: labels, Groups: k})
+}
+
+func segDist(x, y float64, a, b [2]float64) float64 {
+	dx, dy := b[0]-a[0], b[1]-a[1]
+	l2 := dx*dx + dy*dy
+	t := 0.0
+	if l2 > 0 {
+		t = math.Max(0, math.Min(1, ((x-a[0])*dx+(y-a[1])*dy)/l2))
+	}
+	return math.Hypot(x-(a[0]+t*dx), y-(a[1]+t*dy))
+}

@@ -1,0 +1,51 @@
+package perception
+
+import "standout/perception/colour"
+
+// Mark is one data mark as the analysis sees it. Coordinates are page CSS
+// px.
+type Mark struct {
+	ID string
+	// Kind groups marks that are compared with each other ("point",
+	// "bar", …); marks of different kinds are separate displays.
+	Kind string
+	// Type selects the noticeable-difference fit for the mark's colour.
+	Type colour.MarkType
+	// Colour is the colour the reader sees: the paint composited with its
+	// opacity over the background.
+	Colour colour.SRGB
+	// Outline, when HasOutline, is a stroke drawn around a filled mark,
+	// composited likewise; it counts for contrast against the background.
+	Outline    colour.SRGB
+	HasOutline bool
+	// Size is the size channel's value: area (px²) for points, cells,
+	// arcs and areas; length (px) for bars and rules; stroke width for
+	// lines. Length tells which Stevens exponent applies.
+	Size   float64
+	Length bool
+	// MinPx and MaxPx are the smallest and largest dimensions (MinPx is
+	// the stroke width for lines), for the noticeable-difference model.
+	MinPx, MaxPx float64
+	// Angle is the orientation in degrees modulo 360/Fold; Fold 0 means no
+	// orientation (a circle).
+	Angle float64
+	Fold  int
+	Shape string
+	X, Y  float64
+	// Vertices of a line or path mark, for connectedness.
+	Vertices [][2]float64
+}
+
+// Input is one chart to analyse.
+type Input struct {
+	Marks      []Mark
+	Background colour.SRGB
+	// Legend holds legend swatches, checked for distinguishability.
+	Legend []Mark
+	// Emphasis lists indices into Marks that the chart means to emphasise.
+	// Empty means: infer candidates.
+	Emphasis []int
+	// Labelled is true when the chart labels its marks directly (text
+	// marks beside the data), which makes colour not the only cue.
+	Labelled bool
+}

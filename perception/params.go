@@ -1,0 +1,101 @@
+package perception
+
+import "standout/perception/colour"
+
+// Params holds every threshold of the model. Defaults are in
+// DefaultParams; each says where its value comes from.
+type Params struct {
+	// ND is the size-dependent noticeable-difference model for colour
+	// (Szafir 2018; Stone, Szafir & Setlur 2014), with viewing distance and
+	// pixel density.
+	ND colour.NDModel
+	// Severity is the CVD severity for the re-analysis, within [0, 1].
+	Severity float64
+
+	// OrientationStepDeg is one step of orientation difference. 15° is the
+	// lower edge of the "uncertain" band derived in REFERENCES §5.2 from
+	// Gabor search (±15° serial, ±60° parallel).
+	OrientationStepDeg float64
+	// SizeStepRatio is one step of perceived-magnitude ratio. Provisional:
+	// no published Weber fraction for size pop-out was found (REFERENCES
+	// §5.3, §10); 1.25 is a design choice.
+	SizeStepRatio float64
+	// StevensArea and StevensLength convert area and length to perceived
+	// magnitude, ψ = φ^a (Stevens 1975, SECONDARY: 0.7 for visual area,
+	// 1.0 for length).
+	StevensArea, StevensLength float64
+
+	// Margins: a channel carries a pop-out when its contrast, in steps,
+	// reaches the margin after allowing for distractor spread.
+	//
+	// ColourMargin and LightnessMargin are provisional design choices:
+	// three noticeable differences (Duncan 1989 says only that targets
+	// and non-targets must be "sufficiently dissimilar").
+	ColourMargin, LightnessMargin float64
+	// OrientationMargin: 2 steps = 30°, "pop-out-capable with homogeneous
+	// distractors" (REFERENCES §5.2, DERIVED band).
+	OrientationMargin float64
+	// SizeMargin: 2 steps, a perceived ratio of about 1.56 (provisional).
+	SizeMargin float64
+	// ShapeMargin: one class of difference. Shape is only a "probable"
+	// guiding attribute (Wolfe & Horowitz 2017, SECONDARY), so it pops
+	// only among homogeneous distractors.
+	ShapeMargin float64
+
+	// SmallGroupFraction and SmallGroupMin bound the size of a target
+	// group: marks that share a feature value with at most
+	// max(SmallGroupMin, SmallGroupFraction·n) marks are candidate
+	// emphasis, the rest are distractors. Provisional.
+	SmallGroupFraction float64
+	SmallGroupMin      int
+	// Neighbours is how many nearest marks form the local surround
+	// (Nothdurft 1993: local feature contrast). Provisional.
+	Neighbours int
+
+	// ProximityRatio is the single-linkage threshold as a multiple of the
+	// median nearest-neighbour distance: an engineering convention, not
+	// published (REFERENCES §7.2, after Kubovy et al. 1998's ratio law).
+	ProximityRatio float64
+	// ConnectTolerancePx is how far a mark centre may sit from a line and
+	// still count as on it, beyond half the line's stroke width.
+	ConnectTolerancePx float64
+	// ConflictARI and AgreeARI classify the Adjusted Rand Index between two
+	// cue partitions. Provisional.
+	ConflictARI, AgreeARI float64
+
+	// EfficientSlope and SerialSlope are search-slope ranges in ms per
+	// item: efficient search "~10 ms/item or less", serial "often around
+	// 25 ms/item or longer" (REFERENCES §5.1); 20–50 ms/item for
+	// target-present inefficient search (REFERENCES §5.6, DERIVED).
+	EfficientSlope, SerialSlope [2]float64
+
+	// MaxHues is the number of categorical colours above which categories
+	// get hard to tell apart: Ware's "easy to select six distinct colors"
+	// (REFERENCES §8, EXACT publisher summary).
+	MaxHues int
+}
+
+// DefaultParams are the documented defaults.
+var DefaultParams = Params{
+	ND:                 colour.DefaultND,
+	Severity:           1,
+	OrientationStepDeg: 15,
+	SizeStepRatio:      1.25,
+	StevensArea:        0.7,
+	StevensLength:      1.0,
+	ColourMargin:       3,
+	LightnessMargin:    3,
+	OrientationMargin:  2,
+	SizeMargin:         2,
+	ShapeMargin:        1,
+	SmallGroupFraction: 0.1,
+	SmallGroupMin:      3,
+	Neighbours:         8,
+	ProximityRatio:     2,
+	ConnectTolerancePx: 1.5,
+	ConflictARI:        0.2,
+	AgreeARI:           0.8,
+	EfficientSlope:     [2]float64{0, 10},
+	SerialSlope:        [2]float64{20, 50},
+	MaxHues:            6,
+}

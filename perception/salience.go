@@ -1,0 +1,384 @@
+package perception
+
+import (
+	"math"
+	"sort"
+
+	"standout/perception/colour"
+)
+
+// Channel names a feature channel.
+type Channel string
+
+// The channels, in report order.
+const (
+	Hue         Channel = "hue"
+	Lightness   Channel = "lightness"
+	Size        Channel = "size"
+	Orientation Channel = "orientation"
+	Shape       Channel = "shape"
+)
+
+// Channels lists every channel.
+var Channels = []Channel{Hue, Lightness, Size, Orientation, Shape}
+
+// Verdict is the prediction for one mark.
+type Verdict string
+
+// Verdicts.
+const (
+	Pops        Verdict = "pops"
+	Conjunction Verdict = "conjunction"
+	Blends      Verdict = "blends"
+)
+
+// MarkResult is the prediction for one mark under one vision type.
+type MarkResult struct {
+	Verdict Verdict
+	// Channels carry the pop-out, strongest first.
+	Channels []Channel
+	// Salience per channel: contrast over the pop-out margin, allowing for
+	// distractor spread; 1 is the threshold.
+	Salience map[Channel]float64
+	// SlopeMs and SearchMs are estimates: the search slope (ms per item)
+	// and the added search time for this display (slope × number of
+	// marks), from published slope conventions, not measurements.
+	SlopeMs  [2]float64
+	SearchMs [2]float64
+}
+
+// display is one group of comparable marks (one kind) under one vision.
+type display struct {
+	p     *Params
+	marks []Mark
+	idx   []int // indices into the Input's marks
+	lab   []colour.Lab
+	nd    [][3]float64
+	size  []float64 // size in steps (log perceived magnitude / log step)
+	ori   []float64 // orientation in steps
+	oriP  float64   // circular period in steps; 0 = no orientation channel
+	small int
+}
+
+func newDisplay(p *Params, all []Mark, idx []int, v colour.Deficiency, severity float64) *display {
+	d := &display{p: p, idx: idx}
+	n := len(idx)
+	d.marks = make([]Mark, n)
+	d.lab = make([]colour.Lab, n)
+	d.nd = make([][3]float64, n)
+	d.size = make([]float64, n)
+	d.ori = make([]float64, n)
+	labCache := map[colour.SRGB]colour.Lab{}
+	ndCache := map[[3]float64][3]float64{}
+	fold := -1
+	for k, i := range idx {
+		m := all[i]
+		d.marks[k] = m
+		l, ok := labCache[m.Colour]
+		if !ok {
+			l = colour.SRGBToLab(colour.Simulate(v, severity, m.Colour))
+			labCache[m.Colour] = l
+		}
+		d.lab[k] = l
+		key := [3]float64{float64(m.Type), math.Round(m.MinPx*4) / 4, math.Round(m.MaxPx)}
+		nd, ok := ndCache[key]
+		if !ok {
+			nd = p.ND.For(m.Type, key[1], key[2])
+			ndCache[key] = nd
+		}
+		d.nd[k] = nd
+		exp := p.StevensArea
+		if m.Length {
+			exp = p.StevensLength
+		}
+		d.size[k] = exp * math.Log(math.Max(m.Size, 1e-9)) / math.Log(p.SizeStepRatio)
+		if fold == -1 {
+			fold = m.Fold
+		} else if fold != m.Fold {
+			fold = 0
+		}
+		d.ori[k] = m.Angle / p.OrientationStepDeg
+	}
+	if fold > 0 {
+		d.oriP = 360 / float64(fold) / p.OrientationStepDeg
+	}
+	d.small = int(math.Max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n))))
+	return d
+}
+
+// dist is the distance between marks a and b in channel c, in steps, using
+// a's noticeable differences (the target's size governs).
+func (d *display) dist(c Channel, a, b int) float64 {
+	switch c {
+	case Hue:
+		nd := d.nd[a]
+		return math.Hypot((d.lab[a].A-d.lab[b].A)/nd[1], (d.lab[a].B-d.lab[b].B)/nd[2])
+	case Lightness:
+		return math.Abs(d.lab[a].L-d.lab[b].L) / d.nd[a][0]
+	case Size:
+		return math.Abs(d.size[a] - d.size[b])
+	case Orientation:
+		if d.oriP == 0 {
+			return 0
+		}
+		x := math.Mod(math.Abs(d.ori[a]-d.ori[b]), d.oriP)
+		return math.Min(x, d.oriP-x)
+	case Shape:
+		if d.marks[a].Shape != d.marks[b].Shape {
+			return 1
+		}
+	}
+	return 0
+}
+
+func (d *display) margin(c Channel) float64 {
+	switch c {
+	case Hue:
+		return d.p.ColourMargin
+	case Lightness:
+		return d.p.LightnessMargin
+	case Size:
+		return d.p.SizeMargin
+	case Orientation:
+		return d.p.OrientationMargin
+	}
+	return d.p.ShapeMargin
+}
+
+// channelStats are, per channel, each mark's own-group size, its contrast
+// with the nearest distractor (global), and the distractors' spread.
+type channelStats struct {
+	group  []int     // marks within one step of the mark (itself included)
+	global []float64 // steps to the most similar distractor
+	spread float64   // distractor heterogeneity, steps
+}
+
+// stats computes a channel's statistics in O(n log n) for the scalar
+// channels and O(n·B) for colour, with B distinct colours (capped by
+// quantising).
+func (d *display) stats(c Channel) channelStats {
+	n := len(d.marks)
+	st := channelStats{group: make([]int, n), global: make([]float64, n)}
+	if n < 2 {
+		return st
+	}
+	switch c {
+	case Size, Orientation:
+		vals := d.size
+		period := 0.0
+		if c == Orientation {
+			if d.oriP == 0 {
+				return st
+			}
+			vals, period = d.ori, d.oriP
+		}
+		d.scalarStats(vals, period, &st)
+	case Hue, Lightness:
+		d.colourStats(c, &st)
+	case Shape:
+		count := map[string]int{}
+		for _, m := range d.marks {
+			count[m.Shape]++
+		}
+		distractorShapes := map[string]bool{}
+		for k, m := range d.marks {
+			st.group[k] = count[m.Shape]
+			if count[m.Shape] <= d.small && count[m.Shape] < n {
+				st.global[k] = 1
+			} else {
+				distractorShapes[m.Shape] = true
+			}
+		}
+		st.spread = math.Max(0, float64(len(distractorShapes)-1))
+	}
+	return st
+}
+
+// scalarStats fills stats for a scalar channel (circular when period > 0).
+func (d *display) scalarStats(vals []float64, period float64, st *channelStats) {
+	n := len(vals)
+	sorted := append([]float64(nil), vals...)
+	sort.Float64s(sorted)
+	// count of values in [lo, hi], with wrap for circular channels.
+	count := func(lo, hi float64) int {
+		c := sort.SearchFloat64s(sorted, math.Nextafter(hi, math.Inf(1))) - sort.SearchFloat64s(sorted, lo)
+		if period > 0 {
+			if lo < 0 {
+				c += sort.SearchFloat64s(sorted, math.Nextafter(period, math.Inf(1))) - sort.SearchFloat64s(sorted, lo+period)
+			}
+			if hi >= period {
+				c += sort.SearchFloat64s(sorted, math.Nextafter(hi-period, math.Inf(1))) - sort.SearchFloat64s(sorted, 0)
+			}
+		}
+		return c
+	}
+	// nearest value at distance ≥ minD from v (circular aware).
+	nearest := func(v, minD float64) float64 {
+		best := math.Inf(1)
+		try := func(x float64) {
+			// Values ≥ x + minD and ≤ x − minD.
+			i := sort.SearchFloat64s(sorted, x+minD)
+			if i < n {
+				best = math.Min(best, sorted[i]-x)
+			}
+			j := sort.SearchFloat64s(sorted, math.Nextafter(x-minD, math.Inf(1))) - 1
+			if j >= 0 {
+				best = math.Min(best, x-sorted[j])
+			}
+		}
+		try(v)
+		if period > 0 {
+			try(v + period)
+			try(v - period)
+			best = math.Min(best, period/2)
+		}
+		return best
+	}
+	var distractors []float64
+	for k, v := range vals {
+		g := count(v-1+1e-9, v+1-1e-9)
+		st.group[k] = g
+		if g <= d.small && g < n {
+			st.global[k] = nearest(v, 1)
+		} else {
+			// Shares its value with many: its nearest other mark.
+			if g > 1 {
+				st.global[k] = 0
+			} else {
+				st.global[k] = nearest(v, 1e-12)
+			}
+			distractors = append(distractors, v)
+		}
+	}
+	st.spread = spread1(distractors, period)
+}
+
+// spread1 is half the interdecile range of the distractor values (for a
+// circular channel, of their deviations from the circular mean).
+func spread1(v []float64, period float64) float64 {
+	if len(v) < 2 {
+		return 0
+	}
+	x := append([]float64(nil), v...)
+	if period > 0 {
+		var sx, sy float64
+		for _, a := range x {
+			s, c := math.Sincos(2 * math.Pi * a / period)
+			sx += c
+			sy += s
+		}
+		mean := math.Atan2(sy, sx) * period / (2 * math.Pi)
+		for i, a := range x {
+			dv := math.Mod(a-mean+1.5*period, period) - period/2
+			x[i] = dv
+		}
+	}
+	sort.Float64s(x)
+	q := func(p float64) float64 { return x[int(math.Round(p*float64(len(x)-1)))] }
+	return (q(0.9) - q(0.1)) / 2
+}
+
+// colourStats fills stats for hue or lightness over distinct colours.
+func (d *display) colourStats(c Channel, st *channelStats) {
+	n := len(d.marks)
+	type bin struct {
+		rep     int // a representative mark
+		count   int
+		members []int
+	}
+	// Quantise Lab so that at most 512 distinct colours remain.
+	q := 0.5
+	var bins map[[3]int64]*bin
+	for {
+		bins = map[[3]int64]*bin{}
+		for k, l := range d.lab {
+			key := [3]int64{int64(math.Round(l.L / q)), int64(math.Round(l.A / q)), int64(math.Round(l.B / q))}
+			b, ok := bins[key]
+			if !ok {
+				b = &bin{rep: k}
+				bins[key] = b
+			}
+			b.count++
+			b.members = append(b.members, k)
+		}
+		if len(bins) <= 512 {
+			break
+		}
+		q *= 2
+	}
+	list := make([]*bin, 0, len(bins))
+	for _, b := range bins {
+		list = append(list, b)
+	}
+	sort.Slice(list, func(i, j int) bool { return list[i].rep < list[j].rep })
+	B := len(list)
+	dm := make([]float64, B*B)
+	for i := 0; i < B; i++ {
+		for j := 0; j < B; j++ {
+			if i != j {
+				dm[i*B+j] = d.dist(c, list[i].rep, list[j].rep)
+			}
+		}
+	}
+	var distractorLabs []int
+	for i, bi := range list {
+		g := bi.count
+		for j, bj := range list {
+			if i != j && dm[i*B+j] < 1 {
+				g += bj.count
+			}
+		}
+		global := math.Inf(1)
+		if g <= d.small && g < n {
+			for j := range list {
+				if i != j && dm[i*B+j] >= 1 {
+					global = math.Min(global, dm[i*B+j])
+				}
+			}
+		} else {
+			if bi.count > 1 {
+				global = 0
+			}
+			for j := range list {
+				if i != j {
+					global = math.Min(global, dm[i*B+j])
+				}
+			}
+			for _, k := range bi.members {
+				distractorLabs = append(distractorLabs, k)
+			}
+		}
+		if math.IsInf(global, 1) {
+			global = 0
+		}
+		for _, k := range bi.members {
+			st.group[k] = g
+			st.global[k] = global
+		}
+	}
+	// Spread: the 90th percentile of the distractors' distances from their
+	// mean colour, halved to match spread1's half-range.
+	if len(distractorLabs) > 1 {
+		var mL, mA, mB float64
+		for _, k := range distractorLabs {
+			mL += d.lab[k].L
+			mA += d.lab[k].A
+			mB += d.lab[k].B
+		}
+		f := float64(len(distractorLabs))
+		mean := colour.Lab{L: mL / f, A: mA / f, B: mB / f}
+		ds := make([]float64, 0, len(distractorLabs))
+		for _, k := range distractorLabs {
+			nd := d.nd[k]
+			var v float64
+			if c == Hue {
+				v = math.Hypot((d.lab[k].A-mean.A)/nd[1], (d.lab[k].B-mean.B)/nd[2])
+			} else {
+				v = math.Abs(d.lab[k].L-mean.L) / nd[0]
+			}
+			ds = append(ds, v)
+		}
+		sort.Float64s(ds)
+		st.spread = ds[int(math.Round(0.9*float64(len(ds)-1)))]
+	}
+}
