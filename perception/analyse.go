@@ -1,6 +1,9 @@
 package perception
 
 import (
+	"cmp"
+	"math"
+	"slices"
 	"sort"
 
 	"standout/perception/colour"
@@ -20,6 +23,12 @@ type Result struct {
 	Holds    []bool
 	Groups   Grouping
 	Findings []Finding
+
+	// Per kind: spatial neighbours and the vision-independent channels,
+	// reused when fixes are verified.
+	nbs    map[string][][]int
+	reuse  map[string]*reuseData
+	shares map[string]*shared
 }
 
 // Analyse runs the whole model on one chart: salience and verdicts for
@@ -28,8 +37,9 @@ type Result struct {
 func Analyse(in Input, p Params) *Result {
 	n := len(in.Marks)
 	res := &Result{Marks: make([][]MarkResult, n), Holds: make([]bool, len(Visions))}
+	flat := make([]MarkResult, n*len(Visions))
 	for i := range res.Marks {
-		res.Marks[i] = make([]MarkResult, len(Visions))
+		res.Marks[i] = flat[i*len(Visions) : (i+1)*len(Visions) : (i+1)*len(Visions)]
 	}
 	kinds := map[string][]int{}
 	for i, m := range in.Marks {
@@ -40,10 +50,34 @@ func Analyse(in Input, p Params) *Result {
 		keys = append(keys, k)
 	}
 	sort.Strings(keys)
+	nbs := map[string][][]int{}
+	kindMarks := map[string][]Mark{}
+	for _, k := range keys {
+		spatialOrder(in.Marks, kinds[k])
+	}
+	for _, k := range keys {
+		ms := make([]Mark, 0, len(kinds[k]))
+		for _, i := range kinds[k] {
+			ms = append(ms, in.Marks[i])
+		}
+		kindMarks[k] = ms
+		nbs[k] = neighbours(ms, p.Neighbours)
+	}
+	reuse := map[string]*reuseData{}
+	for _, k := range keys {
+		reuse[k] = &reuseData{}
+	}
+	res.nbs, res.reuse = nbs, reuse
+	shares := map[string]*shared{}
+	for _, k := range keys {
+		shares[k] = &shared{}
+	}
+	res.shares = shares
 	for vi, v := range Visions {
 		for _, k := range keys {
 			idx := kinds[k]
-			d := newDisplay(&p, in.Marks, idx, v, p.Severity)
+			d := newDisplayShared(&p, kindMarks[k], idx, v, p.Severity, shares[k])
+			d.nb, d.reuse = nbs[k], reuse[k]
 			for j, r := range d.judge() {
 				res.Marks[idx[j]][vi] = r
 			}
@@ -82,4 +116,48 @@ func inferEmphasis(in Input, res *Result) []int {
 		return nil
 	}
 	return out
+}
+
+// spatialOrder sorts idx along a Z-order (Morton) curve of the marks'
+// positions, so that marks near in space are near in memory: the
+// neighbour and distance loops then stay in cache on large charts.
+func spatialOrder(marks []Mark, idx []int) {
+	if len(idx) < 1024 {
+		return
+	}
+	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	for _, i := range idx {
+		minX, maxX = math.Min(minX, marks[i].X), math.Max(maxX, marks[i].X)
+		minY, maxY = math.Min(minY, marks[i].Y), math.Max(maxY, marks[i].Y)
+	}
+	sx, sy := 65535/math.Max(maxX-minX, 1e-9), 65535/math.Max(maxY-minY, 1e-9)
+	type keyed struct {
+		code uint32
+		i    int
+	}
+	ks := make([]keyed, len(idx))
+	for p, i := range idx {
+		x := uint32((marks[i].X - minX) * sx)
+		y := uint32((marks[i].Y - minY) * sy)
+		ks[p] = keyed{spread16(x) | spread16(y)<<1, i}
+	}
+	slices.SortFunc(ks, func(a, b keyed) int {
+		if c := cmp.Compare(a.code, b.code); c != 0 {
+			return c
+		}
+		return cmp.Compare(a.i, b.i)
+	})
+	for p := range ks {
+		idx[p] = ks[p].i
+	}
+}
+
+// spread16 interleaves the low 16 bits of v with zeros.
+func spread16(v uint32) uint32 {
+	v &= 0xffff
+	v = (v | v<<8) & 0x00ff00ff
+	v = (v | v<<4) & 0x0f0f0f0f
+	v = (v | v<<2) & 0x33333333
+	v = (v | v<<1) & 0x55555555
+	return v
 }

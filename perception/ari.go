@@ -23,14 +23,28 @@ func AdjustedRandIndex(a, b []int) float64 {
 	nij := map[pair]int{}
 	ai, bj := map[int]int{}, map[int]int{}
 	for k := range a {
-		nij[pair{a[k], b[k]}]++
 		ai[a[k]]++
 		bj[b[k]]++
 	}
 	c2 := func(x int) float64 { return float64(x) * float64(x-1) / 2 }
 	var sij, sa, sb float64
-	for _, v := range nij {
-		sij += c2(v)
+	// Dense labels 0..k−1 (as partitions here have) use a flat table.
+	ka, kb := maxLabel(a)+1, maxLabel(b)+1
+	if ka > 0 && kb > 0 && ka*kb <= 1<<20 && len(ai) == ka && len(bj) == kb {
+		t := make([]int32, ka*kb)
+		for k := range a {
+			t[a[k]*kb+b[k]]++
+		}
+		for _, v := range t {
+			sij += c2(int(v))
+		}
+	} else {
+		for k := range a {
+			nij[pair{a[k], b[k]}]++
+		}
+		for _, v := range nij {
+			sij += c2(v)
+		}
 	}
 	for _, v := range ai {
 		sa += c2(v)
@@ -44,4 +58,17 @@ func AdjustedRandIndex(a, b []int) float64 {
 		return 1
 	}
 	return (sij - e) / den
+}
+
+func maxLabel(v []int) int {
+	m := -1
+	for _, x := range v {
+		if x < 0 {
+			return -2 // negative labels: not dense
+		}
+		if x > m {
+			m = x
+		}
+	}
+	return m
 }

@@ -112,16 +112,16 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 			f := Finding{ID: "emphasis-lost-cvd", Severity: Error, Marks: em,
 				Message: fmt.Sprintf("%s no longer %s out for %s readers (severity %.2g): the difference that carries it is one they do not see.", who, plural(len(em), "stands", "stand"), visionNames(lost), p.Severity),
 				Source:  srcCVD + "; " + srcSearch}
-			f.Fix = suggestFix(in, p, em)
+			f.Fix = suggestFix(in, p, em, res)
 			out = append(out, f)
 		}
 		return out
 	}
 	v := res.Marks[em[0]][0]
 	best, bestS := Channel(""), 0.0
-	for c, s := range v.Salience {
+	for ci, s := range v.Salience {
 		if s > bestS {
-			best, bestS = c, s
+			best, bestS = Channels[ci], s
 		}
 	}
 	why := "no feature channel separates it from the other marks"
@@ -135,7 +135,7 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 	f := Finding{ID: id, Severity: sev, Marks: em,
 		Message: fmt.Sprintf("%s %s: %s (estimated %g–%g ms per mark, %.1f–%.1f s for this chart).", who, what, why, v.SlopeMs[0], v.SlopeMs[1], v.SearchMs[0]/1000, v.SearchMs[1]/1000),
 		Source:  srcSearch}
-	f.Fix = suggestFix(in, p, em)
+	f.Fix = suggestFix(in, p, em, res)
 	out = append(out, f)
 	return out
 }
@@ -148,13 +148,22 @@ func contrastFindings(in Input) []Finding {
 	}
 	low := map[string]*agg{}
 	var keys []string
+	crCache := map[colour.SRGB]float64{}
+	ratio := func(c colour.SRGB) float64 {
+		v, ok := crCache[c]
+		if !ok {
+			v = colour.ContrastRatio(c, in.Background)
+			crCache[c] = v
+		}
+		return v
+	}
 	for i, m := range in.Marks {
 		if m.Kind == "cell" {
 			continue // heat maps fall under the "essential" exception of SC 1.4.11
 		}
-		cr := colour.ContrastRatio(m.Colour, in.Background)
+		cr := ratio(m.Colour)
 		if m.HasOutline {
-			cr = math.Max(cr, colour.ContrastRatio(m.Outline, in.Background))
+			cr = math.Max(cr, ratio(m.Outline))
 		}
 		need := colour.NonTextContrast
 		if m.Kind == "text" {

@@ -29,7 +29,7 @@ type Fix struct {
 // 3:1 against the background (WCAG SC 1.4.11). It also tries muting the
 // other marks to one grey; the better of the two that verifies is
 // returned.
-func suggestFix(in Input, p Params, em []int) *Fix {
+func suggestFix(in Input, p Params, em []int, res *Result) *Fix {
 	if len(em) == 0 {
 		return nil
 	}
@@ -98,7 +98,7 @@ func suggestFix(in Input, p Params, em []int) *Fix {
 		c := quantise(best)
 		_, m := worst(c)
 		f := &Fix{Kind: "recolour-emphasis", CSS: "fill: " + c.Hex(), Colour: c, Margin: m}
-		f.Verified = verify(in, p, em, func(i int, mk *Mark) {
+		f.Verified = verify(in, p, em, res, func(i int, mk *Mark) {
 			if isEm[i] {
 				mk.Colour = c
 			}
@@ -129,7 +129,7 @@ func suggestFix(in Input, p Params, em []int) *Fix {
 			m[v.String()] = colour.NDUnits(sim(v, tc), sim(v, g), nd)
 		}
 		f := &Fix{Kind: "mute-others", CSS: "fill: " + g.Hex(), Colour: g, Margin: m}
-		f.Verified = verify(in, p, em, func(i int, mk *Mark) {
+		f.Verified = verify(in, p, em, res, func(i int, mk *Mark) {
 			if !isEm[i] && mk.Kind == kind {
 				mk.Colour = g
 			}
@@ -161,23 +161,44 @@ func quantise(c colour.SRGB) colour.SRGB {
 
 // verify re-runs salience with a change applied and reports whether every
 // emphasised mark pops for every vision type.
-func verify(in Input, p Params, em []int, change func(int, *Mark)) bool {
+func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) bool {
 	marks := append([]Mark(nil), in.Marks...)
 	for i := range marks {
 		change(i, &marks[i])
 	}
 	kind := in.Marks[em[0]].Kind
 	var idx []int
+	var ms []Mark
 	pos := map[int]int{}
 	for i, m := range marks {
 		if m.Kind == kind {
 			pos[i] = len(idx)
 			idx = append(idx, i)
+			ms = append(ms, m)
 		}
 	}
+	// Positions, sizes, orientations and shapes do not change with a colour
+	// fix: the analysis's neighbours and those channels are reused.
+	nb, reuse := res.nbs[kind], res.reuse[kind]
+	if nb == nil {
+		nb = neighbours(ms, p.Neighbours)
+	}
+	if reuse == nil || !reuse.have {
+		reuse = &reuseData{}
+	}
+	var targets []int
+	for _, i := range em {
+		targets = append(targets, pos[i])
+	}
 	for _, v := range Visions {
-		d := newDisplay(&p, marks, idx, v, p.Severity)
-		r := d.judge()
+		d := newDisplayShared(&p, ms, idx, v, p.Severity, res.shares[kind])
+		d.nb, d.reuse = nb, reuse
+		var r []MarkResult
+		if reuse.have {
+			r = d.judgeSome(targets)
+		} else {
+			r = d.judge()
+		}
 		for _, i := range em {
 			if r[pos[i]].Verdict != Pops {
 				return false

@@ -1,7 +1,9 @@
 package perception
 
 import (
+	"cmp"
 	"math"
+	"slices"
 	"sort"
 
 	"standout/perception/colour"
@@ -103,8 +105,9 @@ func group(in Input, p Params) Grouping {
 	// Proximity: single linkage at ProximityRatio × median nearest-neighbour
 	// distance.
 	nn := make([]float64, n)
+	jb, db := make([]int, 0, 1), make([]float64, 0, 1)
 	for k := range g.Marks {
-		if j := grd.knn(k, 1); len(j) == 1 {
+		if j := grd.knnInto(k, 1, jb[:0], db[:0]); len(j) == 1 {
 			nn[k] = math.Hypot(xs[j[0]]-xs[k], ys[j[0]]-ys[k])
 		}
 	}
@@ -206,7 +209,12 @@ func group(in Input, p Params) Grouping {
 		if cue == CueColumns {
 			coord = xs
 		}
-		sort.Slice(idx, func(a, b int) bool { return coord[idx[a]] < coord[idx[b]] })
+		slices.SortFunc(idx, func(a, b int) int {
+			if c := cmp.Compare(coord[a], coord[b]); c != 0 {
+				return c
+			}
+			return cmp.Compare(a, b)
+		})
 		for a := 1; a < n; a++ {
 			if coord[idx[a]]-coord[idx[a-1]] <= 1 {
 				uf.union(idx[a], idx[a-1])

@@ -2,21 +2,24 @@ package perception
 
 import (
 	"math"
-	"sort"
 )
 
-// grid is a uniform spatial hash of points for neighbour queries.
+// grid is a uniform spatial index of points (a dense bucket grid in
+// compressed rows) for neighbour queries in O(1) expected time per point.
 type grid struct {
-	cell  float64
-	cells map[[2]int64][]int
-	x, y  []float64
+	cell   float64
+	x0, y0 float64
+	nx, ny int
+	start  []int32 // start[c] .. start[c+1] index items of cell c
+	items  []int32
+	x, y   []float64
 }
 
 func newGrid(x, y []float64) *grid {
 	n := len(x)
-	g := &grid{x: x, y: y, cells: map[[2]int64][]int{}}
+	g := &grid{x: x, y: y, cell: 1, nx: 1, ny: 1}
 	if n == 0 {
-		g.cell = 1
+		g.start = []int32{0, 0}
 		return g
 	}
 	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
@@ -24,82 +27,123 @@ func newGrid(x, y []float64) *grid {
 		minX, maxX = math.Min(minX, x[i]), math.Max(maxX, x[i])
 		minY, maxY = math.Min(minY, y[i]), math.Max(maxY, y[i])
 	}
-	// About two points per cell on average.
-	area := math.Max((maxX-minX)*(maxY-minY), 1)
-	g.cell = math.Max(math.Sqrt(2*area/float64(n)), 1e-3)
+	w, h := math.Max(maxX-minX, 1e-6), math.Max(maxY-minY, 1e-6)
+	// About two points per cell on average, and at most 4n cells.
+	g.cell = math.Max(math.Sqrt(2*w*h/float64(n)), 1e-6)
+	for float64(int(w/g.cell)+1)*float64(int(h/g.cell)+1) > float64(4*n+16) {
+		g.cell *= 2
+	}
+	g.x0, g.y0 = minX, minY
+	g.nx, g.ny = int(w/g.cell)+1, int(h/g.cell)+1
+	counts := make([]int32, g.nx*g.ny+1)
+	cellOf := make([]int32, n)
 	for i := range x {
-		k := g.key(x[i], y[i])
-		g.cells[k] = append(g.cells[k], i)
+		c := g.cellIndex(g.cx(x[i]), g.cy(y[i]))
+		cellOf[i] = int32(c)
+		counts[c+1]++
+	}
+	for c := 1; c < len(counts); c++ {
+		counts[c] += counts[c-1]
+	}
+	g.start = counts
+	g.items = make([]int32, n)
+	fill := make([]int32, g.nx*g.ny)
+	for i := range x {
+		c := cellOf[i]
+		g.items[g.start[c]+fill[c]] = int32(i)
+		fill[c]++
 	}
 	return g
 }
 
-func (g *grid) key(x, y float64) [2]int64 {
-	return [2]int64{int64(math.Floor(x / g.cell)), int64(math.Floor(y / g.cell))}
+func (g *grid) cx(x float64) int {
+	c := int(math.Floor((x - g.x0) / g.cell))
+	return min(max(c, 0), g.nx-1)
 }
 
-// knn returns up to k nearest other points of point i, nearest first,
-// searching rings of cells outwards until the k-th distance is settled.
+func (g *grid) cy(y float64) int {
+	c := int(math.Floor((y - g.y0) / g.cell))
+	return min(max(c, 0), g.ny-1)
+}
+
+func (g *grid) cellIndex(cx, cy int) int { return cy*g.nx + cx }
+
+// knn returns up to k nearest other points of point i, nearest first. It
+// searches rings of cells outwards and stops once the ring's inner radius
+// exceeds the k-th distance found.
 func (g *grid) knn(i, k int) []int {
-	type cand struct {
-		j int
-		d float64
+	return g.knnInto(i, k, make([]int, 0, k), make([]float64, 0, k))
+}
+
+// knnInto is knn writing into caller-supplied buffers (length 0,
+// capacity ≥ k), which it returns filled.
+func (g *grid) knnInto(i, k int, js []int, ds []float64) []int {
+	if k <= 0 {
+		return nil
 	}
-	var cs []cand
-	c := g.key(g.x[i], g.y[i])
-	maxRing := int64(1 << 20)
-	for r := int64(0); r < maxRing; r++ {
-		for dx := -r; dx <= r; dx++ {
-			for dy := -r; dy <= r; dy++ {
-				if abs64(dx) != r && abs64(dy) != r {
+	px, py := g.x[i], g.y[i]
+	cx, cy := g.cx(px), g.cy(py)
+	insert := func(j int, d float64) {
+		if len(js) == k && d >= ds[k-1] {
+			return
+		}
+		if len(js) < k {
+			js = append(js, j)
+			ds = append(ds, d)
+		}
+		p := len(js) - 1
+		for p > 0 && ds[p-1] > d {
+			js[p], ds[p] = js[p-1], ds[p-1]
+			p--
+		}
+		js[p], ds[p] = j, d
+	}
+	maxR := max(g.nx, g.ny)
+	for r := 0; r <= maxR; r++ {
+		for dy := -r; dy <= r; dy++ {
+			yy := cy + dy
+			if yy < 0 || yy >= g.ny {
+				continue
+			}
+			step := 2 * r
+			if dy == -r || dy == r || r == 0 {
+				step = 1
+			}
+			for dx := -r; dx <= r; dx += step {
+				xx := cx + dx
+				if xx < 0 || xx >= g.nx {
 					continue
 				}
-				for _, j := range g.cells[[2]int64{c[0] + dx, c[1] + dy}] {
+				c := g.cellIndex(xx, yy)
+				for _, j32 := range g.items[g.start[c]:g.start[c+1]] {
+					j := int(j32)
 					if j != i {
-						cs = append(cs, cand{j, math.Hypot(g.x[j]-g.x[i], g.y[j]-g.y[i])})
+						dx, dy := g.x[j]-px, g.y[j]-py
+						insert(j, math.Sqrt(dx*dx+dy*dy))
 					}
+				}
+				if step == 0 {
+					break
 				}
 			}
 		}
-		if len(cs) >= k {
-			sort.Slice(cs, func(a, b int) bool { return cs[a].d < cs[b].d })
-			// Points beyond ring r may be closer than cs[k-1] only if
-			// cs[k-1].d exceeds the ring's inner radius.
-			if cs[k-1].d <= float64(r)*g.cell {
-				break
-			}
-		}
-		if len(cs) == len(g.x)-1 {
+		if len(js) == k && ds[k-1] <= float64(r)*g.cell {
 			break
 		}
 	}
-	sort.Slice(cs, func(a, b int) bool { return cs[a].d < cs[b].d })
-	if len(cs) > k {
-		cs = cs[:k]
-	}
-	out := make([]int, len(cs))
-	for a, c := range cs {
-		out[a] = c.j
-	}
-	return out
+	return js
 }
 
 // within returns the points within radius r of (x, y).
 func (g *grid) within(x, y, r float64) []int {
-	c0 := g.key(x-r, y-r)
-	c1 := g.key(x+r, y+r)
 	var out []int
-	if (c1[0]-c0[0]+1)*(c1[1]-c0[1]+1) > int64(4*len(g.x)+16) {
-		for j := range g.x {
-			if math.Hypot(g.x[j]-x, g.y[j]-y) <= r {
-				out = append(out, j)
-			}
-		}
-		return out
-	}
-	for cx := c0[0]; cx <= c1[0]; cx++ {
-		for cy := c0[1]; cy <= c1[1]; cy++ {
-			for _, j := range g.cells[[2]int64{cx, cy}] {
+	x0, x1 := g.cx(x-r), g.cx(x+r)
+	y0, y1 := g.cy(y-r), g.cy(y+r)
+	for yy := y0; yy <= y1; yy++ {
+		for xx := x0; xx <= x1; xx++ {
+			c := g.cellIndex(xx, yy)
+			for _, j32 := range g.items[g.start[c]:g.start[c+1]] {
+				j := int(j32)
 				if math.Hypot(g.x[j]-x, g.y[j]-y) <= r {
 					out = append(out, j)
 				}
@@ -107,11 +151,4 @@ func (g *grid) within(x, y, r float64) []int {
 		}
 	}
 	return out
-}
-
-func abs64(v int64) int64 {
-	if v < 0 {
-		return -v
-	}
-	return v
 }

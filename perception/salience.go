@@ -22,6 +22,19 @@ const (
 // Channels lists every channel.
 var Channels = []Channel{Hue, Lightness, Size, Orientation, Shape}
 
+// Saliences holds one salience per channel, in the order of Channels.
+type Saliences [5]float64
+
+// Of returns the salience of channel c.
+func (s Saliences) Of(c Channel) float64 {
+	for i, x := range Channels {
+		if x == c {
+			return s[i]
+		}
+	}
+	return 0
+}
+
 // Verdict is the prediction for one mark.
 type Verdict string
 
@@ -39,7 +52,7 @@ type MarkResult struct {
 	Channels []Channel
 	// Salience per channel: contrast over the pop-out margin, allowing for
 	// distractor spread; 1 is the threshold.
-	Salience map[Channel]float64
+	Salience Saliences
 	// SlopeMs and SearchMs are estimates: the search slope (ms per item)
 	// and the added search time for this display (slope × number of
 	// marks), from published slope conventions, not measurements.
@@ -58,49 +71,83 @@ type display struct {
 	ori   []float64 // orientation in steps
 	oriP  float64   // circular period in steps; 0 = no orientation channel
 	small int
+	nb    [][]int // spatial neighbours, shared across vision types
+	reuse *reuseData
+	bins  map[[3]int64]*colourBin
 }
 
-func newDisplay(p *Params, all []Mark, idx []int, v colour.Deficiency, severity float64) *display {
-	d := &display{p: p, idx: idx}
+// newDisplay prepares the marks ms (the marks of one kind; idx are their
+// indices in the chart) under vision v.
+func newDisplay(p *Params, ms []Mark, idx []int, v colour.Deficiency, severity float64) *display {
+	return newDisplayShared(p, ms, idx, v, severity, nil)
+}
+
+// shared holds what does not depend on the vision type, computed for the
+// first vision and reused by the others.
+type shared struct {
+	nd    [][3]float64
+	size  []float64
+	ori   []float64
+	oriP  float64
+	ready bool
+}
+
+func newDisplayShared(p *Params, ms []Mark, idx []int, v colour.Deficiency, severity float64, sh *shared) *display {
+	d := &display{p: p, idx: idx, marks: ms}
 	n := len(idx)
-	d.marks = make([]Mark, n)
 	d.lab = make([]colour.Lab, n)
-	d.nd = make([][3]float64, n)
-	d.size = make([]float64, n)
-	d.ori = make([]float64, n)
+	// Lab per distinct colour: consecutive marks usually repeat a colour.
 	labCache := map[colour.SRGB]colour.Lab{}
-	ndCache := map[[3]float64][3]float64{}
-	fold := -1
-	for k, i := range idx {
-		m := all[i]
-		d.marks[k] = m
-		l, ok := labCache[m.Colour]
+	var lastC colour.SRGB
+	var lastL colour.Lab
+	for k := range ms {
+		c := ms[k].Colour
+		if k > 0 && c == lastC {
+			d.lab[k] = lastL
+			continue
+		}
+		l, ok := labCache[c]
 		if !ok {
-			l = colour.SRGBToLab(colour.Simulate(v, severity, m.Colour))
-			labCache[m.Colour] = l
+			l = colour.SRGBToLab(colour.Simulate(v, severity, c))
+			labCache[c] = l
 		}
-		d.lab[k] = l
-		key := [3]float64{float64(m.Type), math.Round(m.MinPx*4) / 4, math.Round(m.MaxPx)}
-		nd, ok := ndCache[key]
-		if !ok {
-			nd = p.ND.For(m.Type, key[1], key[2])
-			ndCache[key] = nd
-		}
-		d.nd[k] = nd
-		exp := p.StevensArea
-		if m.Length {
-			exp = p.StevensLength
-		}
-		d.size[k] = exp * math.Log(math.Max(m.Size, 1e-9)) / math.Log(p.SizeStepRatio)
-		if fold == -1 {
-			fold = m.Fold
-		} else if fold != m.Fold {
-			fold = 0
-		}
-		d.ori[k] = m.Angle / p.OrientationStepDeg
+		d.lab[k], lastC, lastL = l, c, l
 	}
-	if fold > 0 {
-		d.oriP = 360 / float64(fold) / p.OrientationStepDeg
+	if sh != nil && sh.ready {
+		d.nd, d.size, d.ori, d.oriP = sh.nd, sh.size, sh.ori, sh.oriP
+	} else {
+		d.nd = make([][3]float64, n)
+		d.size = make([]float64, n)
+		d.ori = make([]float64, n)
+		ndCache := map[[3]float64][3]float64{}
+		fold := -1
+		for k := range ms {
+			m := &ms[k]
+			key := [3]float64{float64(m.Type), math.Round(m.MinPx*4) / 4, math.Round(m.MaxPx)}
+			nd, ok := ndCache[key]
+			if !ok {
+				nd = p.ND.For(m.Type, key[1], key[2])
+				ndCache[key] = nd
+			}
+			d.nd[k] = nd
+			exp := p.StevensArea
+			if m.Length {
+				exp = p.StevensLength
+			}
+			d.size[k] = exp * math.Log(math.Max(m.Size, 1e-9)) / math.Log(p.SizeStepRatio)
+			if fold == -1 {
+				fold = m.Fold
+			} else if fold != m.Fold {
+				fold = 0
+			}
+			d.ori[k] = m.Angle / p.OrientationStepDeg
+		}
+		if fold > 0 {
+			d.oriP = 360 / float64(fold) / p.OrientationStepDeg
+		}
+		if sh != nil {
+			sh.nd, sh.size, sh.ori, sh.oriP, sh.ready = d.nd, d.size, d.ori, d.oriP, true
+		}
 	}
 	d.small = int(math.Max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n))))
 	return d
@@ -112,7 +159,8 @@ func (d *display) dist(c Channel, a, b int) float64 {
 	switch c {
 	case Hue:
 		nd := d.nd[a]
-		return math.Hypot((d.lab[a].A-d.lab[b].A)/nd[1], (d.lab[a].B-d.lab[b].B)/nd[2])
+		x, y := (d.lab[a].A-d.lab[b].A)/nd[1], (d.lab[a].B-d.lab[b].B)/nd[2]
+		return math.Sqrt(x*x + y*y)
 	case Lightness:
 		return math.Abs(d.lab[a].L-d.lab[b].L) / d.nd[a][0]
 	case Size:
@@ -279,25 +327,38 @@ func spread1(v []float64, period float64) float64 {
 }
 
 // colourStats fills stats for hue or lightness over distinct colours.
-func (d *display) colourStats(c Channel, st *channelStats) {
-	n := len(d.marks)
-	type bin struct {
-		rep     int // a representative mark
-		count   int
-		members []int
+// colourBin is a set of marks whose colours quantise together.
+type colourBin struct {
+	rep     int // a representative mark
+	count   int
+	members []int
+}
+
+// colourBins quantises the display's Lab colours so that at most 512
+// distinct colours remain; computed once per display, shared by the hue
+// and lightness channels.
+func (d *display) colourBins() map[[3]int64]*colourBin {
+	if d.bins != nil {
+		return d.bins
 	}
-	// Quantise Lab so that at most 512 distinct colours remain.
 	q := 0.5
-	var bins map[[3]int64]*bin
+	var bins map[[3]int64]*colourBin
 	for {
-		bins = map[[3]int64]*bin{}
+		bins = map[[3]int64]*colourBin{}
+		var lastKey [3]int64
+		var last *colourBin
 		for k, l := range d.lab {
 			key := [3]int64{int64(math.Round(l.L / q)), int64(math.Round(l.A / q)), int64(math.Round(l.B / q))}
-			b, ok := bins[key]
-			if !ok {
-				b = &bin{rep: k}
-				bins[key] = b
+			b := last
+			if b == nil || key != lastKey {
+				var ok bool
+				b, ok = bins[key]
+				if !ok {
+					b = &colourBin{rep: k}
+					bins[key] = b
+				}
 			}
+			last, lastKey = b, key
 			b.count++
 			b.members = append(b.members, k)
 		}
@@ -306,6 +367,14 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		}
 		q *= 2
 	}
+	d.bins = bins
+	return bins
+}
+
+func (d *display) colourStats(c Channel, st *channelStats) {
+	n := len(d.marks)
+	type bin = colourBin
+	bins := d.colourBins()
 	list := make([]*bin, 0, len(bins))
 	for _, b := range bins {
 		list = append(list, b)
@@ -320,7 +389,7 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 			}
 		}
 	}
-	var distractorLabs []int
+	var distractorBins []*colourBin
 	for i, bi := range list {
 		g := bi.count
 		for j, bj := range list {
@@ -344,9 +413,7 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 					global = math.Min(global, dm[i*B+j])
 				}
 			}
-			for _, k := range bi.members {
-				distractorLabs = append(distractorLabs, k)
-			}
+			distractorBins = append(distractorBins, bi)
 		}
 		if math.IsInf(global, 1) {
 			global = 0
@@ -357,28 +424,44 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		}
 	}
 	// Spread: the 90th percentile of the distractors' distances from their
-	// mean colour, halved to match spread1's half-range.
-	if len(distractorLabs) > 1 {
-		var mL, mA, mB float64
-		for _, k := range distractorLabs {
-			mL += d.lab[k].L
-			mA += d.lab[k].A
-			mB += d.lab[k].B
+	// mean colour, which, like spread1's half interdecile range, measures
+	// half the distractors' extent. Computed per colour bin, weighted by
+	// its marks.
+	if len(distractorBins) > 0 {
+		var mL, mA, mB, f float64
+		for _, b := range distractorBins {
+			w := float64(b.count)
+			l := d.lab[b.rep]
+			mL += w * l.L
+			mA += w * l.A
+			mB += w * l.B
+			f += w
 		}
-		f := float64(len(distractorLabs))
-		mean := colour.Lab{L: mL / f, A: mA / f, B: mB / f}
-		ds := make([]float64, 0, len(distractorLabs))
-		for _, k := range distractorLabs {
-			nd := d.nd[k]
-			var v float64
-			if c == Hue {
-				v = math.Hypot((d.lab[k].A-mean.A)/nd[1], (d.lab[k].B-mean.B)/nd[2])
-			} else {
-				v = math.Abs(d.lab[k].L-mean.L) / nd[0]
+		if f > 1 {
+			mean := colour.Lab{L: mL / f, A: mA / f, B: mB / f}
+			type wd struct{ v, w float64 }
+			ds := make([]wd, 0, len(distractorBins))
+			for _, b := range distractorBins {
+				l, nd := d.lab[b.rep], d.nd[b.rep]
+				var v float64
+				if c == Hue {
+					v = math.Hypot((l.A-mean.A)/nd[1], (l.B-mean.B)/nd[2])
+				} else {
+					v = math.Abs(l.L-mean.L) / nd[0]
+				}
+				ds = append(ds, wd{v, float64(b.count)})
 			}
-			ds = append(ds, v)
+			sort.Slice(ds, func(a, b int) bool { return ds[a].v < ds[b].v })
+			// The value at rank round(0.9·(f−1)) of the expanded list.
+			target := math.Round(0.9 * (f - 1))
+			acc := 0.0
+			for _, x := range ds {
+				acc += x.w
+				if acc > target {
+					st.spread = x.v
+					break
+				}
+			}
 		}
-		sort.Float64s(ds)
-		st.spread = ds[int(math.Round(0.9*float64(len(ds)-1)))]
 	}
 }

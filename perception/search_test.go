@@ -118,7 +118,7 @@ func TestOrientationNothdurftWolfe(t *testing.T) {
 	}
 	// Direction of the effect: the same target contrast is weaker among
 	// heterogeneous distractors.
-	assert.Less(t, hetero(45).Salience[Orientation], homo(45).Salience[Orientation])
+	assert.Less(t, hetero(45).Salience.Of(Orientation), homo(45).Salience.Of(Orientation))
 	assert.NotEqual(t, Pops, hetero(40).Verdict, "40° target, ±20° distractors (Wolfe et al. 1992)")
 }
 
@@ -134,7 +134,7 @@ func TestDuncanHumphreys1989(t *testing.T) {
 				m.Colour = tc
 			}
 		}), 13)
-		return r.Salience[Hue]
+		return r.Salience.Of(Hue)
 	}
 	base := colour.LChToLab(colour.LCh{L: 60, C: 50, H: 250})
 	distr := colour.LabToSRGB(base).Clamped()
@@ -175,7 +175,7 @@ func TestSizeSingleton(t *testing.T) {
 	assert.Equal(t, Pops, mk(78.5*4).Verdict)
 	assert.Contains(t, mk(78.5*4).Channels, Size)
 	assert.Equal(t, Blends, mk(78.5).Verdict)
-	assert.Less(t, mk(78.5*1.2).Salience[Size], mk(78.5*2).Salience[Size])
+	assert.Less(t, mk(78.5*1.2).Salience.Of(Size), mk(78.5*2).Salience.Of(Size))
 }
 
 func TestCVDRedGreen(t *testing.T) {

@@ -6,71 +6,132 @@ import (
 )
 
 // judge computes every mark's verdict in one display.
-func (d *display) judge() []MarkResult {
+func (d *display) judge() []MarkResult { return d.judgeSome(nil) }
+
+// colourChannel reports whether a channel depends on the vision type.
+func colourChannel(ci int) bool { return Channels[ci] == Hue || Channels[ci] == Lightness }
+
+// judgeSome computes verdicts; with only non-nil, just for those marks
+// (the others are left empty). Channels that do not depend on colour are
+// taken from d.reuse when a previous vision type computed them.
+func (d *display) judgeSome(only []int) []MarkResult {
 	n := len(d.marks)
 	res := make([]MarkResult, n)
 	if n == 0 {
 		return res
 	}
+	var statList [5]channelStats
+	for ci, c := range Channels {
+		if d.reuse != nil && d.reuse.have && !colourChannel(ci) {
+			statList[ci] = d.reuse.stats[ci]
+			continue
+		}
+		statList[ci] = d.stats(c)
+	}
 	stats := map[Channel]channelStats{}
-	for _, c := range Channels {
-		stats[c] = d.stats(c)
+	for ci, c := range Channels {
+		stats[c] = statList[ci]
 	}
-	// Local surround: the nearest marks in space.
-	var nb [][]int
-	if n > 1 && d.p.Neighbours > 0 {
-		xs, ys := make([]float64, n), make([]float64, n)
-		for k, m := range d.marks {
-			xs[k], ys[k] = m.X, m.Y
-		}
-		g := newGrid(xs, ys)
-		nb = make([][]int, n)
-		for k := range d.marks {
-			nb[k] = g.knn(k, d.p.Neighbours)
-		}
+	nb := d.nb
+	if nb == nil && n > 1 && d.p.Neighbours > 0 {
+		nb = neighbours(d.marks, d.p.Neighbours)
 	}
-	for k := range d.marks {
-		r := MarkResult{Salience: map[Channel]float64{}}
-		for _, c := range Channels {
-			st := stats[c]
+	reuse := d.reuse != nil && d.reuse.have
+	// One backing array for every mark's channel list: fewer allocations.
+	chBuf := make([]Channel, 0, n/4+8)
+	hueCI, lightCI := 0, 1 // positions of Hue and Lightness in Channels
+	one := func(k int) {
+		r := MarkResult{}
+		for ci, c := range Channels {
+			if reuse && !colourChannel(ci) {
+				r.Salience[ci] = d.reuse.sal[k][ci]
+				continue
+			}
+			if ci == lightCI {
+				continue // computed with hue below
+			}
+			st := &statList[ci]
 			m := d.margin(c)
 			h := st.spread / m
 			global := st.global[k] / m / (1 + h)
+			if ci == hueCI {
+				// Hue and lightness share one pass over the neighbours:
+				// the hot loop on large charts.
+				st2 := &statList[lightCI]
+				m2 := d.margin(Lightness)
+				h2 := st2.spread / m2
+				global2 := st2.global[k] / m2 / (1 + h2)
+				local, local2 := 0.0, 0.0
+				if nb != nil {
+					ld, ld2 := math.Inf(1), math.Inf(1)
+					own, own2 := st.group[k] <= d.small, st2.group[k] <= d.small
+					lk, nd := d.lab[k], d.nd[k]
+					for _, j := range nb[k] {
+						lj := d.lab[j]
+						x, y := (lk.A-lj.A)/nd[1], (lk.B-lj.B)/nd[2]
+						dh := math.Sqrt(x*x + y*y)
+						dl := math.Abs(lk.L-lj.L) / nd[0]
+						if (!own || dh >= 1) && dh < ld {
+							ld = dh
+						}
+						if (!own2 || dl >= 1) && dl < ld2 {
+							ld2 = dl
+						}
+					}
+					local = localSalience(ld, m, h, global, st.group[k] > d.small)
+					local2 = localSalience(ld2, m2, h2, global2, st2.group[k] > d.small)
+				}
+				r.Salience[hueCI] = math.Max(global, local)
+				r.Salience[lightCI] = math.Max(global2, local2)
+				continue
+			}
 			local := 0.0
 			if nb != nil {
-				// Local contrast: the most similar neighbour, leaving out
-				// the mark's own small group.
 				ld := math.Inf(1)
 				own := st.group[k] <= d.small
 				for _, j := range nb[k] {
 					dj := d.dist(c, k, j)
-					if own && dj < 1 {
-						continue
+					if (!own || dj >= 1) && dj < ld {
+						ld = dj
 					}
-					ld = math.Min(ld, dj)
 				}
-				if !math.IsInf(ld, 1) {
-					local = ld / m / (1 + h)
-				}
-				// A lone mark differs locally only if it differs from the
-				// display as a whole in the same channel too, or its
-				// surround is uniform: otherwise random mixing would make
-				// every mark locally unique.
-				if st.group[k] > d.small {
-					local = math.Min(local, global+0.5/(1+h))
-				}
+				local = localSalience(ld, m, h, global, st.group[k] > d.small)
 			}
-			s := math.Max(global, local)
-			r.Salience[c] = s
-			if s >= 1 {
-				r.Channels = append(r.Channels, c)
+			r.Salience[ci] = math.Max(global, local)
+		}
+		start := len(chBuf)
+		for ci, c := range Channels {
+			if r.Salience[ci] >= 1 {
+				chBuf = append(chBuf, c)
 			}
 		}
-		sort.SliceStable(r.Channels, func(a, b int) bool { return r.Salience[r.Channels[a]] > r.Salience[r.Channels[b]] })
+		if len(chBuf) > start {
+			r.Channels = chBuf[start:len(chBuf):len(chBuf)]
+		}
+		if len(r.Channels) > 1 {
+			sort.SliceStable(r.Channels, func(a, b int) bool { return r.Salience.Of(r.Channels[a]) > r.Salience.Of(r.Channels[b]) })
+		}
 		if len(r.Channels) > 0 {
 			r.Verdict = Pops
 		}
 		res[k] = r
+	}
+	if only != nil {
+		for _, k := range only {
+			one(k)
+		}
+		return res
+	}
+	for k := range d.marks {
+		one(k)
+	}
+	if d.reuse != nil && !d.reuse.have {
+		d.reuse.have = true
+		d.reuse.stats = statList
+		d.reuse.sal = make([]Saliences, n)
+		for k := range res {
+			d.reuse.sal[k] = res[k].Salience
+		}
 	}
 	d.conjunctions(res, stats)
 	for k := range res {
@@ -82,6 +143,50 @@ func (d *display) judge() []MarkResult {
 		res[k].SearchMs = [2]float64{slope[0] * float64(n), slope[1] * float64(n)}
 	}
 	return res
+}
+
+// localSalience turns the distance to the most similar neighbour (leaving
+// out the mark's own small group) into a salience. A mark of a large group
+// differs locally only a little more than it differs globally: otherwise
+// random mixing would make every mark locally unique.
+func localSalience(ld, margin, h, global float64, large bool) float64 {
+	if math.IsInf(ld, 1) {
+		return 0
+	}
+	local := ld / margin / (1 + h)
+	if large {
+		local = math.Min(local, global+0.5/(1+h))
+	}
+	return local
+}
+
+// reuseData carries the vision-independent channels (size, orientation,
+// shape) from the first vision type to the others.
+type reuseData struct {
+	have  bool
+	stats [5]channelStats
+	sal   []Saliences
+}
+
+// neighbours lists each mark's k nearest marks in space.
+func neighbours(marks []Mark, k int) [][]int {
+	n := len(marks)
+	if n < 2 || k <= 0 {
+		return nil
+	}
+	xs, ys := make([]float64, n), make([]float64, n)
+	for i, m := range marks {
+		xs[i], ys[i] = m.X, m.Y
+	}
+	g := newGrid(xs, ys)
+	nb := make([][]int, n)
+	flat := make([]int, n*k)
+	ds := make([]float64, 0, k)
+	for i := range marks {
+		got := g.knnInto(i, k, flat[i*k:i*k:i*k+k], ds[:0])
+		nb[i] = got[:len(got):len(got)]
+	}
+	return nb
 }
 
 // conjunctions marks as conjunction targets the marks that do not pop but

@@ -1,0 +1,47 @@
+package perception
+
+import (
+	"math/rand"
+	"testing"
+
+	"standout/perception/colour"
+)
+
+// benchMarks is a scatter of n points in a few categorical colours and
+// sizes, with one emphasised mark.
+func benchMarks(n int) Input {
+	rng := rand.New(rand.NewSource(1))
+	pal := []colour.SRGB{colour.MustHex("#4c78a8"), colour.MustHex("#f58518"), colour.MustHex("#54a24b"), colour.MustHex("#b279a2")}
+	marks := make([]Mark, n)
+	for i := range marks {
+		marks[i] = Mark{Kind: "point", Type: colour.Point, Colour: pal[rng.Intn(len(pal))], Size: 20 + rng.Float64()*60,
+			MinPx: 6, MaxPx: 6, Shape: "circle", X: rng.Float64() * 1000, Y: rng.Float64() * 1000}
+	}
+	marks[n/2].Colour = colour.MustHex("#111111") // a lightness emphasis that holds for every reader
+	return Input{Marks: marks, Background: colour.MustHex("#ffffff"), Emphasis: []int{n / 2}}
+}
+
+// BenchmarkFix10k is the same display with an emphasis that fails for
+// CVD readers, so the gamut search and its verification run too.
+func BenchmarkFix10k(b *testing.B) {
+	in := benchMarks(10000)
+	in.Marks[5000].Colour = colour.MustHex("#e41a1c")
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		Analyse(in, DefaultParams)
+	}
+}
+
+func benchAnalyse(b *testing.B, n int) {
+	in := benchMarks(n)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		Analyse(in, DefaultParams)
+	}
+}
+
+func BenchmarkAnalyse1k(b *testing.B)   { benchAnalyse(b, 1000) }
+func BenchmarkAnalyse10k(b *testing.B)  { benchAnalyse(b, 10000) }
+func BenchmarkAnalyse100k(b *testing.B) { benchAnalyse(b, 100000) }
