@@ -145,6 +145,7 @@ func attachAnalysis(rc *reportChart, ch *dom.Chart, res *perception.Result) {
 		rc.Marks[i].Verdict = string(r[0].Verdict)
 		rc.Marks[i].Channels = channelNames(r[0].Channels)
 		rc.Marks[i].SearchSlope = []float64{r[0].SlopeMs[0], r[0].SlopeMs[1]}
+		rc.Marks[i].SearchMs = []float64{r[0].SearchMs[0], r[0].SearchMs[1]}
 		rc.Marks[i].CVD = map[string]reportResult{}
 		for vi, v := range perception.Visions[1:] {
 			x := r[vi+1]

@@ -38,6 +38,7 @@ type reportMark struct {
 	Verdict     string                  `json:"verdict,omitempty"`
 	Channels    []string                `json:"channels,omitempty"`
 	SearchSlope []float64               `json:"searchSlopeMsPerMark,omitempty"`
+	SearchMs    []float64               `json:"searchMsEstimate,omitempty"`
 	CVD         map[string]reportResult `json:"cvd,omitempty"`
 }
 

@@ -171,3 +171,69 @@ func TestCheckAnalysis(t *testing.T) {
 	assert.Equal(t, 2, code)
 	assert.Contains(t, errs, "[[[")
 }
+
+// TestLiteratureDisplaysThroughCheck builds visual-search displays as SVG
+// files and runs them through the whole static path (build, walk,
+// analysis, JSON), so the verdicts hold for charts as well as for the
+// analysis package's own inputs. Treisman & Gelade (1980): a colour
+// feature target pops out; a colour × shape conjunction target needs a
+// serial search.
+func TestLiteratureDisplaysThroughCheck(t *testing.T) {
+	dir := t.TempDir()
+	build := func(name string, target func(i int) (string, bool)) string {
+		var b strings.Builder
+		b.WriteString(`<svg xmlns="http://www.w3.org/2000/svg" width="400" height="400">`)
+		for i := 0; i < 36; i++ {
+			x, y := 20+(i%6)*60, 20+(i/6)*60
+			fill, tri := target(i)
+			if tri {
+				fmt.Fprintf(&b, `<path d="M%d,%dl6,10h-12z" fill="%s"/>`, x, y-5, fill)
+			} else {
+				fmt.Fprintf(&b, `<rect x="%d" y="%d" width="10" height="10" fill="%s"/>`, x-5, y-5, fill)
+			}
+		}
+		b.WriteString(`</svg>`)
+		p := filepath.Join(dir, name)
+		require.NoError(t, os.WriteFile(p, []byte(b.String()), 0o644))
+		return p
+	}
+	half := func(i int) (string, bool) {
+		if i%2 == 0 {
+			return "#8b5a2b", true // brown triangles
+		}
+		return "#2e8b57", false // green squares
+	}
+	feature := build("feature.svg", func(i int) (string, bool) {
+		if i == 14 {
+			return "#1f4fb4", true
+		}
+		return half(i)
+	})
+	conj := build("conjunction.svg", func(i int) (string, bool) {
+		if i == 14 {
+			return "#2e8b57", true // a green triangle
+		}
+		return half(i)
+	})
+	verdicts := func(path string) map[string]int {
+		code, out, errs := runCmd("check", "--json", path)
+		require.Equal(t, 0, code, errs)
+		var rep report
+		require.NoError(t, json.Unmarshal([]byte(out), &rep))
+		c := rep.Pages[0].Charts[0]
+		require.Len(t, c.Marks, 36)
+		got := map[string]int{}
+		for _, m := range c.Marks {
+			got[m.Verdict]++
+			require.Equal(t, "point", m.Kind, m.ID)
+		}
+		got["target:"+c.Marks[14].Verdict]++
+		return got
+	}
+	f := verdicts(feature)
+	assert.Equal(t, 1, f["target:pops"], "%v", f)
+	assert.Equal(t, 35, f["blends"], "%v", f)
+	c := verdicts(conj)
+	assert.Equal(t, 1, c["target:conjunction"], "%v", c)
+	assert.Equal(t, 35, c["blends"], "%v", c)
+}
