@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
+	"standout/internal/report"
 )
 
 //go:embed demo/*.html
@@ -27,14 +28,14 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 	fmt.Fprintln(stdout)
 	for _, name := range names {
 		data, _ := demoPages.ReadFile(name)
-		rp, charts, err := checkFile(name, bytes.NewReader(data), defaultCheck)
+		rp, charts, err := report.CheckFile(name, bytes.NewReader(data), report.DefaultOptions)
 		if err != nil {
 			fmt.Fprintf(stderr, "standout demo: %s: %v\n", name, err)
 			return 2
 		}
-		writeMarksText(stdout, rp, charts)
+		report.WriteText(stdout, rp, charts)
 		fmt.Fprintln(stdout)
 	}
-	fmt.Fprintln(stdout, "Caution:", caution)
+	fmt.Fprintln(stdout, "Caution:", report.Caution)
 	return 0
 }

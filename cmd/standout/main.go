@@ -18,9 +18,11 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"standout/internal/report"
 )
 
-const caution = "CVD simulation is a model of average readers and real readers vary; verdicts are predictions from published laboratory findings, not measurements of your audience; passing is not an accessibility audit: follow the accessibility law that applies to you, WCAG conformance reviews and tests with real readers."
+// caution is the statement of the check's limits.
+const caution = report.Caution
 
 func main() {
 	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))

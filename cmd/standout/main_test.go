@@ -9,9 +9,11 @@ import (
 	"strings"
 	"testing"
 
+	"standout/internal/report"
+	"standout/perception/colour"
+
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
-	"standout/perception/colour"
 )
 
 func runCmd(args ...string) (int, string, string) {
@@ -82,7 +84,7 @@ func TestCheckJSONAndExitCodes(t *testing.T) {
 	<circle cx="10" cy="10" r="4" fill="#1f77b4"/><circle cx="30" cy="10" r="4" fill="#1f77b4" opacity="0.5"/><circle cx="50" cy="10" r="4" stroke="red" fill="none"/></svg>`), 0o644))
 	code, out, errs := runCmd("check", "--json", page)
 	require.Equal(t, 0, code, errs)
-	var rep report
+	var rep report.Report
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
 	require.Len(t, rep.Pages, 1)
 	require.Len(t, rep.Pages[0].Charts, 1)
@@ -135,7 +137,7 @@ func TestCheckAnalysis(t *testing.T) {
 	require.NoError(t, os.WriteFile(page, []byte(b.String()), 0o644))
 	code, out, errs := runCmd("check", "--json", "--emphasis", ".hero", page)
 	require.Equal(t, 0, code, errs)
-	var rep report
+	var rep report.Report
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
 	c := rep.Pages[0].Charts[0]
 	require.Len(t, c.Marks, 7)
@@ -218,7 +220,7 @@ func TestLiteratureDisplaysThroughCheck(t *testing.T) {
 	verdicts := func(path string) map[string]int {
 		code, out, errs := runCmd("check", "--json", path)
 		require.Equal(t, 0, code, errs)
-		var rep report
+		var rep report.Report
 		require.NoError(t, json.Unmarshal([]byte(out), &rep))
 		c := rep.Pages[0].Charts[0]
 		require.Len(t, c.Marks, 36)

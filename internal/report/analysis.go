@@ -1,4 +1,4 @@
-package main
+package report
 
 import (
 	"math"
@@ -9,10 +9,10 @@ import (
 	"standout/perception/colour"
 )
 
-// toPerception converts a walked chart into the analysis input: each mark's
+// ToPerception converts a walked chart into the analysis input: each mark's
 // painted colour composited over the chart background, its size channel
 // and geometry.
-func toPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
+func ToPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
 	bg := dom.Unpack(ch.Background).SRGB
 	in := perception.Input{Background: bg}
 	conv := func(m dom.Mark) perception.Mark {
@@ -85,46 +85,46 @@ func uniq(v []int) []int {
 	return out
 }
 
-type reportResult struct {
+type Result struct {
 	Verdict  string    `json:"verdict"`
 	Channels []string  `json:"channels"`
 	SlopeMs  []float64 `json:"searchSlopeMsPerMark,omitempty"`
 }
 
-type reportFix struct {
+type Fix struct {
 	Kind     string             `json:"kind"`
 	CSS      string             `json:"css"`
 	Margin   map[string]float64 `json:"marginND"`
 	Verified bool               `json:"verified"`
 }
 
-type reportFinding struct {
-	ID       string     `json:"id"`
-	Severity string     `json:"severity"`
-	Marks    []string   `json:"marks"`
-	Message  string     `json:"message"`
-	Source   string     `json:"source"`
-	Fix      *reportFix `json:"fix,omitempty"`
+type Finding struct {
+	ID       string   `json:"id"`
+	Severity string   `json:"severity"`
+	Marks    []string `json:"marks"`
+	Message  string   `json:"message"`
+	Source   string   `json:"source"`
+	Fix      *Fix     `json:"fix,omitempty"`
 }
 
-type reportPartition struct {
+type Partition struct {
 	Cue    string `json:"cue"`
 	Groups int    `json:"groups"`
 }
 
-type reportAgreement struct {
+type Agreement struct {
 	A        string  `json:"a"`
 	B        string  `json:"b"`
 	ARI      float64 `json:"ari"`
 	Relation string  `json:"relation"`
 }
 
-type reportGroups struct {
-	Partitions []reportPartition `json:"partitions"`
-	Agreement  []reportAgreement `json:"agreement"`
+type Groups struct {
+	Partitions []Partition `json:"partitions"`
+	Agreement  []Agreement `json:"agreement"`
 }
 
-type reportEmphasis struct {
+type Emphasis struct {
 	Marks    []string        `json:"marks"`
 	Inferred bool            `json:"inferred"`
 	Holds    map[string]bool `json:"holds"`
@@ -139,17 +139,17 @@ func channelNames(cs []perception.Channel) []string {
 }
 
 // attachAnalysis adds the analysis to a report chart.
-func attachAnalysis(rc *reportChart, ch *dom.Chart, res *perception.Result) {
+func attachAnalysis(rc *Chart, ch *dom.Chart, res *perception.Result) {
 	for i := range rc.Marks {
 		r := res.Marks[i]
 		rc.Marks[i].Verdict = string(r[0].Verdict)
 		rc.Marks[i].Channels = channelNames(r[0].Channels)
 		rc.Marks[i].SearchSlope = []float64{r[0].SlopeMs[0], r[0].SlopeMs[1]}
 		rc.Marks[i].SearchMs = []float64{r[0].SearchMs[0], r[0].SearchMs[1]}
-		rc.Marks[i].CVD = map[string]reportResult{}
+		rc.Marks[i].CVD = map[string]Result{}
 		for vi, v := range perception.Visions[1:] {
 			x := r[vi+1]
-			rc.Marks[i].CVD[v.String()] = reportResult{Verdict: string(x.Verdict), Channels: channelNames(x.Channels)}
+			rc.Marks[i].CVD[v.String()] = Result{Verdict: string(x.Verdict), Channels: channelNames(x.Channels)}
 		}
 	}
 	ids := func(idx []int) []string {
@@ -161,26 +161,26 @@ func attachAnalysis(rc *reportChart, ch *dom.Chart, res *perception.Result) {
 		}
 		return out
 	}
-	rc.Findings = []reportFinding{}
+	rc.Findings = []Finding{}
 	for _, f := range res.Findings {
-		rf := reportFinding{ID: f.ID, Severity: string(f.Severity), Marks: ids(f.Marks), Message: f.Message, Source: f.Source}
+		rf := Finding{ID: f.ID, Severity: string(f.Severity), Marks: ids(f.Marks), Message: f.Message, Source: f.Source}
 		if f.Fix != nil {
 			m := map[string]float64{}
 			for k, v := range f.Fix.Margin {
 				m[k] = math.Round(v*100) / 100
 			}
-			rf.Fix = &reportFix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Margin: m, Verified: f.Fix.Verified}
+			rf.Fix = &Fix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Margin: m, Verified: f.Fix.Verified}
 		}
 		rc.Findings = append(rc.Findings, rf)
 	}
-	rc.Groups = &reportGroups{Partitions: []reportPartition{}, Agreement: []reportAgreement{}}
+	rc.Groups = &Groups{Partitions: []Partition{}, Agreement: []Agreement{}}
 	for _, p := range res.Groups.Partitions {
-		rc.Groups.Partitions = append(rc.Groups.Partitions, reportPartition{Cue: string(p.Cue), Groups: p.Groups})
+		rc.Groups.Partitions = append(rc.Groups.Partitions, Partition{Cue: string(p.Cue), Groups: p.Groups})
 	}
 	for _, a := range res.Groups.Agreements {
-		rc.Groups.Agreement = append(rc.Groups.Agreement, reportAgreement{A: string(a.A), B: string(a.B), ARI: math.Round(a.ARI*1000) / 1000, Relation: a.Relation})
+		rc.Groups.Agreement = append(rc.Groups.Agreement, Agreement{A: string(a.A), B: string(a.B), ARI: math.Round(a.ARI*1000) / 1000, Relation: a.Relation})
 	}
-	em := &reportEmphasis{Marks: ids(res.Emphasis), Inferred: res.Inferred, Holds: map[string]bool{}}
+	em := &Emphasis{Marks: ids(res.Emphasis), Inferred: res.Inferred, Holds: map[string]bool{}}
 	for vi, v := range perception.Visions {
 		em.Holds[v.String()] = res.Holds[vi]
 	}
@@ -188,7 +188,7 @@ func attachAnalysis(rc *reportChart, ch *dom.Chart, res *perception.Result) {
 }
 
 // verdictSummary says in one sentence how the marks fare.
-func verdictSummary(rc reportChart) string {
+func verdictSummary(rc Chart) string {
 	count := map[string]int{}
 	chans := map[string]int{}
 	for _, m := range rc.Marks {

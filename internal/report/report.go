@@ -1,0 +1,242 @@
+// Package report turns walked and analysed charts into Standout's
+// versioned report (docs/report.md) and its text form. The command-line
+// tool and the WebAssembly core share it, so both ways in report alike.
+package report
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"sort"
+	"strings"
+
+	"standout/dom"
+	"standout/perception"
+)
+
+// Caution is the statement of the limits of the check, carried in every
+// report.
+const Caution = "CVD simulation is a model of average readers and real readers vary; verdicts are predictions from published laboratory findings, not measurements of your audience; passing is not an accessibility audit: follow the accessibility law that applies to you, WCAG conformance reviews and tests with real readers."
+
+// Version is the version of the check --json document (see
+// docs/report.md).
+const Version = 1
+
+type Mark struct {
+	ID          string     `json:"id"`
+	Kind        string     `json:"kind"`
+	Shape       string     `json:"shape"`
+	Fill        *string    `json:"fill"`
+	Stroke      *string    `json:"stroke"`
+	FillStops   []string   `json:"fillStops,omitempty"`
+	Opacity     float64    `json:"opacity"`
+	FillOpacity float64    `json:"fillOpacity"`
+	BBox        [4]float64 `json:"bbox"`
+	Area        float64    `json:"area"`
+	Angle       float64    `json:"angle"`
+	Size        float64    `json:"size"`
+	Text        string     `json:"text,omitempty"`
+	Label       string     `json:"label,omitempty"`
+	// Analysis (absent for legend swatches).
+	Verdict     string            `json:"verdict,omitempty"`
+	Channels    []string          `json:"channels,omitempty"`
+	SearchSlope []float64         `json:"searchSlopeMsPerMark,omitempty"`
+	SearchMs    []float64         `json:"searchMsEstimate,omitempty"`
+	CVD         map[string]Result `json:"cvd,omitempty"`
+}
+
+type Chart struct {
+	Path       string         `json:"path"`
+	IsChart    bool           `json:"isChart"`
+	Reason     string         `json:"reason,omitempty"`
+	Box        [4]float64     `json:"box"`
+	Background string         `json:"background"`
+	Marks      []Mark         `json:"marks"`
+	Legend     []Mark         `json:"legend"`
+	Furniture  map[string]int `json:"furniture"`
+	Problems   []string       `json:"problems"`
+	Findings   []Finding      `json:"findings"`
+	Groups     *Groups        `json:"groups,omitempty"`
+	Emphasis   *Emphasis      `json:"emphasis,omitempty"`
+}
+
+type Page struct {
+	Source   string   `json:"source"`
+	Charts   []Chart  `json:"charts"`
+	Problems []string `json:"problems"`
+}
+
+// Report is the whole document.
+type Report struct {
+	Schema  string `json:"schema"`
+	Version int    `json:"version"`
+	Pages   []Page `json:"pages"`
+	Caution string `json:"caution"`
+}
+
+func r2(v float64) float64 { return math.Round(v*100) / 100 }
+
+func hexPtr(v *uint32) *string {
+	if v == nil {
+		return nil
+	}
+	s := dom.Hex(*v)
+	return &s
+}
+
+func toMark(m dom.Mark) Mark {
+	rm := Mark{ID: m.ID, Kind: string(m.Kind), Shape: string(m.Shape), Fill: hexPtr(m.Fill), Stroke: hexPtr(m.Stroke),
+		Opacity: r2(m.Opacity * paintAlpha(m)), FillOpacity: r2(m.FillOpacity), Area: r2(m.Area), Angle: r2(m.Angle), Size: r2(m.Size),
+		Text: m.Text, Label: m.Label}
+	for i, v := range m.BBox {
+		rm.BBox[i] = r2(v)
+	}
+	for _, s := range m.FillStops {
+		rm.FillStops = append(rm.FillStops, dom.Hex(s))
+	}
+	return rm
+}
+
+// paintAlpha is the alpha of the paint that shows the mark: the fill's when
+// it has one, else the stroke's.
+func paintAlpha(m dom.Mark) float64 {
+	if m.Fill != nil && m.FillOpacity > 0 {
+		return m.FillOpacity
+	}
+	if m.Stroke != nil {
+		return m.StrokeOpacity
+	}
+	return 1
+}
+
+// Options are the analysis settings of a check.
+type Options struct {
+	// Selector is a CSS selector naming the intended emphasis.
+	Selector string
+	// IDs names the intended emphasis by mark id.
+	IDs map[string]bool
+	// Params are the perception model's thresholds.
+	Params perception.Params
+}
+
+var DefaultOptions = Options{Params: perception.DefaultParams}
+
+// CheckFile builds, walks and analyses every chart of one file.
+func CheckFile(name string, r io.Reader, opt Options) (Page, []*dom.Chart, error) {
+	page, err := dom.Build(r, dom.Options{Source: name, Select: opt.Selector})
+	if err != nil {
+		return Page{}, nil, err
+	}
+	return FromSnapshots(name, page.Charts, page.Problems, opt)
+}
+
+// FromSnapshots walks and analyses snapshots, from the static builder or
+// a browser's read pass.
+func FromSnapshots(name string, snaps []dom.Snapshot, problems []string, opt Options) (Page, []*dom.Chart, error) {
+	rp := Page{Source: name, Problems: nonNil(problems), Charts: []Chart{}}
+	var charts []*dom.Chart
+	for i := range snaps {
+		ch, err := dom.Walk(&snaps[i])
+		if err != nil {
+			return Page{}, nil, err
+		}
+		charts = append(charts, ch)
+		rc := Chart{Path: ch.Path, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
+			Background: dom.Hex(ch.Background), Marks: []Mark{}, Legend: []Mark{},
+			Furniture: ch.Furniture, Problems: nonNil(ch.Problems)}
+		for _, m := range ch.Marks {
+			rc.Marks = append(rc.Marks, toMark(m))
+		}
+		for _, m := range ch.Legend {
+			rc.Legend = append(rc.Legend, toMark(m))
+		}
+		rc.Findings = []Finding{}
+		if ch.IsChart {
+			res := perception.Analyse(ToPerception(ch, opt.IDs), opt.Params)
+			attachAnalysis(&rc, ch, res)
+		}
+		rp.Charts = append(rp.Charts, rc)
+	}
+	return rp, charts, nil
+}
+
+func nonNil(s []string) []string {
+	if s == nil {
+		return []string{}
+	}
+	return s
+}
+
+// WriteText lists each chart with its marks grouped by kind, shape and
+// colour.
+func WriteText(w io.Writer, p Page, charts []*dom.Chart) {
+	fmt.Fprintf(w, "%s: %d drawing(s)\n", p.Source, len(p.Charts))
+	for _, pr := range p.Problems {
+		fmt.Fprintf(w, "  note: %s\n", pr)
+	}
+	for _, c := range p.Charts {
+		if !c.IsChart {
+			fmt.Fprintf(w, "  %s: not a chart (%s)\n", c.Path, c.Reason)
+			continue
+		}
+		fmt.Fprintf(w, "  %s: %d data marks, %.0f×%.0f px on %s\n", c.Path, len(c.Marks), c.Box[2], c.Box[3], c.Background)
+		type key struct{ kind, shape, fill, stroke string }
+		groups := map[key]int{}
+		for _, m := range c.Marks {
+			k := key{m.Kind, m.Shape, "none", "none"}
+			if m.Fill != nil {
+				k.fill = *m.Fill
+			}
+			if m.Stroke != nil {
+				k.stroke = *m.Stroke
+			}
+			groups[k]++
+		}
+		keys := make([]key, 0, len(groups))
+		for k := range groups {
+			keys = append(keys, k)
+		}
+		sort.Slice(keys, func(i, j int) bool {
+			if groups[keys[i]] != groups[keys[j]] {
+				return groups[keys[i]] > groups[keys[j]]
+			}
+			return fmt.Sprint(keys[i]) < fmt.Sprint(keys[j])
+		})
+		for _, k := range keys {
+			fmt.Fprintf(w, "    %5d %-6s %-8s fill %-8s stroke %s\n", groups[k], k.kind, k.shape, k.fill, k.stroke)
+		}
+		if len(c.Legend) > 0 {
+			fmt.Fprintf(w, "    legend: %d entries\n", len(c.Legend))
+		}
+		var furn []string
+		for k, v := range c.Furniture {
+			furn = append(furn, fmt.Sprintf("%s %d", k, v))
+		}
+		sort.Strings(furn)
+		if len(furn) > 0 {
+			fmt.Fprintf(w, "    set aside: %s\n", strings.Join(furn, ", "))
+		}
+		for _, pr := range c.Problems {
+			fmt.Fprintf(w, "    note: %s\n", pr)
+		}
+		if sum := verdictSummary(c); sum != "" {
+			fmt.Fprintf(w, "    at a glance: %s.\n", sum)
+		}
+		for _, f := range c.Findings {
+			fmt.Fprintf(w, "    [%s] %s\n", f.Severity, f.Message)
+			if f.Fix != nil {
+				state := "checked: the emphasis then pops out for every vision type"
+				if !f.Fix.Verified {
+					state = "not enough on its own: colour alone cannot make it pop for every reader"
+				}
+				what := "recolour the emphasis"
+				if f.Fix.Kind == "mute-others" {
+					what = "mute the other marks"
+				}
+				fmt.Fprintf(w, "        fix: %s with `%s` (%s)\n", what, f.Fix.CSS, state)
+			}
+		}
+	}
+}
+
+func fmtInt(n int) string { return fmt.Sprint(n) }
