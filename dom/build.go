@@ -112,6 +112,8 @@ type builder struct {
 	html map[*html.Node]*computed // computed styles of HTML ancestors
 	snap *Snapshot
 	sel  cascadia.SelectorGroup
+	// useStack holds the <use> targets being expanded, to refuse cycles.
+	useStack map[*html.Node]bool
 }
 
 // walkNodes visits n and its descendants in document order without
@@ -384,10 +386,21 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 		}
 	}
 	ctm = ctm.Mul(inner)
+	for _, v := range ctm {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			snap.Problems = append(snap.Problems, fmt.Sprintf("%s: the accumulated transform overflows; the element is not drawn", name))
+			ctm = IdentityMatrix
+			inner = Matrix{}
+			break
+		}
+	}
 	node := Node{
 		Parent: parent, Tag: tag, Name: name, CTM: ctm,
 		FillOpacity: number01(st.v[pFillOpacity], 1), StrokeOpacity: number01(st.v[pStrokeOpacity], 1),
 		Opacity: number01(st.v[pOpacity], 1),
+	}
+	if inner == (Matrix{}) {
+		node.Flags |= Hidden
 	}
 	if sw, ok := length(st.v[pStrokeWidth], 16); ok && sw >= 0 {
 		node.StrokeWidth = sw
@@ -415,7 +428,7 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 			v := attr(n, k)
 			if v == "" {
 				if (tag == "rect" || tag == "image") && (k == "rx" || k == "ry") {
-					node.Geom[i] = math.NaN() // auto
+					node.Geom[i] = -1 // auto (JSON has no NaN)
 				}
 				continue
 			}
@@ -500,6 +513,21 @@ func (b *builder) expandUse(n *html.Node, idx int32, name string, st *computed, 
 		b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: <use> refers to missing #%s", name, clip(ref[1:], 60)))
 		return nil
 	}
+	for p := n; p != nil; p = p.Parent {
+		if p == target {
+			b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: <use> refers to #%s, which contains it (a reference cycle); not expanded", name, clip(ref[1:], 60)))
+			return nil
+		}
+	}
+	if b.useStack[target] {
+		b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: <use> of #%s inside its own expansion (a reference cycle); not expanded", name, clip(ref[1:], 60)))
+		return nil
+	}
+	if b.useStack == nil {
+		b.useStack = map[*html.Node]bool{}
+	}
+	b.useStack[target] = true
+	defer delete(b.useStack, target)
 	if depth >= MaxUseDepth {
 		b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: <use> nesting deeper than %d (a reference cycle?); not expanded", name, MaxUseDepth))
 		return nil

@@ -2,6 +2,7 @@ package dom
 
 import (
 	"bytes"
+	"encoding/json"
 	"math"
 	"os"
 	"path/filepath"
@@ -138,6 +139,7 @@ func FuzzDocument(f *testing.F) {
 	}
 	f.Add([]byte(`<svg><g><circle r="NaN"/><rect width="Infinity" height="1"/><path d="M0,0L1e400,0"/>`))
 	f.Add([]byte(`<svg viewBox="0 0 0 0"><use href="#a" id="a"/></svg>`))
+	f.Add([]byte(`<svg><g transform="scale(1e300)"><g transform="scale(1e300)"><circle r="1"/></g></g></svg>`))
 	f.Fuzz(func(t *testing.T, b []byte) {
 		if len(b) > 1<<18 {
 			return
@@ -145,6 +147,11 @@ func FuzzDocument(f *testing.F) {
 		p, err := Build(bytes.NewReader(b), Options{Source: "fuzz"})
 		if err != nil {
 			return
+		}
+		// Snapshots cross to JavaScript as JSON, which has no NaN or
+		// infinity: they must always encode.
+		if _, err := json.Marshal(p.Charts); err != nil {
+			t.Fatalf("snapshot does not encode: %v", err)
 		}
 		for i := range p.Charts {
 			ch, err := Walk(&p.Charts[i])

@@ -98,5 +98,11 @@ func TestHostileUseCycle(t *testing.T) {
 	doc := `<svg width="100" height="100"><g id="a"><use href="#a"/><circle cx="5" cy="5" r="3"/></g></svg>`
 	p, err := Build(strings.NewReader(doc), Options{Source: "cycle"})
 	require.NoError(t, err)
-	assert.Contains(t, strings.Join(p.Charts[0].Problems, "\n"), "nesting deeper")
+	assert.Contains(t, strings.Join(p.Charts[0].Problems, "\n"), "reference cycle")
+	// Two references per level to a target that contains them would
+	// otherwise expand 2^16 times.
+	doc = `<svg width="100" height="100"><g id="t"><use href="#t"/><use href="#t"/><circle r="2"/></g></svg>`
+	p, err = Build(strings.NewReader(doc), Options{Source: "bomb"})
+	require.NoError(t, err)
+	assert.Less(t, len(p.Charts[0].Nodes), 20)
 }

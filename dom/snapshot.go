@@ -50,7 +50,7 @@ type Node struct {
 	// mark id, such as "svg0/g1/circle3".
 	Name string `json:"n"`
 	// Geom holds the tag's numeric geometry attributes in this order:
-	//	rect, image, svg: x y width height rx ry
+	//	rect, image, svg: x y width height rx ry (rx, ry −1 for auto)
 	//	circle: cx cy r
 	//	ellipse: cx cy rx ry
 	//	line: x1 y1 x2 y2

@@ -187,7 +187,7 @@ func Walk(s *Snapshot) (*Chart, error) {
 			g.BBox = [4]float64{nd.BBox[0], nd.BBox[1], nd.BBox[2], nd.BBox[3]}
 		}
 		c.g = g
-		if !finiteBox(g.BBox) {
+		if !finiteBox(g.BBox) || !finiteBox([4]float64{g.Area, g.Angle, g.Centroid.X, g.Centroid.Y}) || math.IsInf(nd.StrokeWidth*math.Sqrt(math.Abs(Matrix(nd.CTM).Det())), 0) {
 			ch.Problems = append(ch.Problems, fmt.Sprintf("%s: geometry is not finite; skipped", nd.Name))
 			continue
 		}

@@ -1,0 +1,87 @@
+// Package main is the WebAssembly core of the extension: a thin layer that
+// takes the read pass's snapshots as one JSON request and returns the
+// report as one JSON response. The request handling (this file) is plain
+// Go and tests natively; main_js.go only moves strings across syscall/js.
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"runtime/debug"
+
+	"standout/dom"
+	"standout/internal/report"
+	"standout/perception/colour"
+)
+
+// Request is what the extension sends.
+type Request struct {
+	// Type is "analyse".
+	Type   string `json:"type"`
+	Source string `json:"source"`
+	// Snapshots are the charts the read pass found.
+	Snapshots []dom.Snapshot `json:"snapshots"`
+	// Problems are page-level notes from the read pass (frames that could
+	// not be read, …).
+	Problems []string `json:"problems"`
+	// Emphasis names the intended emphasis by mark id.
+	Emphasis   []string `json:"emphasis"`
+	Severity   *float64 `json:"severity"`
+	DistanceCM float64  `json:"distanceCm"`
+	PxPerInch  float64  `json:"pxPerInch"`
+}
+
+// Response is what the core answers: a report, or an error.
+type Response struct {
+	OK     bool           `json:"ok"`
+	Error  string         `json:"error,omitempty"`
+	Report *report.Report `json:"report,omitempty"`
+}
+
+// Handle answers one request. It never panics: a panic becomes an error
+// response with the stack, so nothing crosses into JavaScript.
+func Handle(req []byte) (out []byte) {
+	defer func() {
+		if r := recover(); r != nil {
+			out = errorResponse(fmt.Sprintf("internal error: %v\n%s", r, debug.Stack()))
+		}
+	}()
+	var q Request
+	if err := json.Unmarshal(req, &q); err != nil {
+		return errorResponse("bad request: " + err.Error())
+	}
+	if q.Type != "analyse" {
+		return errorResponse(fmt.Sprintf("unknown request type %q", q.Type))
+	}
+	opt := report.DefaultOptions
+	if q.Severity != nil {
+		if !(*q.Severity >= 0 && *q.Severity <= 1) {
+			return errorResponse("severity must be within [0, 1]")
+		}
+		opt.Params.Severity = *q.Severity
+	}
+	if q.DistanceCM > 0 && q.PxPerInch > 0 {
+		opt.Params.ND.Viewing = colour.Viewing{DistanceCM: q.DistanceCM, CSSPxPerInch: q.PxPerInch}
+	}
+	if len(q.Emphasis) > 0 {
+		opt.IDs = map[string]bool{}
+		for _, id := range q.Emphasis {
+			opt.IDs[id] = true
+		}
+	}
+	page, _, err := report.FromSnapshots(q.Source, q.Snapshots, q.Problems, opt)
+	if err != nil {
+		return errorResponse(err.Error())
+	}
+	rep := &report.Report{Schema: "standout-report", Version: report.Version, Pages: []report.Page{page}, Caution: report.Caution}
+	b, err := json.Marshal(Response{OK: true, Report: rep})
+	if err != nil {
+		return errorResponse(err.Error())
+	}
+	return b
+}
+
+func errorResponse(msg string) []byte {
+	b, _ := json.Marshal(Response{OK: false, Error: msg})
+	return b
+}

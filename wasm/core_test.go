@@ -1,0 +1,59 @@
+package main
+
+import (
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"standout/dom"
+)
+
+func TestHandleStaticSnapshot(t *testing.T) {
+	// A snapshot from the static builder goes through the core exactly as
+	// a browser snapshot would.
+	doc := `<svg width="200" height="100"><g><rect x="0" y="50" width="10" height="50" fill="#999"/><rect x="20" y="40" width="10" height="60" fill="#999"/>
+	<rect x="40" y="30" width="10" height="70" fill="#d62728"/><rect x="60" y="45" width="10" height="55" fill="#999"/></g></svg>`
+	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
+	require.NoError(t, err)
+	req, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Emphasis: []string{"svg0/g0/rect2"}})
+	require.NoError(t, err, "snapshots must be JSON-safe")
+	var resp Response
+	require.NoError(t, json.Unmarshal(Handle(req), &resp))
+	require.True(t, resp.OK, resp.Error)
+	c := resp.Report.Pages[0].Charts[0]
+	require.Len(t, c.Marks, 4)
+	assert.Equal(t, "pops", c.Marks[2].Verdict)
+	assert.Equal(t, []string{"svg0/g0/rect2"}, c.Emphasis.Marks)
+}
+
+func TestHandleErrors(t *testing.T) {
+	for _, in := range []string{`{`, `{"type":"nope"}`, `{"type":"analyse","severity":3}`,
+		`{"type":"analyse","snapshots":[{"v":99,"nodes":[]}]}`,
+		`{"type":"analyse","snapshots":[{"v":1,"nodes":[{"p":5,"t":"svg"}]}]}`} {
+		var resp Response
+		require.NoError(t, json.Unmarshal(Handle([]byte(in)), &resp), in)
+		assert.False(t, resp.OK, in)
+		assert.NotEmpty(t, resp.Error, in)
+	}
+}
+
+func TestJSOnlyFilesHaveConstraint(t *testing.T) {
+	// Every file that touches syscall/js must carry the js && wasm
+	// constraint, so the rest builds and tests natively.
+	files, _ := filepath.Glob("*.go")
+	require.NotEmpty(t, files)
+	for _, f := range files {
+		b, err := os.ReadFile(f)
+		require.NoError(t, err)
+		s := string(b)
+		if regexp.MustCompile(`(?m)^\s*(import\s+)?"syscall/js"\s*$`).MatchString(s) {
+			assert.True(t, strings.HasPrefix(s, "//go:build js && wasm"), "%s imports syscall/js without the js && wasm constraint", f)
+		}
+	}
+}
