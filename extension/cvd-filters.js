@@ -2,9 +2,10 @@
 // feColorMatrix values (color-interpolation-filters: linearRGB) for the CVD
 // preview, indexed by type and by severity in tenths (0 … 10). Protan, deutan
 // and tritan are Machado, Oliveira & Fernandes (2009); achromat keeps
-// relative luminance only.
+// relative luminance only. A classic script, so that both the module
+// service worker and injected content scripts can load it.
 
-export const CVD_FILTERS = {
+globalThis.standoutCVDFilters = Object.freeze({
   protan: [
     "1 0 0 0 0 0 1 0 0 0 0 0 1 0 0 0 0 0 1 0",
     "0.856167 0.182038 -0.038205 0 0 0.029342 0.955115 0.015544 0 0 -0.00288 -0.001563 1.004443 0 0 0 0 0 1 0",
@@ -57,4 +58,4 @@ export const CVD_FILTERS = {
     "0.29134 0.6436799999999999 0.06498 0 0 0.19134 0.7436799999999999 0.06498 0 0 0.19134 0.6436799999999999 0.16497999999999996 0 0 0 0 0 1 0",
     "0.2126 0.7152 0.0722 0 0 0.2126 0.7152 0.0722 0 0 0.2126 0.7152 0.0722 0 0 0 0 0 1 0",
   ],
-};
+});

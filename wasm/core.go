@@ -8,6 +8,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"runtime/debug"
+	"strings"
 
 	"standout/dom"
 	"standout/internal/report"
@@ -36,6 +37,8 @@ type Response struct {
 	OK     bool           `json:"ok"`
 	Error  string         `json:"error,omitempty"`
 	Report *report.Report `json:"report,omitempty"`
+	// Markdown is the same report, ready for a ticket.
+	Markdown string `json:"markdown,omitempty"`
 }
 
 // Handle answers one request. It never panics: a panic becomes an error
@@ -74,7 +77,9 @@ func Handle(req []byte) (out []byte) {
 		return errorResponse(err.Error())
 	}
 	rep := &report.Report{Schema: "standout-report", Version: report.Version, Pages: []report.Page{page}, Caution: report.Caution}
-	b, err := json.Marshal(Response{OK: true, Report: rep})
+	var md strings.Builder
+	report.WriteMarkdown(&md, rep, nil)
+	b, err := json.Marshal(Response{OK: true, Report: rep, Markdown: md.String()})
 	if err != nil {
 		return errorResponse(err.Error())
 	}

@@ -2,16 +2,13 @@ package main
 
 import (
 	"bytes"
-	"embed"
 	"flag"
 	"fmt"
 	"io"
 	"io/fs"
+	"standout/internal/demo"
 	"standout/internal/report"
 )
-
-//go:embed demo/*.html
-var demoPages embed.FS
 
 func runDemo(args []string, stdout, stderr io.Writer) int {
 	fl := flag.NewFlagSet("demo", flag.ContinueOnError)
@@ -19,7 +16,7 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 	if err := parseFlags(fl, args); err != nil {
 		return 2
 	}
-	names, err := fs.Glob(demoPages, "demo/*.html")
+	names, err := fs.Glob(demo.Pages, "pages/*.html")
 	if err != nil || len(names) == 0 {
 		fmt.Fprintln(stderr, "standout demo: no built-in pages")
 		return 2
@@ -27,7 +24,7 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 	fmt.Fprintln(stdout, "Standout demo: the built-in example pages (an invented newsroom scenario), read without a browser.")
 	fmt.Fprintln(stdout)
 	for _, name := range names {
-		data, _ := demoPages.ReadFile(name)
+		data, _ := demo.Pages.ReadFile(name)
 		rp, charts, err := report.CheckFile(name, bytes.NewReader(data), report.DefaultOptions)
 		if err != nil {
 			fmt.Fprintf(stderr, "standout demo: %s: %v\n", name, err)

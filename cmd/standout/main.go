@@ -7,6 +7,7 @@
 //	standout check [--json] FILE…     marks of every chart in HTML or SVG files
 //	standout palette [flags] COLOUR…  a palette's differences for every reader
 //	standout demo                     the whole check on the built-in example
+//	standout extension DIR            a ready-to-load browser extension
 //
 // Exit codes: 0 clean, 1 findings at or above --fail-on, 2 bad usage or
 // unreadable input.
@@ -40,6 +41,8 @@ func run(args []string, stdout, stderr io.Writer) int {
 		return runPalette(args[1:], stdout, stderr)
 	case "demo":
 		return runDemo(args[1:], stdout, stderr)
+	case "extension":
+		return runExtension(args[1:], stdout, stderr)
 	case "help", "-h", "--help":
 		usage(stdout)
 		return 0
@@ -56,6 +59,7 @@ commands:
   check FILE…         list the data marks of every chart in HTML or SVG files
   palette COLOUR…     check a palette for every reader before a chart exists
   demo                run the whole check on the built-in example page
+  extension DIR       write a ready-to-load browser extension folder
 
 Run "standout COMMAND -h" for a command's flags.`)
 }

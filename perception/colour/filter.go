@@ -29,8 +29,9 @@ func FilterModule() []byte {
 	b.WriteString("// feColorMatrix values (color-interpolation-filters: linearRGB) for the CVD\n")
 	b.WriteString("// preview, indexed by type and by severity in tenths (0 … 10). Protan, deutan\n")
 	b.WriteString("// and tritan are Machado, Oliveira & Fernandes (2009); achromat keeps\n")
-	b.WriteString("// relative luminance only.\n\n")
-	b.WriteString("export const CVD_FILTERS = {\n")
+	b.WriteString("// relative luminance only. A classic script, so that both the module\n")
+	b.WriteString("// service worker and injected content scripts can load it.\n\n")
+	b.WriteString("globalThis.standoutCVDFilters = Object.freeze({\n")
 	for _, d := range Deficiencies {
 		fmt.Fprintf(&b, "  %s: [\n", d)
 		for i := 0; i <= 10; i++ {
@@ -39,6 +40,6 @@ func FilterModule() []byte {
 		}
 		b.WriteString("  ],\n")
 	}
-	b.WriteString("};\n")
+	b.WriteString("});\n")
 	return b.Bytes()
 }

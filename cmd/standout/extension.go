@@ -1,0 +1,32 @@
+package main
+
+import (
+	"flag"
+	"fmt"
+	"io"
+
+	"standout/extension"
+)
+
+// runExtension writes a ready-to-load extension folder: the embedded
+// extension files, the Go core built for WebAssembly, and the wasm_exec.js
+// of the Go toolchain that built it.
+func runExtension(args []string, stdout, stderr io.Writer) int {
+	fl := flag.NewFlagSet("extension", flag.ContinueOnError)
+	fl.SetOutput(stderr)
+	firefox := fl.Bool("firefox", false, "write the Firefox manifest (event page) instead of Chromium's")
+	fl.Usage = func() {
+		fmt.Fprintln(stderr, "usage: standout extension [--firefox] DIR   (run from the Standout repository: it builds the WebAssembly core with the go tool)")
+		fl.PrintDefaults()
+	}
+	if err := parseFlags(fl, args); err != nil || fl.NArg() != 1 {
+		fl.Usage()
+		return 2
+	}
+	if err := extension.Build(fl.Arg(0), *firefox); err != nil {
+		fmt.Fprintln(stderr, "standout extension:", err)
+		return 2
+	}
+	fmt.Fprintf(stdout, "Wrote the extension to %s. Load it unpacked: chrome://extensions → Developer mode → Load unpacked.\n", fl.Arg(0))
+	return 0
+}

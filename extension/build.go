@@ -1,0 +1,90 @@
+package extension
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+)
+
+// Build writes a ready-to-load extension into dir: the embedded files, the
+// Go core built for WebAssembly (GOOS=js GOARCH=wasm) and the wasm_exec.js
+// of the very toolchain that built it, never a hand-kept copy. It needs
+// the go tool and the Standout source, found from the working directory up.
+func Build(dir string, firefox bool) error {
+	root, err := moduleRoot()
+	if err != nil {
+		return err
+	}
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
+	}
+	err = fs.WalkDir(Files, ".", func(p string, d fs.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		b, err := Files.ReadFile(p)
+		if err != nil {
+			return err
+		}
+		name := p
+		switch p {
+		case "manifest.json":
+			if firefox {
+				return nil
+			}
+		case "manifest.firefox.json":
+			if !firefox {
+				return nil
+			}
+			name = "manifest.json"
+		}
+		return os.WriteFile(filepath.Join(dir, name), b, 0o644)
+	})
+	if err != nil {
+		return err
+	}
+	abs, err := filepath.Abs(filepath.Join(dir, "standout.wasm"))
+	if err != nil {
+		return err
+	}
+	cmd := exec.Command("go", "build", "-trimpath", "-o", abs, "./wasm")
+	cmd.Dir = root
+	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		return fmt.Errorf("building the WebAssembly core: %v\n%s", err, out)
+	}
+	goroot, err := exec.Command("go", "env", "GOROOT").Output()
+	if err != nil {
+		return fmt.Errorf("finding the Go toolchain: %w", err)
+	}
+	gr := strings.TrimSpace(string(goroot))
+	for _, p := range []string{filepath.Join(gr, "lib", "wasm", "wasm_exec.js"), filepath.Join(gr, "misc", "wasm", "wasm_exec.js")} {
+		if b, err := os.ReadFile(p); err == nil {
+			return os.WriteFile(filepath.Join(dir, "wasm_exec.js"), b, 0o644)
+		}
+	}
+	return errors.New("wasm_exec.js not found in the Go toolchain at " + gr)
+}
+
+// moduleRoot finds the Standout module from the working directory up.
+func moduleRoot() (string, error) {
+	d, err := os.Getwd()
+	if err != nil {
+		return "", err
+	}
+	for {
+		b, err := os.ReadFile(filepath.Join(d, "go.mod"))
+		if err == nil && strings.HasPrefix(strings.TrimSpace(string(b)), "module standout") {
+			return d, nil
+		}
+		parent := filepath.Dir(d)
+		if parent == d {
+			return "", errors.New("run this from the Standout repository: it builds the WebAssembly core from source")
+		}
+		d = parent
+	}
+}

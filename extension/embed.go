@@ -1,0 +1,22 @@
+// Package extension holds the browser extension's files, so that
+// `standout extension DIR` can write a ready-to-load folder and the
+// command line's browser mode can use the extension's own read pass.
+package extension
+
+import "embed"
+
+// Files are the extension's source files (manifests and scripts). The
+// WebAssembly core and wasm_exec.js are added at build time.
+//
+//go:embed manifest.json manifest.firefox.json background.js reader.js overlay.js cvd-filters.js
+var Files embed.FS
+
+// Reader is the read pass (reader.js), shared with the browser mode of the
+// command-line tool.
+func Reader() string {
+	b, err := Files.ReadFile("reader.js")
+	if err != nil {
+		panic("extension: reader.js missing from the embedded files")
+	}
+	return string(b)
+}

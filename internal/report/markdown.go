@@ -1,0 +1,109 @@
+package report
+
+import (
+	"fmt"
+	"io"
+	"strings"
+)
+
+// WriteMarkdown writes a report for a ticket: per chart, what stands out,
+// the findings in sentences, suggested fixes as CSS, and the cautions.
+// pngs optionally maps a chart ("source#path") to an image file to embed.
+func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
+	fmt.Fprintln(w, "# Standout report")
+	fmt.Fprintln(w)
+	for _, p := range r.Pages {
+		fmt.Fprintf(w, "## %s\n\n", mdEscape(p.Source))
+		for _, pr := range p.Problems {
+			fmt.Fprintf(w, "- Note: %s\n", mdEscape(pr))
+		}
+		if len(p.Problems) > 0 {
+			fmt.Fprintln(w)
+		}
+		charts := 0
+		for _, c := range p.Charts {
+			if !c.IsChart {
+				continue
+			}
+			charts++
+			fmt.Fprintf(w, "### Chart `%s`\n\n", c.Path)
+			if img, ok := pngs[p.Source+"#"+c.Path]; ok {
+				fmt.Fprintf(w, "![Chart %s with Standout's outlines](%s)\n\n", c.Path, img)
+			}
+			fmt.Fprintf(w, "%d data marks. At a glance: %s.\n\n", len(c.Marks), orNone(verdictSummary(c)))
+			if c.Emphasis != nil && len(c.Emphasis.Marks) > 0 {
+				var ok, lost []string
+				for _, v := range []string{"normal", "protan", "deutan", "tritan", "achromat"} {
+					if c.Emphasis.Holds[v] {
+						ok = append(ok, v)
+					} else {
+						lost = append(lost, v)
+					}
+				}
+				how := "Declared emphasis"
+				if c.Emphasis.Inferred {
+					how = "Emphasis (inferred)"
+				}
+				fmt.Fprintf(w, "%s: `%s`. Stands out for: %s. Lost for: %s.\n\n", how, strings.Join(c.Emphasis.Marks, "`, `"), orNone(strings.Join(ok, ", ")), orNone(strings.Join(lost, ", ")))
+			}
+			if len(c.Findings) == 0 {
+				fmt.Fprintln(w, "No findings.")
+				fmt.Fprintln(w)
+				continue
+			}
+			fmt.Fprintln(w, "| severity | finding | rule | source |")
+			fmt.Fprintln(w, "| --- | --- | --- | --- |")
+			for _, f := range c.Findings {
+				fmt.Fprintf(w, "| %s | %s | `%s` | %s |\n", f.Severity, mdCell(f.Message), f.ID, mdCell(f.Source))
+			}
+			fmt.Fprintln(w)
+			for _, f := range c.Findings {
+				if f.Fix == nil {
+					continue
+				}
+				what := "Recolour the emphasised marks"
+				if f.Fix.Kind == "mute-others" {
+					what = "Mute the other marks"
+				}
+				state := "re-checked: the emphasis then stands out for every vision type"
+				if !f.Fix.Verified {
+					state = "not enough on its own for every reader"
+				}
+				fmt.Fprintf(w, "Suggested fix for `%s` (%s):\n\n```css\n%s;\n```\n\n", f.ID, state, f.Fix.CSS)
+				fmt.Fprintf(w, "%s. Smallest difference to any other mark, in noticeable-difference units: %s.\n\n", what, margins(f.Fix.Margin))
+			}
+		}
+		if charts == 0 {
+			fmt.Fprintln(w, "No charts found.")
+			fmt.Fprintln(w)
+		}
+	}
+	fmt.Fprintf(w, "> %s\n", r.Caution)
+}
+
+func margins(m map[string]float64) string {
+	var s []string
+	for _, v := range []string{"normal", "protan", "deutan", "tritan", "achromat"} {
+		if x, ok := m[v]; ok {
+			s = append(s, fmt.Sprintf("%s %.1f", v, x))
+		}
+	}
+	return strings.Join(s, ", ")
+}
+
+func orNone(s string) string {
+	if s == "" {
+		return "none"
+	}
+	return s
+}
+
+// mdEscape neutralises Markdown in page-derived text.
+func mdEscape(s string) string {
+	r := strings.NewReplacer("\\", "\\\\", "`", "\\`", "*", "\\*", "_", "\\_", "[", "\\[", "]", "\\]", "<", "&lt;", ">", "&gt;", "#", "\\#", "|", "\\|")
+	return r.Replace(s)
+}
+
+func mdCell(s string) string {
+	return strings.ReplaceAll(mdEscape(strings.ReplaceAll(s, "\n", " ")), "\\#", "#")
+}
