@@ -172,7 +172,6 @@
       l.svg.setAttribute('height', String(Math.max(1, l.readBox[3] + 40)));
       l.svg.style.width = `${Math.max(1, l.readBox[2] + 40)}px`;
       l.svg.style.height = `${Math.max(1, l.readBox[3] + 40)}px`;
-      l.svg.style.marginLeft = '0px';
     }
   }
 

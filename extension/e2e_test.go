@@ -1,0 +1,522 @@
+package extension
+
+// End-to-end tests: a real headless Chromium with the built extension
+// loaded, pages served by httptest, and the toolbar action pressed through
+// CDP Extensions.triggerAction on the tab target (which grants activeTab as
+// a click does). They skip on a machine without Chromium and fail under
+// CI=true.
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"fmt"
+	"image/png"
+	"math"
+	"net/http"
+	"net/http/httptest"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+	"sync"
+	"testing"
+	"time"
+
+	cdpbrowser "github.com/chromedp/cdproto/browser"
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/dom"
+	"github.com/chromedp/cdproto/extensions"
+	"github.com/chromedp/cdproto/input"
+	"github.com/chromedp/cdproto/page"
+	"github.com/chromedp/cdproto/runtime"
+	"github.com/chromedp/cdproto/target"
+	"github.com/chromedp/chromedp"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+	"golang.org/x/net/html"
+
+	sdom "standout/dom"
+	"standout/internal/browser"
+	"standout/internal/demo"
+	"standout/internal/report"
+	"standout/perception/colour"
+)
+
+var (
+	buildOnce sync.Once
+	builtDir  string
+	buildErr  error
+)
+
+// built builds the extension once per test binary.
+func built(t testing.TB) string {
+	buildOnce.Do(func() {
+		d, err := os.MkdirTemp("", "standout-ext-")
+		if err != nil {
+			buildErr = err
+			return
+		}
+		builtDir, buildErr = d, Build(d, false)
+	})
+	require.NoError(t, buildErr)
+	return builtDir
+}
+
+type harness struct {
+	t     testing.TB
+	ctx   context.Context
+	extID string
+	url   string
+}
+
+func chromium(t testing.TB) string {
+	exe, err := browser.Find("")
+	if err != nil {
+		if os.Getenv("CI") == "true" {
+			t.Fatalf("Chromium is required under CI=true: %v", err)
+		}
+		t.Skip(err)
+	}
+	return exe
+}
+
+func newHarness(t testing.TB) *harness {
+	exe := chromium(t)
+	dir := built(t)
+	actx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, Extension: dir, UserDataDir: t.TempDir()})
+	t.Cleanup(cancel)
+	ctx, cancel2 := chromedp.NewContext(actx)
+	t.Cleanup(cancel2)
+	require.NoError(t, chromedp.Do(ctx, chromedp.Navigate("about:blank")))
+	h := &harness{t: t, ctx: ctx}
+	deadline := time.Now().Add(15 * time.Second)
+	for h.extID == "" && time.Now().Before(deadline) {
+		ts, _ := chromedp.Targets(ctx)
+		for _, ti := range ts {
+			if strings.HasPrefix(ti.URL, "chrome-extension://") {
+				h.extID = strings.SplitN(strings.TrimPrefix(ti.URL, "chrome-extension://"), "/", 2)[0]
+			}
+		}
+		time.Sleep(50 * time.Millisecond)
+	}
+	require.NotEmpty(t, h.extID, "the extension's service worker did not start")
+	return h
+}
+
+func (h *harness) open(url string) {
+	h.url = url
+	require.NoError(h.t, chromedp.Do(h.ctx, chromedp.Navigate(url)))
+}
+
+// trigger presses the toolbar action.
+func (h *harness) trigger() {
+	res, err := chromedp.CallBrowser(h.ctx, target.GetTargets, target.GetTargetsParams{Filter: target.Filter{{Type: "tab"}}})
+	require.NoError(h.t, err)
+	tab := ""
+	for _, ti := range res.TargetInfos {
+		if ti.Type == "tab" && ti.URL == h.url {
+			tab = string(ti.TargetID)
+		}
+	}
+	require.NotEmpty(h.t, tab, "no tab target for %s", h.url)
+	_, err = chromedp.CallBrowser(h.ctx, extensions.TriggerAction, extensions.TriggerActionParams{ID: h.extID, TargetID: tab})
+	require.NoError(h.t, err)
+}
+
+func (h *harness) eval(expr string) string {
+	v, err := chromedp.Run(h.ctx, chromedp.Evaluate[string](expr))
+	require.NoError(h.t, err, expr)
+	return v
+}
+
+// state is the overlay host's data-state ("" when there is none).
+func (h *harness) state() string {
+	return h.eval(`(() => { const e = document.querySelector('standout-overlay'); return e ? (e.getAttribute('data-state') || 'open') : ''; })()`)
+}
+
+func (h *harness) waitState(want string) {
+	deadline := time.Now().Add(20 * time.Second)
+	got := ""
+	for time.Now().Before(deadline) {
+		if got = h.state(); got == want {
+			return
+		}
+		time.Sleep(50 * time.Millisecond)
+	}
+	h.t.Fatalf("overlay state %q, want %q", got, want)
+}
+
+// overlayHTML serialises the overlay host with its closed shadow root.
+func (h *harness) overlayHTML() string {
+	s, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) (string, error) {
+		depth := int64(-1)
+		pierce := true
+		doc, err := cdp.Call(ctx, tg, dom.GetDocument, dom.GetDocumentParams{Depth: &depth, Pierce: &pierce})
+		if err != nil {
+			return "", err
+		}
+		var find func(n *cdp.Node) *cdp.Node
+		find = func(n *cdp.Node) *cdp.Node {
+			if n.LocalName == "standout-overlay" {
+				return n
+			}
+			for _, c := range n.Children {
+				if f := find(c); f != nil {
+					return f
+				}
+			}
+			return nil
+		}
+		host := find(doc.Root)
+		if host == nil {
+			return "", fmt.Errorf("no overlay host")
+		}
+		inc := true
+		out, err := cdp.Call(ctx, tg, dom.GetOuterHTML, dom.GetOuterHTMLParams{NodeID: host.NodeID, IncludeShadowDOM: &inc})
+		return out.OuterHTML, err
+	})
+	require.NoError(h.t, err)
+	return s
+}
+
+// callInOverlay runs fn (a JS function taking the element) on the first
+// element of the overlay's shadow root that has the data-action attribute.
+func (h *harness) callInOverlay(action, fn string) {
+	_, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		depth := int64(-1)
+		pierce := true
+		doc, err := cdp.Call(ctx, tg, dom.GetDocument, dom.GetDocumentParams{Depth: &depth, Pierce: &pierce})
+		if err != nil {
+			return chromedp.Void{}, err
+		}
+		var find func(n *cdp.Node) *cdp.Node
+		find = func(n *cdp.Node) *cdp.Node {
+			for i := 0; i+1 < len(n.Attributes); i += 2 {
+				if n.Attributes[i] == "data-action" && n.Attributes[i+1] == action {
+					return n
+				}
+			}
+			for _, c := range append(append([]*cdp.Node{}, n.ShadowRoots...), n.Children...) {
+				if f := find(c); f != nil {
+					return f
+				}
+			}
+			return nil
+		}
+		n := find(doc.Root)
+		if n == nil {
+			return chromedp.Void{}, fmt.Errorf("no control %q in the overlay", action)
+		}
+		obj, err := cdp.Call(ctx, tg, dom.ResolveNode, dom.ResolveNodeParams{NodeID: n.NodeID})
+		if err != nil {
+			return chromedp.Void{}, err
+		}
+		_, err = cdp.Call(ctx, tg, runtime.CallFunctionOn, runtime.CallFunctionOnParams{FunctionDeclaration: fn, ObjectID: obj.Object.ObjectID})
+		return chromedp.Void{}, err
+	})
+	require.NoError(h.t, err)
+}
+
+// layerRects parses the overlay's layers: for each chart, per verdict, the
+// outline rectangles in page px (the drawn outline is the mark's box grown
+// by 1.5 px).
+func layerRects(t testing.TB, overlay string) map[string]map[string][][4]float64 {
+	doc, err := html.Parse(strings.NewReader(overlay))
+	require.NoError(t, err)
+	out := map[string]map[string][][4]float64{}
+	px := regexp.MustCompile(`(?:^|;)\s*(left|top):\s*([-\d.]+)px`)
+	var walk func(n *html.Node, chart string, ox, oy float64)
+	walk = func(n *html.Node, chart string, ox, oy float64) {
+		attr := func(k string) string {
+			for _, a := range n.Attr {
+				if a.Key == k {
+					return a.Val
+				}
+			}
+			return ""
+		}
+		if n.Type == html.ElementNode && n.Data == "svg" && strings.Contains(attr("class"), "layer") {
+			chart = attr("data-chart")
+			for _, m := range px.FindAllStringSubmatch(attr("style"), -1) {
+				v, _ := strconv.ParseFloat(m[2], 64)
+				if m[1] == "left" {
+					ox = v
+				} else {
+					oy = v
+				}
+			}
+			out[chart] = map[string][][4]float64{}
+		}
+		if n.Type == html.ElementNode && n.Data == "path" && attr("data-verdict") != "" && chart != "" {
+			subs, _, err := sdom.ParsePath(attr("d"))
+			require.NoError(t, err)
+			for _, s := range subs {
+				minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+				for _, p := range s.Pts {
+					minX, maxX = math.Min(minX, p.X), math.Max(maxX, p.X)
+					minY, maxY = math.Min(minY, p.Y), math.Max(maxY, p.Y)
+				}
+				v := attr("data-verdict")
+				out[chart][v] = append(out[chart][v], [4]float64{ox + minX + 1.5, oy + minY + 1.5, maxX - minX - 3, maxY - minY - 3})
+			}
+		}
+		for c := n.FirstChild; c != nil; c = c.NextSibling {
+			walk(c, chart, ox, oy)
+		}
+	}
+	walk(doc, "", 0, 0)
+	return out
+}
+
+// markRects resolves mark ids ("svg0/g1/rect3") to the elements' boxes in
+// page px, from getBoundingClientRect.
+func (h *harness) markRects(ids []string) [][4]float64 {
+	b, _ := json.Marshal(ids)
+	js := `(() => {
+	  const tops = [...document.querySelectorAll('svg')].filter((s) => !s.parentElement.closest('svg'));
+	  const find = (id) => {
+	    const parts = id.split('/');
+	    let el = tops[Number(parts[0].slice(3))];
+	    for (const p of parts.slice(1)) { el = el.children[Number(/\d+$/.exec(p)[0])]; }
+	    return el;
+	  };
+	  return JSON.stringify(` + string(b) + `.map((id) => { const r = find(id).getBoundingClientRect(); return [r.left + scrollX, r.top + scrollY, r.width, r.height]; }));
+	})()`
+	var out [][4]float64
+	require.NoError(h.t, json.Unmarshal([]byte(h.eval(js)), &out))
+	return out
+}
+
+func serve(t testing.TB, handler http.HandlerFunc) *httptest.Server {
+	s := httptest.NewServer(handler)
+	t.Cleanup(s.Close)
+	return s
+}
+
+func demoPage(t testing.TB) []byte {
+	b, err := demo.Pages.ReadFile("pages/harbour-ferries.html")
+	require.NoError(t, err)
+	return b
+}
+
+func TestE2EOverlayMatchesStaticPath(t *testing.T) {
+	h := newHarness(t)
+	page := demoPage(t)
+	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		w.Write(page)
+	})
+	h.open(srv.URL + "/")
+	h.trigger()
+	h.waitState("ready")
+	layers := layerRects(t, h.overlayHTML())
+
+	static, _, err := report.CheckFile("demo", bytes.NewReader(page), report.DefaultOptions)
+	require.NoError(t, err)
+	charts := 0
+	for _, c := range static.Charts {
+		if !c.IsChart {
+			continue
+		}
+		charts++
+		got, ok := layers[c.Path]
+		require.True(t, ok, "no overlay layer for %s", c.Path)
+		byVerdict := map[string][]string{}
+		for _, m := range c.Marks {
+			byVerdict[m.Verdict] = append(byVerdict[m.Verdict], m.ID)
+		}
+		for v, ids := range byVerdict {
+			rects := h.markRects(ids)
+			require.Len(t, got[v], len(ids), "%s: %s outlines", c.Path, v)
+			for i, want := range rects {
+				match := false
+				for _, r := range got[v] {
+					if math.Abs(r[0]-want[0]) <= 1 && math.Abs(r[1]-want[1]) <= 1 && math.Abs(r[2]-want[2]) <= 1 && math.Abs(r[3]-want[3]) <= 1 {
+						match = true
+					}
+				}
+				assert.True(t, match, "%s %s: mark %s at %v has no %s outline within 1 px (outlines %v)", c.Path, v, ids[i], want, v, got[v])
+			}
+		}
+	}
+	require.Equal(t, 3, charts)
+}
+
+// chartPage is a small bar chart with an emphasis.
+const chartSVG = `<svg width="240" height="120"><g>
+<rect x="10" y="40" width="30" height="80" fill="#8a8a8a"/><rect x="50" y="30" width="30" height="90" fill="#8a8a8a"/>
+<rect x="90" y="10" width="30" height="110" fill="#c2410c"/><rect x="130" y="50" width="30" height="70" fill="#8a8a8a"/>
+<rect x="170" y="60" width="30" height="60" fill="#8a8a8a"/></g></svg>`
+
+func TestE2EStrictCSPFrameAndShadowRoot(t *testing.T) {
+	h := newHarness(t)
+	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		switch r.URL.Path {
+		case "/csp":
+			w.Header().Set("Content-Security-Policy", "default-src 'self'; script-src 'self'")
+			fmt.Fprintf(w, `<!doctype html><html><body><h1>Strict CSP</h1>%s</body></html>`, chartSVG)
+		case "/frame":
+			fmt.Fprintf(w, `<!doctype html><html><body style="margin:0">%s</body></html>`, chartSVG)
+		case "/frames":
+			fmt.Fprint(w, `<!doctype html><html><body><p>Outer</p><iframe src="/frame" width="300" height="160" style="border:3px solid #000"></iframe></body></html>`)
+		case "/shadow.js":
+			w.Header().Set("Content-Type", "text/javascript")
+			fmt.Fprintf(w, "customElements.define('bar-card', class extends HTMLElement { connectedCallback() { this.attachShadow({mode: 'open'}).innerHTML = %q; } });", chartSVG)
+		case "/shadow":
+			fmt.Fprint(w, `<!doctype html><html><head><script src="/shadow.js"></script></head><body><bar-card></bar-card></body></html>`)
+		}
+	})
+	for _, c := range []struct{ path, chart string }{{"/csp", "svg0"}, {"/frames", "frame0/svg0"}, {"/shadow", "shadow0/svg0"}} {
+		t.Run(c.path, func(t *testing.T) {
+			h.t = t
+			h.open(srv.URL + c.path)
+			h.trigger()
+			h.waitState("ready")
+			layers := layerRects(t, h.overlayHTML())
+			require.Contains(t, layers, c.chart)
+			assert.Len(t, layers[c.chart]["pops"], 1, "the orange bar pops")
+			assert.Len(t, layers[c.chart]["blends"], 4)
+			// The outline sits on the bar as the page shows it.
+			pos := h.eval(`(() => {
+			  let doc = document, ox = scrollX, oy = scrollY;
+			  const f = document.querySelector('iframe');
+			  if (f) { const r = f.getBoundingClientRect(); ox += r.left + 3; oy += r.top + 3; doc = f.contentDocument; }
+			  const host = document.querySelector('bar-card');
+			  const root = host ? host.shadowRoot : doc;
+			  const r = root.querySelectorAll('rect')[2].getBoundingClientRect();
+			  return JSON.stringify([r.left + ox, r.top + oy, r.width, r.height]);
+			})()`)
+			var want [4]float64
+			require.NoError(t, json.Unmarshal([]byte(pos), &want))
+			got := layers[c.chart]["pops"][0]
+			for i := range want {
+				assert.InDelta(t, want[i], got[i], 1, "%s box %d", c.path, i)
+			}
+			h.trigger() // pressing the action again closes the check
+			h.waitState("")
+		})
+	}
+}
+
+func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
+	h := newHarness(t)
+	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprint(w, `<!doctype html><html><body style="margin:0;background:#fff"><svg width="400" height="300" style="display:block"><rect x="0" y="0" width="300" height="200" fill="#d62728"/><rect x="320" y="10" width="20" height="20" fill="#1f77b4"/><rect x="350" y="10" width="20" height="20" fill="#2ca02c"/></svg></body></html>`)
+	})
+	h.open(srv.URL + "/")
+	before := h.eval(`document.documentElement.outerHTML`)
+	h.trigger()
+	h.waitState("ready")
+	h.callInOverlay("cvd", `function () { this.value = 'deutan'; this.dispatchEvent(new Event('change')); }`)
+	time.Sleep(300 * time.Millisecond)
+	shot, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
+		res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng})
+		return res.Data, err
+	})
+	require.NoError(t, err)
+	img, err := png.Decode(bytes.NewReader(shot))
+	require.NoError(t, err)
+	r, g, b, _ := img.At(100, 150).RGBA()
+	got := colour.SRGB8(uint8(r>>8), uint8(g>>8), uint8(b>>8))
+	want := colour.Simulate(colour.Deutan, 1, colour.MustHex("#d62728"))
+	// The browser runs the same matrix in linear RGB (feColorMatrix with
+	// color-interpolation-filters: linearRGB) on 8-bit buffers: allow 3
+	// levels per channel for the two 8-bit quantisations.
+	const tol = 3.0 / 255
+	assert.InDelta(t, want.R, got.R, tol, "R: got %s want %s", got.Hex(), want.Hex())
+	assert.InDelta(t, want.G, got.G, tol, "G: got %s want %s", got.Hex(), want.Hex())
+	assert.InDelta(t, want.B, got.B, tol, "B: got %s want %s", got.Hex(), want.Hex())
+	// Switching the preview off, then closing with Escape, leaves the page
+	// exactly as it was.
+	h.callInOverlay("cvd", `function () { this.value = 'off'; this.dispatchEvent(new Event('change')); }`)
+	require.NoError(t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		for _, typ := range []input.DispatchKeyEventType{input.DispatchKeyEventTypeKeyDown, input.DispatchKeyEventTypeKeyUp} {
+			if _, err := cdp.Call(ctx, tg, input.DispatchKeyEvent, input.DispatchKeyEventParams{Type: typ, Key: "Escape", Code: "Escape", WindowsVirtualKeyCode: 27}); err != nil {
+				return chromedp.Void{}, err
+			}
+		}
+		return chromedp.Void{}, nil
+	}))
+	h.waitState("")
+	assert.Equal(t, before, h.eval(`document.documentElement.outerHTML`))
+}
+
+func TestE2EPickingAndExport(t *testing.T) {
+	h := newHarness(t)
+	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprintf(w, `<!doctype html><html><body style="margin:0">%s</body></html>`, chartSVG)
+	})
+	h.open(srv.URL + "/")
+	h.trigger()
+	h.waitState("ready")
+	// Pick the second (grey) bar: the check then says whether it stands out.
+	h.callInOverlay("pick", `function () { this.click(); }`)
+	require.NoError(t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		for _, typ := range []input.DispatchMouseEventType{input.DispatchMouseEventTypeMousePressed, input.DispatchMouseEventTypeMouseReleased} {
+			if _, err := cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: typ, X: 65, Y: 80, Button: input.MouseButtonLeft, ClickCount: 1}); err != nil {
+				return chromedp.Void{}, err
+			}
+		}
+		return chromedp.Void{}, nil
+	}))
+	h.eval(`document.querySelector('standout-overlay').removeAttribute('data-state'), ''`)
+	h.callInOverlay("check-emphasis", `function () { this.click(); }`)
+	h.waitState("ready")
+	ov := h.overlayHTML()
+	assert.Contains(t, ov, "Declared emphasis (1 mark) stands out for normal: no")
+
+	// Export the JSON report: it decodes as the documented schema.
+	dl := t.TempDir()
+	_, err := chromedp.CallBrowser(h.ctx, cdpbrowser.SetDownloadBehavior, cdpbrowser.SetDownloadBehaviorParams{Behavior: cdpbrowser.SetDownloadBehaviorBehaviorAllow, DownloadPath: dl})
+	require.NoError(t, err)
+	h.callInOverlay("export-json", `function () { this.click(); }`)
+	var data []byte
+	for i := 0; i < 100 && data == nil; i++ {
+		time.Sleep(100 * time.Millisecond)
+		data, _ = os.ReadFile(filepath.Join(dl, "standout-report.json"))
+	}
+	require.NotNil(t, data, "no exported report")
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	var rep report.Report
+	require.NoError(t, dec.Decode(&rep))
+	assert.Equal(t, "standout-report", rep.Schema)
+	assert.Equal(t, report.Version, rep.Version)
+	require.Len(t, rep.Pages, 1)
+	require.Len(t, rep.Pages[0].Charts, 1)
+	c := rep.Pages[0].Charts[0]
+	assert.Len(t, c.Marks, 5)
+	assert.Equal(t, []string{"svg0/g0/rect1"}, c.Emphasis.Marks)
+	for _, m := range c.Marks {
+		assert.Contains(t, []string{"pops", "conjunction", "blends"}, m.Verdict)
+		assert.Len(t, m.CVD, 4)
+	}
+}
+
+func TestE2EShortcutDeclared(t *testing.T) {
+	// The keyboard shortcut is the manifest's _execute_action command,
+	// which the browser routes to the same action handler the toolbar
+	// button uses (tested above). Synthetic CDP key events reach the page,
+	// not the browser's accelerator table, so the binding itself is checked
+	// here.
+	for _, f := range []string{"manifest.json", "manifest.firefox.json"} {
+		b, err := Files.ReadFile(f)
+		require.NoError(t, err)
+		var m struct {
+			Commands map[string]struct {
+				SuggestedKey map[string]string `json:"suggested_key"`
+			} `json:"commands"`
+			Permissions []string `json:"permissions"`
+			HostPerms   []string `json:"host_permissions"`
+		}
+		require.NoError(t, json.Unmarshal(b, &m), f)
+		assert.Equal(t, "Alt+Shift+S", m.Commands["_execute_action"].SuggestedKey["default"], f)
+		assert.ElementsMatch(t, []string{"activeTab", "scripting"}, m.Permissions, f)
+		assert.Empty(t, m.HostPerms, f)
+	}
+}
