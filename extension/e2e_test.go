@@ -494,7 +494,12 @@ func TestE2EPickingAndExport(t *testing.T) {
 	assert.Equal(t, []string{"svg0/g0/rect1"}, c.Emphasis.Marks)
 	for _, m := range c.Marks {
 		assert.Contains(t, []string{"pops", "conjunction", "blends"}, m.Verdict)
-		assert.Len(t, m.CVD, 4)
+		require.NotNil(t, m.CVD)
+		for _, v := range []string{"protan", "deutan", "tritan", "achromat"} {
+			r, ok := m.CVD.Get(v)
+			assert.True(t, ok)
+			assert.Contains(t, []string{"pops", "conjunction", "blends"}, r.Verdict)
+		}
 	}
 }
 
@@ -518,5 +523,50 @@ func TestE2EShortcutDeclared(t *testing.T) {
 		assert.Equal(t, "Alt+Shift+S", m.Commands["_execute_action"].SuggestedKey["default"], f)
 		assert.ElementsMatch(t, []string{"activeTab", "scripting"}, m.Permissions, f)
 		assert.Empty(t, m.HostPerms, f)
+	}
+}
+
+func TestE2EReRunsWhenTheChartChanges(t *testing.T) {
+	h := newHarness(t)
+	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprintf(w, `<!doctype html><html><body style="margin:0">%s</body></html>`, chartSVG)
+	})
+	h.open(srv.URL + "/")
+	h.trigger()
+	h.waitState("ready")
+	require.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+	// The page recolours the emphasis to the others' grey and gives it a
+	// neighbour's height: the overlay re-runs (debounced) and nothing pops.
+	h.eval(`document.querySelector('standout-overlay').removeAttribute('data-state'), document.querySelectorAll('rect')[2].setAttribute('fill', '#8a8a8a'), document.querySelectorAll('rect')[2].setAttribute('y', '30'), document.querySelectorAll('rect')[2].setAttribute('height', '90'), ''`)
+	h.waitState("ready")
+	l := layerRects(t, h.overlayHTML())["svg0"]
+	assert.Empty(t, l["pops"])
+	assert.Len(t, l["blends"], 5)
+}
+
+// TestE2EDocsScreenshot renders the overlay on the demo page. With
+// STANDOUT_UPDATE_DOCS=1 it rewrites docs/overlay.png, the picture the
+// README shows.
+func TestE2EDocsScreenshot(t *testing.T) {
+	h := newHarness(t)
+	pg := demoPage(t)
+	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		w.Write(pg)
+	})
+	h.open(srv.URL + "/")
+	h.trigger()
+	h.waitState("ready")
+	shot, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
+		res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng})
+		return res.Data, err
+	})
+	require.NoError(t, err)
+	img, err := png.Decode(bytes.NewReader(shot))
+	require.NoError(t, err)
+	require.Greater(t, img.Bounds().Dx(), 800)
+	if os.Getenv("STANDOUT_UPDATE_DOCS") == "1" {
+		require.NoError(t, os.WriteFile("../docs/overlay.png", shot, 0o644))
 	}
 }

@@ -494,7 +494,22 @@
     state.open = true;
   }
 
-  function render(result) {
+  // unpack turns the background's {response, timing} into {report,
+  // markdown, timing}, or throws the core's error.
+  function unpack(data) {
+    const r = JSON.parse(data.response);
+    if (!r.ok) throw new Error(r.error);
+    return { report: r.report, markdown: r.markdown, timing: data.timing };
+  }
+
+  function render(data) {
+    let result;
+    try {
+      result = unpack(data);
+    } catch (e) {
+      showError(String((e && e.message) || e));
+      return;
+    }
     ensureHost();
     state.report = result.report;
     state.markdown = result.markdown;

@@ -97,7 +97,21 @@
   }
 
   // Computed fill or stroke to a Paint: {k: 0 none | 1 colour | 2 server}.
+  // Colours repeat across marks, so plain colours are cached by string.
+  const paintCache = new Map();
   function paint(v, root) {
+    if (v && !v.startsWith('url(')) {
+      let p = paintCache.get(v);
+      if (!p) {
+        p = paintUncached(v, root);
+        paintCache.set(v, p);
+      }
+      return p;
+    }
+    return paintUncached(v, root);
+  }
+
+  function paintUncached(v, root) {
     if (!v || v === 'none') return { k: 0 };
     if (v.startsWith('url(')) {
       const m = /^url\(\s*["']?#([^"')]+)["']?\s*\)\s*(.*)$/.exec(v);

@@ -145,7 +145,8 @@ func TestCheckAnalysis(t *testing.T) {
 	assert.Equal(t, "pops", hero.Verdict)
 	assert.Contains(t, hero.Channels, "hue")
 	for _, v := range []string{"protan", "deutan", "tritan", "achromat"} {
-		require.Contains(t, hero.CVD, v)
+		_, ok := hero.CVD.Get(v)
+		require.True(t, ok, v)
 	}
 	assert.Equal(t, "blends", c.Marks[0].Verdict)
 	require.NotNil(t, c.Emphasis)

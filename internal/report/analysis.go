@@ -146,11 +146,11 @@ func attachAnalysis(rc *Chart, ch *dom.Chart, res *perception.Result) {
 		rc.Marks[i].Channels = channelNames(r[0].Channels)
 		rc.Marks[i].SearchSlope = []float64{r[0].SlopeMs[0], r[0].SlopeMs[1]}
 		rc.Marks[i].SearchMs = []float64{r[0].SearchMs[0], r[0].SearchMs[1]}
-		rc.Marks[i].CVD = map[string]Result{}
-		for vi, v := range perception.Visions[1:] {
-			x := r[vi+1]
-			rc.Marks[i].CVD[v.String()] = Result{Verdict: string(x.Verdict), Channels: channelNames(x.Channels)}
+		res := func(vi int) Result {
+			return Result{Verdict: string(r[vi].Verdict), Channels: channelNames(r[vi].Channels)}
 		}
+		// perception.Visions is normal, protan, deutan, tritan, achromat.
+		rc.Marks[i].CVD = &CVDResults{Protan: res(1), Deutan: res(2), Tritan: res(3), Achromat: res(4)}
 	}
 	ids := func(idx []int) []string {
 		out := []string{}

@@ -38,11 +38,11 @@ type Mark struct {
 	Text        string     `json:"text,omitempty"`
 	Label       string     `json:"label,omitempty"`
 	// Analysis (absent for legend swatches).
-	Verdict     string            `json:"verdict,omitempty"`
-	Channels    []string          `json:"channels,omitempty"`
-	SearchSlope []float64         `json:"searchSlopeMsPerMark,omitempty"`
-	SearchMs    []float64         `json:"searchMsEstimate,omitempty"`
-	CVD         map[string]Result `json:"cvd,omitempty"`
+	Verdict     string      `json:"verdict,omitempty"`
+	Channels    []string    `json:"channels,omitempty"`
+	SearchSlope []float64   `json:"searchSlopeMsPerMark,omitempty"`
+	SearchMs    []float64   `json:"searchMsEstimate,omitempty"`
+	CVD         *CVDResults `json:"cvd,omitempty"`
 }
 
 type Chart struct {
@@ -64,6 +64,30 @@ type Page struct {
 	Source   string   `json:"source"`
 	Charts   []Chart  `json:"charts"`
 	Problems []string `json:"problems"`
+}
+
+// CVDResults holds a mark's result for each simulated vision type. A
+// struct rather than a map: same JSON, much faster to encode.
+type CVDResults struct {
+	Protan   Result `json:"protan"`
+	Deutan   Result `json:"deutan"`
+	Tritan   Result `json:"tritan"`
+	Achromat Result `json:"achromat"`
+}
+
+// Get returns the result for a vision type name.
+func (c *CVDResults) Get(v string) (Result, bool) {
+	switch v {
+	case "protan":
+		return c.Protan, true
+	case "deutan":
+		return c.Deutan, true
+	case "tritan":
+		return c.Tritan, true
+	case "achromat":
+		return c.Achromat, true
+	}
+	return Result{}, false
 }
 
 // Report is the whole document.

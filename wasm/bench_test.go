@@ -1,0 +1,43 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"math/rand"
+	"strings"
+	"testing"
+
+	"standout/dom"
+)
+
+// benchRequest is a request with one scatter chart of n circles.
+func benchRequest(b *testing.B, n int) []byte {
+	rng := rand.New(rand.NewSource(1))
+	cols := []string{"#4c78a8", "#f58518", "#54a24b", "#b279a2"}
+	var s strings.Builder
+	s.WriteString(`<svg width="1000" height="800"><g>`)
+	for i := 0; i < n; i++ {
+		fmt.Fprintf(&s, `<circle cx="%.1f" cy="%.1f" r="3" fill="%s"/>`, 10+rng.Float64()*980, 10+rng.Float64()*780, cols[rng.Intn(4)])
+	}
+	s.WriteString(`</g></svg>`)
+	p, err := dom.Build(strings.NewReader(s.String()), dom.Options{Source: "bench"})
+	if err != nil {
+		b.Fatal(err)
+	}
+	req, err := json.Marshal(Request{Type: "analyse", Source: "bench", Snapshots: p.Charts})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return req
+}
+
+// BenchmarkHandle5k is the core's whole request for 5,000 marks: decode,
+// walk, analyse, encode the report and its Markdown.
+func BenchmarkHandle5k(b *testing.B) {
+	req := benchRequest(b, 5000)
+	b.SetBytes(int64(len(req)))
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		Handle(req)
+	}
+}
