@@ -192,6 +192,25 @@
     ];
   }
 
+  // viewBoxMatrix maps a viewBox to a w×h viewport (SVG 1.1 §7.8), the
+  // same algorithm as the static builder's.
+  function viewBoxMatrix(vb, w, h, par) {
+    const sx = w / vb[2];
+    const sy = h / vb[3];
+    const f = par.trim().split(/\s+/);
+    const align = f[0] || 'xMidYMid';
+    const slice = f[1] === 'slice';
+    if (align === 'none') return [sx, 0, 0, sy, -vb[0] * sx, -vb[1] * sy];
+    const s = slice ? Math.max(sx, sy) : Math.min(sx, sy);
+    let tx = -vb[0] * s;
+    let ty = -vb[1] * s;
+    if (align.includes('xMid')) tx += (w - vb[2] * s) / 2;
+    else if (align.includes('xMax')) tx += w - vb[2] * s;
+    if (align.includes('YMid')) ty += (h - vb[3] * s) / 2;
+    else if (align.includes('YMax')) ty += h - vb[3] * s;
+    return [s, 0, 0, s, tx, ty];
+  }
+
   function ownTransform(el) {
     const t = el.transform && el.transform.baseVal && el.transform.baseVal.consolidate();
     return t ? matrixOf(t.matrix) : [1, 0, 0, 1, 0, 0];
@@ -237,6 +256,21 @@
         o: Math.max(0, Math.min(1, num(cs.opacity))),
         sw: Math.max(0, parseFloat(cs.strokeWidth) || 0),
       };
+      if (ctmOverride && parent >= 0) {
+        // Content instantiated by <use> inherits from the <use>, not from
+        // where it is defined. Where the element's value merely repeats its
+        // defining parent's (it was inherited there), take the value the
+        // instance inherits instead.
+        const dp = el.parentElement ? getComputedStyle(el.parentElement) : null;
+        const up = snap.nodes[parent];
+        if (dp) {
+          if (cs.fill === dp.fill) node.f = up.f;
+          if (cs.stroke === dp.stroke) node.s = up.s;
+          if (cs.fillOpacity === dp.fillOpacity) node.fo = up.fo;
+          if (cs.strokeOpacity === dp.strokeOpacity) node.so = up.so;
+          if (cs.strokeWidth === dp.strokeWidth) node.sw = up.sw;
+        }
+      }
       const g = geometry(el, tag);
       if (g) node.g = g;
       if (tag === 'path') node.d = el.getAttribute('d') || '';
@@ -288,10 +322,24 @@
       const uy = el.y ? el.y.baseVal.value : 0;
       const base = mul(m, [1, 0, 0, 1, ux, uy]);
       const tname = name + '>' + target.localName.toLowerCase();
+      let inner = base;
       if (target.localName === 'symbol') {
-        snap.problems.push(`${name}: <use> of a <symbol> is read without its viewBox scaling in the browser reader`);
+        // As the static builder does (dom/build.go): a symbol is a nested
+        // viewport sized by the use's width and height (else its own, else
+        // 100), mapped from its viewBox.
+        const size = (k) => {
+          for (const e of [el, target]) {
+            const v = parseFloat(e.getAttribute(k));
+            if (e.getAttribute(k) !== null && isFinite(v)) return v;
+          }
+          return 100;
+        };
+        const vb = (target.getAttribute('viewBox') || '').trim().split(/[\s,]+/).map(Number);
+        if (vb.length === 4 && vb.every(isFinite) && vb[2] > 0 && vb[3] > 0) {
+          inner = mul(base, viewBoxMatrix(vb, size('width'), size('height'), target.getAttribute('preserveAspectRatio') || ''));
+        }
       }
-      addClone(target, idx, tname, base, depth + 1);
+      addClone(target, idx, tname, inner, depth + 1);
     };
     // Content instantiated by <use>: positions come from the use's matrix
     // and the content's own transforms, paints from computed style.
@@ -299,8 +347,15 @@
       const tag = el.localName.toLowerCase();
       if (tag === 'symbol') {
         const cs = getComputedStyle(el);
+        const dp = el.parentElement ? getComputedStyle(el.parentElement) : null;
+        const up = snap.nodes[parent];
         const gi = snap.nodes.length;
-        snap.nodes.push({ p: parent, t: 'g', n: name, m: base, f: paint(cs.fill, root), s: paint(cs.stroke, root), fo: 1, so: 1, o: num(cs.opacity), sw: 1 });
+        snap.nodes.push({
+          p: parent, t: 'g', n: name, m: base,
+          f: dp && cs.fill === dp.fill ? up.f : paint(cs.fill, root),
+          s: dp && cs.stroke === dp.stroke ? up.s : paint(cs.stroke, root),
+          fo: 1, so: 1, o: num(cs.opacity), sw: 1,
+        });
         let k = 0;
         for (const c of el.children) {
           const cname = name + '/' + c.localName.toLowerCase() + k;

@@ -1,14 +1,19 @@
 package main
 
 import (
+	"context"
 	"encoding/json"
 	"flag"
 	"fmt"
 	"io"
+	"net/url"
 	"os"
+	"path/filepath"
 	"strings"
 
 	"standout/dom"
+	"standout/extension"
+	"standout/internal/browser"
 	"standout/internal/report"
 	"standout/perception"
 	"standout/perception/colour"
@@ -23,8 +28,13 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	distance := fs.Float64("distance-cm", colour.DefaultViewing.DistanceCM, "viewing distance in cm")
 	ppi := fs.Float64("px-per-inch", colour.DefaultViewing.CSSPxPerInch, "CSS px per physical inch")
 	failOn := fs.String("fail-on", "", "exit 1 when a finding reaches this severity: info, warning or error")
+	useBrowser := fs.Bool("browser", false, "load each page or file in headless Chromium and read it as rendered")
+	chromium := fs.String("chromium", "", "path to the Chromium binary (default: $STANDOUT_CHROMIUM, then known paths)")
+	tabs := fs.Int("tabs", 2, "pages loaded at once with --browser")
+	pngDir := fs.String("png", "", "with --browser, write an annotated PNG per chart into this folder")
+	mdDir := fs.String("md", "", "write a Markdown report per page into this folder")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: standout check [flags] FILE…")
+		fmt.Fprintln(stderr, "usage: standout check [flags] FILE|URL…")
 		fs.PrintDefaults()
 	}
 	if err := parseFlags(fs, args); err != nil {
@@ -32,6 +42,14 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	}
 	if fs.NArg() == 0 {
 		fs.Usage()
+		return 2
+	}
+	if *pngDir != "" && !*useBrowser {
+		fmt.Fprintln(stderr, "standout check: --png needs --browser (the static reader has no rendering)")
+		return 2
+	}
+	if *tabs < 1 || *tabs > 32 {
+		fmt.Fprintln(stderr, "standout check: --tabs must be within 1–32")
 		return 2
 	}
 	if !(*severity >= 0 && *severity <= 1) || !(*distance > 0) || !(*ppi > 0) {
@@ -62,21 +80,77 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	}
 	rep := report.Report{Schema: "standout-report", Version: report.Version, Caution: report.Caution}
 	var all [][]*dom.Chart
-	for _, name := range fs.Args() {
-		f, err := os.Open(name)
-		if err != nil {
-			fmt.Fprintf(stderr, "standout check: %v\n", err)
+	var shots [][]byte
+	var failed []string
+	progress := newProgress(stderr, len(fs.Args()))
+	if *useBrowser {
+		if opt.Selector != "" {
+			fmt.Fprintln(stderr, "standout check: with --browser, name the emphasis by mark ids (see the report's ids), not by a selector")
 			return 2
 		}
-		rp, charts, err := report.CheckFile(name, f, opt)
-		f.Close()
+		exe, err := browser.Find(*chromium)
 		if err != nil {
-			// No partial report: the run stops with the reason.
-			fmt.Fprintf(stderr, "standout check: %s: %v\n", name, err)
+			fmt.Fprintln(stderr, "standout check:", err)
 			return 2
 		}
-		rep.Pages = append(rep.Pages, rp)
-		all = append(all, charts)
+		urls := make([]string, len(fs.Args()))
+		for i, a := range fs.Args() {
+			urls[i] = toURL(a)
+		}
+		udd, err := os.MkdirTemp("", "standout-profile-")
+		if err != nil {
+			fmt.Fprintln(stderr, "standout check:", err)
+			return 2
+		}
+		defer os.RemoveAll(udd)
+		bctx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, UserDataDir: udd})
+		defer cancel()
+		results := browser.ReadPages(bctx, urls, browser.ReadOptions{Tabs: *tabs, Screenshot: *pngDir != "", Reader: extension.Reader(), Progress: func(done, total int, r *browser.PageResult) {
+			progress.step(done, r.URL, r.Err)
+		}})
+		for i, r := range results {
+			if r.Err != nil {
+				failed = append(failed, fmt.Sprintf("%s: %v", fs.Arg(i), r.Err))
+				continue
+			}
+			var pg struct {
+				Source    string         `json:"source"`
+				Snapshots []dom.Snapshot `json:"snapshots"`
+				Problems  []string       `json:"problems"`
+			}
+			if err := json.Unmarshal([]byte(r.JSON), &pg); err != nil {
+				failed = append(failed, fmt.Sprintf("%s: the read pass returned bad data: %v", fs.Arg(i), err))
+				continue
+			}
+			rp, charts, err := report.FromSnapshots(fs.Arg(i), pg.Snapshots, pg.Problems, opt)
+			if err != nil {
+				failed = append(failed, fmt.Sprintf("%s: %v", fs.Arg(i), err))
+				continue
+			}
+			rep.Pages = append(rep.Pages, rp)
+			all = append(all, charts)
+			shots = append(shots, r.Screenshot)
+		}
+	} else {
+		for i, name := range fs.Args() {
+			rp, charts, err := checkOneFile(name, opt)
+			progress.step(i+1, name, err)
+			if err != nil {
+				failed = append(failed, fmt.Sprintf("%s: %v", name, err))
+				continue
+			}
+			rep.Pages = append(rep.Pages, rp)
+			all = append(all, charts)
+			shots = append(shots, nil)
+		}
+	}
+	progress.done()
+	rep.Errors = failed
+	if *pngDir != "" || *mdDir != "" {
+		if err := writeArtifacts(&rep, shots, *pngDir, *mdDir); err != nil {
+			fmt.Fprintln(stderr, "standout check:", err)
+			return 2
+		}
 	}
 	if *asJSON {
 		enc := json.NewEncoder(stdout)
@@ -90,6 +164,19 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 			report.WriteText(stdout, p, all[i])
 		}
 	}
+	summary := stdout
+	if *asJSON {
+		summary = stderr
+	}
+	if len(fs.Args()) > 1 || len(failed) > 0 {
+		writeSummary(summary, &rep, len(fs.Args()))
+	}
+	for _, f := range failed {
+		fmt.Fprintf(stderr, "standout check: %s\n", f)
+	}
+	if len(failed) > 0 {
+		return 2
+	}
 	if failRank >= 0 {
 		for _, p := range rep.Pages {
 			for _, c := range p.Charts {
@@ -102,6 +189,27 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		}
 	}
 	return 0
+}
+
+func checkOneFile(name string, opt report.Options) (report.Page, []*dom.Chart, error) {
+	f, err := os.Open(name)
+	if err != nil {
+		return report.Page{}, nil, err
+	}
+	defer f.Close()
+	return report.CheckFile(name, f, opt)
+}
+
+// toURL turns a file argument into a file:// URL; URLs pass through.
+func toURL(a string) string {
+	if strings.Contains(a, "://") {
+		return a
+	}
+	abs, err := filepath.Abs(a)
+	if err != nil {
+		return a
+	}
+	return (&url.URL{Scheme: "file", Path: abs}).String()
 }
 
 // looksLikeIDs tells mark ids ("svg0/g1/rect2,svg0/g1/rect3") from a CSS

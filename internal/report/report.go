@@ -92,10 +92,13 @@ func (c *CVDResults) Get(v string) (Result, bool) {
 
 // Report is the whole document.
 type Report struct {
-	Schema  string `json:"schema"`
-	Version int    `json:"version"`
-	Pages   []Page `json:"pages"`
-	Caution string `json:"caution"`
+	// Errors names the pages that could not be loaded or read; the other
+	// pages are reported in full.
+	Errors  []string `json:"errors,omitempty"`
+	Schema  string   `json:"schema"`
+	Version int      `json:"version"`
+	Pages   []Page   `json:"pages"`
+	Caution string   `json:"caution"`
 }
 
 func r2(v float64) float64 { return math.Round(v*100) / 100 }

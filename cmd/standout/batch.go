@@ -1,0 +1,148 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"image/png"
+	"io"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+
+	"standout/internal/report"
+)
+
+// progress reports a batch on stderr: a rewritten line on a terminal,
+// plain lines otherwise.
+type progress struct {
+	w     io.Writer
+	tty   bool
+	total int
+	shown bool
+}
+
+func newProgress(w io.Writer, total int) *progress {
+	p := &progress{w: w, total: total}
+	if f, ok := w.(*os.File); ok {
+		if st, err := f.Stat(); err == nil && st.Mode()&os.ModeCharDevice != 0 {
+			p.tty = true
+		}
+	}
+	return p
+}
+
+func (p *progress) step(done int, name string, err error) {
+	if p.total < 2 {
+		return
+	}
+	state := "checked"
+	if err != nil {
+		state = "FAILED"
+	}
+	if p.tty {
+		fmt.Fprintf(p.w, "\r\033[K[%d/%d] %s %s", done, p.total, state, clipS(name, 60))
+		p.shown = true
+		return
+	}
+	fmt.Fprintf(p.w, "[%d/%d] %s %s\n", done, p.total, state, name)
+}
+
+func (p *progress) done() {
+	if p.tty && p.shown {
+		fmt.Fprint(p.w, "\r\033[K")
+	}
+}
+
+// writeSummary prints the batch's totals: pages, charts, marks, findings
+// by severity.
+func writeSummary(w io.Writer, r *report.Report, asked int) {
+	charts, marks := 0, 0
+	sev := map[string]int{}
+	for _, p := range r.Pages {
+		for _, c := range p.Charts {
+			if !c.IsChart {
+				continue
+			}
+			charts++
+			marks += len(c.Marks)
+			for _, f := range c.Findings {
+				sev[f.Severity]++
+			}
+		}
+	}
+	fmt.Fprintln(w)
+	fmt.Fprintln(w, "| pages checked | pages failed | charts | marks | errors | warnings | info |")
+	fmt.Fprintln(w, "| ---: | ---: | ---: | ---: | ---: | ---: | ---: |")
+	fmt.Fprintf(w, "| %d | %d | %d | %d | %d | %d | %d |\n", len(r.Pages), len(r.Errors), charts, marks, sev["error"], sev["warning"], sev["info"])
+}
+
+var unsafeName = regexp.MustCompile(`[^A-Za-z0-9._-]+`)
+
+// fileStem makes a file name from a page's source.
+func fileStem(src string) string {
+	s := strings.TrimPrefix(strings.TrimPrefix(src, "https://"), "http://")
+	s = strings.Trim(unsafeName.ReplaceAllString(s, "-"), "-")
+	if len(s) > 80 {
+		s = s[len(s)-80:]
+	}
+	if s == "" {
+		s = "page"
+	}
+	return s
+}
+
+// writeArtifacts writes the annotated PNGs (one per chart) and the
+// Markdown reports (one per page).
+func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) error {
+	for _, d := range []string{pngDir, mdDir} {
+		if d != "" {
+			if err := os.MkdirAll(d, 0o755); err != nil {
+				return err
+			}
+		}
+	}
+	for i, p := range r.Pages {
+		stem := fmt.Sprintf("%02d-%s", i+1, fileStem(p.Source))
+		pngs := map[string]string{}
+		if pngDir != "" && i < len(shots) && shots[i] != nil {
+			img, err := png.Decode(bytes.NewReader(shots[i]))
+			if err != nil {
+				return fmt.Errorf("%s: screenshot: %w", p.Source, err)
+			}
+			for _, c := range p.Charts {
+				if !c.IsChart {
+					continue
+				}
+				name := filepath.Join(pngDir, stem+"-"+strings.ReplaceAll(c.Path, "/", "-")+".png")
+				f, err := os.Create(name)
+				if err != nil {
+					return err
+				}
+				err = png.Encode(f, report.Annotate(img, c))
+				if cerr := f.Close(); err == nil {
+					err = cerr
+				}
+				if err != nil {
+					return err
+				}
+				rel := name
+				if mdDir != "" {
+					if r, err := filepath.Rel(mdDir, name); err == nil {
+						rel = r
+					}
+				}
+				pngs[p.Source+"#"+c.Path] = filepath.ToSlash(rel)
+			}
+		}
+		if mdDir != "" {
+			var b bytes.Buffer
+			one := report.Report{Schema: r.Schema, Version: r.Version, Pages: []report.Page{p}, Caution: r.Caution}
+			report.WriteMarkdown(&b, &one, pngs)
+			if err := os.WriteFile(filepath.Join(mdDir, stem+".md"), b.Bytes(), 0o644); err != nil {
+				return err
+			}
+		}
+	}
+	return nil
+}

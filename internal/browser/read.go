@@ -1,0 +1,152 @@
+package browser
+
+import (
+	"context"
+	"fmt"
+	"sync"
+	"time"
+
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/page"
+	"github.com/chromedp/chromedp"
+)
+
+// PageResult is what the read pass found on one page.
+type PageResult struct {
+	URL string
+	// JSON is the read pass's result: {source, snapshots, problems, readMs}.
+	JSON string
+	// Screenshot is a PNG of the page's full height when requested.
+	Screenshot []byte
+	// LoadMs and ReadMs time the page load (until the DOM is stable) and
+	// the read pass.
+	LoadMs, ReadMs float64
+	Err            error
+}
+
+// ReadOptions configure a batch read.
+type ReadOptions struct {
+	// Tabs is how many pages load at once (at least 1).
+	Tabs int
+	// Screenshot asks for a full-page PNG of each page.
+	Screenshot bool
+	// Timeout bounds each page.
+	Timeout time.Duration
+	// Progress, if set, is called after each page.
+	Progress func(done, total int, r *PageResult)
+	// Reader is the read pass's source: the extension's reader.js.
+	Reader string
+}
+
+// stableJS resolves once the document has loaded and its element count
+// has not changed for 400 ms (charts drawn by script have rendered), or
+// after 8 s.
+const stableJS = `new Promise((resolve) => {
+  const t0 = performance.now();
+  let last = -1, since = performance.now();
+  const tick = () => {
+    const n = document.getElementsByTagName('*').length;
+    if (n !== last) { last = n; since = performance.now(); }
+    if ((document.readyState === 'complete' && performance.now() - since >= 400) || performance.now() - t0 > 8000) { resolve(true); return; }
+    setTimeout(tick, 50);
+  };
+  tick();
+})`
+
+// ReadPages loads each URL in a headless Chromium (browserCtx comes from
+// NewAllocator) and runs the extension's own read pass on it, with at most
+// o.Tabs pages open at once. Results are in the order of urls; a page that
+// cannot be loaded has Err set and does not stop the others.
+func ReadPages(browserCtx context.Context, urls []string, o ReadOptions) []PageResult {
+	if o.Tabs < 1 {
+		o.Tabs = 1
+	}
+	if o.Timeout <= 0 {
+		o.Timeout = 60 * time.Second
+	}
+	// Start the browser once before the tabs fan out.
+	bctx, cancel := chromedp.NewContext(browserCtx)
+	defer cancel()
+	out := make([]PageResult, len(urls))
+	if err := chromedp.Do(bctx, chromedp.Navigate("about:blank")); err != nil {
+		for i := range out {
+			out[i] = PageResult{URL: urls[i], Err: fmt.Errorf("starting the browser: %w", err)}
+		}
+		return out
+	}
+	reader := o.Reader
+	jobs := make(chan int)
+	var wg sync.WaitGroup
+	var mu sync.Mutex
+	done := 0
+	for w := 0; w < o.Tabs; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range jobs {
+				r := readOne(bctx, urls[i], reader, o)
+				out[i] = r
+				mu.Lock()
+				done++
+				if o.Progress != nil {
+					o.Progress(done, len(urls), &out[i])
+				}
+				mu.Unlock()
+			}
+		}()
+	}
+	for i := range urls {
+		jobs <- i
+	}
+	close(jobs)
+	wg.Wait()
+	return out
+}
+
+func readOne(bctx context.Context, url, reader string, o ReadOptions) PageResult {
+	r := PageResult{URL: url}
+	tctx, cancel := chromedp.NewContext(bctx)
+	defer cancel()
+	ctx, cancel2 := context.WithTimeout(tctx, o.Timeout)
+	defer cancel2()
+	t0 := time.Now()
+	resp, err := chromedp.RunResponse(ctx, chromedp.Navigate(url))
+	if err != nil {
+		r.Err = fmt.Errorf("loading %s: %w", url, err)
+		return r
+	}
+	if resp != nil && resp.Status >= 400 {
+		r.Err = fmt.Errorf("loading %s: HTTP %d", url, resp.Status)
+		return r
+	}
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[bool](stableJS, chromedp.EvalAwaitPromise)); err != nil {
+		r.Err = fmt.Errorf("waiting for %s to render: %w", url, err)
+		return r
+	}
+	r.LoadMs = float64(time.Since(t0).Microseconds()) / 1000
+	t1 := time.Now()
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[any](reader)); err != nil {
+		r.Err = fmt.Errorf("reading %s: %w", url, err)
+		return r
+	}
+	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(globalThis.standoutReader.readPage(document))`))
+	if err != nil {
+		r.Err = fmt.Errorf("reading %s: %w", url, err)
+		return r
+	}
+	r.JSON = js
+	r.ReadMs = float64(time.Since(t1).Microseconds()) / 1000
+	if o.Screenshot {
+		shot, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
+			beyond := true
+			res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng, CaptureBeyondViewport: &beyond})
+			return res.Data, err
+		})
+		if err != nil {
+			r.Err = fmt.Errorf("screenshot of %s: %w", url, err)
+			return r
+		}
+		r.Screenshot = shot
+	}
+	return r
+}

@@ -1,0 +1,98 @@
+package report
+
+import (
+	"image"
+	"image/color"
+	"image/draw"
+	"math"
+)
+
+// The overlay's visual language (extension/overlay.js), drawn into a
+// raster: per verdict a line style, a colour and a corner mark, so the
+// picture reads without colour too.
+var verdictInk = map[string]struct {
+	c      color.RGBA
+	width  int
+	dash   []int // on, off (px); nil is solid
+	corner string
+}{
+	"pops":        {color.RGBA{0x0f, 0x76, 0x6e, 0xff}, 3, nil, "notch"},
+	"conjunction": {color.RGBA{0xb4, 0x53, 0x09, 0xff}, 2, []int{7, 3}, "ring"},
+	"blends":      {color.RGBA{0x52, 0x52, 0x5b, 0xff}, 1, []int{2, 3}, ""},
+}
+
+// Annotate crops a full-page screenshot (1 image px per CSS px) to a
+// chart with a 10 px margin and outlines each mark by its verdict.
+func Annotate(page image.Image, c Chart) *image.RGBA {
+	const margin = 10
+	r := image.Rect(int(math.Floor(c.Box[0]))-margin, int(math.Floor(c.Box[1]))-margin,
+		int(math.Ceil(c.Box[0]+c.Box[2]))+margin, int(math.Ceil(c.Box[1]+c.Box[3]))+margin).Intersect(page.Bounds())
+	out := image.NewRGBA(image.Rect(0, 0, r.Dx(), r.Dy()))
+	draw.Draw(out, out.Bounds(), page, r.Min, draw.Src)
+	white := color.RGBA{0xff, 0xff, 0xff, 0xff}
+	for _, v := range []string{"blends", "conjunction", "pops"} {
+		ink := verdictInk[v]
+		for _, m := range c.Marks {
+			if m.Verdict != v {
+				continue
+			}
+			x0 := int(math.Round(m.BBox[0]-1.5)) - r.Min.X
+			y0 := int(math.Round(m.BBox[1]-1.5)) - r.Min.Y
+			x1 := int(math.Round(m.BBox[0]+m.BBox[2]+1.5)) - r.Min.X
+			y1 := int(math.Round(m.BBox[1]+m.BBox[3]+1.5)) - r.Min.Y
+			rectOutline(out, x0-1, y0-1, x1+1, y1+1, ink.width+2, nil, white)
+			rectOutline(out, x0, y0, x1, y1, ink.width, ink.dash, ink.c)
+			switch ink.corner {
+			case "notch":
+				// A right triangle at the top-right corner, as in the overlay.
+				for dy := 0; dy < 7; dy++ {
+					for dx := 0; dx < 7-dy; dx++ {
+						set(out, x1+dx, y0+dy, ink.c)
+					}
+				}
+			case "ring":
+				for a := 0.0; a < 2*math.Pi; a += 0.1 {
+					for rr := 2.5; rr <= 4; rr += 0.5 {
+						set(out, x1+int(math.Round(rr*math.Cos(a))), y0+int(math.Round(rr*math.Sin(a))), ink.c)
+					}
+				}
+			}
+		}
+	}
+	return out
+}
+
+func set(img *image.RGBA, x, y int, c color.RGBA) {
+	if image.Pt(x, y).In(img.Bounds()) {
+		img.SetRGBA(x, y, c)
+	}
+}
+
+// rectOutline draws a rectangle's outline of the given width, dashed when
+// dash is non-nil (the pattern runs along the perimeter).
+func rectOutline(img *image.RGBA, x0, y0, x1, y1, width int, dash []int, c color.RGBA) {
+	on := func(i int) bool {
+		if dash == nil {
+			return true
+		}
+		p := dash[0] + dash[1]
+		return i%p < dash[0]
+	}
+	i := 0
+	for x := x0; x <= x1; x, i = x+1, i+1 {
+		if on(i) {
+			for w := 0; w < width; w++ {
+				set(img, x, y0+w, c)
+				set(img, x, y1-w, c)
+			}
+		}
+	}
+	for y := y0; y <= y1; y, i = y+1, i+1 {
+		if on(i) {
+			for w := 0; w < width; w++ {
+				set(img, x0+w, y, c)
+				set(img, x1-w, y, c)
+			}
+		}
+	}
+}
