@@ -30,9 +30,15 @@ type Options struct {
 	// Dark selects the dark value of light-dark().
 	Dark bool
 	// Select is a CSS selector whose matches are recorded in each
-	// snapshot's Selected list (an intended emphasis).
+	// snapshot's Selected list (an intended emphasis). Empty means
+	// DefaultEmphasisSelector.
 	Select string
 }
+
+// DefaultEmphasisSelector marks the intended emphasis in a page's own
+// markup: authors add the attribute data-standout-emphasis to the marks
+// (or a group of them) that are the point of the chart.
+const DefaultEmphasisSelector = "[data-standout-emphasis]"
 
 // Page is what the static builder found in one document.
 type Page struct {
@@ -63,7 +69,10 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	}
 	page := &Page{Source: opt.Source}
 	b := &builder{opt: opt, ids: map[string]*html.Node{}, page: page}
-	if opt.Select != "" {
+	if opt.Select == "" {
+		opt.Select = DefaultEmphasisSelector
+	}
+	{
 		sel, err := cascadia.ParseGroup(opt.Select)
 		if err != nil {
 			return nil, fmt.Errorf("dom: selector %q: %w", opt.Select, err)

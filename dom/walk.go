@@ -446,9 +446,33 @@ func classifyFurniture(ch *Chart, cands []*cand) {
 			check(idx)
 		}
 	}
+	// A line through the centres of several other shapes connects data,
+	// whatever its regularity: it is not a gridline.
+	through := func(s seg) int {
+		n := 0
+		for _, o := range cands {
+			if o == s.c || o.role != "" || !o.g.Closed {
+				continue
+			}
+			c := o.g.Centroid
+			tol := s.c.strokeW/2 + 1.5
+			if s.vert && math.Abs(c.X-s.a.X) <= tol && c.Y >= s.a.Y-tol && c.Y <= s.b.Y+tol ||
+				!s.vert && math.Abs(c.Y-s.a.Y) <= tol && c.X >= s.a.X-tol && c.X <= s.b.X+tol {
+				n++
+				if n >= 2 {
+					break
+				}
+			}
+		}
+		return n
+	}
 	var tickEnds []Point
 	for i, s := range segs {
 		if !isAxis[i] {
+			continue
+		}
+		if s.L >= 15 && through(s) >= 2 {
+			isAxis[i] = false
 			continue
 		}
 		if s.L < 15 {
@@ -797,6 +821,9 @@ func makeMark(c *cand) Mark {
 		m.Size = math.Max(c.g.BBox[2], c.g.BBox[3])
 		if m.Kind == KindRule {
 			m.Size = c.g.Length
+			for _, s := range c.g.Subpaths {
+				m.Vertices = append(m.Vertices, s.Pts...)
+			}
 		}
 	case KindLine:
 		if m.Fill == nil || c.fillA == 0 {

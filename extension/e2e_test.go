@@ -110,8 +110,25 @@ func (h *harness) open(url string) {
 	require.NoError(h.t, chromedp.Do(h.ctx, chromedp.Navigate(url)))
 }
 
-// trigger presses the toolbar action.
+// trigger presses the toolbar action. If the page has no overlay a few
+// seconds later (the press can race the tab's first paint under load), it
+// presses once more.
 func (h *harness) trigger() {
+	had := h.state() != ""
+	h.press()
+	if had {
+		return
+	}
+	for i := 0; i < 100; i++ {
+		if h.state() != "" {
+			return
+		}
+		time.Sleep(100 * time.Millisecond)
+	}
+	h.press()
+}
+
+func (h *harness) press() {
 	res, err := chromedp.CallBrowser(h.ctx, target.GetTargets, target.GetTargetsParams{Filter: target.Filter{{Type: "tab"}}})
 	require.NoError(h.t, err)
 	tab := ""
@@ -137,7 +154,9 @@ func (h *harness) state() string {
 }
 
 func (h *harness) waitState(want string) {
-	deadline := time.Now().Add(20 * time.Second)
+	// Generous: CI runs other test packages on the same two cores, and the
+	// first check compiles the WebAssembly core.
+	deadline := time.Now().Add(45 * time.Second)
 	got := ""
 	for time.Now().Before(deadline) {
 		if got = h.state(); got == want {

@@ -293,6 +293,9 @@
       }
       const idx = snap.nodes.length;
       snap.nodes.push(node);
+      if (el.hasAttribute('data-standout-emphasis')) {
+        (snap.sel = snap.sel || []).push(idx);
+      }
       if (tag === 'text' || tag === 'title' || tag === 'desc' || NOT_RENDERED.has(tag)) return;
       if (tag === 'use') {
         expandUse(el, idx, name, m, useDepth);

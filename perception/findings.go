@@ -89,7 +89,7 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 	}
 	who := "The emphasised " + plural(len(em), "mark", "marks")
 	if res.Inferred {
-		who = "The " + plural(len(em), "mark that stands out", fmt.Sprintf("%d marks that stand out", len(em)))
+		who = "The " + plural(len(em), "mark that differs from the rest", fmt.Sprintf("%d marks that differ from the rest", len(em)))
 	}
 	normal := res.Holds[0]
 	if normal {
@@ -206,11 +206,25 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 		marks []int
 		nd    [3]float64
 	}
+	// Categories are compared within one kind of mark: the colour of a
+	// connecting line is no category of the dots it joins.
+	kindCount := map[string]int{}
+	for _, m := range in.Marks {
+		if m.Kind != "text" {
+			kindCount[m.Kind]++
+		}
+	}
+	main := ""
+	for k, n := range kindCount {
+		if n > kindCount[main] || n == kindCount[main] && k < main {
+			main = k
+		}
+	}
 	byHex := map[colour.SRGB]*col{}
 	var cols []*col
 	shapes := map[string]bool{}
 	for i, m := range in.Marks {
-		if m.Kind == "text" {
+		if m.Kind != main {
 			continue
 		}
 		shapes[m.Shape] = true
@@ -243,7 +257,15 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 			Message: fmt.Sprintf("The chart uses %d distinguishable colours as categories; beyond %d they are hard to tell apart and to match to a legend.", distinct, p.MaxHues),
 			Source:  srcHues})
 	}
-	if distinct >= 2 && len(shapes) == 1 && !in.Labelled {
+	// Categories, not a highlight: at least two colours with two or more
+	// marks each.
+	multi := 0
+	for _, c := range cols {
+		if len(c.marks) >= 2 {
+			multi++
+		}
+	}
+	if distinct >= 2 && multi >= 2 && len(shapes) == 1 && !in.Labelled {
 		// SC 1.4.1: colour alone, unless the colours also differ by 3:1.
 		lumOK := true
 		for a := range cols {

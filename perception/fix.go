@@ -136,7 +136,15 @@ func suggestFix(in Input, p Params, em []int, res *Result) *Fix {
 		})
 		fixes = append(fixes, f)
 	}
+	// Prefer the change that touches fewest marks: recolouring the
+	// emphasis, when it works for every reader; else muting the others;
+	// else whichever gets closer.
 	var pick *Fix
+	for _, f := range fixes {
+		if f.Verified && f.Kind == "recolour-emphasis" {
+			return f
+		}
+	}
 	for _, f := range fixes {
 		if pick == nil || f.Verified && !pick.Verified || f.Verified == pick.Verified && minMargin(f) > minMargin(pick) {
 			pick = f

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"fmt"
 	"image/png"
 	"io"
@@ -10,6 +11,8 @@ import (
 	"regexp"
 	"strings"
 
+	"standout/dom"
+	"standout/extension"
 	"standout/internal/report"
 )
 
@@ -81,7 +84,11 @@ var unsafeName = regexp.MustCompile(`[^A-Za-z0-9._-]+`)
 
 // fileStem makes a file name from a page's source.
 func fileStem(src string) string {
-	s := strings.TrimPrefix(strings.TrimPrefix(src, "https://"), "http://")
+	s := src
+	if !strings.Contains(s, "://") {
+		s = filepath.Base(s) // a file: its name is enough
+	}
+	s = strings.TrimPrefix(strings.TrimPrefix(s, "https://"), "http://")
 	s = strings.Trim(unsafeName.ReplaceAllString(s, "-"), "-")
 	if len(s) > 80 {
 		s = s[len(s)-80:]
@@ -145,4 +152,16 @@ func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) erro
 		}
 	}
 	return nil
+}
+
+// readerJS is the extension's read pass.
+func readerJS() string { return extension.Reader() }
+
+// analyseJSON walks and analyses snapshots given as JSON.
+func analyseJSON(source string, snaps []byte) (report.Page, []*dom.Chart, error) {
+	var s []dom.Snapshot
+	if err := json.Unmarshal(snaps, &s); err != nil {
+		return report.Page{}, nil, err
+	}
+	return report.FromSnapshots(source, s, nil, report.DefaultOptions)
 }

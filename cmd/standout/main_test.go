@@ -109,13 +109,31 @@ func TestCheckJSONAndExitCodes(t *testing.T) {
 }
 
 func TestDemo(t *testing.T) {
-	code, out, errs := runCmd("demo")
+	code, out, errs := runCmd("demo", "--static")
 	require.Equal(t, 0, code, errs)
 	// The invented page holds a deutan collapse and a low-contrast series.
 	assert.Contains(t, out, "For deutan readers #c0392b and #3f9b3a look the same")
 	assert.Contains(t, out, "need 3:1")
 	assert.Contains(t, out, "pops out at a glance")
+	// Every kind of finding the demo is built to show.
+	for _, want := range []string{
+		"The emphasised mark pops out",                                                 // an emphasis that works
+		"can be found only as a combination",                                           // only a conjunction carries it
+		"Grouping by colour and grouping by connectedness carve the marks differently", // colour fights position
+		"The emphasised mark does not stand out",                                       // a weak emphasis drowns in a crowd
+	} {
+		assert.Contains(t, out, want)
+	}
 	assert.True(t, strings.Contains(out, "Caution:"))
+}
+
+func TestDemoInBrowser(t *testing.T) {
+	needBrowser(t)
+	code, out, errs := runCmd("demo")
+	require.Equal(t, 0, code, errs)
+	assert.Contains(t, out, "read as rendered in headless Chromium")
+	assert.Contains(t, out, "For deutan readers #c0392b and #3f9b3a look the same")
+	assert.Contains(t, out, "can be found only as a combination")
 }
 
 func TestCheckAnalysis(t *testing.T) {

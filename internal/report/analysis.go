@@ -43,6 +43,12 @@ func ToPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
 			pm.Type, pm.Length = colour.Bar, true
 			if m.Kind == dom.KindRule {
 				pm.Type, pm.MinPx = colour.Line, math.Max(m.StrokeWidth, 0.5)
+				// A rule connects what it passes through.
+				if len(m.Vertices) >= 2 {
+					for _, v := range m.Vertices {
+						pm.Vertices = append(pm.Vertices, [2]float64{v.X, v.Y})
+					}
+				}
 			}
 		case dom.KindLine:
 			pm.Type, pm.MinPx = colour.Line, math.Max(m.StrokeWidth, 0.5)

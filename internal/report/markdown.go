@@ -107,3 +107,6 @@ func mdEscape(s string) string {
 func mdCell(s string) string {
 	return strings.ReplaceAll(mdEscape(strings.ReplaceAll(s, "\n", " ")), "\\#", "#")
 }
+
+// MarkdownEscape is the escaping WriteMarkdown applies to page-derived text.
+func MarkdownEscape(s string) string { return mdEscape(s) }

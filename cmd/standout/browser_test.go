@@ -1,0 +1,289 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"flag"
+	"fmt"
+	"image"
+	"image/png"
+	"io/fs"
+	"math"
+	"net"
+	"net/http"
+	"net/http/httptest"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"standout/internal/browser"
+	"standout/internal/demo"
+	"standout/internal/report"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files")
+
+func needBrowser(t testing.TB) {
+	if _, err := browser.Find(""); err != nil {
+		if os.Getenv("CI") == "true" {
+			t.Fatalf("Chromium is required under CI=true: %v", err)
+		}
+		t.Skip(err)
+	}
+}
+
+// parityPages are the demo pages and the testdata pages.
+func parityPages(t *testing.T) []string {
+	dir := t.TempDir()
+	var out []string
+	names, _ := fs.Glob(demo.Pages, "pages/*.html")
+	for _, n := range names {
+		b, _ := demo.Pages.ReadFile(n)
+		p := filepath.Join(dir, filepath.Base(n))
+		require.NoError(t, os.WriteFile(p, b, 0o644))
+		out = append(out, p)
+	}
+	for _, pat := range []string{"../../testdata/*.html", "../../testdata/*.svg"} {
+		m, _ := filepath.Glob(pat)
+		out = append(out, m...)
+	}
+	require.NotEmpty(t, out)
+	return out
+}
+
+// bboxExceptions are marks whose boxes legitimately differ between the
+// two paths, with the reason.
+var bboxExceptions = map[string]string{
+	// getBoundingClientRect bounds the transformed local box of a rotated
+	// or skewed shape; the static path bounds the transformed outline.
+	"transforms.svg#svg0/g2/path0":       "rotated triangle",
+	"transforms.svg#svg0/g2/path1":       "rotated triangle",
+	"transforms.svg#svg0/g2/path2":       "skewed square",
+	"transforms.svg#svg0/g2/a5/ellipse0": "rotated ellipse",
+	"transforms.svg#svg0/use5>g/path0":   "wedge: the browser bounds the arc's control box",
+	"transforms.svg#svg0/use5>g/path1":   "wedge: the browser bounds the arc's control box",
+	"transforms.svg#svg0/use5>g/path2":   "wedge: the browser bounds the arc's control box",
+}
+
+func TestBrowserPathMatchesStaticPath(t *testing.T) {
+	needBrowser(t)
+	pages := parityPages(t)
+	code, bout, errs := runCmd(append([]string{"check", "--browser", "--json"}, pages...)...)
+	require.Equal(t, 0, code, errs)
+	code, sout, errs := runCmd(append([]string{"check", "--json"}, pages...)...)
+	require.Equal(t, 0, code, errs)
+	var b, s report.Report
+	require.NoError(t, json.Unmarshal([]byte(bout), &b))
+	require.NoError(t, json.Unmarshal([]byte(sout), &s))
+	require.Len(t, b.Pages, len(pages))
+	require.Len(t, s.Pages, len(pages))
+	for i := range pages {
+		bp, sp := b.Pages[i], s.Pages[i]
+		require.Len(t, bp.Charts, len(sp.Charts), pages[i])
+		for c := range sp.Charts {
+			bc, sc := bp.Charts[c], sp.Charts[c]
+			require.Equal(t, sc.Path, bc.Path)
+			require.Len(t, bc.Marks, len(sc.Marks), "%s %s", pages[i], sc.Path)
+			for k := range sc.Marks {
+				bm, sm := bc.Marks[k], sc.Marks[k]
+				where := fmt.Sprintf("%s %s", filepath.Base(pages[i]), sm.ID)
+				require.Equal(t, sm.ID, bm.ID, where)
+				assert.Equal(t, sm.Kind, bm.Kind, where)
+				assert.Equal(t, sm.Shape, bm.Shape, where)
+				assert.Equal(t, sm.Fill, bm.Fill, where)
+				assert.Equal(t, sm.Verdict, bm.Verdict, where)
+				if _, ok := bboxExceptions[filepath.Base(pages[i])+"#"+sm.ID]; ok {
+					continue
+				}
+				// The static path has no layout: compare boxes relative to
+				// the chart's own box.
+				for j := 0; j < 2; j++ {
+					assert.InDelta(t, sm.BBox[j]-sc.Box[j], bm.BBox[j]-bc.Box[j], 1, "%s bbox[%d]", where, j)
+					assert.InDelta(t, sm.BBox[j+2], bm.BBox[j+2], 1, "%s bbox[%d]", where, j+2)
+				}
+			}
+		}
+	}
+}
+
+func TestBatchWithUnreachablePages(t *testing.T) {
+	needBrowser(t)
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if strings.HasPrefix(r.URL.Path, "/missing") {
+			http.NotFound(w, r)
+			return
+		}
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprintf(w, `<!doctype html><html><body><svg width="200" height="100"><rect x="10" y="10" width="20" height="60" fill="#777"/><rect x="40" y="20" width="20" height="50" fill="#777"/><rect x="70" y="5" width="20" height="65" fill="#b91c1c"/></svg><p>%s</p></body></html>`, r.URL.Path)
+	}))
+	defer srv.Close()
+	// A port with nothing listening.
+	l, err := net.Listen("tcp", "127.0.0.1:0")
+	require.NoError(t, err)
+	dead := "http://" + l.Addr().String() + "/"
+	l.Close()
+	var urls []string
+	for i := 0; i < 47; i++ {
+		urls = append(urls, fmt.Sprintf("%s/page%d", srv.URL, i))
+	}
+	urls = append(urls, srv.URL+"/missing1", dead, srv.URL+"/missing2")
+	start := time.Now()
+	code, out, errs := runCmd(append([]string{"check", "--browser", "--tabs", "4", "--json"}, urls...)...)
+	t.Logf("50 pages in %v", time.Since(start))
+	assert.Equal(t, 2, code)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	assert.Len(t, rep.Pages, 47)
+	require.Len(t, rep.Errors, 3)
+	for _, bad := range []string{srv.URL + "/missing1", dead, srv.URL + "/missing2"} {
+		assert.Contains(t, errs, bad)
+		found := false
+		for _, e := range rep.Errors {
+			if strings.Contains(e, bad) {
+				found = true
+			}
+		}
+		assert.True(t, found, bad)
+	}
+	assert.Contains(t, errs, "| 47 | 3 | 47 |")
+	for _, p := range rep.Pages {
+		require.Len(t, p.Charts, 1)
+		assert.Len(t, p.Charts[0].Marks, 3)
+	}
+}
+
+func TestMarkdownAndPNGGolden(t *testing.T) {
+	needBrowser(t)
+	dir := t.TempDir()
+	b, err := demo.Pages.ReadFile("pages/harbour-ferries.html")
+	require.NoError(t, err)
+	page := filepath.Join(dir, "harbour-ferries.html")
+	require.NoError(t, os.WriteFile(page, b, 0o644))
+	md, pngs := filepath.Join(dir, "md"), filepath.Join(dir, "png")
+	code, _, errs := runCmd("check", "--browser", "--md", md, "--png", pngs, page)
+	require.Equal(t, 0, code, errs)
+	mds, _ := filepath.Glob(filepath.Join(md, "*.md"))
+	require.Len(t, mds, 1)
+	got, err := os.ReadFile(mds[0])
+	require.NoError(t, err)
+	// The page's path differs per run; the golden file has a placeholder.
+	gotS := strings.ReplaceAll(string(got), page, "PAGE")
+	gotS = strings.ReplaceAll(gotS, report.MarkdownEscape(page), "PAGE")
+	golden := "testdata/harbour-ferries.md.golden"
+	if *update {
+		require.NoError(t, os.MkdirAll("testdata", 0o755))
+		require.NoError(t, os.WriteFile(golden, []byte(gotS), 0o644))
+	}
+	want, err := os.ReadFile(golden)
+	require.NoError(t, err, "run go test ./cmd/standout -run Golden -update")
+	assert.Equal(t, string(want), gotS)
+
+	shots, _ := filepath.Glob(filepath.Join(pngs, "*-svg0.png"))
+	require.Len(t, shots, 1)
+	img := decodePNG(t, shots[0])
+	goldenPNG := "testdata/harbour-ferries-svg0.png"
+	if *update {
+		data, _ := os.ReadFile(shots[0])
+		require.NoError(t, os.WriteFile(goldenPNG, data, 0o644))
+	}
+	ref := decodePNG(t, goldenPNG)
+	require.Equal(t, ref.Bounds(), img.Bounds())
+	// Sampled pixels on a 24 × 24 grid, within 24 levels per channel
+	// (font rendering and anti-aliasing may shift between runs).
+	bad := 0
+	for gy := 0; gy < 24; gy++ {
+		for gx := 0; gx < 24; gx++ {
+			x := ref.Bounds().Min.X + gx*ref.Bounds().Dx()/24
+			y := ref.Bounds().Min.Y + gy*ref.Bounds().Dy()/24
+			r1, g1, b1, _ := ref.At(x, y).RGBA()
+			r2, g2, b2, _ := img.At(x, y).RGBA()
+			d := math.Max(math.Abs(float64(r1)-float64(r2)), math.Max(math.Abs(float64(g1)-float64(g2)), math.Abs(float64(b1)-float64(b2)))) / 257
+			if d > 24 {
+				bad++
+			}
+		}
+	}
+	assert.LessOrEqual(t, bad, 5, "sampled pixels off the golden PNG")
+	// The outline of the emphasised bar (it pops) is drawn in the overlay's
+	// solid teal.
+	var teal int
+	bb := img.Bounds()
+	for y := bb.Min.Y; y < bb.Max.Y; y++ {
+		for x := bb.Min.X; x < bb.Max.X; x++ {
+			r, g, b, _ := img.At(x, y).RGBA()
+			if r>>8 == 0x0f && g>>8 == 0x76 && b>>8 == 0x6e {
+				teal++
+			}
+		}
+	}
+	assert.Greater(t, teal, 100)
+}
+
+func decodePNG(t *testing.T, p string) image.Image {
+	f, err := os.Open(p)
+	require.NoError(t, err)
+	defer f.Close()
+	img, err := png.Decode(f)
+	require.NoError(t, err)
+	return img
+}
+
+// BenchmarkBatch reports pages per minute for a batch of 24 demo-like pages
+// with 1, 2 and 4 tabs, and the shares of time in page load, read pass and
+// analysis. Run with:
+//
+//	go test ./cmd/standout -run '^$' -bench Batch -benchtime 1x
+func BenchmarkBatch(b *testing.B) {
+	needBrowser(b)
+	page, err := demo.Pages.ReadFile("pages/harbour-ferries.html")
+	require.NoError(b, err)
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		w.Write(page)
+	}))
+	defer srv.Close()
+	var urls []string
+	for i := 0; i < 24; i++ {
+		urls = append(urls, fmt.Sprintf("%s/p%d", srv.URL, i))
+	}
+	exe, err := browser.Find("")
+	require.NoError(b, err)
+	for _, tabs := range []int{1, 2, 4} {
+		b.Run(fmt.Sprintf("tabs=%d", tabs), func(b *testing.B) {
+			var load, read, analyse, wall float64
+			for i := 0; i < b.N; i++ {
+				ctx, cancel := browser.NewAllocator(b.Context(), browser.Options{Exec: exe, UserDataDir: b.TempDir()})
+				t0 := time.Now()
+				res := browser.ReadPages(ctx, urls, browser.ReadOptions{Tabs: tabs, Reader: readerJS()})
+				for _, r := range res {
+					require.NoError(b, r.Err)
+					load += r.LoadMs
+					read += r.ReadMs
+					a0 := time.Now()
+					var pg struct {
+						Source    string          `json:"source"`
+						Snapshots json.RawMessage `json:"snapshots"`
+					}
+					require.NoError(b, json.Unmarshal([]byte(r.JSON), &pg))
+					_, _, err := analyseJSON(pg.Source, pg.Snapshots)
+					require.NoError(b, err)
+					analyse += float64(time.Since(a0).Microseconds()) / 1000
+				}
+				wall += time.Since(t0).Seconds()
+				cancel()
+			}
+			total := load + read + analyse
+			b.ReportMetric(float64(len(urls)*b.N)/wall*60, "pages/min")
+			b.ReportMetric(100*load/total, "%load")
+			b.ReportMetric(100*read/total, "%read")
+			b.ReportMetric(100*analyse/total, "%analyse")
+		})
+	}
+}
+
+var _ = bytes.NewReader
