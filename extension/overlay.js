@@ -499,7 +499,7 @@
   function unpack(data) {
     const r = JSON.parse(data.response);
     if (!r.ok) throw new Error(r.error);
-    return { report: r.report, markdown: r.markdown, timing: data.timing };
+    return { report: r.report, markdown: r.markdown, timing: Object.assign({}, data.timing, { core: r.timing }) };
   }
 
   function render(data) {

@@ -9,6 +9,7 @@ import (
 	"fmt"
 	"runtime/debug"
 	"strings"
+	"time"
 
 	"standout/dom"
 	"standout/internal/report"
@@ -39,20 +40,50 @@ type Response struct {
 	Report *report.Report `json:"report,omitempty"`
 	// Markdown is the same report, ready for a ticket.
 	Markdown string `json:"markdown,omitempty"`
+	// Timing is how long each step took inside the core, in ms.
+	Timing map[string]float64 `json:"timing,omitempty"`
 }
 
-// Handle answers one request. It never panics: a panic becomes an error
-// response with the stack, so nothing crosses into JavaScript.
+// Handle answers one request given as one JSON document. It never
+// panics: a panic becomes an error response with the stack, so nothing
+// crosses into JavaScript.
 func Handle(req []byte) (out []byte) {
-	defer func() {
-		if r := recover(); r != nil {
-			out = errorResponse(fmt.Sprintf("internal error: %v\n%s", r, debug.Stack()))
-		}
-	}()
+	defer recoverTo(&out)
+	t0 := time.Now()
 	var q Request
 	if err := json.Unmarshal(req, &q); err != nil {
 		return errorResponse("bad request: " + err.Error())
 	}
+	return handle(&q, t0)
+}
+
+// HandlePage answers a request whose page (the read pass's JSON, with
+// source, snapshots and problems) comes apart from its options: the page
+// is decoded by the fast snapshot decoder, the options by encoding/json.
+func HandlePage(options, page []byte) (out []byte) {
+	defer recoverTo(&out)
+	t0 := time.Now()
+	var q Request
+	if err := json.Unmarshal(options, &q); err != nil {
+		return errorResponse("bad request: " + err.Error())
+	}
+	p, err := dom.DecodePage(page)
+	if err != nil {
+		return errorResponse("bad page: " + err.Error())
+	}
+	q.Source, q.Snapshots, q.Problems = p.Source, p.Snapshots, p.Problems
+	return handle(&q, t0)
+}
+
+func recoverTo(out *[]byte) {
+	if r := recover(); r != nil {
+		*out = errorResponse(fmt.Sprintf("internal error: %v\n%s", r, debug.Stack()))
+	}
+}
+
+func handle(q *Request, t0 time.Time) []byte {
+	ms := func(t time.Time) float64 { return float64(time.Since(t).Microseconds()) / 1000 }
+	timing := map[string]float64{}
 	if q.Type != "analyse" {
 		return errorResponse(fmt.Sprintf("unknown request type %q", q.Type))
 	}
@@ -72,14 +103,20 @@ func Handle(req []byte) (out []byte) {
 			opt.IDs[id] = true
 		}
 	}
+	timing["decodeMs"] = ms(t0)
+	t1 := time.Now()
 	page, _, err := report.FromSnapshots(q.Source, q.Snapshots, q.Problems, opt)
+	timing["analyseMs"] = ms(t1)
 	if err != nil {
 		return errorResponse(err.Error())
 	}
 	rep := &report.Report{Schema: "standout-report", Version: report.Version, Pages: []report.Page{page}, Caution: report.Caution}
+	t2 := time.Now()
 	var md strings.Builder
 	report.WriteMarkdown(&md, rep, nil)
-	b, err := json.Marshal(Response{OK: true, Report: rep, Markdown: md.String()})
+	timing["markdownMs"] = ms(t2)
+	// Encoding time is the rest of the call; the caller measures the whole.
+	b, err := json.Marshal(Response{OK: true, Report: rep, Markdown: md.String(), Timing: timing})
 	if err != nil {
 		return errorResponse(err.Error())
 	}

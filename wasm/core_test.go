@@ -57,3 +57,23 @@ func TestJSOnlyFilesHaveConstraint(t *testing.T) {
 		}
 	}
 }
+
+func TestHandlePageMatchesHandle(t *testing.T) {
+	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30" cy="10" r="4" fill="#999"/><circle cx="50" cy="10" r="4" fill="#c2410c"/></g></svg>`
+	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
+	require.NoError(t, err)
+	whole, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts})
+	require.NoError(t, err)
+	page, err := json.Marshal(map[string]any{"source": "t", "snapshots": p.Charts, "problems": []string{}, "readMs": 3})
+	require.NoError(t, err)
+	var a, b Response
+	require.NoError(t, json.Unmarshal(Handle(whole), &a))
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), page), &b))
+	require.True(t, a.OK, a.Error)
+	require.True(t, b.OK, b.Error)
+	a.Timing, b.Timing = nil, nil
+	assert.Equal(t, a, b)
+	var bad Response
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), []byte(`{"snapshots":[`)), &bad))
+	assert.False(t, bad.OK)
+}

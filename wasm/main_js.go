@@ -4,15 +4,24 @@ package main
 
 import "syscall/js"
 
-// main registers globalThis.standoutHandle(requestJSON) → responseJSON and
+// main registers globalThis.standoutHandle(requestJSON) → responseJSON
+// (or standoutHandle(optionsJSON, pageJSON), the extension's form) and
 // keeps the instance alive. The handler computes and returns; it never
 // waits on JavaScript, so calling it synchronously cannot deadlock.
 func main() {
 	handle := js.FuncOf(func(this js.Value, args []js.Value) any {
-		if len(args) != 1 || args[0].Type() != js.TypeString {
-			return string(errorResponse("standoutHandle takes one JSON string"))
+		for _, a := range args {
+			if a.Type() != js.TypeString {
+				return string(errorResponse("standoutHandle takes JSON strings"))
+			}
 		}
-		return string(Handle([]byte(args[0].String())))
+		switch len(args) {
+		case 1:
+			return string(Handle([]byte(args[0].String())))
+		case 2:
+			return string(HandlePage([]byte(args[0].String()), []byte(args[1].String())))
+		}
+		return string(errorResponse("standoutHandle takes (request) or (options, page)"))
 	})
 	defer handle.Release()
 	js.Global().Set("standoutHandle", handle)

@@ -1,0 +1,546 @@
+package dom
+
+import (
+	"errors"
+	"fmt"
+	"strconv"
+	"strings"
+	"unicode/utf16"
+	"unicode/utf8"
+)
+
+// UnmarshalJSON decodes a snapshot with a scanner written for its shape.
+// encoding/json's reflection is the slowest step of the extension's core
+// under WebAssembly (a 5,000-mark chart took longer to decode than to
+// analyse); this decoder reads the same JSON several times faster. A fuzz
+// test keeps it equal to encoding/json.
+func (s *Snapshot) UnmarshalJSON(b []byte) error {
+	d := scanner{b: b}
+	var out Snapshot
+	if err := d.snapshot(&out); err != nil {
+		return err
+	}
+	if d.ws(); d.i != len(d.b) {
+		return d.errorf("trailing data")
+	}
+	*s = out
+	return nil
+}
+
+func (d *scanner) snapshot(s *Snapshot) error {
+	out := s
+	return d.object(func(key string) error {
+		var err error
+		switch fold(key, snapshotKeys) {
+		case "v":
+			var f float64
+			f, err = d.number()
+			out.Version = int(f)
+		case "source":
+			out.Source, err = d.stringOrNull()
+		case "path":
+			out.Path, err = d.stringOrNull()
+		case "box":
+			out.Box = [4]float64{}
+			i := 0
+			err = d.array(func() error {
+				f, err := d.number()
+				if i < 4 {
+					out.Box[i] = f
+				}
+				i++
+				return err
+			})
+		case "bg":
+			out.Background, err = d.uint32()
+		case "nodes":
+			// Like encoding/json, a repeated key decodes into the elements
+			// already there.
+			i := 0
+			err = d.array(func() error {
+				if i == len(out.Nodes) {
+					out.Nodes = append(out.Nodes, Node{})
+				}
+				err := d.node(&out.Nodes[i])
+				i++
+				return err
+			})
+			out.Nodes = out.Nodes[:i]
+		case "sel":
+			out.Selected = out.Selected[:0]
+			err = d.array(func() error {
+				f, err := d.number()
+				out.Selected = append(out.Selected, int32(f))
+				return err
+			})
+		case "problems":
+			out.Problems = out.Problems[:0]
+			err = d.array(func() error {
+				s, err := d.stringOrNull()
+				out.Problems = append(out.Problems, s)
+				return err
+			})
+		default:
+			err = d.skip()
+		}
+		return err
+	})
+}
+
+func (d *scanner) node(n *Node) error {
+	return d.object(func(key string) error {
+		var err error
+		var f float64
+		switch fold(key, nodeKeys) {
+		case "p":
+			f, err = d.number()
+			n.Parent = int32(f)
+		case "t":
+			n.Tag, err = d.stringOrNull()
+		case "n":
+			n.Name, err = d.stringOrNull()
+		case "g":
+			n.Geom = n.Geom[:0]
+			err = d.array(func() error {
+				f, err := d.number()
+				n.Geom = append(n.Geom, f)
+				return err
+			})
+		case "d":
+			n.D, err = d.stringOrNull()
+		case "m":
+			n.CTM = [6]float64{}
+			i := 0
+			err = d.array(func() error {
+				f, err := d.number()
+				if i < 6 {
+					n.CTM[i] = f
+				}
+				i++
+				return err
+			})
+		case "b":
+			n.BBox = n.BBox[:0]
+			err = d.array(func() error {
+				f, err := d.number()
+				n.BBox = append(n.BBox, f)
+				return err
+			})
+		case "f":
+			err = d.paint(&n.Fill)
+		case "s":
+			err = d.paint(&n.Stroke)
+		case "fo":
+			n.FillOpacity, err = d.number()
+		case "so":
+			n.StrokeOpacity, err = d.number()
+		case "o":
+			n.Opacity, err = d.number()
+		case "sw":
+			n.StrokeWidth, err = d.number()
+		case "x":
+			f, err = d.number()
+			n.Flags = uint8(f)
+		case "tx":
+			n.Text, err = d.stringOrNull()
+		case "al":
+			n.Label, err = d.stringOrNull()
+		default:
+			err = d.skip()
+		}
+		return err
+	})
+}
+
+func (d *scanner) paint(p *Paint) error {
+	return d.object(func(key string) error {
+		var err error
+		switch fold(key, paintKeys) {
+		case "k":
+			var f float64
+			f, err = d.number()
+			p.Kind = uint8(f)
+		case "c":
+			p.RGBA, err = d.uint32()
+		case "st":
+			p.Stops = p.Stops[:0]
+			err = d.array(func() error {
+				v, err := d.uint32()
+				p.Stops = append(p.Stops, v)
+				return err
+			})
+		default:
+			err = d.skip()
+		}
+		return err
+	})
+}
+
+var (
+	snapshotKeys = []string{"v", "source", "path", "box", "bg", "nodes", "sel", "problems"}
+	nodeKeys     = []string{"p", "t", "n", "g", "d", "m", "b", "f", "s", "fo", "so", "o", "sw", "x", "tx", "al"}
+	paintKeys    = []string{"k", "c", "st"}
+)
+
+// fold maps a key to the field it names the way encoding/json does: an
+// exact match first, else the first case-insensitive one.
+func fold(key string, known []string) string {
+	for _, k := range known {
+		if k == key {
+			return k
+		}
+	}
+	for _, k := range known {
+		if strings.EqualFold(k, key) {
+			return k
+		}
+	}
+	return key
+}
+
+// scanner reads JSON values from b. Numbers that JSON encodes as null
+// (NaN and infinities from JavaScript) read as 0, as encoding/json leaves
+// a float at its zero value for null.
+type scanner struct {
+	b []byte
+	i int
+}
+
+var errDepth = errors.New("dom: snapshot JSON nested too deeply")
+
+func (d *scanner) errorf(format string, a ...any) error {
+	return fmt.Errorf("dom: snapshot JSON at offset %d: %s", d.i, fmt.Sprintf(format, a...))
+}
+
+func (d *scanner) ws() {
+	for d.i < len(d.b) {
+		switch d.b[d.i] {
+		case ' ', '\t', '\n', '\r':
+			d.i++
+		default:
+			return
+		}
+	}
+}
+
+func (d *scanner) peek() byte {
+	d.ws()
+	if d.i < len(d.b) {
+		return d.b[d.i]
+	}
+	return 0
+}
+
+func (d *scanner) literal(word string) bool {
+	if len(d.b)-d.i >= len(word) && string(d.b[d.i:d.i+len(word)]) == word {
+		d.i += len(word)
+		return true
+	}
+	return false
+}
+
+// object calls f for each key; f must consume the value.
+func (d *scanner) object(f func(key string) error) error {
+	if d.peek() == 'n' && d.literal("null") {
+		return nil
+	}
+	if d.peek() != '{' {
+		return d.errorf("expected an object")
+	}
+	d.i++
+	if d.peek() == '}' {
+		d.i++
+		return nil
+	}
+	for {
+		if d.peek() != '"' {
+			return d.errorf("expected a key")
+		}
+		k, err := d.str()
+		if err != nil {
+			return err
+		}
+		if d.peek() != ':' {
+			return d.errorf("expected ':'")
+		}
+		d.i++
+		if err := f(k); err != nil {
+			return err
+		}
+		switch d.peek() {
+		case ',':
+			d.i++
+		case '}':
+			d.i++
+			return nil
+		default:
+			return d.errorf("expected ',' or '}'")
+		}
+	}
+}
+
+// array calls f for each element; f must consume it.
+func (d *scanner) array(f func() error) error {
+	if d.peek() == 'n' && d.literal("null") {
+		return nil
+	}
+	if d.peek() != '[' {
+		return d.errorf("expected an array")
+	}
+	d.i++
+	if d.peek() == ']' {
+		d.i++
+		return nil
+	}
+	for {
+		if err := f(); err != nil {
+			return err
+		}
+		switch d.peek() {
+		case ',':
+			d.i++
+		case ']':
+			d.i++
+			return nil
+		default:
+			return d.errorf("expected ',' or ']'")
+		}
+	}
+}
+
+func (d *scanner) number() (float64, error) {
+	c := d.peek()
+	if c == 'n' && d.literal("null") {
+		return 0, nil
+	}
+	start := d.i
+	if c == '-' {
+		d.i++
+	}
+	digits := 0
+	for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
+		d.i++
+		digits++
+	}
+	if digits == 0 {
+		return 0, d.errorf("expected a number")
+	}
+	if d.i < len(d.b) && d.b[d.i] == '.' {
+		d.i++
+		n := 0
+		for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
+			d.i++
+			n++
+		}
+		if n == 0 {
+			return 0, d.errorf("bad number")
+		}
+	}
+	if d.i < len(d.b) && (d.b[d.i] == 'e' || d.b[d.i] == 'E') {
+		d.i++
+		if d.i < len(d.b) && (d.b[d.i] == '+' || d.b[d.i] == '-') {
+			d.i++
+		}
+		n := 0
+		for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
+			d.i++
+			n++
+		}
+		if n == 0 {
+			return 0, d.errorf("bad number")
+		}
+	}
+	f, err := strconv.ParseFloat(string(d.b[start:d.i]), 64)
+	if err != nil {
+		return 0, d.errorf("bad number: %v", err)
+	}
+	return f, nil
+}
+
+func (d *scanner) uint32() (uint32, error) {
+	f, err := d.number()
+	if err != nil {
+		return 0, err
+	}
+	if f < 0 || f > 0xffffffff || f != float64(uint32(f)) {
+		return 0, d.errorf("%v is not a packed colour", f)
+	}
+	return uint32(f), nil
+}
+
+func (d *scanner) stringOrNull() (string, error) {
+	if d.peek() == 'n' && d.literal("null") {
+		return "", nil
+	}
+	if d.peek() != '"' {
+		return "", d.errorf("expected a string")
+	}
+	return d.str()
+}
+
+// str reads a JSON string at d.i (which is at the opening quote).
+func (d *scanner) str() (string, error) {
+	d.i++
+	start := d.i
+	// Fast path: no escapes.
+	for d.i < len(d.b) {
+		c := d.b[d.i]
+		if c == '"' {
+			s := d.b[start:d.i]
+			d.i++
+			if !utf8.Valid(s) {
+				return string([]rune(string(s))), nil
+			}
+			return string(s), nil
+		}
+		if c == '\\' || c < 0x20 {
+			break
+		}
+		d.i++
+	}
+	buf := append([]byte(nil), d.b[start:d.i]...)
+	for d.i < len(d.b) {
+		c := d.b[d.i]
+		switch {
+		case c == '"':
+			d.i++
+			if !utf8.Valid(buf) {
+				return string([]rune(string(buf))), nil
+			}
+			return string(buf), nil
+		case c < 0x20:
+			return "", d.errorf("control character in string")
+		case c != '\\':
+			buf = append(buf, c)
+			d.i++
+			continue
+		}
+		d.i++
+		if d.i >= len(d.b) {
+			break
+		}
+		e := d.b[d.i]
+		d.i++
+		switch e {
+		case '"', '\\', '/':
+			buf = append(buf, e)
+		case 'b':
+			buf = append(buf, '\b')
+		case 'f':
+			buf = append(buf, '\f')
+		case 'n':
+			buf = append(buf, '\n')
+		case 'r':
+			buf = append(buf, '\r')
+		case 't':
+			buf = append(buf, '\t')
+		case 'u':
+			r, ok := d.hex4()
+			if !ok {
+				return "", d.errorf("bad \\u escape")
+			}
+			if utf16.IsSurrogate(r) {
+				// A pair when the next escape completes it; alone it is
+				// replaced, as encoding/json does.
+				save := d.i
+				if d.i+1 < len(d.b) && d.b[d.i] == '\\' && d.b[d.i+1] == 'u' {
+					d.i += 2
+					if r2, ok := d.hex4(); ok {
+						if dec := utf16.DecodeRune(r, r2); dec != utf8.RuneError {
+							buf = utf8.AppendRune(buf, dec)
+							continue
+						}
+					}
+				}
+				d.i = save
+				r = utf8.RuneError
+			}
+			buf = utf8.AppendRune(buf, r)
+		default:
+			return "", d.errorf("bad escape")
+		}
+	}
+	return "", d.errorf("unterminated string")
+}
+
+func (d *scanner) hex4() (rune, bool) {
+	if d.i+4 > len(d.b) {
+		return 0, false
+	}
+	v, err := strconv.ParseUint(string(d.b[d.i:d.i+4]), 16, 32)
+	if err != nil {
+		return 0, false
+	}
+	d.i += 4
+	return rune(v), true
+}
+
+// skip consumes any value (for unknown keys), to a bounded depth.
+func (d *scanner) skip() error { return d.skipDepth(0) }
+
+func (d *scanner) skipDepth(depth int) error {
+	if depth > 64 {
+		return errDepth
+	}
+	switch c := d.peek(); {
+	case c == '{':
+		return d.object(func(string) error { return d.skipDepth(depth + 1) })
+	case c == '[':
+		return d.array(func() error { return d.skipDepth(depth + 1) })
+	case c == '"':
+		_, err := d.str()
+		return err
+	case c == 't' && d.literal("true"), c == 'f' && d.literal("false"), c == 'n' && d.literal("null"):
+		return nil
+	default:
+		_, err := d.number()
+		return err
+	}
+}
+
+// PageJSON is what the browser's read pass returns for a page.
+type PageJSON struct {
+	Source    string
+	Snapshots []Snapshot
+	Problems  []string
+}
+
+// DecodePage decodes the read pass's result,
+// {"source": …, "snapshots": […], "problems": […], …}, with the fast
+// scanner throughout (encoding/json would first scan the whole input to
+// validate it, which costs as much again under WebAssembly).
+func DecodePage(b []byte) (*PageJSON, error) {
+	d := scanner{b: b}
+	var p PageJSON
+	err := d.object(func(key string) error {
+		switch key {
+		case "source":
+			s, err := d.stringOrNull()
+			p.Source = s
+			return err
+		case "problems":
+			return d.array(func() error {
+				s, err := d.stringOrNull()
+				p.Problems = append(p.Problems, s)
+				return err
+			})
+		case "snapshots":
+			return d.array(func() error {
+				var s Snapshot
+				if err := d.snapshot(&s); err != nil {
+					return err
+				}
+				p.Snapshots = append(p.Snapshots, s)
+				return nil
+			})
+		}
+		return d.skip()
+	})
+	if err != nil {
+		return nil, err
+	}
+	if d.ws(); d.i != len(d.b) {
+		return nil, d.errorf("trailing data")
+	}
+	return &p, nil
+}
