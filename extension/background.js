@@ -46,13 +46,13 @@ async function readPage(tabId) {
 // analyse reads the page, runs the core and returns the core's response
 // (a JSON string: {ok, report, markdown} or {ok: false, error}) with the
 // timings of the steps.
-async function analyse(tabId, emphasis, severity) {
+async function analyse(tabId, emphasis, severity, full) {
   const t0 = performance.now();
   const [pageJSON] = await Promise.all([readPage(tabId), loadCore()]);
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as
   // the read pass wrote it, for the core's fast snapshot decoder.
-  const options = { type: 'analyse', emphasis: emphasis || [] };
+  const options = { type: 'analyse', emphasis: emphasis || [], full: !!full };
   if (typeof severity === 'number') options.severity = severity;
   const response = globalThis.standoutHandle(JSON.stringify(options), pageJSON);
   const t2 = performance.now();
@@ -97,7 +97,8 @@ chrome.runtime.onMessage.addListener((msg, sender, sendResponse) => {
   const tabId = sender.tab && sender.tab.id;
   switch (msg && msg.type) {
     case 'standout/reanalyse':
-      analyse(tabId, msg.data.emphasis, msg.data.severity)
+    case 'standout/full-report':
+      analyse(tabId, msg.data.emphasis, msg.data.severity, msg.type === 'standout/full-report')
         .then((r) => sendResponse({ ok: true, data: r }))
         .catch((e) => sendResponse({ ok: false, error: String((e && e.message) || e) }));
       return true;

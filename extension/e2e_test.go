@@ -589,3 +589,33 @@ func TestE2EDocsScreenshot(t *testing.T) {
 		require.NoError(t, os.WriteFile("../docs/overlay.png", shot, 0o644))
 	}
 }
+
+func TestE2ESurvivesServiceWorkerStop(t *testing.T) {
+	// The browser stops an idle service worker after about 30 s and the Go
+	// instance goes with it; the next press must load the core again.
+	h := newHarness(t)
+	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprintf(w, `<!doctype html><html><body style="margin:0">%s</body></html>`, chartSVG)
+	})
+	h.open(srv.URL + "/")
+	h.trigger()
+	h.waitState("ready")
+	h.trigger()
+	h.waitState("")
+	ts, err := chromedp.Targets(h.ctx)
+	require.NoError(t, err)
+	stopped := 0
+	for _, ti := range ts {
+		if ti.Type == "service_worker" && strings.HasPrefix(ti.URL, "chrome-extension://"+h.extID) {
+			_, err := chromedp.CallBrowser(h.ctx, target.CloseTarget, target.CloseTargetParams{TargetID: ti.TargetID})
+			require.NoError(t, err)
+			stopped++
+		}
+	}
+	require.Equal(t, 1, stopped, "the extension's service worker")
+	time.Sleep(500 * time.Millisecond)
+	h.trigger()
+	h.waitState("ready")
+	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+}

@@ -66,6 +66,7 @@
     observers: [],
     listeners: [],
     preview: null, // {svg, restored: [[el, styleAttr]]}
+    emphasis: [], // the emphasis the shown check ran with
     rerunTimer: 0,
     frame: 0,
   };
@@ -252,7 +253,7 @@
 
     const exp = el('div', { class: 'row' });
     const bJSON = el('button', { type: 'button', 'data-action': 'export-json' }, 'Export JSON');
-    bJSON.addEventListener('click', () => download('standout-report.json', 'application/json', JSON.stringify(result.report, null, 1)));
+    bJSON.addEventListener('click', () => exportJSON());
     const bMD = el('button', { type: 'button', 'data-action': 'export-md' }, 'Export Markdown');
     bMD.addEventListener('click', () => download('standout-report.md', 'text/markdown', result.markdown));
     const bPNG = el('button', { type: 'button', 'data-action': 'export-png' }, 'Export PNG');
@@ -349,7 +350,8 @@
   async function rerun() {
     setPicking(false);
     const severity = state.panel ? Number(state.panel.querySelector('[data-action="severity"]').value) / 10 : 1;
-    const resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasis: [...state.picked], severity } });
+    state.emphasis = [...state.picked];
+    const resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasis: state.emphasis, severity } });
     if (!resp || !resp.ok) {
       showError((resp && resp.error) || 'the check could not run again');
       return;
@@ -430,6 +432,23 @@
     setTimeout(() => URL.revokeObjectURL(url), 10000);
   }
 
+  // exportJSON asks for the whole report (the overlay holds a digest) for
+  // the current emphasis and severity, and downloads it.
+  async function exportJSON() {
+    const severity = state.panel ? Number(state.panel.querySelector('[data-action="severity"]').value) / 10 : 1;
+    const resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasis: state.emphasis || [], severity } });
+    if (!resp || !resp.ok) {
+      showError((resp && resp.error) || 'the report could not be made');
+      return;
+    }
+    const r = JSON.parse(resp.data.response);
+    if (!r.ok) {
+      showError(r.error);
+      return;
+    }
+    download('standout-report.json', 'application/json', JSON.stringify(r.report, null, 1));
+  }
+
   async function exportPNG() {
     const resp = await chrome.runtime.sendMessage({ type: 'standout/capture', target: 'background' });
     if (!resp || !resp.ok) {
@@ -499,7 +518,9 @@
   function unpack(data) {
     const r = JSON.parse(data.response);
     if (!r.ok) throw new Error(r.error);
-    return { report: r.report, markdown: r.markdown, timing: Object.assign({}, data.timing, { core: r.timing }) };
+    // The core sends the overlay's digest of the report; the whole report
+    // is fetched when it is exported.
+    return { report: r.overlay || r.report, markdown: r.markdown, timing: Object.assign({}, data.timing, { core: r.timing }) };
   }
 
   function render(data) {
@@ -553,6 +574,7 @@
     state.panel = null;
     state.layers.clear();
     state.picked.clear();
+    state.emphasis = [];
     state.picking = false;
     state.catcher = null;
     state.open = false;

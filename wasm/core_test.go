@@ -21,7 +21,7 @@ func TestHandleStaticSnapshot(t *testing.T) {
 	<rect x="40" y="30" width="10" height="70" fill="#d62728"/><rect x="60" y="45" width="10" height="55" fill="#999"/></g></svg>`
 	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
 	require.NoError(t, err)
-	req, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Emphasis: []string{"svg0/g0/rect2"}})
+	req, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Emphasis: []string{"svg0/g0/rect2"}, Full: true})
 	require.NoError(t, err, "snapshots must be JSON-safe")
 	var resp Response
 	require.NoError(t, json.Unmarshal(Handle(req), &resp))
@@ -62,13 +62,13 @@ func TestHandlePageMatchesHandle(t *testing.T) {
 	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30" cy="10" r="4" fill="#999"/><circle cx="50" cy="10" r="4" fill="#c2410c"/></g></svg>`
 	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
 	require.NoError(t, err)
-	whole, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts})
+	whole, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Full: true})
 	require.NoError(t, err)
 	page, err := json.Marshal(map[string]any{"source": "t", "snapshots": p.Charts, "problems": []string{}, "readMs": 3})
 	require.NoError(t, err)
 	var a, b Response
 	require.NoError(t, json.Unmarshal(Handle(whole), &a))
-	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), page), &b))
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse","full":true}`), page), &b))
 	require.True(t, a.OK, a.Error)
 	require.True(t, b.OK, b.Error)
 	a.Timing, b.Timing = nil, nil
@@ -76,4 +76,25 @@ func TestHandlePageMatchesHandle(t *testing.T) {
 	var bad Response
 	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), []byte(`{"snapshots":[`)), &bad))
 	assert.False(t, bad.OK)
+}
+
+func TestDigestMatchesReport(t *testing.T) {
+	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30" cy="10" r="4" fill="#c2410c"/></g></svg>`
+	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
+	require.NoError(t, err)
+	page, _ := json.Marshal(map[string]any{"source": "t", "snapshots": p.Charts})
+	var full, lite Response
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse","full":true}`), page), &full))
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), page), &lite))
+	require.NotNil(t, lite.Overlay)
+	assert.Nil(t, lite.Report)
+	fc, lc := full.Report.Pages[0].Charts[0], lite.Overlay.Pages[0].Charts[0]
+	require.Len(t, lc.Marks, len(fc.Marks))
+	for i := range fc.Marks {
+		assert.Equal(t, fc.Marks[i].ID, lc.Marks[i].ID)
+		assert.Equal(t, fc.Marks[i].BBox, lc.Marks[i].BBox)
+		assert.Equal(t, fc.Marks[i].Verdict, lc.Marks[i].Verdict)
+	}
+	assert.Equal(t, fc.Findings, lc.Findings)
+	assert.Equal(t, full.Markdown, lite.Markdown)
 }
