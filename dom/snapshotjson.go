@@ -42,15 +42,7 @@ func (d *scanner) snapshot(s *Snapshot) error {
 			out.Path, err = d.stringOrNull()
 		case "box":
 			out.Box = [4]float64{}
-			i := 0
-			err = d.array(func() error {
-				f, err := d.number()
-				if i < 4 {
-					out.Box[i] = f
-				}
-				i++
-				return err
-			})
+			err = d.fixed(out.Box[:])
 		case "bg":
 			out.Background, err = d.uint32()
 		case "nodes":
@@ -100,32 +92,14 @@ func (d *scanner) node(n *Node) error {
 		case "n":
 			n.Name, err = d.stringOrNull()
 		case "g":
-			n.Geom = n.Geom[:0]
-			err = d.array(func() error {
-				f, err := d.number()
-				n.Geom = append(n.Geom, f)
-				return err
-			})
+			err = d.floats(&n.Geom)
 		case "d":
 			n.D, err = d.stringOrNull()
 		case "m":
 			n.CTM = [6]float64{}
-			i := 0
-			err = d.array(func() error {
-				f, err := d.number()
-				if i < 6 {
-					n.CTM[i] = f
-				}
-				i++
-				return err
-			})
+			err = d.fixed(n.CTM[:])
 		case "b":
-			n.BBox = n.BBox[:0]
-			err = d.array(func() error {
-				f, err := d.number()
-				n.BBox = append(n.BBox, f)
-				return err
-			})
+			err = d.floats(&n.BBox)
 		case "f":
 			err = d.paint(&n.Fill)
 		case "s":
@@ -196,6 +170,29 @@ func fold(key string, known []string) string {
 		}
 	}
 	return key
+}
+
+// floats reads an array of numbers into *dst, replacing its contents.
+func (d *scanner) floats(dst *[]float64) error {
+	*dst = (*dst)[:0]
+	return d.array(func() error {
+		f, err := d.number()
+		*dst = append(*dst, f)
+		return err
+	})
+}
+
+// fixed reads an array of numbers into dst; extra elements are ignored.
+func (d *scanner) fixed(dst []float64) error {
+	i := 0
+	return d.array(func() error {
+		f, err := d.number()
+		if i < len(dst) {
+			dst[i] = f
+		}
+		i++
+		return err
+	})
 }
 
 // scanner reads JSON values from b. Numbers that JSON encodes as null

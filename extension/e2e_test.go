@@ -11,6 +11,7 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
+	"image"
 	"image/png"
 	"math"
 	"net/http"
@@ -314,6 +315,33 @@ func serve(t testing.TB, handler http.HandlerFunc) *httptest.Server {
 	return s
 }
 
+// showPage serves body as a page, opens it, presses the action and waits
+// for the overlay.
+func (h *harness) showPage(body string) {
+	srv := serve(h.t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprint(w, body)
+	})
+	h.open(srv.URL + "/")
+	h.trigger()
+	h.waitState("ready")
+}
+
+// screenshot captures the viewport.
+func (h *harness) screenshot() ([]byte, image.Image) {
+	shot, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
+		res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng})
+		return res.Data, err
+	})
+	require.NoError(h.t, err)
+	img, err := png.Decode(bytes.NewReader(shot))
+	require.NoError(h.t, err)
+	return shot, img
+}
+
+// chartPage is chartSVG alone on a page.
+var chartPage = `<!doctype html><html><body style="margin:0">` + chartSVG + `</body></html>`
+
 func demoPage(t testing.TB) []byte {
 	b, err := demo.Pages.ReadFile("pages/harbour-ferries.html")
 	require.NoError(t, err)
@@ -323,13 +351,7 @@ func demoPage(t testing.TB) []byte {
 func TestE2EOverlayMatchesStaticPath(t *testing.T) {
 	h := newHarness(t)
 	page := demoPage(t)
-	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
-		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		w.Write(page)
-	})
-	h.open(srv.URL + "/")
-	h.trigger()
-	h.waitState("ready")
+	h.showPage(string(page))
 	layers := layerRects(t, h.overlayHTML())
 
 	static, _, err := report.CheckFile("demo", bytes.NewReader(page), report.DefaultOptions)
@@ -432,13 +454,7 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	h.waitState("ready")
 	h.callInOverlay("cvd", `function () { this.value = 'deutan'; this.dispatchEvent(new Event('change')); }`)
 	time.Sleep(300 * time.Millisecond)
-	shot, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
-		res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng})
-		return res.Data, err
-	})
-	require.NoError(t, err)
-	img, err := png.Decode(bytes.NewReader(shot))
-	require.NoError(t, err)
+	_, img := h.screenshot()
 	r, g, b, _ := img.At(100, 150).RGBA()
 	got := colour.SRGB8(uint8(r>>8), uint8(g>>8), uint8(b>>8))
 	want := colour.Simulate(colour.Deutan, 1, colour.MustHex("#d62728"))
@@ -466,13 +482,7 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 
 func TestE2EPickingAndExport(t *testing.T) {
 	h := newHarness(t)
-	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
-		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		fmt.Fprintf(w, `<!doctype html><html><body style="margin:0">%s</body></html>`, chartSVG)
-	})
-	h.open(srv.URL + "/")
-	h.trigger()
-	h.waitState("ready")
+	h.showPage(chartPage)
 	// Pick the second (grey) bar: the check then says whether it stands out.
 	h.callInOverlay("pick", `function () { this.click(); }`)
 	require.NoError(t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
@@ -547,13 +557,7 @@ func TestE2EShortcutDeclared(t *testing.T) {
 
 func TestE2EReRunsWhenTheChartChanges(t *testing.T) {
 	h := newHarness(t)
-	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
-		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		fmt.Fprintf(w, `<!doctype html><html><body style="margin:0">%s</body></html>`, chartSVG)
-	})
-	h.open(srv.URL + "/")
-	h.trigger()
-	h.waitState("ready")
+	h.showPage(chartPage)
 	require.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
 	// The page recolours the emphasis to the others' grey and gives it a
 	// neighbour's height: the overlay re-runs (debounced) and nothing pops.
@@ -569,21 +573,8 @@ func TestE2EReRunsWhenTheChartChanges(t *testing.T) {
 // README shows.
 func TestE2EDocsScreenshot(t *testing.T) {
 	h := newHarness(t)
-	pg := demoPage(t)
-	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
-		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		w.Write(pg)
-	})
-	h.open(srv.URL + "/")
-	h.trigger()
-	h.waitState("ready")
-	shot, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
-		res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng})
-		return res.Data, err
-	})
-	require.NoError(t, err)
-	img, err := png.Decode(bytes.NewReader(shot))
-	require.NoError(t, err)
+	h.showPage(string(demoPage(t)))
+	shot, img := h.screenshot()
 	require.Greater(t, img.Bounds().Dx(), 800)
 	if os.Getenv("STANDOUT_UPDATE_DOCS") == "1" {
 		require.NoError(t, os.WriteFile("../docs/overlay.png", shot, 0o644))
@@ -594,13 +585,7 @@ func TestE2ESurvivesServiceWorkerStop(t *testing.T) {
 	// The browser stops an idle service worker after about 30 s and the Go
 	// instance goes with it; the next press must load the core again.
 	h := newHarness(t)
-	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
-		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		fmt.Fprintf(w, `<!doctype html><html><body style="margin:0">%s</body></html>`, chartSVG)
-	})
-	h.open(srv.URL + "/")
-	h.trigger()
-	h.waitState("ready")
+	h.showPage(chartPage)
 	h.trigger()
 	h.waitState("")
 	ts, err := chromedp.Targets(h.ctx)
