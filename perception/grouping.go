@@ -103,12 +103,15 @@ func group(in Input, p Params) Grouping {
 	grd := newGrid(xs, ys)
 
 	// Proximity: single linkage at ProximityRatio × median nearest-neighbour
-	// distance.
+	// distance, over each mark's nearest neighbours (a k-nearest-neighbour
+	// graph, which joins the same groups wherever groups are denser than
+	// one mark per neighbourhood, and keeps the step O(n log n)).
+	nb := neighboursXY(xs, ys, max(p.Neighbours, 1))
 	nn := make([]float64, n)
-	jb, db := make([]int, 0, 1), make([]float64, 0, 1)
 	for k := range g.Marks {
-		if j := grd.knnInto(k, 1, jb[:0], db[:0]); len(j) == 1 {
-			nn[k] = math.Hypot(xs[j[0]]-xs[k], ys[j[0]]-ys[k])
+		if len(nb[k]) > 0 {
+			j := nb[k][0]
+			nn[k] = math.Hypot(xs[j]-xs[k], ys[j]-ys[k])
 		}
 	}
 	sorted := append([]float64(nil), nn...)
@@ -117,8 +120,8 @@ func group(in Input, p Params) Grouping {
 	uf := newUF(n)
 	if thr > 0 {
 		for k := range g.Marks {
-			for _, j := range grd.within(xs[k], ys[k], thr) {
-				if j != k {
+			for _, j := range nb[k] {
+				if math.Hypot(xs[j]-xs[k], ys[j]-ys[k]) <= thr {
 					uf.union(k, j)
 				}
 			}

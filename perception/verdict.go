@@ -178,11 +178,20 @@ func neighbours(marks []Mark, k int) [][]int {
 	for i, m := range marks {
 		xs[i], ys[i] = m.X, m.Y
 	}
+	return neighboursXY(xs, ys, k)
+}
+
+// neighboursXY lists each point's k nearest points, nearest first.
+func neighboursXY(xs, ys []float64, k int) [][]int {
+	n := len(xs)
+	if n < 2 || k <= 0 {
+		return nil
+	}
 	g := newGrid(xs, ys)
 	nb := make([][]int, n)
 	flat := make([]int, n*k)
 	ds := make([]float64, 0, k)
-	for i := range marks {
+	for i := range xs {
 		got := g.knnInto(i, k, flat[i*k:i*k:i*k+k], ds[:0])
 		nb[i] = got[:len(got):len(got)]
 	}
