@@ -347,11 +347,57 @@ func (d *scanner) number() (float64, error) {
 			return 0, d.errorf("bad number")
 		}
 	}
+	if f, ok := fastFloat(d.b[start:d.i]); ok {
+		return f, nil
+	}
 	f, err := strconv.ParseFloat(string(d.b[start:d.i]), 64)
 	if err != nil {
 		return 0, d.errorf("bad number: %v", err)
 	}
 	return f, nil
+}
+
+var pow10 = [...]float64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}
+
+// fastFloat parses a plain decimal ("-12.375", no exponent) of at most 15
+// significant digits exactly: the digits form an integer below 2^53 and the
+// divisor is an exact power of ten, so the one division rounds correctly
+// (the classic fast path of decimal-to-binary conversion). It reports
+// false for anything else, which strconv.ParseFloat then handles.
+func fastFloat(b []byte) (float64, bool) {
+	neg := false
+	if len(b) > 0 && b[0] == '-' {
+		neg, b = true, b[1:]
+	}
+	var m uint64
+	digits, frac := 0, -1
+	for i, c := range b {
+		switch {
+		case c >= '0' && c <= '9':
+			if digits > 0 || c != '0' {
+				digits++
+			}
+			m = m*10 + uint64(c-'0')
+			if frac >= 0 {
+				frac++
+			}
+		case c == '.' && frac < 0 && i > 0:
+			frac = 0
+		default:
+			return 0, false
+		}
+	}
+	if digits > 15 || frac > 22 || len(b) == 0 {
+		return 0, false
+	}
+	f := float64(m)
+	if frac > 0 {
+		f /= pow10[frac]
+	}
+	if neg {
+		f = -f
+	}
+	return f, true
 }
 
 func (d *scanner) uint32() (uint32, error) {

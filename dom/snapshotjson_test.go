@@ -2,6 +2,7 @@ package dom
 
 import (
 	"encoding/json"
+	"strconv"
 	"os"
 	"path/filepath"
 	"strings"
@@ -82,6 +83,36 @@ func FuzzSnapshotJSON(f *testing.F) {
 		}
 		if a, c := canon(t, Snapshot(slow)), canon(t, fast); a != c {
 			t.Fatalf("decoders disagree on %q:\n%s\n%s", b, a, c)
+		}
+	})
+}
+
+func TestFastFloatMatchesParseFloat(t *testing.T) {
+	for _, c := range []string{"0", "-0", "1", "12.5", "-3.14159", "0.1", "123456789012345", "0.000001", "99.999999999999", "4294967295", "1234567.1234567", "-0.0000000000000000000001"} {
+		f, ok := fastFloat([]byte(c))
+		require.True(t, ok, c)
+		want, err := strconv.ParseFloat(c, 64)
+		require.NoError(t, err)
+		assert.Equal(t, want, f, c)
+	}
+	for _, c := range []string{"1e5", "1234567890123456", "", "-", "1.2.3", ".5"} {
+		_, ok := fastFloat([]byte(c))
+		assert.False(t, ok, c)
+	}
+}
+
+func FuzzFastFloat(f *testing.F) {
+	for _, s := range []string{"12.5", "-0.001", "123456789012345"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		got, ok := fastFloat([]byte(s))
+		if !ok {
+			return
+		}
+		want, err := strconv.ParseFloat(s, 64)
+		if err != nil || want != got && !(want == 0 && got == 0) {
+			t.Fatalf("fastFloat(%q) = %v, ParseFloat = %v, %v", s, got, want, err)
 		}
 	})
 }

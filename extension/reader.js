@@ -24,6 +24,7 @@
   };
   const SHAPES = new Set(['circle', 'ellipse', 'rect', 'line', 'polyline', 'polygon', 'path', 'text', 'image']);
   const SVG_NS = 'http://www.w3.org/2000/svg';
+  const PLAIN_NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
 
   let canvasCtx = null;
 
@@ -167,6 +168,12 @@
         continue;
       }
       let v = null;
+      // Plain numbers (the usual case) parse directly; lengths with units
+      // go through the SVG DOM.
+      if (PLAIN_NUMBER.test(a)) {
+        g.push(+a);
+        continue;
+      }
       const p = el[k];
       if (p && p.baseVal !== undefined) {
         const bv = p.baseVal;
@@ -233,7 +240,6 @@
       nodes: [],
       problems: [],
     };
-    const toPage = [1, 0, 0, 1, sx, sy];
     const add = (el, parent, name, ctmOverride, useDepth) => {
       const tag = el.localName.toLowerCase();
       const cs = getComputedStyle(el);
@@ -242,7 +248,8 @@
         m = mul(ctmOverride, ownTransform(el));
       } else {
         const sc = el.getScreenCTM && el.getScreenCTM();
-        m = sc ? mul(toPage, matrixOf(sc)) : mul(toPage, [1, 0, 0, 1, 0, 0]);
+        // Page coordinates: the screen CTM plus the scroll (and frame) offset.
+        m = sc ? [sc.a, sc.b, sc.c, sc.d, sc.e + sx, sc.f + sy] : [1, 0, 0, 1, sx, sy];
       }
       const node = {
         p: parent,

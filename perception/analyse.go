@@ -73,20 +73,56 @@ func Analyse(in Input, p Params) *Result {
 		shares[k] = &shared{}
 	}
 	res.shares = shares
-	for vi, v := range Visions {
+	judgeVision := func(vi int, only map[string][]int) {
 		for _, k := range keys {
 			idx := kinds[k]
-			d := newDisplayShared(&p, kindMarks[k], idx, v, p.Severity, shares[k])
+			var targets []int
+			if only != nil {
+				if targets = only[k]; len(targets) == 0 {
+					continue
+				}
+			}
+			d := newDisplayShared(&p, kindMarks[k], idx, Visions[vi], p.Severity, shares[k])
 			d.nb, d.reuse = nbs[k], reuse[k]
+			var rs []MarkResult
+			if targets != nil {
+				rs = d.judgeSome(targets)
+				for _, j := range targets {
+					res.Marks[idx[j]][vi] = rs[j]
+				}
+				continue
+			}
 			for j, r := range d.judge() {
 				res.Marks[idx[j]][vi] = r
 			}
 		}
 	}
+	judgeVision(0, nil)
 	res.Emphasis = append([]int(nil), in.Emphasis...)
 	if len(res.Emphasis) == 0 {
 		res.Inferred = true
 		res.Emphasis = inferEmphasis(in, res)
+	}
+	// Under CVD: every mark, or (CVDEmphasisOnly) just the emphasis, whose
+	// fate is what the findings report.
+	var only map[string][]int
+	if p.CVDEmphasisOnly {
+		only = map[string][]int{}
+		pos := map[int]int{}
+		for _, k := range keys {
+			for j, i := range kinds[k] {
+				pos[i] = j
+			}
+		}
+		for _, i := range res.Emphasis {
+			if i >= 0 && i < n {
+				k := in.Marks[i].Kind
+				only[k] = append(only[k], pos[i])
+			}
+		}
+	}
+	for vi := 1; vi < len(Visions); vi++ {
+		judgeVision(vi, only)
 	}
 	for vi := range Visions {
 		res.Holds[vi] = len(res.Emphasis) > 0
@@ -96,7 +132,7 @@ func Analyse(in Input, p Params) *Result {
 			}
 		}
 	}
-	res.Groups = group(in, p)
+	res.Groups = group(in, p, kinds, nbs)
 	res.Findings = findings(in, p, res)
 	return res
 }

@@ -79,7 +79,7 @@ func (u unionFind) labels() ([]int, int) {
 	return out, len(ids)
 }
 
-func group(in Input, p Params) Grouping {
+func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]int) Grouping {
 	var g Grouping
 	var lines []Mark
 	for i, m := range in.Marks {
@@ -106,7 +106,10 @@ func group(in Input, p Params) Grouping {
 	// distance, over each mark's nearest neighbours (a k-nearest-neighbour
 	// graph, which joins the same groups wherever groups are denser than
 	// one mark per neighbourhood, and keeps the step O(n log n)).
-	nb := neighboursXY(xs, ys, max(p.Neighbours, 1))
+	nb := reuseNeighbours(in, g.Marks, kinds, kindNbs)
+	if nb == nil {
+		nb = neighboursXY(xs, ys, max(p.Neighbours, 1))
+	}
 	nn := make([]float64, n)
 	for k := range g.Marks {
 		if len(nb[k]) > 0 {
@@ -261,4 +264,39 @@ func segDist(x, y float64, a, b [2]float64) float64 {
 		t = math.Max(0, math.Min(1, ((x-a[0])*dx+(y-a[1])*dy)/l2))
 	}
 	return math.Hypot(x-(a[0]+t*dx), y-(a[1]+t*dy))
+}
+
+// reuseNeighbours returns the neighbour lists the salience step already
+// computed when the grouped marks are exactly the marks of one kind (the
+// usual chart), re-indexed to positions in marks; else nil.
+func reuseNeighbours(in Input, marks []int, kinds map[string][]int, kindNbs map[string][][]int) [][]int {
+	if len(marks) == 0 {
+		return nil
+	}
+	k := in.Marks[marks[0]].Kind
+	idx, nbs := kinds[k], kindNbs[k]
+	if len(idx) != len(marks) || len(nbs) != len(idx) {
+		return nil
+	}
+	pos := make(map[int]int, len(marks))
+	for p, i := range marks {
+		if in.Marks[i].Kind != k {
+			return nil
+		}
+		pos[i] = p
+	}
+	total := 0
+	for _, l := range nbs {
+		total += len(l)
+	}
+	flat := make([]int, 0, total)
+	out := make([][]int, len(marks))
+	for j, i := range idx {
+		start := len(flat)
+		for _, o := range nbs[j] {
+			flat = append(flat, pos[idx[o]])
+		}
+		out[pos[i]] = flat[start:len(flat):len(flat)]
+	}
+	return out
 }

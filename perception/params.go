@@ -69,6 +69,12 @@ type Params struct {
 	// target-present inefficient search (REFERENCES §5.6, DERIVED).
 	EfficientSlope, SerialSlope [2]float64
 
+	// CVDEmphasisOnly limits the CVD re-analysis to the emphasised marks
+	// (declared or inferred), which is all the findings need; the other
+	// marks' CVD verdicts are then left empty. The extension's overlay uses
+	// it; reports that list every mark's CVD verdicts do not.
+	CVDEmphasisOnly bool
+
 	// MaxHues is the number of categorical colours above which categories
 	// get hard to tell apart: Ware's "easy to select six distinct colors"
 	// (REFERENCES §8, EXACT publisher summary).

@@ -256,3 +256,32 @@ func TestSuggestedFixesVerify(t *testing.T) {
 		assert.True(t, r2.Holds[vi], "fixed emphasis for %s", v)
 	}
 }
+
+func TestCVDEmphasisOnlyAgrees(t *testing.T) {
+	// Limiting the CVD re-analysis to the emphasis changes nothing that the
+	// findings or the emphasis verdicts say.
+	red := colour.LabToSRGB(colour.LChToLab(colour.LCh{L: 55, C: 60, H: 35})).Clamped()
+	grn := colour.LabToSRGB(colour.LChToLab(colour.LCh{L: 55, C: 60, H: 140})).Clamped()
+	for _, em := range [][]int{{7}, nil} {
+		marks := gridDisplay(40, 9, func(i int, m *Mark) {
+			m.Colour = grn
+			if i == 7 {
+				m.Colour = red
+			}
+			if i%5 == 0 {
+				m.Shape = "square"
+			}
+		})
+		in := Input{Marks: marks, Background: colour.MustHex("#ffffff"), Emphasis: em}
+		full := Analyse(in, DefaultParams)
+		p := DefaultParams
+		p.CVDEmphasisOnly = true
+		lite := Analyse(in, p)
+		assert.Equal(t, full.Holds, lite.Holds)
+		assert.Equal(t, full.Emphasis, lite.Emphasis)
+		assert.Equal(t, full.Findings, lite.Findings)
+		for i := range marks {
+			assert.Equal(t, full.Marks[i][0], lite.Marks[i][0], "normal vision, mark %d", i)
+		}
+	}
+}

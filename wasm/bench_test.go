@@ -41,3 +41,20 @@ func BenchmarkHandle5k(b *testing.B) {
 		Handle(req)
 	}
 }
+
+// BenchmarkHandlePage5k is the extension's form: options and page apart,
+// answered with the overlay's digest.
+func BenchmarkHandlePage5k(b *testing.B) {
+	req := benchRequest(b, 5000)
+	var q Request
+	if err := json.Unmarshal(req, &q); err != nil {
+		b.Fatal(err)
+	}
+	page, _ := json.Marshal(map[string]any{"source": "bench", "snapshots": q.Snapshots})
+	opts := []byte(`{"type":"analyse"}`)
+	b.SetBytes(int64(len(page)))
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		HandlePage(opts, page)
+	}
+}

@@ -103,6 +103,8 @@ func handle(q *Request, t0 time.Time) []byte {
 	if q.DistanceCM > 0 && q.PxPerInch > 0 {
 		opt.Params.ND.Viewing = colour.Viewing{DistanceCM: q.DistanceCM, CSSPxPerInch: q.PxPerInch}
 	}
+	// The overlay's digest needs the CVD re-analysis of the emphasis only.
+	opt.Params.CVDEmphasisOnly = !q.Full
 	if len(q.Emphasis) > 0 {
 		opt.IDs = map[string]bool{}
 		for _, id := range q.Emphasis {
