@@ -2,9 +2,9 @@ package dom
 
 import (
 	"encoding/json"
-	"strconv"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
