@@ -604,3 +604,41 @@ func TestE2ESurvivesServiceWorkerStop(t *testing.T) {
 	h.waitState("ready")
 	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
 }
+
+func TestE2EExportMarkdownAndPNG(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(chartPage)
+	dl := t.TempDir()
+	_, err := chromedp.CallBrowser(h.ctx, cdpbrowser.SetDownloadBehavior, cdpbrowser.SetDownloadBehaviorParams{Behavior: cdpbrowser.SetDownloadBehaviorBehaviorAllow, DownloadPath: dl})
+	require.NoError(t, err)
+	h.callInOverlay("export-md", `function () { this.click(); }`)
+	h.callInOverlay("export-png", `function () { this.click(); }`)
+	var md, shot []byte
+	for i := 0; i < 100 && (md == nil || shot == nil); i++ {
+		time.Sleep(100 * time.Millisecond)
+		md, _ = os.ReadFile(filepath.Join(dl, "standout-report.md"))
+		shot, _ = os.ReadFile(filepath.Join(dl, "standout-svg0.png"))
+	}
+	require.NotNil(t, md, "no Markdown export")
+	assert.Contains(t, string(md), "# Standout report")
+	assert.Contains(t, string(md), "### Chart `svg0`")
+	require.NotNil(t, shot, "no PNG export")
+	img, err := png.Decode(bytes.NewReader(shot))
+	require.NoError(t, err)
+	// The chart (240 × 120) with a 10 px margin, outlines included.
+	assert.InDelta(t, 260, img.Bounds().Dx(), 4)
+	assert.InDelta(t, 140, img.Bounds().Dy(), 4)
+	// The popping bar's solid outline colour (#0f766e) is in the picture,
+	// within the anti-aliasing of the page's rendering.
+	teal := 0
+	near := func(v uint32, want int) bool { return math.Abs(float64(int(v>>8)-want)) <= 24 }
+	for y := 0; y < img.Bounds().Dy(); y++ {
+		for x := 0; x < img.Bounds().Dx(); x++ {
+			r, g, b, _ := img.At(x, y).RGBA()
+			if near(r, 0x0f) && near(g, 0x76) && near(b, 0x6e) {
+				teal++
+			}
+		}
+	}
+	assert.Greater(t, teal, 50)
+}
