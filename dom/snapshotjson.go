@@ -173,13 +173,21 @@ func fold(key string, known []string) string {
 }
 
 // floats reads an array of numbers into *dst, replacing its contents.
+// The numbers go into one arena per scanner, so that the many small
+// arrays of a snapshot (geometry, boxes) do not each allocate.
 func (d *scanner) floats(dst *[]float64) error {
-	*dst = (*dst)[:0]
-	return d.array(func() error {
+	start := len(d.arena)
+	err := d.array(func() error {
 		f, err := d.number()
-		*dst = append(*dst, f)
+		d.arena = append(d.arena, f)
 		return err
 	})
+	if n := len(d.arena); n > start {
+		*dst = d.arena[start:n:n]
+	} else {
+		*dst = (*dst)[:0]
+	}
+	return err
 }
 
 // fixed reads an array of numbers into dst; extra elements are ignored.
@@ -199,8 +207,9 @@ func (d *scanner) fixed(dst []float64) error {
 // (NaN and infinities from JavaScript) read as 0, as encoding/json leaves
 // a float at its zero value for null.
 type scanner struct {
-	b []byte
-	i int
+	b     []byte
+	i     int
+	arena []float64
 }
 
 var errDepth = errors.New("dom: snapshot JSON nested too deeply")

@@ -134,7 +134,10 @@ func Walk(s *Snapshot) (*Chart, error) {
 			labels[int(nd.Parent)] = nd.Text
 		}
 	}
-	var cands []*cand
+	// One slab for all candidates, and room for them in the lists: the
+	// walk allocates per chart, not per mark.
+	slab := make([]cand, 0, n)
+	cands := make([]*cand, 0, n)
 	var texts []*cand
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
@@ -147,7 +150,8 @@ func Walk(s *Snapshot) (*Chart, error) {
 			ch.Furniture["hidden"]++
 			continue
 		}
-		c := &cand{node: i, n: nd, opacity: opac[i], label: labels[i]}
+		slab = append(slab, cand{node: i, n: nd, opacity: opac[i], label: labels[i]})
+		c := &slab[len(slab)-1]
 		if c.label == "" {
 			c.label = nd.Label
 		}
@@ -202,6 +206,7 @@ func Walk(s *Snapshot) (*Chart, error) {
 	classifyTexts(ch, texts)
 	legendSwatches(ch, cands, texts)
 	assignKinds(cands)
+	ch.Marks = make([]Mark, 0, len(cands)+len(texts))
 	for _, c := range cands {
 		if c.role != "" {
 			if c.role != "legend" {

@@ -19,32 +19,39 @@ func AdjustedRandIndex(a, b []int) float64 {
 	if n < 2 {
 		return 1
 	}
-	type pair struct{ x, y int }
-	nij := map[pair]int{}
-	ai, bj := map[int]int{}, map[int]int{}
-	for k := range a {
-		ai[a[k]]++
-		bj[b[k]]++
-	}
 	c2 := func(x int) float64 { return float64(x) * float64(x-1) / 2 }
 	var sij, sa, sb float64
-	// Dense labels 0..k−1 (as partitions here have) use a flat table.
+	// Dense labels 0..k−1 (as partitions here have) use flat tables.
 	ka, kb := maxLabel(a)+1, maxLabel(b)+1
-	if ka > 0 && kb > 0 && ka*kb <= 1<<20 && len(ai) == ka && len(bj) == kb {
+	if ka > 0 && kb > 0 && ka*kb <= 1<<20 {
 		t := make([]int32, ka*kb)
+		ra, rb := make([]int32, ka), make([]int32, kb)
 		for k := range a {
 			t[a[k]*kb+b[k]]++
+			ra[a[k]]++
+			rb[b[k]]++
 		}
 		for _, v := range t {
 			sij += c2(int(v))
 		}
-	} else {
-		for k := range a {
-			nij[pair{a[k], b[k]}]++
+		for _, v := range ra {
+			sa += c2(int(v))
 		}
-		for _, v := range nij {
-			sij += c2(v)
+		for _, v := range rb {
+			sb += c2(int(v))
 		}
+		return ariFrom(sij, sa, sb, c2(n))
+	}
+	type pair struct{ x, y int }
+	nij := map[pair]int{}
+	ai, bj := map[int]int{}, map[int]int{}
+	for k := range a {
+		nij[pair{a[k], b[k]}]++
+		ai[a[k]]++
+		bj[b[k]]++
+	}
+	for _, v := range nij {
+		sij += c2(v)
 	}
 	for _, v := range ai {
 		sa += c2(v)
@@ -52,7 +59,13 @@ func AdjustedRandIndex(a, b []int) float64 {
 	for _, v := range bj {
 		sb += c2(v)
 	}
-	e := sa * sb / c2(n)
+	return ariFrom(sij, sa, sb, c2(n))
+}
+
+// ariFrom finishes the index from the pair counts: Σ C(n_ij,2), Σ C(a_i,2),
+// Σ C(b_j,2) and C(n,2).
+func ariFrom(sij, sa, sb, pairs float64) float64 {
+	e := sa * sb / pairs
 	den := (sa+sb)/2 - e
 	if den == 0 {
 		return 1

@@ -278,7 +278,7 @@ func reuseNeighbours(in Input, marks []int, kinds map[string][]int, kindNbs map[
 	if len(idx) != len(marks) || len(nbs) != len(idx) {
 		return nil
 	}
-	pos := make(map[int]int, len(marks))
+	pos := make([]int, len(in.Marks))
 	for p, i := range marks {
 		if in.Marks[i].Kind != k {
 			return nil
