@@ -227,7 +227,7 @@
   // coordinates of the element's own window to page coordinates of the top
   // document, in CSS px (the scroll offset, plus the frame's position for
   // charts inside frames).
-  function readChart(svg, path, root, off) {
+  function readChart(svg, path, root, off, emphasis) {
     const sx = off[0];
     const sy = off[1];
     const box = svg.getBoundingClientRect();
@@ -300,7 +300,7 @@
       }
       const idx = snap.nodes.length;
       snap.nodes.push(node);
-      if (el.hasAttribute('data-standout-emphasis')) {
+      if (el.hasAttribute('data-standout-emphasis') || (emphasis && el.matches(emphasis))) {
         (snap.sel = snap.sel || []).push(idx);
       }
       if (tag === 'text' || tag === 'title' || tag === 'desc' || NOT_RENDERED.has(tag)) return;
@@ -466,15 +466,17 @@
     return [x + r.left, y + r.top, r.width, r.height];
   }
 
-  // Reads every chart of the page.
-  function readPage(doc) {
+  // Reads every chart of the page. opts.emphasis, a CSS selector, names
+  // the intended emphasis besides the data-standout-emphasis attribute.
+  function readPage(doc, opts) {
+    const emphasis = (opts && opts.emphasis) || '';
     const t0 = performance.now();
     const problems = [];
     const charts = findCharts(doc || document, problems);
     const snapshots = [];
     for (const c of charts) {
       try {
-        snapshots.push(readChart(c.svg, c.path, c.root, c.off));
+        snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis));
       } catch (e) {
         problems.push(`${c.path}: could not be read: ${e && e.message}`);
       }

@@ -44,8 +44,9 @@ type Params struct {
 
 	// SmallGroupFraction and SmallGroupMin bound the size of a target
 	// group: marks that share a feature value with at most
-	// max(SmallGroupMin, SmallGroupFraction·n) marks are candidate
-	// emphasis, the rest are distractors. Provisional.
+	// max(SmallGroupMin, SmallGroupFraction·n) marks, and fewer than half
+	// of them, are candidate emphasis; the rest are distractors.
+	// Provisional.
 	SmallGroupFraction float64
 	SmallGroupMin      int
 	// Neighbours is how many nearest marks form the local surround

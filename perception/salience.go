@@ -149,7 +149,9 @@ func newDisplayShared(p *Params, ms []Mark, idx []int, v colour.Deficiency, seve
 			sh.nd, sh.size, sh.ori, sh.oriP, sh.ready = d.nd, d.size, d.ori, d.oriP, true
 		}
 	}
-	d.small = int(math.Max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n))))
+	// A target group is a minority: in three marks, two alike are the
+	// majority, whatever the fraction says.
+	d.small = min(int(math.Max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n)))), (n-1)/2)
 	return d
 }
 

@@ -287,3 +287,26 @@ func BenchmarkBatch(b *testing.B) {
 }
 
 var _ = bytes.NewReader
+
+func TestBrowserEmphasisSelector(t *testing.T) {
+	needBrowser(t)
+	dir := t.TempDir()
+	page := filepath.Join(dir, "p.html")
+	require.NoError(t, os.WriteFile(page, []byte(`<svg width="200" height="100"><g>
+	<rect x="10" y="40" width="20" height="60" fill="#777"/><rect class="key" x="40" y="30" width="20" height="70" fill="#777"/>
+	<rect x="70" y="10" width="20" height="90" fill="#b91c1c"/></g></svg>`), 0o644))
+	for _, browserMode := range []bool{false, true} {
+		args := []string{"check", "--json", "--emphasis", "rect.key", page}
+		if browserMode {
+			args = append([]string{"check", "--browser"}, args[1:]...)
+		}
+		code, out, errs := runCmd(args...)
+		require.Equal(t, 0, code, errs)
+		var rep report.Report
+		require.NoError(t, json.Unmarshal([]byte(out), &rep))
+		em := rep.Pages[0].Charts[0].Emphasis
+		require.NotNil(t, em)
+		assert.Equal(t, []string{"svg0/g0/rect1"}, em.Marks, "browser=%v", browserMode)
+		assert.False(t, em.Holds["normal"], "a grey bar among grey bars does not stand out")
+	}
+}

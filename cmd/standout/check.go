@@ -84,10 +84,6 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	var failed []string
 	progress := newProgress(stderr, len(fs.Args()))
 	if *useBrowser {
-		if opt.Selector != "" {
-			fmt.Fprintln(stderr, "standout check: with --browser, name the emphasis by mark ids (see the report's ids), not by a selector")
-			return 2
-		}
 		exe, err := browser.Find(*chromium)
 		if err != nil {
 			fmt.Fprintln(stderr, "standout check:", err)
@@ -105,7 +101,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		defer os.RemoveAll(udd)
 		bctx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, UserDataDir: udd})
 		defer cancel()
-		results := browser.ReadPages(bctx, urls, browser.ReadOptions{Tabs: *tabs, Screenshot: *pngDir != "", Reader: extension.Reader(), Progress: func(done, total int, r *browser.PageResult) {
+		results := browser.ReadPages(bctx, urls, browser.ReadOptions{Tabs: *tabs, Screenshot: *pngDir != "", Reader: extension.Reader(), Emphasis: opt.Selector, Progress: func(done, total int, r *browser.PageResult) {
 			progress.step(done, r.URL, r.Err)
 		}})
 		for i, r := range results {

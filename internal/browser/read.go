@@ -2,6 +2,7 @@ package browser
 
 import (
 	"context"
+	"encoding/json"
 	"fmt"
 	"sync"
 	"time"
@@ -36,6 +37,8 @@ type ReadOptions struct {
 	Progress func(done, total int, r *PageResult)
 	// Reader is the read pass's source: the extension's reader.js.
 	Reader string
+	// Emphasis is a CSS selector naming the intended emphasis.
+	Emphasis string
 }
 
 // stableJS resolves once the document has loaded and its element count
@@ -129,7 +132,8 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions) PageResult
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r
 	}
-	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(globalThis.standoutReader.readPage(document))`))
+	opts, _ := json.Marshal(map[string]string{"emphasis": o.Emphasis})
+	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(globalThis.standoutReader.readPage(document, ` + string(opts) + `))`))
 	if err != nil {
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r
