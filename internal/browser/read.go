@@ -133,7 +133,7 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions) PageResult
 		return r
 	}
 	opts, _ := json.Marshal(map[string]string{"emphasis": o.Emphasis})
-	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(globalThis.standoutReader.readPage(document, ` + string(opts) + `))`))
+	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(globalThis.standoutReader.readPage(document, `+string(opts)+`))`))
 	if err != nil {
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r
