@@ -282,4 +282,12 @@ func Unpack(v uint32) Colour {
 }
 
 // Hex formats a packed colour as lowercase #rrggbb, ignoring alpha.
-func Hex(v uint32) string { return fmt.Sprintf("#%06x", v>>8) }
+func Hex(v uint32) string {
+	const digits = "0123456789abcdef"
+	var b [7]byte
+	b[0] = '#'
+	for i := 0; i < 6; i++ {
+		b[6-i] = digits[(v>>(8+4*uint(i)))&0xf]
+	}
+	return string(b[:])
+}

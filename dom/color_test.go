@@ -1,6 +1,7 @@
 package dom
 
 import (
+	"fmt"
 	"strings"
 	"testing"
 
@@ -99,4 +100,10 @@ func TestWhereHasZeroSpecificity(t *testing.T) {
 	// The type selector (0,0,1) beats :where(.b) (0,0,0), and both beat
 	// the presentation attribute.
 	assert.Equal(t, "#0000ff", Hex(n[2].Fill.RGBA))
+}
+
+func TestHexMatchesFormat(t *testing.T) {
+	for _, v := range []uint32{0, 0xffffffff, 0x12345678, 0xabcdef00, 0x0f766eff} {
+		assert.Equal(t, fmt.Sprintf("#%06x", v>>8), Hex(v))
+	}
 }

@@ -47,7 +47,12 @@ func (d *scanner) snapshot(s *Snapshot) error {
 			out.Background, err = d.uint32()
 		case "nodes":
 			// Like encoding/json, a repeated key decodes into the elements
-			// already there.
+			// already there. Reserve room for the nodes the rest of the
+			// input could hold at a typical 150 bytes each, up to 8,192,
+			// rather than doubling a slice of large structs from one.
+			if out.Nodes == nil {
+				out.Nodes = make([]Node, 0, min((len(d.b)-d.i)/150+1, 8192))
+			}
 			i := 0
 			err = d.array(func() error {
 				if i == len(out.Nodes) {

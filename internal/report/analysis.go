@@ -62,6 +62,7 @@ func ToPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
 		}
 		return pm
 	}
+	in.Marks = make([]perception.Mark, 0, len(ch.Marks))
 	for i, m := range ch.Marks {
 		in.Marks = append(in.Marks, conv(m))
 		if emphasisIDs[m.ID] {

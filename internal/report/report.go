@@ -169,7 +169,7 @@ func FromSnapshots(name string, snaps []dom.Snapshot, problems []string, opt Opt
 		}
 		charts = append(charts, ch)
 		rc := Chart{Path: ch.Path, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
-			Background: dom.Hex(ch.Background), Marks: []Mark{}, Legend: []Mark{},
+			Background: dom.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
 			Furniture: ch.Furniture, Problems: nonNil(ch.Problems)}
 		for _, m := range ch.Marks {
 			rc.Marks = append(rc.Marks, toMark(m))
