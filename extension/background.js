@@ -35,7 +35,9 @@ async function inject(tabId, files) {
 // JSON string: one string crosses the messaging layer far faster than a
 // large object, and it goes to the core as it is.
 async function readPage(tabId) {
-  await inject(tabId, ['reader.js']);
+  // One injection brings the reader and the overlay (both idempotent), so
+  // showing the result needs no second round trip.
+  await inject(tabId, ['cvd-filters.js', 'reader.js', 'overlay.js']);
   const [res] = await chrome.scripting.executeScript({
     target: { tabId },
     func: () => JSON.stringify(globalThis.standoutReader.readPage(document)),
@@ -60,7 +62,6 @@ async function analyse(tabId, emphasis, severity, full) {
 }
 
 async function show(tabId, result) {
-  await inject(tabId, ['cvd-filters.js', 'reader.js', 'overlay.js']);
   await chrome.tabs.sendMessage(tabId, { type: 'standout/show', target: 'overlay', data: result });
 }
 
