@@ -450,6 +450,8 @@
   }
 
   async function exportPNG() {
+    // Let the outlines reach the screen before the tab is captured.
+    await new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r)));
     const resp = await chrome.runtime.sendMessage({ type: 'standout/capture', target: 'background' });
     if (!resp || !resp.ok) {
       showError((resp && resp.error) || 'the screenshot failed');
