@@ -386,7 +386,9 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 	}
 	tag := strings.ToLower(n.Data)
 	ctm := parentCTM
-	if t := attr(n, "transform"); t != "" && tag != "svg" || t != "" && parent >= 0 {
+	// A transform applies to any element but the outermost <svg>, whose
+	// placement is the page's business.
+	if t := attr(n, "transform"); t != "" && (tag != "svg" || parent >= 0) {
 		m, err := ParseTransform(t)
 		if err != nil {
 			snap.Problems = append(snap.Problems, fmt.Sprintf("%s: %v; the transform is ignored", name, err))
@@ -625,9 +627,6 @@ func (b *builder) paint(v string, st *computed, name string) Paint {
 	if err != nil {
 		b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: %v; painted as none", name, err))
 		return Paint{}
-	}
-	if c.A == 0 {
-		return Paint{Kind: PaintColour, RGBA: RGBA(c)}
 	}
 	return Paint{Kind: PaintColour, RGBA: RGBA(c)}
 }

@@ -203,7 +203,7 @@ func Walk(s *Snapshot) (*Chart, error) {
 		cands = append(cands, c)
 	}
 	classifyFurniture(ch, cands)
-	classifyTexts(ch, texts)
+	classifyTexts(texts)
 	legendSwatches(ch, cands, texts)
 	assignKinds(cands)
 	ch.Marks = make([]Mark, 0, len(cands)+len(texts))
@@ -508,17 +508,10 @@ func classifyFurniture(ch *Chart, cands []*cand) {
 // classifyTexts sets aside labels and titles; what remains are text marks.
 // Texts that share a parent and line up along one axis are axis or legend
 // labels; a lone text is a title or annotation label.
-func classifyTexts(ch *Chart, texts []*cand) {
+func classifyTexts(texts []*cand) {
 	byParent := map[int32][]*cand{}
 	for _, t := range texts {
 		byParent[t.n.Parent] = append(byParent[t.n.Parent], t)
-	}
-	// Generators that wrap each label in its own group: pool by grandparent.
-	for p, ts := range byParent {
-		if len(ts) != 1 || p < 0 {
-			continue
-		}
-		_ = p
 	}
 	for _, ts := range byParent {
 		if len(ts) < 3 {
@@ -542,7 +535,6 @@ func classifyTexts(ch *Chart, texts []*cand) {
 			}
 		}
 	}
-	_ = ch
 }
 
 // legendSwatches finds legend entries: small marks each with its own label

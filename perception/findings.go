@@ -281,7 +281,7 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 				Source:  srcColour})
 		}
 	}
-	for vi, v := range Visions[1:] {
+	for _, v := range Visions[1:] {
 		var pairs []string
 		var marks []int
 		for a := range cols {
@@ -300,7 +300,6 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 				}
 			}
 		}
-		_ = vi
 		if len(pairs) > 0 {
 			out = append(out, Finding{ID: "categories-merge-cvd", Severity: Warning, Marks: dedupe(marks),
 				Message: fmt.Sprintf("For %s readers %s look the same at this mark size.", v, strings.Join(pairs, "; ")),

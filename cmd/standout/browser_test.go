@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"encoding/json"
 	"flag"
 	"fmt"
@@ -285,8 +284,6 @@ func BenchmarkBatch(b *testing.B) {
 		})
 	}
 }
-
-var _ = bytes.NewReader
 
 func TestBrowserEmphasisSelector(t *testing.T) {
 	needBrowser(t)

@@ -2,6 +2,7 @@ package report
 
 import (
 	"math"
+	"strconv"
 	"strings"
 
 	"standout/dom"
@@ -229,9 +230,5 @@ func plural(n int, one, many string) string {
 	if n == 1 {
 		return "1 " + one
 	}
-	return itoa(n) + " " + many
-}
-
-func itoa(n int) string {
-	return strings.TrimSpace(strings.Replace(fmtInt(n), " ", "", -1))
+	return strconv.Itoa(n) + " " + many
 }

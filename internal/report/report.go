@@ -265,5 +265,3 @@ func WriteText(w io.Writer, p Page, charts []*dom.Chart) {
 		}
 	}
 }
-
-func fmtInt(n int) string { return fmt.Sprint(n) }
