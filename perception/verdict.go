@@ -28,10 +28,6 @@ func (d *display) judgeSome(only []int) []MarkResult {
 		}
 		statList[ci] = d.stats(c)
 	}
-	stats := map[Channel]channelStats{}
-	for ci, c := range Channels {
-		stats[c] = statList[ci]
-	}
 	nb := d.nb
 	if nb == nil && n > 1 && d.p.Neighbours > 0 {
 		nb = neighbours(d.marks, d.p.Neighbours)
@@ -133,7 +129,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 			d.reuse.sal[k] = res[k].Salience
 		}
 	}
-	d.conjunctions(res, stats)
+	d.conjunctions(res, &statList)
 	for k := range res {
 		slope := d.p.SerialSlope
 		if res[k].Verdict == Pops {
@@ -202,7 +198,7 @@ func neighboursXY(xs, ys []float64, k int) [][]int {
 // whose combination of features is shared by few marks while each of its
 // feature values is shared by many (Treisman & Gelade 1980), and that
 // differ noticeably from every other mark in some channel.
-func (d *display) conjunctions(res []MarkResult, stats map[Channel]channelStats) {
+func (d *display) conjunctions(res []MarkResult, stats *[5]channelStats) {
 	type sig [6]int64
 	n := len(d.marks)
 	sigOf := func(k int) sig {
@@ -236,8 +232,8 @@ func (d *display) conjunctions(res []MarkResult, stats map[Channel]channelStats)
 		k := g[0]
 		// Every feature value must be shared with other marks.
 		shared := true
-		for _, c := range Channels {
-			if stats[c].group[k] <= len(g) && channelMatters(d, c) {
+		for ci, c := range Channels {
+			if stats[ci].group[k] <= len(g) && channelMatters(d, c) {
 				shared = false
 			}
 		}

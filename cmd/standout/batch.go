@@ -2,7 +2,7 @@ package main
 
 import (
 	"bytes"
-	"encoding/json"
+	"context"
 	"fmt"
 	"image/png"
 	"io"
@@ -13,6 +13,7 @@ import (
 
 	"standout/dom"
 	"standout/extension"
+	"standout/internal/browser"
 	"standout/internal/report"
 )
 
@@ -154,14 +155,26 @@ func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) erro
 	return nil
 }
 
-// readerJS is the extension's read pass.
-func readerJS() string { return extension.Reader() }
-
-// analyseJSON walks and analyses snapshots given as JSON.
-func analyseJSON(source string, snaps []byte) (report.Page, []*dom.Chart, error) {
-	var s []dom.Snapshot
-	if err := json.Unmarshal(snaps, &s); err != nil {
-		return report.Page{}, nil, err
+// readInBrowser starts a headless Chromium with a fresh profile and reads
+// urls with the extension's own read pass.
+func readInBrowser(exe string, urls []string, o browser.ReadOptions) ([]browser.PageResult, error) {
+	udd, err := os.MkdirTemp("", "standout-profile-")
+	if err != nil {
+		return nil, err
 	}
-	return report.FromSnapshots(source, s, nil, report.DefaultOptions)
+	defer os.RemoveAll(udd)
+	bctx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, UserDataDir: udd})
+	defer cancel()
+	o.Reader = extension.Reader()
+	return browser.ReadPages(bctx, urls, o), nil
+}
+
+// pageFromRead walks and analyses what the read pass returned for a page,
+// decoded with the snapshot decoder the extension's core uses.
+func pageFromRead(name string, r browser.PageResult, opt report.Options) (report.Page, []*dom.Chart, error) {
+	pg, err := dom.DecodePage([]byte(r.JSON))
+	if err != nil {
+		return report.Page{}, nil, fmt.Errorf("the read pass returned bad data: %w", err)
+	}
+	return report.FromSnapshots(name, pg.Snapshots, pg.Problems, opt)
 }

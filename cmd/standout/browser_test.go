@@ -20,6 +20,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
+	"standout/extension"
 	"standout/internal/browser"
 	"standout/internal/demo"
 	"standout/internal/report"
@@ -258,18 +259,13 @@ func BenchmarkBatch(b *testing.B) {
 			for i := 0; i < b.N; i++ {
 				ctx, cancel := browser.NewAllocator(b.Context(), browser.Options{Exec: exe, UserDataDir: b.TempDir()})
 				t0 := time.Now()
-				res := browser.ReadPages(ctx, urls, browser.ReadOptions{Tabs: tabs, Reader: readerJS()})
+				res := browser.ReadPages(ctx, urls, browser.ReadOptions{Tabs: tabs, Reader: extension.Reader()})
 				for _, r := range res {
 					require.NoError(b, r.Err)
 					load += r.LoadMs
 					read += r.ReadMs
 					a0 := time.Now()
-					var pg struct {
-						Source    string          `json:"source"`
-						Snapshots json.RawMessage `json:"snapshots"`
-					}
-					require.NoError(b, json.Unmarshal([]byte(r.JSON), &pg))
-					_, _, err := analyseJSON(pg.Source, pg.Snapshots)
+					_, _, err := pageFromRead(r.URL, r, report.DefaultOptions)
 					require.NoError(b, err)
 					analyse += float64(time.Since(a0).Microseconds()) / 1000
 				}

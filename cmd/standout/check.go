@@ -1,7 +1,6 @@
 package main
 
 import (
-	"context"
 	"encoding/json"
 	"flag"
 	"fmt"
@@ -12,7 +11,6 @@ import (
 	"strings"
 
 	"standout/dom"
-	"standout/extension"
 	"standout/internal/browser"
 	"standout/internal/report"
 	"standout/perception"
@@ -93,32 +91,19 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		for i, a := range fs.Args() {
 			urls[i] = toURL(a)
 		}
-		udd, err := os.MkdirTemp("", "standout-profile-")
+		results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: *tabs, Screenshot: *pngDir != "", Emphasis: opt.Selector, Progress: func(done, total int, r *browser.PageResult) {
+			progress.step(done, r.URL, r.Err)
+		}})
 		if err != nil {
 			fmt.Fprintln(stderr, "standout check:", err)
 			return 2
 		}
-		defer os.RemoveAll(udd)
-		bctx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, UserDataDir: udd})
-		defer cancel()
-		results := browser.ReadPages(bctx, urls, browser.ReadOptions{Tabs: *tabs, Screenshot: *pngDir != "", Reader: extension.Reader(), Emphasis: opt.Selector, Progress: func(done, total int, r *browser.PageResult) {
-			progress.step(done, r.URL, r.Err)
-		}})
 		for i, r := range results {
 			if r.Err != nil {
 				failed = append(failed, fmt.Sprintf("%s: %v", fs.Arg(i), r.Err))
 				continue
 			}
-			var pg struct {
-				Source    string         `json:"source"`
-				Snapshots []dom.Snapshot `json:"snapshots"`
-				Problems  []string       `json:"problems"`
-			}
-			if err := json.Unmarshal([]byte(r.JSON), &pg); err != nil {
-				failed = append(failed, fmt.Sprintf("%s: the read pass returned bad data: %v", fs.Arg(i), err))
-				continue
-			}
-			rp, charts, err := report.FromSnapshots(fs.Arg(i), pg.Snapshots, pg.Problems, opt)
+			rp, charts, err := pageFromRead(fs.Arg(i), r, opt)
 			if err != nil {
 				failed = append(failed, fmt.Sprintf("%s: %v", fs.Arg(i), err))
 				continue

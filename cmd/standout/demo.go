@@ -2,8 +2,6 @@ package main
 
 import (
 	"bytes"
-	"context"
-	"encoding/json"
 	"flag"
 	"fmt"
 	"io"
@@ -14,8 +12,6 @@ import (
 	"os/signal"
 	"path"
 
-	"standout/dom"
-	"standout/extension"
 	"standout/internal/browser"
 	"standout/internal/demo"
 	"standout/internal/report"
@@ -93,34 +89,23 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 	srv := &http.Server{Handler: http.FileServer(http.FS(sub))}
 	go srv.Serve(l)
 	defer srv.Close()
-	udd, err := os.MkdirTemp("", "standout-demo-")
-	if err != nil {
-		fmt.Fprintln(stderr, "standout demo:", err)
-		return 2
-	}
-	defer os.RemoveAll(udd)
-	bctx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, UserDataDir: udd})
-	defer cancel()
 	var urls []string
 	for _, n := range names {
 		urls = append(urls, "http://"+l.Addr().String()+"/"+n)
 	}
 	fmt.Fprintln(stdout, "Standout demo: the built-in pages (an invented newsroom scenario), read as rendered in headless Chromium.")
 	fmt.Fprintln(stdout)
-	for i, r := range browser.ReadPages(bctx, urls, browser.ReadOptions{Tabs: 2, Reader: extension.Reader()}) {
+	results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: 2})
+	if err != nil {
+		fmt.Fprintln(stderr, "standout demo:", err)
+		return 2
+	}
+	for i, r := range results {
 		if r.Err != nil {
 			fmt.Fprintf(stderr, "standout demo: %s: %v\n", names[i], r.Err)
 			return 2
 		}
-		var pg struct {
-			Snapshots []dom.Snapshot `json:"snapshots"`
-			Problems  []string       `json:"problems"`
-		}
-		if err := json.Unmarshal([]byte(r.JSON), &pg); err != nil {
-			fmt.Fprintf(stderr, "standout demo: %s: %v\n", names[i], err)
-			return 2
-		}
-		rp, charts, err := report.FromSnapshots(path.Base(urls[i]), pg.Snapshots, pg.Problems, report.DefaultOptions)
+		rp, charts, err := pageFromRead(path.Base(urls[i]), r, report.DefaultOptions)
 		if err != nil {
 			fmt.Fprintf(stderr, "standout demo: %s: %v\n", names[i], err)
 			return 2
