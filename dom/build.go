@@ -424,15 +424,16 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 	if v := strings.ToLower(st.v[pVisibility]); v == "hidden" || v == "collapse" {
 		node.Flags |= Invisible
 	}
-	if st.v[pClipPath] != "none" || st.v[pMask] != "none" {
-		node.Flags |= Clipped
-	}
-	if strings.EqualFold(st.v[pPointerEvents], "none") {
-		node.Flags |= NoPointer
-	}
 	node.Label = attr(n, "aria-label")
 	node.Fill = b.paint(st.v[pFill], st, name)
 	node.Stroke = b.paint(st.v[pStroke], st, name)
+	// As the read pass records them (Node): no paint, no paint opacity.
+	if node.Fill.Kind == PaintNone {
+		node.FillOpacity = 1
+	}
+	if node.Stroke.Kind == PaintNone {
+		node.StrokeOpacity, node.StrokeWidth = 1, 0
+	}
 	if keys, ok := geomAttrs[tag]; ok {
 		node.Geom = make([]float64, len(keys), len(keys)+1)
 		for i, k := range keys {

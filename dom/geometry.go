@@ -25,7 +25,12 @@ type Geometry struct {
 	// Subpaths is the flattened outline; nil for circles and ellipses,
 	// which are measured analytically.
 	Subpaths []Subpath
-	BBox     [4]float64 // x y width height
+	// BBox is the box getBoundingClientRect gives an SVG shape: the
+	// axis-aligned bounds, in page px, of the element's own bounding box
+	// (of its outline in local user units) mapped by its CTM; x y width
+	// height. For a rotated or skewed shape it is larger than the bounds
+	// of the mapped outline.
+	BBox [4]float64
 	// Area is the enclosed area (px²); zero for open outlines.
 	Area     float64
 	Centroid Point
@@ -45,6 +50,8 @@ type Geometry struct {
 	Angle float64
 	// Corners counts sharp vertices of the outline (turns above 25°).
 	Corners int
+
+	local [][]Point // the outline in local user units, while measuring
 }
 
 // Measure computes the geometry of a snapshot node in page px. ok is false
@@ -68,9 +75,7 @@ func Measure(n *Node) (g Geometry, ok bool, err error) {
 			return g, false, nil
 		}
 		px, py := m.Apply(cx, cy)
-		hx := math.Hypot(m[0]*rx, m[2]*ry)
-		hy := math.Hypot(m[1]*rx, m[3]*ry)
-		g.BBox = [4]float64{px - hx, py - hy, 2 * hx, 2 * hy}
+		g.BBox = m.boundsOf(cx-rx, cy-ry, cx+rx, cy+ry)
 		g.Area = math.Pi * rx * ry * math.Abs(m.Det())
 		g.Centroid = Point{px, py}
 		// Semi-axes after the transform: singular values of [a c; b d]·diag(rx, ry).
@@ -90,6 +95,7 @@ func Measure(n *Node) (g Geometry, ok bool, err error) {
 		}
 		x, y, w, h := n.Geom[0], n.Geom[1], n.Geom[2], n.Geom[3]
 		pts := []Point{{x, y}, {x + w, y}, {x + w, y + h}, {x, y + h}}
+		g.local = [][]Point{pts}
 		g.Subpaths = []Subpath{{Pts: transformPts(m, pts), Closed: true}}
 		g.Info.Lines = 4
 	case "line":
@@ -97,6 +103,7 @@ func Measure(n *Node) (g Geometry, ok bool, err error) {
 			return g, false, nil
 		}
 		pts := []Point{{n.Geom[0], n.Geom[1]}, {n.Geom[2], n.Geom[3]}}
+		g.local = [][]Point{pts}
 		g.Subpaths = []Subpath{{Pts: transformPts(m, pts)}}
 		g.Info.Lines = 1
 	case "polyline", "polygon":
@@ -105,6 +112,7 @@ func Measure(n *Node) (g Geometry, ok bool, err error) {
 		if len(pts) < 2 {
 			return g, false, err
 		}
+		g.local = [][]Point{pts}
 		g.Subpaths = []Subpath{{Pts: transformPts(m, pts), Closed: n.Tag == "polygon"}}
 		g.Info.Lines = len(pts) - 1
 	case "path":
@@ -113,6 +121,7 @@ func Measure(n *Node) (g Geometry, ok bool, err error) {
 		g.Info = info
 		for _, s := range subs {
 			if len(s.Pts) >= 2 {
+				g.local = append(g.local, s.Pts)
 				g.Subpaths = append(g.Subpaths, Subpath{Pts: transformPts(m, s.Pts), Closed: s.Closed})
 			}
 		}
@@ -123,7 +132,29 @@ func Measure(n *Node) (g Geometry, ok bool, err error) {
 		return g, false, nil
 	}
 	g.measurePolys()
+	// The outline's local bounds, mapped: what the browser measures.
+	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	for _, s := range g.local {
+		for _, p := range s {
+			minX, maxX = math.Min(minX, p.X), math.Max(maxX, p.X)
+			minY, maxY = math.Min(minY, p.Y), math.Max(maxY, p.Y)
+		}
+	}
+	g.BBox = m.boundsOf(minX, minY, maxX, maxY)
+	g.local = nil
 	return g, true, err
+}
+
+// boundsOf maps the box [x0, x1] × [y0, y1] by m and returns the bounds
+// of its four corners as x y width height.
+func (m Matrix) boundsOf(x0, y0, x1, y1 float64) [4]float64 {
+	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	for _, c := range [4][2]float64{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}} {
+		x, y := m.Apply(c[0], c[1])
+		minX, maxX = math.Min(minX, x), math.Max(maxX, x)
+		minY, maxY = math.Min(minY, y), math.Max(maxY, y)
+	}
+	return [4]float64{minX, minY, maxX - minX, maxY - minY}
 }
 
 func transformPts(m Matrix, pts []Point) []Point {

@@ -62,7 +62,8 @@ type Node struct {
 	// CTM is the matrix (a b c d e f) from local user units to page CSS px.
 	CTM [6]float64 `json:"m"`
 	// BBox, when the browser measured it, is the element's box in page CSS
-	// px (x y width height). Empty in static snapshots.
+	// px (x y width height), as getBoundingClientRect gives it. Static
+	// snapshots have none: Walk computes the same box from the geometry.
 	BBox []float64 `json:"b,omitempty"`
 	// Fill and Stroke are the computed paints.
 	Fill   Paint `json:"f"`
@@ -70,12 +71,16 @@ type Node struct {
 	// FillOpacity, StrokeOpacity and Opacity are the computed values of the
 	// properties, each within [0, 1]. Opacity is this element's own;
 	// ancestors' opacities are on the ancestors.
+	//
+	// Both ways in record a paint's properties only where the paint is
+	// drawn: without a fill, FillOpacity is 1; without a stroke,
+	// StrokeOpacity is 1 and StrokeWidth 0.
 	FillOpacity   float64 `json:"fo"`
 	StrokeOpacity float64 `json:"so"`
 	Opacity       float64 `json:"o"`
 	// StrokeWidth is in local user units.
 	StrokeWidth float64 `json:"sw"`
-	// Flags holds Hidden, Invisible, Clipped, NoPointer.
+	// Flags holds Hidden and Invisible.
 	Flags uint8 `json:"x,omitempty"`
 	// Text is the text content of <text>, <title> and <desc>.
 	Text string `json:"tx,omitempty"`
@@ -89,10 +94,6 @@ const (
 	Hidden uint8 = 1 << iota
 	// Invisible: visibility is hidden or collapse.
 	Invisible
-	// Clipped: a clip-path or mask applies.
-	Clipped
-	// NoPointer: pointer-events: none.
-	NoPointer
 )
 
 // Paint is a computed fill or stroke.

@@ -21,11 +21,8 @@ const (
 	pVisibility
 	pColor
 	pFontSize
-	pClipPath
-	pMask
 	pStopColor
 	pStopOpacity
-	pPointerEvents
 	pBackgroundColor
 	pBackground
 	nProps
@@ -34,16 +31,16 @@ const (
 var propIndex = map[string]int{
 	"fill": pFill, "stroke": pStroke, "fill-opacity": pFillOpacity, "stroke-opacity": pStrokeOpacity,
 	"opacity": pOpacity, "stroke-width": pStrokeWidth, "display": pDisplay, "visibility": pVisibility,
-	"color": pColor, "font-size": pFontSize, "clip-path": pClipPath, "mask": pMask,
-	"stop-color": pStopColor, "stop-opacity": pStopOpacity, "pointer-events": pPointerEvents,
+	"color": pColor, "font-size": pFontSize,
+	"stop-color": pStopColor, "stop-opacity": pStopOpacity,
 	"background-color": pBackgroundColor, "background": pBackground,
 }
 
 // inherited marks the properties that inherit by default (SVG 2 property
-// index; CSS 2 for color, font-size, visibility, pointer-events).
+// index; CSS 2 for color, font-size, visibility).
 var inherited = [nProps]bool{
 	pFill: true, pStroke: true, pFillOpacity: true, pStrokeOpacity: true, pStrokeWidth: true,
-	pVisibility: true, pColor: true, pFontSize: true, pPointerEvents: true,
+	pVisibility: true, pColor: true, pFontSize: true,
 }
 
 // initial values (SVG 2, CSS 2; color's initial value is CanvasText, black
@@ -51,8 +48,8 @@ var inherited = [nProps]bool{
 var initial = [nProps]string{
 	pFill: "black", pStroke: "none", pFillOpacity: "1", pStrokeOpacity: "1", pOpacity: "1",
 	pStrokeWidth: "1", pDisplay: "inline", pVisibility: "visible", pColor: "black",
-	pFontSize: "16px", pClipPath: "none", pMask: "none", pStopColor: "black", pStopOpacity: "1",
-	pPointerEvents: "visiblePainted", pBackgroundColor: "transparent", pBackground: "",
+	pFontSize: "16px", pStopColor: "black", pStopOpacity: "1",
+	pBackgroundColor: "transparent", pBackground: "",
 }
 
 // computed is the computed style of one element: for each property its
