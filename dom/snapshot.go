@@ -1,16 +1,18 @@
 package dom
 
-// SnapshotVersion is the version of the Snapshot layout. A browser read pass
-// must send the same version; Walk rejects others.
-const SnapshotVersion = 1
+// SnapshotVersion is the version of the Snapshot layout and of its JSON
+// form (snapshotjson.go). A browser read pass must send the same version;
+// the decoder and Walk reject others. Version 2 made the JSON columnar.
+const SnapshotVersion = 2
 
 // Snapshot is one chart as rendered: the root <svg> element and its subtree,
 // flattened in document order, with each element's resolved paint and its
 // transform to page CSS pixels. It is what both ways in produce: the static
 // builder (Build) from markup and CSS, and the extension's read pass from
-// the live DOM. It is designed to cross the JavaScript–Go boundary as one
-// compact JSON document: short keys, numbers rather than strings, and no
-// per-element objects beyond the node itself.
+// the live DOM. It crosses the JavaScript–Go boundary as one compact,
+// columnar JSON document (MarshalJSON documents it): a flat array of
+// numbers for the nodes, and tables of the tags, paints and strings they
+// share.
 //
 // <use> elements are expanded (their referenced content appears as their
 // children), so a snapshot never refers to anything outside itself except
@@ -62,8 +64,9 @@ type Node struct {
 	// CTM is the matrix (a b c d e f) from local user units to page CSS px.
 	CTM [6]float64 `json:"m"`
 	// BBox, when the browser measured it, is the element's box in page CSS
-	// px (x y width height), as getBoundingClientRect gives it. Static
-	// snapshots have none: Walk computes the same box from the geometry.
+	// px (x y width height), as getBoundingClientRect gives it. The read
+	// pass measures text and paths only; for the other shapes, and in
+	// static snapshots, Walk computes the same box from the geometry.
 	BBox []float64 `json:"b,omitempty"`
 	// Fill and Stroke are the computed paints.
 	Fill   Paint `json:"f"`
@@ -74,7 +77,8 @@ type Node struct {
 	//
 	// Both ways in record a paint's properties only where the paint is
 	// drawn: without a fill, FillOpacity is 1; without a stroke,
-	// StrokeOpacity is 1 and StrokeWidth 0.
+	// StrokeOpacity is 1 and StrokeWidth 0. The read pass thereby saves a
+	// computed-style read per property it need not read.
 	FillOpacity   float64 `json:"fo"`
 	StrokeOpacity float64 `json:"so"`
 	Opacity       float64 `json:"o"`

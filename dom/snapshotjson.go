@@ -1,165 +1,145 @@
 package dom
 
 import (
-	"errors"
+	"encoding/json"
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
-	"unicode/utf16"
-	"unicode/utf8"
 )
 
-// UnmarshalJSON decodes a snapshot with a scanner written for its shape.
-// encoding/json's reflection is the slowest step of the extension's core
-// under WebAssembly (a 5,000-mark chart took longer to decode than to
-// analyse); this decoder reads the same JSON several times faster. A fuzz
-// test keeps it equal to encoding/json.
+// The JSON form of a Snapshot (SnapshotVersion 2) is columnar, so that the
+// read pass writes it with a few array pushes per element and the core
+// reads it without an object per element:
+//
+//	{"v": 2, "source": "…", "path": "svg0", "box": [x, y, w, h], "bg": rgba,
+//	 "sel": [node, …], "problems": ["…", …],
+//	 "tags": ["svg", "g", "circle", …],
+//	 "paints": [kind, rgba, count, stop…, kind, rgba, count, stop…, …],
+//	 "strs": ["…", …],
+//	 "nodes": [record, record, …]}
+//
+// "paints" is a table of Paint entries, each its kind, its colour, the
+// number of its stops and the stops. Each node is one record of numbers in
+// "nodes", eleven fixed fields and then the optional ones:
+//
+//	parent tag name has flags fill stroke fillOpacity strokeOpacity opacity strokeWidth …
+//
+// tag indexes "tags"; fill and stroke index the paint entries; flags are
+// Node.Flags. name derives Node.Name from the parent's: the root's is the
+// snapshot's Path; k ≥ 0 names the parent's k-th element child, parent +
+// "/" + tag + k; −1 content a <use> instantiates, parent + ">" + tag. has
+// says which optional fields follow, in this order:
+//
+//	 1  CTM: six numbers; without it the parent's CTM (the root's: identity)
+//	 2  Geom: a count, at most maxGeom, then the numbers
+//	 4  BBox: four numbers
+//	 8  D: an index into "strs"
+//	16  Text: an index into "strs"
+//	32  Label: an index into "strs"
+//	64  Name: an index into "strs", replacing the derived name
+//
+// JavaScript writes NaN and the infinities as null; they read as 0, as
+// encoding/json reads null into a number.
+const (
+	hasCTM = 1 << iota
+	hasGeom
+	hasBBox
+	hasD
+	hasText
+	hasLabel
+	hasName
+	hasAll = hasCTM | hasGeom | hasBBox | hasD | hasText | hasLabel | hasName
+)
+
+const (
+	// recordFixed is the number of fixed fields of a node record.
+	recordFixed = 11
+	// nameUse is the name field of content instantiated by <use>.
+	nameUse = -1
+	// maxGeom bounds a record's geometry count.
+	maxGeom = 16
+	// maxStops bounds the stops of one paint entry.
+	maxStops = 1 << 16
+)
+
+// snapshotWire is the JSON document as it stands, before its records are
+// interpreted. encoding/json decodes it by reflection (the fuzz test's
+// oracle); the scanner decodes it faster.
+type snapshotWire struct {
+	Version  float64   `json:"v"`
+	Source   string    `json:"source"`
+	Path     string    `json:"path"`
+	Box      []float64 `json:"box"`
+	Bg       float64   `json:"bg"`
+	Sel      []float64 `json:"sel"`
+	Problems []string  `json:"problems"`
+	Tags     []string  `json:"tags"`
+	Paints   []float64 `json:"paints"`
+	Strs     []string  `json:"strs"`
+	Nodes    []float64 `json:"nodes"`
+}
+
+var wireKeys = []string{"v", "source", "path", "box", "bg", "sel", "problems", "tags", "paints", "strs", "nodes"}
+
+// UnmarshalJSON decodes a snapshot's columnar JSON form.
 func (s *Snapshot) UnmarshalJSON(b []byte) error {
 	d := scanner{b: b}
-	var out Snapshot
-	if err := d.snapshot(&out); err != nil {
+	var w snapshotWire
+	if err := d.wire(&w); err != nil {
 		return err
 	}
 	if d.ws(); d.i != len(d.b) {
 		return d.errorf("trailing data")
 	}
+	out, err := w.snapshot()
+	if err != nil {
+		return err
+	}
 	*s = out
 	return nil
 }
 
-func (d *scanner) snapshot(s *Snapshot) error {
-	out := s
+// wire reads a snapshot document into w. A repeated key replaces what the
+// earlier one set, as encoding/json does.
+func (d *scanner) wire(w *snapshotWire) error {
 	return d.object(func(key string) error {
 		var err error
-		switch fold(key, snapshotKeys) {
+		switch fold(key, wireKeys) {
 		case "v":
-			var f float64
-			f, err = d.number()
-			out.Version = int(f)
+			w.Version, err = d.number()
 		case "source":
-			out.Source, err = d.stringOrNull()
+			w.Source, err = d.stringOrNull()
 		case "path":
-			out.Path, err = d.stringOrNull()
+			w.Path, err = d.stringOrNull()
 		case "box":
-			out.Box = [4]float64{}
-			err = d.fixed(out.Box[:])
+			w.Box, err = d.numbers(w.Box[:0])
 		case "bg":
-			out.Background, err = d.uint32()
-		case "nodes":
-			// Like encoding/json, a repeated key decodes into the elements
-			// already there. Reserve room for the nodes the rest of the
-			// input could hold at a typical 150 bytes each, up to 8,192,
-			// rather than doubling a slice of large structs from one.
-			if out.Nodes == nil {
-				out.Nodes = make([]Node, 0, min((len(d.b)-d.i)/150+1, 8192))
-			}
-			i := 0
-			err = d.array(func() error {
-				if i == len(out.Nodes) {
-					out.Nodes = append(out.Nodes, Node{})
-				}
-				err := d.node(&out.Nodes[i])
-				i++
-				return err
-			})
-			out.Nodes = out.Nodes[:i]
+			w.Bg, err = d.number()
 		case "sel":
-			out.Selected = out.Selected[:0]
-			err = d.array(func() error {
-				f, err := d.number()
-				out.Selected = append(out.Selected, int32(f))
-				return err
-			})
+			w.Sel, err = d.numbers(w.Sel[:0])
 		case "problems":
-			out.Problems = out.Problems[:0]
-			err = d.array(func() error {
-				s, err := d.stringOrNull()
-				out.Problems = append(out.Problems, s)
-				return err
-			})
+			w.Problems, err = d.strings(w.Problems[:0])
+		case "tags":
+			w.Tags, err = d.strings(w.Tags[:0])
+		case "paints":
+			w.Paints, err = d.numbers(w.Paints[:0])
+		case "strs":
+			w.Strs, err = d.strings(w.Strs[:0])
+		case "nodes":
+			if w.Nodes == nil {
+				// Room for the numbers the rest of the input could hold
+				// at about four bytes each, so that the array does not
+				// double its way up from one.
+				w.Nodes = make([]float64, 0, (len(d.b)-d.i)/4+1)
+			}
+			w.Nodes, err = d.numbers(w.Nodes[:0])
 		default:
 			err = d.skip()
 		}
 		return err
 	})
 }
-
-func (d *scanner) node(n *Node) error {
-	return d.object(func(key string) error {
-		var err error
-		var f float64
-		switch fold(key, nodeKeys) {
-		case "p":
-			f, err = d.number()
-			n.Parent = int32(f)
-		case "t":
-			n.Tag, err = d.stringOrNull()
-		case "n":
-			n.Name, err = d.stringOrNull()
-		case "g":
-			err = d.floats(&n.Geom)
-		case "d":
-			n.D, err = d.stringOrNull()
-		case "m":
-			n.CTM = [6]float64{}
-			err = d.fixed(n.CTM[:])
-		case "b":
-			err = d.floats(&n.BBox)
-		case "f":
-			err = d.paint(&n.Fill)
-		case "s":
-			err = d.paint(&n.Stroke)
-		case "fo":
-			n.FillOpacity, err = d.number()
-		case "so":
-			n.StrokeOpacity, err = d.number()
-		case "o":
-			n.Opacity, err = d.number()
-		case "sw":
-			n.StrokeWidth, err = d.number()
-		case "x":
-			f, err = d.number()
-			n.Flags = uint8(f)
-		case "tx":
-			n.Text, err = d.stringOrNull()
-		case "al":
-			n.Label, err = d.stringOrNull()
-		default:
-			err = d.skip()
-		}
-		return err
-	})
-}
-
-func (d *scanner) paint(p *Paint) error {
-	return d.object(func(key string) error {
-		var err error
-		switch fold(key, paintKeys) {
-		case "k":
-			var f float64
-			f, err = d.number()
-			p.Kind = uint8(f)
-		case "c":
-			p.RGBA, err = d.uint32()
-		case "st":
-			p.Stops = p.Stops[:0]
-			err = d.array(func() error {
-				v, err := d.uint32()
-				p.Stops = append(p.Stops, v)
-				return err
-			})
-		default:
-			err = d.skip()
-		}
-		return err
-	})
-}
-
-var (
-	snapshotKeys = []string{"v", "source", "path", "box", "bg", "nodes", "sel", "problems"}
-	nodeKeys     = []string{"p", "t", "n", "g", "d", "m", "b", "f", "s", "fo", "so", "o", "sw", "x", "tx", "al"}
-	paintKeys    = []string{"k", "c", "st"}
-)
 
 // fold maps a key to the field it names the way encoding/json does: an
 // exact match first, else the first case-insensitive one.
@@ -177,382 +157,463 @@ func fold(key string, known []string) string {
 	return key
 }
 
-// floats reads an array of numbers into *dst, replacing its contents.
-// The numbers go into one arena per scanner, so that the many small
-// arrays of a snapshot (geometry, boxes) do not each allocate.
-func (d *scanner) floats(dst *[]float64) error {
-	start := len(d.arena)
-	err := d.array(func() error {
-		f, err := d.number()
-		d.arena = append(d.arena, f)
-		return err
-	})
-	if n := len(d.arena); n > start {
-		*dst = d.arena[start:n:n]
-	} else {
-		*dst = (*dst)[:0]
-	}
-	return err
+// record reads the numbers of "nodes" one at a time.
+type record struct {
+	v    []float64
+	i    int
+	node int
 }
 
-// fixed reads an array of numbers into dst; extra elements are ignored.
-func (d *scanner) fixed(dst []float64) error {
-	i := 0
-	return d.array(func() error {
-		f, err := d.number()
-		if i < len(dst) {
-			dst[i] = f
-		}
-		i++
-		return err
-	})
+func (r *record) errorf(format string, a ...any) error {
+	return fmt.Errorf("dom: snapshot node %d: %s", r.node, fmt.Sprintf(format, a...))
 }
 
-// scanner reads JSON values from b. Numbers that JSON encodes as null
-// (NaN and infinities from JavaScript) read as 0, as encoding/json leaves
-// a float at its zero value for null.
-type scanner struct {
-	b     []byte
-	i     int
-	arena []float64
+func (r *record) num() (float64, error) {
+	if r.i >= len(r.v) {
+		return 0, r.errorf("the record is cut short")
+	}
+	r.i++
+	return r.v[r.i-1], nil
 }
 
-var errDepth = errors.New("dom: snapshot JSON nested too deeply")
-
-func (d *scanner) errorf(format string, a ...any) error {
-	return fmt.Errorf("dom: snapshot JSON at offset %d: %s", d.i, fmt.Sprintf(format, a...))
-}
-
-func (d *scanner) ws() {
-	for d.i < len(d.b) {
-		switch d.b[d.i] {
-		case ' ', '\t', '\n', '\r':
-			d.i++
-		default:
-			return
-		}
-	}
-}
-
-func (d *scanner) peek() byte {
-	d.ws()
-	if d.i < len(d.b) {
-		return d.b[d.i]
-	}
-	return 0
-}
-
-func (d *scanner) literal(word string) bool {
-	if len(d.b)-d.i >= len(word) && string(d.b[d.i:d.i+len(word)]) == word {
-		d.i += len(word)
-		return true
-	}
-	return false
-}
-
-// object calls f for each key; f must consume the value.
-func (d *scanner) object(f func(key string) error) error {
-	if d.peek() == 'n' && d.literal("null") {
-		return nil
-	}
-	if d.peek() != '{' {
-		return d.errorf("expected an object")
-	}
-	d.i++
-	if d.peek() == '}' {
-		d.i++
-		return nil
-	}
-	for {
-		if d.peek() != '"' {
-			return d.errorf("expected a key")
-		}
-		k, err := d.str()
-		if err != nil {
-			return err
-		}
-		if d.peek() != ':' {
-			return d.errorf("expected ':'")
-		}
-		d.i++
-		if err := f(k); err != nil {
-			return err
-		}
-		switch d.peek() {
-		case ',':
-			d.i++
-		case '}':
-			d.i++
-			return nil
-		default:
-			return d.errorf("expected ',' or '}'")
-		}
-	}
-}
-
-// array calls f for each element; f must consume it.
-func (d *scanner) array(f func() error) error {
-	if d.peek() == 'n' && d.literal("null") {
-		return nil
-	}
-	if d.peek() != '[' {
-		return d.errorf("expected an array")
-	}
-	d.i++
-	if d.peek() == ']' {
-		d.i++
-		return nil
-	}
-	for {
-		if err := f(); err != nil {
-			return err
-		}
-		switch d.peek() {
-		case ',':
-			d.i++
-		case ']':
-			d.i++
-			return nil
-		default:
-			return d.errorf("expected ',' or ']'")
-		}
-	}
-}
-
-func (d *scanner) number() (float64, error) {
-	c := d.peek()
-	if c == 'n' && d.literal("null") {
-		return 0, nil
-	}
-	start := d.i
-	if c == '-' {
-		d.i++
-	}
-	digits := 0
-	for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
-		d.i++
-		digits++
-	}
-	if digits == 0 {
-		return 0, d.errorf("expected a number")
-	}
-	if d.i < len(d.b) && d.b[d.i] == '.' {
-		d.i++
-		n := 0
-		for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
-			d.i++
-			n++
-		}
-		if n == 0 {
-			return 0, d.errorf("bad number")
-		}
-	}
-	if d.i < len(d.b) && (d.b[d.i] == 'e' || d.b[d.i] == 'E') {
-		d.i++
-		if d.i < len(d.b) && (d.b[d.i] == '+' || d.b[d.i] == '-') {
-			d.i++
-		}
-		n := 0
-		for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
-			d.i++
-			n++
-		}
-		if n == 0 {
-			return 0, d.errorf("bad number")
-		}
-	}
-	if f, ok := fastFloat(d.b[start:d.i]); ok {
-		return f, nil
-	}
-	f, err := strconv.ParseFloat(string(d.b[start:d.i]), 64)
-	if err != nil {
-		return 0, d.errorf("bad number: %v", err)
-	}
-	return f, nil
-}
-
-var pow10 = [...]float64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}
-
-// fastFloat parses a plain decimal ("-12.375", no exponent) of at most 15
-// significant digits exactly: the digits form an integer below 2^53 and the
-// divisor is an exact power of ten, so the one division rounds correctly
-// (the classic fast path of decimal-to-binary conversion). It reports
-// false for anything else, which strconv.ParseFloat then handles.
-func fastFloat(b []byte) (float64, bool) {
-	neg := false
-	if len(b) > 0 && b[0] == '-' {
-		neg, b = true, b[1:]
-	}
-	var m uint64
-	digits, frac := 0, -1
-	for i, c := range b {
-		switch {
-		case c >= '0' && c <= '9':
-			if digits > 0 || c != '0' {
-				digits++
-			}
-			m = m*10 + uint64(c-'0')
-			if frac >= 0 {
-				frac++
-			}
-		case c == '.' && frac < 0 && i > 0:
-			frac = 0
-		default:
-			return 0, false
-		}
-	}
-	if digits > 15 || frac > 22 || len(b) == 0 {
-		return 0, false
-	}
-	f := float64(m)
-	if frac > 0 {
-		f /= pow10[frac]
-	}
-	if neg {
-		f = -f
-	}
-	return f, true
-}
-
-func (d *scanner) uint32() (uint32, error) {
-	f, err := d.number()
+// int reads an integer within [lo, hi).
+func (r *record) int(what string, lo, hi int) (int, error) {
+	f, err := r.num()
 	if err != nil {
 		return 0, err
 	}
-	if f < 0 || f > 0xffffffff || f != float64(uint32(f)) {
-		return 0, d.errorf("%v is not a packed colour", f)
+	if f != math.Trunc(f) || f < float64(lo) || f >= float64(hi) {
+		return 0, r.errorf("%s %v is not an integer within [%d, %d)", what, f, lo, hi)
 	}
-	return uint32(f), nil
+	return int(f), nil
 }
 
-func (d *scanner) stringOrNull() (string, error) {
-	if d.peek() == 'n' && d.literal("null") {
-		return "", nil
+// str reads an index into strs.
+func (r *record) str(strs []string) (string, error) {
+	k, err := r.int("string", 0, len(strs))
+	if err != nil {
+		return "", err
 	}
-	if d.peek() != '"' {
-		return "", d.errorf("expected a string")
-	}
-	return d.str()
+	return strs[k], nil
 }
 
-// str reads a JSON string at d.i (which is at the opening quote).
-func (d *scanner) str() (string, error) {
-	d.i++
-	start := d.i
-	// Fast path: no escapes.
-	for d.i < len(d.b) {
-		c := d.b[d.i]
-		if c == '"' {
-			s := d.b[start:d.i]
-			d.i++
-			if !utf8.Valid(s) {
-				return string([]rune(string(s))), nil
+func packed(f float64) (uint32, bool) {
+	if f < 0 || f > 0xffffffff || f != math.Trunc(f) {
+		return 0, false
+	}
+	return uint32(f), true
+}
+
+// snapshot interprets the document: the tables and every record.
+func (w *snapshotWire) snapshot() (Snapshot, error) {
+	if w.Version != SnapshotVersion {
+		return Snapshot{}, fmt.Errorf("dom: snapshot version %v, want %d", w.Version, SnapshotVersion)
+	}
+	s := Snapshot{Version: SnapshotVersion, Source: w.Source, Path: w.Path, Problems: w.Problems}
+	switch len(w.Box) {
+	case 0:
+	case 4:
+		copy(s.Box[:], w.Box)
+	default:
+		return Snapshot{}, fmt.Errorf("dom: snapshot box has %d numbers, want 4", len(w.Box))
+	}
+	bg, ok := packed(w.Bg)
+	if !ok {
+		return Snapshot{}, fmt.Errorf("dom: snapshot background %v is not a packed colour", w.Bg)
+	}
+	s.Background = bg
+	paints, err := paintTable(w.Paints)
+	if err != nil {
+		return Snapshot{}, err
+	}
+	if err := w.nodes(&s, paints); err != nil {
+		return Snapshot{}, err
+	}
+	for _, f := range w.Sel {
+		if f != math.Trunc(f) || f < 0 || f >= float64(len(s.Nodes)) {
+			return Snapshot{}, fmt.Errorf("dom: snapshot selects node %v of %d", f, len(s.Nodes))
+		}
+		s.Selected = append(s.Selected, int32(f))
+	}
+	return s, nil
+}
+
+func paintTable(v []float64) ([]Paint, error) {
+	var out []Paint
+	for i := 0; i < len(v); {
+		if len(v)-i < 3 {
+			return nil, fmt.Errorf("dom: snapshot paint %d is cut short", len(out))
+		}
+		k, c, n := v[i], v[i+1], v[i+2]
+		rgba, ok := packed(c)
+		if !ok || (k != float64(PaintNone) && k != float64(PaintColour) && k != float64(PaintServer)) || n != math.Trunc(n) || n < 0 || n > maxStops || float64(len(v)-i-3) < n {
+			return nil, fmt.Errorf("dom: snapshot paint %d (%v, %v, %v) is not a paint", len(out), k, c, n)
+		}
+		p := Paint{Kind: uint8(k), RGBA: rgba}
+		i += 3
+		if n > 0 {
+			p.Stops = make([]uint32, int(n))
+			for j := range p.Stops {
+				if p.Stops[j], ok = packed(v[i+j]); !ok {
+					return nil, fmt.Errorf("dom: snapshot paint %d: stop %v is not a packed colour", len(out), v[i+j])
+				}
 			}
-			return string(s), nil
+			i += int(n)
 		}
-		if c == '\\' || c < 0x20 {
-			break
-		}
-		d.i++
+		out = append(out, p)
 	}
-	buf := append([]byte(nil), d.b[start:d.i]...)
-	for d.i < len(d.b) {
-		c := d.b[d.i]
+	return out, nil
+}
+
+// nodes interprets the records. The nodes' names are written into one
+// buffer and cut from one string, and their geometry shares one slab, so
+// decoding allocates per snapshot rather than per node.
+func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
+	v := w.Nodes
+	// A record has at least recordFixed numbers.
+	s.Nodes = make([]Node, 0, min(len(v)/recordFixed, MaxNodes))
+	var names []byte
+	nameAt := make([][2]int32, 0, cap(s.Nodes))
+	var slab []float64
+	type span struct{ node, at, n int32 }
+	var spans []span // geometry and boxes, cut from slab once it is complete
+	r := record{v: v}
+	for r.i < len(v) {
+		r.node = len(s.Nodes)
+		if r.node >= MaxNodes {
+			return fmt.Errorf("dom: snapshot %s has more than %d elements", s.Path, MaxNodes)
+		}
+		p, err := r.int("parent", -1, r.node)
+		if err != nil {
+			return err
+		}
+		tag, err := r.int("tag", 0, len(w.Tags))
+		if err != nil {
+			return err
+		}
+		nk, err := r.int("name", nameUse, math.MaxInt32)
+		if err != nil {
+			return err
+		}
+		has, err := r.int("has", 0, hasAll+1)
+		if err != nil {
+			return err
+		}
+		flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
+		if err != nil {
+			return err
+		}
+		fill, err := r.int("fill", 0, len(paints))
+		if err != nil {
+			return err
+		}
+		stroke, err := r.int("stroke", 0, len(paints))
+		if err != nil {
+			return err
+		}
+		nd := Node{Parent: int32(p), Tag: w.Tags[tag], Flags: uint8(flags), Fill: paints[fill], Stroke: paints[stroke]}
+		if len(v)-r.i < 4 {
+			return r.errorf("the record is cut short")
+		}
+		nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]
+		r.i += 4
 		switch {
-		case c == '"':
-			d.i++
-			if !utf8.Valid(buf) {
-				return string([]rune(string(buf))), nil
+		case has&hasCTM != 0:
+			for k := range nd.CTM {
+				if nd.CTM[k], err = r.num(); err != nil {
+					return err
+				}
 			}
-			return string(buf), nil
-		case c < 0x20:
-			return "", d.errorf("control character in string")
-		case c != '\\':
-			buf = append(buf, c)
-			d.i++
+		case p >= 0:
+			nd.CTM = s.Nodes[p].CTM
+		default:
+			nd.CTM = IdentityMatrix
+		}
+		if has&hasGeom != 0 {
+			n, err := r.int("geometry count", 0, maxGeom+1)
+			if err != nil {
+				return err
+			}
+			if len(v)-r.i < n {
+				return r.errorf("the record is cut short")
+			}
+			spans = append(spans, span{int32(r.node), int32(len(slab)), int32(n)})
+			slab = append(slab, v[r.i:r.i+n]...)
+			r.i += n
+		}
+		if has&hasBBox != 0 {
+			if len(v)-r.i < 4 {
+				return r.errorf("the record is cut short")
+			}
+			spans = append(spans, span{-int32(r.node) - 1, int32(len(slab)), 4})
+			slab = append(slab, v[r.i:r.i+4]...)
+			r.i += 4
+		}
+		if has&hasD != 0 {
+			if nd.D, err = r.str(w.Strs); err != nil {
+				return err
+			}
+		}
+		if has&hasText != 0 {
+			if nd.Text, err = r.str(w.Strs); err != nil {
+				return err
+			}
+		}
+		if has&hasLabel != 0 {
+			if nd.Label, err = r.str(w.Strs); err != nil {
+				return err
+			}
+		}
+		start := len(names)
+		switch {
+		case has&hasName != 0:
+			explicit, err := r.str(w.Strs)
+			if err != nil {
+				return err
+			}
+			names = append(names, explicit...)
+		case p < 0:
+			names = append(names, s.Path...)
+		default:
+			pn := nameAt[p]
+			names = append(names, names[pn[0]:pn[1]]...)
+			if nk == nameUse {
+				names = append(names, '>')
+				names = append(names, nd.Tag...)
+			} else {
+				names = append(names, '/')
+				names = append(names, nd.Tag...)
+				names = strconv.AppendInt(names, int64(nk), 10)
+			}
+		}
+		nameAt = append(nameAt, [2]int32{int32(start), int32(len(names))})
+		s.Nodes = append(s.Nodes, nd)
+	}
+	all := string(names)
+	for i := range s.Nodes {
+		s.Nodes[i].Name = all[nameAt[i][0]:nameAt[i][1]]
+	}
+	for _, sp := range spans {
+		vals := slab[sp.at : sp.at+sp.n : sp.at+sp.n]
+		if sp.node >= 0 {
+			s.Nodes[sp.node].Geom = vals
+		} else {
+			s.Nodes[-sp.node-1].BBox = vals
+		}
+	}
+	return nil
+}
+
+// MarshalJSON writes the snapshot's columnar JSON form. Names that follow
+// the derivation rules are not written out; others go to "strs".
+func (s Snapshot) MarshalJSON() ([]byte, error) {
+	var e wireEncoder
+	b := []byte(`{"v":`)
+	b = strconv.AppendInt(b, int64(s.Version), 10)
+	b = append(b, `,"source":`...)
+	b = appendJSONString(b, s.Source)
+	b = append(b, `,"path":`...)
+	b = appendJSONString(b, s.Path)
+	b = append(b, `,"box":`...)
+	b = appendFloats(b, s.Box[:])
+	b = append(b, `,"bg":`...)
+	b = strconv.AppendUint(b, uint64(s.Background), 10)
+	if len(s.Selected) > 0 {
+		b = append(b, `,"sel":[`...)
+		for i, v := range s.Selected {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			b = strconv.AppendInt(b, int64(v), 10)
+		}
+		b = append(b, ']')
+	}
+	if len(s.Problems) > 0 {
+		b = append(b, `,"problems":`...)
+		b = appendStrings(b, s.Problems)
+	}
+	nodes, err := e.records(&s)
+	if err != nil {
+		return nil, err
+	}
+	b = append(b, `,"tags":`...)
+	b = appendStrings(b, e.tags)
+	b = append(b, `,"paints":`...)
+	b = appendFloats(b, e.paints)
+	b = append(b, `,"strs":`...)
+	b = appendStrings(b, e.strs)
+	b = append(b, `,"nodes":`...)
+	b = appendFloats(b, nodes)
+	return append(b, '}'), nil
+}
+
+type paintKey struct {
+	kind  uint8
+	rgba  uint32
+	stops string
+}
+
+type wireEncoder struct {
+	tags   []string
+	tagIdx map[string]int
+	paints []float64
+	paintI map[paintKey]int
+	strs   []string
+}
+
+func (e *wireEncoder) tag(t string) float64 {
+	if e.tagIdx == nil {
+		e.tagIdx = map[string]int{}
+	}
+	i, ok := e.tagIdx[t]
+	if !ok {
+		i = len(e.tags)
+		e.tags = append(e.tags, t)
+		e.tagIdx[t] = i
+	}
+	return float64(i)
+}
+
+func (e *wireEncoder) paint(p Paint) float64 {
+	if e.paintI == nil {
+		e.paintI = map[paintKey]int{}
+	}
+	k := paintKey{p.Kind, p.RGBA, fmt.Sprint(p.Stops)}
+	i, ok := e.paintI[k]
+	if !ok {
+		i = len(e.paintI)
+		e.paintI[k] = i
+		e.paints = append(e.paints, float64(p.Kind), float64(p.RGBA), float64(len(p.Stops)))
+		for _, st := range p.Stops {
+			e.paints = append(e.paints, float64(st))
+		}
+	}
+	return float64(i)
+}
+
+func (e *wireEncoder) str(s string) float64 {
+	e.strs = append(e.strs, s)
+	return float64(len(e.strs) - 1)
+}
+
+// records writes every node's record.
+func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
+	var out []float64
+	for i := range s.Nodes {
+		nd := &s.Nodes[i]
+		p := int(nd.Parent)
+		if p >= i || p < -1 {
+			return nil, fmt.Errorf("dom: snapshot %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+		}
+		if len(nd.Geom) > maxGeom {
+			return nil, fmt.Errorf("dom: snapshot %s: node %d has %d geometry values, more than %d", s.Path, i, len(nd.Geom), maxGeom)
+		}
+		if len(nd.BBox) != 0 && len(nd.BBox) != 4 {
+			return nil, fmt.Errorf("dom: snapshot %s: node %d has a box of %d numbers", s.Path, i, len(nd.BBox))
+		}
+		nk, explicit := 0, false
+		switch {
+		case p < 0:
+			explicit = nd.Name != s.Path
+		default:
+			pn := s.Nodes[p].Name
+			rest, ok := strings.CutPrefix(nd.Name, pn)
+			switch {
+			case ok && rest == ">"+nd.Tag:
+				nk = nameUse
+			case ok && strings.HasPrefix(rest, "/"+nd.Tag):
+				k, err := strconv.Atoi(rest[1+len(nd.Tag):])
+				explicit = err != nil || k < 0 || strconv.Itoa(k) != rest[1+len(nd.Tag):]
+				nk = k
+			default:
+				explicit = true
+			}
+		}
+		has := 0
+		if (p >= 0 && nd.CTM != s.Nodes[p].CTM) || (p < 0 && Matrix(nd.CTM) != IdentityMatrix) {
+			has |= hasCTM
+		}
+		if len(nd.Geom) > 0 {
+			has |= hasGeom
+		}
+		if len(nd.BBox) == 4 {
+			has |= hasBBox
+		}
+		if nd.D != "" {
+			has |= hasD
+		}
+		if nd.Text != "" {
+			has |= hasText
+		}
+		if nd.Label != "" {
+			has |= hasLabel
+		}
+		if explicit {
+			has |= hasName
+			nk = 0
+		}
+		out = append(out, float64(p), e.tag(nd.Tag), float64(nk), float64(has), float64(nd.Flags),
+			e.paint(nd.Fill), e.paint(nd.Stroke), nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth)
+		if has&hasCTM != 0 {
+			out = append(out, nd.CTM[:]...)
+		}
+		if has&hasGeom != 0 {
+			out = append(out, float64(len(nd.Geom)))
+			out = append(out, nd.Geom...)
+		}
+		if has&hasBBox != 0 {
+			out = append(out, nd.BBox...)
+		}
+		if has&hasD != 0 {
+			out = append(out, e.str(nd.D))
+		}
+		if has&hasText != 0 {
+			out = append(out, e.str(nd.Text))
+		}
+		if has&hasLabel != 0 {
+			out = append(out, e.str(nd.Label))
+		}
+		if has&hasName != 0 {
+			out = append(out, e.str(nd.Name))
+		}
+	}
+	return out, nil
+}
+
+// appendFloats writes numbers as a JSON array; NaN and the infinities,
+// which JSON cannot hold, as null (as JavaScript writes them).
+func appendFloats(b []byte, v []float64) []byte {
+	b = append(b, '[')
+	for i, f := range v {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		if math.IsNaN(f) || math.IsInf(f, 0) {
+			b = append(b, "null"...)
 			continue
 		}
-		d.i++
-		if d.i >= len(d.b) {
-			break
-		}
-		e := d.b[d.i]
-		d.i++
-		switch e {
-		case '"', '\\', '/':
-			buf = append(buf, e)
-		case 'b':
-			buf = append(buf, '\b')
-		case 'f':
-			buf = append(buf, '\f')
-		case 'n':
-			buf = append(buf, '\n')
-		case 'r':
-			buf = append(buf, '\r')
-		case 't':
-			buf = append(buf, '\t')
-		case 'u':
-			r, ok := d.hex4()
-			if !ok {
-				return "", d.errorf("bad \\u escape")
-			}
-			if utf16.IsSurrogate(r) {
-				// A pair when the next escape completes it; alone it is
-				// replaced, as encoding/json does.
-				save := d.i
-				if d.i+1 < len(d.b) && d.b[d.i] == '\\' && d.b[d.i+1] == 'u' {
-					d.i += 2
-					if r2, ok := d.hex4(); ok {
-						if dec := utf16.DecodeRune(r, r2); dec != utf8.RuneError {
-							buf = utf8.AppendRune(buf, dec)
-							continue
-						}
-					}
-				}
-				d.i = save
-				r = utf8.RuneError
-			}
-			buf = utf8.AppendRune(buf, r)
-		default:
-			return "", d.errorf("bad escape")
-		}
+		b = strconv.AppendFloat(b, f, 'g', -1, 64)
 	}
-	return "", d.errorf("unterminated string")
+	return append(b, ']')
 }
 
-func (d *scanner) hex4() (rune, bool) {
-	if d.i+4 > len(d.b) {
-		return 0, false
+func appendStrings(b []byte, v []string) []byte {
+	b = append(b, '[')
+	for i, s := range v {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = appendJSONString(b, s)
 	}
-	v, err := strconv.ParseUint(string(d.b[d.i:d.i+4]), 16, 32)
+	return append(b, ']')
+}
+
+func appendJSONString(b []byte, s string) []byte {
+	q, err := json.Marshal(s)
 	if err != nil {
-		return 0, false
+		panic("dom: a string did not encode as JSON: " + err.Error())
 	}
-	d.i += 4
-	return rune(v), true
-}
-
-// skip consumes any value (for unknown keys), to a bounded depth.
-func (d *scanner) skip() error { return d.skipDepth(0) }
-
-func (d *scanner) skipDepth(depth int) error {
-	if depth > 64 {
-		return errDepth
-	}
-	switch c := d.peek(); {
-	case c == '{':
-		return d.object(func(string) error { return d.skipDepth(depth + 1) })
-	case c == '[':
-		return d.array(func() error { return d.skipDepth(depth + 1) })
-	case c == '"':
-		_, err := d.str()
-		return err
-	case c == 't' && d.literal("true"), c == 'f' && d.literal("false"), c == 'n' && d.literal("null"):
-		return nil
-	default:
-		_, err := d.number()
-		return err
-	}
+	return append(b, q...)
 }
 
 // PageJSON is what the browser's read pass returns for a page.
@@ -570,28 +631,30 @@ func DecodePage(b []byte) (*PageJSON, error) {
 	d := scanner{b: b}
 	var p PageJSON
 	err := d.object(func(key string) error {
+		var err error
 		switch key {
 		case "source":
-			s, err := d.stringOrNull()
-			p.Source = s
-			return err
+			p.Source, err = d.stringOrNull()
 		case "problems":
-			return d.array(func() error {
-				s, err := d.stringOrNull()
-				p.Problems = append(p.Problems, s)
-				return err
-			})
+			p.Problems, err = d.strings(p.Problems[:0])
 		case "snapshots":
-			return d.array(func() error {
-				var s Snapshot
-				if err := d.snapshot(&s); err != nil {
+			p.Snapshots = p.Snapshots[:0]
+			err = d.array(func() error {
+				var w snapshotWire
+				if err := d.wire(&w); err != nil {
 					return err
+				}
+				s, err := w.snapshot()
+				if err != nil {
+					return fmt.Errorf("snapshot %d: %w", len(p.Snapshots), err)
 				}
 				p.Snapshots = append(p.Snapshots, s)
 				return nil
 			})
+		default:
+			err = d.skip()
 		}
-		return d.skip()
+		return err
 	})
 	if err != nil {
 		return nil, err

@@ -12,22 +12,54 @@ import (
 	"github.com/stretchr/testify/require"
 )
 
-// plainSnapshot has Snapshot's fields without its UnmarshalJSON, so
-// encoding/json decodes it by reflection: the oracle for the fast decoder.
-type plainSnapshot Snapshot
-
-func canon(t testing.TB, s Snapshot) string {
-	if s.Nodes == nil {
-		s.Nodes = []Node{}
+// normalised makes empty and nil slices alike, which the JSON form does
+// not tell apart.
+func normalised(s Snapshot) Snapshot {
+	if len(s.Problems) == 0 {
+		s.Problems = nil
 	}
-	b, err := json.Marshal(s)
-	require.NoError(t, err)
-	return string(b)
+	if len(s.Selected) == 0 {
+		s.Selected = nil
+	}
+	nodes := make([]Node, len(s.Nodes))
+	for i, n := range s.Nodes {
+		if len(n.Geom) == 0 {
+			n.Geom = nil
+		}
+		if len(n.BBox) == 0 {
+			n.BBox = nil
+		}
+		for _, p := range []*Paint{&n.Fill, &n.Stroke} {
+			if len(p.Stops) == 0 {
+				p.Stops = nil
+			}
+		}
+		nodes[i] = n
+	}
+	s.Nodes = nodes
+	if len(s.Nodes) == 0 {
+		s.Nodes = nil
+	}
+	return s
 }
 
-func TestSnapshotJSONRoundTripCorpus(t *testing.T) {
-	// Every fixture's snapshots, encoded and decoded both ways, agree.
+// oracle decodes with encoding/json's reflection instead of the scanner,
+// then interprets the records the same way.
+func oracle(b []byte) (Snapshot, error) {
+	var w snapshotWire
+	if err := json.Unmarshal(b, &w); err != nil {
+		return Snapshot{}, err
+	}
+	return w.snapshot()
+}
+
+func TestSnapshotJSONRoundTripFixtures(t *testing.T) {
+	// Every fixture's snapshots survive encoding and decoding unchanged,
+	// and the scanner reads what encoding/json reads.
 	files, _ := filepath.Glob("../testdata/*.*")
+	corpus, _ := filepath.Glob("../../shared/corpus/*/*.svg")
+	files = append(files, corpus...)
+	require.NotEmpty(t, files)
 	for _, f := range files {
 		if strings.HasSuffix(f, ".golden") {
 			continue
@@ -38,52 +70,140 @@ func TestSnapshotJSONRoundTripCorpus(t *testing.T) {
 		require.NoError(t, err)
 		for _, s := range p.Charts {
 			b, err := json.Marshal(s)
-			require.NoError(t, err)
+			require.NoError(t, err, f)
 			var fast Snapshot
-			require.NoError(t, json.Unmarshal(b, &fast))
-			var slow plainSnapshot
-			require.NoError(t, json.Unmarshal(b, &slow))
-			assert.Equal(t, canon(t, Snapshot(slow)), canon(t, fast), f)
+			require.NoError(t, json.Unmarshal(b, &fast), f)
+			assert.Equal(t, normalised(s), normalised(fast), f)
+			slow, err := oracle(b)
+			require.NoError(t, err, f)
+			assert.Equal(t, normalised(slow), normalised(fast), f)
 		}
 	}
 }
 
-func TestSnapshotJSONEdgeCases(t *testing.T) {
-	in := `{"v":1,"path":"svg0","source":"a\"b\\u00e9\ud83d\ude00\ud800x","box":[1,2,3,4,5],"bg":4294967295,
-	"nodes":[{"p":-1,"t":"svg","n":"svg0","m":[1,0,0,1,null,0],"f":{"k":2,"c":255,"st":[1,2]},"s":{"k":0},"fo":1,"so":1,"o":1,"sw":1e0,"zz":{"a":[true,false,null]}}],
-	"sel":[0],"problems":["x"],"extra":1}`
-	var fast Snapshot
-	require.NoError(t, json.Unmarshal([]byte(in), &fast))
-	var slow plainSnapshot
-	require.NoError(t, json.Unmarshal([]byte(in), &slow))
-	// encoding/json fails on the fifth box element; the fast decoder
-	// ignores it. Everything else agrees.
-	slow.Box = fast.Box
-	assert.Equal(t, canon(t, Snapshot(slow)), canon(t, fast))
-	for _, bad := range []string{`{"v":"1"}`, `{"nodes":[{"f":{"c":-1}}]}`, `{"v":1`, `[1]`, `{"path":"\x01"}`} {
+// TestSnapshotJSONRecords decodes a document written by hand from the
+// format's documentation (snapshotjson.go): the names derived from the
+// parent, the CTM inherited when a record has none, the tables, and null
+// read as 0.
+func TestSnapshotJSONRecords(t *testing.T) {
+	in := `{"v":2,"source":"page","path":"frame0/svg1","box":[1,2,3,4],"bg":4294967295,"sel":[2],"problems":["a\u00e9"],
+	"tags":["svg","g","circle","path"],
+	"paints":[0,0,0, 1,4278190335,0, 2,255,2,16711935,65535],
+	"strs":["M0,0L1,1","a label","custom/name"],
+	"nodes":[
+	  -1,0,0,1,0, 0,0, 1,1,1,1, 2,0,0,2,10,20,
+	  0,1,3,0,0, 1,0, 0.5,1,1,1,
+	  1,2,-1,2,1, 2,1, 1,1,null,2, 3,5,6,7,
+	  1,3,7,44,0, 1,0, 1,1,1,1, 1,2,3,4, 0,1,
+	  0,2,0,80,2, 0,0, 1,1,1,1, 1,2
+	]}`
+	var s Snapshot
+	require.NoError(t, json.Unmarshal([]byte(in), &s))
+	assert.Equal(t, SnapshotVersion, s.Version)
+	assert.Equal(t, [4]float64{1, 2, 3, 4}, s.Box)
+	assert.Equal(t, uint32(0xffffffff), s.Background)
+	assert.Equal(t, []int32{2}, s.Selected)
+	assert.Equal(t, []string{"aé"}, s.Problems)
+	require.Len(t, s.Nodes, 5)
+	root, g, c, p, named := s.Nodes[0], s.Nodes[1], s.Nodes[2], s.Nodes[3], s.Nodes[4]
+	assert.Equal(t, "frame0/svg1", root.Name)
+	assert.Equal(t, [6]float64{2, 0, 0, 2, 10, 20}, root.CTM)
+	assert.Equal(t, "frame0/svg1/g3", g.Name)
+	assert.Equal(t, root.CTM, g.CTM, "no CTM in the record: the parent's")
+	assert.Equal(t, Paint{Kind: PaintColour, RGBA: 0xff0000ff}, g.Fill)
+	assert.Equal(t, 0.5, g.FillOpacity)
+	assert.Equal(t, "frame0/svg1/g3>circle", c.Name)
+	assert.Equal(t, Hidden, c.Flags)
+	assert.Equal(t, Paint{Kind: PaintServer, RGBA: 255, Stops: []uint32{0xff00ff, 0xffff}}, c.Fill)
+	assert.Equal(t, 0.0, c.Opacity, "null reads as 0")
+	assert.Equal(t, 2.0, c.StrokeWidth)
+	assert.Equal(t, []float64{5, 6, 7}, c.Geom)
+	assert.Equal(t, "frame0/svg1/g3/path7", p.Name)
+	assert.Equal(t, []float64{1, 2, 3, 4}, p.BBox)
+	assert.Equal(t, "M0,0L1,1", p.D)
+	assert.Equal(t, "a label", p.Label)
+	assert.Equal(t, "custom/name", named.Name)
+	assert.Equal(t, "a label", named.Text)
+
+	// What json.Marshal writes decodes to the same snapshot.
+	b, err := json.Marshal(s)
+	require.NoError(t, err)
+	var again Snapshot
+	require.NoError(t, json.Unmarshal(b, &again))
+	assert.Equal(t, normalised(s), normalised(again))
+}
+
+func TestSnapshotJSONErrors(t *testing.T) {
+	head := `{"v":2,"path":"svg0","tags":["svg"],"paints":[0,0,0],"strs":["x"],"nodes":`
+	for name, bad := range map[string]string{
+		"old version":         `{"v":1,"nodes":[]}`,
+		"no version":          `{"nodes":[]}`,
+		"string version":      `{"v":"2"}`,
+		"unclosed":            `{"v":2`,
+		"not an object":       `[1]`,
+		"control character":   `{"v":2,"path":"\x01"}`,
+		"leading zero":        `{"v":02}`,
+		"trailing data":       `{"v":2} x`,
+		"box of three":        `{"v":2,"box":[1,2,3]}`,
+		"bad background":      `{"v":2,"bg":-1}`,
+		"bad paint kind":      `{"v":2,"paints":[7,0,0]}`,
+		"paint cut short":     `{"v":2,"paints":[1,0,2,5]}`,
+		"short record":        head + `[-1,0,0,0,0,0,0,1,1,1]}`,
+		"parent after":        head + `[0,0,0,0,0,0,0,1,1,1,1]}`,
+		"tag out of range":    head + `[-1,1,0,0,0,0,0,1,1,1,1]}`,
+		"paint out of range":  head + `[-1,0,0,0,0,1,0,1,1,1,1]}`,
+		"fractional index":    head + `[-1,0.5,0,0,0,0,0,1,1,1,1]}`,
+		"unknown has bit":     head + `[-1,0,0,128,0,0,0,1,1,1,1]}`,
+		"unknown flag":        head + `[-1,0,0,0,4,0,0,1,1,1,1]}`,
+		"string out of range": head + `[-1,0,0,8,0,0,0,1,1,1,1,1]}`,
+		"geometry too long":   head + `[-1,0,0,2,0,0,0,1,1,1,1,17]}`,
+		"geometry cut short":  head + `[-1,0,0,2,0,0,0,1,1,1,1,3,1]}`,
+		"selects nothing":     `{"v":2,"sel":[0]}`,
+	} {
 		var s Snapshot
-		assert.Error(t, json.Unmarshal([]byte(bad), &s), bad)
+		assert.Error(t, json.Unmarshal([]byte(bad), &s), name)
+		_, err := oracle([]byte(bad))
+		assert.Error(t, err, "%s: the oracle", name)
 	}
+}
+
+func TestDecodePage(t *testing.T) {
+	in := `{"source":"http://x/","readMs":3.5,"problems":["frame0: not readable"],"snapshots":[
+	{"v":2,"path":"svg0","tags":["svg","rect"],"paints":[0,0,0,1,255,0],"strs":[],
+	 "nodes":[-1,0,0,0,0,0,0,1,1,1,1, 0,1,0,2,0,1,0,1,1,1,1,6,0,0,10,20,-1,-1]}]}`
+	p, err := DecodePage([]byte(in))
+	require.NoError(t, err)
+	assert.Equal(t, "http://x/", p.Source)
+	assert.Equal(t, []string{"frame0: not readable"}, p.Problems)
+	require.Len(t, p.Snapshots, 1)
+	require.Len(t, p.Snapshots[0].Nodes, 2)
+	assert.Equal(t, "svg0/rect0", p.Snapshots[0].Nodes[1].Name)
+	assert.Equal(t, []float64{0, 0, 10, 20, -1, -1}, p.Snapshots[0].Nodes[1].Geom)
+	_, err = DecodePage([]byte(`{"snapshots":[{"v":1}]}`))
+	assert.ErrorContains(t, err, "snapshot 0")
 }
 
 func FuzzSnapshotJSON(f *testing.F) {
-	f.Add([]byte(`{"v":1,"path":"svg0","box":[0,0,10,10],"bg":4294967295,"nodes":[{"p":-1,"t":"svg","n":"svg0","m":[1,0,0,1,0,0],"f":{"k":1,"c":255},"s":{"k":0},"fo":1,"so":1,"o":1,"sw":1,"tx":"h\u00e9","g":[1,2,3]}]}`))
-	f.Add([]byte(`{"nodes":[],"problems":["a\\b"],"sel":[1,2]}`))
-	f.Add([]byte(`{"nodes":[{"g":[1,2],"g":[3]}],"box":[1,2,3,4],"box":[5],"nodes":[{"m":[1,2,3,4,5,6],"m":[7]}]}`))
+	f.Add([]byte(`{"v":2,"path":"svg0","box":[0,0,10,10],"bg":4294967295,"tags":["svg","circle"],"paints":[0,0,0,1,255,0],"strs":["h\u00e9"],"nodes":[-1,0,0,0,0,0,0,1,1,1,1,0,1,0,18,0,1,0,1,1,1,1,3,1,2,3,0]}`))
+	f.Add([]byte(`{"v":2,"nodes":[],"problems":["a\\b"],"sel":[]}`))
+	f.Add([]byte(`{"v":2,"tags":["g"],"tags":["svg"],"nodes":[-1,0,0,65,0,0,0,1,1,1,1,1,2,3,4,5,6,0],"strs":["n"],"paints":[0,0,0],"V":2}`))
 	f.Fuzz(func(t *testing.T, b []byte) {
-		var slow plainSnapshot
-		if json.Unmarshal(b, &slow) != nil {
-			var fast Snapshot
-			_ = json.Unmarshal(b, &fast) // must not panic
+		slow, serr := oracle(b)
+		var fast Snapshot
+		ferr := json.Unmarshal(b, &fast)
+		if (serr == nil) != (ferr == nil) {
+			t.Fatalf("on %q: encoding/json says %v, the scanner %v", b, serr, ferr)
+		}
+		if ferr != nil {
 			return
 		}
-		var fast Snapshot
-		if err := json.Unmarshal(b, &fast); err != nil {
-			t.Fatalf("encoding/json accepts %q but the fast decoder says %v", b, err)
-		}
-		if a, c := canon(t, Snapshot(slow)), canon(t, fast); a != c {
-			t.Fatalf("decoders disagree on %q:\n%s\n%s", b, a, c)
-		}
+		require.Equal(t, normalised(slow), normalised(fast), "decoders disagree on %q", b)
+		// What decodes, encodes and decodes again to the same snapshot.
+		again, err := json.Marshal(fast)
+		require.NoError(t, err)
+		var back Snapshot
+		require.NoError(t, json.Unmarshal(again, &back), "%s", again)
+		require.Equal(t, normalised(fast), normalised(back))
 	})
 }
 

@@ -8,7 +8,7 @@
 (() => {
   if (globalThis.standoutReader) return;
 
-  const SNAPSHOT_VERSION = 1;
+  const SNAPSHOT_VERSION = 2;
   // Elements whose content is never rendered directly (dom/build.go).
   const NOT_RENDERED = new Set([
     'defs', 'clippath', 'mask', 'marker', 'pattern', 'symbol', 'lineargradient',
@@ -97,23 +97,10 @@
     return st[st.length - 1][1];
   }
 
-  // Computed fill or stroke to a Paint: {k: 0 none | 1 colour | 2 server}.
-  // Colours repeat across marks, so plain colours are cached by string.
-  const paintCache = new Map();
-  function paint(v, root) {
-    if (v && !v.startsWith('url(')) {
-      let p = paintCache.get(v);
-      if (!p) {
-        p = paintUncached(v, root);
-        paintCache.set(v, p);
-      }
-      return p;
-    }
-    return paintUncached(v, root);
-  }
-
-  function paintUncached(v, root) {
-    if (!v || v === 'none') return { k: 0 };
+  // Computed fill or stroke to a Paint: {k: 0 none | 1 colour | 2 server,
+  // c: colour, st: stops}.
+  function paintOf(v, root) {
+    if (!v || v === 'none') return null;
     if (v.startsWith('url(')) {
       const m = /^url\(\s*["']?#([^"')]+)["']?\s*\)\s*(.*)$/.exec(v);
       const el = m && findById(root, m[1]);
@@ -121,7 +108,7 @@
         const n = el.localName.toLowerCase();
         if (n === 'lineargradient' || n === 'radialgradient') {
           const st = stops(el, root, 0);
-          if (st.length === 0) return { k: 0 };
+          if (st.length === 0) return null;
           return { k: 2, c: stopAt(st, 0.5), st: st.map((s) => s[1]) };
         }
         if (n === 'pattern') {
@@ -139,16 +126,16 @@
             const area = isFinite(w * h) ? w * h : 1;
             if (area > bestArea) { best = col; bestArea = area; }
           }
-          if (list.length === 0) return { k: 0 };
+          if (list.length === 0) return null;
           return { k: 2, c: best, st: list };
         }
       }
-      if (m && m[2]) return paint(m[2], root);
-      return { k: 0 };
+      if (m && m[2]) return paintOf(m[2], root);
+      return null;
     }
     const c = packColour(v);
-    if (c === null) return { k: 0 };
-    return { k: 1, c };
+    if (c === null) return null;
+    return { k: 1, c, st: [] };
   }
 
   function num(v) {
@@ -156,24 +143,29 @@
     return isFinite(x) ? x : 1;
   }
 
-  // The numeric geometry attributes, as the static builder reads them.
-  function geometry(el, tag) {
+  function clamp01(v) {
+    return Math.max(0, Math.min(1, v));
+  }
+
+  // Pushes the numeric geometry attributes, as the static builder reads
+  // them, onto out (count first); false when the tag has none.
+  function geometry(el, tag, out) {
     const keys = GEOM[tag];
-    if (!keys) return undefined;
-    const g = [];
+    if (!keys) return false;
+    out.push(keys.length + (tag === 'text' ? 1 : 0));
     for (const k of keys) {
       const a = el.getAttribute(k);
       if (a === null || a === '') {
-        g.push((tag === 'rect' || tag === 'image') && (k === 'rx' || k === 'ry') ? -1 : 0);
+        out.push((tag === 'rect' || tag === 'image') && (k === 'rx' || k === 'ry') ? -1 : 0);
         continue;
       }
-      let v = null;
       // Plain numbers (the usual case) parse directly; lengths with units
       // go through the SVG DOM.
       if (PLAIN_NUMBER.test(a)) {
-        g.push(+a);
+        out.push(+a);
         continue;
       }
+      let v = null;
       const p = el[k];
       if (p && p.baseVal !== undefined) {
         const bv = p.baseVal;
@@ -181,10 +173,10 @@
         else if (bv && bv.numberOfItems > 0) v = bv.getItem(0).value;
       }
       if (v === null) v = parseFloat(a);
-      g.push(isFinite(v) ? v : 0);
+      out.push(isFinite(v) ? v : 0);
     }
-    if (tag === 'text') g.push(parseFloat(getComputedStyle(el).fontSize) || 16);
-    return g;
+    if (tag === 'text') out.push(parseFloat(getComputedStyle(el).fontSize) || 16);
+    return true;
   }
 
   function matrixOf(m) {
@@ -197,6 +189,10 @@
       p[0] * q[2] + p[2] * q[3], p[1] * q[2] + p[3] * q[3],
       p[0] * q[4] + p[2] * q[5] + p[4], p[1] * q[4] + p[3] * q[5] + p[5],
     ];
+  }
+
+  function sameMatrix(p, q) {
+    return p[0] === q[0] && p[1] === q[1] && p[2] === q[2] && p[3] === q[3] && p[4] === q[4] && p[5] === q[5];
   }
 
   // viewBoxMatrix maps a viewBox to a w×h viewport (SVG 1.1 §7.8), the
@@ -223,24 +219,89 @@
     return t ? matrixOf(t.matrix) : [1, 0, 0, 1, 0, 0];
   }
 
-  // Reads one outermost <svg> into a snapshot. off maps the client
-  // coordinates of the element's own window to page coordinates of the top
-  // document, in CSS px (the scroll offset, plus the frame's position for
-  // charts inside frames).
+  const IDENTITY = [1, 0, 0, 1, 0, 0];
+  // The optional fields of a node record (dom/snapshotjson.go).
+  const HAS_CTM = 1;
+  const HAS_GEOM = 2;
+  const HAS_BBOX = 4;
+  const HAS_D = 8;
+  const HAS_TEXT = 16;
+  const HAS_LABEL = 32;
+  const HAS_NAME = 64;
+  // Where each fixed field sits in a record.
+  const R_FILL = 5;
+  const R_STROKE = 6;
+  const R_FO = 7;
+  const R_SO = 8;
+  const R_SW = 10;
+  const R_FIXED = 11;
+
+  // Reads one outermost <svg> into a snapshot in its columnar JSON form
+  // (dom/snapshotjson.go). off maps the client coordinates of the
+  // element's own window to page coordinates of the top document, in CSS
+  // px (the scroll offset, plus the frame's position for charts inside
+  // frames).
+  //
+  // The browser reads each computed property and geometry call at a cost
+  // (about half a microsecond each), so the pass reads only what the walk
+  // uses: no fill-opacity without a fill, no stroke-opacity or
+  // stroke-width without a stroke, and a bounding box only for text and
+  // paths, whose extent only the browser knows (the walk computes the
+  // other shapes' boxes from their geometry, as the browser does).
   function readChart(svg, path, root, off, emphasis) {
     const sx = off[0];
     const sy = off[1];
     const box = svg.getBoundingClientRect();
-    const snap = {
-      v: SNAPSHOT_VERSION,
-      source: svg.ownerDocument.location.href,
-      path,
-      box: [box.left + sx, box.top + sy, box.width, box.height],
-      bg: background(svg),
-      nodes: [],
-      problems: [],
+    const tags = [];
+    const tagIndex = new Map();
+    const paints = [0, 0, 0]; // entry 0: none
+    let nPaints = 1;
+    const paintIndex = new Map();
+    const strs = [];
+    const nodes = [];
+    const sel = [];
+    const problems = [];
+    // Per node: where its record starts, its CTM, and what its name is
+    // made of (for the problems that name it).
+    const start = [];
+    const ctms = [];
+    const nameParts = [];
+
+    const tagOf = (t) => {
+      let i = tagIndex.get(t);
+      if (i === undefined) {
+        i = tags.length;
+        tags.push(t);
+        tagIndex.set(t, i);
+      }
+      return i;
     };
-    const add = (el, parent, name, ctmOverride, useDepth) => {
+    const paint = (v) => {
+      let i = paintIndex.get(v);
+      if (i === undefined) {
+        const p = paintOf(v, root);
+        if (!p) {
+          i = 0;
+        } else {
+          i = nPaints++;
+          paints.push(p.k, p.c, p.st.length);
+          for (const c of p.st) paints.push(c);
+        }
+        paintIndex.set(v, i);
+      }
+      return i;
+    };
+    const nameOf = (i) => {
+      const [parent, link, explicit] = nameParts[i];
+      if (explicit !== undefined) return explicit;
+      if (parent < 0) return path;
+      return nameOf(parent) + link;
+    };
+
+    // add appends el's record and reads its subtree. k is its index among
+    // its parent's element children, or -1 for content a <use>
+    // instantiates; explicitName overrides the derived name.
+    const add = (el, parent, k, ctmOverride, useDepth, explicitName) => {
       const tag = el.localName.toLowerCase();
       const cs = getComputedStyle(el);
       let m;
@@ -251,132 +312,163 @@
         // Page coordinates: the screen CTM plus the scroll (and frame) offset.
         m = sc ? [sc.a, sc.b, sc.c, sc.d, sc.e + sx, sc.f + sy] : [1, 0, 0, 1, sx, sy];
       }
-      const node = {
-        p: parent,
-        t: tag,
-        n: name,
-        m,
-        f: paint(cs.fill, root),
-        s: paint(cs.stroke, root),
-        fo: Math.max(0, Math.min(1, num(cs.fillOpacity))),
-        so: Math.max(0, Math.min(1, num(cs.strokeOpacity))),
-        o: Math.max(0, Math.min(1, num(cs.opacity))),
-        sw: Math.max(0, parseFloat(cs.strokeWidth) || 0),
-      };
-      if (ctmOverride && parent >= 0) {
-        // Content instantiated by <use> inherits from the <use>, not from
-        // where it is defined. Where the element's value merely repeats its
-        // defining parent's (it was inherited there), take the value the
-        // instance inherits instead.
-        const dp = el.parentElement ? getComputedStyle(el.parentElement) : null;
-        const up = snap.nodes[parent];
-        if (dp) {
-          if (cs.fill === dp.fill) node.f = up.f;
-          if (cs.stroke === dp.stroke) node.s = up.s;
-          if (cs.fillOpacity === dp.fillOpacity) node.fo = up.fo;
-          if (cs.strokeOpacity === dp.strokeOpacity) node.so = up.so;
-          if (cs.strokeWidth === dp.strokeWidth) node.sw = up.sw;
-        }
+      const idx = start.length;
+      const at = nodes.length;
+      start.push(at);
+      ctms.push(m);
+      nameParts.push([parent, k < 0 ? '>' + tag : '/' + tag + k, explicitName]);
+      let fi = paint(cs.fill);
+      let si = paint(cs.stroke);
+      // Content instantiated by <use> inherits from the <use>, not from
+      // where it is defined: where the element's value merely repeats its
+      // defining parent's (it was inherited there), take the value the
+      // instance inherits instead.
+      const inUse = ctmOverride && parent >= 0;
+      const dp = inUse && el.parentElement ? getComputedStyle(el.parentElement) : null;
+      const up = inUse ? start[parent] : -1;
+      let fo = 1;
+      let so = 1;
+      let sw = 0;
+      if (fi || inUse) fo = clamp01(num(cs.fillOpacity));
+      if (si || inUse) {
+        so = clamp01(num(cs.strokeOpacity));
+        sw = Math.max(0, parseFloat(cs.strokeWidth) || 0);
       }
-      const g = geometry(el, tag);
-      if (g) node.g = g;
-      if (tag === 'path') node.d = el.getAttribute('d') || '';
-      if (tag === 'polyline' || tag === 'polygon') node.d = el.getAttribute('points') || '';
+      if (dp) {
+        if (cs.fill === dp.fill) fi = nodes[up + R_FILL];
+        if (cs.stroke === dp.stroke) si = nodes[up + R_STROKE];
+        if (cs.fillOpacity === dp.fillOpacity) fo = nodes[up + R_FO];
+        if (cs.strokeOpacity === dp.strokeOpacity) so = nodes[up + R_SO];
+        if (cs.strokeWidth === dp.strokeWidth) sw = nodes[up + R_SW];
+      }
       let x = 0;
       if (cs.display === 'none') x |= 1;
-      if (cs.visibility === 'hidden' || cs.visibility === 'collapse') x |= 2;
-      if ((cs.clipPath && cs.clipPath !== 'none') || (cs.mask && cs.mask !== 'none' && cs.mask !== '')) x |= 4;
-      if (cs.pointerEvents === 'none') x |= 8;
-      if (x) node.x = x;
-      if (tag === 'text' || tag === 'title' || tag === 'desc') {
+      const vis = cs.visibility;
+      if (vis === 'hidden' || vis === 'collapse') x |= 2;
+      nodes.push(parent, tagOf(tag), k < 0 ? -1 : k, 0, x, fi, si, fo, so, clamp01(num(cs.opacity)), sw);
+      let has = 0;
+      if (!sameMatrix(m, parent >= 0 ? ctms[parent] : IDENTITY)) {
+        has |= HAS_CTM;
+        nodes.push(m[0], m[1], m[2], m[3], m[4], m[5]);
+      }
+      if (geometry(el, tag, nodes)) has |= HAS_GEOM;
+      if ((tag === 'text' || tag === 'path') && !ctmOverride && !(x & 1)) {
+        const r = el.getBoundingClientRect();
+        has |= HAS_BBOX;
+        nodes.push(r.left + sx, r.top + sy, r.width, r.height);
+      }
+      if (tag === 'path' || tag === 'polyline' || tag === 'polygon') {
+        const d = el.getAttribute(tag === 'path' ? 'd' : 'points');
+        if (d) {
+          has |= HAS_D;
+          nodes.push(strs.length);
+          strs.push(d);
+        }
+      }
+      const isText = tag === 'text' || tag === 'title' || tag === 'desc';
+      if (isText) {
         const t = (el.textContent || '').trim();
-        if (t) node.tx = t;
+        if (t) {
+          has |= HAS_TEXT;
+          nodes.push(strs.length);
+          strs.push(t);
+        }
       }
       const al = el.getAttribute('aria-label');
-      if (al) node.al = al;
-      if (SHAPES.has(tag) && !ctmOverride && !(x & 1)) {
-        const r = el.getBoundingClientRect();
-        node.b = [r.left + sx, r.top + sy, r.width, r.height];
+      if (al) {
+        has |= HAS_LABEL;
+        nodes.push(strs.length);
+        strs.push(al);
       }
-      const idx = snap.nodes.length;
-      snap.nodes.push(node);
-      if (el.hasAttribute('data-standout-emphasis') || (emphasis && el.matches(emphasis))) {
-        (snap.sel = snap.sel || []).push(idx);
+      if (explicitName !== undefined) {
+        has |= HAS_NAME;
+        nodes.push(strs.length);
+        strs.push(explicitName);
       }
-      if (tag === 'text' || tag === 'title' || tag === 'desc' || NOT_RENDERED.has(tag)) return;
+      nodes[at + 3] = has;
+      if (el.hasAttribute('data-standout-emphasis') || (emphasis && el.matches(emphasis))) sel.push(idx);
+      if (isText || NOT_RENDERED.has(tag)) return;
       if (tag === 'use') {
-        expandUse(el, idx, name, m, useDepth);
+        expandUse(el, idx, m, useDepth);
         return;
       }
-      let k = 0;
+      let ck = 0;
       for (const c of el.children) {
-        const cname = name + '/' + c.localName.toLowerCase() + k;
-        k++;
+        const i = ck++;
         if (c.namespaceURI !== SVG_NS) continue;
-        add(c, idx, cname, ctmOverride ? mul(m, [1, 0, 0, 1, 0, 0]) : null, useDepth);
+        add(c, idx, i, ctmOverride ? m : null, useDepth);
       }
     };
-    const expandUse = (el, idx, name, m, depth) => {
+    const expandUse = (el, idx, m, depth) => {
       const h = el.getAttribute('href') || el.getAttributeNS('http://www.w3.org/1999/xlink', 'href');
       if (!h || !h.startsWith('#')) return;
       const target = findById(root, h.slice(1));
       if (!target) {
-        snap.problems.push(`${name}: <use> refers to missing #${h.slice(1, 61)}`);
+        problems.push(`${nameOf(idx)}: <use> refers to missing #${h.slice(1, 61)}`);
         return;
       }
       if (depth >= 16 || target.contains(el)) {
-        snap.problems.push(`${name}: <use> of #${h.slice(1, 61)} is a reference cycle; not expanded`);
+        problems.push(`${nameOf(idx)}: <use> of #${h.slice(1, 61)} is a reference cycle; not expanded`);
         return;
       }
       const ux = el.x ? el.x.baseVal.value : 0;
       const uy = el.y ? el.y.baseVal.value : 0;
       const base = mul(m, [1, 0, 0, 1, ux, uy]);
-      const tname = name + '>' + target.localName.toLowerCase();
-      let inner = base;
-      if (target.localName === 'symbol') {
-        // As the static builder does (dom/build.go): a symbol is a nested
-        // viewport sized by the use's width and height (else its own, else
-        // 100), mapped from its viewBox.
-        const size = (k) => {
-          for (const e of [el, target]) {
-            const v = parseFloat(e.getAttribute(k));
-            if (e.getAttribute(k) !== null && isFinite(v)) return v;
-          }
-          return 100;
-        };
-        const vb = (target.getAttribute('viewBox') || '').trim().split(/[\s,]+/).map(Number);
-        if (vb.length === 4 && vb.every(isFinite) && vb[2] > 0 && vb[3] > 0) {
-          inner = mul(base, viewBoxMatrix(vb, size('width'), size('height'), target.getAttribute('preserveAspectRatio') || ''));
-        }
-      }
-      addClone(target, idx, tname, inner, depth + 1);
-    };
-    // Content instantiated by <use>: positions come from the use's matrix
-    // and the content's own transforms, paints from computed style.
-    const addClone = (el, parent, name, base, depth) => {
-      const tag = el.localName.toLowerCase();
-      if (tag === 'symbol') {
-        const cs = getComputedStyle(el);
-        const dp = el.parentElement ? getComputedStyle(el.parentElement) : null;
-        const up = snap.nodes[parent];
-        const gi = snap.nodes.length;
-        snap.nodes.push({
-          p: parent, t: 'g', n: name, m: base,
-          f: dp && cs.fill === dp.fill ? up.f : paint(cs.fill, root),
-          s: dp && cs.stroke === dp.stroke ? up.s : paint(cs.stroke, root),
-          fo: 1, so: 1, o: num(cs.opacity), sw: 1,
-        });
-        let k = 0;
-        for (const c of el.children) {
-          const cname = name + '/' + c.localName.toLowerCase() + k;
-          k++;
-          if (c.namespaceURI === SVG_NS) add(c, gi, cname, base, depth);
-        }
+      if (target.localName !== 'symbol') {
+        add(target, idx, -1, base, depth + 1);
         return;
       }
-      add(el, parent, name, base, depth);
+      // As the static builder does (dom/build.go): a symbol is a nested
+      // viewport sized by the use's width and height (else its own, else
+      // 100), mapped from its viewBox, and renders like a <g> holding its
+      // children.
+      const size = (k) => {
+        for (const e of [el, target]) {
+          const v = parseFloat(e.getAttribute(k));
+          if (e.getAttribute(k) !== null && isFinite(v)) return v;
+        }
+        return 100;
+      };
+      let inner = base;
+      const vb = (target.getAttribute('viewBox') || '').trim().split(/[\s,]+/).map(Number);
+      if (vb.length === 4 && vb.every(isFinite) && vb[2] > 0 && vb[3] > 0) {
+        inner = mul(base, viewBoxMatrix(vb, size('width'), size('height'), target.getAttribute('preserveAspectRatio') || ''));
+      }
+      const cs = getComputedStyle(target);
+      const dp = target.parentElement ? getComputedStyle(target.parentElement) : null;
+      const up = start[idx];
+      const gi = start.length;
+      const at = nodes.length;
+      start.push(at);
+      ctms.push(inner);
+      nameParts.push([idx, '>symbol', undefined]);
+      const fi = dp && cs.fill === dp.fill ? nodes[up + R_FILL] : paint(cs.fill);
+      const si = dp && cs.stroke === dp.stroke ? nodes[up + R_STROKE] : paint(cs.stroke);
+      nodes.push(idx, tagOf('g'), -1, HAS_CTM | HAS_NAME, 0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1);
+      nodes.push(inner[0], inner[1], inner[2], inner[3], inner[4], inner[5]);
+      nodes.push(strs.length);
+      strs.push(nameOf(idx) + '>symbol');
+      let ck = 0;
+      for (const c of target.children) {
+        const i = ck++;
+        if (c.namespaceURI === SVG_NS) add(c, gi, i, inner, depth + 1);
+      }
     };
-    add(svg, -1, path, null, 0);
+    add(svg, -1, 0, null, 0);
+    void R_FIXED;
+    const snap = {
+      v: SNAPSHOT_VERSION,
+      source: svg.ownerDocument.location.href,
+      path,
+      box: [box.left + sx, box.top + sy, box.width, box.height],
+      bg: background(svg),
+      problems,
+      tags,
+      paints,
+      strs,
+      nodes,
+    };
+    if (sel.length) snap.sel = sel;
     return snap;
   }
 

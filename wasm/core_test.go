@@ -35,7 +35,7 @@ func TestHandleStaticSnapshot(t *testing.T) {
 func TestHandleErrors(t *testing.T) {
 	for _, in := range []string{`{`, `{"type":"nope"}`, `{"type":"analyse","severity":3}`,
 		`{"type":"analyse","snapshots":[{"v":99,"nodes":[]}]}`,
-		`{"type":"analyse","snapshots":[{"v":1,"nodes":[{"p":5,"t":"svg"}]}]}`} {
+		`{"type":"analyse","snapshots":[{"v":2,"tags":["svg"],"paints":[0,0,0],"nodes":[5,0,0,0,0,0,0,1,1,1,1]}]}`} {
 		var resp Response
 		require.NoError(t, json.Unmarshal(Handle([]byte(in)), &resp), in)
 		assert.False(t, resp.OK, in)

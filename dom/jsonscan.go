@@ -1,0 +1,392 @@
+package dom
+
+import (
+	"errors"
+	"fmt"
+	"strconv"
+	"unicode/utf16"
+	"unicode/utf8"
+)
+
+// scanner reads JSON values from b, for the snapshot decoder: a
+// purpose-written reader, because encoding/json's reflection was the
+// slowest step of the extension's core under WebAssembly. Numbers that
+// JSON encodes as null (NaN and infinities from JavaScript) read as 0, as
+// encoding/json leaves a float at its zero value for null. A fuzz test
+// keeps it equal to encoding/json.
+type scanner struct {
+	b []byte
+	i int
+}
+
+var errDepth = errors.New("dom: snapshot JSON nested too deeply")
+
+func (d *scanner) errorf(format string, a ...any) error {
+	return fmt.Errorf("dom: snapshot JSON at offset %d: %s", d.i, fmt.Sprintf(format, a...))
+}
+
+func (d *scanner) ws() {
+	for d.i < len(d.b) {
+		switch d.b[d.i] {
+		case ' ', '\t', '\n', '\r':
+			d.i++
+		default:
+			return
+		}
+	}
+}
+
+func (d *scanner) peek() byte {
+	d.ws()
+	if d.i < len(d.b) {
+		return d.b[d.i]
+	}
+	return 0
+}
+
+func (d *scanner) literal(word string) bool {
+	if len(d.b)-d.i >= len(word) && string(d.b[d.i:d.i+len(word)]) == word {
+		d.i += len(word)
+		return true
+	}
+	return false
+}
+
+// object calls f for each key; f must consume the value.
+func (d *scanner) object(f func(key string) error) error {
+	if d.peek() == 'n' && d.literal("null") {
+		return nil
+	}
+	if d.peek() != '{' {
+		return d.errorf("expected an object")
+	}
+	d.i++
+	if d.peek() == '}' {
+		d.i++
+		return nil
+	}
+	for {
+		if d.peek() != '"' {
+			return d.errorf("expected a key")
+		}
+		k, err := d.str()
+		if err != nil {
+			return err
+		}
+		if d.peek() != ':' {
+			return d.errorf("expected ':'")
+		}
+		d.i++
+		if err := f(k); err != nil {
+			return err
+		}
+		switch d.peek() {
+		case ',':
+			d.i++
+		case '}':
+			d.i++
+			return nil
+		default:
+			return d.errorf("expected ',' or '}'")
+		}
+	}
+}
+
+// array calls f for each element; f must consume it.
+func (d *scanner) array(f func() error) error {
+	if d.peek() == 'n' && d.literal("null") {
+		return nil
+	}
+	if d.peek() != '[' {
+		return d.errorf("expected an array")
+	}
+	d.i++
+	if d.peek() == ']' {
+		d.i++
+		return nil
+	}
+	for {
+		if err := f(); err != nil {
+			return err
+		}
+		switch d.peek() {
+		case ',':
+			d.i++
+		case ']':
+			d.i++
+			return nil
+		default:
+			return d.errorf("expected ',' or ']'")
+		}
+	}
+}
+
+func (d *scanner) number() (float64, error) {
+	c := d.peek()
+	if c == 'n' && d.literal("null") {
+		return 0, nil
+	}
+	start := d.i
+	if c == '-' {
+		d.i++
+	}
+	digits := 0
+	for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
+		d.i++
+		digits++
+	}
+	if digits == 0 {
+		return 0, d.errorf("expected a number")
+	}
+	if digits > 1 && d.b[d.i-digits] == '0' {
+		return 0, d.errorf("bad number: leading zero")
+	}
+	if d.i < len(d.b) && d.b[d.i] == '.' {
+		d.i++
+		n := 0
+		for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
+			d.i++
+			n++
+		}
+		if n == 0 {
+			return 0, d.errorf("bad number")
+		}
+	}
+	if d.i < len(d.b) && (d.b[d.i] == 'e' || d.b[d.i] == 'E') {
+		d.i++
+		if d.i < len(d.b) && (d.b[d.i] == '+' || d.b[d.i] == '-') {
+			d.i++
+		}
+		n := 0
+		for d.i < len(d.b) && d.b[d.i] >= '0' && d.b[d.i] <= '9' {
+			d.i++
+			n++
+		}
+		if n == 0 {
+			return 0, d.errorf("bad number")
+		}
+	}
+	if f, ok := fastFloat(d.b[start:d.i]); ok {
+		return f, nil
+	}
+	f, err := strconv.ParseFloat(string(d.b[start:d.i]), 64)
+	if err != nil {
+		return 0, d.errorf("bad number: %v", err)
+	}
+	return f, nil
+}
+
+var pow10 = [...]float64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}
+
+// fastFloat parses a plain decimal ("-12.375", no exponent) of at most 15
+// significant digits exactly: the digits form an integer below 2^53 and the
+// divisor is an exact power of ten, so the one division rounds correctly
+// (the classic fast path of decimal-to-binary conversion). It reports
+// false for anything else, which strconv.ParseFloat then handles.
+func fastFloat(b []byte) (float64, bool) {
+	neg := false
+	if len(b) > 0 && b[0] == '-' {
+		neg, b = true, b[1:]
+	}
+	var m uint64
+	digits, frac := 0, -1
+	for i, c := range b {
+		switch {
+		case c >= '0' && c <= '9':
+			if digits > 0 || c != '0' {
+				digits++
+			}
+			m = m*10 + uint64(c-'0')
+			if frac >= 0 {
+				frac++
+			}
+		case c == '.' && frac < 0 && i > 0:
+			frac = 0
+		default:
+			return 0, false
+		}
+	}
+	if digits > 15 || frac > 22 || len(b) == 0 {
+		return 0, false
+	}
+	f := float64(m)
+	if frac > 0 {
+		f /= pow10[frac]
+	}
+	if neg {
+		f = -f
+	}
+	return f, true
+}
+
+// numbers appends the elements of an array of numbers to dst; null
+// leaves dst empty, as encoding/json leaves a slice nil.
+func (d *scanner) numbers(dst []float64) ([]float64, error) {
+	if d.peek() == 'n' && d.literal("null") {
+		return dst, nil
+	}
+	if d.peek() != '[' {
+		return dst, d.errorf("expected an array")
+	}
+	d.i++
+	if d.peek() == ']' {
+		d.i++
+		return dst, nil
+	}
+	for {
+		f, err := d.number()
+		if err != nil {
+			return dst, err
+		}
+		dst = append(dst, f)
+		switch d.peek() {
+		case ',':
+			d.i++
+		case ']':
+			d.i++
+			return dst, nil
+		default:
+			return dst, d.errorf("expected ',' or ']'")
+		}
+	}
+}
+
+// strings appends the elements of an array of strings to dst.
+func (d *scanner) strings(dst []string) ([]string, error) {
+	err := d.array(func() error {
+		s, err := d.stringOrNull()
+		dst = append(dst, s)
+		return err
+	})
+	return dst, err
+}
+
+func (d *scanner) stringOrNull() (string, error) {
+	if d.peek() == 'n' && d.literal("null") {
+		return "", nil
+	}
+	if d.peek() != '"' {
+		return "", d.errorf("expected a string")
+	}
+	return d.str()
+}
+
+// str reads a JSON string at d.i (which is at the opening quote).
+func (d *scanner) str() (string, error) {
+	d.i++
+	start := d.i
+	// Fast path: no escapes.
+	for d.i < len(d.b) {
+		c := d.b[d.i]
+		if c == '"' {
+			s := d.b[start:d.i]
+			d.i++
+			if !utf8.Valid(s) {
+				return string([]rune(string(s))), nil
+			}
+			return string(s), nil
+		}
+		if c == '\\' || c < 0x20 {
+			break
+		}
+		d.i++
+	}
+	buf := append([]byte(nil), d.b[start:d.i]...)
+	for d.i < len(d.b) {
+		c := d.b[d.i]
+		switch {
+		case c == '"':
+			d.i++
+			if !utf8.Valid(buf) {
+				return string([]rune(string(buf))), nil
+			}
+			return string(buf), nil
+		case c < 0x20:
+			return "", d.errorf("control character in string")
+		case c != '\\':
+			buf = append(buf, c)
+			d.i++
+			continue
+		}
+		d.i++
+		if d.i >= len(d.b) {
+			break
+		}
+		e := d.b[d.i]
+		d.i++
+		switch e {
+		case '"', '\\', '/':
+			buf = append(buf, e)
+		case 'b':
+			buf = append(buf, '\b')
+		case 'f':
+			buf = append(buf, '\f')
+		case 'n':
+			buf = append(buf, '\n')
+		case 'r':
+			buf = append(buf, '\r')
+		case 't':
+			buf = append(buf, '\t')
+		case 'u':
+			r, ok := d.hex4()
+			if !ok {
+				return "", d.errorf("bad \\u escape")
+			}
+			if utf16.IsSurrogate(r) {
+				// A pair when the next escape completes it; alone it is
+				// replaced, as encoding/json does.
+				save := d.i
+				if d.i+1 < len(d.b) && d.b[d.i] == '\\' && d.b[d.i+1] == 'u' {
+					d.i += 2
+					if r2, ok := d.hex4(); ok {
+						if dec := utf16.DecodeRune(r, r2); dec != utf8.RuneError {
+							buf = utf8.AppendRune(buf, dec)
+							continue
+						}
+					}
+				}
+				d.i = save
+				r = utf8.RuneError
+			}
+			buf = utf8.AppendRune(buf, r)
+		default:
+			return "", d.errorf("bad escape")
+		}
+	}
+	return "", d.errorf("unterminated string")
+}
+
+func (d *scanner) hex4() (rune, bool) {
+	if d.i+4 > len(d.b) {
+		return 0, false
+	}
+	v, err := strconv.ParseUint(string(d.b[d.i:d.i+4]), 16, 32)
+	if err != nil {
+		return 0, false
+	}
+	d.i += 4
+	return rune(v), true
+}
+
+// skip consumes any value (for unknown keys), to a bounded depth.
+func (d *scanner) skip() error { return d.skipDepth(0) }
+
+func (d *scanner) skipDepth(depth int) error {
+	if depth > 64 {
+		return errDepth
+	}
+	switch c := d.peek(); {
+	case c == '{':
+		return d.object(func(string) error { return d.skipDepth(depth + 1) })
+	case c == '[':
+		return d.array(func() error { return d.skipDepth(depth + 1) })
+	case c == '"':
+		_, err := d.str()
+		return err
+	case c == 't' && d.literal("true"), c == 'f' && d.literal("false"), c == 'n' && d.literal("null"):
+		return nil
+	default:
+		_, err := d.number()
+		return err
+	}
+}
