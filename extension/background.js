@@ -6,10 +6,12 @@ import './wasm_exec.js';
 
 let corePromise = null;
 
-// loadCore instantiates standout.wasm once per service-worker lifetime.
+// loadCore instantiates standout.wasm once per service-worker lifetime
+// and resolves to how long that took (0 when it was already running).
 function loadCore() {
-  if (globalThis.standoutHandle) return Promise.resolve();
+  if (globalThis.standoutHandle) return Promise.resolve(0);
   if (!corePromise) {
+    const t0 = performance.now();
     corePromise = (async () => {
       const go = new Go();
       const url = chrome.runtime.getURL('standout.wasm');
@@ -19,6 +21,7 @@ function loadCore() {
         await new Promise((r) => setTimeout(r, 5));
       }
       if (!globalThis.standoutHandle) throw new Error('the Standout core did not start');
+      return performance.now() - t0;
     })().catch((e) => {
       corePromise = null;
       throw e;
@@ -27,66 +30,119 @@ function loadCore() {
   return corePromise;
 }
 
-async function inject(tabId, files) {
-  await chrome.scripting.executeScript({ target: { tabId }, files });
-}
+const SCRIPTS = ['cvd-filters.js', 'reader.js', 'overlay.js'];
 
-// readPage runs the read pass in the page and returns its result as a
-// JSON string: one string crosses the messaging layer far faster than a
-// large object, and it goes to the core as it is.
-async function readPage(tabId) {
-  // One injection brings the reader and the overlay (both idempotent), so
-  // showing the result needs no second round trip.
-  await inject(tabId, ['cvd-filters.js', 'reader.js', 'overlay.js']);
-  const [res] = await chrome.scripting.executeScript({
-    target: { tabId },
-    func: () => JSON.stringify(globalThis.standoutReader.readPage(document)),
-  });
-  return res.result;
-}
-
-// analyse reads the page, runs the core and returns the core's response
-// (a JSON string: {ok, report, markdown} or {ok: false, error}) with the
-// timings of the steps.
-async function analyse(tabId, emphasis, severity, full) {
+// inPage runs in the page's content-script world. With toggle set, it
+// closes an open check and says so; otherwise it reads the page. It
+// returns null when the scripts are not in the page yet.
+function inPage(toggle, emphasis) {
+  const overlay = globalThis.standoutOverlay;
+  if (!globalThis.standoutReader || !overlay) return null;
+  if (toggle && overlay.isOpen()) {
+    overlay.close();
+    return { closed: true };
+  }
   const t0 = performance.now();
-  const [pageJSON] = await Promise.all([readPage(tabId), loadCore()]);
+  const page = globalThis.standoutReader.readPage(document, { emphasis });
+  const t1 = performance.now();
+  // One string crosses the messaging layer far faster than a large
+  // object, and it goes to the core as it is.
+  const json = JSON.stringify(page);
+  return { json, readMs: t1 - t0, stringifyMs: performance.now() - t1 };
+}
+
+// readPage runs inPage in the tab: one round trip when the scripts are
+// already there (they stay for the page's lifetime), two the first time.
+async function readPage(tabId, toggle) {
+  const run = async () => {
+    const [res] = await chrome.scripting.executeScript({ target: { tabId }, func: inPage, args: [toggle, ''] });
+    return res && res.result;
+  };
+  try {
+    let r;
+    // The tab's activeTab grant can land a moment after the action's
+    // click event (seen when the action is pressed through the DevTools
+    // protocol under load): retry a refused first access briefly.
+    for (let attempt = 0; ; attempt++) {
+      try {
+        r = await run();
+        break;
+      } catch (e) {
+        if (attempt >= 4 || !/Cannot access|permission/i.test(String(e && e.message))) throw e;
+        await new Promise((ok) => setTimeout(ok, 25 << attempt));
+      }
+    }
+    if (r === null || r === undefined) {
+      await chrome.scripting.executeScript({ target: { tabId }, files: SCRIPTS });
+      r = await run();
+    }
+    if (!r) throw new Error('the read pass returned nothing');
+    return r;
+  } catch (e) {
+    throw new Error(`reading the page: ${(e && e.message) || e}`);
+  }
+}
+
+// analyse reads the page (unless read already holds its reading), runs
+// the core and returns the core's response (a JSON string: {ok, overlay}
+// or {ok, report, markdown}, or {ok: false, error}) with the timings of
+// the steps, or {closed: true} when toggle closed an open check.
+async function analyse(tabId, { toggle = false, emphasis = [], severity, full = false } = {}) {
+  const t0 = performance.now();
+  const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore()]);
+  if (read.closed) return read;
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as
   // the read pass wrote it, for the core's fast snapshot decoder.
-  const options = { type: 'analyse', emphasis: emphasis || [], full: !!full };
+  const options = { type: 'analyse', emphasis, full };
   if (typeof severity === 'number') options.severity = severity;
-  const response = globalThis.standoutHandle(JSON.stringify(options), pageJSON);
+  const response = globalThis.standoutHandle(JSON.stringify(options), read.json);
   const t2 = performance.now();
-  return { response, timing: { readMs: t1 - t0, analyseMs: t2 - t1 } };
+  return {
+    response,
+    timing: {
+      readMs: read.readMs,
+      stringifyMs: read.stringifyMs,
+      readTripMs: t1 - t0,
+      coreLoadMs: loadMs,
+      coreMs: t2 - t1,
+      pageBytes: read.json.length,
+      responseBytes: response.length,
+    },
+  };
 }
 
+// show hands the result to the overlay in the page.
 async function show(tabId, result) {
-  await chrome.tabs.sendMessage(tabId, { type: 'standout/show', target: 'overlay', data: result });
+  try {
+    await chrome.scripting.executeScript({
+      target: { tabId },
+      func: (r) => globalThis.standoutOverlay.show(r),
+      args: [result],
+    });
+  } catch (e) {
+    throw new Error(`showing the result: ${(e && e.message) || e}`);
+  }
 }
 
 // toggle closes an open check, or runs one.
 async function toggle(tab) {
   if (!tab || tab.id === undefined) return;
   try {
-    const r = await chrome.tabs.sendMessage(tab.id, { type: 'standout/close', target: 'overlay' });
-    if (r && r.closed) return;
-  } catch (e) {
-    // No overlay in this tab yet.
-  }
-  try {
-    await show(tab.id, await analyse(tab.id, [], undefined));
+    const r = await analyse(tab.id, { toggle: true });
+    if (!r.closed) await show(tab.id, r);
   } catch (e) {
     await showError(tab.id, e);
   }
 }
 
 async function showError(tabId, e) {
+  const msg = String((e && e.message) || e);
   try {
-    await inject(tabId, ['cvd-filters.js', 'reader.js', 'overlay.js']);
-    await chrome.tabs.sendMessage(tabId, { type: 'standout/error', target: 'overlay', data: String((e && e.message) || e) });
+    await chrome.scripting.executeScript({ target: { tabId }, files: SCRIPTS });
+    await chrome.scripting.executeScript({ target: { tabId }, func: (m) => globalThis.standoutOverlay.showError(m), args: [msg] });
   } catch (e2) {
-    console.warn('Standout could not run on this page:', e, e2);
+    console.warn('Standout could not run on this page:', msg, e2);
   }
 }
 
@@ -99,7 +155,7 @@ chrome.runtime.onMessage.addListener((msg, sender, sendResponse) => {
   switch (msg && msg.type) {
     case 'standout/reanalyse':
     case 'standout/full-report':
-      analyse(tabId, msg.data.emphasis, msg.data.severity, msg.type === 'standout/full-report')
+      analyse(tabId, { emphasis: msg.data.emphasis, severity: msg.data.severity, full: msg.type === 'standout/full-report' })
         .then((r) => sendResponse({ ok: true, data: r }))
         .catch((e) => sendResponse({ ok: false, error: String((e && e.message) || e) }));
       return true;

@@ -57,11 +57,10 @@
     host: null,
     root: null,
     panel: null,
-    layers: new Map(), // path → {svg, entry, readBox, marks, highlight, selection}
+    layers: new Map(), // path → {svg, entry, readBox, chart, highlight, selection}
     report: null,
-    markdown: '',
     picking: false,
-    picked: new Set(),
+    picked: new Set(), // mark ids
     catcher: null,
     observers: [],
     listeners: [],
@@ -89,14 +88,44 @@
     state.listeners.push([target, type, fn, opts]);
   }
 
-  function rectPath(marks, offX, offY, grow) {
+  // r2 rounds to hundredths, so that path data stays short.
+  function r2(v) {
+    return Math.round(v * 100) / 100;
+  }
+
+  // rectPath outlines the marks at indices idx of a digest chart (digest
+  // boxes are x y width height, flat), relative to (offX, offY), grown by
+  // grow px on every side.
+  function rectPath(chart, idx, offX, offY, grow) {
+    const b = chart.boxes;
     let d = '';
-    for (const m of marks) {
-      const [x, y, w, h] = m.bbox;
-      const g = grow || 0;
-      d += `M${x - offX - g},${y - offY - g}h${w + 2 * g}v${h + 2 * g}h${-(w + 2 * g)}Z`;
+    for (const i of idx) {
+      const w = r2(b[4 * i + 2] + 2 * grow);
+      d += `M${r2(b[4 * i] - offX - grow)},${r2(b[4 * i + 1] - offY - grow)}h${w}v${r2(b[4 * i + 3] + 2 * grow)}h${-w}Z`;
     }
     return d;
+  }
+
+  // cornerPath draws the verdict's corner mark at each mark's top right.
+  function cornerPath(chart, idx, offX, offY, corner) {
+    const b = chart.boxes;
+    let d = '';
+    for (const i of idx) {
+      const x = r2(b[4 * i] + b[4 * i + 2] - offX + 1.5);
+      const y = r2(b[4 * i + 1] - offY - 1.5);
+      d += corner === 'notch' ? `M${x},${y}l7,0l-7,7Z` : `M${x + 3.5},${y}a3.5,3.5 0 1,0 -7,0a3.5,3.5 0 1,0 7,0Z`;
+    }
+    return d;
+  }
+
+  const VERDICT_OF = { p: 'pops', c: 'conjunction', b: 'blends' };
+
+  // byVerdict lists a chart's mark indices per verdict.
+  function byVerdict(chart) {
+    const out = { pops: [], conjunction: [], blends: [] };
+    const v = chart.verdicts;
+    for (let i = 0; i < v.length; i++) out[VERDICT_OF[v[i]] || 'blends'].push(i);
+    return out;
   }
 
   // ---------- layers ----------
@@ -118,39 +147,26 @@
       if (!entry) continue;
       const svg = svgEl('svg', { class: 'layer', 'data-chart': c.path, 'aria-hidden': 'true' });
       const readBox = c.box;
-      const groups = { pops: [], conjunction: [], blends: [] };
-      for (const m of c.marks) (groups[m.verdict] || groups.blends).push(m);
+      const groups = byVerdict(c);
       for (const v of ['blends', 'conjunction', 'pops']) {
         if (!groups[v].length) continue;
         const st = STYLE[v];
-        const d = rectPath(groups[v], readBox[0], readBox[1], 1.5);
+        const d = rectPath(c, groups[v], readBox[0], readBox[1], 1.5);
         svg.appendChild(svgEl('path', { d, fill: 'none', stroke: '#ffffff', 'stroke-width': st.width + 2.5, 'stroke-linejoin': 'round' }));
         const p = svgEl('path', { d, fill: 'none', stroke: st.colour, 'stroke-width': st.width, 'stroke-linejoin': 'round', 'data-verdict': v });
         if (st.dash) p.setAttribute('stroke-dasharray', st.dash);
         svg.appendChild(p);
         if (st.corner === 'notch') {
-          let cd = '';
-          for (const m of groups[v]) {
-            const x = m.bbox[0] + m.bbox[2] - readBox[0] + 1.5;
-            const y = m.bbox[1] - readBox[1] - 1.5;
-            cd += `M${x},${y}l7,0l-7,7Z`;
-          }
-          svg.appendChild(svgEl('path', { d: cd, fill: st.colour, stroke: '#ffffff', 'stroke-width': 1 }));
+          svg.appendChild(svgEl('path', { d: cornerPath(c, groups[v], readBox[0], readBox[1], 'notch'), fill: st.colour, stroke: '#ffffff', 'stroke-width': 1 }));
         } else if (st.corner === 'ring') {
-          let cd = '';
-          for (const m of groups[v]) {
-            const x = m.bbox[0] + m.bbox[2] - readBox[0] + 1.5;
-            const y = m.bbox[1] - readBox[1] - 1.5;
-            cd += `M${x + 3.5},${y}a3.5,3.5 0 1,0 -7,0a3.5,3.5 0 1,0 7,0Z`;
-          }
-          svg.appendChild(svgEl('path', { d: cd, fill: '#ffffff', stroke: st.colour, 'stroke-width': 2 }));
+          svg.appendChild(svgEl('path', { d: cornerPath(c, groups[v], readBox[0], readBox[1], 'ring'), fill: '#ffffff', stroke: st.colour, 'stroke-width': 2 }));
         }
       }
       const highlight = svgEl('path', { d: '', fill: 'none', stroke: '#1d4ed8', 'stroke-width': 4, 'stroke-dasharray': '2 2' });
       const selection = svgEl('path', { d: '', fill: 'none', stroke: '#18181b', 'stroke-width': 3, 'stroke-dasharray': '10 2 2 2' });
       svg.append(highlight, selection);
       state.root.insertBefore(svg, state.panel);
-      state.layers.set(c.path, { svg, entry, readBox, marks: c.marks, highlight, selection });
+      state.layers.set(c.path, { svg, entry, readBox, chart: c, highlight, selection });
     }
     position();
   }
@@ -180,17 +196,21 @@
     if (!state.frame) state.frame = requestAnimationFrame(position);
   }
 
-  function highlight(path, ids) {
+  // highlight outlines the marks at indices idx of the chart at path
+  // (none when idx is empty).
+  function highlight(path, idx) {
     for (const [p, l] of state.layers) {
-      const marks = p === path ? l.marks.filter((m) => ids.includes(m.id)) : [];
-      l.highlight.setAttribute('d', rectPath(marks, l.readBox[0], l.readBox[1], 5));
+      l.highlight.setAttribute('d', p === path ? rectPath(l.chart, idx, l.readBox[0], l.readBox[1], 5) : '');
     }
   }
 
   function showSelection() {
     for (const l of state.layers.values()) {
-      const marks = l.marks.filter((m) => state.picked.has(m.id));
-      l.selection.setAttribute('d', rectPath(marks, l.readBox[0], l.readBox[1], 7));
+      const idx = [];
+      l.chart.ids.forEach((id, i) => {
+        if (state.picked.has(id)) idx.push(i);
+      });
+      l.selection.setAttribute('d', rectPath(l.chart, idx, l.readBox[0], l.readBox[1], 7));
     }
   }
 
@@ -253,9 +273,9 @@
 
     const exp = el('div', { class: 'row' });
     const bJSON = el('button', { type: 'button', 'data-action': 'export-json' }, 'Export JSON');
-    bJSON.addEventListener('click', () => exportJSON());
+    bJSON.addEventListener('click', () => exportReport('json'));
     const bMD = el('button', { type: 'button', 'data-action': 'export-md' }, 'Export Markdown');
-    bMD.addEventListener('click', () => download('standout-report.md', 'text/markdown', result.markdown));
+    bMD.addEventListener('click', () => exportReport('md'));
     const bPNG = el('button', { type: 'button', 'data-action': 'export-png' }, 'Export PNG');
     bPNG.addEventListener('click', () => exportPNG());
     exp.append(bJSON, bMD, bPNG);
@@ -267,9 +287,9 @@
       if (!c.isChart) continue;
       n++;
       const sec = el('section', { 'aria-label': 'Chart ' + c.path });
-      sec.appendChild(el('h2', {}, `Chart ${c.path}: ${c.marks.length} marks`));
+      sec.appendChild(el('h2', {}, `Chart ${c.path}: ${c.ids.length} marks`));
       const counts = { pops: 0, conjunction: 0, blends: 0 };
-      for (const m of c.marks) counts[m.verdict] = (counts[m.verdict] || 0) + 1;
+      for (const v of c.verdicts) counts[VERDICT_OF[v] || 'blends']++;
       sec.appendChild(el('p', {}, `${counts.pops} ${WORDS.pops}; ${counts.conjunction} only by a slow search; ${counts.blends} ${WORDS.blends}.`));
       if (c.emphasis && c.emphasis.marks.length) {
         const holds = VISIONS.map((v) => `${v}: ${c.emphasis.holds[v] ? 'yes' : 'no'}`).join(', ');
@@ -327,21 +347,25 @@
     let best = null;
     let bestArea = Infinity;
     for (const l of state.layers.values()) {
-      const b = globalThis.standoutReader.pageBox(l.entry);
-      const dx = b[0] - l.readBox[0];
-      const dy = b[1] - l.readBox[1];
-      for (const m of l.marks) {
-        const [x, y, w, h] = m.bbox;
-        const pad = 3;
-        if (px >= x + dx - pad && px <= x + dx + w + pad && py >= y + dy - pad && py <= y + dy + h + pad && w * h < bestArea) {
-          best = m;
+      const pb = globalThis.standoutReader.pageBox(l.entry);
+      const dx = pb[0] - l.readBox[0];
+      const dy = pb[1] - l.readBox[1];
+      const b = l.chart.boxes;
+      const pad = 3;
+      for (let i = 0; i < l.chart.ids.length; i++) {
+        const x = b[4 * i] + dx;
+        const y = b[4 * i + 1] + dy;
+        const w = b[4 * i + 2];
+        const h = b[4 * i + 3];
+        if (px >= x - pad && px <= x + w + pad && py >= y - pad && py <= y + h + pad && w * h < bestArea) {
+          best = l.chart.ids[i];
           bestArea = w * h;
         }
       }
     }
-    if (!best) return;
-    if (state.picked.has(best.id)) state.picked.delete(best.id);
-    else state.picked.add(best.id);
+    if (best === null) return;
+    if (state.picked.has(best)) state.picked.delete(best);
+    else state.picked.add(best);
     showSelection();
   }
 
@@ -432,9 +456,10 @@
     setTimeout(() => URL.revokeObjectURL(url), 10000);
   }
 
-  // exportJSON asks for the whole report (the overlay holds a digest) for
-  // the current emphasis and severity, and downloads it.
-  async function exportJSON() {
+  // exportReport asks for the whole report (the overlay holds a digest)
+  // for the current emphasis and severity, and downloads it as JSON or
+  // Markdown.
+  async function exportReport(kind) {
     const severity = state.panel ? Number(state.panel.querySelector('[data-action="severity"]').value) / 10 : 1;
     const resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasis: state.emphasis || [], severity } });
     if (!resp || !resp.ok) {
@@ -446,7 +471,8 @@
       showError(r.error);
       return;
     }
-    download('standout-report.json', 'application/json', JSON.stringify(r.report, null, 1));
+    if (kind === 'md') download('standout-report.md', 'text/markdown', r.markdown);
+    else download('standout-report.json', 'application/json', JSON.stringify(r.report, null, 1));
   }
 
   async function exportPNG() {
@@ -516,16 +542,17 @@
   }
 
   // unpack turns the background's {response, timing} into {report,
-  // markdown, timing}, or throws the core's error.
+  // timing}, or throws the core's error.
   function unpack(data) {
     const r = JSON.parse(data.response);
     if (!r.ok) throw new Error(r.error);
     // The core sends the overlay's digest of the report; the whole report
-    // is fetched when it is exported.
-    return { report: r.overlay || r.report, markdown: r.markdown, timing: Object.assign({}, data.timing, { core: r.timing }) };
+    // is made when it is exported.
+    return { report: r.overlay, timing: Object.assign({}, data.timing, { core: r.timing }) };
   }
 
   function render(data) {
+    const t0 = performance.now();
     let result;
     try {
       result = unpack(data);
@@ -535,15 +562,15 @@
     }
     ensureHost();
     state.report = result.report;
-    state.markdown = result.markdown;
     const panel = buildPanel(result);
     state.panel.replaceWith(panel);
     state.panel = panel;
     drawLayers(result.report.pages[0]);
     showSelection();
     observeCharts();
+    result.timing.renderMs = performance.now() - t0;
+    state.host.setAttribute('data-timing', JSON.stringify(result.timing));
     state.host.setAttribute('data-state', 'ready');
-    state.host.setAttribute('data-timing', JSON.stringify(result.timing || {}));
     panel.setAttribute('tabindex', '-1');
     panel.focus({ preventScroll: true });
   }
@@ -582,27 +609,11 @@
     state.open = false;
   }
 
-  chrome.runtime.onMessage.addListener((msg, sender, sendResponse) => {
-    switch (msg && msg.type) {
-      case 'standout/show':
-        render(msg.data);
-        sendResponse({ ok: true });
-        break;
-      case 'standout/error':
-        showError(String(msg.data));
-        sendResponse({ ok: true });
-        break;
-      case 'standout/close': {
-        const was = state.open;
-        teardown();
-        sendResponse({ closed: was });
-        break;
-      }
-      default:
-        console.warn('Standout overlay: unknown message', msg && msg.type);
-    }
-    return false;
+  // The background calls these through chrome.scripting.
+  globalThis.standoutOverlay = Object.freeze({
+    isOpen: () => state.open,
+    close: teardown,
+    show: render,
+    showError,
   });
-
-  globalThis.standoutOverlay = true;
 })();

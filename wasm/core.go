@@ -29,8 +29,9 @@ type Request struct {
 	// Emphasis names the intended emphasis by mark id.
 	Emphasis []string `json:"emphasis"`
 	Severity *float64 `json:"severity"`
-	// Full asks for the whole report; otherwise the response carries the
-	// overlay's digest (what the overlay draws and lists) and the Markdown.
+	// Full asks for the whole report and its Markdown; otherwise the
+	// response carries the overlay's digest (what the overlay draws and
+	// lists).
 	Full       bool    `json:"full"`
 	DistanceCM float64 `json:"distanceCm"`
 	PxPerInch  float64 `json:"pxPerInch"`
@@ -41,10 +42,9 @@ type Response struct {
 	OK     bool           `json:"ok"`
 	Error  string         `json:"error,omitempty"`
 	Report *report.Report `json:"report,omitempty"`
-	// Overlay is the report's digest for drawing: per chart the marks'
-	// ids, boxes and verdicts, the findings and the emphasis.
+	// Overlay is the report's digest for drawing (digest.go).
 	Overlay *Digest `json:"overlay,omitempty"`
-	// Markdown is the same report, ready for a ticket.
+	// Markdown is the report, ready for a ticket.
 	Markdown string `json:"markdown,omitempty"`
 	// Timing is how long each step took inside the core, in ms.
 	Timing map[string]float64 `json:"timing,omitempty"`
@@ -113,24 +113,28 @@ func handle(q *Request, t0 time.Time) []byte {
 	}
 	timing["decodeMs"] = ms(t0)
 	t1 := time.Now()
-	page, _, err := report.FromSnapshots(q.Source, q.Snapshots, q.Problems, opt)
+	as, err := report.AnalyseSnapshots(q.Snapshots, opt)
 	timing["analyseMs"] = ms(t1)
 	if err != nil {
 		return errorResponse(err.Error())
 	}
-	rep := &report.Report{Schema: "standout-report", Version: report.Version, Pages: []report.Page{page}, Caution: report.Caution}
 	t2 := time.Now()
+	if !q.Full {
+		// The overlay's digest, written by hand: encoding/json's
+		// reflection over thousands of marks is slow under WebAssembly.
+		b := append(make([]byte, 0, 64+80*countMarks(as)), `{"ok":true,"overlay":`...)
+		b = appendDigest(b, q.Source, q.Problems, as)
+		timing["encodeMs"] = ms(t2)
+		b = append(b, `,"timing":`...)
+		b = appendTiming(b, timing)
+		return append(b, '}')
+	}
+	page, _ := report.PageOf(q.Source, q.Problems, as)
+	rep := &report.Report{Schema: "standout-report", Version: report.Version, Pages: []report.Page{page}, Caution: report.Caution}
 	var md strings.Builder
 	report.WriteMarkdown(&md, rep, nil)
-	timing["markdownMs"] = ms(t2)
-	// Encoding time is the rest of the call; the caller measures the whole.
-	resp := Response{OK: true, Markdown: md.String(), Timing: timing}
-	if q.Full {
-		resp.Report = rep
-	} else {
-		resp.Overlay = digest(rep)
-	}
-	b, err := json.Marshal(resp)
+	timing["encodeMs"] = ms(t2)
+	b, err := json.Marshal(Response{OK: true, Report: rep, Markdown: md.String(), Timing: timing})
 	if err != nil {
 		return errorResponse(err.Error())
 	}
@@ -140,52 +144,4 @@ func handle(q *Request, t0 time.Time) []byte {
 func errorResponse(msg string) []byte {
 	b, _ := json.Marshal(Response{OK: false, Error: msg})
 	return b
-}
-
-// Digest is the part of a report the overlay needs, in the report's own
-// field names, so it encodes and crosses to JavaScript in a fraction of
-// the time of the whole report.
-type Digest struct {
-	Pages   []DigestPage `json:"pages"`
-	Caution string       `json:"caution"`
-}
-
-// DigestPage is one page of a Digest.
-type DigestPage struct {
-	Source   string        `json:"source"`
-	Problems []string      `json:"problems"`
-	Charts   []DigestChart `json:"charts"`
-}
-
-// DigestChart is one chart of a Digest.
-type DigestChart struct {
-	Path     string           `json:"path"`
-	IsChart  bool             `json:"isChart"`
-	Box      [4]float64       `json:"box"`
-	Marks    []DigestMark     `json:"marks"`
-	Findings []report.Finding `json:"findings"`
-	Emphasis *report.Emphasis `json:"emphasis,omitempty"`
-}
-
-// DigestMark is one mark of a Digest.
-type DigestMark struct {
-	ID      string     `json:"id"`
-	BBox    [4]float64 `json:"bbox"`
-	Verdict string     `json:"verdict"`
-}
-
-func digest(r *report.Report) *Digest {
-	d := &Digest{Caution: r.Caution}
-	for _, p := range r.Pages {
-		dp := DigestPage{Source: p.Source, Problems: p.Problems}
-		for _, c := range p.Charts {
-			dc := DigestChart{Path: c.Path, IsChart: c.IsChart, Box: c.Box, Findings: c.Findings, Emphasis: c.Emphasis, Marks: make([]DigestMark, len(c.Marks))}
-			for i, m := range c.Marks {
-				dc.Marks[i] = DigestMark{ID: m.ID, BBox: m.BBox, Verdict: m.Verdict}
-			}
-			dp.Charts = append(dp.Charts, dc)
-		}
-		d.Pages = append(d.Pages, dp)
-	}
-	return d
 }

@@ -79,22 +79,65 @@ func TestHandlePageMatchesHandle(t *testing.T) {
 }
 
 func TestDigestMatchesReport(t *testing.T) {
-	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30" cy="10" r="4" fill="#c2410c"/></g></svg>`
-	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
+	// The overlay's digest says what the full report says of every mark
+	// and finding, and is valid JSON for any text a page may hold.
+	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30.333" cy="10" r="4" fill="#999"/>
+	<circle cx="50" cy="10" r="4" fill="#999"/><circle cx="70" cy="10" r="4" fill="#c2410c" aria-label="a &quot;quoted&quot; \ label &#1;"/></g></svg>`
+	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t\u2028\"x"})
 	require.NoError(t, err)
-	page, _ := json.Marshal(map[string]any{"source": "t", "snapshots": p.Charts})
+	page, _ := json.Marshal(map[string]any{"source": "t\x00\xff\"", "snapshots": p.Charts, "problems": []string{"a\tb"}})
 	var full, lite Response
 	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse","full":true}`), page), &full))
-	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), page), &lite))
+	out := HandlePage([]byte(`{"type":"analyse"}`), page)
+	require.True(t, json.Valid(out), "%s", out)
+	require.NoError(t, json.Unmarshal(out, &lite))
+	require.True(t, lite.OK, lite.Error)
 	require.NotNil(t, lite.Overlay)
 	assert.Nil(t, lite.Report)
-	fc, lc := full.Report.Pages[0].Charts[0], lite.Overlay.Pages[0].Charts[0]
-	require.Len(t, lc.Marks, len(fc.Marks))
-	for i := range fc.Marks {
-		assert.Equal(t, fc.Marks[i].ID, lc.Marks[i].ID)
-		assert.Equal(t, fc.Marks[i].BBox, lc.Marks[i].BBox)
-		assert.Equal(t, fc.Marks[i].Verdict, lc.Marks[i].Verdict)
+	assert.Empty(t, lite.Markdown, "the Markdown is made on export")
+	fp, lp := full.Report.Pages[0], lite.Overlay.Pages[0]
+	assert.Equal(t, fp.Source, lp.Source)
+	assert.Equal(t, fp.Problems, lp.Problems)
+	fc, lc := fp.Charts[0], lp.Charts[0]
+	require.Len(t, lc.IDs, len(fc.Marks))
+	require.Len(t, lc.Boxes, 4*len(fc.Marks))
+	require.Len(t, lc.Verdicts, len(fc.Marks))
+	for i, m := range fc.Marks {
+		assert.Equal(t, m.ID, lc.IDs[i])
+		assert.Equal(t, m.BBox[:], lc.Boxes[4*i:4*i+4])
+		assert.Equal(t, m.Verdict[:1], lc.Verdicts[i:i+1])
 	}
-	assert.Equal(t, fc.Findings, lc.Findings)
-	assert.Equal(t, full.Markdown, lite.Markdown)
+	require.Len(t, lc.Findings, len(fc.Findings))
+	require.NotEmpty(t, lc.Findings)
+	for i, f := range fc.Findings {
+		g := lc.Findings[i]
+		assert.Equal(t, []any{f.ID, f.Severity, f.Message}, []any{g.ID, g.Severity, g.Message})
+		var ids []string
+		for _, k := range g.Marks {
+			ids = append(ids, lc.IDs[k])
+		}
+		assert.ElementsMatch(t, f.Marks, ids)
+		if f.Fix != nil {
+			require.NotNil(t, g.Fix)
+			assert.Equal(t, DigestFix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Verified: f.Fix.Verified}, *g.Fix)
+		}
+	}
+	require.NotNil(t, lc.Emphasis)
+	var em []string
+	for _, k := range lc.Emphasis.Marks {
+		em = append(em, lc.IDs[k])
+	}
+	assert.Equal(t, fc.Emphasis.Marks, em)
+	assert.Equal(t, fc.Emphasis.Holds, lc.Emphasis.Holds)
+	assert.Equal(t, fc.Emphasis.Inferred, lc.Emphasis.Inferred)
+}
+
+func TestAppendStringMatchesEncodingJSON(t *testing.T) {
+	for _, s := range []string{"", "plain", `q"b\s`, "\x00\x1f\n\r\t", "é😀", "\xff\xfe", "a\u2028b", "<&>"} {
+		var want, got string
+		b, _ := json.Marshal(s)
+		require.NoError(t, json.Unmarshal(b, &want))
+		require.NoError(t, json.Unmarshal(appendString(nil, s), &got), "%q", s)
+		assert.Equal(t, want, got, "%q", s)
+	}
 }

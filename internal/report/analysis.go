@@ -160,27 +160,7 @@ func attachAnalysis(rc *Chart, ch *dom.Chart, res *perception.Result) {
 		// perception.Visions is normal, protan, deutan, tritan, achromat.
 		rc.Marks[i].CVD = &CVDResults{Protan: res(1), Deutan: res(2), Tritan: res(3), Achromat: res(4)}
 	}
-	ids := func(idx []int) []string {
-		out := []string{}
-		for _, i := range idx {
-			if i >= 0 && i < len(ch.Marks) {
-				out = append(out, ch.Marks[i].ID)
-			}
-		}
-		return out
-	}
-	rc.Findings = []Finding{}
-	for _, f := range res.Findings {
-		rf := Finding{ID: f.ID, Severity: string(f.Severity), Marks: ids(f.Marks), Message: f.Message, Source: f.Source}
-		if f.Fix != nil {
-			m := map[string]float64{}
-			for k, v := range f.Fix.Margin {
-				m[k] = math.Round(v*100) / 100
-			}
-			rf.Fix = &Fix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Margin: m, Verified: f.Fix.Verified}
-		}
-		rc.Findings = append(rc.Findings, rf)
-	}
+	rc.Findings = Findings(ch, res)
 	rc.Groups = &Groups{Partitions: []Partition{}, Agreement: []Agreement{}}
 	for _, p := range res.Groups.Partitions {
 		rc.Groups.Partitions = append(rc.Groups.Partitions, Partition{Cue: string(p.Cue), Groups: p.Groups})
@@ -188,11 +168,44 @@ func attachAnalysis(rc *Chart, ch *dom.Chart, res *perception.Result) {
 	for _, a := range res.Groups.Agreements {
 		rc.Groups.Agreement = append(rc.Groups.Agreement, Agreement{A: string(a.A), B: string(a.B), ARI: math.Round(a.ARI*1000) / 1000, Relation: a.Relation})
 	}
-	em := &Emphasis{Marks: ids(res.Emphasis), Inferred: res.Inferred, Holds: map[string]bool{}}
+	rc.Emphasis = EmphasisOf(ch, res)
+}
+
+// markIDs names the marks idx of ch by their ids.
+func markIDs(ch *dom.Chart, idx []int) []string {
+	out := []string{}
+	for _, i := range idx {
+		if i >= 0 && i < len(ch.Marks) {
+			out = append(out, ch.Marks[i].ID)
+		}
+	}
+	return out
+}
+
+// Findings are the analysis's findings as the report states them.
+func Findings(ch *dom.Chart, res *perception.Result) []Finding {
+	out := []Finding{}
+	for _, f := range res.Findings {
+		rf := Finding{ID: f.ID, Severity: string(f.Severity), Marks: markIDs(ch, f.Marks), Message: f.Message, Source: f.Source}
+		if f.Fix != nil {
+			m := map[string]float64{}
+			for k, v := range f.Fix.Margin {
+				m[k] = math.Round(v*100) / 100
+			}
+			rf.Fix = &Fix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Margin: m, Verified: f.Fix.Verified}
+		}
+		out = append(out, rf)
+	}
+	return out
+}
+
+// EmphasisOf is the analysis's emphasis as the report states it.
+func EmphasisOf(ch *dom.Chart, res *perception.Result) *Emphasis {
+	em := &Emphasis{Marks: markIDs(ch, res.Emphasis), Inferred: res.Inferred, Holds: map[string]bool{}}
 	for vi, v := range perception.Visions {
 		em.Holds[v.String()] = res.Holds[vi]
 	}
-	rc.Emphasis = em
+	return em
 }
 
 // verdictSummary says in one sentence how the marks fare.

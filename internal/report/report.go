@@ -157,16 +157,49 @@ func CheckFile(name string, r io.Reader, opt Options) (Page, []*dom.Chart, error
 	return FromSnapshots(name, page.Charts, page.Problems, opt)
 }
 
-// FromSnapshots walks and analyses snapshots, from the static builder or
-// a browser's read pass.
-func FromSnapshots(name string, snaps []dom.Snapshot, problems []string, opt Options) (Page, []*dom.Chart, error) {
-	rp := Page{Source: name, Problems: nonNil(problems), Charts: []Chart{}}
-	var charts []*dom.Chart
+// Analysed is one chart walked and, if it is a chart, analysed.
+type Analysed struct {
+	Chart *dom.Chart
+	// Result is nil when Chart.IsChart is false.
+	Result *perception.Result
+}
+
+// AnalyseSnapshots walks and analyses snapshots, from the static builder
+// or a browser's read pass, without building the report: the overlay's
+// digest needs only part of it.
+func AnalyseSnapshots(snaps []dom.Snapshot, opt Options) ([]Analysed, error) {
+	out := make([]Analysed, 0, len(snaps))
 	for i := range snaps {
 		ch, err := dom.Walk(&snaps[i])
 		if err != nil {
-			return Page{}, nil, err
+			return nil, err
 		}
+		a := Analysed{Chart: ch}
+		if ch.IsChart {
+			a.Result = perception.Analyse(ToPerception(ch, opt.IDs), opt.Params)
+		}
+		out = append(out, a)
+	}
+	return out, nil
+}
+
+// FromSnapshots walks and analyses snapshots, from the static builder or
+// a browser's read pass, into a report page.
+func FromSnapshots(name string, snaps []dom.Snapshot, problems []string, opt Options) (Page, []*dom.Chart, error) {
+	as, err := AnalyseSnapshots(snaps, opt)
+	if err != nil {
+		return Page{}, nil, err
+	}
+	rp, charts := PageOf(name, problems, as)
+	return rp, charts, nil
+}
+
+// PageOf builds the report page of analysed charts.
+func PageOf(name string, problems []string, as []Analysed) (Page, []*dom.Chart) {
+	rp := Page{Source: name, Problems: nonNil(problems), Charts: []Chart{}}
+	var charts []*dom.Chart
+	for _, a := range as {
+		ch := a.Chart
 		charts = append(charts, ch)
 		rc := Chart{Path: ch.Path, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
 			Background: dom.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
@@ -178,13 +211,12 @@ func FromSnapshots(name string, snaps []dom.Snapshot, problems []string, opt Opt
 			rc.Legend = append(rc.Legend, toMark(m))
 		}
 		rc.Findings = []Finding{}
-		if ch.IsChart {
-			res := perception.Analyse(ToPerception(ch, opt.IDs), opt.Params)
-			attachAnalysis(&rc, ch, res)
+		if a.Result != nil {
+			attachAnalysis(&rc, ch, a.Result)
 		}
 		rp.Charts = append(rp.Charts, rc)
 	}
-	return rp, charts, nil
+	return rp, charts
 }
 
 func nonNil(s []string) []string {
