@@ -26,6 +26,7 @@ type Result struct {
 
 	// Per kind: spatial neighbours and the vision-independent channels,
 	// reused when fixes are verified.
+	kinds  map[string][]int
 	nbs    map[string][][]int
 	reuse  map[string]*reuseData
 	shares map[string]*shared
@@ -67,7 +68,7 @@ func Analyse(in Input, p Params) *Result {
 	for _, k := range keys {
 		reuse[k] = &reuseData{}
 	}
-	res.nbs, res.reuse = nbs, reuse
+	res.kinds, res.nbs, res.reuse = kinds, nbs, reuse
 	shares := map[string]*shared{}
 	for _, k := range keys {
 		shares[k] = &shared{}

@@ -1,5 +1,7 @@
 package perception
 
+import "slices"
+
 // AdjustedRandIndex compares two partitions of the same items given as
 // label slices (Hubert & Arabie 1985, "Comparing partitions", J.
 // Classification 2(1), 193–218):
@@ -21,9 +23,36 @@ func AdjustedRandIndex(a, b []int) float64 {
 	}
 	c2 := func(x int) float64 { return float64(x) * float64(x-1) / 2 }
 	var sij, sa, sb float64
-	// Dense labels 0..k−1 (as partitions here have) use flat tables.
+	// Dense labels 0..k−1 (as partitions here have) use flat tables; a
+	// contingency table much larger than n is counted by sorting instead.
 	ka, kb := maxLabel(a)+1, maxLabel(b)+1
-	if ka > 0 && kb > 0 && ka*kb <= 1<<20 {
+	if ka > 0 && kb > 0 && ka*kb > 4*n+64 {
+		ra, rb := make([]int32, ka), make([]int32, kb)
+		keys := make([]uint64, n)
+		for k := range a {
+			ra[a[k]]++
+			rb[b[k]]++
+			keys[k] = uint64(a[k])<<32 | uint64(b[k])
+		}
+		slices.Sort(keys)
+		run := 1
+		for k := 1; k <= n; k++ {
+			if k < n && keys[k] == keys[k-1] {
+				run++
+				continue
+			}
+			sij += c2(run)
+			run = 1
+		}
+		for _, v := range ra {
+			sa += c2(int(v))
+		}
+		for _, v := range rb {
+			sb += c2(int(v))
+		}
+		return ariFrom(sij, sa, sb, c2(n))
+	}
+	if ka > 0 && kb > 0 {
 		t := make([]int32, ka*kb)
 		ra, rb := make([]int32, ka), make([]int32, kb)
 		for k := range a {

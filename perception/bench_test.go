@@ -42,6 +42,19 @@ func benchAnalyse(b *testing.B, n int) {
 	}
 }
 
+// BenchmarkOverlayAnalyse5k is the extension's analysis of a 5,000-mark
+// chart: CVD re-analysis of the emphasis only.
+func BenchmarkOverlayAnalyse5k(b *testing.B) {
+	in := benchMarks(5000)
+	p := DefaultParams
+	p.CVDEmphasisOnly = true
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		Analyse(in, p)
+	}
+}
+
 func BenchmarkAnalyse1k(b *testing.B)   { benchAnalyse(b, 1000) }
 func BenchmarkAnalyse10k(b *testing.B)  { benchAnalyse(b, 10000) }
 func BenchmarkAnalyse100k(b *testing.B) { benchAnalyse(b, 100000) }

@@ -175,19 +175,25 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 		change(i, &marks[i])
 	}
 	kind := in.Marks[em[0]].Kind
-	var idx []int
-	var ms []Mark
+	// The marks of the kind in the analysis's (spatial) order, which its
+	// neighbour lists and shared channels index.
+	idx := res.kinds[kind]
+	ms := make([]Mark, len(idx))
 	pos := map[int]int{}
-	for i, m := range marks {
-		if m.Kind == kind {
-			pos[i] = len(idx)
-			idx = append(idx, i)
-			ms = append(ms, m)
-		}
+	for p, i := range idx {
+		pos[i] = p
+		ms[p] = marks[i]
 	}
 	// Positions, sizes, orientations and shapes do not change with a colour
-	// fix: the analysis's neighbours and those channels are reused.
+	// fix: the analysis's neighbours and those channels are reused; the
+	// colours are the fix's own.
 	nb, reuse := res.nbs[kind], res.reuse[kind]
+	var sh *shared
+	if s := res.shares[kind]; s != nil {
+		c := *s
+		c.cols = nil
+		sh = &c
+	}
 	if nb == nil {
 		nb = neighbours(ms, p.Neighbours)
 	}
@@ -199,7 +205,7 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 		targets = append(targets, pos[i])
 	}
 	for _, v := range Visions {
-		d := newDisplayShared(&p, ms, idx, v, p.Severity, res.shares[kind])
+		d := newDisplayShared(&p, ms, idx, v, p.Severity, sh)
 		d.nb, d.reuse = nb, reuse
 		var r []MarkResult
 		if reuse.have {

@@ -66,17 +66,23 @@ func (u unionFind) find(i int) int {
 
 func (u unionFind) union(a, b int) { u[u.find(a)] = u.find(b) }
 
+// labels numbers the sets 0, 1, … in the order of their first members.
 func (u unionFind) labels() ([]int, int) {
-	ids := map[int]int{}
+	byRoot := make([]int32, len(u))
+	for i := range byRoot {
+		byRoot[i] = -1
+	}
 	out := make([]int, len(u))
+	k := 0
 	for i := range u {
 		r := u.find(i)
-		if _, ok := ids[r]; !ok {
-			ids[r] = len(ids)
+		if byRoot[r] < 0 {
+			byRoot[r] = int32(k)
+			k++
 		}
-		out[i] = ids[r]
+		out[i] = int(byRoot[r])
 	}
-	return out, len(ids)
+	return out, k
 }
 
 func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]int) Grouping {
@@ -100,7 +106,7 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 	for k, i := range g.Marks {
 		xs[k], ys[k] = in.Marks[i].X, in.Marks[i].Y
 	}
-	grd := newGrid(xs, ys)
+	grd := newGrid(xs, ys, 2)
 
 	// Proximity: single linkage at ProximityRatio × median nearest-neighbour
 	// distance, over each mark's nearest neighbours (a k-nearest-neighbour

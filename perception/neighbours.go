@@ -15,7 +15,9 @@ type grid struct {
 	x, y   []float64
 }
 
-func newGrid(x, y []float64) *grid {
+// newGrid indexes the points (x[i], y[i]) with cells that hold about
+// perCell points on average.
+func newGrid(x, y []float64, perCell float64) *grid {
 	n := len(x)
 	g := &grid{x: x, y: y, cell: 1, nx: 1, ny: 1}
 	if n == 0 {
@@ -28,8 +30,8 @@ func newGrid(x, y []float64) *grid {
 		minY, maxY = math.Min(minY, y[i]), math.Max(maxY, y[i])
 	}
 	w, h := math.Max(maxX-minX, 1e-6), math.Max(maxY-minY, 1e-6)
-	// About two points per cell on average, and at most 4n cells.
-	g.cell = math.Max(math.Sqrt(2*w*h/float64(n)), 1e-6)
+	// About perCell points per cell on average, and at most 4n cells.
+	g.cell = math.Max(math.Sqrt(perCell*w*h/float64(n)), 1e-6)
 	for float64(int(w/g.cell)+1)*float64(int(h/g.cell)+1) > float64(4*n+16) {
 		g.cell *= 2
 	}
@@ -68,36 +70,23 @@ func (g *grid) cy(y float64) int {
 
 func (g *grid) cellIndex(cx, cy int) int { return cy*g.nx + cx }
 
-// knn returns up to k nearest other points of point i, nearest first. It
-// searches rings of cells outwards and stops once the ring's inner radius
-// exceeds the k-th distance found.
+// knn returns up to k nearest other points of point i, nearest first and,
+// at equal distances, lowest index first. It searches rings of cells
+// outwards and stops once the ring's inner radius exceeds the k-th
+// distance found.
 func (g *grid) knn(i, k int) []int {
 	return g.knnInto(i, k, make([]int, 0, k), make([]float64, 0, k))
 }
 
 // knnInto is knn writing into caller-supplied buffers (length 0,
-// capacity ≥ k), which it returns filled.
+// capacity ≥ k), which it returns filled. It compares squared distances:
+// the hot loop of the analysis on large charts.
 func (g *grid) knnInto(i, k int, js []int, ds []float64) []int {
 	if k <= 0 {
 		return nil
 	}
 	px, py := g.x[i], g.y[i]
 	cx, cy := g.cx(px), g.cy(py)
-	insert := func(j int, d float64) {
-		if len(js) == k && d >= ds[k-1] {
-			return
-		}
-		if len(js) < k {
-			js = append(js, j)
-			ds = append(ds, d)
-		}
-		p := len(js) - 1
-		for p > 0 && ds[p-1] > d {
-			js[p], ds[p] = js[p-1], ds[p-1]
-			p--
-		}
-		js[p], ds[p] = j, d
-	}
 	maxR := max(g.nx, g.ny)
 	for r := 0; r <= maxR; r++ {
 		for dy := -r; dy <= r; dy++ {
@@ -114,21 +103,35 @@ func (g *grid) knnInto(i, k int, js []int, ds []float64) []int {
 				if xx < 0 || xx >= g.nx {
 					continue
 				}
-				c := g.cellIndex(xx, yy)
+				c := yy*g.nx + xx
 				for _, j32 := range g.items[g.start[c]:g.start[c+1]] {
 					j := int(j32)
-					if j != i {
-						dx, dy := g.x[j]-px, g.y[j]-py
-						insert(j, math.Sqrt(dx*dx+dy*dy))
+					if j == i {
+						continue
 					}
-				}
-				if step == 0 {
-					break
+					ex, ey := g.x[j]-px, g.y[j]-py
+					d := ex*ex + ey*ey
+					full := len(js) == k
+					if full && (d > ds[k-1] || d == ds[k-1] && j > js[k-1]) {
+						continue
+					}
+					if !full {
+						js, ds = append(js, j), append(ds, d)
+					}
+					p := len(js) - 1
+					for p > 0 && (ds[p-1] > d || ds[p-1] == d && js[p-1] > j) {
+						js[p], ds[p] = js[p-1], ds[p-1]
+						p--
+					}
+					js[p], ds[p] = j, d
 				}
 			}
 		}
-		if len(js) == k && ds[k-1] <= float64(r)*g.cell {
-			break
+		if len(js) == k {
+			// Cells beyond ring r lie at least r cells from the point.
+			if reach := float64(r) * g.cell; ds[k-1] < reach*reach {
+				break
+			}
 		}
 	}
 	return js

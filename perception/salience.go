@@ -65,7 +65,9 @@ type display struct {
 	p     *Params
 	marks []Mark
 	idx   []int // indices into the Input's marks
-	lab   []colour.Lab
+	lab   []colour.Lab // per mark, under the display's vision
+	cols  *palette     // the marks' distinct colours
+	clab  []colour.Lab // per distinct colour, under the display's vision
 	nd    [][3]float64
 	size  []float64 // size in steps (log perceived magnitude / log step)
 	ori   []float64 // orientation in steps
@@ -73,7 +75,42 @@ type display struct {
 	small int
 	nb    [][]int // spatial neighbours, shared across vision types
 	reuse *reuseData
-	bins  map[[3]int64]*colourBin
+	bins  []colourBin // colourBins' bins, once computed
+	binOf []int32     // per distinct colour, its bin
+}
+
+// palette is the distinct colours of a display's marks, in the order of
+// their first marks: the colour conversions and the colour bins work per
+// colour, not per mark.
+type palette struct {
+	colours []colour.SRGB
+	of      []int32 // per mark, its colour's index
+	first   []int   // per colour, its first mark
+	count   []int   // per colour, its marks
+}
+
+func newPalette(ms []Mark) *palette {
+	p := &palette{of: make([]int32, len(ms))}
+	index := map[colour.SRGB]int32{}
+	last := int32(-1)
+	for k := range ms {
+		c := ms[k].Colour
+		// Neighbouring marks often repeat a colour.
+		if last < 0 || c != p.colours[last] {
+			i, ok := index[c]
+			if !ok {
+				i = int32(len(p.colours))
+				index[c] = i
+				p.colours = append(p.colours, c)
+				p.first = append(p.first, k)
+				p.count = append(p.count, 0)
+			}
+			last = i
+		}
+		p.of[k] = last
+		p.count[last]++
+	}
+	return p
 }
 
 // newDisplay prepares the marks ms (the marks of one kind; idx are their
@@ -85,6 +122,7 @@ func newDisplay(p *Params, ms []Mark, idx []int, v colour.Deficiency, severity f
 // shared holds what does not depend on the vision type, computed for the
 // first vision and reused by the others.
 type shared struct {
+	cols  *palette
 	nd    [][3]float64
 	size  []float64
 	ori   []float64
@@ -95,23 +133,21 @@ type shared struct {
 func newDisplayShared(p *Params, ms []Mark, idx []int, v colour.Deficiency, severity float64, sh *shared) *display {
 	d := &display{p: p, idx: idx, marks: ms}
 	n := len(idx)
+	if sh != nil && sh.cols != nil {
+		d.cols = sh.cols
+	} else {
+		d.cols = newPalette(ms)
+		if sh != nil {
+			sh.cols = d.cols
+		}
+	}
+	d.clab = make([]colour.Lab, len(d.cols.colours))
+	for i, c := range d.cols.colours {
+		d.clab[i] = colour.SRGBToLab(colour.Simulate(v, severity, c))
+	}
 	d.lab = make([]colour.Lab, n)
-	// Lab per distinct colour: consecutive marks usually repeat a colour.
-	labCache := map[colour.SRGB]colour.Lab{}
-	var lastC colour.SRGB
-	var lastL colour.Lab
-	for k := range ms {
-		c := ms[k].Colour
-		if k > 0 && c == lastC {
-			d.lab[k] = lastL
-			continue
-		}
-		l, ok := labCache[c]
-		if !ok {
-			l = colour.SRGBToLab(colour.Simulate(v, severity, c))
-			labCache[c] = l
-		}
-		d.lab[k], lastC, lastL = l, c, l
+	for k, i := range d.cols.of {
+		d.lab[k] = d.clab[i]
 	}
 	if sh != nil && sh.ready {
 		d.nd, d.size, d.ori, d.oriP = sh.nd, sh.size, sh.ori, sh.oriP
@@ -328,60 +364,49 @@ func spread1(v []float64, period float64) float64 {
 	return (q(0.9) - q(0.1)) / 2
 }
 
-// colourStats fills stats for hue or lightness over distinct colours.
 // colourBin is a set of marks whose colours quantise together.
 type colourBin struct {
-	rep     int // a representative mark
-	count   int
-	members []int
+	rep   int // a representative mark: the bin's first
+	count int
 }
 
-// colourBins quantises the display's Lab colours so that at most 512
-// distinct colours remain; computed once per display, shared by the hue
-// and lightness channels.
-func (d *display) colourBins() map[[3]int64]*colourBin {
+// colourBins quantises the display's distinct Lab colours so that at most
+// 512 bins remain, in the order of their first marks; computed once per
+// display, shared by the hue and lightness channels.
+func (d *display) colourBins() ([]colourBin, []int32) {
 	if d.bins != nil {
-		return d.bins
+		return d.bins, d.binOf
 	}
 	q := 0.5
-	var bins map[[3]int64]*colourBin
+	var bins []colourBin
+	binOf := make([]int32, len(d.clab))
 	for {
-		bins = map[[3]int64]*colourBin{}
-		var lastKey [3]int64
-		var last *colourBin
-		for k, l := range d.lab {
+		index := map[[3]int64]int32{}
+		bins = bins[:0]
+		for ci, l := range d.clab {
 			key := [3]int64{int64(math.Round(l.L / q)), int64(math.Round(l.A / q)), int64(math.Round(l.B / q))}
-			b := last
-			if b == nil || key != lastKey {
-				var ok bool
-				b, ok = bins[key]
-				if !ok {
-					b = &colourBin{rep: k}
-					bins[key] = b
-				}
+			b, ok := index[key]
+			if !ok {
+				b = int32(len(bins))
+				index[key] = b
+				bins = append(bins, colourBin{rep: d.cols.first[ci]})
 			}
-			last, lastKey = b, key
-			b.count++
-			b.members = append(b.members, k)
+			bins[b].count += d.cols.count[ci]
+			binOf[ci] = b
 		}
 		if len(bins) <= 512 {
 			break
 		}
 		q *= 2
 	}
-	d.bins = bins
-	return bins
+	d.bins, d.binOf = bins, binOf
+	return bins, binOf
 }
 
+// colourStats fills stats for hue or lightness over the colour bins.
 func (d *display) colourStats(c Channel, st *channelStats) {
 	n := len(d.marks)
-	type bin = colourBin
-	bins := d.colourBins()
-	list := make([]*bin, 0, len(bins))
-	for _, b := range bins {
-		list = append(list, b)
-	}
-	sort.Slice(list, func(i, j int) bool { return list[i].rep < list[j].rep })
+	list, binOf := d.colourBins()
 	B := len(list)
 	dm := make([]float64, B*B)
 	for i := 0; i < B; i++ {
@@ -391,7 +416,8 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 			}
 		}
 	}
-	var distractorBins []*colourBin
+	var distractorBins []colourBin
+	groupOf, globalOf := make([]int, B), make([]float64, B)
 	for i, bi := range list {
 		g := bi.count
 		for j, bj := range list {
@@ -420,10 +446,11 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		if math.IsInf(global, 1) {
 			global = 0
 		}
-		for _, k := range bi.members {
-			st.group[k] = g
-			st.global[k] = global
-		}
+		groupOf[i], globalOf[i] = g, global
+	}
+	for k, ci := range d.cols.of {
+		b := binOf[ci]
+		st.group[k], st.global[k] = groupOf[b], globalOf[b]
 	}
 	// Spread: the 90th percentile of the distractors' distances from their
 	// mean colour, which, like spread1's half interdecile range, measures

@@ -285,3 +285,44 @@ func TestCVDEmphasisOnlyAgrees(t *testing.T) {
 		}
 	}
 }
+
+func TestFixVerificationMatchesFreshAnalysis(t *testing.T) {
+	// Verifying a fix reuses the analysis's neighbours and channels; on a
+	// chart large enough to be put in spatial order (2,000 marks), every
+	// candidate colour verify accepts or refuses is accepted or refused by
+	// a fresh analysis of the recoloured chart.
+	g1, g2 := colour.MustHex("#3a9b3a"), colour.MustHex("#449f40")
+	const target = 1234
+	marks := gridDisplay(2000, 5, func(i int, m *Mark) {
+		m.Colour = g1
+		if i%3 == 0 {
+			m.Colour = colour.MustHex("#4c78a8")
+		}
+		if i == target {
+			m.Colour = g2
+		}
+	})
+	in := Input{Marks: marks, Background: colour.MustHex("#ffffff"), Emphasis: []int{target}}
+	res := Analyse(in, DefaultParams)
+	require.False(t, res.Holds[0])
+	agreed := map[bool]int{}
+	for _, c := range []string{"#d62728", "#111111", "#ff7f0e", "#9467bd", "#3c9c3c", "#e7e7e7"} {
+		col := colour.MustHex(c)
+		got := verify(in, DefaultParams, []int{target}, res, func(i int, m *Mark) {
+			if i == target {
+				m.Colour = col
+			}
+		})
+		fixed := append([]Mark(nil), marks...)
+		fixed[target].Colour = col
+		fresh := Analyse(Input{Marks: fixed, Background: in.Background, Emphasis: []int{target}}, DefaultParams)
+		want := true
+		for _, h := range fresh.Holds {
+			want = want && h
+		}
+		assert.Equal(t, want, got, "recolouring the emphasis %s", c)
+		agreed[want]++
+	}
+	assert.NotZero(t, agreed[true], "some colour must fix it")
+	assert.NotZero(t, agreed[false], "some colour must not")
+}

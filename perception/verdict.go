@@ -183,7 +183,9 @@ func neighboursXY(xs, ys []float64, k int) [][]int {
 	if n < 2 || k <= 0 {
 		return nil
 	}
-	g := newGrid(xs, ys)
+	// About k/2 points a cell: the k nearest then usually lie within the
+	// first ring of cells.
+	g := newGrid(xs, ys, math.Max(2, float64(k)/2))
 	nb := make([][]int, n)
 	flat := make([]int, n*k)
 	ds := make([]float64, 0, k)
