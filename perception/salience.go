@@ -64,7 +64,7 @@ type MarkResult struct {
 type display struct {
 	p     *Params
 	marks []Mark
-	idx   []int // indices into the Input's marks
+	idx   []int        // indices into the Input's marks
 	lab   []colour.Lab // per mark, under the display's vision
 	cols  *palette     // the marks' distinct colours
 	clab  []colour.Lab // per distinct colour, under the display's vision
