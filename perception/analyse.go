@@ -88,8 +88,8 @@ func Analyse(in Input, p Params) *Result {
 			var rs []MarkResult
 			if targets != nil {
 				rs = d.judgeSome(targets)
-				for _, j := range targets {
-					res.Marks[idx[j]][vi] = rs[j]
+				for t, j := range targets {
+					res.Marks[idx[j]][vi] = rs[t]
 				}
 				continue
 			}

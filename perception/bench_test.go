@@ -58,3 +58,14 @@ func BenchmarkOverlayAnalyse5k(b *testing.B) {
 func BenchmarkAnalyse1k(b *testing.B)   { benchAnalyse(b, 1000) }
 func BenchmarkAnalyse10k(b *testing.B)  { benchAnalyse(b, 10000) }
 func BenchmarkAnalyse100k(b *testing.B) { benchAnalyse(b, 100000) }
+
+// BenchmarkNeighbours5k is the k-nearest-neighbour lists of 5,000
+// scattered marks, the analysis's spatial index.
+func BenchmarkNeighbours5k(b *testing.B) {
+	in := benchMarks(5000)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		neighbours(in.Marks, DefaultParams.Neighbours)
+	}
+}

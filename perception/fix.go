@@ -207,12 +207,15 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 	for _, v := range Visions {
 		d := newDisplayShared(&p, ms, idx, v, p.Severity, sh)
 		d.nb, d.reuse = nb, reuse
-		var r []MarkResult
 		if reuse.have {
-			r = d.judgeSome(targets)
-		} else {
-			r = d.judge()
+			for _, r := range d.judgeSome(targets) {
+				if r.Verdict != Pops {
+					return false
+				}
+			}
+			continue
 		}
+		r := d.judge()
 		for _, i := range em {
 			if r[pos[i]].Verdict != Pops {
 				return false

@@ -11,14 +11,14 @@ func (d *display) judge() []MarkResult { return d.judgeSome(nil) }
 // colourChannel reports whether a channel depends on the vision type.
 func colourChannel(ci int) bool { return Channels[ci] == Hue || Channels[ci] == Lightness }
 
-// judgeSome computes verdicts; with only non-nil, just for those marks
-// (the others are left empty). Channels that do not depend on colour are
-// taken from d.reuse when a previous vision type computed them.
+// judgeSome computes every mark's verdict or, with only non-nil, just the
+// salience and pop-out of those marks, returned in the order of only.
+// Channels that do not depend on colour are taken from d.reuse when a
+// previous vision type computed them.
 func (d *display) judgeSome(only []int) []MarkResult {
 	n := len(d.marks)
-	res := make([]MarkResult, n)
 	if n == 0 {
-		return res
+		return make([]MarkResult, len(only))
 	}
 	var statList [5]channelStats
 	for ci, c := range Channels {
@@ -36,7 +36,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 	// One backing array for every mark's channel list: fewer allocations.
 	chBuf := make([]Channel, 0, n/4+8)
 	hueCI, lightCI := 0, 1 // positions of Hue and Lightness in Channels
-	one := func(k int) {
+	one := func(k int) MarkResult {
 		r := MarkResult{}
 		for ci, c := range Channels {
 			if reuse && !colourChannel(ci) {
@@ -110,16 +110,18 @@ func (d *display) judgeSome(only []int) []MarkResult {
 		if len(r.Channels) > 0 {
 			r.Verdict = Pops
 		}
-		res[k] = r
+		return r
 	}
 	if only != nil {
-		for _, k := range only {
-			one(k)
+		res := make([]MarkResult, len(only))
+		for t, k := range only {
+			res[t] = one(k)
 		}
 		return res
 	}
+	res := make([]MarkResult, n)
 	for k := range d.marks {
-		one(k)
+		res[k] = one(k)
 	}
 	if d.reuse != nil && !d.reuse.have {
 		d.reuse.have = true
