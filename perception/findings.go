@@ -146,17 +146,31 @@ func contrastFindings(in Input) []Finding {
 		cr    float64
 		text  bool
 	}
-	low := map[string]*agg{}
-	var keys []string
-	crCache := map[colour.SRGB]float64{}
-	ratio := func(c colour.SRGB) float64 {
-		v, ok := crCache[c]
-		if !ok {
-			v = colour.ContrastRatio(c, in.Background)
-			crCache[c] = v
+	// Marks are grouped by their colour as CSS writes it (8-bit hex).
+	type key [3]uint8
+	low := map[key]*agg{}
+	var keys []key
+	type known struct {
+		cr float64
+		k  key
+	}
+	cache := map[colour.SRGB]known{}
+	var lastC colour.SRGB
+	var last known
+	lookup := func(c colour.SRGB) known {
+		if c == lastC && last.cr != 0 {
+			return last
 		}
+		v, ok := cache[c]
+		if !ok {
+			r, g, b := c.RGB8()
+			v = known{colour.ContrastRatio(c, in.Background), key{r, g, b}}
+			cache[c] = v
+		}
+		lastC, last = c, v
 		return v
 	}
+	ratio := func(c colour.SRGB) float64 { return lookup(c).cr }
 	for i, m := range in.Marks {
 		if m.Kind == "cell" {
 			continue // heat maps fall under the "essential" exception of SC 1.4.11
@@ -172,18 +186,19 @@ func contrastFindings(in Input) []Finding {
 		if cr >= need {
 			continue
 		}
-		h := m.Colour.Hex()
-		a, ok := low[h]
+		k := lookup(m.Colour).k
+		a, ok := low[k]
 		if !ok {
 			a = &agg{cr: cr, text: m.Kind == "text"}
-			low[h] = a
-			keys = append(keys, h)
+			low[k] = a
+			keys = append(keys, k)
 		}
 		a.marks = append(a.marks, i)
 	}
 	var out []Finding
-	for _, h := range keys {
-		a := low[h]
+	for _, k := range keys {
+		a := low[k]
+		h := colour.SRGB8(k[0], k[1], k[2]).Hex()
 		if a.text {
 			out = append(out, Finding{ID: "text-contrast-low", Severity: Warning, Marks: a.marks,
 				Message: fmt.Sprintf("%d text %s in %s %s %.2f:1 against the background; text needs 4.5:1.", len(a.marks), plural(len(a.marks), "mark", "marks"), h, plural(len(a.marks), "has", "have"), math.Floor(a.cr*100)/100),

@@ -123,14 +123,15 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 			nn[k] = math.Hypot(xs[j]-xs[k], ys[j]-ys[k])
 		}
 	}
-	sorted := append([]float64(nil), nn...)
-	sort.Float64s(sorted)
-	thr := p.ProximityRatio * sorted[n/2]
+	nnSorted := append([]float64(nil), nn...)
+	sort.Float64s(nnSorted)
+	thr := p.ProximityRatio * nnSorted[n/2]
 	uf := newUF(n)
 	if thr > 0 {
+		thr2 := thr * thr
 		for k := range g.Marks {
 			for _, j := range nb[k] {
-				if math.Hypot(xs[j]-xs[k], ys[j]-ys[k]) <= thr {
+				if dx, dy := xs[j]-xs[k], ys[j]-ys[k]; dx*dx+dy*dy <= thr2 {
 					uf.union(k, j)
 				}
 			}
@@ -211,25 +212,29 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 	}
 
 	// Alignment: shared rows and columns (centres within 1 px).
+	type keyed struct {
+		v float64
+		k int
+	}
+	sorted := make([]keyed, n)
 	for _, cue := range []Cue{CueRows, CueColumns} {
 		uf = newUF(n)
-		idx := make([]int, n)
-		for k := range idx {
-			idx[k] = k
-		}
 		coord := ys
 		if cue == CueColumns {
 			coord = xs
 		}
-		slices.SortFunc(idx, func(a, b int) int {
-			if c := cmp.Compare(coord[a], coord[b]); c != 0 {
+		for k, v := range coord {
+			sorted[k] = keyed{v, k}
+		}
+		slices.SortFunc(sorted, func(a, b keyed) int {
+			if c := cmp.Compare(a.v, b.v); c != 0 {
 				return c
 			}
-			return cmp.Compare(a, b)
+			return cmp.Compare(a.k, b.k)
 		})
 		for a := 1; a < n; a++ {
-			if coord[idx[a]]-coord[idx[a-1]] <= 1 {
-				uf.union(idx[a], idx[a-1])
+			if sorted[a].v-sorted[a-1].v <= 1 {
+				uf.union(sorted[a].k, sorted[a-1].k)
 			}
 		}
 		g.add(cue, uf)

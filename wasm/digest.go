@@ -110,7 +110,7 @@ func appendDigest(b []byte, source string, problems []string, as []report.Analys
 				if k > 0 {
 					b = append(b, ',')
 				}
-				b = appendFloat(b, math.Round(v*100)/100)
+				b = appendHundredths(b, v)
 			}
 		}
 		b = append(b, `],"verdicts":"`...)
@@ -211,6 +211,30 @@ func appendFloat(b []byte, f float64) []byte {
 		return append(b, "null"...)
 	}
 	return strconv.AppendFloat(b, f, 'f', -1, 64)
+}
+
+// appendHundredths writes v rounded to hundredths: the same number as
+// appendFloat(math.Round(v*100)/100), without strconv's general
+// shortest-form search, which dominated the digest's encoding.
+func appendHundredths(b []byte, v float64) []byte {
+	n := math.Round(v * 100)
+	if !(math.Abs(n) < 1<<53) {
+		return appendFloat(b, n/100)
+	}
+	k := int64(n)
+	if k < 0 {
+		b = append(b, '-')
+		k = -k
+	}
+	b = strconv.AppendInt(b, k/100, 10)
+	switch f := k % 100; {
+	case f == 0:
+	case f%10 == 0:
+		b = append(b, '.', byte('0'+f/10))
+	default:
+		b = append(b, '.', byte('0'+f/10), byte('0'+f%10))
+	}
+	return b
 }
 
 // appendInts writes the indices of v that lie within [0, n).
