@@ -174,7 +174,9 @@ func (h *harness) stopWorker(tb testing.TB) {
 //   - floor-ms: a loop reading every element's computed paint, CTM and box
 //     once in a new isolated world; floor-warm-ms its median over three more
 //     runs in that world;
-//   - read, core and render: the warm presses' median steps, in ms.
+//   - read (the read pass in the page), read-trip (from the service
+//     worker's call to the page's answer, the read included), core and
+//     render: the warm presses' median steps, in ms.
 //
 // Run with:
 //
@@ -183,7 +185,7 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 	for _, n := range []int{1000, 5000, 20000} {
 		body := scatterPage(n)
 		b.Run(fmt.Sprint(n), func(b *testing.B) {
-			var cold, restart, warm, paint, floor, floorWarm, read, core, render float64
+			var cold, restart, warm, paint, floor, floorWarm, read, trip, core, render float64
 			for i := 0; i < b.N; i++ {
 				h := newHarness(b)
 				srv := serve(b, func(w http.ResponseWriter, r *http.Request) {
@@ -194,16 +196,19 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 				cold += h.clickToOverlay(b).Ready
 				h.trigger() // close
 				h.waitState("")
-				var ws, ps, rs, cs, ds []float64
+				var ws, ps, rs, ts, cs, ds []float64
 				for k := 0; k < 5; k++ {
 					p := h.clickToOverlay(b)
 					ws, ps = append(ws, p.Ready), append(ps, p.Painted)
-					rs, cs, ds = append(rs, p.Timing.ReadTripMs), append(cs, p.Timing.CoreMs), append(ds, p.Timing.RenderMs)
+					rs, ts = append(rs, p.Timing.ReadMs), append(ts, p.Timing.ReadTripMs)
+					cs, ds = append(cs, p.Timing.CoreMs), append(ds, p.Timing.RenderMs)
+					b.Logf("%d marks, warm press %d: %.0f ms to ready, %.0f ms to the frame; %+v", n, k, p.Ready, p.Painted, p.Timing)
 					h.trigger()
 					h.waitState("")
 				}
 				warm, paint = warm+median(ws), paint+median(ps)
-				read, core, render = read+median(rs), core+median(cs), render+median(ds)
+				read, trip = read+median(rs), trip+median(ts)
+				core, render = core+median(cs), render+median(ds)
 				fc, fw := h.floor(b)
 				floor, floorWarm = floor+fc, floorWarm+fw
 				h.stopWorker(b)
@@ -219,6 +224,7 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 			b.ReportMetric(warm/floor, "warm/floor")
 			b.ReportMetric(warm/floorWarm, "warm/floor-warm")
 			b.ReportMetric(read/k, "read-ms")
+			b.ReportMetric(trip/k, "read-trip-ms")
 			b.ReportMetric(core/k, "core-ms")
 			b.ReportMetric(render/k, "render-ms")
 		})

@@ -18,7 +18,7 @@ var verdictInk = map[string]struct {
 }{
 	"pops":        {color.RGBA{0x0f, 0x76, 0x6e, 0xff}, 3, nil, "notch"},
 	"conjunction": {color.RGBA{0xb4, 0x53, 0x09, 0xff}, 2, []int{7, 3}, "ring"},
-	"blends":      {color.RGBA{0x52, 0x52, 0x5b, 0xff}, 1, []int{2, 3}, ""},
+	"blends":      {color.RGBA{0x52, 0x52, 0x5b, 0xff}, 1, nil, ""},
 }
 
 // Annotate crops a full-page screenshot (1 image px per CSS px) to a
