@@ -2,6 +2,7 @@ package dom
 
 import (
 	"bytes"
+	"encoding/json"
 	"os"
 	"path/filepath"
 	"strings"
@@ -52,6 +53,27 @@ func BenchmarkPathParse(b *testing.B) {
 	b.ReportAllocs()
 	for i := 0; i < b.N; i++ {
 		if _, _, err := ParsePath(d); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkDecodePage10k decodes a read pass's page of 10,000 circles, as
+// the extension's core does on every check.
+func BenchmarkDecodePage10k(b *testing.B) {
+	p, err := Build(strings.NewReader(manyCircles(10000)), Options{Source: "bench"})
+	if err != nil {
+		b.Fatal(err)
+	}
+	page, err := json.Marshal(map[string]any{"source": "bench", "snapshots": p.Charts, "problems": []string{}})
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.SetBytes(int64(len(page)))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := DecodePage(page); err != nil {
 			b.Fatal(err)
 		}
 	}

@@ -311,7 +311,11 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 		if err != nil {
 			return err
 		}
-		nd := Node{Parent: int32(p), Tag: w.Tags[tag], Flags: uint8(flags), Fill: paints[fill], Stroke: paints[stroke]}
+		// Built in place: a Node is large, and copying one into the slice
+		// costs a write barrier per pointer while the collector runs.
+		s.Nodes = append(s.Nodes, Node{})
+		nd := &s.Nodes[len(s.Nodes)-1]
+		nd.Parent, nd.Tag, nd.Flags, nd.Fill, nd.Stroke = int32(p), w.Tags[tag], uint8(flags), paints[fill], paints[stroke]
 		if len(v)-r.i < 4 {
 			return r.errorf("the record is cut short")
 		}
@@ -387,7 +391,6 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 			}
 		}
 		nameAt = append(nameAt, [2]int32{int32(start), int32(len(names))})
-		s.Nodes = append(s.Nodes, nd)
 	}
 	all := string(names)
 	for i := range s.Nodes {

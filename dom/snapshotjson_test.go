@@ -2,6 +2,7 @@ package dom
 
 import (
 	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -233,6 +234,29 @@ func FuzzFastFloat(f *testing.F) {
 		want, err := strconv.ParseFloat(s, 64)
 		if err != nil || want != got && !(want == 0 && got == 0) {
 			t.Fatalf("fastFloat(%q) = %v, ParseFloat = %v, %v", s, got, want, err)
+		}
+	})
+}
+
+func FuzzPlainNumber(f *testing.F) {
+	for _, s := range []string{"12.5", "-0.001", "123456789012345", "0", "-0", "01", "1.", "1e5", "1234567890123456", "0.0000000000000000000001", "7]"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		// The one-pass reader agrees with the general one wherever it
+		// accepts, and consumes the same bytes.
+		fast := scanner{b: []byte(s)}
+		got, ok := fast.plainNumber()
+		if !ok {
+			if fast.i != 0 {
+				t.Fatalf("%q: refused but moved to %d", s, fast.i)
+			}
+			return
+		}
+		slow := scanner{b: []byte(s)}
+		want, err := slow.number()
+		if err != nil || want != got || fast.i != slow.i || math.Signbit(want) != math.Signbit(got) {
+			t.Fatalf("%q: plainNumber %v (to %d), number %v, %v (to %d)", s, got, fast.i, want, err, slow.i)
 		}
 	})
 }

@@ -191,6 +191,17 @@
     ];
   }
 
+  // invert returns the inverse of an affine matrix, or null when it is
+  // singular.
+  function invert(m) {
+    const det = m[0] * m[3] - m[1] * m[2];
+    if (!det || !isFinite(det)) return null;
+    return [
+      m[3] / det, -m[1] / det, -m[2] / det, m[0] / det,
+      (m[2] * m[5] - m[3] * m[4]) / det, (m[1] * m[4] - m[0] * m[5]) / det,
+    ];
+  }
+
   function sameMatrix(p, q) {
     return p[0] === q[0] && p[1] === q[1] && p[2] === q[2] && p[3] === q[3] && p[4] === q[4] && p[5] === q[5];
   }
@@ -234,7 +245,6 @@
   const R_FO = 7;
   const R_SO = 8;
   const R_SW = 10;
-  const R_FIXED = 11;
 
   // Reads one outermost <svg> into a snapshot in its columnar JSON form
   // (dom/snapshotjson.go). off maps the client coordinates of the
@@ -292,31 +302,52 @@
       return i;
     };
     const nameOf = (i) => {
-      const [parent, link, explicit] = nameParts[i];
-      if (explicit !== undefined) return explicit;
+      const [parent, link] = nameParts[i];
       if (parent < 0) return path;
       return nameOf(parent) + link;
     };
 
+    // screenCTM is el's transform to page px: the screen CTM plus the
+    // scroll (and frame) offset. vp is el's nearest viewport ({} when its
+    // mapping to the screen is not known yet): getCTM, which maps to the
+    // viewport, costs about half of getScreenCTM, and the viewport's own
+    // mapping to the screen is the same for every element in it.
+    const screenCTM = (el, vp) => {
+      let m;
+      if (!el.getCTM) {
+        m = null; // not a graphics element (<title>, <style>, …)
+      } else if (vp && vp.toScreen === undefined) {
+        const sc = el.getScreenCTM();
+        const c = el.getCTM();
+        const inv = c && sc && invert(matrixOf(c));
+        vp.toScreen = inv ? mul(matrixOf(sc), inv) : null;
+        m = sc ? matrixOf(sc) : null;
+      } else if (vp && vp.toScreen) {
+        const c = el.getCTM();
+        m = c ? mul(vp.toScreen, matrixOf(c)) : null;
+      } else {
+        const sc = el.getScreenCTM();
+        m = sc ? matrixOf(sc) : null;
+      }
+      if (!m) return [1, 0, 0, 1, sx, sy];
+      m[4] += sx;
+      m[5] += sy;
+      return m;
+    };
+
     // add appends el's record and reads its subtree. k is its index among
     // its parent's element children, or -1 for content a <use>
-    // instantiates; explicitName overrides the derived name.
-    const add = (el, parent, k, ctmOverride, useDepth, explicitName) => {
+    // instantiates; vp is its nearest viewport.
+    const add = (el, parent, k, vp, ctmOverride, useDepth) => {
       const tag = el.localName.toLowerCase();
       const cs = getComputedStyle(el);
-      let m;
-      if (ctmOverride) {
-        m = mul(ctmOverride, ownTransform(el));
-      } else {
-        const sc = el.getScreenCTM && el.getScreenCTM();
-        // Page coordinates: the screen CTM plus the scroll (and frame) offset.
-        m = sc ? [sc.a, sc.b, sc.c, sc.d, sc.e + sx, sc.f + sy] : [1, 0, 0, 1, sx, sy];
-      }
+      // An <svg> is a viewport of its own: measured directly.
+      const m = ctmOverride ? mul(ctmOverride, ownTransform(el)) : screenCTM(el, tag === 'svg' ? null : vp);
       const idx = start.length;
       const at = nodes.length;
       start.push(at);
       ctms.push(m);
-      nameParts.push([parent, k < 0 ? '>' + tag : '/' + tag + k, explicitName]);
+      nameParts.push([parent, k < 0 ? '>' + tag : '/' + tag + k]);
       let fi = paint(cs.fill);
       let si = paint(cs.stroke);
       // Content instantiated by <use> inherits from the <use>, not from
@@ -380,11 +411,6 @@
         nodes.push(strs.length);
         strs.push(al);
       }
-      if (explicitName !== undefined) {
-        has |= HAS_NAME;
-        nodes.push(strs.length);
-        strs.push(explicitName);
-      }
       nodes[at + 3] = has;
       if (el.hasAttribute('data-standout-emphasis') || (emphasis && el.matches(emphasis))) sel.push(idx);
       if (isText || NOT_RENDERED.has(tag)) return;
@@ -392,11 +418,12 @@
         expandUse(el, idx, m, useDepth);
         return;
       }
-      let ck = 0;
-      for (const c of el.children) {
-        const i = ck++;
+      const childVp = tag === 'svg' ? {} : vp;
+      let i = 0;
+      // Sibling links: iterating el.children costs ten times as much.
+      for (let c = el.firstElementChild; c; c = c.nextElementSibling, i++) {
         if (c.namespaceURI !== SVG_NS) continue;
-        add(c, idx, i, ctmOverride ? m : null, useDepth);
+        add(c, idx, i, childVp, ctmOverride ? m : null, useDepth);
       }
     };
     const expandUse = (el, idx, m, depth) => {
@@ -415,7 +442,7 @@
       const uy = el.y ? el.y.baseVal.value : 0;
       const base = mul(m, [1, 0, 0, 1, ux, uy]);
       if (target.localName !== 'symbol') {
-        add(target, idx, -1, base, depth + 1);
+        add(target, idx, -1, null, base, depth + 1);
         return;
       }
       // As the static builder does (dom/build.go): a symbol is a nested
@@ -441,21 +468,19 @@
       const at = nodes.length;
       start.push(at);
       ctms.push(inner);
-      nameParts.push([idx, '>symbol', undefined]);
+      nameParts.push([idx, '>symbol']);
       const fi = dp && cs.fill === dp.fill ? nodes[up + R_FILL] : paint(cs.fill);
       const si = dp && cs.stroke === dp.stroke ? nodes[up + R_STROKE] : paint(cs.stroke);
       nodes.push(idx, tagOf('g'), -1, HAS_CTM | HAS_NAME, 0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1);
       nodes.push(inner[0], inner[1], inner[2], inner[3], inner[4], inner[5]);
       nodes.push(strs.length);
       strs.push(nameOf(idx) + '>symbol');
-      let ck = 0;
-      for (const c of target.children) {
-        const i = ck++;
-        if (c.namespaceURI === SVG_NS) add(c, gi, i, inner, depth + 1);
+      let i = 0;
+      for (let c = target.firstElementChild; c; c = c.nextElementSibling, i++) {
+        if (c.namespaceURI === SVG_NS) add(c, gi, i, null, inner, depth + 1);
       }
     };
-    add(svg, -1, 0, null, 0);
-    void R_FIXED;
+    add(svg, -1, 0, null, null, 0);
     const snap = {
       v: SNAPSHOT_VERSION,
       source: svg.ownerDocument.location.href,
