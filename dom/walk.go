@@ -547,14 +547,21 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 		dx, dy float64
 	}
 	var pairs []pair
-	siblings := map[int32]int{}
+	// Per parent node, its candidate children (parents are node indices).
+	top := int32(0)
 	for _, c := range cands {
-		siblings[c.n.Parent]++
+		top = max(top, c.n.Parent+1)
+	}
+	siblings := make([]int, top)
+	for _, c := range cands {
+		if c.n.Parent >= 0 {
+			siblings[c.n.Parent]++
+		}
 	}
 	for _, c := range cands {
 		// Legend entries come in small groups; a swatch is never one of
 		// dozens of siblings.
-		if c.role != "" || siblings[c.n.Parent] > 20 {
+		if c.role != "" || c.n.Parent >= 0 && siblings[c.n.Parent] > 20 {
 			continue
 		}
 		b := c.g.BBox
@@ -631,6 +638,14 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 // kind of glyph many times, while regions (maps, areas) vary.
 func assignKinds(cands []*cand) {
 	groups := map[int32][]*cand{}
+	// Siblings come in runs: append to the last parent's group without a
+	// map lookup.
+	lastParent, last := int32(-2), []*cand(nil)
+	flush := func() {
+		if last != nil {
+			groups[lastParent] = last
+		}
+	}
 	for _, c := range cands {
 		if c.role != "" {
 			continue
@@ -642,7 +657,11 @@ func assignKinds(cands []*cand) {
 		case c.n.Tag == "circle" || c.n.Tag == "ellipse":
 			c.kind = KindPoint
 		case g.Closed && len(g.Subpaths) == 1:
-			groups[c.n.Parent] = append(groups[c.n.Parent], c)
+			if c.n.Parent != lastParent {
+				flush()
+				lastParent, last = c.n.Parent, groups[c.n.Parent]
+			}
+			last = append(last, c)
 		case !g.Closed && symbolStrokes(g):
 			c.kind = KindPoint
 		case !g.Closed:
@@ -655,6 +674,7 @@ func assignKinds(cands []*cand) {
 			c.kind = KindArea
 		}
 	}
+	flush()
 	for _, grp := range groups {
 		// The most common shape class (and corner count) in the group.
 		type sig struct {

@@ -42,14 +42,20 @@ func Analyse(in Input, p Params) *Result {
 	for i := range res.Marks {
 		res.Marks[i] = flat[i*len(Visions) : (i+1)*len(Visions) : (i+1)*len(Visions)]
 	}
-	kinds := map[string][]int{}
+	kindIx := newIndexer[string]()
+	kindOf := make([]int, n)
 	for i, m := range in.Marks {
-		kinds[m.Kind] = append(kinds[m.Kind], i)
+		kindOf[i] = kindIx.of(m.Kind)
 	}
-	keys := make([]string, 0, len(kinds))
-	for k := range kinds {
-		keys = append(keys, k)
+	lists := make([][]int, len(kindIx.keys))
+	for i, k := range kindOf {
+		lists[k] = append(lists[k], i)
 	}
+	kinds := make(map[string][]int, len(lists))
+	for k, l := range lists {
+		kinds[kindIx.keys[k]] = l
+	}
+	keys := append([]string(nil), kindIx.keys...)
 	sort.Strings(keys)
 	nbs := map[string][][]int{}
 	kindMarks := map[string][]Mark{}
@@ -109,7 +115,7 @@ func Analyse(in Input, p Params) *Result {
 	var only map[string][]int
 	if p.CVDEmphasisOnly {
 		only = map[string][]int{}
-		pos := map[int]int{}
+		pos := make([]int, n)
 		for _, k := range keys {
 			for j, i := range kinds[k] {
 				pos[i] = j

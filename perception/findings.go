@@ -223,33 +223,37 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 	}
 	// Categories are compared within one kind of mark: the colour of a
 	// connecting line is no category of the dots it joins.
-	kindCount := map[string]int{}
-	for _, m := range in.Marks {
-		if m.Kind != "text" {
-			kindCount[m.Kind]++
+	kinds := newIndexer[string]()
+	var kindCount []int
+	for i := range in.Marks {
+		if m := &in.Marks[i]; m.Kind != "text" {
+			k := kinds.of(m.Kind)
+			if k == len(kindCount) {
+				kindCount = append(kindCount, 0)
+			}
+			kindCount[k]++
 		}
 	}
-	main := ""
+	main, mainN := "", 0
 	for k, n := range kindCount {
-		if n > kindCount[main] || n == kindCount[main] && k < main {
-			main = k
+		if name := kinds.keys[k]; n > mainN || n == mainN && name < main {
+			main, mainN = name, n
 		}
 	}
-	byHex := map[colour.SRGB]*col{}
+	colours := newIndexer[colour.SRGB]()
 	var cols []*col
-	shapes := map[string]bool{}
-	for i, m := range in.Marks {
+	shapes := newIndexer[string]()
+	for i := range in.Marks {
+		m := &in.Marks[i]
 		if m.Kind != main {
 			continue
 		}
-		shapes[m.Shape] = true
-		c, ok := byHex[m.Colour]
-		if !ok {
-			c = &col{c: m.Colour, nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)}
-			byHex[m.Colour] = c
-			cols = append(cols, c)
+		shapes.of(m.Shape)
+		c := colours.of(m.Colour)
+		if c == len(cols) {
+			cols = append(cols, &col{c: m.Colour, nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)})
 		}
-		c.marks = append(c.marks, i)
+		cols[c].marks = append(cols[c].marks, i)
 	}
 	if len(cols) < 2 || len(cols) > 20 {
 		return out // one colour, or a continuous ramp
@@ -280,7 +284,7 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 			multi++
 		}
 	}
-	if distinct >= 2 && multi >= 2 && len(shapes) == 1 && !in.Labelled {
+	if distinct >= 2 && multi >= 2 && len(shapes.keys) == 1 && !in.Labelled {
 		// SC 1.4.1: colour alone, unless the colours also differ by 3:1.
 		lumOK := true
 		for a := range cols {

@@ -147,17 +147,15 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 		nd  [3]float64
 		ks  []int
 	}
-	bins := map[colour.SRGB]*cbin{}
+	colours := newIndexer[colour.SRGB]()
 	var order []*cbin
 	for k, i := range g.Marks {
-		m := in.Marks[i]
-		b, ok := bins[m.Colour]
-		if !ok {
-			b = &cbin{c: m.Colour, lab: colour.SRGBToLab(m.Colour), nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)}
-			bins[m.Colour] = b
-			order = append(order, b)
+		m := &in.Marks[i]
+		c := colours.of(m.Colour)
+		if c == len(order) {
+			order = append(order, &cbin{c: m.Colour, lab: colour.SRGBToLab(m.Colour), nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)})
 		}
-		b.ks = append(b.ks, k)
+		order[c].ks = append(order[c].ks, k)
 	}
 	uf = newUF(n)
 	if len(order) <= 2048 {
@@ -177,13 +175,14 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 
 	// Shape class.
 	uf = newUF(n)
-	first := map[string]int{}
+	shapes := newIndexer[string]()
+	var first []int
 	for k, i := range g.Marks {
-		s := in.Marks[i].Shape
-		if f, ok := first[s]; ok {
-			uf.union(f, k)
+		s := shapes.of(in.Marks[i].Shape)
+		if s == len(first) {
+			first = append(first, k)
 		} else {
-			first[s] = k
+			uf.union(first[s], k)
 		}
 	}
 	g.add(CueShape, uf)

@@ -155,17 +155,17 @@ func newDisplayShared(p *Params, ms []Mark, idx []int, v colour.Deficiency, seve
 		d.nd = make([][3]float64, n)
 		d.size = make([]float64, n)
 		d.ori = make([]float64, n)
-		ndCache := map[[3]float64][3]float64{}
+		ndIx := newIndexer[[3]float64]()
+		var nds [][3]float64
 		fold := -1
 		for k := range ms {
 			m := &ms[k]
 			key := [3]float64{float64(m.Type), math.Round(m.MinPx*4) / 4, math.Round(m.MaxPx)}
-			nd, ok := ndCache[key]
-			if !ok {
-				nd = p.ND.For(m.Type, key[1], key[2])
-				ndCache[key] = nd
+			i := ndIx.of(key)
+			if i == len(nds) {
+				nds = append(nds, p.ND.For(m.Type, key[1], key[2]))
 			}
-			d.nd[k] = nd
+			d.nd[k] = nds[i]
 			exp := p.StevensArea
 			if m.Length {
 				exp = p.StevensLength
@@ -262,20 +262,28 @@ func (d *display) stats(c Channel) channelStats {
 	case Hue, Lightness:
 		d.colourStats(c, &st)
 	case Shape:
-		count := map[string]int{}
-		for _, m := range d.marks {
-			count[m.Shape]++
-		}
-		distractorShapes := map[string]bool{}
+		shapes := newIndexer[string]()
+		of := make([]int, n)
+		var count []int
 		for k, m := range d.marks {
-			st.group[k] = count[m.Shape]
-			if count[m.Shape] <= d.small && count[m.Shape] < n {
+			of[k] = shapes.of(m.Shape)
+			if of[k] == len(count) {
+				count = append(count, 0)
+			}
+			count[of[k]]++
+		}
+		distractor := make([]bool, len(count))
+		distractors := 0
+		for k, i := range of {
+			st.group[k] = count[i]
+			if count[i] <= d.small && count[i] < n {
 				st.global[k] = 1
-			} else {
-				distractorShapes[m.Shape] = true
+			} else if !distractor[i] {
+				distractor[i] = true
+				distractors++
 			}
 		}
-		st.spread = math.Max(0, float64(len(distractorShapes)-1))
+		st.spread = math.Max(0, float64(distractors-1))
 	}
 	return st
 }
