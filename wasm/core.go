@@ -18,7 +18,7 @@ import (
 
 // Request is what the extension sends.
 type Request struct {
-	// Type is "analyse", or "warm-up" (warmUp) with nothing else.
+	// Type is "analyse".
 	Type   string `json:"type"`
 	Source string `json:"source"`
 	// Snapshots are the charts the read pass found.
@@ -59,9 +59,6 @@ func Handle(req []byte) (out []byte) {
 	var q Request
 	if err := json.Unmarshal(req, &q); err != nil {
 		return errorResponse("bad request: " + err.Error())
-	}
-	if q.Type == "warm-up" {
-		return warmUp(warmUpMarks)
 	}
 	return handle(&q, t0)
 }

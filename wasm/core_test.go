@@ -163,13 +163,3 @@ func TestAppendHundredths(t *testing.T) {
 		assert.Equal(t, want, got, "%v: %s vs %s", v, gs, ws)
 	}
 }
-
-func TestWarmUp(t *testing.T) {
-	// The warm-up request runs the whole path on its invented chart and
-	// says only that it did.
-	var r Response
-	require.NoError(t, json.Unmarshal(Handle([]byte(`{"type":"warm-up"}`)), &r))
-	require.True(t, r.OK, r.Error)
-	assert.Nil(t, r.Overlay)
-	assert.Greater(t, r.Timing["warmUpMs"], 0.0)
-}
