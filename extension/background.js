@@ -32,55 +32,37 @@ function loadCore() {
 
 const SCRIPTS = ['cvd-filters.js', 'reader.js', 'overlay.js'];
 
-// inPage runs in the page's content-script world. With toggle set, it
-// closes an open check and says so; otherwise it reads the page. It
-// returns null when the scripts are not in the page yet.
-function inPage(toggle, emphasis) {
-  const overlay = globalThis.standoutOverlay;
-  if (!globalThis.standoutReader || !overlay) return null;
-  if (toggle && overlay.isOpen()) {
-    overlay.close();
-    return { closed: true };
+// run executes one injection in the tab and returns its result. The tab's
+// activeTab grant can land a moment after the action's click event (seen
+// when the action is pressed through the DevTools protocol under load):
+// a refused first access is retried briefly.
+async function run(tabId, injection) {
+  for (let attempt = 0; ; attempt++) {
+    try {
+      const [res] = await chrome.scripting.executeScript({ target: { tabId }, ...injection });
+      return res && res.result;
+    } catch (e) {
+      if (attempt >= 4 || !/Cannot access|permission/i.test(String(e && e.message))) throw e;
+      await new Promise((ok) => setTimeout(ok, 25 << attempt));
+    }
   }
-  const t0 = performance.now();
-  const page = globalThis.standoutReader.readPage(document, { emphasis });
-  const t1 = performance.now();
-  // One string crosses the messaging layer far faster than a large
-  // object, and it goes to the core as it is.
-  const json = JSON.stringify(page);
-  return { json, readMs: t1 - t0, stringifyMs: performance.now() - t1 };
 }
 
-// readPage runs inPage in the tab: one round trip when the scripts are
-// already there (they stay for the page's lifetime), two the first time.
-async function readPage(tabId, toggle) {
-  const run = async () => {
-    const [res] = await chrome.scripting.executeScript({ target: { tabId }, func: inPage, args: [toggle, ''] });
-    return res && res.result;
-  };
+// readPage reads the page, or with toggle closes an open check, in one
+// round trip. A press injects the scripts and press.js, whose value is the
+// press's outcome (the scripts do nothing when they are there already); a
+// re-run asks the overlay, which is there, to read again.
+async function readPage(tabId, toggle, emphasis) {
+  let r;
   try {
-    let r;
-    // The tab's activeTab grant can land a moment after the action's
-    // click event (seen when the action is pressed through the DevTools
-    // protocol under load): retry a refused first access briefly.
-    for (let attempt = 0; ; attempt++) {
-      try {
-        r = await run();
-        break;
-      } catch (e) {
-        if (attempt >= 4 || !/Cannot access|permission/i.test(String(e && e.message))) throw e;
-        await new Promise((ok) => setTimeout(ok, 25 << attempt));
-      }
-    }
-    if (r === null || r === undefined) {
-      await chrome.scripting.executeScript({ target: { tabId }, files: SCRIPTS });
-      r = await run();
-    }
-    if (!r) throw new Error('the read pass returned nothing');
-    return r;
+    r = toggle
+      ? await run(tabId, { files: [...SCRIPTS, 'press.js'] })
+      : await run(tabId, { func: (e) => globalThis.standoutOverlay.read(e), args: [emphasis || ''] });
   } catch (e) {
     throw new Error(`reading the page: ${(e && e.message) || e}`);
   }
+  if (!r) throw new Error('reading the page: the read pass returned nothing');
+  return r;
 }
 
 // analyse reads the page (unless read already holds its reading), runs
@@ -89,7 +71,7 @@ async function readPage(tabId, toggle) {
 // the steps, or {closed: true} when toggle closed an open check.
 async function analyse(tabId, { toggle = false, emphasis = [], severity, full = false } = {}) {
   const t0 = performance.now();
-  const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore()]);
+  const [read, loadMs] = await Promise.all([readPage(tabId, toggle, ''), loadCore()]);
   if (read.closed) return read;
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as

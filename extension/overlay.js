@@ -612,11 +612,28 @@
     state.open = false;
   }
 
-  // The background calls these through chrome.scripting.
-  globalThis.standoutOverlay = Object.freeze({
-    isOpen: () => state.open,
-    close: teardown,
-    show: render,
-    showError,
-  });
+  // read reads the page for the core: the read pass's result as one JSON
+  // string (it crosses the messaging layer far faster than a large object,
+  // and goes to the core as it is), with its timings.
+  function read(emphasis) {
+    const t0 = performance.now();
+    const page = globalThis.standoutReader.readPage(document, { emphasis });
+    const t1 = performance.now();
+    const json = JSON.stringify(page);
+    return { json, readMs: t1 - t0, stringifyMs: performance.now() - t1 };
+  }
+
+  // press is the toolbar action: it closes an open check, or reads the
+  // page for a new one.
+  function press() {
+    if (state.open) {
+      teardown();
+      return { closed: true };
+    }
+    return read('');
+  }
+
+  // The background calls these through chrome.scripting (press through
+  // press.js).
+  globalThis.standoutOverlay = Object.freeze({ press, read, show: render, showError });
 })();

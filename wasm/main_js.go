@@ -3,9 +3,17 @@
 package main
 
 import (
+	"runtime"
 	"runtime/debug"
+	"sync"
 	"syscall/js"
+	"time"
 )
+
+// memoryLimit is the heap size at which the collector runs within a
+// request. A 5,000-mark check allocates about 20 MB; a 100,000-mark one
+// reaches the limit and collects as it goes.
+const memoryLimit = 256 << 20
 
 // main registers globalThis.standoutHandle(requestJSON) → responseJSON
 // (or standoutHandle(optionsJSON, pageJSON), the extension's form) and
@@ -13,18 +21,32 @@ import (
 // waits on JavaScript, so calling it synchronously cannot deadlock.
 func main() {
 	// WebAssembly has one thread: the collector cannot run beside the
-	// analysis, and while it marks, every pointer write pays a barrier. A
-	// request allocates several times the heap it keeps, so collect at
-	// five times the live heap rather than twice (in Node, a 5,000-mark
-	// request: about 20% faster; the memory stays within a few tens of
-	// MB).
-	debug.SetGCPercent(400)
+	// analysis, and while it marks, every pointer write pays a barrier (a
+	// tenth of a warm request's time, more on the first, unoptimised one).
+	// So it runs only between requests, once the answer is on its way, or
+	// when the heap nears the memory limit within one (a very large chart).
+	debug.SetGCPercent(-1)
+	debug.SetMemoryLimit(memoryLimit)
+	var collect sync.Mutex
+	collectLater := func() {
+		if !collect.TryLock() {
+			return // one is pending
+		}
+		go func() {
+			defer collect.Unlock()
+			// A sleep hands control back to JavaScript first: the
+			// collection starts once the response has been returned.
+			time.Sleep(time.Millisecond)
+			runtime.GC()
+		}()
+	}
 	handle := js.FuncOf(func(this js.Value, args []js.Value) any {
 		for _, a := range args {
 			if a.Type() != js.TypeString {
 				return string(errorResponse("standoutHandle takes JSON strings"))
 			}
 		}
+		defer collectLater()
 		switch len(args) {
 		case 1:
 			return string(Handle([]byte(args[0].String())))
