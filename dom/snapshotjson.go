@@ -6,6 +6,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
+
+	"standout/internal/jsonscan"
 )
 
 // The JSON form of a Snapshot (SnapshotVersion 2) is columnar, so that the
@@ -84,13 +86,13 @@ var wireKeys = []string{"v", "source", "path", "box", "bg", "sel", "problems", "
 
 // UnmarshalJSON decodes a snapshot's columnar JSON form.
 func (s *Snapshot) UnmarshalJSON(b []byte) error {
-	d := scanner{b: b}
+	d := jsonscan.New(b)
 	var w snapshotWire
-	if err := d.wire(&w); err != nil {
-		return err
+	if err := readWire(d, &w); err != nil {
+		return fmt.Errorf("dom: snapshot %w", err)
 	}
-	if d.ws(); d.i != len(d.b) {
-		return d.errorf("trailing data")
+	if err := d.End(); err != nil {
+		return fmt.Errorf("dom: snapshot %w", err)
 	}
 	out, err := w.snapshot()
 	if err != nil {
@@ -100,42 +102,42 @@ func (s *Snapshot) UnmarshalJSON(b []byte) error {
 	return nil
 }
 
-// wire reads a snapshot document into w. A repeated key replaces what the
-// earlier one set, as encoding/json does.
-func (d *scanner) wire(w *snapshotWire) error {
-	return d.object(func(key string) error {
+// readWire reads a snapshot document into w. A repeated key replaces what
+// the earlier one set, as encoding/json does.
+func readWire(d *jsonscan.Scanner, w *snapshotWire) error {
+	return d.Object(func(key string) error {
 		var err error
 		switch fold(key, wireKeys) {
 		case "v":
-			w.Version, err = d.number()
+			w.Version, err = d.Number()
 		case "source":
-			w.Source, err = d.stringOrNull()
+			w.Source, err = d.Text()
 		case "path":
-			w.Path, err = d.stringOrNull()
+			w.Path, err = d.Text()
 		case "box":
-			w.Box, err = d.numbers(w.Box[:0])
+			w.Box, err = d.Numbers(w.Box[:0])
 		case "bg":
-			w.Bg, err = d.number()
+			w.Bg, err = d.Number()
 		case "sel":
-			w.Sel, err = d.numbers(w.Sel[:0])
+			w.Sel, err = d.Numbers(w.Sel[:0])
 		case "problems":
-			w.Problems, err = d.strings(w.Problems[:0])
+			w.Problems, err = d.Strings(w.Problems[:0])
 		case "tags":
-			w.Tags, err = d.strings(w.Tags[:0])
+			w.Tags, err = d.Strings(w.Tags[:0])
 		case "paints":
-			w.Paints, err = d.numbers(w.Paints[:0])
+			w.Paints, err = d.Numbers(w.Paints[:0])
 		case "strs":
-			w.Strs, err = d.strings(w.Strs[:0])
+			w.Strs, err = d.Strings(w.Strs[:0])
 		case "nodes":
 			if w.Nodes == nil {
 				// Room for the numbers the rest of the input could hold
 				// at about four bytes each, so that the array does not
 				// double its way up from one.
-				w.Nodes = make([]float64, 0, (len(d.b)-d.i)/4+1)
+				w.Nodes = make([]float64, 0, d.Remaining()/4+1)
 			}
-			w.Nodes, err = d.numbers(w.Nodes[:0])
+			w.Nodes, err = d.Numbers(w.Nodes[:0])
 		default:
-			err = d.skip()
+			err = d.Skip()
 		}
 		return err
 	})
@@ -631,20 +633,20 @@ type PageJSON struct {
 // scanner throughout (encoding/json would first scan the whole input to
 // validate it, which costs as much again under WebAssembly).
 func DecodePage(b []byte) (*PageJSON, error) {
-	d := scanner{b: b}
+	d := jsonscan.New(b)
 	var p PageJSON
-	err := d.object(func(key string) error {
+	err := d.Object(func(key string) error {
 		var err error
 		switch key {
 		case "source":
-			p.Source, err = d.stringOrNull()
+			p.Source, err = d.Text()
 		case "problems":
-			p.Problems, err = d.strings(p.Problems[:0])
+			p.Problems, err = d.Strings(p.Problems[:0])
 		case "snapshots":
 			p.Snapshots = p.Snapshots[:0]
-			err = d.array(func() error {
+			err = d.Array(func() error {
 				var w snapshotWire
-				if err := d.wire(&w); err != nil {
+				if err := readWire(d, &w); err != nil {
 					return err
 				}
 				s, err := w.snapshot()
@@ -655,15 +657,15 @@ func DecodePage(b []byte) (*PageJSON, error) {
 				return nil
 			})
 		default:
-			err = d.skip()
+			err = d.Skip()
 		}
 		return err
 	})
-	if err != nil {
-		return nil, err
+	if err == nil {
+		err = d.End()
 	}
-	if d.ws(); d.i != len(d.b) {
-		return nil, d.errorf("trailing data")
+	if err != nil {
+		return nil, fmt.Errorf("dom: page %w", err)
 	}
 	return &p, nil
 }

@@ -2,10 +2,8 @@ package dom
 
 import (
 	"encoding/json"
-	"math"
 	"os"
 	"path/filepath"
-	"strconv"
 	"strings"
 	"testing"
 
@@ -205,58 +203,5 @@ func FuzzSnapshotJSON(f *testing.F) {
 		var back Snapshot
 		require.NoError(t, json.Unmarshal(again, &back), "%s", again)
 		require.Equal(t, normalised(fast), normalised(back))
-	})
-}
-
-func TestFastFloatMatchesParseFloat(t *testing.T) {
-	for _, c := range []string{"0", "-0", "1", "12.5", "-3.14159", "0.1", "123456789012345", "0.000001", "99.999999999999", "4294967295", "1234567.1234567", "-0.0000000000000000000001"} {
-		f, ok := fastFloat([]byte(c))
-		require.True(t, ok, c)
-		want, err := strconv.ParseFloat(c, 64)
-		require.NoError(t, err)
-		assert.Equal(t, want, f, c)
-	}
-	for _, c := range []string{"1e5", "1234567890123456", "", "-", "1.2.3", ".5"} {
-		_, ok := fastFloat([]byte(c))
-		assert.False(t, ok, c)
-	}
-}
-
-func FuzzFastFloat(f *testing.F) {
-	for _, s := range []string{"12.5", "-0.001", "123456789012345"} {
-		f.Add(s)
-	}
-	f.Fuzz(func(t *testing.T, s string) {
-		got, ok := fastFloat([]byte(s))
-		if !ok {
-			return
-		}
-		want, err := strconv.ParseFloat(s, 64)
-		if err != nil || want != got && !(want == 0 && got == 0) {
-			t.Fatalf("fastFloat(%q) = %v, ParseFloat = %v, %v", s, got, want, err)
-		}
-	})
-}
-
-func FuzzPlainNumber(f *testing.F) {
-	for _, s := range []string{"12.5", "-0.001", "123456789012345", "0", "-0", "01", "1.", "1e5", "1234567890123456", "0.0000000000000000000001", "7]"} {
-		f.Add(s)
-	}
-	f.Fuzz(func(t *testing.T, s string) {
-		// The one-pass reader agrees with the general one wherever it
-		// accepts, and consumes the same bytes.
-		fast := scanner{b: []byte(s)}
-		got, ok := fast.plainNumber()
-		if !ok {
-			if fast.i != 0 {
-				t.Fatalf("%q: refused but moved to %d", s, fast.i)
-			}
-			return
-		}
-		slow := scanner{b: []byte(s)}
-		want, err := slow.number()
-		if err != nil || want != got || fast.i != slow.i || math.Signbit(want) != math.Signbit(got) {
-			t.Fatalf("%q: plainNumber %v (to %d), number %v, %v (to %d)", s, got, fast.i, want, err, slow.i)
-		}
 	})
 }

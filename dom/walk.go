@@ -1,9 +1,10 @@
 package dom
 
 import (
+	"cmp"
 	"fmt"
 	"math"
-	"sort"
+	"slices"
 	"strings"
 )
 
@@ -228,7 +229,11 @@ func Walk(s *Snapshot) (*Chart, error) {
 		}
 		ch.Marks = append(ch.Marks, makeMark(t))
 	}
-	sort.SliceStable(ch.Marks, func(i, j int) bool { return ch.Marks[i].Node < ch.Marks[j].Node })
+	// Usually in order already; a Mark is large to move.
+	byNode := func(a, b Mark) int { return cmp.Compare(a.Node, b.Node) }
+	if !slices.IsSortedFunc(ch.Marks, byNode) {
+		slices.SortStableFunc(ch.Marks, byNode)
+	}
 	if len(s.Selected) > 0 {
 		sel := make([]bool, n)
 		for _, k := range s.Selected {

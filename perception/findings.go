@@ -1,9 +1,11 @@
 package perception
 
 import (
-	"fmt"
+	"cmp"
 	"math"
+	"slices"
 	"sort"
+	"strconv"
 	"strings"
 
 	"standout/perception/colour"
@@ -60,6 +62,15 @@ func plural(n int, one, many string) string {
 	return many
 }
 
+// The messages are written without fmt, whose code is large and, on the
+// extension's first check, runs unoptimised: itoa, ff and fg write what
+// %d, %.Nf and %g would.
+func itoa(n int) string { return strconv.Itoa(n) }
+
+func ff(v float64, prec int) string { return strconv.FormatFloat(v, 'f', prec, 64) }
+
+func fg(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
 func visionNames(vs []colour.Deficiency) string {
 	var s []string
 	for _, v := range vs {
@@ -74,7 +85,7 @@ func findings(in Input, p Params, res *Result) []Finding {
 	out = append(out, contrastFindings(in)...)
 	out = append(out, categoryFindings(in, p, res)...)
 	out = append(out, groupingFindings(res)...)
-	sort.SliceStable(out, func(a, b int) bool { return out[a].Severity.Rank() > out[b].Severity.Rank() })
+	slices.SortStableFunc(out, func(a, b Finding) int { return cmp.Compare(b.Severity.Rank(), a.Severity.Rank()) })
 	return out
 }
 
@@ -89,7 +100,7 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 	}
 	who := "The emphasised " + plural(len(em), "mark", "marks")
 	if res.Inferred {
-		who = "The " + plural(len(em), "mark that differs from the rest", fmt.Sprintf("%d marks that differ from the rest", len(em)))
+		who = "The " + plural(len(em), "mark that differs from the rest", itoa(len(em))+" marks that differ from the rest")
 	}
 	normal := res.Holds[0]
 	if normal {
@@ -100,7 +111,7 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 		}
 		slope := res.Marks[em[0]][0].SlopeMs
 		out = append(out, Finding{ID: "emphasis-pops", Severity: Info, Marks: em,
-			Message: fmt.Sprintf("%s %s out at a glance through %s (estimated search slope %g–%g ms per mark).", who, plural(len(em), "pops", "pop"), strings.Join(cs, " and "), slope[0], slope[1]),
+			Message: who + " " + plural(len(em), "pops", "pop") + " out at a glance through " + strings.Join(cs, " and ") + " (estimated search slope " + fg(slope[0]) + "–" + fg(slope[1]) + " ms per mark).",
 			Source:  srcSearch})
 		var lost []colour.Deficiency
 		for vi, v := range Visions[1:] {
@@ -110,7 +121,7 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 		}
 		if len(lost) > 0 {
 			f := Finding{ID: "emphasis-lost-cvd", Severity: Error, Marks: em,
-				Message: fmt.Sprintf("%s no longer %s out for %s readers (severity %.2g): the difference that carries it is one they do not see.", who, plural(len(em), "stands", "stand"), visionNames(lost), p.Severity),
+				Message: who + " no longer " + plural(len(em), "stands", "stand") + " out for " + visionNames(lost) + " readers (severity " + strconv.FormatFloat(p.Severity, 'g', 2, 64) + "): the difference that carries it is one they do not see.",
 				Source:  srcCVD + "; " + srcSearch}
 			f.Fix = suggestFix(in, p, em, res)
 			out = append(out, f)
@@ -126,14 +137,14 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 	}
 	why := "no feature channel separates it from the other marks"
 	if best != "" && bestS > 0 {
-		why = fmt.Sprintf("its strongest channel, %s, reaches only %.0f%% of what pop-out needs, given how similar the nearest other mark is and how much the others vary", best, 100*bestS)
+		why = "its strongest channel, " + string(best) + ", reaches only " + ff(100*bestS, 0) + "% of what pop-out needs, given how similar the nearest other mark is and how much the others vary"
 	}
 	id, sev, what := "emphasis-lost", Error, "does not stand out"
 	if v.Verdict == Conjunction {
 		id, sev, what = "emphasis-by-conjunction", Warning, "can be found only as a combination of features the other marks each have, which takes a slow, serial search"
 	}
 	f := Finding{ID: id, Severity: sev, Marks: em,
-		Message: fmt.Sprintf("%s %s: %s (estimated %g–%g ms per mark, %.1f–%.1f s for this chart).", who, what, why, v.SlopeMs[0], v.SlopeMs[1], v.SearchMs[0]/1000, v.SearchMs[1]/1000),
+		Message: who + " " + what + ": " + why + " (estimated " + fg(v.SlopeMs[0]) + "–" + fg(v.SlopeMs[1]) + " ms per mark, " + ff(v.SearchMs[0]/1000, 1) + "–" + ff(v.SearchMs[1]/1000, 1) + " s for this chart).",
 		Source:  srcSearch}
 	f.Fix = suggestFix(in, p, em, res)
 	out = append(out, f)
@@ -201,12 +212,12 @@ func contrastFindings(in Input) []Finding {
 		h := colour.SRGB8(k[0], k[1], k[2]).Hex()
 		if a.text {
 			out = append(out, Finding{ID: "text-contrast-low", Severity: Warning, Marks: a.marks,
-				Message: fmt.Sprintf("%d text %s in %s %s %.2f:1 against the background; text needs 4.5:1.", len(a.marks), plural(len(a.marks), "mark", "marks"), h, plural(len(a.marks), "has", "have"), math.Floor(a.cr*100)/100),
+				Message: itoa(len(a.marks)) + " text " + plural(len(a.marks), "mark", "marks") + " in " + h + " " + plural(len(a.marks), "has", "have") + " " + ff(math.Floor(a.cr*100)/100, 2) + ":1 against the background; text needs 4.5:1.",
 				Source:  srcText})
 			continue
 		}
 		out = append(out, Finding{ID: "mark-contrast-low", Severity: Error, Marks: a.marks,
-			Message: fmt.Sprintf("%d %s in %s %s only %.2f:1 against the background; graphics needed to understand a chart need 3:1.", len(a.marks), plural(len(a.marks), "mark", "marks"), h, plural(len(a.marks), "has", "have"), math.Floor(a.cr*100)/100),
+			Message: itoa(len(a.marks)) + " " + plural(len(a.marks), "mark", "marks") + " in " + h + " " + plural(len(a.marks), "has", "have") + " only " + ff(math.Floor(a.cr*100)/100, 2) + ":1 against the background; graphics needed to understand a chart need 3:1.",
 			Source:  srcContrast})
 	}
 	return out
@@ -273,7 +284,7 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 	}
 	if distinct > p.MaxHues {
 		out = append(out, Finding{ID: "too-many-hues", Severity: Warning,
-			Message: fmt.Sprintf("The chart uses %d distinguishable colours as categories; beyond %d they are hard to tell apart and to match to a legend.", distinct, p.MaxHues),
+			Message: "The chart uses " + itoa(distinct) + " distinguishable colours as categories; beyond " + itoa(p.MaxHues) + " they are hard to tell apart and to match to a legend.",
 			Source:  srcHues})
 	}
 	// Categories, not a highlight: at least two colours with two or more
@@ -321,7 +332,7 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 		}
 		if len(pairs) > 0 {
 			out = append(out, Finding{ID: "categories-merge-cvd", Severity: Warning, Marks: dedupe(marks),
-				Message: fmt.Sprintf("For %s readers %s look the same at this mark size.", v, strings.Join(pairs, "; ")),
+				Message: "For " + v.String() + " readers " + strings.Join(pairs, "; ") + " look the same at this mark size.",
 				Source:  srcCVD + "; " + srcND})
 		}
 	}
@@ -341,7 +352,7 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 		}
 		if len(pairs) > 0 {
 			out = append(out, Finding{ID: "legend-entries-merge", Severity: Warning,
-				Message: fmt.Sprintf("For %s readers the legend swatches %s cannot be told apart.", v, strings.Join(pairs, "; ")),
+				Message: "For " + v.String() + " readers the legend swatches " + strings.Join(pairs, "; ") + " cannot be told apart.",
 				Source:  srcCVD + "; " + srcND})
 		}
 	}
@@ -361,11 +372,11 @@ func groupingFindings(res *Result) []Finding {
 		switch a.Relation {
 		case "conflict":
 			out = append(out, Finding{ID: "grouping-conflict", Severity: Warning,
-				Message: fmt.Sprintf("Grouping by %s and grouping by %s carve the marks differently (adjusted Rand index %.2f): readers see two competing structures.", a.A, a.B, a.ARI),
+				Message: "Grouping by " + string(a.A) + " and grouping by " + string(a.B) + " carve the marks differently (adjusted Rand index " + ff(a.ARI, 2) + "): readers see two competing structures.",
 				Source:  srcGroup})
 		case "agree":
 			out = append(out, Finding{ID: "grouping-agrees", Severity: Info,
-				Message: fmt.Sprintf("Grouping by %s and by %s agree (adjusted Rand index %.2f).", a.A, a.B, a.ARI),
+				Message: "Grouping by " + string(a.A) + " and by " + string(a.B) + " agree (adjusted Rand index " + ff(a.ARI, 2) + ").",
 				Source:  srcGroup})
 		}
 	}

@@ -1,7 +1,9 @@
 package perception
 
 import (
+	"cmp"
 	"math"
+	"slices"
 	"sort"
 
 	"standout/perception/colour"
@@ -488,7 +490,7 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 				}
 				ds = append(ds, wd{v, float64(b.count)})
 			}
-			sort.Slice(ds, func(a, b int) bool { return ds[a].v < ds[b].v })
+			slices.SortFunc(ds, func(a, b wd) int { return cmp.Compare(a.v, b.v) })
 			// The value at rank round(0.9·(f−1)) of the expanded list.
 			target := math.Round(0.9 * (f - 1))
 			acc := 0.0

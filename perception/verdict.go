@@ -1,7 +1,9 @@
 package perception
 
 import (
+	"cmp"
 	"math"
+	"slices"
 	"sort"
 )
 
@@ -105,7 +107,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 			r.Channels = chBuf[start:len(chBuf):len(chBuf)]
 		}
 		if len(r.Channels) > 1 {
-			sort.SliceStable(r.Channels, func(a, b int) bool { return r.Salience.Of(r.Channels[a]) > r.Salience.Of(r.Channels[b]) })
+			slices.SortStableFunc(r.Channels, func(a, b Channel) int { return cmp.Compare(r.Salience.Of(b), r.Salience.Of(a)) })
 		}
 		if len(r.Channels) > 0 {
 			r.Verdict = Pops

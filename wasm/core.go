@@ -12,6 +12,7 @@ import (
 	"time"
 
 	"standout/dom"
+	"standout/internal/jsonscan"
 	"standout/internal/report"
 	"standout/perception/colour"
 )
@@ -69,8 +70,8 @@ func Handle(req []byte) (out []byte) {
 func HandlePage(options, page []byte) (out []byte) {
 	defer recoverTo(&out)
 	t0 := time.Now()
-	var q Request
-	if err := json.Unmarshal(options, &q); err != nil {
+	q, err := parseOptions(options)
+	if err != nil {
 		return errorResponse("bad request: " + err.Error())
 	}
 	p, err := dom.DecodePage(page)
@@ -78,7 +79,45 @@ func HandlePage(options, page []byte) (out []byte) {
 		return errorResponse("bad page: " + err.Error())
 	}
 	q.Source, q.Snapshots, q.Problems = p.Source, p.Snapshots, p.Problems
-	return handle(&q, t0)
+	return handle(q, t0)
+}
+
+// parseOptions reads a request's options (every field but the page's)
+// with the snapshot decoder's scanner: encoding/json would bring its
+// reflection into every check, and its code runs unoptimised on the
+// extension's first one.
+func parseOptions(b []byte) (*Request, error) {
+	q := &Request{}
+	d := jsonscan.New(b)
+	err := d.Object(func(key string) error {
+		var err error
+		switch key {
+		case "type":
+			q.Type, err = d.Text()
+		case "emphasis":
+			q.Emphasis, err = d.Strings(q.Emphasis[:0])
+		case "severity":
+			if !d.Null() {
+				var v float64
+				if v, err = d.Number(); err == nil {
+					q.Severity = &v
+				}
+			}
+		case "full":
+			q.Full, err = d.Bool()
+		case "distanceCm":
+			q.DistanceCM, err = d.Number()
+		case "pxPerInch":
+			q.PxPerInch, err = d.Number()
+		default:
+			err = d.Skip()
+		}
+		return err
+	})
+	if err == nil {
+		err = d.End()
+	}
+	return q, err
 }
 
 func recoverTo(out *[]byte) {

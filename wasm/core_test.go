@@ -163,3 +163,19 @@ func TestAppendHundredths(t *testing.T) {
 		assert.Equal(t, want, got, "%v: %s vs %s", v, gs, ws)
 	}
 }
+
+func TestParseOptionsMatchesEncodingJSON(t *testing.T) {
+	// The options scanner reads what encoding/json reads into a Request.
+	for _, in := range []string{`{"type":"analyse"}`, `{"type":"analyse","emphasis":["svg0/g0/rect2","a\"b"],"severity":0.4,"full":true,"distanceCm":60,"pxPerInch":96}`,
+		`{"type":"analyse","severity":null,"emphasis":null,"extra":{"x":[1]}}`, `{}`} {
+		var want Request
+		require.NoError(t, json.Unmarshal([]byte(in), &want), in)
+		got, err := parseOptions([]byte(in))
+		require.NoError(t, err, in)
+		assert.Equal(t, want, *got, in)
+	}
+	for _, bad := range []string{`{`, `{"full":1}`, `{"severity":"x"}`, `[]`, `{} x`} {
+		_, err := parseOptions([]byte(bad))
+		assert.Error(t, err, bad)
+	}
+}

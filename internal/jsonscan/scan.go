@@ -1,4 +1,9 @@
-package dom
+// Package jsonscan reads JSON values in place, for the snapshot decoder
+// and the core's options: a purpose-written reader, because
+// encoding/json's reflection was the slowest step of the extension's core
+// under WebAssembly, and its code, large, runs unoptimised on the first
+// check. Fuzz tests keep it equal to encoding/json.
+package jsonscan
 
 import (
 	"errors"
@@ -8,24 +13,36 @@ import (
 	"unicode/utf8"
 )
 
-// scanner reads JSON values from b, for the snapshot decoder: a
-// purpose-written reader, because encoding/json's reflection was the
-// slowest step of the extension's core under WebAssembly. Numbers that
-// JSON encodes as null (NaN and infinities from JavaScript) read as 0, as
-// encoding/json leaves a float at its zero value for null. A fuzz test
-// keeps it equal to encoding/json.
-type scanner struct {
+// Scanner reads JSON values from a byte slice. Numbers that JSON encodes
+// as null (NaN and infinities from JavaScript) read as 0, as encoding/json
+// leaves a float at its zero value for null.
+type Scanner struct {
 	b []byte
 	i int
 }
 
-var errDepth = errors.New("dom: snapshot JSON nested too deeply")
+// New returns a Scanner at the start of b.
+func New(b []byte) *Scanner { return &Scanner{b: b} }
 
-func (d *scanner) errorf(format string, a ...any) error {
-	return fmt.Errorf("dom: snapshot JSON at offset %d: %s", d.i, fmt.Sprintf(format, a...))
+// Remaining is the number of bytes not yet read.
+func (d *Scanner) Remaining() int { return len(d.b) - d.i }
+
+// End reports an error unless only whitespace is left.
+func (d *Scanner) End() error {
+	if d.ws(); d.i != len(d.b) {
+		return d.Errorf("trailing data")
+	}
+	return nil
 }
 
-func (d *scanner) ws() {
+var errDepth = errors.New("JSON nested too deeply")
+
+// Errorf is an error at the scanner's offset.
+func (d *Scanner) Errorf(format string, a ...any) error {
+	return fmt.Errorf("JSON at offset %d: %s", d.i, fmt.Sprintf(format, a...))
+}
+
+func (d *Scanner) ws() {
 	for d.i < len(d.b) {
 		switch d.b[d.i] {
 		case ' ', '\t', '\n', '\r':
@@ -36,7 +53,7 @@ func (d *scanner) ws() {
 	}
 }
 
-func (d *scanner) peek() byte {
+func (d *Scanner) peek() byte {
 	d.ws()
 	if d.i < len(d.b) {
 		return d.b[d.i]
@@ -44,7 +61,7 @@ func (d *scanner) peek() byte {
 	return 0
 }
 
-func (d *scanner) literal(word string) bool {
+func (d *Scanner) literal(word string) bool {
 	if len(d.b)-d.i >= len(word) && string(d.b[d.i:d.i+len(word)]) == word {
 		d.i += len(word)
 		return true
@@ -52,13 +69,13 @@ func (d *scanner) literal(word string) bool {
 	return false
 }
 
-// object calls f for each key; f must consume the value.
-func (d *scanner) object(f func(key string) error) error {
+// Object calls f for each key; f must consume the value.
+func (d *Scanner) Object(f func(key string) error) error {
 	if d.peek() == 'n' && d.literal("null") {
 		return nil
 	}
 	if d.peek() != '{' {
-		return d.errorf("expected an object")
+		return d.Errorf("expected an object")
 	}
 	d.i++
 	if d.peek() == '}' {
@@ -67,14 +84,14 @@ func (d *scanner) object(f func(key string) error) error {
 	}
 	for {
 		if d.peek() != '"' {
-			return d.errorf("expected a key")
+			return d.Errorf("expected a key")
 		}
 		k, err := d.str()
 		if err != nil {
 			return err
 		}
 		if d.peek() != ':' {
-			return d.errorf("expected ':'")
+			return d.Errorf("expected ':'")
 		}
 		d.i++
 		if err := f(k); err != nil {
@@ -87,18 +104,18 @@ func (d *scanner) object(f func(key string) error) error {
 			d.i++
 			return nil
 		default:
-			return d.errorf("expected ',' or '}'")
+			return d.Errorf("expected ',' or '}'")
 		}
 	}
 }
 
-// array calls f for each element; f must consume it.
-func (d *scanner) array(f func() error) error {
+// Array calls f for each element; f must consume it.
+func (d *Scanner) Array(f func() error) error {
 	if d.peek() == 'n' && d.literal("null") {
 		return nil
 	}
 	if d.peek() != '[' {
-		return d.errorf("expected an array")
+		return d.Errorf("expected an array")
 	}
 	d.i++
 	if d.peek() == ']' {
@@ -116,12 +133,13 @@ func (d *scanner) array(f func() error) error {
 			d.i++
 			return nil
 		default:
-			return d.errorf("expected ',' or ']'")
+			return d.Errorf("expected ',' or ']'")
 		}
 	}
 }
 
-func (d *scanner) number() (float64, error) {
+// Number reads a number, or null as 0.
+func (d *Scanner) Number() (float64, error) {
 	c := d.peek()
 	if c == 'n' && d.literal("null") {
 		return 0, nil
@@ -136,10 +154,10 @@ func (d *scanner) number() (float64, error) {
 		digits++
 	}
 	if digits == 0 {
-		return 0, d.errorf("expected a number")
+		return 0, d.Errorf("expected a number")
 	}
 	if digits > 1 && d.b[d.i-digits] == '0' {
-		return 0, d.errorf("bad number: leading zero")
+		return 0, d.Errorf("bad number: leading zero")
 	}
 	if d.i < len(d.b) && d.b[d.i] == '.' {
 		d.i++
@@ -149,7 +167,7 @@ func (d *scanner) number() (float64, error) {
 			n++
 		}
 		if n == 0 {
-			return 0, d.errorf("bad number")
+			return 0, d.Errorf("bad number")
 		}
 	}
 	if d.i < len(d.b) && (d.b[d.i] == 'e' || d.b[d.i] == 'E') {
@@ -163,7 +181,7 @@ func (d *scanner) number() (float64, error) {
 			n++
 		}
 		if n == 0 {
-			return 0, d.errorf("bad number")
+			return 0, d.Errorf("bad number")
 		}
 	}
 	if f, ok := fastFloat(d.b[start:d.i]); ok {
@@ -171,7 +189,7 @@ func (d *scanner) number() (float64, error) {
 	}
 	f, err := strconv.ParseFloat(string(d.b[start:d.i]), 64)
 	if err != nil {
-		return 0, d.errorf("bad number: %v", err)
+		return 0, d.Errorf("bad number: %v", err)
 	}
 	return f, nil
 }
@@ -223,7 +241,7 @@ func fastFloat(b []byte) (float64, bool) {
 // most 15 significant digits) in one pass, the exact fast path of
 // fastFloat; it reports false, and leaves d.i, for anything else, which
 // number then reads. Snapshots are almost all such numbers.
-func (d *scanner) plainNumber() (float64, bool) {
+func (d *Scanner) plainNumber() (float64, bool) {
 	b, i := d.b, d.i
 	neg := false
 	if i < len(b) && b[i] == '-' {
@@ -273,14 +291,14 @@ func (d *scanner) plainNumber() (float64, bool) {
 	return f, true
 }
 
-// numbers appends the elements of an array of numbers to dst; null
+// Numbers appends the elements of an array of numbers to dst; null
 // leaves dst empty, as encoding/json leaves a slice nil.
-func (d *scanner) numbers(dst []float64) ([]float64, error) {
+func (d *Scanner) Numbers(dst []float64) ([]float64, error) {
 	if d.peek() == 'n' && d.literal("null") {
 		return dst, nil
 	}
 	if d.peek() != '[' {
-		return dst, d.errorf("expected an array")
+		return dst, d.Errorf("expected an array")
 	}
 	d.i++
 	if d.peek() == ']' {
@@ -292,7 +310,7 @@ func (d *scanner) numbers(dst []float64) ([]float64, error) {
 		f, ok := d.plainNumber()
 		if !ok {
 			var err error
-			if f, err = d.number(); err != nil {
+			if f, err = d.Number(); err != nil {
 				return dst, err
 			}
 		}
@@ -304,33 +322,34 @@ func (d *scanner) numbers(dst []float64) ([]float64, error) {
 			d.i++
 			return dst, nil
 		default:
-			return dst, d.errorf("expected ',' or ']'")
+			return dst, d.Errorf("expected ',' or ']'")
 		}
 	}
 }
 
-// strings appends the elements of an array of strings to dst.
-func (d *scanner) strings(dst []string) ([]string, error) {
-	err := d.array(func() error {
-		s, err := d.stringOrNull()
+// Strings appends the elements of an array of strings to dst.
+func (d *Scanner) Strings(dst []string) ([]string, error) {
+	err := d.Array(func() error {
+		s, err := d.Text()
 		dst = append(dst, s)
 		return err
 	})
 	return dst, err
 }
 
-func (d *scanner) stringOrNull() (string, error) {
+// Text reads a string, or null as "".
+func (d *Scanner) Text() (string, error) {
 	if d.peek() == 'n' && d.literal("null") {
 		return "", nil
 	}
 	if d.peek() != '"' {
-		return "", d.errorf("expected a string")
+		return "", d.Errorf("expected a string")
 	}
 	return d.str()
 }
 
 // str reads a JSON string at d.i (which is at the opening quote).
-func (d *scanner) str() (string, error) {
+func (d *Scanner) str() (string, error) {
 	d.i++
 	start := d.i
 	// Fast path: no escapes.
@@ -360,7 +379,7 @@ func (d *scanner) str() (string, error) {
 			}
 			return string(buf), nil
 		case c < 0x20:
-			return "", d.errorf("control character in string")
+			return "", d.Errorf("control character in string")
 		case c != '\\':
 			buf = append(buf, c)
 			d.i++
@@ -388,7 +407,7 @@ func (d *scanner) str() (string, error) {
 		case 'u':
 			r, ok := d.hex4()
 			if !ok {
-				return "", d.errorf("bad \\u escape")
+				return "", d.Errorf("bad \\u escape")
 			}
 			if utf16.IsSurrogate(r) {
 				// A pair when the next escape completes it; alone it is
@@ -408,13 +427,13 @@ func (d *scanner) str() (string, error) {
 			}
 			buf = utf8.AppendRune(buf, r)
 		default:
-			return "", d.errorf("bad escape")
+			return "", d.Errorf("bad escape")
 		}
 	}
-	return "", d.errorf("unterminated string")
+	return "", d.Errorf("unterminated string")
 }
 
-func (d *scanner) hex4() (rune, bool) {
+func (d *Scanner) hex4() (rune, bool) {
 	if d.i+4 > len(d.b) {
 		return 0, false
 	}
@@ -426,25 +445,41 @@ func (d *scanner) hex4() (rune, bool) {
 	return rune(v), true
 }
 
-// skip consumes any value (for unknown keys), to a bounded depth.
-func (d *scanner) skip() error { return d.skipDepth(0) }
+// Null consumes a null and reports whether there was one.
+func (d *Scanner) Null() bool {
+	return d.peek() == 'n' && d.literal("null")
+}
 
-func (d *scanner) skipDepth(depth int) error {
+// Bool reads true or false, or null as false.
+func (d *Scanner) Bool() (bool, error) {
+	switch c := d.peek(); {
+	case c == 't' && d.literal("true"):
+		return true, nil
+	case c == 'f' && d.literal("false"), c == 'n' && d.literal("null"):
+		return false, nil
+	}
+	return false, d.Errorf("expected true or false")
+}
+
+// Skip consumes any value, to a bounded depth.
+func (d *Scanner) Skip() error { return d.skipDepth(0) }
+
+func (d *Scanner) skipDepth(depth int) error {
 	if depth > 64 {
 		return errDepth
 	}
 	switch c := d.peek(); {
 	case c == '{':
-		return d.object(func(string) error { return d.skipDepth(depth + 1) })
+		return d.Object(func(string) error { return d.skipDepth(depth + 1) })
 	case c == '[':
-		return d.array(func() error { return d.skipDepth(depth + 1) })
+		return d.Array(func() error { return d.skipDepth(depth + 1) })
 	case c == '"':
 		_, err := d.str()
 		return err
 	case c == 't' && d.literal("true"), c == 'f' && d.literal("false"), c == 'n' && d.literal("null"):
 		return nil
 	default:
-		_, err := d.number()
+		_, err := d.Number()
 		return err
 	}
 }
