@@ -45,7 +45,7 @@ type press struct {
 	// Timing is what the extension recorded of its steps.
 	Timing struct {
 		ReadMs, StringifyMs, ReadTripMs, CoreLoadMs, CoreMs, RenderMs float64
-		Core                                                          struct{ DecodeMs, AnalyseMs, EncodeMs float64 }
+		Core                                                          map[string]float64
 	}
 }
 

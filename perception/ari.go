@@ -1,7 +1,5 @@
 package perception
 
-import "slices"
-
 // AdjustedRandIndex compares two partitions of the same items given as
 // label slices (Hubert & Arabie 1985, "Comparing partitions", J.
 // Classification 2(1), 193–218):
@@ -24,31 +22,42 @@ func AdjustedRandIndex(a, b []int) float64 {
 	c2 := func(x int) float64 { return float64(x) * float64(x-1) / 2 }
 	var sij, sa, sb float64
 	// Dense labels 0..k−1 (as partitions here have) use flat tables; a
-	// contingency table much larger than n is counted by sorting instead.
+	// contingency table much larger than n is counted row by row instead:
+	// the items grouped by their label in a (a counting sort), and each
+	// group's labels in b counted in one scratch row, cleared as it is
+	// read.
 	ka, kb := maxLabel(a)+1, maxLabel(b)+1
 	if ka > 0 && kb > 0 && ka*kb > 4*n+64 {
-		ra, rb := make([]int32, ka), make([]int32, kb)
-		keys := make([]uint64, n)
+		ra, rb := make([]int32, ka+1), make([]int32, kb)
 		for k := range a {
-			ra[a[k]]++
+			ra[a[k]+1]++
 			rb[b[k]]++
-			keys[k] = uint64(a[k])<<32 | uint64(b[k])
 		}
-		slices.Sort(keys)
-		run := 1
-		for k := 1; k <= n; k++ {
-			if k < n && keys[k] == keys[k-1] {
-				run++
-				continue
-			}
-			sij += c2(run)
-			run = 1
-		}
-		for _, v := range ra {
-			sa += c2(int(v))
+		for i := range ka {
+			sa += c2(int(ra[i+1]))
+			ra[i+1] += ra[i]
 		}
 		for _, v := range rb {
 			sb += c2(int(v))
+		}
+		byA := make([]int32, n)
+		next := append([]int32(nil), ra[:ka]...)
+		for k := range a {
+			byA[next[a[k]]] = int32(k)
+			next[a[k]]++
+		}
+		row := make([]int32, kb)
+		for i := range ka {
+			items := byA[ra[i]:ra[i+1]]
+			for _, k := range items {
+				row[b[k]]++
+			}
+			for _, k := range items {
+				if c := row[b[k]]; c > 0 {
+					sij += c2(int(c))
+					row[b[k]] = 0
+				}
+			}
 		}
 		return ariFrom(sij, sa, sb, c2(n))
 	}
