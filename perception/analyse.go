@@ -14,7 +14,9 @@ var Visions = []colour.Deficiency{colour.Normal, colour.Protan, colour.Deutan, c
 
 // Result is the analysis of one chart.
 type Result struct {
-	// Marks[i][v] is mark i's result under Visions[v].
+	// Marks[i][v] is mark i's result under Visions[v]. With
+	// Params.CVDEmphasisOnly, only the emphasised marks' rows hold every
+	// vision type; the others hold normal vision alone.
 	Marks [][]MarkResult
 	// Emphasis is the intended emphasis (given, or inferred when Inferred).
 	Emphasis []int
@@ -38,9 +40,13 @@ type Result struct {
 func Analyse(in Input, p Params) *Result {
 	n := len(in.Marks)
 	res := &Result{Marks: make([][]MarkResult, n), Holds: make([]bool, len(Visions))}
-	flat := make([]MarkResult, n*len(Visions))
+	rows := len(Visions)
+	if p.CVDEmphasisOnly {
+		rows = 1 // the emphasis's rows grow once it is known
+	}
+	flat := make([]MarkResult, n*rows)
 	for i := range res.Marks {
-		res.Marks[i] = flat[i*len(Visions) : (i+1)*len(Visions) : (i+1)*len(Visions)]
+		res.Marks[i] = flat[i*rows : (i+1)*rows : (i+1)*rows]
 	}
 	kindIx := newIndexer[string]()
 	kindOf := make([]int, n)
@@ -58,17 +64,9 @@ func Analyse(in Input, p Params) *Result {
 	keys := append([]string(nil), kindIx.keys...)
 	sort.Strings(keys)
 	nbs := map[string][][]int{}
-	kindMarks := map[string][]Mark{}
 	for _, k := range keys {
 		spatialOrder(in.Marks, kinds[k])
-	}
-	for _, k := range keys {
-		ms := make([]Mark, 0, len(kinds[k]))
-		for _, i := range kinds[k] {
-			ms = append(ms, in.Marks[i])
-		}
-		kindMarks[k] = ms
-		nbs[k] = neighbours(ms, p.Neighbours)
+		nbs[k] = neighbours(in.Marks, kinds[k], p.Neighbours)
 	}
 	reuse := map[string]*reuseData{}
 	for _, k := range keys {
@@ -89,7 +87,7 @@ func Analyse(in Input, p Params) *Result {
 					continue
 				}
 			}
-			d := newDisplayShared(&p, kindMarks[k], idx, Visions[vi], p.Severity, shares[k])
+			d := newDisplayShared(&p, in.Marks, idx, Visions[vi], p.Severity, shares[k])
 			d.nb, d.reuse = nbs[k], reuse[k]
 			var rs []MarkResult
 			if targets != nil {
@@ -125,6 +123,9 @@ func Analyse(in Input, p Params) *Result {
 			if i >= 0 && i < n {
 				k := in.Marks[i].Kind
 				only[k] = append(only[k], pos[i])
+				if len(res.Marks[i]) == 1 {
+					res.Marks[i] = append(append(make([]MarkResult, 0, len(Visions)), res.Marks[i][0]), make([]MarkResult, len(Visions)-1)...)
+				}
 			}
 		}
 	}

@@ -63,9 +63,13 @@ func BenchmarkAnalyse100k(b *testing.B) { benchAnalyse(b, 100000) }
 // scattered marks, the analysis's spatial index.
 func BenchmarkNeighbours5k(b *testing.B) {
 	in := benchMarks(5000)
+	idx := make([]int, len(in.Marks))
+	for i := range idx {
+		idx[i] = i
+	}
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		neighbours(in.Marks, DefaultParams.Neighbours)
+		neighbours(in.Marks, idx, DefaultParams.Neighbours)
 	}
 }

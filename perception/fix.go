@@ -178,11 +178,9 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 	// The marks of the kind in the analysis's (spatial) order, which its
 	// neighbour lists and shared channels index.
 	idx := res.kinds[kind]
-	ms := make([]Mark, len(idx))
 	pos := map[int]int{}
 	for p, i := range idx {
 		pos[i] = p
-		ms[p] = marks[i]
 	}
 	// Positions, sizes, orientations and shapes do not change with a colour
 	// fix: the analysis's neighbours and those channels are reused; the
@@ -195,7 +193,7 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 		sh = &c
 	}
 	if nb == nil {
-		nb = neighbours(ms, p.Neighbours)
+		nb = neighbours(marks, idx, p.Neighbours)
 	}
 	if reuse == nil || !reuse.have {
 		reuse = &reuseData{}
@@ -205,7 +203,7 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 		targets = append(targets, pos[i])
 	}
 	for _, v := range Visions {
-		d := newDisplayShared(&p, ms, idx, v, p.Severity, sh)
+		d := newDisplayShared(&p, marks, idx, v, p.Severity, sh)
 		d.nb, d.reuse = nb, reuse
 		if reuse.have {
 			for _, r := range d.judgeSome(targets) {

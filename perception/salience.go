@@ -65,8 +65,9 @@ type MarkResult struct {
 // display is one group of comparable marks (one kind) under one vision.
 type display struct {
 	p     *Params
-	marks []Mark
-	idx   []int        // indices into the Input's marks
+	all   []Mark       // the Input's marks
+	idx   []int        // the display's marks, as indices into all
+	shape []int32      // per mark, its shape's number
 	lab   []colour.Lab // per mark, under the display's vision
 	cols  *palette     // the marks' distinct colours
 	clab  []colour.Lab // per distinct colour, under the display's vision
@@ -91,12 +92,12 @@ type palette struct {
 	count   []int   // per colour, its marks
 }
 
-func newPalette(ms []Mark) *palette {
-	p := &palette{of: make([]int32, len(ms))}
+func newPalette(all []Mark, idx []int) *palette {
+	p := &palette{of: make([]int32, len(idx))}
 	index := map[colour.SRGB]int32{}
 	last := int32(-1)
-	for k := range ms {
-		c := ms[k].Colour
+	for k, i := range idx {
+		c := all[i].Colour
 		// Neighbouring marks often repeat a colour.
 		if last < 0 || c != p.colours[last] {
 			i, ok := index[c]
@@ -115,16 +116,11 @@ func newPalette(ms []Mark) *palette {
 	return p
 }
 
-// newDisplay prepares the marks ms (the marks of one kind; idx are their
-// indices in the chart) under vision v.
-func newDisplay(p *Params, ms []Mark, idx []int, v colour.Deficiency, severity float64) *display {
-	return newDisplayShared(p, ms, idx, v, severity, nil)
-}
-
 // shared holds what does not depend on the vision type, computed for the
 // first vision and reused by the others.
 type shared struct {
 	cols  *palette
+	shape []int32
 	nd    [][3]float64
 	size  []float64
 	ori   []float64
@@ -132,13 +128,16 @@ type shared struct {
 	ready bool
 }
 
-func newDisplayShared(p *Params, ms []Mark, idx []int, v colour.Deficiency, severity float64, sh *shared) *display {
-	d := &display{p: p, idx: idx, marks: ms}
+// newDisplayShared prepares the marks idx of all (the marks of one kind)
+// under vision v, taking what does not depend on the vision type from sh
+// when an earlier vision type computed it.
+func newDisplayShared(p *Params, all []Mark, idx []int, v colour.Deficiency, severity float64, sh *shared) *display {
+	d := &display{p: p, idx: idx, all: all}
 	n := len(idx)
 	if sh != nil && sh.cols != nil {
 		d.cols = sh.cols
 	} else {
-		d.cols = newPalette(ms)
+		d.cols = newPalette(all, idx)
 		if sh != nil {
 			sh.cols = d.cols
 		}
@@ -152,16 +151,19 @@ func newDisplayShared(p *Params, ms []Mark, idx []int, v colour.Deficiency, seve
 		d.lab[k] = d.clab[i]
 	}
 	if sh != nil && sh.ready {
-		d.nd, d.size, d.ori, d.oriP = sh.nd, sh.size, sh.ori, sh.oriP
+		d.nd, d.size, d.ori, d.oriP, d.shape = sh.nd, sh.size, sh.ori, sh.oriP, sh.shape
 	} else {
+		d.shape = make([]int32, n)
+		shapes := newIndexer[string]()
 		d.nd = make([][3]float64, n)
 		d.size = make([]float64, n)
 		d.ori = make([]float64, n)
 		ndIx := newIndexer[[3]float64]()
 		var nds [][3]float64
 		fold := -1
-		for k := range ms {
-			m := &ms[k]
+		for k, i := range idx {
+			m := &all[i]
+			d.shape[k] = int32(shapes.of(m.Shape))
 			key := [3]float64{float64(m.Type), math.Round(m.MinPx*4) / 4, math.Round(m.MaxPx)}
 			i := ndIx.of(key)
 			if i == len(nds) {
@@ -184,7 +186,7 @@ func newDisplayShared(p *Params, ms []Mark, idx []int, v colour.Deficiency, seve
 			d.oriP = 360 / float64(fold) / p.OrientationStepDeg
 		}
 		if sh != nil {
-			sh.nd, sh.size, sh.ori, sh.oriP, sh.ready = d.nd, d.size, d.ori, d.oriP, true
+			sh.nd, sh.size, sh.ori, sh.oriP, sh.shape, sh.ready = d.nd, d.size, d.ori, d.oriP, d.shape, true
 		}
 	}
 	// A target group is a minority: in three marks, two alike are the
@@ -212,7 +214,7 @@ func (d *display) dist(c Channel, a, b int) float64 {
 		x := math.Mod(math.Abs(d.ori[a]-d.ori[b]), d.oriP)
 		return math.Min(x, d.oriP-x)
 	case Shape:
-		if d.marks[a].Shape != d.marks[b].Shape {
+		if d.shape[a] != d.shape[b] {
 			return 1
 		}
 	}
@@ -245,7 +247,7 @@ type channelStats struct {
 // channels and O(n·B) for colour, with B distinct colours (capped by
 // quantising).
 func (d *display) stats(c Channel) channelStats {
-	n := len(d.marks)
+	n := len(d.idx)
 	st := channelStats{group: make([]int, n), global: make([]float64, n)}
 	if n < 2 {
 		return st
@@ -264,19 +266,16 @@ func (d *display) stats(c Channel) channelStats {
 	case Hue, Lightness:
 		d.colourStats(c, &st)
 	case Shape:
-		shapes := newIndexer[string]()
-		of := make([]int, n)
 		var count []int
-		for k, m := range d.marks {
-			of[k] = shapes.of(m.Shape)
-			if of[k] == len(count) {
+		for _, i := range d.shape {
+			for int(i) >= len(count) {
 				count = append(count, 0)
 			}
-			count[of[k]]++
+			count[i]++
 		}
 		distractor := make([]bool, len(count))
 		distractors := 0
-		for k, i := range of {
+		for k, i := range d.shape {
 			st.group[k] = count[i]
 			if count[i] <= d.small && count[i] < n {
 				st.global[k] = 1
@@ -415,7 +414,7 @@ func (d *display) colourBins() ([]colourBin, []int32) {
 
 // colourStats fills stats for hue or lightness over the colour bins.
 func (d *display) colourStats(c Channel, st *channelStats) {
-	n := len(d.marks)
+	n := len(d.idx)
 	list, binOf := d.colourBins()
 	B := len(list)
 	dm := make([]float64, B*B)

@@ -18,7 +18,7 @@ func colourChannel(ci int) bool { return Channels[ci] == Hue || Channels[ci] == 
 // Channels that do not depend on colour are taken from d.reuse when a
 // previous vision type computed them.
 func (d *display) judgeSome(only []int) []MarkResult {
-	n := len(d.marks)
+	n := len(d.idx)
 	if n == 0 {
 		return make([]MarkResult, len(only))
 	}
@@ -32,7 +32,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 	}
 	nb := d.nb
 	if nb == nil && n > 1 && d.p.Neighbours > 0 {
-		nb = neighbours(d.marks, d.p.Neighbours)
+		nb = neighbours(d.all, d.idx, d.p.Neighbours)
 	}
 	reuse := d.reuse != nil && d.reuse.have
 	// One backing array for every mark's channel list: fewer allocations.
@@ -122,7 +122,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 		return res
 	}
 	res := make([]MarkResult, n)
-	for k := range d.marks {
+	for k := range d.idx {
 		res[k] = one(k)
 	}
 	if d.reuse != nil && !d.reuse.have {
@@ -168,15 +168,16 @@ type reuseData struct {
 	sal   []Saliences
 }
 
-// neighbours lists each mark's k nearest marks in space.
-func neighbours(marks []Mark, k int) [][]int {
-	n := len(marks)
+// neighbours lists, for each of the marks idx of all, its k nearest
+// among them in space, as positions in idx.
+func neighbours(all []Mark, idx []int, k int) [][]int {
+	n := len(idx)
 	if n < 2 || k <= 0 {
 		return nil
 	}
 	xs, ys := make([]float64, n), make([]float64, n)
-	for i, m := range marks {
-		xs[i], ys[i] = m.X, m.Y
+	for p, i := range idx {
+		xs[p], ys[p] = all[i].X, all[i].Y
 	}
 	return neighboursXY(xs, ys, k)
 }
@@ -206,7 +207,7 @@ func neighboursXY(xs, ys []float64, k int) [][]int {
 // differ noticeably from every other mark in some channel.
 func (d *display) conjunctions(res []MarkResult, stats *[5]channelStats) {
 	type sig [6]int64
-	n := len(d.marks)
+	n := len(d.idx)
 	sigOf := func(k int) sig {
 		l := d.lab[k]
 		nd := d.nd[k]
@@ -214,15 +215,12 @@ func (d *display) conjunctions(res []MarkResult, stats *[5]channelStats) {
 		if d.oriP > 0 {
 			o = int64(math.Round(math.Mod(d.ori[k], d.oriP)))
 		}
-		var sh int64
-		for _, ch := range d.marks[k].Shape {
-			sh = sh*31 + int64(ch)
-		}
+		sh := int64(d.shape[k])
 		return sig{int64(math.Round(l.L / nd[0])), int64(math.Round(l.A / nd[1])), int64(math.Round(l.B / nd[2])),
 			int64(math.Round(d.size[k])), o, sh}
 	}
 	groups := map[sig][]int{}
-	for k := range d.marks {
+	for k := range d.idx {
 		s := sigOf(k)
 		groups[s] = append(groups[s], k)
 	}
