@@ -1,13 +1,12 @@
 package dom
 
 import (
-	"encoding/json"
 	"fmt"
 	"math"
 	"strconv"
 	"strings"
 
-	"standout/internal/jsonscan"
+	"standout/internal/jsonio"
 )
 
 // The JSON form of a Snapshot (SnapshotVersion 2) is columnar, so that the
@@ -86,7 +85,7 @@ var wireKeys = []string{"v", "source", "path", "box", "bg", "sel", "problems", "
 
 // UnmarshalJSON decodes a snapshot's columnar JSON form.
 func (s *Snapshot) UnmarshalJSON(b []byte) error {
-	d := jsonscan.New(b)
+	d := jsonio.New(b)
 	var w snapshotWire
 	if err := readWire(d, &w); err != nil {
 		return fmt.Errorf("dom: snapshot %w", err)
@@ -104,7 +103,7 @@ func (s *Snapshot) UnmarshalJSON(b []byte) error {
 
 // readWire reads a snapshot document into w. A repeated key replaces what
 // the earlier one set, as encoding/json does.
-func readWire(d *jsonscan.Scanner, w *snapshotWire) error {
+func readWire(d *jsonio.Scanner, w *snapshotWire) error {
 	return d.Object(func(key string) error {
 		var err error
 		switch fold(key, wireKeys) {
@@ -416,11 +415,11 @@ func (s Snapshot) MarshalJSON() ([]byte, error) {
 	b := []byte(`{"v":`)
 	b = strconv.AppendInt(b, int64(s.Version), 10)
 	b = append(b, `,"source":`...)
-	b = appendJSONString(b, s.Source)
+	b = jsonio.AppendString(b, s.Source)
 	b = append(b, `,"path":`...)
-	b = appendJSONString(b, s.Path)
+	b = jsonio.AppendString(b, s.Path)
 	b = append(b, `,"box":`...)
-	b = appendFloats(b, s.Box[:])
+	b = jsonio.AppendFloats(b, s.Box[:])
 	b = append(b, `,"bg":`...)
 	b = strconv.AppendUint(b, uint64(s.Background), 10)
 	if len(s.Selected) > 0 {
@@ -435,20 +434,20 @@ func (s Snapshot) MarshalJSON() ([]byte, error) {
 	}
 	if len(s.Problems) > 0 {
 		b = append(b, `,"problems":`...)
-		b = appendStrings(b, s.Problems)
+		b = jsonio.AppendStrings(b, s.Problems)
 	}
 	nodes, err := e.records(&s)
 	if err != nil {
 		return nil, err
 	}
 	b = append(b, `,"tags":`...)
-	b = appendStrings(b, e.tags)
+	b = jsonio.AppendStrings(b, e.tags)
 	b = append(b, `,"paints":`...)
-	b = appendFloats(b, e.paints)
+	b = jsonio.AppendFloats(b, e.paints)
 	b = append(b, `,"strs":`...)
-	b = appendStrings(b, e.strs)
+	b = jsonio.AppendStrings(b, e.strs)
 	b = append(b, `,"nodes":`...)
-	b = appendFloats(b, nodes)
+	b = jsonio.AppendFloats(b, nodes)
 	return append(b, '}'), nil
 }
 
@@ -585,42 +584,6 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 	return out, nil
 }
 
-// appendFloats writes numbers as a JSON array; NaN and the infinities,
-// which JSON cannot hold, as null (as JavaScript writes them).
-func appendFloats(b []byte, v []float64) []byte {
-	b = append(b, '[')
-	for i, f := range v {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		if math.IsNaN(f) || math.IsInf(f, 0) {
-			b = append(b, "null"...)
-			continue
-		}
-		b = strconv.AppendFloat(b, f, 'g', -1, 64)
-	}
-	return append(b, ']')
-}
-
-func appendStrings(b []byte, v []string) []byte {
-	b = append(b, '[')
-	for i, s := range v {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = appendJSONString(b, s)
-	}
-	return append(b, ']')
-}
-
-func appendJSONString(b []byte, s string) []byte {
-	q, err := json.Marshal(s)
-	if err != nil {
-		panic("dom: a string did not encode as JSON: " + err.Error())
-	}
-	return append(b, q...)
-}
-
 // PageJSON is what the browser's read pass returns for a page.
 type PageJSON struct {
 	Source    string
@@ -633,7 +596,7 @@ type PageJSON struct {
 // scanner throughout (encoding/json would first scan the whole input to
 // validate it, which costs as much again under WebAssembly).
 func DecodePage(b []byte) (*PageJSON, error) {
-	d := jsonscan.New(b)
+	d := jsonio.New(b)
 	var p PageJSON
 	err := d.Object(func(key string) error {
 		var err error

@@ -12,7 +12,7 @@ import (
 	"time"
 
 	"standout/dom"
-	"standout/internal/jsonscan"
+	"standout/internal/jsonio"
 	"standout/internal/report"
 	"standout/perception/colour"
 )
@@ -88,7 +88,7 @@ func HandlePage(options, page []byte) (out []byte) {
 // extension's first one.
 func parseOptions(b []byte) (*Request, error) {
 	q := &Request{}
-	d := jsonscan.New(b)
+	d := jsonio.New(b)
 	err := d.Object(func(key string) error {
 		var err error
 		switch key {

@@ -14,6 +14,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"standout/dom"
+	"standout/internal/jsonio"
 )
 
 func TestHandleStaticSnapshot(t *testing.T) {
@@ -134,16 +135,6 @@ func TestDigestMatchesReport(t *testing.T) {
 	assert.Equal(t, fc.Emphasis.Inferred, lc.Emphasis.Inferred)
 }
 
-func TestAppendStringMatchesEncodingJSON(t *testing.T) {
-	for _, s := range []string{"", "plain", `q"b\s`, "\x00\x1f\n\r\t", "é😀", "\xff\xfe", "a\u2028b", "<&>"} {
-		var want, got string
-		b, _ := json.Marshal(s)
-		require.NoError(t, json.Unmarshal(b, &want))
-		require.NoError(t, json.Unmarshal(appendString(nil, s), &got), "%q", s)
-		assert.Equal(t, want, got, "%q", s)
-	}
-}
-
 func TestAppendHundredths(t *testing.T) {
 	// The same number as strconv's shortest form of the rounded value.
 	rng := rand.New(rand.NewSource(2))
@@ -153,7 +144,7 @@ func TestAppendHundredths(t *testing.T) {
 	}
 	for _, v := range cases {
 		var got, want float64
-		gs, ws := string(appendHundredths(nil, v)), string(appendFloat(nil, math.Round(v*100)/100))
+		gs, ws := string(appendHundredths(nil, v)), string(jsonio.AppendFloat(nil, math.Round(v*100)/100))
 		if ws == "null" {
 			assert.Equal(t, ws, gs)
 			continue

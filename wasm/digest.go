@@ -4,8 +4,8 @@ import (
 	"math"
 	"sort"
 	"strconv"
-	"unicode/utf8"
 
+	"standout/internal/jsonio"
 	"standout/internal/report"
 	"standout/perception"
 )
@@ -79,9 +79,9 @@ func countMarks(as []report.Analysed) int {
 // appendDigest writes the Digest of the analysed charts of one page.
 func appendDigest(b []byte, source string, problems []string, as []report.Analysed) []byte {
 	b = append(b, `{"pages":[{"source":`...)
-	b = appendString(b, source)
+	b = jsonio.AppendString(b, source)
 	b = append(b, `,"problems":`...)
-	b = appendStrings(b, problems)
+	b = jsonio.AppendStrings(b, problems)
 	b = append(b, `,"charts":[`...)
 	for ci, a := range as {
 		if ci > 0 {
@@ -89,17 +89,17 @@ func appendDigest(b []byte, source string, problems []string, as []report.Analys
 		}
 		ch := a.Chart
 		b = append(b, `{"path":`...)
-		b = appendString(b, ch.Path)
+		b = jsonio.AppendString(b, ch.Path)
 		b = append(b, `,"isChart":`...)
 		b = strconv.AppendBool(b, ch.IsChart)
 		b = append(b, `,"box":`...)
-		b = appendFloats(b, ch.Box[:])
+		b = jsonio.AppendFloats(b, ch.Box[:])
 		b = append(b, `,"ids":[`...)
 		for i, m := range ch.Marks {
 			if i > 0 {
 				b = append(b, ',')
 			}
-			b = appendString(b, m.ID)
+			b = jsonio.AppendString(b, m.ID)
 		}
 		b = append(b, `],"boxes":[`...)
 		for i, m := range ch.Marks {
@@ -130,18 +130,18 @@ func appendDigest(b []byte, source string, problems []string, as []report.Analys
 					b = append(b, ',')
 				}
 				b = append(b, `{"id":`...)
-				b = appendString(b, f.ID)
+				b = jsonio.AppendString(b, f.ID)
 				b = append(b, `,"severity":`...)
-				b = appendString(b, string(f.Severity))
+				b = jsonio.AppendString(b, string(f.Severity))
 				b = append(b, `,"message":`...)
-				b = appendString(b, f.Message)
+				b = jsonio.AppendString(b, f.Message)
 				b = append(b, `,"marks":`...)
 				b = appendInts(b, f.Marks, len(ch.Marks))
 				if f.Fix != nil {
 					b = append(b, `,"fix":{"kind":`...)
-					b = appendString(b, f.Fix.Kind)
+					b = jsonio.AppendString(b, f.Fix.Kind)
 					b = append(b, `,"css":`...)
-					b = appendString(b, f.Fix.CSS)
+					b = jsonio.AppendString(b, f.Fix.CSS)
 					b = append(b, `,"verified":`...)
 					b = strconv.AppendBool(b, f.Fix.Verified)
 					b = append(b, '}')
@@ -160,7 +160,7 @@ func appendDigest(b []byte, source string, problems []string, as []report.Analys
 				if vi > 0 {
 					b = append(b, ',')
 				}
-				b = appendString(b, v.String())
+				b = jsonio.AppendString(b, v.String())
 				b = append(b, ':')
 				b = strconv.AppendBool(b, a.Result.Holds[vi])
 			}
@@ -169,7 +169,7 @@ func appendDigest(b []byte, source string, problems []string, as []report.Analys
 		b = append(b, '}')
 	}
 	b = append(b, `]}],"caution":`...)
-	b = appendString(b, report.Caution)
+	b = jsonio.AppendString(b, report.Caution)
 	return append(b, '}')
 }
 
@@ -185,41 +185,20 @@ func appendTiming(b []byte, t map[string]float64) []byte {
 		if i > 0 {
 			b = append(b, ',')
 		}
-		b = appendString(b, k)
+		b = jsonio.AppendString(b, k)
 		b = append(b, ':')
-		b = appendFloat(b, t[k])
+		b = jsonio.AppendFloat(b, t[k])
 	}
 	return append(b, '}')
 }
 
-// appendFloats writes numbers as a JSON array.
-func appendFloats(b []byte, v []float64) []byte {
-	b = append(b, '[')
-	for i, f := range v {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = appendFloat(b, f)
-	}
-	return append(b, ']')
-}
-
-// appendFloat writes a number; JSON has no NaN or infinity, so they are
-// written as null.
-func appendFloat(b []byte, f float64) []byte {
-	if math.IsNaN(f) || math.IsInf(f, 0) {
-		return append(b, "null"...)
-	}
-	return strconv.AppendFloat(b, f, 'f', -1, 64)
-}
-
 // appendHundredths writes v rounded to hundredths: the same number as
-// appendFloat(math.Round(v*100)/100), without strconv's general
+// jsonio.AppendFloat(math.Round(v*100)/100), without strconv's general
 // shortest-form search, which dominated the digest's encoding.
 func appendHundredths(b []byte, v float64) []byte {
 	n := math.Round(v * 100)
 	if !(math.Abs(n) < 1<<53) {
-		return appendFloat(b, n/100)
+		return jsonio.AppendFloat(b, n/100)
 	}
 	k := int64(n)
 	if k < 0 {
@@ -252,61 +231,4 @@ func appendInts(b []byte, v []int, n int) []byte {
 		b = strconv.AppendInt(b, int64(x), 10)
 	}
 	return append(b, ']')
-}
-
-func appendStrings(b []byte, v []string) []byte {
-	b = append(b, '[')
-	for i, s := range v {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = appendString(b, s)
-	}
-	return append(b, ']')
-}
-
-const hexDigits = "0123456789abcdef"
-
-// appendString writes s as a JSON string (RFC 8259 §7): quotes,
-// backslashes and control characters escaped, invalid UTF-8 replaced by
-// U+FFFD as encoding/json does.
-func appendString(b []byte, s string) []byte {
-	b = append(b, '"')
-	start := 0
-	for i := 0; i < len(s); {
-		c := s[i]
-		if c < utf8.RuneSelf {
-			if c >= 0x20 && c != '"' && c != '\\' {
-				i++
-				continue
-			}
-			b = append(b, s[start:i]...)
-			switch c {
-			case '"', '\\':
-				b = append(b, '\\', c)
-			case '\n':
-				b = append(b, '\\', 'n')
-			case '\r':
-				b = append(b, '\\', 'r')
-			case '\t':
-				b = append(b, '\\', 't')
-			default:
-				b = append(b, '\\', 'u', '0', '0', hexDigits[c>>4], hexDigits[c&0xf])
-			}
-			i++
-			start = i
-			continue
-		}
-		r, size := utf8.DecodeRuneInString(s[i:])
-		if r == utf8.RuneError && size == 1 {
-			b = append(b, s[start:i]...)
-			b = append(b, `\ufffd`...)
-			i += size
-			start = i
-			continue
-		}
-		i += size
-	}
-	b = append(b, s[start:]...)
-	return append(b, '"')
 }

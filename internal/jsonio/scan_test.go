@@ -1,4 +1,4 @@
-package jsonscan
+package jsonio
 
 import (
 	"encoding/json"
@@ -100,4 +100,14 @@ func FuzzScannerMatchesEncodingJSON(f *testing.F) {
 			assert.Equal(t, str, got, "%q", s)
 		}
 	})
+}
+
+func TestAppendStringMatchesEncodingJSON(t *testing.T) {
+	for _, s := range []string{"", "plain", `q"b\s`, "\x00\x1f\n\r\t", "é😀", "\xff\xfe", "a\u2028b", "<&>"} {
+		var want, got string
+		b, _ := json.Marshal(s)
+		require.NoError(t, json.Unmarshal(b, &want))
+		require.NoError(t, json.Unmarshal(AppendString(nil, s), &got), "%q", s)
+		assert.Equal(t, want, got, "%q", s)
+	}
 }

@@ -1,9 +1,9 @@
-// Package jsonscan reads JSON values in place, for the snapshot decoder
-// and the core's options: a purpose-written reader, because
+// Package jsonio reads and writes JSON in place, for the snapshot format
+// and the core's requests and digests: purpose-written, because
 // encoding/json's reflection was the slowest step of the extension's core
 // under WebAssembly, and its code, large, runs unoptimised on the first
-// check. Fuzz tests keep it equal to encoding/json.
-package jsonscan
+// check. Fuzz and table tests keep it equal to encoding/json.
+package jsonio
 
 import (
 	"errors"
