@@ -14,7 +14,6 @@ import (
 	"github.com/chromedp/cdproto/cdp"
 	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/cdproto/runtime"
-	"github.com/chromedp/cdproto/target"
 	"github.com/chromedp/chromedp"
 	"github.com/stretchr/testify/require"
 )
@@ -144,20 +143,6 @@ func median(v []float64) float64 {
 		return s[len(s)/2]
 	}
 	return (s[len(s)/2-1] + s[len(s)/2]) / 2
-}
-
-// stopWorker closes the extension's service worker, as the browser does
-// after about 30 s idle.
-func (h *harness) stopWorker(tb testing.TB) {
-	ts, err := chromedp.Targets(h.ctx)
-	require.NoError(tb, err)
-	for _, ti := range ts {
-		if ti.Type == "service_worker" && strings.HasPrefix(ti.URL, "chrome-extension://"+h.extID) {
-			_, err := chromedp.CallBrowser(h.ctx, target.CloseTarget, target.CloseTargetParams{TargetID: ti.TargetID})
-			require.NoError(tb, err)
-		}
-	}
-	time.Sleep(500 * time.Millisecond)
 }
 
 // BenchmarkBrowserClickToOverlay reports click-to-overlay milliseconds for

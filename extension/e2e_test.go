@@ -143,6 +143,23 @@ func (h *harness) press() {
 	require.NoError(h.t, err)
 }
 
+// stopWorker closes the extension's service worker, as the browser does
+// after about 30 s idle, and returns how many it closed.
+func (h *harness) stopWorker(tb testing.TB) int {
+	ts, err := chromedp.Targets(h.ctx)
+	require.NoError(tb, err)
+	stopped := 0
+	for _, ti := range ts {
+		if ti.Type == "service_worker" && strings.HasPrefix(ti.URL, "chrome-extension://"+h.extID) {
+			_, err := chromedp.CallBrowser(h.ctx, target.CloseTarget, target.CloseTargetParams{TargetID: ti.TargetID})
+			require.NoError(tb, err)
+			stopped++
+		}
+	}
+	time.Sleep(500 * time.Millisecond)
+	return stopped
+}
+
 func (h *harness) eval(expr string) string {
 	v, err := chromedp.Run(h.ctx, chromedp.Evaluate[string](expr))
 	require.NoError(h.t, err, expr)
@@ -618,18 +635,7 @@ func TestE2ESurvivesServiceWorkerStop(t *testing.T) {
 	h.showPage(chartPage)
 	h.trigger()
 	h.waitState("")
-	ts, err := chromedp.Targets(h.ctx)
-	require.NoError(t, err)
-	stopped := 0
-	for _, ti := range ts {
-		if ti.Type == "service_worker" && strings.HasPrefix(ti.URL, "chrome-extension://"+h.extID) {
-			_, err := chromedp.CallBrowser(h.ctx, target.CloseTarget, target.CloseTargetParams{TargetID: ti.TargetID})
-			require.NoError(t, err)
-			stopped++
-		}
-	}
-	require.Equal(t, 1, stopped, "the extension's service worker")
-	time.Sleep(500 * time.Millisecond)
+	require.Equal(t, 1, h.stopWorker(t), "the extension's service worker")
 	h.trigger()
 	h.waitState("ready")
 	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
