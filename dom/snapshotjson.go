@@ -22,16 +22,19 @@ import (
 //
 // "paints" is a table of Paint entries, each its kind, its colour, the
 // number of its stops and the stops. Each node is one record of numbers in
-// "nodes", eleven fixed fields and then the optional ones:
+// "nodes", four fixed fields, then the node's style (seven numbers, unless
+// it repeats the previous record's) and then the optional fields:
 //
-//	parent tag name has flags fill stroke fillOpacity strokeOpacity opacity strokeWidth …
+//	parent tag name has [flags fill stroke fillOpacity strokeOpacity opacity strokeWidth] …
 //
 // tag indexes "tags"; fill and stroke index the paint entries; flags are
 // Node.Flags. name derives Node.Name from the parent's: the root's is the
 // snapshot's Path; k ≥ 0 names the parent's k-th element child, parent +
 // "/" + tag + k; −1 content a <use> instantiates, parent + ">" + tag. has
-// says which optional fields follow, in this order:
+// says whether the style is there and which optional fields follow, in
+// this order:
 //
+//	128 the style is the previous record's and is not written
 //	 1  CTM: six numbers; without it the parent's CTM (the root's: identity)
 //	 2  Geom: a count, at most maxGeom, then the numbers
 //	 4  BBox: four numbers
@@ -50,12 +53,13 @@ const (
 	hasText
 	hasLabel
 	hasName
-	hasAll = hasCTM | hasGeom | hasBBox | hasD | hasText | hasLabel | hasName
+	hasSameStyle
+	hasAll = hasCTM | hasGeom | hasBBox | hasD | hasText | hasLabel | hasName | hasSameStyle
 )
 
 const (
-	// recordFixed is the number of fixed fields of a node record.
-	recordFixed = 11
+	// recordMin is the fewest numbers a node record has.
+	recordMin = 4
 	// nameUse is the name field of content instantiated by <use>.
 	nameUse = -1
 	// maxGeom bounds a record's geometry count.
@@ -271,8 +275,9 @@ func paintTable(v []float64) ([]Paint, error) {
 // decoding allocates per snapshot rather than per node.
 func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 	v := w.Nodes
-	// A record has at least recordFixed numbers.
-	s.Nodes = make([]Node, 0, min(len(v)/recordFixed, MaxNodes))
+	// Room for the nodes, from the usual record length (a style repeated,
+	// a CTM inherited, three numbers of geometry) rather than the shortest.
+	s.Nodes = make([]Node, 0, min(len(v)/8+1, MaxNodes))
 	var names []byte
 	nameAt := make([][2]int32, 0, cap(s.Nodes))
 	var slab []float64
@@ -300,28 +305,38 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 		if err != nil {
 			return err
 		}
-		flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
-		if err != nil {
-			return err
-		}
-		fill, err := r.int("fill", 0, len(paints))
-		if err != nil {
-			return err
-		}
-		stroke, err := r.int("stroke", 0, len(paints))
-		if err != nil {
-			return err
-		}
 		// Built in place: a Node is large, and copying one into the slice
 		// costs a write barrier per pointer while the collector runs.
 		s.Nodes = append(s.Nodes, Node{})
 		nd := &s.Nodes[len(s.Nodes)-1]
-		nd.Parent, nd.Tag, nd.Flags, nd.Fill, nd.Stroke = int32(p), w.Tags[tag], uint8(flags), paints[fill], paints[stroke]
-		if len(v)-r.i < 4 {
-			return r.errorf("the record is cut short")
+		nd.Parent, nd.Tag = int32(p), w.Tags[tag]
+		if has&hasSameStyle != 0 {
+			if r.node == 0 {
+				return r.errorf("the first record cannot repeat a style")
+			}
+			prev := &s.Nodes[r.node-1]
+			nd.Flags, nd.Fill, nd.Stroke = prev.Flags, prev.Fill, prev.Stroke
+			nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = prev.FillOpacity, prev.StrokeOpacity, prev.Opacity, prev.StrokeWidth
+		} else {
+			flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
+			if err != nil {
+				return err
+			}
+			fill, err := r.int("fill", 0, len(paints))
+			if err != nil {
+				return err
+			}
+			stroke, err := r.int("stroke", 0, len(paints))
+			if err != nil {
+				return err
+			}
+			if len(v)-r.i < 4 {
+				return r.errorf("the record is cut short")
+			}
+			nd.Flags, nd.Fill, nd.Stroke = uint8(flags), paints[fill], paints[stroke]
+			nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]
+			r.i += 4
 		}
-		nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]
-		r.i += 4
 		switch {
 		case has&hasCTM != 0:
 			for k := range nd.CTM {
@@ -503,6 +518,7 @@ func (e *wireEncoder) str(s string) float64 {
 // records writes every node's record.
 func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 	var out []float64
+	var prevStyle [7]float64
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
 		p := int(nd.Parent)
@@ -556,8 +572,16 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 			has |= hasName
 			nk = 0
 		}
-		out = append(out, float64(p), e.tag(nd.Tag), float64(nk), float64(has), float64(nd.Flags),
-			e.paint(nd.Fill), e.paint(nd.Stroke), nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth)
+		fill, stroke := e.paint(nd.Fill), e.paint(nd.Stroke)
+		style := [7]float64{float64(nd.Flags), fill, stroke, nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth}
+		if i > 0 && sameStyle(style, prevStyle) {
+			has |= hasSameStyle
+		}
+		out = append(out, float64(p), e.tag(nd.Tag), float64(nk), float64(has))
+		if has&hasSameStyle == 0 {
+			out = append(out, style[:]...)
+		}
+		prevStyle = style
 		if has&hasCTM != 0 {
 			out = append(out, nd.CTM[:]...)
 		}
@@ -582,6 +606,17 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 		}
 	}
 	return out, nil
+}
+
+// sameStyle compares styles as the decoder will read them: bit for bit, so
+// that a NaN, written as null and read as 0, is never taken for another.
+func sameStyle(a, b [7]float64) bool {
+	for k := range a {
+		if math.Float64bits(a[k]) != math.Float64bits(b[k]) {
+			return false
+		}
+	}
+	return true
 }
 
 // PageJSON is what the browser's read pass returns for a page.

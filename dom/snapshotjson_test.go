@@ -94,7 +94,8 @@ func TestSnapshotJSONRecords(t *testing.T) {
 	  0,1,3,0,0, 1,0, 0.5,1,1,1,
 	  1,2,-1,2,1, 2,1, 1,1,null,2, 3,5,6,7,
 	  1,3,7,44,0, 1,0, 1,1,1,1, 1,2,3,4, 0,1,
-	  0,2,0,80,2, 0,0, 1,1,1,1, 1,2
+	  0,2,0,80,2, 0,0, 1,1,1,1, 1,2,
+	  0,2,9,130, 3,9,8,7
 	]}`
 	var s Snapshot
 	require.NoError(t, json.Unmarshal([]byte(in), &s))
@@ -103,8 +104,8 @@ func TestSnapshotJSONRecords(t *testing.T) {
 	assert.Equal(t, uint32(0xffffffff), s.Background)
 	assert.Equal(t, []int32{2}, s.Selected)
 	assert.Equal(t, []string{"aé"}, s.Problems)
-	require.Len(t, s.Nodes, 5)
-	root, g, c, p, named := s.Nodes[0], s.Nodes[1], s.Nodes[2], s.Nodes[3], s.Nodes[4]
+	require.Len(t, s.Nodes, 6)
+	root, g, c, p, named, same := s.Nodes[0], s.Nodes[1], s.Nodes[2], s.Nodes[3], s.Nodes[4], s.Nodes[5]
 	assert.Equal(t, "frame0/svg1", root.Name)
 	assert.Equal(t, [6]float64{2, 0, 0, 2, 10, 20}, root.CTM)
 	assert.Equal(t, "frame0/svg1/g3", g.Name)
@@ -123,6 +124,10 @@ func TestSnapshotJSONRecords(t *testing.T) {
 	assert.Equal(t, "a label", p.Label)
 	assert.Equal(t, "custom/name", named.Name)
 	assert.Equal(t, "a label", named.Text)
+	assert.Equal(t, "frame0/svg1/circle9", same.Name)
+	assert.Equal(t, []float64{9, 8, 7}, same.Geom)
+	assert.Equal(t, []any{named.Flags, named.Fill, named.Stroke, named.FillOpacity, named.StrokeOpacity, named.Opacity, named.StrokeWidth},
+		[]any{same.Flags, same.Fill, same.Stroke, same.FillOpacity, same.StrokeOpacity, same.Opacity, same.StrokeWidth}, "has 128: the previous record's style")
 
 	// What json.Marshal writes decodes to the same snapshot.
 	b, err := json.Marshal(s)
@@ -152,7 +157,8 @@ func TestSnapshotJSONErrors(t *testing.T) {
 		"tag out of range":    head + `[-1,1,0,0,0,0,0,1,1,1,1]}`,
 		"paint out of range":  head + `[-1,0,0,0,0,1,0,1,1,1,1]}`,
 		"fractional index":    head + `[-1,0.5,0,0,0,0,0,1,1,1,1]}`,
-		"unknown has bit":     head + `[-1,0,0,128,0,0,0,1,1,1,1]}`,
+		"unknown has bit":     head + `[-1,0,0,256,0,0,0,1,1,1,1]}`,
+		"first repeats style": head + `[-1,0,0,128]}`,
 		"unknown flag":        head + `[-1,0,0,0,4,0,0,1,1,1,1]}`,
 		"string out of range": head + `[-1,0,0,8,0,0,0,1,1,1,1,1]}`,
 		"geometry too long":   head + `[-1,0,0,2,0,0,0,1,1,1,1,17]}`,

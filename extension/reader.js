@@ -239,12 +239,14 @@
   const HAS_TEXT = 16;
   const HAS_LABEL = 32;
   const HAS_NAME = 64;
-  // Where each fixed field sits in a record.
-  const R_FILL = 5;
-  const R_STROKE = 6;
-  const R_FO = 7;
-  const R_SO = 8;
-  const R_SW = 10;
+  const HAS_SAME_STYLE = 128;
+  // A style: flags, fill, stroke, fill-opacity, stroke-opacity, opacity,
+  // stroke-width, as a record holds them.
+  const S_FILL = 1;
+  const S_STROKE = 2;
+  const S_FO = 3;
+  const S_SO = 4;
+  const S_SW = 6;
 
   // Reads one outermost <svg> into a snapshot in its columnar JSON form
   // (dom/snapshotjson.go). off maps the client coordinates of the
@@ -271,11 +273,25 @@
     const nodes = [];
     const sel = [];
     const problems = [];
-    // Per node: where its record starts, its CTM, and what its name is
-    // made of (for the problems that name it).
-    const start = [];
+    // Per node: its style, its CTM, and what its name is made of (for the
+    // problems that name it).
+    const styles = [];
     const ctms = [];
     const nameParts = [];
+    let prevStyle = null;
+    // pushStyle writes a record's style, or, when it repeats the previous
+    // record's (as most marks' do), says so in the has bits it returns.
+    const pushStyle = (st) => {
+      const p = prevStyle;
+      if (p && st[0] === p[0] && st[1] === p[1] && st[2] === p[2] && st[3] === p[3] && st[4] === p[4] && st[5] === p[5] && st[6] === p[6]) {
+        styles.push(p);
+        return HAS_SAME_STYLE;
+      }
+      nodes.push(st[0], st[1], st[2], st[3], st[4], st[5], st[6]);
+      styles.push(st);
+      prevStyle = st;
+      return 0;
+    };
 
     const tagOf = (t) => {
       let i = tagIndex.get(t);
@@ -343,9 +359,8 @@
       const cs = getComputedStyle(el);
       // An <svg> is a viewport of its own: measured directly.
       const m = ctmOverride ? mul(ctmOverride, ownTransform(el)) : screenCTM(el, tag === 'svg' ? null : vp);
-      const idx = start.length;
+      const idx = styles.length;
       const at = nodes.length;
-      start.push(at);
       ctms.push(m);
       nameParts.push([parent, k < 0 ? '>' + tag : '/' + tag + k]);
       let fi = paint(cs.fill);
@@ -356,7 +371,7 @@
       // instance inherits instead.
       const inUse = ctmOverride && parent >= 0;
       const dp = inUse && el.parentElement ? getComputedStyle(el.parentElement) : null;
-      const up = inUse ? start[parent] : -1;
+      const up = inUse ? styles[parent] : null;
       let fo = 1;
       let so = 1;
       let sw = 0;
@@ -366,18 +381,18 @@
         sw = Math.max(0, parseFloat(cs.strokeWidth) || 0);
       }
       if (dp) {
-        if (cs.fill === dp.fill) fi = nodes[up + R_FILL];
-        if (cs.stroke === dp.stroke) si = nodes[up + R_STROKE];
-        if (cs.fillOpacity === dp.fillOpacity) fo = nodes[up + R_FO];
-        if (cs.strokeOpacity === dp.strokeOpacity) so = nodes[up + R_SO];
-        if (cs.strokeWidth === dp.strokeWidth) sw = nodes[up + R_SW];
+        if (cs.fill === dp.fill) fi = up[S_FILL];
+        if (cs.stroke === dp.stroke) si = up[S_STROKE];
+        if (cs.fillOpacity === dp.fillOpacity) fo = up[S_FO];
+        if (cs.strokeOpacity === dp.strokeOpacity) so = up[S_SO];
+        if (cs.strokeWidth === dp.strokeWidth) sw = up[S_SW];
       }
       let x = 0;
       if (cs.display === 'none') x |= 1;
       const vis = cs.visibility;
       if (vis === 'hidden' || vis === 'collapse') x |= 2;
-      nodes.push(parent, tagOf(tag), k < 0 ? -1 : k, 0, x, fi, si, fo, so, clamp01(num(cs.opacity)), sw);
-      let has = 0;
+      nodes.push(parent, tagOf(tag), k < 0 ? -1 : k, 0);
+      let has = pushStyle([x, fi, si, fo, so, clamp01(num(cs.opacity)), sw]);
       if (!sameMatrix(m, parent >= 0 ? ctms[parent] : IDENTITY)) {
         has |= HAS_CTM;
         nodes.push(m[0], m[1], m[2], m[3], m[4], m[5]);
@@ -463,15 +478,15 @@
       }
       const cs = getComputedStyle(target);
       const dp = target.parentElement ? getComputedStyle(target.parentElement) : null;
-      const up = start[idx];
-      const gi = start.length;
+      const up = styles[idx];
+      const gi = styles.length;
       const at = nodes.length;
-      start.push(at);
       ctms.push(inner);
       nameParts.push([idx, '>symbol']);
-      const fi = dp && cs.fill === dp.fill ? nodes[up + R_FILL] : paint(cs.fill);
-      const si = dp && cs.stroke === dp.stroke ? nodes[up + R_STROKE] : paint(cs.stroke);
-      nodes.push(idx, tagOf('g'), -1, HAS_CTM | HAS_NAME, 0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1);
+      const fi = dp && cs.fill === dp.fill ? up[S_FILL] : paint(cs.fill);
+      const si = dp && cs.stroke === dp.stroke ? up[S_STROKE] : paint(cs.stroke);
+      nodes.push(idx, tagOf('g'), -1, 0);
+      nodes[at + 3] = HAS_CTM | HAS_NAME | pushStyle([0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1]);
       nodes.push(inner[0], inner[1], inner[2], inner[3], inner[4], inner[5]);
       nodes.push(strs.length);
       strs.push(nameOf(idx) + '>symbol');
