@@ -273,26 +273,27 @@
     const nodes = [];
     const sel = [];
     const problems = [];
-    // Per node: its style, its CTM, and what its name is made of (for the
-    // problems that name it).
+    // Per node: its style, its CTM, and what its name is made of (its
+    // parent, its link to it and its tag, for the problems that name it).
     const styles = [];
     const ctms = [];
-    const nameParts = [];
-    let prevStyle = null;
+    const parentOf = [];
+    const linkOf = [];
+    const tagName = [];
+    let prev = null;
     // pushStyle writes a record's style, or, when it repeats the previous
     // record's (as most marks' do), says so in the has bits it returns.
-    const pushStyle = (st) => {
-      const p = prevStyle;
-      if (p && st[0] === p[0] && st[1] === p[1] && st[2] === p[2] && st[3] === p[3] && st[4] === p[4] && st[5] === p[5] && st[6] === p[6]) {
+    const pushStyle = (x, fi, si, fo, so, o, sw) => {
+      const p = prev;
+      if (p && x === p[0] && fi === p[1] && si === p[2] && fo === p[3] && so === p[4] && o === p[5] && sw === p[6]) {
         styles.push(p);
         return HAS_SAME_STYLE;
       }
-      nodes.push(st[0], st[1], st[2], st[3], st[4], st[5], st[6]);
-      styles.push(st);
-      prevStyle = st;
+      nodes.push(x, fi, si, fo, so, o, sw);
+      prev = [x, fi, si, fo, so, o, sw];
+      styles.push(prev);
       return 0;
     };
-
     const tagOf = (t) => {
       let i = tagIndex.get(t);
       if (i === undefined) {
@@ -318,9 +319,9 @@
       return i;
     };
     const nameOf = (i) => {
-      const [parent, link] = nameParts[i];
-      if (parent < 0) return path;
-      return nameOf(parent) + link;
+      if (parentOf[i] < 0) return path;
+      const k = linkOf[i];
+      return nameOf(parentOf[i]) + (k < 0 ? '>' + tagName[i] : '/' + tagName[i] + k);
     };
 
     // screenCTM is el's transform to page px: the screen CTM plus the
@@ -362,7 +363,9 @@
       const idx = styles.length;
       const at = nodes.length;
       ctms.push(m);
-      nameParts.push([parent, k < 0 ? '>' + tag : '/' + tag + k]);
+      parentOf.push(parent);
+      linkOf.push(k);
+      tagName.push(tag);
       let fi = paint(cs.fill);
       let si = paint(cs.stroke);
       // Content instantiated by <use> inherits from the <use>, not from
@@ -392,7 +395,7 @@
       const vis = cs.visibility;
       if (vis === 'hidden' || vis === 'collapse') x |= 2;
       nodes.push(parent, tagOf(tag), k < 0 ? -1 : k, 0);
-      let has = pushStyle([x, fi, si, fo, so, clamp01(num(cs.opacity)), sw]);
+      let has = pushStyle(x, fi, si, fo, so, clamp01(num(cs.opacity)), sw);
       if (!sameMatrix(m, parent >= 0 ? ctms[parent] : IDENTITY)) {
         has |= HAS_CTM;
         nodes.push(m[0], m[1], m[2], m[3], m[4], m[5]);
@@ -482,11 +485,13 @@
       const gi = styles.length;
       const at = nodes.length;
       ctms.push(inner);
-      nameParts.push([idx, '>symbol']);
+      parentOf.push(idx);
+      linkOf.push(-1);
+      tagName.push('symbol');
       const fi = dp && cs.fill === dp.fill ? up[S_FILL] : paint(cs.fill);
       const si = dp && cs.stroke === dp.stroke ? up[S_STROKE] : paint(cs.stroke);
       nodes.push(idx, tagOf('g'), -1, 0);
-      nodes[at + 3] = HAS_CTM | HAS_NAME | pushStyle([0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1]);
+      nodes[at + 3] = HAS_CTM | HAS_NAME | pushStyle(0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1);
       nodes.push(inner[0], inner[1], inner[2], inner[3], inner[4], inner[5]);
       nodes.push(strs.length);
       strs.push(nameOf(idx) + '>symbol');
