@@ -153,55 +153,12 @@ func Walk(s *Snapshot) (*Chart, error) {
 		}
 		slab = append(slab, cand{node: i, n: nd, opacity: opac[i], label: labels[i]})
 		c := &slab[len(slab)-1]
-		if c.label == "" {
-			c.label = nd.Label
-		}
-		scale := math.Sqrt(math.Abs(Matrix(nd.CTM).Det()))
-		c.strokeW = nd.StrokeWidth * scale
-		if nd.Fill.Kind != PaintNone {
-			c.fillA = float64(uint8(nd.Fill.RGBA)) / 255 * clamp01(nd.FillOpacity)
-		}
-		if nd.Stroke.Kind != PaintNone && c.strokeW > 0 {
-			c.strokeA = float64(uint8(nd.Stroke.RGBA)) / 255 * clamp01(nd.StrokeOpacity)
-		}
-		if nd.Tag == "text" {
-			if strings.TrimSpace(nd.Text) == "" {
-				continue
-			}
-			x, y := 0.0, 0.0
-			if len(nd.Geom) >= 2 {
-				x, y = nd.Geom[0], nd.Geom[1]
-			}
-			px, py := Matrix(nd.CTM).Apply(x, y)
-			c.textPos = Point{px, py}
+		switch ch.sortOut(c) {
+		case isText:
 			texts = append(texts, c)
-			continue
+		case isShape:
+			cands = append(cands, c)
 		}
-		if nd.Tag == "image" {
-			ch.Furniture["image"]++
-			continue
-		}
-		g, ok, err := Measure(nd)
-		if err != nil {
-			ch.Problems = append(ch.Problems, fmt.Sprintf("%s: %v; drawn up to the error", nd.Name, err))
-		}
-		if !ok {
-			continue
-		}
-		if len(nd.BBox) == 4 {
-			g.BBox = [4]float64{nd.BBox[0], nd.BBox[1], nd.BBox[2], nd.BBox[3]}
-		}
-		c.g = g
-		if !finiteBox(g.BBox) || !finiteBox([4]float64{g.Area, g.Angle, g.Centroid.X, g.Centroid.Y}) || math.IsInf(nd.StrokeWidth*math.Sqrt(math.Abs(Matrix(nd.CTM).Det())), 0) {
-			ch.Problems = append(ch.Problems, fmt.Sprintf("%s: geometry is not finite; skipped", nd.Name))
-			continue
-		}
-		filled := c.fillA > 0 && g.Area > 0
-		stroked := c.strokeA > 0
-		if !filled && !stroked {
-			c.role = "helper"
-		}
-		cands = append(cands, c)
 	}
 	classifyFurniture(ch, cands)
 	classifyTexts(texts)
@@ -262,6 +219,67 @@ func Walk(s *Snapshot) (*Chart, error) {
 		ch.IsChart = true
 	}
 	return ch, nil
+}
+
+// What a visible node's candidate is.
+const (
+	notDrawn = iota // nothing drawn, an image, or geometry that is not finite
+	isText
+	isShape
+)
+
+// sortOut measures a visible node's candidate and says what it is,
+// counting images and reporting bad geometry on ch. It is a function of
+// its own because it runs per node: a WebAssembly engine optimises a
+// function that is called often, not a loop inside one that runs once.
+func (ch *Chart) sortOut(c *cand) int {
+	nd := c.n
+	if c.label == "" {
+		c.label = nd.Label
+	}
+	scale := math.Sqrt(math.Abs(Matrix(nd.CTM).Det()))
+	c.strokeW = nd.StrokeWidth * scale
+	if nd.Fill.Kind != PaintNone {
+		c.fillA = float64(uint8(nd.Fill.RGBA)) / 255 * clamp01(nd.FillOpacity)
+	}
+	if nd.Stroke.Kind != PaintNone && c.strokeW > 0 {
+		c.strokeA = float64(uint8(nd.Stroke.RGBA)) / 255 * clamp01(nd.StrokeOpacity)
+	}
+	if nd.Tag == "text" {
+		if strings.TrimSpace(nd.Text) == "" {
+			return notDrawn
+		}
+		x, y := 0.0, 0.0
+		if len(nd.Geom) >= 2 {
+			x, y = nd.Geom[0], nd.Geom[1]
+		}
+		px, py := Matrix(nd.CTM).Apply(x, y)
+		c.textPos = Point{px, py}
+		return isText
+	}
+	if nd.Tag == "image" {
+		ch.Furniture["image"]++
+		return notDrawn
+	}
+	g, ok, err := Measure(nd)
+	if err != nil {
+		ch.Problems = append(ch.Problems, fmt.Sprintf("%s: %v; drawn up to the error", nd.Name, err))
+	}
+	if !ok {
+		return notDrawn
+	}
+	if len(nd.BBox) == 4 {
+		g.BBox = [4]float64{nd.BBox[0], nd.BBox[1], nd.BBox[2], nd.BBox[3]}
+	}
+	c.g = g
+	if !finiteBox(g.BBox) || !finiteBox([4]float64{g.Area, g.Angle, g.Centroid.X, g.Centroid.Y}) || math.IsInf(nd.StrokeWidth*scale, 0) {
+		ch.Problems = append(ch.Problems, fmt.Sprintf("%s: geometry is not finite; skipped", nd.Name))
+		return notDrawn
+	}
+	if !(c.fillA > 0 && g.Area > 0) && !(c.strokeA > 0) {
+		c.role = "helper"
+	}
+	return isShape
 }
 
 func clamp01(v float64) float64 {

@@ -4,7 +4,6 @@ import (
 	"cmp"
 	"math"
 	"slices"
-	"sort"
 
 	"standout/perception/colour"
 )
@@ -85,10 +84,15 @@ func (u unionFind) labels() ([]int, int) {
 	return out, k
 }
 
+// group partitions the point-like marks by each cue and compares the
+// partitions. Each cue has a function of its own: besides reading better,
+// small functions keep a WebAssembly engine from spending the first
+// check compiling one large function optimised that runs only once.
 func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]int) Grouping {
 	var g Grouping
-	var lines []Mark
-	for i, m := range in.Marks {
+	var lines []*Mark
+	for i := range in.Marks {
+		m := &in.Marks[i]
 		if len(m.Vertices) >= 2 {
 			lines = append(lines, m)
 			continue
@@ -106,30 +110,42 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 	for k, i := range g.Marks {
 		xs[k], ys[k] = in.Marks[i].X, in.Marks[i].Y
 	}
-	grd := newGrid(xs, ys, 2)
-
-	// Proximity: single linkage at ProximityRatio × median nearest-neighbour
-	// distance, over each mark's nearest neighbours (a k-nearest-neighbour
-	// graph, which joins the same groups wherever groups are denser than
-	// one mark per neighbourhood, and keeps the step O(n log n)).
 	nb := reuseNeighbours(in, g.Marks, kinds, kindNbs)
 	if nb == nil {
 		nb = neighboursXY(xs, ys, max(p.Neighbours, 1))
 	}
+	g.add(CueProximity, proximityGroups(xs, ys, nb, p.ProximityRatio))
+	g.add(CueColour, colourGroups(in, p, g.Marks))
+	g.add(CueShape, shapeGroups(in, g.Marks))
+	if len(lines) > 0 {
+		g.add(CueConnected, connectedGroups(lines, xs, ys, p.ConnectTolerancePx))
+	}
+	g.add(CueRows, alignedGroups(ys))
+	g.add(CueColumns, alignedGroups(xs))
+	g.compare(p)
+	return g
+}
+
+// proximityGroups is single linkage at ratio × the median nearest-
+// neighbour distance, over each mark's nearest neighbours nb (a
+// k-nearest-neighbour graph, which joins the same groups wherever groups
+// are denser than one mark per neighbourhood, and keeps the step
+// O(n log n)).
+func proximityGroups(xs, ys []float64, nb [][]int, ratio float64) unionFind {
+	n := len(xs)
 	nn := make([]float64, n)
-	for k := range g.Marks {
+	for k := range nn {
 		if len(nb[k]) > 0 {
 			j := nb[k][0]
 			nn[k] = math.Hypot(xs[j]-xs[k], ys[j]-ys[k])
 		}
 	}
-	nnSorted := append([]float64(nil), nn...)
-	sort.Float64s(nnSorted)
-	thr := p.ProximityRatio * nnSorted[n/2]
+	slices.Sort(nn)
+	thr := ratio * nn[n/2]
 	uf := newUF(n)
 	if thr > 0 {
 		thr2 := thr * thr
-		for k := range g.Marks {
+		for k := range nb {
 			for _, j := range nb[k] {
 				if dx, dy := xs[j]-xs[k], ys[j]-ys[k]; dx*dx+dy*dy <= thr2 {
 					uf.union(k, j)
@@ -137,47 +153,49 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 			}
 		}
 	}
-	g.add(CueProximity, uf)
+	return uf
+}
 
-	// Colour similarity: marks whose colours are not noticeably different
-	// (at the smaller mark's size) fall together.
+// colourGroups joins the marks whose colours are not noticeably different
+// (at the first mark's size).
+func colourGroups(in Input, p Params, marks []int) unionFind {
 	type cbin struct {
-		c   colour.SRGB
 		lab colour.Lab
 		nd  [3]float64
 		ks  []int
 	}
 	colours := newIndexer[colour.SRGB]()
 	var order []*cbin
-	for k, i := range g.Marks {
+	for k, i := range marks {
 		m := &in.Marks[i]
 		c := colours.of(m.Colour)
 		if c == len(order) {
-			order = append(order, &cbin{c: m.Colour, lab: colour.SRGBToLab(m.Colour), nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)})
+			order = append(order, &cbin{lab: colour.SRGBToLab(m.Colour), nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)})
 		}
 		order[c].ks = append(order[c].ks, k)
 	}
-	uf = newUF(n)
+	uf := newUF(len(marks))
 	if len(order) <= 2048 {
 		for a := range order {
 			for _, k := range order[a].ks[1:] {
 				uf.union(order[a].ks[0], k)
 			}
 			for b := a + 1; b < len(order); b++ {
-				nd := order[a].nd
-				if !colour.Noticeable(order[a].lab, order[b].lab, nd) {
+				if !colour.Noticeable(order[a].lab, order[b].lab, order[a].nd) {
 					uf.union(order[a].ks[0], order[b].ks[0])
 				}
 			}
 		}
 	}
-	g.add(CueColour, uf)
+	return uf
+}
 
-	// Shape class.
-	uf = newUF(n)
+// shapeGroups joins the marks of each shape class.
+func shapeGroups(in Input, marks []int) unionFind {
+	uf := newUF(len(marks))
 	shapes := newIndexer[string]()
 	var first []int
-	for k, i := range g.Marks {
+	for k, i := range marks {
 		s := shapes.of(in.Marks[i].Shape)
 		if s == len(first) {
 			first = append(first, k)
@@ -185,60 +203,64 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 			uf.union(first[s], k)
 		}
 	}
-	g.add(CueShape, uf)
+	return uf
+}
 
-	// Connectedness: marks whose centres lie on the same line.
-	if len(lines) > 0 {
-		uf = newUF(n)
-		for _, l := range lines {
-			tol := l.MinPx/2 + p.ConnectTolerancePx
-			prev := -1
-			for s := 0; s+1 < len(l.Vertices); s++ {
-				a, b := l.Vertices[s], l.Vertices[s+1]
-				cx, cy := (a[0]+b[0])/2, (a[1]+b[1])/2
-				r := math.Hypot(b[0]-a[0], b[1]-a[1])/2 + tol
-				for _, k := range grd.within(cx, cy, r) {
-					if segDist(xs[k], ys[k], a, b) <= tol {
-						if prev >= 0 {
-							uf.union(prev, k)
-						}
-						prev = k
+// connectedGroups joins the marks whose centres lie on the same line,
+// within half its stroke and tol px.
+func connectedGroups(lines []*Mark, xs, ys []float64, tol float64) unionFind {
+	grd := newGrid(xs, ys, 2)
+	uf := newUF(len(xs))
+	for _, l := range lines {
+		t := l.MinPx/2 + tol
+		prev := -1
+		for s := 0; s+1 < len(l.Vertices); s++ {
+			a, b := l.Vertices[s], l.Vertices[s+1]
+			cx, cy := (a[0]+b[0])/2, (a[1]+b[1])/2
+			r := math.Hypot(b[0]-a[0], b[1]-a[1])/2 + t
+			for _, k := range grd.within(cx, cy, r) {
+				if segDist(xs[k], ys[k], a, b) <= t {
+					if prev >= 0 {
+						uf.union(prev, k)
 					}
+					prev = k
 				}
 			}
 		}
-		g.add(CueConnected, uf)
 	}
+	return uf
+}
 
-	// Alignment: shared rows and columns (centres within 1 px).
+// alignedGroups joins marks whose coordinate (the centres' y for rows, x
+// for columns) is within 1 px of the next one's.
+func alignedGroups(coord []float64) unionFind {
 	type keyed struct {
 		v float64
 		k int
 	}
+	n := len(coord)
 	sorted := make([]keyed, n)
-	for _, cue := range []Cue{CueRows, CueColumns} {
-		uf = newUF(n)
-		coord := ys
-		if cue == CueColumns {
-			coord = xs
-		}
-		for k, v := range coord {
-			sorted[k] = keyed{v, k}
-		}
-		slices.SortFunc(sorted, func(a, b keyed) int {
-			if c := cmp.Compare(a.v, b.v); c != 0 {
-				return c
-			}
-			return cmp.Compare(a.k, b.k)
-		})
-		for a := 1; a < n; a++ {
-			if sorted[a].v-sorted[a-1].v <= 1 {
-				uf.union(sorted[a].k, sorted[a-1].k)
-			}
-		}
-		g.add(cue, uf)
+	for k, v := range coord {
+		sorted[k] = keyed{v, k}
 	}
+	slices.SortFunc(sorted, func(a, b keyed) int {
+		if c := cmp.Compare(a.v, b.v); c != 0 {
+			return c
+		}
+		return cmp.Compare(a.k, b.k)
+	})
+	uf := newUF(n)
+	for a := 1; a < n; a++ {
+		if sorted[a].v-sorted[a-1].v <= 1 {
+			uf.union(sorted[a].k, sorted[a-1].k)
+		}
+	}
+	return uf
+}
 
+// compare sets the Adjusted Rand Index of every pair of partitions and
+// classifies it.
+func (g *Grouping) compare(p Params) {
 	for a := 0; a < len(g.Partitions); a++ {
 		for b := a + 1; b < len(g.Partitions); b++ {
 			pa, pb := g.Partitions[a], g.Partitions[b]
@@ -253,7 +275,6 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 			g.Agreements = append(g.Agreements, Agreement{A: pa.Cue, B: pb.Cue, ARI: ari, Relation: rel})
 		}
 	}
-	return g
 }
 
 // add keeps a partition only when it structures the marks: more than one
