@@ -346,9 +346,9 @@ func viewBoxMatrix(vb []float64, w, h float64, par string) Matrix {
 	if align == "none" {
 		return Matrix{sx, 0, 0, sy, -vb[0] * sx, -vb[1] * sy}
 	}
-	s := math.Min(sx, sy)
+	s := min(sx, sy)
 	if slice {
-		s = math.Max(sx, sy)
+		s = max(sx, sy)
 	}
 	tx, ty := -vb[0]*s, -vb[1]*s
 	switch {

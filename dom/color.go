@@ -195,7 +195,7 @@ func alpha(args []token) (float64, bool) {
 	if pct {
 		v /= 100
 	}
-	return math.Min(math.Max(v, 0), 1), true
+	return min(max(v, 0), 1), true
 }
 
 func parseRGBFunc(s string, args []token) (Colour, error) {
@@ -210,7 +210,7 @@ func parseRGBFunc(s string, args []token) (Colour, error) {
 		} else {
 			v = v / 255
 		}
-		ch[i] = math.Min(math.Max(v, 0), 1)
+		ch[i] = min(max(v, 0), 1)
 	}
 	a, ok := alpha(args)
 	if !ok {
@@ -272,7 +272,7 @@ func angle(s string) (float64, bool) {
 // RGBA packs a colour as 0xRRGGBBAA, rounding each channel to 8 bits.
 func RGBA(c Colour) uint32 {
 	r, g, b := c.SRGB.RGB8()
-	a := uint32(math.Round(math.Min(math.Max(c.A, 0), 1) * 255))
+	a := uint32(math.Round(min(max(c.A, 0), 1) * 255))
 	return uint32(r)<<24 | uint32(g)<<16 | uint32(b)<<8 | a
 }
 

@@ -136,8 +136,8 @@ func Measure(n *Node) (g Geometry, ok bool, err error) {
 	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
 	for _, s := range g.local {
 		for _, p := range s {
-			minX, maxX = math.Min(minX, p.X), math.Max(maxX, p.X)
-			minY, maxY = math.Min(minY, p.Y), math.Max(maxY, p.Y)
+			minX, maxX = min(minX, p.X), max(maxX, p.X)
+			minY, maxY = min(minY, p.Y), max(maxY, p.Y)
 		}
 	}
 	g.BBox = m.boundsOf(minX, minY, maxX, maxY)
@@ -151,8 +151,8 @@ func (m Matrix) boundsOf(x0, y0, x1, y1 float64) [4]float64 {
 	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
 	for _, c := range [4][2]float64{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}} {
 		x, y := m.Apply(c[0], c[1])
-		minX, maxX = math.Min(minX, x), math.Max(maxX, x)
-		minY, maxY = math.Min(minY, y), math.Max(maxY, y)
+		minX, maxX = min(minX, x), max(maxX, x)
+		minY, maxY = min(minY, y), max(maxY, y)
 	}
 	return [4]float64{minX, minY, maxX - minX, maxY - minY}
 }
@@ -172,8 +172,8 @@ func svd2(a, b, c, d float64) (float64, float64, float64) {
 	// M·Mᵀ = [[a²+c², ab+cd], [ab+cd, b²+d²]]
 	p, q, r := a*a+c*c, a*b+c*d, b*b+d*d
 	tr, det := p+r, p*r-q*q
-	disc := math.Sqrt(math.Max(tr*tr/4-det, 0))
-	l1, l2 := tr/2+disc, math.Max(tr/2-disc, 0)
+	disc := math.Sqrt(max(tr*tr/4-det, 0))
+	l1, l2 := tr/2+disc, max(tr/2-disc, 0)
 	ang := 0.5 * math.Atan2(2*q, p-r) * 180 / math.Pi
 	return math.Sqrt(l1), math.Sqrt(l2), ang
 }
@@ -205,8 +205,8 @@ func (g *Geometry) measurePolys() {
 		}
 		pts := s.Pts
 		for i, p := range pts {
-			minX, maxX = math.Min(minX, p.X), math.Max(maxX, p.X)
-			minY, maxY = math.Min(minY, p.Y), math.Max(maxY, p.Y)
+			minX, maxX = min(minX, p.X), max(maxX, p.X)
+			minY, maxY = min(minY, p.Y), max(maxY, p.Y)
 			q := pts[(i+1)%len(pts)]
 			if i+1 == len(pts) && !s.Closed {
 				q = pts[0] // the fill still closes the subpath

@@ -273,7 +273,7 @@ func closeLoops(subs []Subpath) {
 			continue
 		}
 		a, b := s.Pts[0], s.Pts[len(s.Pts)-1]
-		scale := math.Max(math.Abs(a.X)+math.Abs(a.Y), 1)
+		scale := max(math.Abs(a.X)+math.Abs(a.Y), 1)
 		if math.Abs(a.X-b.X) <= 1e-9*scale && math.Abs(a.Y-b.Y) <= 1e-9*scale {
 			s.Closed = true
 		}

@@ -345,5 +345,5 @@ func number01(v string, def float64) float64 {
 	if pct {
 		x /= 100
 	}
-	return math.Min(math.Max(x, 0), 1)
+	return min(max(x, 0), 1)
 }

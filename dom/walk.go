@@ -333,8 +333,8 @@ func classifyFurniture(ch *Chart, cands []*cand) {
 			continue
 		}
 		b := c.g.BBox
-		ux0, uy0 = math.Min(ux0, b[0]), math.Min(uy0, b[1])
-		ux1, uy1 = math.Max(ux1, b[0]+b[2]), math.Max(uy1, b[1]+b[3])
+		ux0, uy0 = min(ux0, b[0]), min(uy0, b[1])
+		ux1, uy1 = max(ux1, b[0]+b[2]), max(uy1, b[1]+b[3])
 	}
 	unionArea := (ux1 - ux0) * (uy1 - uy0)
 	nShapes := 0
@@ -418,7 +418,7 @@ func classifyFurniture(ch *Chart, cands []*cand) {
 		if vert && a.Y > b.Y || !vert && a.X > b.X {
 			a, b = b, a
 		}
-		segs = append(segs, seg{c, a, b, vert, math.Max(dx, dy)})
+		segs = append(segs, seg{c, a, b, vert, max(dx, dy)})
 	}
 	type key struct {
 		vert   bool
@@ -588,7 +588,7 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 			continue
 		}
 		b := c.g.BBox
-		size := math.Max(b[2], b[3])
+		size := max(b[2], b[3])
 		if size > 60 {
 			continue
 		}
@@ -606,7 +606,7 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 			}
 			dx := t.textPos.X - right
 			dy := math.Abs(t.textPos.Y - fs*0.35 - cy)
-			if dx >= -1 && dx <= math.Max(size, 10)+12 && dy <= math.Max(size, fs)*0.6 && dx < bestDx {
+			if dx >= -1 && dx <= max(size, 10)+12 && dy <= max(size, fs)*0.6 && dx < bestDx {
 				best, bestDx = t, dx
 			}
 		}
@@ -650,7 +650,7 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 			continue
 		}
 		b := c.g.BBox
-		if math.Max(b[2], b[3]) >= 4*math.Min(b[2], b[3]) {
+		if max(b[2], b[3]) >= 4*min(b[2], b[3]) {
 			c.role = "legend"
 		}
 	}
@@ -767,7 +767,7 @@ func rectKinds(grp []*cand) {
 	switch {
 	case len(grp) >= 4 && equal && len(xs) >= 2 && len(ys) >= 2 && tiles(grp):
 		kind = KindCell
-	case equal && len(grp) >= 2 && squareish(grp[0].g.Subpaths[0].Pts) && math.Max(grp[0].g.BBox[2], grp[0].g.BBox[3]) <= 24:
+	case equal && len(grp) >= 2 && squareish(grp[0].g.Subpaths[0].Pts) && max(grp[0].g.BBox[2], grp[0].g.BBox[3]) <= 24:
 		kind = KindPoint
 	}
 	for _, c := range grp {
@@ -784,15 +784,15 @@ func tiles(grp []*cand) bool {
 	near := 0
 	for i, a := range grp {
 		ab := a.g.BBox
-		gap := 0.1*math.Max(ab[2], ab[3]) + 1
+		gap := 0.1*max(ab[2], ab[3]) + 1
 		for j, b := range grp {
 			if i == j {
 				continue
 			}
 			bb := b.g.BBox
-			dx := math.Max(bb[0]-(ab[0]+ab[2]), ab[0]-(bb[0]+bb[2]))
-			dy := math.Max(bb[1]-(ab[1]+ab[3]), ab[1]-(bb[1]+bb[3]))
-			if math.Max(dx, dy) <= gap {
+			dx := max(bb[0]-(ab[0]+ab[2]), ab[0]-(bb[0]+bb[2]))
+			dy := max(bb[1]-(ab[1]+ab[3]), ab[1]-(bb[1]+bb[3]))
+			if max(dx, dy) <= gap {
 				near++
 				break
 			}
@@ -808,13 +808,13 @@ func pointLike(g *Geometry) bool {
 	for _, s := range g.Subpaths {
 		n += len(s.Pts)
 	}
-	return n <= 48 && math.Max(g.BBox[2], g.BBox[3]) <= 60
+	return n <= 48 && max(g.BBox[2], g.BBox[3]) <= 60
 }
 
 // symbolStrokes: a glyph drawn as a few short crossing strokes (a plus, an
 // ×, an asterisk).
 func symbolStrokes(g *Geometry) bool {
-	if len(g.Subpaths) < 2 || len(g.Subpaths) > 4 || math.Max(g.BBox[2], g.BBox[3]) > 30 {
+	if len(g.Subpaths) < 2 || len(g.Subpaths) > 4 || max(g.BBox[2], g.BBox[3]) > 30 {
 		return false
 	}
 	for _, s := range g.Subpaths {
@@ -858,7 +858,7 @@ func makeMark(c *cand) Mark {
 	}
 	switch m.Kind {
 	case KindBar, KindRule:
-		m.Size = math.Max(c.g.BBox[2], c.g.BBox[3])
+		m.Size = max(c.g.BBox[2], c.g.BBox[3])
 		if m.Kind == KindRule {
 			m.Size = c.g.Length
 			for _, s := range c.g.Subpaths {

@@ -171,10 +171,10 @@ func spatialOrder(marks []Mark, idx []int) {
 	}
 	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
 	for _, i := range idx {
-		minX, maxX = math.Min(minX, marks[i].X), math.Max(maxX, marks[i].X)
-		minY, maxY = math.Min(minY, marks[i].Y), math.Max(maxY, marks[i].Y)
+		minX, maxX = min(minX, marks[i].X), max(maxX, marks[i].X)
+		minY, maxY = min(minY, marks[i].Y), max(maxY, marks[i].Y)
 	}
-	sx, sy := 65535/math.Max(maxX-minX, 1e-9), 65535/math.Max(maxY-minY, 1e-9)
+	sx, sy := 65535/max(maxX-minX, 1e-9), 65535/max(maxY-minY, 1e-9)
 	type keyed struct {
 		code uint32
 		i    int

@@ -188,7 +188,7 @@ func contrastFindings(in Input) []Finding {
 		}
 		cr := ratio(m.Colour)
 		if m.HasOutline {
-			cr = math.Max(cr, ratio(m.Outline))
+			cr = max(cr, ratio(m.Outline))
 		}
 		need := colour.NonTextContrast
 		if m.Kind == "text" {

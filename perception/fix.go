@@ -67,10 +67,10 @@ func suggestFix(in Input, p Params, em []int, res *Result) *Fix {
 			sc := sim(v, c)
 			mv := math.Inf(1)
 			for _, o := range simOthers[vi] {
-				mv = math.Min(mv, colour.NDUnits(sc, o, nd))
+				mv = min(mv, colour.NDUnits(sc, o, nd))
 			}
 			m[v.String()] = mv
-			w = math.Min(w, mv)
+			w = min(w, mv)
 		}
 		return w, m
 	}
@@ -116,7 +116,7 @@ func suggestFix(in Input, p Params, em []int, res *Result) *Fix {
 		}
 		w := math.Inf(1)
 		for _, v := range Visions {
-			w = math.Min(w, colour.NDUnits(sim(v, tc), sim(v, g), nd))
+			w = min(w, colour.NDUnits(sim(v, tc), sim(v, g), nd))
 		}
 		if w > bestGW {
 			bestG, bestGW = g, w
@@ -156,7 +156,7 @@ func suggestFix(in Input, p Params, em []int, res *Result) *Fix {
 func minMargin(f *Fix) float64 {
 	m := math.Inf(1)
 	for _, v := range f.Margin {
-		m = math.Min(m, v)
+		m = min(m, v)
 	}
 	return m
 }

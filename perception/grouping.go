@@ -292,7 +292,7 @@ func segDist(x, y float64, a, b [2]float64) float64 {
 	l2 := dx*dx + dy*dy
 	t := 0.0
 	if l2 > 0 {
-		t = math.Max(0, math.Min(1, ((x-a[0])*dx+(y-a[1])*dy)/l2))
+		t = max(0, min(1, ((x-a[0])*dx+(y-a[1])*dy)/l2))
 	}
 	return math.Hypot(x-(a[0]+t*dx), y-(a[1]+t*dy))
 }

@@ -26,12 +26,12 @@ func newGrid(x, y []float64, perCell float64) *grid {
 	}
 	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
 	for i := range x {
-		minX, maxX = math.Min(minX, x[i]), math.Max(maxX, x[i])
-		minY, maxY = math.Min(minY, y[i]), math.Max(maxY, y[i])
+		minX, maxX = min(minX, x[i]), max(maxX, x[i])
+		minY, maxY = min(minY, y[i]), max(maxY, y[i])
 	}
-	w, h := math.Max(maxX-minX, 1e-6), math.Max(maxY-minY, 1e-6)
+	w, h := max(maxX-minX, 1e-6), max(maxY-minY, 1e-6)
 	// About perCell points per cell on average, and at most 4n cells.
-	g.cell = math.Max(math.Sqrt(perCell*w*h/float64(n)), 1e-6)
+	g.cell = max(math.Sqrt(perCell*w*h/float64(n)), 1e-6)
 	for float64(int(w/g.cell)+1)*float64(int(h/g.cell)+1) > float64(4*n+16) {
 		g.cell *= 2
 	}

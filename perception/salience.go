@@ -174,7 +174,7 @@ func newDisplayShared(p *Params, all []Mark, idx []int, v colour.Deficiency, sev
 			if m.Length {
 				exp = p.StevensLength
 			}
-			d.size[k] = exp * math.Log(math.Max(m.Size, 1e-9)) / math.Log(p.SizeStepRatio)
+			d.size[k] = exp * math.Log(max(m.Size, 1e-9)) / math.Log(p.SizeStepRatio)
 			if fold == -1 {
 				fold = m.Fold
 			} else if fold != m.Fold {
@@ -191,7 +191,7 @@ func newDisplayShared(p *Params, all []Mark, idx []int, v colour.Deficiency, sev
 	}
 	// A target group is a minority: in three marks, two alike are the
 	// majority, whatever the fraction says.
-	d.small = min(int(math.Max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n)))), (n-1)/2)
+	d.small = min(int(max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n)))), (n-1)/2)
 	return d
 }
 
@@ -212,7 +212,7 @@ func (d *display) dist(c Channel, a, b int) float64 {
 			return 0
 		}
 		x := math.Mod(math.Abs(d.ori[a]-d.ori[b]), d.oriP)
-		return math.Min(x, d.oriP-x)
+		return min(x, d.oriP-x)
 	case Shape:
 		if d.shape[a] != d.shape[b] {
 			return 1
@@ -284,7 +284,7 @@ func (d *display) stats(c Channel) channelStats {
 				distractors++
 			}
 		}
-		st.spread = math.Max(0, float64(distractors-1))
+		st.spread = max(0, float64(distractors-1))
 	}
 	return st
 }
@@ -314,18 +314,18 @@ func (d *display) scalarStats(vals []float64, period float64, st *channelStats) 
 			// Values ≥ x + minD and ≤ x − minD.
 			i := sort.SearchFloat64s(sorted, x+minD)
 			if i < n {
-				best = math.Min(best, sorted[i]-x)
+				best = min(best, sorted[i]-x)
 			}
 			j := sort.SearchFloat64s(sorted, math.Nextafter(x-minD, math.Inf(1))) - 1
 			if j >= 0 {
-				best = math.Min(best, x-sorted[j])
+				best = min(best, x-sorted[j])
 			}
 		}
 		try(v)
 		if period > 0 {
 			try(v + period)
 			try(v - period)
-			best = math.Min(best, period/2)
+			best = min(best, period/2)
 		}
 		return best
 	}
@@ -438,7 +438,7 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		if g <= d.small && g < n {
 			for j := range list {
 				if i != j && dm[i*B+j] >= 1 {
-					global = math.Min(global, dm[i*B+j])
+					global = min(global, dm[i*B+j])
 				}
 			}
 		} else {
@@ -447,7 +447,7 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 			}
 			for j := range list {
 				if i != j {
-					global = math.Min(global, dm[i*B+j])
+					global = min(global, dm[i*B+j])
 				}
 			}
 			distractorBins = append(distractorBins, bi)

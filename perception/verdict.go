@@ -79,8 +79,8 @@ func (d *display) judgeSome(only []int) []MarkResult {
 					local = localSalience(ld, m, h, global, st.group[k] > d.small)
 					local2 = localSalience(ld2, m2, h2, global2, st2.group[k] > d.small)
 				}
-				r.Salience[hueCI] = math.Max(global, local)
-				r.Salience[lightCI] = math.Max(global2, local2)
+				r.Salience[hueCI] = max(global, local)
+				r.Salience[lightCI] = max(global2, local2)
 				continue
 			}
 			local := 0.0
@@ -95,7 +95,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 				}
 				local = localSalience(ld, m, h, global, st.group[k] > d.small)
 			}
-			r.Salience[ci] = math.Max(global, local)
+			r.Salience[ci] = max(global, local)
 		}
 		start := len(chBuf)
 		for ci, c := range Channels {
@@ -155,7 +155,7 @@ func localSalience(ld, margin, h, global float64, large bool) float64 {
 	}
 	local := ld / margin / (1 + h)
 	if large {
-		local = math.Min(local, global+0.5/(1+h))
+		local = min(local, global+0.5/(1+h))
 	}
 	return local
 }
@@ -190,7 +190,7 @@ func neighboursXY(xs, ys []float64, k int) [][]int {
 	}
 	// About k/2 points a cell: the k nearest then usually lie within the
 	// first ring of cells.
-	g := newGrid(xs, ys, math.Max(2, float64(k)/2))
+	g := newGrid(xs, ys, max(2, float64(k)/2))
 	nb := make([][]int, n)
 	flat := make([]int, n*k)
 	ds := make([]float64, 0, k)
@@ -251,11 +251,11 @@ func (d *display) conjunctions(res []MarkResult, stats *[5]channelStats) {
 			if sigOf(j) == sigOf(k) {
 				continue
 			}
-			max := 0.0
+			most := 0.0
 			for _, c := range Channels {
-				max = math.Max(max, d.dist(c, k, j))
+				most = max(most, d.dist(c, k, j))
 			}
-			if max < 1 {
+			if most < 1 {
 				unique = false
 				break
 			}

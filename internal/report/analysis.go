@@ -32,18 +32,18 @@ func ToPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
 		default:
 			pm.Colour = bg
 		}
-		pm.MinPx, pm.MaxPx = math.Min(m.BBox[2], m.BBox[3]), math.Max(m.BBox[2], m.BBox[3])
+		pm.MinPx, pm.MaxPx = min(m.BBox[2], m.BBox[3]), max(m.BBox[2], m.BBox[3])
 		switch m.Kind {
 		case dom.KindPoint:
 			pm.Type = colour.Point
 			if !filled {
-				pm.MinPx = math.Max(m.StrokeWidth, 0.5)
+				pm.MinPx = max(m.StrokeWidth, 0.5)
 				pm.Type = colour.Line
 			}
 		case dom.KindBar, dom.KindRule:
 			pm.Type, pm.Length = colour.Bar, true
 			if m.Kind == dom.KindRule {
-				pm.Type, pm.MinPx = colour.Line, math.Max(m.StrokeWidth, 0.5)
+				pm.Type, pm.MinPx = colour.Line, max(m.StrokeWidth, 0.5)
 				// A rule connects what it passes through.
 				if len(m.Vertices) >= 2 {
 					for _, v := range m.Vertices {
@@ -52,12 +52,12 @@ func ToPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
 				}
 			}
 		case dom.KindLine:
-			pm.Type, pm.MinPx = colour.Line, math.Max(m.StrokeWidth, 0.5)
+			pm.Type, pm.MinPx = colour.Line, max(m.StrokeWidth, 0.5)
 			for _, v := range m.Vertices {
 				pm.Vertices = append(pm.Vertices, [2]float64{v.X, v.Y})
 			}
 		case dom.KindText:
-			pm.Type, pm.MinPx = colour.Line, math.Max(m.Size/8, 0.5) // stroke weight of text, about an eighth of the size
+			pm.Type, pm.MinPx = colour.Line, max(m.Size/8, 0.5) // stroke weight of text, about an eighth of the size
 		default:
 			pm.Type = colour.Area
 		}
