@@ -69,14 +69,14 @@ async function readPage(tabId, toggle, emphasis) {
 // the core and returns the core's response (a JSON string: {ok, overlay}
 // or {ok, report, markdown}, or {ok: false, error}) with the timings of
 // the steps, or {closed: true} when toggle closed an open check.
-async function analyse(tabId, { toggle = false, emphasis = [], severity, full = false } = {}) {
+async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false } = {}) {
   const t0 = performance.now();
   const [read, loadMs] = await Promise.all([readPage(tabId, toggle, ''), loadCore()]);
   if (read.closed) return read;
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as
   // the read pass wrote it, for the core's fast snapshot decoder.
-  const options = { type: 'analyse', emphasis, full };
+  const options = { type: 'analyse', emphasisNodes, full };
   if (typeof severity === 'number') options.severity = severity;
   const response = globalThis.standoutHandle(JSON.stringify(options), read.json);
   const t2 = performance.now();
@@ -137,7 +137,7 @@ chrome.runtime.onMessage.addListener((msg, sender, sendResponse) => {
   switch (msg && msg.type) {
     case 'standout/reanalyse':
     case 'standout/full-report':
-      analyse(tabId, { emphasis: msg.data.emphasis, severity: msg.data.severity, full: msg.type === 'standout/full-report' })
+      analyse(tabId, { emphasisNodes: msg.data.emphasisNodes, severity: msg.data.severity, full: msg.type === 'standout/full-report' })
         .then((r) => sendResponse({ ok: true, data: r }))
         .catch((e) => sendResponse({ ok: false, error: String((e && e.message) || e) }));
       return true;

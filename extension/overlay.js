@@ -63,12 +63,12 @@
     layers: new Map(), // path → {svg, entry, readBox, chart, highlight, selection}
     report: null,
     picking: false,
-    picked: new Set(), // mark ids
+    picked: new Set(), // picked marks, as "chart path#snapshot node"
     catcher: null,
     observers: [],
     listeners: [],
     preview: null, // {svg, restored: [[el, styleAttr]]}
-    emphasis: [], // the emphasis the shown check ran with
+    emphasis: [], // the picks the shown check ran with
     rerunTimer: 0,
     frame: 0,
   };
@@ -208,10 +208,10 @@
   }
 
   function showSelection() {
-    for (const l of state.layers.values()) {
+    for (const [path, l] of state.layers) {
       const idx = [];
-      l.chart.ids.forEach((id, i) => {
-        if (state.picked.has(id)) idx.push(i);
+      l.chart.nodes.forEach((node, i) => {
+        if (state.picked.has(path + '#' + node)) idx.push(i);
       });
       l.selection.setAttribute('d', rectPath(l.chart, idx, l.readBox[0], l.readBox[1], 7));
     }
@@ -290,7 +290,7 @@
       if (!c.isChart) continue;
       n++;
       const sec = el('section', { 'aria-label': 'Chart ' + c.path });
-      sec.appendChild(el('h2', {}, `Chart ${c.path}: ${c.ids.length} marks`));
+      sec.appendChild(el('h2', {}, `Chart ${c.path}: ${c.nodes.length} marks`));
       const counts = { pops: 0, conjunction: 0, blends: 0 };
       for (const v of c.verdicts) counts[VERDICT_OF[v] || 'blends']++;
       sec.appendChild(el('p', {}, `${counts.pops} ${WORDS.pops}; ${counts.conjunction} only by a slow search; ${counts.blends} ${WORDS.blends}.`));
@@ -349,19 +349,19 @@
   function pickAt(px, py) {
     let best = null;
     let bestArea = Infinity;
-    for (const l of state.layers.values()) {
+    for (const [path, l] of state.layers) {
       const pb = globalThis.standoutReader.pageBox(l.entry);
       const dx = pb[0] - l.readBox[0];
       const dy = pb[1] - l.readBox[1];
       const b = l.chart.boxes;
       const pad = 3;
-      for (let i = 0; i < l.chart.ids.length; i++) {
+      for (let i = 0; i < l.chart.nodes.length; i++) {
         const x = b[4 * i] + dx;
         const y = b[4 * i + 1] + dy;
         const w = b[4 * i + 2];
         const h = b[4 * i + 3];
         if (px >= x - pad && px <= x + w + pad && py >= y - pad && py <= y + h + pad && w * h < bestArea) {
-          best = l.chart.ids[i];
+          best = path + '#' + l.chart.nodes[i];
           bestArea = w * h;
         }
       }
@@ -378,7 +378,7 @@
     setPicking(false);
     const severity = state.panel ? Number(state.panel.querySelector('[data-action="severity"]').value) / 10 : 1;
     state.emphasis = [...state.picked];
-    const resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasis: state.emphasis, severity } });
+    const resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasisNodes: state.emphasis, severity } });
     if (!resp || !resp.ok) {
       showError((resp && resp.error) || 'the check could not run again');
       return;
@@ -464,7 +464,7 @@
   // Markdown.
   async function exportReport(kind) {
     const severity = state.panel ? Number(state.panel.querySelector('[data-action="severity"]').value) / 10 : 1;
-    const resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasis: state.emphasis || [], severity } });
+    const resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasisNodes: state.emphasis || [], severity } });
     if (!resp || !resp.ok) {
       showError((resp && resp.error) || 'the report could not be made');
       return;

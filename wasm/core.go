@@ -8,6 +8,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"runtime/debug"
+	"strconv"
 	"strings"
 	"time"
 
@@ -27,8 +28,11 @@ type Request struct {
 	// Problems are page-level notes from the read pass (frames that could
 	// not be read, …).
 	Problems []string `json:"problems"`
-	// Emphasis names the intended emphasis by mark id.
-	Emphasis []string `json:"emphasis"`
+	// Emphasis names the intended emphasis by mark id; EmphasisNodes by
+	// chart path and snapshot node, as "path#node" (the overlay's picks,
+	// which it knows by the digest's node indices).
+	Emphasis      []string `json:"emphasis"`
+	EmphasisNodes []string `json:"emphasisNodes"`
 	Severity *float64 `json:"severity"`
 	// Full asks for the whole report and its Markdown; otherwise the
 	// response carries the overlay's digest (what the overlay draws and
@@ -96,6 +100,8 @@ func parseOptions(b []byte) (*Request, error) {
 			q.Type, err = d.Text()
 		case "emphasis":
 			q.Emphasis, err = d.Strings(q.Emphasis[:0])
+		case "emphasisNodes":
+			q.EmphasisNodes, err = d.Strings(q.EmphasisNodes[:0])
 		case "severity":
 			if !d.Null() {
 				var v float64
@@ -149,6 +155,20 @@ func handle(q *Request, t0 time.Time) []byte {
 		for _, id := range q.Emphasis {
 			opt.IDs[id] = true
 		}
+	}
+	for _, pn := range q.EmphasisNodes {
+		i := strings.LastIndexByte(pn, '#')
+		node, err := strconv.Atoi(pn[i+1:])
+		if i < 0 || err != nil || node < 0 {
+			return errorResponse(fmt.Sprintf("bad request: emphasis node %q is not path#node", pn))
+		}
+		if opt.Nodes == nil {
+			opt.Nodes = map[string]map[int]bool{}
+		}
+		if opt.Nodes[pn[:i]] == nil {
+			opt.Nodes[pn[:i]] = map[int]bool{}
+		}
+		opt.Nodes[pn[:i]][node] = true
 	}
 	timing["decodeMs"] = ms(t0)
 	t1 := time.Now()

@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"fmt"
 	"math"
 	"math/rand"
 	"os"
@@ -102,11 +103,13 @@ func TestDigestMatchesReport(t *testing.T) {
 	assert.Equal(t, fp.Source, lp.Source)
 	assert.Equal(t, fp.Problems, lp.Problems)
 	fc, lc := fp.Charts[0], lp.Charts[0]
-	require.Len(t, lc.IDs, len(fc.Marks))
+	require.Len(t, lc.Nodes, len(fc.Marks))
+	// The node of each mark is the node its id names.
+	nodeName := func(k int) string { return p.Charts[0].Nodes[lc.Nodes[k]].Name }
 	require.Len(t, lc.Boxes, 4*len(fc.Marks))
 	require.Len(t, lc.Verdicts, len(fc.Marks))
 	for i, m := range fc.Marks {
-		assert.Equal(t, m.ID, lc.IDs[i])
+		assert.Equal(t, m.ID, nodeName(i))
 		assert.Equal(t, m.BBox[:], lc.Boxes[4*i:4*i+4])
 		assert.Equal(t, m.Verdict[:1], lc.Verdicts[i:i+1])
 	}
@@ -117,7 +120,7 @@ func TestDigestMatchesReport(t *testing.T) {
 		assert.Equal(t, []any{f.ID, f.Severity, f.Message}, []any{g.ID, g.Severity, g.Message})
 		var ids []string
 		for _, k := range g.Marks {
-			ids = append(ids, lc.IDs[k])
+			ids = append(ids, nodeName(k))
 		}
 		assert.ElementsMatch(t, f.Marks, ids)
 		if f.Fix != nil {
@@ -128,7 +131,7 @@ func TestDigestMatchesReport(t *testing.T) {
 	require.NotNil(t, lc.Emphasis)
 	var em []string
 	for _, k := range lc.Emphasis.Marks {
-		em = append(em, lc.IDs[k])
+		em = append(em, nodeName(k))
 	}
 	assert.Equal(t, fc.Emphasis.Marks, em)
 	assert.Equal(t, fc.Emphasis.Holds, lc.Emphasis.Holds)
@@ -169,4 +172,31 @@ func TestParseOptionsMatchesEncodingJSON(t *testing.T) {
 		_, err := parseOptions([]byte(bad))
 		assert.Error(t, err, bad)
 	}
+}
+
+func TestEmphasisByNode(t *testing.T) {
+	// The overlay names its picks by chart and node; the core reports them
+	// by id, as if they had been named so.
+	doc := `<svg width="200" height="100"><g><rect x="0" y="50" width="10" height="50" fill="#999"/><rect x="20" y="40" width="10" height="60" fill="#999"/>
+	<rect x="40" y="30" width="10" height="70" fill="#999"/><rect x="60" y="45" width="10" height="55" fill="#999"/></g></svg>`
+	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
+	require.NoError(t, err)
+	node := -1
+	for i, n := range p.Charts[0].Nodes {
+		if n.Name == "svg0/g0/rect2" {
+			node = i
+		}
+	}
+	require.GreaterOrEqual(t, node, 0)
+	page, _ := json.Marshal(map[string]any{"source": "t", "snapshots": p.Charts})
+	var byNode, byID Response
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(fmt.Sprintf(`{"type":"analyse","full":true,"emphasisNodes":["svg0#%d"]}`, node)), page), &byNode))
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse","full":true,"emphasis":["svg0/g0/rect2"]}`), page), &byID))
+	require.True(t, byNode.OK, byNode.Error)
+	assert.Equal(t, []string{"svg0/g0/rect2"}, byNode.Report.Pages[0].Charts[0].Emphasis.Marks)
+	byNode.Timing, byID.Timing = nil, nil
+	assert.Equal(t, byID, byNode)
+	var bad Response
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse","emphasisNodes":["svg0"]}`), page), &bad))
+	assert.False(t, bad.OK)
 }

@@ -32,10 +32,12 @@ type DigestChart struct {
 	Path    string     `json:"path"`
 	IsChart bool       `json:"isChart"`
 	Box     [4]float64 `json:"box"`
-	// IDs are the marks' ids; Boxes holds each mark's x y width height in
-	// page px, rounded to hundredths as in the report; Verdicts holds one
-	// letter per mark: p pops, c conjunction, b blends.
-	IDs      []string        `json:"ids"`
+	// Nodes are the marks' snapshot nodes (the overlay names a mark by its
+	// chart and node, and the core turns those into ids); Boxes holds each
+	// mark's x y width height in page px, rounded to hundredths as in the
+	// report; Verdicts holds one letter per mark: p pops, c conjunction, b
+	// blends.
+	Nodes    []int           `json:"nodes"`
 	Boxes    []float64       `json:"boxes"`
 	Verdicts string          `json:"verdicts"`
 	Findings []DigestFinding `json:"findings"`
@@ -94,12 +96,12 @@ func appendDigest(b []byte, source string, problems []string, as []report.Analys
 		b = strconv.AppendBool(b, ch.IsChart)
 		b = append(b, `,"box":`...)
 		b = jsonio.AppendFloats(b, ch.Box[:])
-		b = append(b, `,"ids":[`...)
+		b = append(b, `,"nodes":[`...)
 		for i, m := range ch.Marks {
 			if i > 0 {
 				b = append(b, ',')
 			}
-			b = jsonio.AppendString(b, m.ID)
+			b = strconv.AppendInt(b, int64(m.Node), 10)
 		}
 		b = append(b, `],"boxes":[`...)
 		for i, m := range ch.Marks {

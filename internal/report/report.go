@@ -142,6 +142,9 @@ type Options struct {
 	Selector string
 	// IDs names the intended emphasis by mark id.
 	IDs map[string]bool
+	// Nodes names it by snapshot node: per chart path, the node indices
+	// (the overlay's picks).
+	Nodes map[string]map[int]bool
 	// Params are the perception model's thresholds.
 	Params perception.Params
 }
@@ -176,11 +179,30 @@ func AnalyseSnapshots(snaps []dom.Snapshot, opt Options) ([]Analysed, error) {
 		}
 		a := Analysed{Chart: ch}
 		if ch.IsChart {
-			a.Result = perception.Analyse(ToPerception(ch, opt.IDs), opt.Params)
+			a.Result = perception.Analyse(ToPerception(ch, emphasisIDs(ch, opt)), opt.Params)
 		}
 		out = append(out, a)
 	}
 	return out, nil
+}
+
+// emphasisIDs is the declared emphasis of one chart by mark id: opt.IDs,
+// and the marks of the nodes opt.Nodes names in this chart.
+func emphasisIDs(ch *dom.Chart, opt Options) map[string]bool {
+	nodes := opt.Nodes[ch.Path]
+	if len(nodes) == 0 {
+		return opt.IDs
+	}
+	ids := map[string]bool{}
+	for id := range opt.IDs {
+		ids[id] = true
+	}
+	for _, m := range ch.Marks {
+		if nodes[m.Node] {
+			ids[m.ID] = true
+		}
+	}
+	return ids
 }
 
 // FromSnapshots walks and analyses snapshots, from the static builder or
