@@ -15,7 +15,7 @@ var Visions = []colour.Deficiency{colour.Normal, colour.Protan, colour.Deutan, c
 // Result is the analysis of one chart.
 type Result struct {
 	// Marks[i][v] is mark i's result under Visions[v]. With
-	// Params.CVDEmphasisOnly, only the emphasised marks' rows hold every
+	// Params.FindingsOnly, only the emphasised marks' rows hold every
 	// vision type; the others hold normal vision alone.
 	Marks [][]MarkResult
 	// Emphasis is the intended emphasis (given, or inferred when Inferred).
@@ -41,7 +41,7 @@ func Analyse(in Input, p Params) *Result {
 	n := len(in.Marks)
 	res := &Result{Marks: make([][]MarkResult, n), Holds: make([]bool, len(Visions))}
 	rows := len(Visions)
-	if p.CVDEmphasisOnly {
+	if p.FindingsOnly {
 		rows = 1 // the emphasis's rows grow once it is known
 	}
 	flat := make([]MarkResult, n*rows)
@@ -108,10 +108,10 @@ func Analyse(in Input, p Params) *Result {
 		res.Inferred = true
 		res.Emphasis = inferEmphasis(in, res)
 	}
-	// Under CVD: every mark, or (CVDEmphasisOnly) just the emphasis, whose
+	// Under CVD: every mark, or (FindingsOnly) just the emphasis, whose
 	// fate is what the findings report.
 	var only map[string][]int
-	if p.CVDEmphasisOnly {
+	if p.FindingsOnly {
 		only = map[string][]int{}
 		pos := make([]int, n)
 		for _, k := range keys {

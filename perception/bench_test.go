@@ -47,7 +47,7 @@ func benchAnalyse(b *testing.B, n int) {
 func BenchmarkOverlayAnalyse5k(b *testing.B) {
 	in := benchMarks(5000)
 	p := DefaultParams
-	p.CVDEmphasisOnly = true
+	p.FindingsOnly = true
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {

@@ -120,8 +120,10 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 	if len(lines) > 0 {
 		g.add(CueConnected, connectedGroups(lines, xs, ys, p.ConnectTolerancePx))
 	}
-	g.add(CueRows, alignedGroups(ys))
-	g.add(CueColumns, alignedGroups(xs))
+	if !p.FindingsOnly {
+		g.add(CueRows, alignedGroups(ys))
+		g.add(CueColumns, alignedGroups(xs))
+	}
 	g.compare(p)
 	return g
 }

@@ -70,11 +70,13 @@ type Params struct {
 	// target-present inefficient search (REFERENCES §5.6, DERIVED).
 	EfficientSlope, SerialSlope [2]float64
 
-	// CVDEmphasisOnly limits the CVD re-analysis to the emphasised marks
-	// (declared or inferred), which is all the findings need; the other
-	// marks' CVD verdicts are then left empty. The extension's overlay uses
-	// it; reports that list every mark's CVD verdicts do not.
-	CVDEmphasisOnly bool
+	// FindingsOnly computes only what the verdicts under normal vision and
+	// the findings need: the CVD re-analysis of the emphasised marks
+	// (declared or inferred) alone, the other marks' CVD verdicts being
+	// left empty, and no row or column partitions, which no finding
+	// compares. The extension's overlay uses it; reports that list every
+	// mark's CVD verdicts and every partition do not.
+	FindingsOnly bool
 
 	// MaxHues is the number of categorical colours above which categories
 	// get hard to tell apart: Ware's "easy to select six distinct colors"

@@ -149,7 +149,7 @@ func handle(q *Request, t0 time.Time) []byte {
 		opt.Params.ND.Viewing = colour.Viewing{DistanceCM: q.DistanceCM, CSSPxPerInch: q.PxPerInch}
 	}
 	// The overlay's digest needs the CVD re-analysis of the emphasis only.
-	opt.Params.CVDEmphasisOnly = !q.Full
+	opt.Params.FindingsOnly = !q.Full
 	if len(q.Emphasis) > 0 {
 		opt.IDs = map[string]bool{}
 		for _, id := range q.Emphasis {

@@ -158,7 +158,10 @@ func attachAnalysis(rc *Chart, ch *dom.Chart, res *perception.Result) {
 			return Result{Verdict: string(r[vi].Verdict), Channels: channelNames(r[vi].Channels)}
 		}
 		// perception.Visions is normal, protan, deutan, tritan, achromat.
-		rc.Marks[i].CVD = &CVDResults{Protan: res(1), Deutan: res(2), Tritan: res(3), Achromat: res(4)}
+		// An analysis with FindingsOnly has them for the emphasis alone.
+		if len(r) == len(perception.Visions) {
+			rc.Marks[i].CVD = &CVDResults{Protan: res(1), Deutan: res(2), Tritan: res(3), Achromat: res(4)}
+		}
 	}
 	rc.Findings = Findings(ch, res)
 	rc.Groups = &Groups{Partitions: []Partition{}, Agreement: []Agreement{}}

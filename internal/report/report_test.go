@@ -1,0 +1,54 @@
+package report
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// charts are the repository's fixtures and, when it is beside the
+// repository, the shared corpus of real charts.
+func charts(t *testing.T) []string {
+	files, _ := filepath.Glob("../../testdata/*.*")
+	corpus, _ := filepath.Glob("../../../shared/corpus/*/*.svg")
+	if len(corpus) == 0 && os.Getenv("CI") == "true" {
+		t.Fatal("shared/corpus not found beside the repository")
+	}
+	var out []string
+	for _, f := range append(files, corpus...) {
+		if !strings.HasSuffix(f, ".golden") {
+			out = append(out, f)
+		}
+	}
+	require.NotEmpty(t, out)
+	return out
+}
+
+func TestFindingsOnlyAgreesOnCharts(t *testing.T) {
+	// The overlay's analysis (FindingsOnly) says what the full one says of
+	// every finding, every mark's verdict and the emphasis.
+	lite := DefaultOptions
+	lite.Params.FindingsOnly = true
+	for _, f := range charts(t) {
+		data, err := os.ReadFile(f)
+		require.NoError(t, err)
+		full, _, err := CheckFile(f, strings.NewReader(string(data)), DefaultOptions)
+		require.NoError(t, err, f)
+		part, _, err := CheckFile(f, strings.NewReader(string(data)), lite)
+		require.NoError(t, err, f)
+		require.Len(t, part.Charts, len(full.Charts), f)
+		for i, c := range full.Charts {
+			p := part.Charts[i]
+			assert.Equal(t, c.Findings, p.Findings, "%s %s", f, c.Path)
+			assert.Equal(t, c.Emphasis, p.Emphasis, "%s %s", f, c.Path)
+			require.Len(t, p.Marks, len(c.Marks))
+			for k := range c.Marks {
+				assert.Equal(t, c.Marks[k].Verdict, p.Marks[k].Verdict, "%s %s", f, c.Marks[k].ID)
+			}
+		}
+	}
+}
