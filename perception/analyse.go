@@ -1,9 +1,6 @@
 package perception
 
 import (
-	"cmp"
-	"math"
-	"slices"
 	"sort"
 
 	"standout/perception/colour"
@@ -65,7 +62,6 @@ func Analyse(in Input, p Params) *Result {
 	sort.Strings(keys)
 	nbs := map[string][][]int{}
 	for _, k := range keys {
-		spatialOrder(in.Marks, kinds[k])
 		nbs[k] = neighbours(in.Marks, kinds[k], p.Neighbours)
 	}
 	reuse := map[string]*reuseData{}
@@ -160,48 +156,4 @@ func inferEmphasis(in Input, res *Result) []int {
 		return nil
 	}
 	return out
-}
-
-// spatialOrder sorts idx along a Z-order (Morton) curve of the marks'
-// positions, so that marks near in space are near in memory: the
-// neighbour and distance loops then stay in cache on large charts.
-func spatialOrder(marks []Mark, idx []int) {
-	if len(idx) < 1024 {
-		return
-	}
-	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
-	for _, i := range idx {
-		minX, maxX = min(minX, marks[i].X), max(maxX, marks[i].X)
-		minY, maxY = min(minY, marks[i].Y), max(maxY, marks[i].Y)
-	}
-	sx, sy := 65535/max(maxX-minX, 1e-9), 65535/max(maxY-minY, 1e-9)
-	type keyed struct {
-		code uint32
-		i    int
-	}
-	ks := make([]keyed, len(idx))
-	for p, i := range idx {
-		x := uint32((marks[i].X - minX) * sx)
-		y := uint32((marks[i].Y - minY) * sy)
-		ks[p] = keyed{spread16(x) | spread16(y)<<1, i}
-	}
-	slices.SortFunc(ks, func(a, b keyed) int {
-		if c := cmp.Compare(a.code, b.code); c != 0 {
-			return c
-		}
-		return cmp.Compare(a.i, b.i)
-	})
-	for p := range ks {
-		idx[p] = ks[p].i
-	}
-}
-
-// spread16 interleaves the low 16 bits of v with zeros.
-func spread16(v uint32) uint32 {
-	v &= 0xffff
-	v = (v | v<<8) & 0x00ff00ff
-	v = (v | v<<4) & 0x0f0f0f0f
-	v = (v | v<<2) & 0x33333333
-	v = (v | v<<1) & 0x55555555
-	return v
 }

@@ -175,7 +175,7 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 		change(i, &marks[i])
 	}
 	kind := in.Marks[em[0]].Kind
-	// The marks of the kind in the analysis's (spatial) order, which its
+	// The marks of the kind in the analysis's order, which its
 	// neighbour lists and shared channels index.
 	idx := res.kinds[kind]
 	pos := map[int]int{}

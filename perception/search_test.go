@@ -289,7 +289,7 @@ func TestFindingsOnlyAgrees(t *testing.T) {
 
 func TestFixVerificationMatchesFreshAnalysis(t *testing.T) {
 	// Verifying a fix reuses the analysis's neighbours and channels; on a
-	// chart large enough to be put in spatial order (2,000 marks), every
+	// chart of 2,000 marks in several colours, every
 	// candidate colour verify accepts or refuses is accepted or refused by
 	// a fresh analysis of the recoloured chart.
 	g1, g2 := colour.MustHex("#3a9b3a"), colour.MustHex("#449f40")

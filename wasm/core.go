@@ -33,7 +33,7 @@ type Request struct {
 	// which it knows by the digest's node indices).
 	Emphasis      []string `json:"emphasis"`
 	EmphasisNodes []string `json:"emphasisNodes"`
-	Severity *float64 `json:"severity"`
+	Severity      *float64 `json:"severity"`
 	// Full asks for the whole report and its Markdown; otherwise the
 	// response carries the overlay's digest (what the overlay draws and
 	// lists).
