@@ -19,12 +19,12 @@ import (
 )
 
 // scatterPage is an invented scatter of n circles in four colours with one
-// emphasised mark.
-func scatterPage(n int) string {
+// emphasised mark. css goes into the page's style sheet.
+func scatterPage(n int, css string) string {
 	rng := rand.New(rand.NewSource(int64(n)))
 	cols := []string{"#4c78a8", "#f58518", "#54a24b", "#b279a2"}
 	var b strings.Builder
-	b.WriteString(`<!doctype html><html><body style="margin:0"><svg width="1000" height="800"><g>`)
+	b.WriteString(`<!doctype html><html><head><style>` + css + `</style></head><body style="margin:0"><svg width="1000" height="800"><g>`)
 	for i := 0; i < n; i++ {
 		c := cols[rng.Intn(len(cols))]
 		if i == n/2 {
@@ -146,8 +146,9 @@ func median(v []float64) float64 {
 }
 
 // BenchmarkBrowserClickToOverlay reports click-to-overlay milliseconds for
-// charts of 1,000, 5,000 and 20,000 marks, with the floor measured in the
-// same run:
+// charts of 1,000, 5,000 and 20,000 marks, and of 5,000 marks on a page
+// whose style sheet rules out the read pass's sibling style sharing
+// (5000-unshared), with the floor measured in the same run:
 //
 //   - cold-ms: a fresh browser, the first press on a loaded page, so the
 //     core is compiled and the scripts are injected first;
@@ -167,9 +168,20 @@ func median(v []float64) float64 {
 //
 //	go test ./extension -run '^$' -bench BrowserClickToOverlay -benchtime 1x
 func BenchmarkBrowserClickToOverlay(b *testing.B) {
-	for _, n := range []int{1000, 5000, 20000} {
-		body := scatterPage(n)
-		b.Run(fmt.Sprint(n), func(b *testing.B) {
+	for _, c := range []struct {
+		n    int
+		name string
+		css  string
+	}{
+		{1000, "1000", ""},
+		{5000, "5000", ""},
+		{20000, "20000", ""},
+		// A rule the read pass cannot rule out telling siblings apart:
+		// every mark's style is read.
+		{5000, "5000-unshared", "circle:hover { stroke: #000 }"},
+	} {
+		n, body := c.n, scatterPage(c.n, c.css)
+		b.Run(c.name, func(b *testing.B) {
 			var cold, restart, warm, paint, floor, floorWarm, read, trip, core, render float64
 			for i := 0; i < b.N; i++ {
 				h := newHarness(b)

@@ -678,3 +678,87 @@ func TestE2EExportMarkdownAndPNG(t *testing.T) {
 	}
 	assert.Greater(t, teal, 50)
 }
+
+func TestE2ESiblingStyleSharing(t *testing.T) {
+	// Sibling style sharing must never change what the read pass reads:
+	// on every page, the snapshots read with it and without it are the
+	// same, and it is used only where no selector or animation can tell
+	// siblings apart.
+	other := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/css")
+		fmt.Fprint(w, `circle { fill: #123456; }`)
+	})
+	circles := func(n int) string {
+		var b strings.Builder
+		for i := 0; i < n; i++ {
+			fmt.Fprintf(&b, `<circle cx="%d" cy="%d" r="3"/>`, 10+i*7%380, 10+i*13%180)
+		}
+		return b.String()
+	}
+	type page struct {
+		name, body string
+		shares     bool
+	}
+	pages := []page{
+		{"classes, ids, inline styles and presentation attributes", `<!doctype html><html><head><style>
+		  .a circle { fill: #1f77b4; } .a > .b { fill: #d62728; stroke: #000; stroke-width: 2px } #x { fill: green } svg g.c { opacity: .5 }
+		  .d { color: #8a2be2 } .d circle { fill: currentColor }</style></head><body>
+		  <svg width="400" height="200"><g class="a">` + circles(40) + `<circle class="b" cx="5" cy="5" r="3"/><circle id="x" cx="9" cy="9" r="3"/>
+		  <circle style="fill: orange" cx="7" cy="7" r="3"/><circle fill="red" cx="8" cy="8" r="3"/><circle fill-opacity=".3" cx="8" cy="9" r="3"/></g>
+		  <g class="c">` + circles(20) + `</g><g class="d" color="#ff0000">` + circles(5) + `<circle color="#00ff00" cx="3" cy="3" r="2"/></g></svg></body></html>`, true},
+		{":root, :not() and pseudo-elements", `<!doctype html><html><head><style>:root { --c: #1f77b4 } circle:not(.z) { fill: var(--c) } p::before { content: "x" }</style></head><body>
+		  <svg width="400" height="200"><g>` + circles(30) + `<circle class="z" cx="1" cy="1" r="1"/></g></svg></body></html>`, true},
+		{"a state pseudo-class inside :not()", `<!doctype html><html><head><style>circle:not(:hover) { fill: #1f77b4 }</style></head><body>
+		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
+		{"a structural pseudo-class", `<!doctype html><html><head><style>circle:nth-child(2n) { fill: #d62728 }</style></head><body>
+		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
+		{"an attribute selector", `<!doctype html><html><head><style>[cy="23"] { fill: #d62728 }</style></head><body>
+		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
+		{"a sibling combinator", `<!doctype html><html><head><style>circle + circle { fill: #d62728 }</style></head><body>
+		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
+		{"a running animation", `<!doctype html><html><head><style>@keyframes k { to { fill: #d62728 } } circle { animation: k 60s infinite }</style></head><body>
+		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
+		{"a cross-origin style sheet", `<!doctype html><html><head><link rel="stylesheet" href="` + other.URL + `/s.css"></head><body>
+		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
+		{"the demo page", string(demoPage(t)), true},
+	}
+	for _, f := range []string{"../testdata/cascade.html", "../testdata/transforms.svg"} {
+		b, err := os.ReadFile(f)
+		require.NoError(t, err)
+		body := string(b)
+		if strings.HasSuffix(f, ".svg") {
+			body = `<!doctype html><html><body style="margin:0">` + body + `</body></html>`
+		}
+		pages = append(pages, page{filepath.Base(f), body, false})
+	}
+	h := newHarness(t)
+	for _, pg := range pages {
+		srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+			w.Header().Set("Content-Type", "text/html; charset=utf-8")
+			fmt.Fprint(w, pg.body)
+		})
+		h.open(srv.URL + "/")
+		h.eval(Reader() + `; ''`)
+		out := h.eval(`(() => {
+		  const a = globalThis.standoutReader.readPage(document, {});
+		  const b = globalThis.standoutReader.readPage(document, { noSharing: true });
+		  const same = JSON.stringify(a.snapshots) === JSON.stringify(b.snapshots);
+		  return JSON.stringify({ same, shared: a.sharedStyles, unshared: b.sharedStyles, charts: a.snapshots.length });
+		})()`)
+		var r struct {
+			Same             bool
+			Shared, Unshared int
+			Charts           int
+		}
+		require.NoError(t, json.Unmarshal([]byte(out), &r), out)
+		require.Greater(t, r.Charts, 0, pg.name)
+		assert.True(t, r.Same, "%s: the snapshots differ with sibling style sharing", pg.name)
+		assert.Zero(t, r.Unshared, pg.name)
+		if pg.shares {
+			assert.Equal(t, r.Charts, r.Shared, "%s: sharing should be used", pg.name)
+		} else if !strings.HasPrefix(pg.name, "transforms") {
+			assert.Zero(t, r.Shared, "%s: sharing must not be used", pg.name)
+		}
+		t.Logf("%s: %d of %d charts read with sibling style sharing", pg.name, r.Shared, r.Charts)
+	}
+}

@@ -148,8 +148,9 @@
   }
 
   // Pushes the numeric geometry attributes, as the static builder reads
-  // them, onto out (count first); false when the tag has none.
-  function geometry(el, tag, out) {
+  // them, onto out (count first), and for text its font size; false when
+  // the tag has none.
+  function geometry(el, tag, out, fontSize) {
     const keys = GEOM[tag];
     if (!keys) return false;
     out.push(keys.length + (tag === 'text' ? 1 : 0));
@@ -175,7 +176,7 @@
       if (v === null) v = parseFloat(a);
       out.push(isFinite(v) ? v : 0);
     }
-    if (tag === 'text') out.push(parseFloat(getComputedStyle(el).fontSize) || 16);
+    if (tag === 'text') out.push(fontSize);
     return true;
   }
 
@@ -230,6 +231,85 @@
     return t ? matrixOf(t.matrix) : [1, 0, 0, 1, 0, 0];
   }
 
+  // Sibling style sharing. Computed-style reads are most of the read
+  // pass's cost, and a chart's marks are mostly siblings alike in every
+  // attribute that can reach their style. Two siblings with the same tag
+  // and the same class, id, style and presentation attributes have the
+  // same computed style when no selector can tell them apart and nothing
+  // animates: the cascade then sees the same element twice under the same
+  // parent. That is checked for each document or shadow root, cheaply
+  // and conservatively: every style sheet must be readable, and no
+  // selector may use a pseudo-class, an attribute selector or a sibling
+  // combinator: only type, class and id selectors, descendant and child
+  // combinators, :root, :host, and :is(), :where() and :not() of such
+  // selectors (none of which tells alike siblings apart), and
+  // pseudo-elements (which style no element itself); and no animation or
+  // transition may be running. Otherwise every element's style is read.
+  // The attributes that can reach the style a read pass reads: those
+  // selectors and presentation attributes use, and those the browser's
+  // own style sheet and <switch> test.
+  const STYLE_ATTRS = ['class', 'id', 'style', 'part', 'fill', 'stroke', 'opacity', 'fill-opacity', 'stroke-opacity',
+    'stroke-width', 'display', 'visibility', 'color', 'font-size', 'font', 'font-family', 'font-weight', 'hidden',
+    'systemLanguage', 'requiredExtensions', 'requiredFeatures'];
+
+  function selectorShareable(sel) {
+    const s = sel.replace(/::[-\w]+(\([^)]*\))?/g, '').replace(/:(root|host|is|where|not)\b/g, '');
+    return !/[:[+~]/.test(s);
+  }
+
+  function rulesShareable(rules, depth) {
+    if (depth > 16) return false;
+    for (const r of rules) {
+      if (r.selectorText !== undefined && !selectorShareable(r.selectorText)) return false;
+      if (r.styleSheet) {
+        if (!sheetShareable(r.styleSheet, depth + 1)) return false;
+        continue;
+      }
+      let inner = null;
+      try {
+        inner = r.cssRules || null;
+      } catch (e) {
+        return false;
+      }
+      if (inner && inner.length && !rulesShareable(inner, depth + 1)) return false;
+    }
+    return true;
+  }
+
+  function sheetShareable(sheet, depth) {
+    let rules;
+    try {
+      rules = sheet.cssRules;
+    } catch (e) {
+      return false; // a cross-origin sheet: its selectors are unknown
+    }
+    return rulesShareable(rules, depth);
+  }
+
+  // siblingsShareStyles says whether sibling style sharing is safe for
+  // the charts under root (a document or a shadow root).
+  function siblingsShareStyles(root) {
+    const doc = root.ownerDocument || root;
+    if (typeof doc.getAnimations !== 'function' || doc.getAnimations().length > 0) return false;
+    const sheets = [...(root.styleSheets || []), ...(root.adoptedStyleSheets || [])];
+    for (const sh of sheets) if (!sheetShareable(sh, 0)) return false;
+    return true;
+  }
+
+  const STYLE_ATTR_SET = new Set(STYLE_ATTRS);
+
+  // styleKey is what of an element's attributes can reach its style: its
+  // tag and those attributes, by name and value, in document order (the
+  // names are listed in one call; asking for each attribute in turn costs
+  // more than the style read it saves).
+  function styleKey(el, tag) {
+    let k = tag;
+    for (const a of el.getAttributeNames()) {
+      if (STYLE_ATTR_SET.has(a)) k += '\u0000' + a + '\u0001' + el.getAttribute(a);
+    }
+    return k;
+  }
+
   const IDENTITY = [1, 0, 0, 1, 0, 0];
   // The optional fields of a node record (dom/snapshotjson.go).
   const HAS_CTM = 1;
@@ -260,7 +340,7 @@
   // stroke-width without a stroke, and a bounding box only for text and
   // paths, whose extent only the browser knows (the walk computes the
   // other shapes' boxes from their geometry, as the browser does).
-  function readChart(svg, path, root, off, emphasis) {
+  function readChart(svg, path, root, off, emphasis, share) {
     const sx = off[0];
     const sy = off[1];
     const box = svg.getBoundingClientRect();
@@ -352,34 +432,23 @@
       return m;
     };
 
-    // add appends el's record and reads its subtree. k is its index among
-    // its parent's element children, or -1 for content a <use>
-    // instantiates; vp is its nearest viewport.
-    const add = (el, parent, k, vp, ctmOverride, useDepth) => {
-      const tag = el.localName.toLowerCase();
+    // styleOf reads an element's style as a record holds it, with its
+    // font size: [flags, fill, stroke, fill-opacity, stroke-opacity,
+    // opacity, stroke-width, font size]. up is the style of the <use> (or
+    // of the instantiated parent) for content a <use> instantiates, which
+    // inherits from there, not from where it is defined: where the
+    // element's value merely repeats its defining parent's (it was
+    // inherited there), the instance's inherited value is taken instead.
+    const styleOf = (el, tag, up) => {
       const cs = getComputedStyle(el);
-      // An <svg> is a viewport of its own: measured directly.
-      const m = ctmOverride ? mul(ctmOverride, ownTransform(el)) : screenCTM(el, tag === 'svg' ? null : vp);
-      const idx = styles.length;
-      const at = nodes.length;
-      ctms.push(m);
-      parentOf.push(parent);
-      linkOf.push(k);
-      tagName.push(tag);
       let fi = paint(cs.fill);
       let si = paint(cs.stroke);
-      // Content instantiated by <use> inherits from the <use>, not from
-      // where it is defined: where the element's value merely repeats its
-      // defining parent's (it was inherited there), take the value the
-      // instance inherits instead.
-      const inUse = ctmOverride && parent >= 0;
-      const dp = inUse && el.parentElement ? getComputedStyle(el.parentElement) : null;
-      const up = inUse ? styles[parent] : null;
+      const dp = up && el.parentElement ? getComputedStyle(el.parentElement) : null;
       let fo = 1;
       let so = 1;
       let sw = 0;
-      if (fi || inUse) fo = clamp01(num(cs.fillOpacity));
-      if (si || inUse) {
+      if (fi || up) fo = clamp01(num(cs.fillOpacity));
+      if (si || up) {
         so = clamp01(num(cs.strokeOpacity));
         sw = Math.max(0, parseFloat(cs.strokeWidth) || 0);
       }
@@ -394,13 +463,45 @@
       if (cs.display === 'none') x |= 1;
       const vis = cs.visibility;
       if (vis === 'hidden' || vis === 'collapse') x |= 2;
+      const fontSize = tag === 'text' ? parseFloat(cs.fontSize) || 16 : 0;
+      return [x, fi, si, fo, so, clamp01(num(cs.opacity)), sw, fontSize];
+    };
+
+    // add appends el's record and reads its subtree. k is its index among
+    // its parent's element children, or -1 for content a <use>
+    // instantiates; vp is its nearest viewport; shared, when sibling style
+    // sharing is safe, maps the style keys of el's siblings to their styles.
+    const add = (el, parent, k, vp, ctmOverride, useDepth, shared) => {
+      const tag = el.localName.toLowerCase();
+      // An <svg> is a viewport of its own: measured directly.
+      const m = ctmOverride ? mul(ctmOverride, ownTransform(el)) : screenCTM(el, tag === 'svg' ? null : vp);
+      const idx = styles.length;
+      const at = nodes.length;
+      ctms.push(m);
+      parentOf.push(parent);
+      linkOf.push(k);
+      tagName.push(tag);
+      let st;
+      if (ctmOverride && parent >= 0) {
+        st = styleOf(el, tag, styles[parent]);
+      } else if (shared) {
+        const key = styleKey(el, tag);
+        st = shared.get(key);
+        if (!st) {
+          st = styleOf(el, tag, null);
+          shared.set(key, st);
+        }
+      } else {
+        st = styleOf(el, tag, null);
+      }
+      const x = st[0];
       nodes.push(parent, tagOf(tag), k < 0 ? -1 : k, 0);
-      let has = pushStyle(x, fi, si, fo, so, clamp01(num(cs.opacity)), sw);
+      let has = pushStyle(x, st[1], st[2], st[3], st[4], st[5], st[6]);
       if (!sameMatrix(m, parent >= 0 ? ctms[parent] : IDENTITY)) {
         has |= HAS_CTM;
         nodes.push(m[0], m[1], m[2], m[3], m[4], m[5]);
       }
-      if (geometry(el, tag, nodes)) has |= HAS_GEOM;
+      if (geometry(el, tag, nodes, st[7])) has |= HAS_GEOM;
       if ((tag === 'text' || tag === 'path') && !ctmOverride && !(x & 1)) {
         const r = el.getBoundingClientRect();
         has |= HAS_BBOX;
@@ -437,11 +538,12 @@
         return;
       }
       const childVp = tag === 'svg' ? {} : vp;
+      const siblings = share && !ctmOverride ? new Map() : null;
       let i = 0;
       // Sibling links: iterating el.children costs ten times as much.
       for (let c = el.firstElementChild; c; c = c.nextElementSibling, i++) {
         if (c.namespaceURI !== SVG_NS) continue;
-        add(c, idx, i, childVp, ctmOverride ? m : null, useDepth);
+        add(c, idx, i, childVp, ctmOverride ? m : null, useDepth, siblings);
       }
     };
     const expandUse = (el, idx, m, depth) => {
@@ -605,20 +707,29 @@
 
   // Reads every chart of the page. opts.emphasis, a CSS selector, names
   // the intended emphasis besides the data-standout-emphasis attribute.
+  // sharedStyles in the result counts the charts read with sibling style
+  // sharing.
   function readPage(doc, opts) {
     const emphasis = (opts && opts.emphasis) || '';
     const t0 = performance.now();
     const problems = [];
     const charts = findCharts(doc || document, problems);
     const snapshots = [];
+    // Whether sibling style sharing is safe, per document or shadow root;
+    // opts.noSharing turns it off (to measure what it saves).
+    const shareable = new Map();
+    let shared = 0;
     for (const c of charts) {
       try {
-        snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis));
+        if (!shareable.has(c.root)) shareable.set(c.root, !(opts && opts.noSharing) && siblingsShareStyles(c.root));
+        const share = shareable.get(c.root);
+        if (share) shared++;
+        snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share));
       } catch (e) {
         problems.push(`${c.path}: could not be read: ${e && e.message}`);
       }
     }
-    return { source: location.href, snapshots, problems, readMs: performance.now() - t0 };
+    return { source: location.href, snapshots, problems, readMs: performance.now() - t0, sharedStyles: shared };
   }
 
   globalThis.standoutReader = Object.freeze({ readPage, findCharts, pageBox, SNAPSHOT_VERSION });
