@@ -52,12 +52,12 @@ async function run(tabId, injection) {
 // round trip. A press injects the scripts and press.js, whose value is the
 // press's outcome (the scripts do nothing when they are there already); a
 // re-run asks the overlay, which is there, to read again.
-async function readPage(tabId, toggle, emphasis) {
+async function readPage(tabId, toggle) {
   let r;
   try {
     r = toggle
       ? await run(tabId, { files: [...SCRIPTS, 'press.js'] })
-      : await run(tabId, { func: (e) => globalThis.standoutOverlay.read(e), args: [emphasis || ''] });
+      : await run(tabId, { func: () => globalThis.standoutOverlay.read() });
   } catch (e) {
     throw new Error(`reading the page: ${(e && e.message) || e}`);
   }
@@ -71,7 +71,7 @@ async function readPage(tabId, toggle, emphasis) {
 // the steps, or {closed: true} when toggle closed an open check.
 async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false } = {}) {
   const t0 = performance.now();
-  const [read, loadMs] = await Promise.all([readPage(tabId, toggle, ''), loadCore()]);
+  const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore()]);
   if (read.closed) return read;
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as

@@ -61,7 +61,6 @@
     root: null,
     panel: null,
     layers: new Map(), // path → {svg, entry, readBox, chart, highlight, selection}
-    report: null,
     picking: false,
     picked: new Set(), // picked marks, as "chart path#snapshot node"
     catcher: null,
@@ -564,7 +563,6 @@
       return;
     }
     ensureHost();
-    state.report = result.report;
     const panel = buildPanel(result);
     state.panel.replaceWith(panel);
     state.panel = panel;
@@ -615,9 +613,9 @@
   // read reads the page for the core: the read pass's result as one JSON
   // string (it crosses the messaging layer far faster than a large object,
   // and goes to the core as it is), with its timings.
-  function read(emphasis) {
+  function read() {
     const t0 = performance.now();
-    const page = globalThis.standoutReader.readPage(document, { emphasis });
+    const page = globalThis.standoutReader.readPage(document);
     const t1 = performance.now();
     const json = JSON.stringify(page);
     return { json, readMs: t1 - t0, stringifyMs: performance.now() - t1 };
@@ -630,7 +628,7 @@
       teardown();
       return { closed: true };
     }
-    return read('');
+    return read();
   }
 
   // The background calls these through chrome.scripting (press through
