@@ -18,25 +18,25 @@ const SnapshotVersion = 2
 // children), so a snapshot never refers to anything outside itself except
 // paint servers, whose colours are resolved into Paint.
 type Snapshot struct {
-	Version int `json:"v"`
+	Version int
 	// Source names the page or file the chart came from.
-	Source string `json:"source,omitempty"`
+	Source string
 	// Path is the stable id of the root <svg> within the page, such as
 	// "svg0" or "iframe1/svg2".
-	Path string `json:"path"`
+	Path string
 	// Box is the root <svg>'s viewport in page CSS px: x, y, width, height.
-	Box [4]float64 `json:"box"`
+	Box [4]float64
 	// Background is the colour behind the chart (0xRRGGBBAA), from the
 	// nearest ancestor with an opaque background; white when none is known.
-	Background uint32 `json:"bg"`
+	Background uint32
 	// Nodes are the elements of the chart in document order; Nodes[0] is
 	// the root <svg>.
-	Nodes []Node `json:"nodes"`
+	Nodes []Node
 	// Selected lists the nodes that matched Options.Select (the caller's
 	// declared emphasis), as indices into Nodes.
-	Selected []int32 `json:"sel,omitempty"`
+	Selected []int32
 	// Problems lists what could not be read, each naming the element.
-	Problems []string `json:"problems,omitempty"`
+	Problems []string
 }
 
 // Node is one element of a Snapshot.
@@ -45,32 +45,32 @@ type Snapshot struct {
 // them to page CSS px. Colours are 0xRRGGBBAA, not premultiplied.
 type Node struct {
 	// Parent is the index of the parent node, -1 for the root.
-	Parent int32 `json:"p"`
+	Parent int32
 	// Tag is the lowercase local name: "svg", "g", "rect", "text", ….
-	Tag string `json:"t"`
+	Tag string
 	// Name is the stable path of the element within the page, used as the
 	// mark id, such as "svg0/g1/circle3".
-	Name string `json:"n"`
+	Name string
 	// Geom holds the tag's numeric geometry attributes in this order:
 	//	rect, image, svg: x y width height rx ry (rx, ry −1 for auto)
 	//	circle: cx cy r
 	//	ellipse: cx cy rx ry
 	//	line: x1 y1 x2 y2
 	//	text: x y font-size
-	Geom []float64 `json:"g,omitempty"`
+	Geom []float64
 	// D is the path data of a <path>, or the points of a <polyline> or
 	// <polygon>.
-	D string `json:"d,omitempty"`
+	D string
 	// CTM is the matrix (a b c d e f) from local user units to page CSS px.
-	CTM [6]float64 `json:"m"`
+	CTM [6]float64
 	// BBox, when the browser measured it, is the element's box in page CSS
 	// px (x y width height), as getBoundingClientRect gives it. The read
 	// pass measures text and paths only; for the other shapes, and in
 	// static snapshots, Walk computes the same box from the geometry.
-	BBox []float64 `json:"b,omitempty"`
+	BBox []float64
 	// Fill and Stroke are the computed paints.
-	Fill   Paint `json:"f"`
-	Stroke Paint `json:"s"`
+	Fill   Paint
+	Stroke Paint
 	// FillOpacity, StrokeOpacity and Opacity are the computed values of the
 	// properties, each within [0, 1]. Opacity is this element's own;
 	// ancestors' opacities are on the ancestors.
@@ -79,17 +79,17 @@ type Node struct {
 	// drawn: without a fill, FillOpacity is 1; without a stroke,
 	// StrokeOpacity is 1 and StrokeWidth 0. The read pass thereby saves a
 	// computed-style read per property it need not read.
-	FillOpacity   float64 `json:"fo"`
-	StrokeOpacity float64 `json:"so"`
-	Opacity       float64 `json:"o"`
+	FillOpacity   float64
+	StrokeOpacity float64
+	Opacity       float64
 	// StrokeWidth is in local user units.
-	StrokeWidth float64 `json:"sw"`
+	StrokeWidth float64
 	// Flags holds Hidden and Invisible.
-	Flags uint8 `json:"x,omitempty"`
+	Flags uint8
 	// Text is the text content of <text>, <title> and <desc>.
-	Text string `json:"tx,omitempty"`
+	Text string
 	// Label is the element's aria-label, if any.
-	Label string `json:"al,omitempty"`
+	Label string
 }
 
 // Node flags.
@@ -103,12 +103,12 @@ const (
 // Paint is a computed fill or stroke.
 type Paint struct {
 	// Kind is PaintNone, PaintColour or PaintServer.
-	Kind uint8 `json:"k"`
+	Kind uint8
 	// RGBA is the colour (0xRRGGBBAA). For a paint server it is the colour
 	// the server paints in the middle of its area (WCAG: "take the central
 	// colour"), and Stops lists every colour it paints.
-	RGBA  uint32   `json:"c,omitempty"`
-	Stops []uint32 `json:"st,omitempty"`
+	RGBA  uint32
+	Stops []uint32
 }
 
 // Paint kinds.
