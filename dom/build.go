@@ -7,6 +7,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"time"
 
 	"github.com/andybalholm/cascadia"
 	"golang.org/x/net/html"
@@ -29,6 +30,10 @@ type Options struct {
 	Source string
 	// Dark selects the dark value of light-dark().
 	Dark bool
+	// Deadline, when set, bounds the build's time: past it, Build stops
+	// with an error (checked between elements and between selector
+	// tests).
+	Deadline time.Time
 	// Select is a CSS selector whose matches are recorded in each
 	// snapshot's Selected list (an intended emphasis). Empty means
 	// DefaultEmphasisSelector.
@@ -72,14 +77,13 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	if opt.Select == "" {
 		opt.Select = DefaultEmphasisSelector
 	}
-	{
-		sel, err := cascadia.ParseGroup(opt.Select)
-		if err != nil {
-			return nil, fmt.Errorf("dom: selector %q: %w", opt.Select, err)
-		}
-		b.sel = sel
-	}
 	b.casc = &cascader{problems: &page.Problems, dark: opt.Dark}
+	b.casc.budget.deadline = opt.Deadline
+	sel, err := compileGroup(opt.Select, &b.casc.budget)
+	if err != nil {
+		return nil, fmt.Errorf("dom: selector %q: %w", opt.Select, err)
+	}
+	b.sel = sel
 	order := 0
 	var svgs []*html.Node
 	walkNodes(doc, func(n *html.Node) bool {
@@ -93,7 +97,7 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 		}
 		switch {
 		case n.Data == "style":
-			rules, probs := parseSheet(textContent(n), &order, fmt.Sprintf("<style> #%d", order))
+			rules, probs := parseSheet(textContent(n), &order, fmt.Sprintf("<style> #%d", order), &b.casc.budget)
 			b.casc.rules = append(b.casc.rules, rules...)
 			page.Problems = append(page.Problems, probs...)
 		case n.Data == "link" && strings.Contains(strings.ToLower(attr(n, "rel")), "stylesheet"):
@@ -105,6 +109,9 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	})
 	for i, s := range svgs {
 		snap, err := b.chart(s, fmt.Sprintf("svg%d", i))
+		if err == nil && b.casc.budget.err != nil {
+			err = fmt.Errorf("dom: %s: %w", opt.Source, b.casc.budget.err)
+		}
 		if err != nil {
 			return nil, err
 		}
@@ -383,6 +390,9 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 	snap := b.snap
 	if len(snap.Nodes) >= MaxNodes {
 		return fmt.Errorf("dom: %s: chart %s has more than %d elements", b.opt.Source, snap.Path, MaxNodes)
+	}
+	if len(snap.Nodes)&1023 == 1023 && !b.opt.Deadline.IsZero() && time.Now().After(b.opt.Deadline) {
+		return fmt.Errorf("dom: %s: %w", b.opt.Source, errTimeLimit)
 	}
 	tag := strings.ToLower(n.Data)
 	ctm := parentCTM

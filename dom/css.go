@@ -30,7 +30,7 @@ type rule struct {
 // (@font-face, @keyframes, …) are skipped. Selectors cascadia cannot
 // compile, and parse errors, are returned as problems; the rules that did
 // parse are kept.
-func parseSheet(text string, order *int, where string) ([]rule, []string) {
+func parseSheet(text string, order *int, where string, budget *matchBudget) ([]rule, []string) {
 	var rules []rule
 	var problems []string
 	p := css.NewParser(parse.NewInputString(text), false)
@@ -71,13 +71,13 @@ func parseSheet(text string, order *int, where string) ([]rule, []string) {
 			text := joinTokens(p.Values())
 			cur = cur[:0]
 			zero = false
-			group, err := cascadia.ParseGroup(text)
+			group, err := compileGroup(text, budget)
 			if err != nil {
 				// cascadia lacks :where(); a selector list made only of
 				// :where(…) wrappers matches like its contents with zero
 				// specificity (Selectors 4 §4.4).
 				if inner, ok := unwrapWhere(text); ok {
-					if g2, err2 := cascadia.ParseGroup(inner); err2 == nil {
+					if g2, err2 := compileGroup(inner, budget); err2 == nil {
 						group, err, zero = g2, nil, true
 					}
 				}

@@ -66,6 +66,8 @@ type cascader struct {
 	matched  map[*html.Node][]decl // per element: the rule declarations that match, in cascade order
 	problems *[]string
 	dark     bool
+	// budget bounds the selector tests of the whole build.
+	budget matchBudget
 }
 
 type prio struct {
