@@ -20,8 +20,18 @@ const (
 	MaxInputBytes = 256 << 20
 	// MaxUseDepth bounds nested <use> expansion (and so reference cycles).
 	MaxUseDepth = 16
-	// MaxNodes bounds the elements of one chart after <use> expansion.
-	MaxNodes = 4 << 20
+	// MaxNodes bounds the elements of one chart after <use> expansion:
+	// 2.5 times the largest chart the benchmarks read (200,000 marks),
+	// and about 0.6 GB in the static builder.
+	MaxNodes = 1 << 19
+	// MaxPageNodes bounds the elements of all charts of one page (or one
+	// request to the extension's core).
+	MaxPageNodes = 1 << 20
+	// MaxUseNodes bounds the elements one chart instantiates through
+	// <use>: a chain of references that each instantiate the previous
+	// level ten times is a few hundred bytes of markup per power of ten.
+	// Glyph text, the heaviest honest use, takes one element per letter.
+	MaxUseNodes = 100_000
 )
 
 // Options tunes the static builder.
@@ -128,6 +138,9 @@ type builder struct {
 	html map[*html.Node]*computed // computed styles of HTML ancestors
 	snap *Snapshot
 	sel  cascadia.SelectorGroup
+	// pageNodes counts the page's chart elements; useNodes those the
+	// current chart instantiates through <use>.
+	pageNodes, useNodes int
 	// useStack holds the <use> targets being expanded, to refuse cycles.
 	useStack map[*html.Node]bool
 }
@@ -230,6 +243,7 @@ var notRendered = map[string]bool{
 func (b *builder) chart(svg *html.Node, path string) (*Snapshot, error) {
 	snap := &Snapshot{Version: SnapshotVersion, Source: b.opt.Source, Path: path, Background: 0xffffffff}
 	b.snap = snap
+	b.useNodes = 0
 	var parentStyle *computed
 	if svg.Parent != nil && svg.Parent.Type == html.ElementNode {
 		parentStyle = b.styleOfHTML(svg.Parent)
@@ -390,6 +404,14 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 	snap := b.snap
 	if len(snap.Nodes) >= MaxNodes {
 		return fmt.Errorf("dom: %s: chart %s has more than %d elements", b.opt.Source, snap.Path, MaxNodes)
+	}
+	if b.pageNodes++; b.pageNodes > MaxPageNodes {
+		return fmt.Errorf("dom: %s: the page's charts have more than %d elements", b.opt.Source, MaxPageNodes)
+	}
+	if useDepth > 0 {
+		if b.useNodes++; b.useNodes > MaxUseNodes {
+			return fmt.Errorf("dom: %s: chart %s instantiates more than %d elements through <use> (a chain of references?)", b.opt.Source, snap.Path, MaxUseNodes)
+		}
 	}
 	if len(snap.Nodes)&1023 == 1023 && !b.opt.Deadline.IsZero() && time.Now().After(b.opt.Deadline) {
 		return fmt.Errorf("dom: %s: %w", b.opt.Source, errTimeLimit)

@@ -15,7 +15,10 @@
 //
 // Pages are untrusted. Build reads at most MaxInputBytes, expands <use> at
 // most MaxUseDepth deep and refuses reference cycles, caps the elements of
-// a chart at MaxNodes and the flattened points of a path, and never
+// a chart at MaxNodes, of a page at MaxPageNodes, those instantiated
+// through <use> at MaxUseNodes per chart, and the flattened points of a
+// path; it matches selectors in bounded time (selector.go) and stops at
+// Options.Deadline. It never
 // fetches anything a page refers to (external style sheets and images are
 // reported, not loaded). Nesting deeper than x/net/html accepts (512 open
 // elements) is an error. Values that are not finite numbers never reach a

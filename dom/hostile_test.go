@@ -2,6 +2,7 @@ package dom
 
 import (
 	"fmt"
+	"runtime"
 	"strings"
 	"testing"
 
@@ -105,4 +106,40 @@ func TestHostileUseCycle(t *testing.T) {
 	p, err = Build(strings.NewReader(doc), Options{Source: "bomb"})
 	require.NoError(t, err)
 	assert.Less(t, len(p.Charts[0].Nodes), 20)
+}
+
+// Issue 10: a 2 kB chain of <use> references, each level instantiating
+// the previous ten times, took 52 s and 4.4 GB before the element cap
+// stopped it. The cap on instantiated elements stops it at once.
+func TestIssue10UseChainStopsEarly(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="100" height="100"><defs><circle id="l0" r="1"/>`)
+	for i := 1; i < 8; i++ {
+		fmt.Fprintf(&b, `<g id="l%d">`, i)
+		for k := 0; k < 10; k++ {
+			fmt.Fprintf(&b, `<use href="#l%d" x="%d"/>`, i-1, k)
+		}
+		b.WriteString(`</g>`)
+	}
+	b.WriteString(`</defs><use href="#l7"/></svg>`)
+	require.Less(t, b.Len(), 3000)
+	var before, after runtime.MemStats
+	runtime.ReadMemStats(&before)
+	_, err := Build(strings.NewReader(b.String()), Options{Source: "chain.svg"})
+	runtime.ReadMemStats(&after)
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "chain.svg")
+	assert.Contains(t, err.Error(), fmt.Sprint(MaxUseNodes))
+	assert.Less(t, after.TotalAlloc-before.TotalAlloc, uint64(512<<20), "bytes allocated")
+}
+
+// The elements of all a page's charts are capped too.
+func TestIssue10PageNodeCap(t *testing.T) {
+	if testing.Short() {
+		t.Skip("large input")
+	}
+	one := `<svg width="10" height="10">` + strings.Repeat(`<circle r="1"/>`, MaxNodes-2) + `</svg>`
+	_, err := Build(strings.NewReader(`<html><body>`+strings.Repeat(one, 3)+`</body></html>`), Options{Source: "many.html"})
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), fmt.Sprint(MaxPageNodes))
 }

@@ -135,7 +135,9 @@ func readWire(d *jsonio.Scanner, w *snapshotWire) error {
 			if w.Nodes == nil {
 				// Room for the numbers the rest of the input could hold
 				// at about four bytes each, so that the array does not
-				// double its way up from one.
+				// double its way up from one. A page's snapshots share
+				// one such buffer (DecodePage), so this is paid once per
+				// input, not once per chart.
 				w.Nodes = make([]float64, 0, d.Remaining()/4+1)
 			}
 			w.Nodes, err = d.Numbers(w.Nodes[:0])
@@ -642,14 +644,22 @@ func DecodePage(b []byte) (*PageJSON, error) {
 			p.Problems, err = d.Strings(p.Problems[:0])
 		case "snapshots":
 			p.Snapshots = p.Snapshots[:0]
+			// One buffer for every snapshot's numbers: a snapshot keeps
+			// none of them once interpreted.
+			var numbers []float64
+			total := 0
 			err = d.Array(func() error {
-				var w snapshotWire
+				w := snapshotWire{Nodes: numbers}
 				if err := readWire(d, &w); err != nil {
 					return err
 				}
+				numbers = w.Nodes[:0]
 				s, err := w.snapshot()
 				if err != nil {
 					return fmt.Errorf("snapshot %d: %w", len(p.Snapshots), err)
+				}
+				if total += len(s.Nodes); total > MaxPageNodes {
+					return fmt.Errorf("the page's charts have more than %d elements, more than one check takes", MaxPageNodes)
 				}
 				p.Snapshots = append(p.Snapshots, s)
 				return nil

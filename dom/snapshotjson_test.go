@@ -2,8 +2,11 @@ package dom
 
 import (
 	"encoding/json"
+	"errors"
 	"os"
 	"path/filepath"
+	"runtime"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -209,5 +212,84 @@ func FuzzSnapshotJSON(f *testing.F) {
 		var back Snapshot
 		require.NoError(t, json.Unmarshal(again, &back), "%s", again)
 		require.Equal(t, normalised(fast), normalised(back))
+	})
+}
+
+// manyChartsPage is a read-pass result with n small charts (one circle
+// each), as a page of inline icons gives.
+func manyChartsPage(n int) []byte {
+	var b strings.Builder
+	b.WriteString(`{"source":"http://icons/","snapshots":[`)
+	for i := 0; i < n; i++ {
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		b.WriteString(`{"v":2,"path":"svg` + strconv.Itoa(i) + `","box":[0,0,16,16],"bg":4294967295,"tags":["svg","circle"],"paints":[0,0,0,1,255,0],"strs":[],"nodes":[-1,0,0,0,0,0,0,1,1,1,1,0,1,0,2,0,1,0,1,1,1,1,3,8,8,6]}`)
+	}
+	b.WriteString(`],"problems":[]}`)
+	return []byte(b.String())
+}
+
+// Issue 10: the decoder reserved, for every chart, room sized by the rest
+// of the page, so a page of 25,000 icons cost charts × page size and
+// drove the extension's core out of memory. Its cost is now linear.
+func TestIssue10DecodeManyChartsLinear(t *testing.T) {
+	in := manyChartsPage(25000)
+	var before, after runtime.MemStats
+	runtime.GC()
+	runtime.ReadMemStats(&before)
+	p, err := DecodePage(in)
+	runtime.ReadMemStats(&after)
+	require.NoError(t, err)
+	require.Len(t, p.Snapshots, 25000)
+	// About 1 MB of JSON; the old decoder allocated about 9 GB here.
+	assert.Less(t, after.TotalAlloc-before.TotalAlloc, uint64(40*len(in)), "bytes allocated for %d input bytes", len(in))
+}
+
+// A request beyond MaxPageNodes is refused with a message naming the cap.
+func TestIssue10DecodePageCap(t *testing.T) {
+	_, err := DecodePage(manyChartsPage(MaxPageNodes/2 + 1))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), strconv.Itoa(MaxPageNodes))
+}
+
+// FuzzDecodePage checks the page decoder, many charts at a time, against
+// decoding each snapshot on its own with encoding/json's reflection.
+func FuzzDecodePage(f *testing.F) {
+	f.Add(manyChartsPage(3))
+	f.Add([]byte(`{"snapshots":[{"v":2,"nodes":[]},{"v":2,"tags":["svg"],"paints":[0,0,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,1]}],"source":"s"}`))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		var doc struct {
+			Snapshots []json.RawMessage `json:"snapshots"`
+		}
+		fast, ferr := DecodePage(b)
+		if json.Unmarshal(b, &doc) != nil {
+			return
+		}
+		var want []Snapshot
+		total := 0
+		var werr error
+		for _, raw := range doc.Snapshots {
+			s, err := oracle(raw)
+			if err != nil {
+				werr = err
+				break
+			}
+			total += len(s.Nodes)
+			want = append(want, s)
+		}
+		if werr == nil && total > MaxPageNodes {
+			werr = errors.New("over the cap")
+		}
+		if (werr == nil) != (ferr == nil) {
+			t.Fatalf("on %q: one by one %v, the page decoder %v", b, werr, ferr)
+		}
+		if ferr != nil {
+			return
+		}
+		require.Len(t, fast.Snapshots, len(want))
+		for i := range want {
+			require.Equal(t, normalised(want[i]), normalised(fast.Snapshots[i]))
+		}
 	})
 }
