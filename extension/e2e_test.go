@@ -86,7 +86,7 @@ func chromium(t testing.TB) string {
 func newHarness(t testing.TB) *harness {
 	exe := chromium(t)
 	dir := built(t)
-	actx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, Extension: dir, UserDataDir: t.TempDir()})
+	actx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, Extension: dir, UserDataDir: t.TempDir(), NoSandbox: browser.SandboxNote() != ""})
 	t.Cleanup(cancel)
 	ctx, cancel2 := chromedp.NewContext(actx)
 	t.Cleanup(cancel2)

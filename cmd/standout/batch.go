@@ -3,13 +3,16 @@ package main
 import (
 	"bytes"
 	"context"
+	"errors"
 	"fmt"
 	"image/png"
 	"io"
 	"os"
+	"os/signal"
 	"path/filepath"
 	"regexp"
 	"strings"
+	"syscall"
 
 	"standout/dom"
 	"standout/extension"
@@ -156,17 +159,37 @@ func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) erro
 }
 
 // readInBrowser starts a headless Chromium with a fresh profile and reads
-// urls with the extension's own read pass.
-func readInBrowser(exe string, urls []string, o browser.ReadOptions) ([]browser.PageResult, error) {
-	udd, err := os.MkdirTemp("", "standout-profile-")
-	if err != nil {
-		return nil, err
-	}
-	defer os.RemoveAll(udd)
-	bctx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, UserDataDir: udd})
-	defer cancel()
+// urls with the extension's own read pass. Chromium keeps its sandbox
+// unless it cannot have it (run as root), or it does not start with it;
+// either is said on stderr. An interrupt or termination stops the browser
+// and removes the profile before the error returns.
+func readInBrowser(exe string, urls []string, o browser.ReadOptions, stderr io.Writer) ([]browser.PageResult, error) {
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
 	o.Reader = extension.Reader()
-	return browser.ReadPages(bctx, urls, o), nil
+	read := func(noSandbox bool) ([]browser.PageResult, error) {
+		udd, err := os.MkdirTemp("", "standout-profile-")
+		if err != nil {
+			return nil, err
+		}
+		defer os.RemoveAll(udd)
+		bctx, cancel := browser.NewAllocator(ctx, browser.Options{Exec: exe, UserDataDir: udd, NoSandbox: noSandbox})
+		defer cancel()
+		return browser.ReadPages(bctx, urls, o), nil
+	}
+	note := browser.SandboxNote()
+	if note != "" {
+		fmt.Fprintln(stderr, "standout:", note)
+	}
+	res, err := read(note != "")
+	if err == nil && note == "" && len(res) > 0 && errors.Is(res[0].Err, browser.ErrStart) {
+		fmt.Fprintln(stderr, "standout: Chromium did not start with its sandbox; running it without (", res[0].Err, ")")
+		res, err = read(true)
+	}
+	if ctx.Err() != nil {
+		return nil, errors.New("interrupted; the browser was stopped and its profile removed")
+	}
+	return res, err
 }
 
 // pageFromRead walks and analyses what the read pass returned for a page,

@@ -243,7 +243,7 @@ func BenchmarkBatch(b *testing.B) {
 		b.Run(fmt.Sprintf("tabs=%d", tabs), func(b *testing.B) {
 			var load, read, analyse, wall float64
 			for i := 0; i < b.N; i++ {
-				ctx, cancel := browser.NewAllocator(b.Context(), browser.Options{Exec: exe, UserDataDir: b.TempDir()})
+				ctx, cancel := browser.NewAllocator(b.Context(), browser.Options{Exec: exe, UserDataDir: b.TempDir(), NoSandbox: browser.SandboxNote() != ""})
 				t0 := time.Now()
 				res := browser.ReadPages(ctx, urls, browser.ReadOptions{Tabs: tabs, Reader: extension.Reader()})
 				for _, r := range res {

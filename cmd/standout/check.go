@@ -2,13 +2,13 @@ package main
 
 import (
 	"encoding/json"
+	"errors"
 	"flag"
 	"fmt"
 	"io"
-	"net/url"
 	"os"
-	"path/filepath"
 	"strings"
+	"time"
 
 	"standout/dom"
 	"standout/internal/browser"
@@ -31,6 +31,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	tabs := fs.Int("tabs", 2, "pages loaded at once with --browser")
 	pngDir := fs.String("png", "", "with --browser, write an annotated PNG per chart into this folder")
 	mdDir := fs.String("md", "", "write a Markdown report per page into this folder")
+	timeout := fs.Duration("timeout", 60*time.Second, "the longest one page may take to load and check")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: standout check [flags] FILE|URL…")
 		fs.PrintDefaults()
@@ -44,6 +45,10 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	}
 	if *pngDir != "" && !*useBrowser {
 		fmt.Fprintln(stderr, "standout check: --png needs --browser (the static reader has no rendering)")
+		return 2
+	}
+	if *timeout <= 0 {
+		fmt.Fprintln(stderr, "standout check: --timeout must be positive, for example 30s or 2m")
 		return 2
 	}
 	if *tabs < 1 || *tabs > 32 {
@@ -87,25 +92,39 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 			fmt.Fprintln(stderr, "standout check:", err)
 			return 2
 		}
-		urls := make([]string, len(fs.Args()))
-		for i, a := range fs.Args() {
-			urls[i] = toURL(a)
+		local, err := newLocalPages()
+		if err != nil {
+			fmt.Fprintln(stderr, "standout check:", err)
+			return 2
 		}
-		results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: *tabs, Screenshot: *pngDir != "", Emphasis: opt.Selector, Progress: func(done, total int, r *browser.PageResult) {
+		defer local.Close()
+		// Pages that cannot be found are named; the others are read.
+		var urls, names []string
+		for _, a := range fs.Args() {
+			u := a
+			if !webURL(a) {
+				if u, err = local.url(a); err != nil {
+					failed = append(failed, fmt.Sprintf("%s: %v", a, err))
+					continue
+				}
+			}
+			urls, names = append(urls, u), append(names, a)
+		}
+		results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: *tabs, Screenshot: *pngDir != "", Emphasis: opt.Selector, Timeout: *timeout, Progress: func(done, total int, r *browser.PageResult) {
 			progress.step(done, r.URL, r.Err)
-		}})
+		}}, stderr)
 		if err != nil {
 			fmt.Fprintln(stderr, "standout check:", err)
 			return 2
 		}
 		for i, r := range results {
 			if r.Err != nil {
-				failed = append(failed, fmt.Sprintf("%s: %v", fs.Arg(i), r.Err))
+				failed = append(failed, fmt.Sprintf("%s: %v", names[i], r.Err))
 				continue
 			}
-			rp, charts, err := pageFromRead(fs.Arg(i), r, opt)
+			rp, charts, err := pageFromRead(names[i], r, opt)
 			if err != nil {
-				failed = append(failed, fmt.Sprintf("%s: %v", fs.Arg(i), err))
+				failed = append(failed, fmt.Sprintf("%s: %v", names[i], err))
 				continue
 			}
 			rep.Pages = append(rep.Pages, rp)
@@ -114,7 +133,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		}
 	} else {
 		for i, name := range fs.Args() {
-			rp, charts, err := checkOneFile(name, opt)
+			rp, charts, err := checkOneFile(name, opt, *timeout)
 			progress.step(i+1, name, err)
 			if err != nil {
 				failed = append(failed, fmt.Sprintf("%s: %v", name, err))
@@ -172,25 +191,21 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	return 0
 }
 
-func checkOneFile(name string, opt report.Options) (report.Page, []*dom.Chart, error) {
+// checkOneFile checks one file with the static reader within timeout.
+func checkOneFile(name string, opt report.Options, timeout time.Duration) (report.Page, []*dom.Chart, error) {
+	if webURL(name) {
+		return report.Page{}, nil, errors.New("is a URL; the static reader reads files: add --browser to load it in headless Chromium")
+	}
 	f, err := os.Open(name)
 	if err != nil {
 		return report.Page{}, nil, err
 	}
 	defer f.Close()
+	if st, err := f.Stat(); err == nil && st.IsDir() {
+		return report.Page{}, nil, errors.New("is a folder, not a page")
+	}
+	opt.Deadline = time.Now().Add(timeout)
 	return report.CheckFile(name, f, opt)
-}
-
-// toURL turns a file argument into a file:// URL; URLs pass through.
-func toURL(a string) string {
-	if strings.Contains(a, "://") {
-		return a
-	}
-	abs, err := filepath.Abs(a)
-	if err != nil {
-		return a
-	}
-	return (&url.URL{Scheme: "file", Path: abs}).String()
 }
 
 // looksLikeIDs tells mark ids ("svg0/g1/rect2,svg0/g1/rect3") from a CSS

@@ -95,7 +95,7 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 	}
 	fmt.Fprintln(stdout, "Standout demo: the built-in pages (an invented newsroom scenario), read as rendered in headless Chromium.")
 	fmt.Fprintln(stdout)
-	results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: 2})
+	results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: 2}, stderr)
 	if err != nil {
 		fmt.Fprintln(stderr, "standout demo:", err)
 		return 2

@@ -61,6 +61,19 @@ type Options struct {
 	Extension string
 	// UserDataDir is a fresh profile folder.
 	UserDataDir string
+	// NoSandbox starts Chromium without its sandbox, which it refuses to
+	// use when run as root (see SandboxNote).
+	NoSandbox bool
+}
+
+// SandboxNote says why Chromium cannot use its sandbox on this machine,
+// or "" when it can be tried. Chromium refuses to start as root with its
+// sandbox on (common in containers and CI).
+func SandboxNote() string {
+	if os.Geteuid() == 0 {
+		return "Chromium runs without its sandbox: this process runs as root, where Chromium refuses the sandbox; run as an ordinary user to keep it"
+	}
+	return ""
 }
 
 // NewAllocator returns a chromedp allocator context for a headless
@@ -72,7 +85,6 @@ func NewAllocator(parent context.Context, o Options) (context.Context, context.C
 		chromedp.NoFirstRun,
 		chromedp.NoDefaultBrowserCheck,
 		chromedp.Flag("headless", "new"),
-		chromedp.Flag("no-sandbox", true),
 		chromedp.Flag("disable-gpu", true),
 		chromedp.Flag("disable-quic", true),
 		chromedp.Flag("disable-background-networking", true),
@@ -84,6 +96,9 @@ func NewAllocator(parent context.Context, o Options) (context.Context, context.C
 		chromedp.Flag("hide-scrollbars", true),
 		chromedp.Flag("mute-audio", true),
 		chromedp.WindowSize(1280, 900),
+	}
+	if o.NoSandbox {
+		opts = append(opts, chromedp.Flag("no-sandbox", true))
 	}
 	if o.UserDataDir != "" {
 		opts = append(opts, chromedp.UserDataDir(o.UserDataDir))

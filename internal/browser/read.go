@@ -3,12 +3,14 @@ package browser
 import (
 	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"sync"
 	"time"
 
 	"github.com/chromedp/cdproto/cdp"
 	"github.com/chromedp/cdproto/page"
+	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/chromedp"
 )
 
@@ -56,6 +58,9 @@ const stableJS = `new Promise((resolve) => {
   tick();
 })`
 
+// ErrStart says that the browser did not start.
+var ErrStart = errors.New("starting the browser")
+
 // ReadPages loads each URL in a headless Chromium (browserCtx comes from
 // NewAllocator) and runs the extension's own read pass on it, with at most
 // o.Tabs pages open at once. Results are in the order of urls; a page that
@@ -73,7 +78,7 @@ func ReadPages(browserCtx context.Context, urls []string, o ReadOptions) []PageR
 	out := make([]PageResult, len(urls))
 	if err := chromedp.Do(bctx, chromedp.Navigate("about:blank")); err != nil {
 		for i := range out {
-			out[i] = PageResult{URL: urls[i], Err: fmt.Errorf("starting the browser: %w", err)}
+			out[i] = PageResult{URL: urls[i], Err: fmt.Errorf("%w: %w", ErrStart, err)}
 		}
 		return out
 	}
@@ -106,6 +111,23 @@ func ReadPages(browserCtx context.Context, urls []string, o ReadOptions) []PageR
 	return out
 }
 
+// isolatedWorld creates an isolated world in the page's main frame and
+// returns the option that evaluates there.
+func isolatedWorld(ctx context.Context) (chromedp.EvaluateOption, error) {
+	id, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (runtime.ExecutionContextID, error) {
+		tree, err := cdp.Call(ctx, tg, page.GetFrameTree, cdp.Empty{})
+		if err != nil {
+			return 0, err
+		}
+		w, err := cdp.Call(ctx, tg, page.CreateIsolatedWorld, page.CreateIsolatedWorldParams{FrameID: tree.FrameTree.Frame.ID, WorldName: "standout"})
+		return w.ExecutionContextID, err
+	})
+	if err != nil {
+		return nil, fmt.Errorf("creating an isolated world: %w", err)
+	}
+	return func(p *runtime.EvaluateParams) { p.ContextID = id }, nil
+}
+
 func readOne(bctx context.Context, url, reader string, o ReadOptions) PageResult {
 	r := PageResult{URL: url}
 	tctx, cancel := chromedp.NewContext(bctx)
@@ -122,18 +144,27 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions) PageResult
 		r.Err = fmt.Errorf("loading %s: HTTP %d", url, resp.Status)
 		return r
 	}
-	if _, err := chromedp.Run(ctx, chromedp.Evaluate[bool](stableJS, chromedp.EvalAwaitPromise)); err != nil {
+	// Everything runs in an isolated world of the page's own: the page's
+	// scripts can neither see nor replace the read pass's globals (a page
+	// that predefined standoutReader could otherwise forge its result) nor
+	// the built-ins the read pass calls.
+	world, err := isolatedWorld(ctx)
+	if err != nil {
+		r.Err = fmt.Errorf("reading %s: %w", url, err)
+		return r
+	}
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[bool](stableJS, chromedp.EvalAwaitPromise, world)); err != nil {
 		r.Err = fmt.Errorf("waiting for %s to render: %w", url, err)
 		return r
 	}
 	r.LoadMs = float64(time.Since(t0).Microseconds()) / 1000
 	t1 := time.Now()
-	if _, err := chromedp.Run(ctx, chromedp.Evaluate[any](reader)); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[chromedp.Void](reader, world)); err != nil {
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r
 	}
 	opts, _ := json.Marshal(map[string]string{"emphasis": o.Emphasis})
-	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(globalThis.standoutReader.readPage(document, `+string(opts)+`))`))
+	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(globalThis.standoutReader.readPage(document, `+string(opts)+`))`, world))
 	if err != nil {
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r

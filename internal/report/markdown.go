@@ -26,9 +26,9 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				continue
 			}
 			charts++
-			fmt.Fprintf(w, "### Chart `%s`\n\n", c.Path)
+			fmt.Fprintf(w, "### Chart %s\n\n", mdCode(c.Path))
 			if img, ok := pngs[p.Source+"#"+c.Path]; ok {
-				fmt.Fprintf(w, "![Chart %s with Standout's outlines](%s)\n\n", c.Path, img)
+				fmt.Fprintf(w, "![Chart %s with Standout's outlines](%s)\n\n", mdEscape(c.Path), img)
 			}
 			fmt.Fprintf(w, "%d data marks. At a glance: %s.\n\n", len(c.Marks), orNone(verdictSummary(c)))
 			if c.Emphasis != nil && len(c.Emphasis.Marks) > 0 {
@@ -44,7 +44,11 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				if c.Emphasis.Inferred {
 					how = "Emphasis (inferred)"
 				}
-				fmt.Fprintf(w, "%s: `%s`. Stands out for: %s. Lost for: %s.\n\n", how, strings.Join(c.Emphasis.Marks, "`, `"), orNone(strings.Join(ok, ", ")), orNone(strings.Join(lost, ", ")))
+				marks := make([]string, len(c.Emphasis.Marks))
+				for i, m := range c.Emphasis.Marks {
+					marks[i] = mdCode(m)
+				}
+				fmt.Fprintf(w, "%s: %s. Stands out for: %s. Lost for: %s.\n\n", how, strings.Join(marks, ", "), orNone(strings.Join(ok, ", ")), orNone(strings.Join(lost, ", ")))
 			}
 			if len(c.Findings) == 0 {
 				fmt.Fprintln(w, "No findings.")
@@ -54,7 +58,7 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 			fmt.Fprintln(w, "| severity | finding | rule | source |")
 			fmt.Fprintln(w, "| --- | --- | --- | --- |")
 			for _, f := range c.Findings {
-				fmt.Fprintf(w, "| %s | %s | `%s` | %s |\n", f.Severity, mdCell(f.Message), f.ID, mdCell(f.Source))
+				fmt.Fprintf(w, "| %s | %s | %s | %s |\n", f.Severity, mdCell(f.Message), mdCode(f.ID), mdCell(f.Source))
 			}
 			fmt.Fprintln(w)
 			for _, f := range c.Findings {
@@ -69,7 +73,7 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				if !f.Fix.Verified {
 					state = "not enough on its own for every reader"
 				}
-				fmt.Fprintf(w, "Suggested fix for `%s` (%s):\n\n```css\n%s;\n```\n\n", f.ID, state, f.Fix.CSS)
+				fmt.Fprintf(w, "Suggested fix for %s (%s):\n\n```css\n%s;\n```\n\n", mdCode(f.ID), state, strings.ReplaceAll(TerminalSafe(f.Fix.CSS), "`", "'"))
 				fmt.Fprintf(w, "%s. Smallest difference to any other mark, in noticeable-difference units: %s.\n\n", what, margins(f.Fix.Margin))
 			}
 		}
@@ -96,12 +100,6 @@ func orNone(s string) string {
 		return "none"
 	}
 	return s
-}
-
-// mdEscape neutralises Markdown in page-derived text.
-func mdEscape(s string) string {
-	r := strings.NewReplacer("\\", "\\\\", "`", "\\`", "*", "\\*", "_", "\\_", "[", "\\[", "]", "\\]", "<", "&lt;", ">", "&gt;", "#", "\\#", "|", "\\|")
-	return r.Replace(s)
 }
 
 func mdCell(s string) string {

@@ -9,6 +9,7 @@ import (
 	"math"
 	"sort"
 	"strings"
+	"time"
 
 	"standout/dom"
 	"standout/perception"
@@ -147,13 +148,16 @@ type Options struct {
 	Nodes map[string]map[int]bool
 	// Params are the perception model's thresholds.
 	Params perception.Params
+	// Deadline, when set, bounds a check: the static builder stops at
+	// it, and no further chart is analysed after it.
+	Deadline time.Time
 }
 
 var DefaultOptions = Options{Params: perception.DefaultParams}
 
 // CheckFile builds, walks and analyses every chart of one file.
 func CheckFile(name string, r io.Reader, opt Options) (Page, []*dom.Chart, error) {
-	page, err := dom.Build(r, dom.Options{Source: name, Select: opt.Selector})
+	page, err := dom.Build(r, dom.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline})
 	if err != nil {
 		return Page{}, nil, err
 	}
@@ -173,6 +177,9 @@ type Analysed struct {
 func AnalyseSnapshots(snaps []dom.Snapshot, opt Options) ([]Analysed, error) {
 	out := make([]Analysed, 0, len(snaps))
 	for i := range snaps {
+		if !opt.Deadline.IsZero() && time.Now().After(opt.Deadline) {
+			return nil, fmt.Errorf("the check ran past its time limit at chart %s (see --timeout)", snaps[i].Path)
+		}
 		ch, err := dom.Walk(&snaps[i])
 		if err != nil {
 			return nil, err
@@ -251,6 +258,7 @@ func nonNil(s []string) []string {
 // WriteText lists each chart with its marks grouped by kind, shape and
 // colour.
 func WriteText(w io.Writer, p Page, charts []*dom.Chart) {
+	w = terminalWriter{w} // page-derived text carries no escape sequences
 	fmt.Fprintf(w, "%s: %d drawing(s)\n", p.Source, len(p.Charts))
 	for _, pr := range p.Problems {
 		fmt.Fprintf(w, "  note: %s\n", pr)

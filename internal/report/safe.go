@@ -1,0 +1,65 @@
+package report
+
+import (
+	"io"
+	"strings"
+	"unicode"
+)
+
+// TerminalSafe makes page-derived text safe to print on a terminal:
+// control characters (C0 but tab and newline, DEL, C1), which can carry
+// escape sequences that move the cursor, retitle the window or rewrite
+// what was printed, and the bidirectional overrides and isolates, which
+// can reorder what a line shows, each become U+FFFD.
+func TerminalSafe(s string) string {
+	return strings.Map(func(r rune) rune {
+		switch {
+		case r == '\n' || r == '\t':
+			return r
+		case unicode.IsControl(r), r >= 0x202a && r <= 0x202e, r >= 0x2066 && r <= 0x2069:
+			return unicode.ReplacementChar
+		}
+		return r
+	}, s)
+}
+
+// terminalWriter passes what is written through TerminalSafe. Each Write
+// must hold whole UTF-8 sequences, as fmt.Fprintf's do.
+type terminalWriter struct{ w io.Writer }
+
+func (t terminalWriter) Write(p []byte) (int, error) {
+	if _, err := io.WriteString(t.w, TerminalSafe(string(p))); err != nil {
+		return 0, err
+	}
+	return len(p), nil
+}
+
+// mdEscape neutralises Markdown and HTML in page-derived text, and keeps
+// it on one line.
+func mdEscape(s string) string {
+	r := strings.NewReplacer("\\", "\\\\", "`", "\\`", "*", "\\*", "_", "\\_", "[", "\\[", "]", "\\]", "<", "&lt;", ">", "&gt;",
+		"#", "\\#", "|", "\\|", "!", "\\!", "\n", " ", "\r", " ")
+	return r.Replace(TerminalSafe(s))
+}
+
+// mdCode writes s as a Markdown code span that s cannot close: the fence
+// is one backtick longer than the longest run of backticks in s, with a
+// space inside each end (CommonMark 0.31 §6.1). In a table cell a "|"
+// would still end the cell, so it becomes "¦".
+func mdCode(s string) string {
+	s = strings.NewReplacer("\n", " ", "\r", " ", "|", "¦").Replace(TerminalSafe(s))
+	longest, run := 0, 0
+	for i := 0; i < len(s); i++ {
+		if s[i] == '`' {
+			run++
+			longest = max(longest, run)
+		} else {
+			run = 0
+		}
+	}
+	fence := strings.Repeat("`", longest+1)
+	if longest > 0 || strings.HasPrefix(s, " ") || strings.HasSuffix(s, " ") {
+		return fence + " " + s + " " + fence
+	}
+	return fence + s + fence
+}
