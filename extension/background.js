@@ -1,13 +1,17 @@
 // The extension's background: it runs the Go core (WebAssembly) under the
 // extension's own CSP, so pages with strict CSPs are checked too. Nothing
 // here is needed between events: if the service worker is stopped, the
-// next event loads the core again.
+// next event loads the core again. The only state kept between events is
+// a screenshot waiting for its export page, for a few seconds.
 import './wasm_exec.js';
 
 let corePromise = null;
 
 // loadCore instantiates standout.wasm once per service-worker lifetime
 // and resolves to how long that took (0 when it was already running).
+// When the Go program exits (it never should; a wasm memory that cannot
+// grow ends it), its handle is dropped so that the next check loads a
+// fresh core instead of failing in every tab.
 function loadCore() {
   if (globalThis.standoutHandle) return Promise.resolve(0);
   if (!corePromise) {
@@ -16,7 +20,7 @@ function loadCore() {
       const go = new Go();
       const url = chrome.runtime.getURL('standout.wasm');
       const { instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
-      go.run(instance); // returns only when Go exits; it never does
+      go.run(instance).finally(dropCore); // settles only when Go exits
       for (let i = 0; i < 200 && !globalThis.standoutHandle; i++) {
         await new Promise((r) => setTimeout(r, 5));
       }
@@ -28,6 +32,25 @@ function loadCore() {
     });
   }
   return corePromise;
+}
+
+function dropCore() {
+  globalThis.standoutHandle = undefined;
+  corePromise = null;
+}
+
+// callCore runs one request in the core. A core that has exited is
+// reloaded once and the request run again.
+async function callCore(options, page) {
+  for (let attempt = 0; ; attempt++) {
+    await loadCore();
+    try {
+      return globalThis.standoutHandle(options, page);
+    } catch (e) {
+      if (attempt > 0 || !/exited|not a function|standoutHandle/i.test(String((e && e.message) || e))) throw e;
+      dropCore();
+    }
+  }
 }
 
 const SCRIPTS = ['cvd-filters.js', 'reader.js', 'overlay.js'];
@@ -51,7 +74,7 @@ async function run(tabId, injection) {
 // readPage reads the page, or with toggle closes an open check, in one
 // round trip. A press injects the scripts and press.js, whose value is the
 // press's outcome (the scripts do nothing when they are there already); a
-// re-run asks the overlay, which is there, to read again.
+// re-check asks the overlay, which is there, to read again.
 async function readPage(tabId, toggle) {
   let r;
   try {
@@ -61,14 +84,14 @@ async function readPage(tabId, toggle) {
   } catch (e) {
     throw new Error(`reading the page: ${(e && e.message) || e}`);
   }
-  if (!r) throw new Error('reading the page: the read pass returned nothing');
+  if (!r || (!r.closed && typeof r.json !== 'string')) throw new Error('reading the page: the read pass returned nothing');
   return r;
 }
 
-// analyse reads the page (unless read already holds its reading), runs
-// the core and returns the core's response (a JSON string: {ok, overlay}
-// or {ok, report, markdown}, or {ok: false, error}) with the timings of
-// the steps, or {closed: true} when toggle closed an open check.
+// analyse reads the page and runs the core. It returns the core's
+// response (a JSON string: {ok, overlay} or {ok, report, markdown}, or
+// {ok: false, error}) with the timings of the steps and the check's
+// sequence number, or {closed: true} when toggle closed an open check.
 async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false } = {}) {
   const t0 = performance.now();
   const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore()]);
@@ -78,10 +101,11 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
   // the read pass wrote it, for the core's fast snapshot decoder.
   const options = { type: 'analyse', emphasisNodes, full };
   if (typeof severity === 'number') options.severity = severity;
-  const response = globalThis.standoutHandle(JSON.stringify(options), read.json);
+  const response = await callCore(JSON.stringify(options), read.json);
   const t2 = performance.now();
   return {
     response,
+    seq: read.seq,
     timing: {
       readMs: read.readMs,
       stringifyMs: read.stringifyMs,
@@ -110,22 +134,67 @@ async function show(tabId, result) {
 // toggle closes an open check, or runs one.
 async function toggle(tab) {
   if (!tab || tab.id === undefined) return;
+  let seq;
   try {
     const r = await analyse(tab.id, { toggle: true });
+    seq = r.seq;
     if (!r.closed) await show(tab.id, r);
   } catch (e) {
-    await showError(tab.id, e);
+    await showError(tab.id, e, seq);
   }
 }
 
-async function showError(tabId, e) {
+async function showError(tabId, e, seq) {
   const msg = String((e && e.message) || e);
   try {
     await chrome.scripting.executeScript({ target: { tabId }, files: SCRIPTS });
-    await chrome.scripting.executeScript({ target: { tabId }, func: (m) => globalThis.standoutOverlay.showError(m), args: [msg] });
+    await chrome.scripting.executeScript({ target: { tabId }, func: (m, s) => globalThis.standoutOverlay.showError(m, s === null ? undefined : s), args: [msg, seq === undefined ? null : seq] });
   } catch (e2) {
     console.warn('Standout could not run on this page:', msg, e2);
   }
+}
+
+// ---------- the PNG export ----------
+
+// Screenshots wait here, by a random key, until their export page takes
+// them (or for at most a minute).
+const pendingExports = new Map();
+
+// exportPNG captures the visible tab and opens the export page, which
+// cuts the capture to the charts and offers the files. The capture stays
+// in extension pages: the tab may show frames of other origins.
+async function exportPNG(tab, data) {
+  const url = await chrome.tabs.captureVisibleTab(tab.windowId, { format: 'png' });
+  const key = crypto.randomUUID();
+  pendingExports.set(key, { url, charts: data.charts, viewport: data.viewport });
+  setTimeout(() => pendingExports.delete(key), 60000);
+  await chrome.tabs.create({ url: chrome.runtime.getURL('export.html#' + key), index: tab.index + 1, openerTabId: tab.id });
+}
+
+// ---------- messages ----------
+
+const MAX_PICKS = 100000;
+
+// validMessage checks a message's shape: it comes from this extension's
+// own scripts in a tab (or, for the export page, from an extension page),
+// and its data are what that type carries. Anything else is refused.
+function validMessage(msg, sender) {
+  if (!msg || typeof msg !== 'object' || sender.id !== chrome.runtime.id) return false;
+  const d = msg.data;
+  switch (msg.type) {
+    case 'standout/reanalyse':
+    case 'standout/full-report':
+      return !!sender.tab && d && typeof d === 'object' && Array.isArray(d.emphasisNodes) && d.emphasisNodes.length <= MAX_PICKS &&
+        d.emphasisNodes.every((n) => typeof n === 'string' && n.length <= 4096 && /#\d+$/.test(n)) &&
+        typeof d.severity === 'number' && d.severity >= 0 && d.severity <= 1;
+    case 'standout/capture':
+      return !!sender.tab && d && typeof d === 'object' && Array.isArray(d.charts) && d.charts.length <= 1000 &&
+        d.charts.every((c) => c && typeof c.name === 'string' && c.name.length <= 200 && Array.isArray(c.box) && c.box.length === 4 && c.box.every(Number.isFinite)) &&
+        Array.isArray(d.viewport) && d.viewport.length === 2 && d.viewport.every((v) => Number.isFinite(v) && v > 0);
+    case 'standout/take-export':
+      return typeof d === 'string' && d.length <= 64 && typeof sender.url === 'string' && sender.url.startsWith(chrome.runtime.getURL('export.html'));
+  }
+  return false;
 }
 
 chrome.action.onClicked.addListener((tab) => {
@@ -133,22 +202,25 @@ chrome.action.onClicked.addListener((tab) => {
 });
 
 chrome.runtime.onMessage.addListener((msg, sender, sendResponse) => {
-  const tabId = sender.tab && sender.tab.id;
-  switch (msg && msg.type) {
+  if (!validMessage(msg, sender)) {
+    console.warn('Standout: refused a message', msg && msg.type);
+    return false;
+  }
+  const reply = (p) => {
+    p.then((data) => sendResponse({ ok: true, data })).catch((e) => sendResponse({ ok: false, error: String((e && e.message) || e) }));
+    return true;
+  };
+  switch (msg.type) {
     case 'standout/reanalyse':
     case 'standout/full-report':
-      analyse(tabId, { emphasisNodes: msg.data.emphasisNodes, severity: msg.data.severity, full: msg.type === 'standout/full-report' })
-        .then((r) => sendResponse({ ok: true, data: r }))
-        .catch((e) => sendResponse({ ok: false, error: String((e && e.message) || e) }));
-      return true;
+      return reply(analyse(sender.tab.id, { emphasisNodes: msg.data.emphasisNodes, severity: msg.data.severity, full: msg.type === 'standout/full-report' }));
     case 'standout/capture':
-      chrome.tabs
-        .captureVisibleTab(sender.tab.windowId, { format: 'png' })
-        .then((url) => sendResponse({ ok: true, data: url }))
-        .catch((e) => sendResponse({ ok: false, error: String((e && e.message) || e) }));
-      return true;
-    default:
-      console.warn('Standout: unknown message', msg && msg.type);
+      return reply(exportPNG(sender.tab, msg.data));
+    case 'standout/take-export': {
+      const e = pendingExports.get(msg.data);
+      pendingExports.delete(msg.data);
+      return reply(e ? Promise.resolve(e) : Promise.reject(new Error('this export has expired; export again from the panel')));
+    }
   }
   return false;
 });

@@ -55,7 +55,7 @@ func (h *harness) clickToOverlay(tb testing.TB) press {
 	for attempt := 0; attempt < 3; attempt++ {
 		h.eval(`(() => { window.__t1 = 0; window.__t2 = 0;
 		  const o = new MutationObserver(() => {
-		    const e = document.querySelector('standout-overlay');
+		    const e = document.querySelector('` + hostSelector + `');
 		    if (e && e.getAttribute('data-state') === 'ready' && !window.__t1) {
 		      window.__t1 = performance.now(); o.disconnect();
 		      // The frame that shows the overlay: rAF runs before its paint,
@@ -68,7 +68,7 @@ func (h *harness) clickToOverlay(tb testing.TB) press {
 		h.press()
 		deadline := time.Now().Add(10 * time.Second)
 		for time.Now().Before(deadline) {
-			v := h.eval(`window.__t2 ? JSON.stringify([window.__t1 - window.__t0, window.__t2 - window.__t0, document.querySelector('standout-overlay').getAttribute('data-timing')]) : ''`)
+			v := h.eval(`window.__t2 ? JSON.stringify([window.__t1 - window.__t0, window.__t2 - window.__t0, document.querySelector('` + hostSelector + `').getAttribute('data-timing')]) : ''`)
 			if v == "" {
 				time.Sleep(5 * time.Millisecond)
 				continue

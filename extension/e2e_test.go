@@ -31,7 +31,6 @@ import (
 	"github.com/chromedp/cdproto/extensions"
 	"github.com/chromedp/cdproto/input"
 	"github.com/chromedp/cdproto/page"
-	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/cdproto/target"
 	"github.com/chromedp/chromedp"
 	"github.com/stretchr/testify/assert"
@@ -161,14 +160,14 @@ func (h *harness) stopWorker(tb testing.TB) int {
 }
 
 func (h *harness) eval(expr string) string {
-	v, err := chromedp.Run(h.ctx, chromedp.Evaluate[string](expr))
+	v, err := chromedp.Run(h.ctx, chromedp.Evaluate[string](expr, chromedp.EvalAwaitPromise))
 	require.NoError(h.t, err, expr)
 	return v
 }
 
 // state is the overlay host's data-state ("" when there is none).
 func (h *harness) state() string {
-	return h.eval(`(() => { const e = document.querySelector('standout-overlay'); return e ? (e.getAttribute('data-state') || 'open') : ''; })()`)
+	return h.eval(`(() => { const e = document.querySelector('` + hostSelector + `'); return e ? (e.getAttribute('data-state') || 'open') : ''; })()`)
 }
 
 func (h *harness) waitState(want string) {
@@ -200,7 +199,7 @@ func (h *harness) overlayHTML() string {
 		}
 		var find func(n *cdp.Node) *cdp.Node
 		find = func(n *cdp.Node) *cdp.Node {
-			if n.LocalName == "standout-overlay" {
+			if n.LocalName == "div" && hasAttr(n, "data-standout") {
 				return n
 			}
 			for _, c := range n.Children {
@@ -222,42 +221,118 @@ func (h *harness) overlayHTML() string {
 	return s
 }
 
-// callInOverlay runs fn (a JS function taking the element) on the first
-// element of the overlay's shadow root that has the data-action attribute.
-func (h *harness) callInOverlay(action, fn string) {
+// hostSelector finds the overlay's host in the page.
+const hostSelector = `div[data-standout]`
+
+func hasAttr(n *cdp.Node, name string) bool {
+	for i := 0; i+1 < len(n.Attributes); i += 2 {
+		if n.Attributes[i] == name {
+			return true
+		}
+	}
+	return false
+}
+
+// findInOverlay finds the first element of the overlay's shadow root with
+// the data-action attribute.
+func findInOverlay(ctx context.Context, tg *chromedp.Target, action string) (*cdp.Node, error) {
+	depth := int64(-1)
+	pierce := true
+	doc, err := cdp.Call(ctx, tg, dom.GetDocument, dom.GetDocumentParams{Depth: &depth, Pierce: &pierce})
+	if err != nil {
+		return nil, err
+	}
+	var find func(n *cdp.Node) *cdp.Node
+	find = func(n *cdp.Node) *cdp.Node {
+		for i := 0; i+1 < len(n.Attributes); i += 2 {
+			if n.Attributes[i] == "data-action" && n.Attributes[i+1] == action {
+				return n
+			}
+		}
+		for _, c := range append(append([]*cdp.Node{}, n.ShadowRoots...), n.Children...) {
+			if f := find(c); f != nil {
+				return f
+			}
+		}
+		return nil
+	}
+	n := find(doc.Root)
+	if n == nil {
+		return nil, fmt.Errorf("no control %q in the overlay", action)
+	}
+	return n, nil
+}
+
+// clickInOverlay clicks a control of the overlay as a person does: a
+// trusted mouse press and release at its centre.
+func (h *harness) clickInOverlay(action string) {
 	_, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
-		depth := int64(-1)
-		pierce := true
-		doc, err := cdp.Call(ctx, tg, dom.GetDocument, dom.GetDocumentParams{Depth: &depth, Pierce: &pierce})
+		n, err := findInOverlay(ctx, tg, action)
 		if err != nil {
 			return chromedp.Void{}, err
 		}
-		var find func(n *cdp.Node) *cdp.Node
-		find = func(n *cdp.Node) *cdp.Node {
-			for i := 0; i+1 < len(n.Attributes); i += 2 {
-				if n.Attributes[i] == "data-action" && n.Attributes[i+1] == action {
-					return n
-				}
-			}
-			for _, c := range append(append([]*cdp.Node{}, n.ShadowRoots...), n.Children...) {
-				if f := find(c); f != nil {
-					return f
-				}
-			}
-			return nil
+		if _, err := cdp.Call(ctx, tg, dom.ScrollIntoViewIfNeeded, dom.ScrollIntoViewIfNeededParams{NodeID: n.NodeID}); err != nil {
+			return chromedp.Void{}, err
 		}
-		n := find(doc.Root)
-		if n == nil {
-			return chromedp.Void{}, fmt.Errorf("no control %q in the overlay", action)
-		}
-		obj, err := cdp.Call(ctx, tg, dom.ResolveNode, dom.ResolveNodeParams{NodeID: n.NodeID})
+		box, err := cdp.Call(ctx, tg, dom.GetBoxModel, dom.GetBoxModelParams{NodeID: n.NodeID})
 		if err != nil {
 			return chromedp.Void{}, err
 		}
-		_, err = cdp.Call(ctx, tg, runtime.CallFunctionOn, runtime.CallFunctionOnParams{FunctionDeclaration: fn, ObjectID: obj.Object.ObjectID})
-		return chromedp.Void{}, err
+		q := box.Model.Border
+		x, y := (q[0]+q[4])/2, (q[1]+q[5])/2
+		return chromedp.Void{}, mouseClick(ctx, tg, x, y)
 	})
 	require.NoError(h.t, err)
+}
+
+func mouseClick(ctx context.Context, tg *chromedp.Target, x, y float64) error {
+	for _, typ := range []input.DispatchMouseEventType{input.DispatchMouseEventTypeMousePressed, input.DispatchMouseEventTypeMouseReleased} {
+		if _, err := cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: typ, X: x, Y: y, Button: input.MouseButtonLeft, ClickCount: 1}); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// typeInOverlay focuses a control of the overlay and types keys into it
+// as a person does (trusted key events): a letter picks the option of a
+// <select> that starts with it; "ArrowLeft" and "ArrowRight" move a range.
+func (h *harness) typeInOverlay(action string, keys ...string) {
+	_, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		n, err := findInOverlay(ctx, tg, action)
+		if err != nil {
+			return chromedp.Void{}, err
+		}
+		if _, err := cdp.Call(ctx, tg, dom.Focus, dom.FocusParams{NodeID: n.NodeID}); err != nil {
+			return chromedp.Void{}, err
+		}
+		for _, k := range keys {
+			if err := pressKey(ctx, tg, k); err != nil {
+				return chromedp.Void{}, err
+			}
+		}
+		return chromedp.Void{}, nil
+	})
+	require.NoError(h.t, err)
+}
+
+var keyCodes = map[string]int64{"Escape": 27, "ArrowLeft": 37, "ArrowRight": 39, "ArrowUp": 38, "ArrowDown": 40}
+
+func pressKey(ctx context.Context, tg *chromedp.Target, key string) error {
+	p := input.DispatchKeyEventParams{Key: key, Code: key, WindowsVirtualKeyCode: keyCodes[key]}
+	if len(key) == 1 {
+		p.Text, p.Code, p.WindowsVirtualKeyCode = key, "Key"+strings.ToUpper(key), int64(strings.ToUpper(key)[0])
+	}
+	for _, typ := range []input.DispatchKeyEventType{input.DispatchKeyEventTypeKeyDown, input.DispatchKeyEventTypeKeyUp} {
+		p.Type = typ
+		if typ == input.DispatchKeyEventTypeKeyUp {
+			p.Text = ""
+		}
+		if _, err := cdp.Call(ctx, tg, input.DispatchKeyEvent, p); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 // layerRects parses the overlay's layers: for each chart, per verdict, the
@@ -499,7 +574,7 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	before := h.eval(`document.documentElement.outerHTML`)
 	h.trigger()
 	h.waitState("ready")
-	h.callInOverlay("cvd", `function () { this.value = 'deutan'; this.dispatchEvent(new Event('change')); }`)
+	h.typeInOverlay("cvd", "d")
 	time.Sleep(300 * time.Millisecond)
 	_, img := h.screenshot()
 	r, g, b, _ := img.At(100, 150).RGBA()
@@ -514,14 +589,9 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	assert.InDelta(t, want.B, got.B, tol, "B: got %s want %s", got.Hex(), want.Hex())
 	// Switching the preview off, then closing with Escape, leaves the page
 	// exactly as it was.
-	h.callInOverlay("cvd", `function () { this.value = 'off'; this.dispatchEvent(new Event('change')); }`)
+	h.typeInOverlay("cvd", "o")
 	require.NoError(t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
-		for _, typ := range []input.DispatchKeyEventType{input.DispatchKeyEventTypeKeyDown, input.DispatchKeyEventTypeKeyUp} {
-			if _, err := cdp.Call(ctx, tg, input.DispatchKeyEvent, input.DispatchKeyEventParams{Type: typ, Key: "Escape", Code: "Escape", WindowsVirtualKeyCode: 27}); err != nil {
-				return chromedp.Void{}, err
-			}
-		}
-		return chromedp.Void{}, nil
+		return chromedp.Void{}, pressKey(ctx, tg, "Escape")
 	}))
 	h.waitState("")
 	assert.Equal(t, before, h.eval(`document.documentElement.outerHTML`))
@@ -531,17 +601,12 @@ func TestE2EPickingAndExport(t *testing.T) {
 	h := newHarness(t)
 	h.showPage(chartPage)
 	// Pick the second (grey) bar: the check then says whether it stands out.
-	h.callInOverlay("pick", `function () { this.click(); }`)
+	h.clickInOverlay("pick")
 	require.NoError(t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
-		for _, typ := range []input.DispatchMouseEventType{input.DispatchMouseEventTypeMousePressed, input.DispatchMouseEventTypeMouseReleased} {
-			if _, err := cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: typ, X: 65, Y: 80, Button: input.MouseButtonLeft, ClickCount: 1}); err != nil {
-				return chromedp.Void{}, err
-			}
-		}
-		return chromedp.Void{}, nil
+		return chromedp.Void{}, mouseClick(ctx, tg, 65, 80)
 	}))
-	h.eval(`document.querySelector('standout-overlay').removeAttribute('data-state'), ''`)
-	h.callInOverlay("check-emphasis", `function () { this.click(); }`)
+	h.eval(`document.querySelector('` + hostSelector + `').removeAttribute('data-state'), ''`)
+	h.clickInOverlay("check-emphasis")
 	h.waitState("ready")
 	ov := h.overlayHTML()
 	assert.Contains(t, ov, "Declared emphasis (1 mark) stands out for normal: no")
@@ -550,7 +615,7 @@ func TestE2EPickingAndExport(t *testing.T) {
 	dl := t.TempDir()
 	_, err := chromedp.CallBrowser(h.ctx, cdpbrowser.SetDownloadBehavior, cdpbrowser.SetDownloadBehaviorParams{Behavior: cdpbrowser.SetDownloadBehaviorBehaviorAllow, DownloadPath: dl})
 	require.NoError(t, err)
-	h.callInOverlay("export-json", `function () { this.click(); }`)
+	h.clickInOverlay("export-json")
 	var data []byte
 	for i := 0; i < 100 && data == nil; i++ {
 		time.Sleep(100 * time.Millisecond)
@@ -608,7 +673,7 @@ func TestE2EReRunsWhenTheChartChanges(t *testing.T) {
 	require.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
 	// The page recolours the emphasis to the others' grey and gives it a
 	// neighbour's height: the overlay re-runs (debounced) and nothing pops.
-	h.eval(`document.querySelector('standout-overlay').removeAttribute('data-state'), document.querySelectorAll('rect')[2].setAttribute('fill', '#8a8a8a'), document.querySelectorAll('rect')[2].setAttribute('y', '30'), document.querySelectorAll('rect')[2].setAttribute('height', '90'), ''`)
+	h.eval(`document.querySelector('` + hostSelector + `').removeAttribute('data-state'), document.querySelectorAll('rect')[2].setAttribute('fill', '#8a8a8a'), document.querySelectorAll('rect')[2].setAttribute('y', '30'), document.querySelectorAll('rect')[2].setAttribute('height', '90'), ''`)
 	h.waitState("ready")
 	l := layerRects(t, h.overlayHTML())["svg0"]
 	assert.Empty(t, l["pops"])
@@ -647,8 +712,8 @@ func TestE2EExportMarkdownAndPNG(t *testing.T) {
 	dl := t.TempDir()
 	_, err := chromedp.CallBrowser(h.ctx, cdpbrowser.SetDownloadBehavior, cdpbrowser.SetDownloadBehaviorParams{Behavior: cdpbrowser.SetDownloadBehaviorBehaviorAllow, DownloadPath: dl})
 	require.NoError(t, err)
-	h.callInOverlay("export-md", `function () { this.click(); }`)
-	h.callInOverlay("export-png", `function () { this.click(); }`)
+	h.clickInOverlay("export-md")
+	h.clickInOverlay("export-png")
 	var md, shot []byte
 	for i := 0; i < 100 && (md == nil || shot == nil); i++ {
 		time.Sleep(100 * time.Millisecond)
@@ -739,9 +804,9 @@ func TestE2ESiblingStyleSharing(t *testing.T) {
 		})
 		h.open(srv.URL + "/")
 		h.eval(Reader() + `; ''`)
-		out := h.eval(`(() => {
-		  const a = globalThis.standoutReader.readPage(document, {});
-		  const b = globalThis.standoutReader.readPage(document, { noSharing: true });
+		out := h.eval(`(async () => {
+		  const a = await globalThis.standoutReader.readPage(document, {});
+		  const b = await globalThis.standoutReader.readPage(document, { noSharing: true });
 		  const same = JSON.stringify(a.snapshots) === JSON.stringify(b.snapshots);
 		  return JSON.stringify({ same, shared: a.sharedStyles, unshared: b.sharedStyles, charts: a.snapshots.length });
 		})()`)

@@ -55,8 +55,20 @@
   @media (prefers-reduced-motion: reduce) { * { transition: none !important; animation: none !important; } }
   `;
 
+  // The overlay's state. phase is one of
+  //   closed      nothing on the page;
+  //   reading     a press is being read and checked (no host yet);
+  //   shown       the host shows a check;
+  //   rechecking  the host shows a check and a new one is on its way;
+  //   error       the host shows an error.
+  // Every transition that starts a check takes a new seq; an answer that
+  // does not carry the current seq, or that arrives after a close, is
+  // dropped. view is what the reader chose (preview vision, severity in
+  // tenths, scope); the panel is drawn from it, never read back.
   const state = {
-    open: false,
+    phase: 'closed',
+    seq: 0,
+    view: { vision: 'off', tenths: 10, scope: 'charts' },
     host: null,
     root: null,
     panel: null,
@@ -66,11 +78,19 @@
     catcher: null,
     observers: [],
     listeners: [],
-    preview: null, // {svg, restored: [[el, styleAttr]]}
+    preview: null, // {svg, restored: [{el, attr, after, value, priority, url}]}
+    container: null, // what ensureHost put on the page: the host, or its <foreignObject>
     emphasis: [], // the picks the shown check ran with
     rerunTimer: 0,
     frame: 0,
   };
+
+  const isOpen = () => state.phase === 'shown' || state.phase === 'rechecking' || state.phase === 'error';
+
+  function setPhase(p) {
+    state.phase = p;
+    if (state.host) state.host.setAttribute('data-state', p === 'shown' ? 'ready' : p);
+  }
 
   function el(tag, attrs, text) {
     const e = document.createElement(tag);
@@ -85,9 +105,26 @@
     return e;
   }
 
+  // trusted wraps an event handler so that only events the browser made
+  // from the reader's own input reach it: the page can dispatch synthetic
+  // events (isTrusted false) but never make a trusted one.
+  function trusted(fn) {
+    return (ev) => {
+      if (ev.isTrusted) fn(ev);
+    };
+  }
+
+  // on listens on an element of the overlay, for trusted events only.
+  function on(target, type, fn) {
+    target.addEventListener(type, trusted(fn));
+  }
+
+  // listen listens on the page's window until teardown, for trusted
+  // events only.
   function listen(target, type, fn, opts) {
-    target.addEventListener(type, fn, opts);
-    state.listeners.push([target, type, fn, opts]);
+    const f = trusted(fn);
+    target.addEventListener(type, f, opts);
+    state.listeners.push([target, type, f, opts]);
   }
 
   // r2 rounds to hundredths, so that path data stays short.
@@ -244,11 +281,11 @@
 
     const controls = el('div', { class: 'row' });
     const pick = el('button', { type: 'button', 'aria-pressed': String(state.picking), 'data-action': 'pick' }, 'Pick the point of the chart');
-    pick.addEventListener('click', () => setPicking(!state.picking));
+    on(pick, 'click', () => setPicking(!state.picking));
     const apply = el('button', { type: 'button', 'data-action': 'check-emphasis' }, 'Check the picked marks');
-    apply.addEventListener('click', () => rerun());
+    on(apply, 'click', () => rerun());
     const close = el('button', { type: 'button', 'data-action': 'close' }, 'Close');
-    close.addEventListener('click', () => teardown());
+    on(close, 'click', () => teardown());
     controls.append(pick, apply, close);
     panel.appendChild(controls);
 
@@ -256,30 +293,37 @@
     const lab = el('label', { for: 'standout-cvd' }, 'Preview as:');
     const sel = el('select', { id: 'standout-cvd', 'data-action': 'cvd' });
     for (const [v, t] of [['off', 'normal vision (off)'], ['protan', 'protan'], ['deutan', 'deutan'], ['tritan', 'tritan'], ['achromat', 'achromatic']]) {
-      sel.appendChild(el('option', { value: v }, t));
+      const o = el('option', { value: v }, t);
+      o.selected = v === state.view.vision;
+      sel.appendChild(o);
     }
     const sevLab = el('label', { for: 'standout-sev' }, 'severity');
-    const sev = el('input', { id: 'standout-sev', type: 'range', min: '0', max: '10', step: '1', value: '10', 'data-action': 'severity', 'aria-valuetext': '1.0' });
+    const sev = el('input', { id: 'standout-sev', type: 'range', min: '0', max: '10', step: '1', value: String(state.view.tenths), 'data-action': 'severity', 'aria-valuetext': (state.view.tenths / 10).toFixed(1) });
     const scopeLab = el('label', { for: 'standout-scope' }, 'on');
     const scope = el('select', { id: 'standout-scope', 'data-action': 'scope' });
-    scope.append(el('option', { value: 'charts' }, 'the charts'), el('option', { value: 'page' }, 'the whole page'));
+    for (const [v, t] of [['charts', 'the charts'], ['page', 'the whole page']]) {
+      const o = el('option', { value: v }, t);
+      o.selected = v === state.view.scope;
+      scope.appendChild(o);
+    }
     const update = () => {
-      sev.setAttribute('aria-valuetext', (Number(sev.value) / 10).toFixed(1));
-      setPreview(sel.value, Number(sev.value), scope.value);
+      state.view = { vision: sel.value, tenths: Number(sev.value), scope: scope.value };
+      sev.setAttribute('aria-valuetext', (state.view.tenths / 10).toFixed(1));
+      setPreview();
     };
-    sel.addEventListener('change', update);
-    sev.addEventListener('input', update);
-    scope.addEventListener('change', update);
+    on(sel, 'change', update);
+    on(sev, 'input', update);
+    on(scope, 'change', update);
     cvd.append(lab, sel, sevLab, sev, scopeLab, scope);
     panel.appendChild(cvd);
 
     const exp = el('div', { class: 'row' });
     const bJSON = el('button', { type: 'button', 'data-action': 'export-json' }, 'Export JSON');
-    bJSON.addEventListener('click', () => exportReport('json'));
+    on(bJSON, 'click', () => exportReport('json'));
     const bMD = el('button', { type: 'button', 'data-action': 'export-md' }, 'Export Markdown');
-    bMD.addEventListener('click', () => exportReport('md'));
+    on(bMD, 'click', () => exportReport('md'));
     const bPNG = el('button', { type: 'button', 'data-action': 'export-png' }, 'Export PNG');
-    bPNG.addEventListener('click', () => exportPNG());
+    on(bPNG, 'click', () => exportPNG());
     exp.append(bJSON, bMD, bPNG);
     panel.appendChild(exp);
 
@@ -302,12 +346,12 @@
         const li = el('li');
         const b = el('button', { type: 'button', class: 'finding', 'data-sev': f.severity, 'data-id': f.id });
         b.append(el('span', { class: 'sev' }, f.severity), document.createTextNode(f.message));
-        const on = () => highlight(c.path, f.marks);
-        const off = () => highlight(c.path, []);
-        b.addEventListener('mouseenter', on);
-        b.addEventListener('focus', on);
-        b.addEventListener('mouseleave', off);
-        b.addEventListener('blur', off);
+        const show = () => highlight(c.path, f.marks);
+        const hide = () => highlight(c.path, []);
+        on(b, 'mouseenter', show);
+        on(b, 'focus', show);
+        on(b, 'mouseleave', hide);
+        on(b, 'blur', hide);
         li.appendChild(b);
         if (f.fix) {
           const p = el('p');
@@ -326,20 +370,20 @@
 
   // ---------- picking ----------
 
-  function setPicking(on) {
-    state.picking = on;
+  function setPicking(picking) {
+    state.picking = picking;
     const b = state.panel && state.panel.querySelector('[data-action="pick"]');
-    if (b) b.setAttribute('aria-pressed', String(on));
-    if (on && !state.catcher) {
+    if (b) b.setAttribute('aria-pressed', String(picking));
+    if (picking && !state.catcher) {
       const c = el('div', { class: 'catcher', 'aria-hidden': 'true' });
-      c.addEventListener('click', (ev) => {
+      on(c, 'click', (ev) => {
         ev.preventDefault();
         ev.stopPropagation();
         pickAt(ev.clientX + window.scrollX, ev.clientY + window.scrollY);
       });
       state.root.insertBefore(c, state.panel);
       state.catcher = c;
-    } else if (!on && state.catcher) {
+    } else if (!picking && state.catcher) {
       state.catcher.remove();
       state.catcher = null;
     }
@@ -373,42 +417,59 @@
 
   // ---------- re-running ----------
 
+  // rerun checks the page again with the picked emphasis. An answer that
+  // is no longer wanted (the overlay closed, or a newer check started) is
+  // dropped; a worker that stops on the way is an error on the panel.
   async function rerun() {
+    if (!isOpen()) return;
     setPicking(false);
-    const severity = state.panel ? Number(state.panel.querySelector('[data-action="severity"]').value) / 10 : 1;
     state.emphasis = [...state.picked];
-    const resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasisNodes: state.emphasis, severity } });
+    const seq = ++state.seq;
+    setPhase('rechecking');
+    let resp;
+    try {
+      resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasisNodes: state.emphasis, severity: state.view.tenths / 10 } });
+    } catch (e) {
+      resp = { ok: false, error: `the extension stopped before the check finished (${(e && e.message) || e}); press the button again` };
+    }
+    if (seq !== state.seq || !isOpen()) return;
     if (!resp || !resp.ok) {
       showError((resp && resp.error) || 'the check could not run again');
       return;
     }
-    render(resp.data);
+    render(resp.data, seq);
   }
 
   function observeCharts() {
-    for (const o of state.observers) o.disconnect();
-    state.observers = [];
+    stopObserving();
     for (const l of state.layers.values()) {
       const o = new MutationObserver(() => {
         clearTimeout(state.rerunTimer);
-        state.rerunTimer = setTimeout(() => {
-          if (state.open) rerun();
-        }, 600);
+        state.rerunTimer = setTimeout(rerun, 600);
       });
       o.observe(l.entry.svg, { subtree: true, childList: true, attributes: true, characterData: true });
       state.observers.push(o);
     }
   }
 
+  function stopObserving() {
+    for (const o of state.observers) o.disconnect();
+    state.observers = [];
+    clearTimeout(state.rerunTimer);
+  }
+
   // ---------- CVD preview ----------
 
-  // setPreview applies the feColorMatrix of a CVD type at a severity (in
-  // tenths) to the charts or the page, or removes it. The values come from
-  // cvd-filters.js, generated from the Go matrices the analysis uses.
-  function setPreview(type, tenths, scope) {
+  // setPreview applies the feColorMatrix of the view's CVD type at its
+  // severity to the charts or the page, or removes it. The values come
+  // from cvd-filters.js, generated from the Go matrices the analysis
+  // uses. It changes only the filter property of each target, and
+  // remembers how to undo exactly that.
+  function setPreview() {
     clearPreview();
-    if (type === 'off' || !globalThis.standoutCVDFilters[type]) return;
-    const values = globalThis.standoutCVDFilters[type][Math.max(0, Math.min(10, tenths))];
+    const { vision, tenths, scope } = state.view;
+    if (vision === 'off' || !globalThis.standoutCVDFilters[vision]) return;
+    const values = globalThis.standoutCVDFilters[vision][Math.max(0, Math.min(10, tenths))];
     const id = 'standout-cvd-' + Math.random().toString(36).slice(2);
     const svg = document.createElementNS(SVG_NS, 'svg');
     svg.setAttribute('width', '0');
@@ -423,28 +484,43 @@
     m.setAttribute('values', values);
     filter.appendChild(m);
     svg.appendChild(filter);
-    const targets = scope === 'page' ? [document.body || document.documentElement] : [...state.layers.values()].map((l) => l.entry.svg).filter((s) => s.ownerDocument === document);
-    for (const o of state.observers) o.disconnect();
-    document.body.appendChild(svg);
+    const targets = scope === 'page' ? [document.body || document.documentElement] : [...state.layers.values()].map((l) => l.entry.svg).filter((t) => t.ownerDocument === document);
+    const watching = state.observers.length > 0;
+    stopObserving();
+    (document.body || document.documentElement).appendChild(svg);
     const restored = [];
+    const url = `url(#${id})`;
     for (const t of targets) {
-      restored.push([t, t.getAttribute('style')]);
-      t.style.filter = `url(#${id})`;
+      const r = { el: t, attr: t.getAttribute('style'), value: t.style.getPropertyValue('filter'), priority: t.style.getPropertyPriority('filter'), url };
+      t.style.setProperty('filter', url, 'important');
+      r.after = t.getAttribute('style');
+      restored.push(r);
     }
     state.preview = { svg, restored };
-    observeCharts();
+    if (watching) observeCharts();
   }
 
+  // clearPreview undoes what setPreview did: where the page has not
+  // touched the style attribute since, it gets its exact text back;
+  // otherwise only the filter Standout set is taken out, and the page's
+  // own changes stay.
   function clearPreview() {
     if (!state.preview) return;
-    for (const o of state.observers) o.disconnect();
-    for (const [t, s] of state.preview.restored) {
-      if (s === null) t.removeAttribute('style');
-      else t.setAttribute('style', s);
+    const watching = state.observers.length > 0;
+    stopObserving();
+    for (const r of state.preview.restored) {
+      const t = r.el;
+      if (t.getAttribute('style') === r.after) {
+        if (r.attr === null) t.removeAttribute('style');
+        else t.setAttribute('style', r.attr);
+      } else if (t.style.getPropertyValue('filter') === r.url) {
+        if (r.value) t.style.setProperty('filter', r.value, r.priority);
+        else t.style.removeProperty('filter');
+      }
     }
     state.preview.svg.remove();
     state.preview = null;
-    if (state.open) observeCharts();
+    if (watching && isOpen()) observeCharts();
   }
 
   // ---------- export ----------
@@ -460,10 +536,17 @@
 
   // exportReport asks for the whole report (the overlay holds a digest)
   // for the current emphasis and severity, and downloads it as JSON or
-  // Markdown.
+  // Markdown. The report holds only what the page and its same-origin
+  // frames show, so a download from the page's origin reveals nothing new
+  // to it.
   async function exportReport(kind) {
-    const severity = state.panel ? Number(state.panel.querySelector('[data-action="severity"]').value) / 10 : 1;
-    const resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasisNodes: state.emphasis || [], severity } });
+    let resp;
+    try {
+      resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasisNodes: state.emphasis || [], severity: state.view.tenths / 10 } });
+    } catch (e) {
+      resp = { ok: false, error: String((e && e.message) || e) };
+    }
+    if (!isOpen()) return;
     if (!resp || !resp.ok) {
       showError((resp && resp.error) || 'the report could not be made');
       return;
@@ -477,70 +560,89 @@
     else download('standout-report.json', 'application/json', JSON.stringify(r.report, null, 1));
   }
 
+  // exportPNG asks the background to capture the tab and crop it to the
+  // charts. The capture never enters the page: a screenshot can show
+  // frames of other origins, which the page must not read, so it is cut
+  // and offered for download in an extension page of its own.
   async function exportPNG() {
     // Let the outlines reach the screen before the tab is captured.
     await new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r)));
-    const resp = await chrome.runtime.sendMessage({ type: 'standout/capture', target: 'background' });
-    if (!resp || !resp.ok) {
-      showError((resp && resp.error) || 'the screenshot failed');
-      return;
-    }
-    const img = new Image();
-    img.src = resp.data;
-    await img.decode();
-    const dpr = img.width / window.innerWidth;
+    const charts = [];
     for (const [path, l] of state.layers) {
       const b = globalThis.standoutReader.pageBox(l.entry);
       const x = Math.max(0, b[0] - window.scrollX - 10);
       const y = Math.max(0, b[1] - window.scrollY - 10);
       const w = Math.min(window.innerWidth - x, b[2] + 20);
       const h = Math.min(window.innerHeight - y, b[3] + 20);
-      if (w <= 0 || h <= 0) continue;
-      const c = document.createElement('canvas');
-      c.width = Math.round(w * dpr);
-      c.height = Math.round(h * dpr);
-      c.getContext('2d').drawImage(img, x * dpr, y * dpr, w * dpr, h * dpr, 0, 0, c.width, c.height);
-      const blob = await new Promise((r) => c.toBlob(r, 'image/png'));
-      const url = URL.createObjectURL(blob);
-      const a = el('a', { href: url, download: `standout-${path.replace(/\//g, '-')}.png` });
-      state.root.appendChild(a);
-      a.click();
-      a.remove();
-      setTimeout(() => URL.revokeObjectURL(url), 10000);
+      if (w > 0 && h > 0) charts.push({ name: `standout-${path.replace(/[^A-Za-z0-9]+/g, '-')}.png`, box: [x, y, w, h] });
     }
+    let resp;
+    try {
+      resp = await chrome.runtime.sendMessage({ type: 'standout/capture', target: 'background', data: { charts, viewport: [window.innerWidth, window.innerHeight] } });
+    } catch (e) {
+      resp = { ok: false, error: String((e && e.message) || e) };
+    }
+    if (isOpen() && (!resp || !resp.ok)) showError((resp && resp.error) || 'the screenshot failed');
   }
 
   // ---------- lifecycle ----------
 
+  const XHTML_NS = 'http://www.w3.org/1999/xhtml';
+
+  // ensureHost puts the overlay's host on the page: a plain <div> (a
+  // built-in element, so no custom element the page defines can reach
+  // its closed shadow root through attachInternals), on the root element,
+  // so that a whole-page preview (a filter on <body>) leaves the
+  // overlay's own colours alone. In a standalone SVG document the host
+  // sits in a <foreignObject> that covers the window.
   function ensureHost() {
     if (state.host) return;
-    const host = document.createElement('standout-overlay');
-    host.style.position = 'absolute';
-    host.style.left = '0px';
-    host.style.top = '0px';
-    host.style.width = '0px';
-    host.style.height = '0px';
-    host.style.zIndex = '2147483647';
-    host.style.pointerEvents = 'none';
+    const host = document.createElementNS(XHTML_NS, 'div');
+    host.setAttribute('data-standout', '');
+    const hs = host.style;
+    hs.setProperty('position', 'absolute', 'important');
+    hs.setProperty('left', '0px', 'important');
+    hs.setProperty('top', '0px', 'important');
+    hs.setProperty('width', '0px', 'important');
+    hs.setProperty('height', '0px', 'important');
+    hs.setProperty('z-index', '2147483647', 'important');
+    hs.setProperty('pointer-events', 'none', 'important');
+    hs.setProperty('display', 'block', 'important');
     state.root = host.attachShadow({ mode: 'closed' });
-    const style = document.createElement('style');
+    const style = document.createElementNS(XHTML_NS, 'style');
     style.textContent = CSS;
     state.root.appendChild(style);
     state.panel = el('div');
     state.root.appendChild(state.panel);
-    // On the root element, so that a whole-page preview (a filter on
-    // <body>) leaves the overlay's own colours alone.
-    document.documentElement.appendChild(host);
+    const de = document.documentElement;
+    if (de.namespaceURI === SVG_NS) {
+      const fo = document.createElementNS(SVG_NS, 'foreignObject');
+      fo.setAttribute('x', '0');
+      fo.setAttribute('y', '0');
+      fo.setAttribute('width', '100%');
+      fo.setAttribute('height', '100%');
+      fo.setAttribute('overflow', 'visible');
+      fo.setAttribute('data-standout', '');
+      // Undo the root's viewBox: the overlay draws in CSS px.
+      const m = de.getScreenCTM && de.getScreenCTM();
+      const inv = m && m.inverse();
+      if (inv) fo.setAttribute('transform', `matrix(${inv.a},${inv.b},${inv.c},${inv.d},${inv.e},${inv.f})`);
+      fo.appendChild(host);
+      de.appendChild(fo);
+      state.container = fo;
+    } else {
+      de.appendChild(host);
+      state.container = host;
+    }
     state.host = host;
     listen(window, 'scroll', schedulePosition, { capture: true, passive: true });
     listen(window, 'resize', schedulePosition, { passive: true });
     listen(window, 'keydown', (ev) => {
-      if (ev.key === 'Escape' && state.open) {
+      if (ev.key === 'Escape' && isOpen()) {
         ev.preventDefault();
         teardown();
       }
     }, { capture: true });
-    state.open = true;
   }
 
   // unpack turns the background's {response, timing} into {report,
@@ -553,14 +655,16 @@
     return { report: r.overlay, timing: Object.assign({}, data.timing, { core: r.timing }) };
   }
 
-  function render(data) {
+  // render shows a check's answer, if it is the one awaited (seq).
+  function render(data, seq) {
+    if (seq !== state.seq || !(state.phase === 'reading' || isOpen())) return false;
     const t0 = performance.now();
     let result;
     try {
       result = unpack(data);
     } catch (e) {
       showError(String((e && e.message) || e));
-      return;
+      return true;
     }
     ensureHost();
     const panel = buildPanel(result);
@@ -568,37 +672,46 @@
     state.panel = panel;
     drawLayers(result.report.pages[0]);
     showSelection();
+    // The preview follows the view, over the charts as they now are.
+    if (state.preview || state.view.vision !== 'off') setPreview();
     observeCharts();
     result.timing.renderMs = performance.now() - t0;
     state.host.setAttribute('data-timing', JSON.stringify(result.timing));
-    state.host.setAttribute('data-state', 'ready');
+    setPhase('shown');
     panel.setAttribute('tabindex', '-1');
     panel.focus({ preventScroll: true });
+    return true;
   }
 
+  // showError shows msg on the panel; a check in flight is dropped and the
+  // charts are no longer watched.
   function showError(msg) {
+    state.seq++;
+    stopObserving();
     ensureHost();
     const panel = el('div', { class: 'panel error', role: 'alert' });
     panel.appendChild(el('h1', {}, 'Standout could not check this page'));
     panel.appendChild(el('p', {}, msg));
     const close = el('button', { type: 'button', 'data-action': 'close' }, 'Close');
-    close.addEventListener('click', () => teardown());
+    on(close, 'click', () => teardown());
     panel.appendChild(close);
     state.panel.replaceWith(panel);
     state.panel = panel;
-    state.host.setAttribute('data-state', 'error');
+    setPhase('error');
   }
 
+  // teardown closes the overlay and leaves the page as it was; any answer
+  // still on its way is dropped.
   function teardown() {
+    state.seq++;
     clearPreview();
-    for (const o of state.observers) o.disconnect();
-    state.observers = [];
-    clearTimeout(state.rerunTimer);
+    stopObserving();
     if (state.frame) cancelAnimationFrame(state.frame);
     state.frame = 0;
     for (const [t, type, fn, opts] of state.listeners) t.removeEventListener(type, fn, opts);
     state.listeners = [];
-    if (state.host) state.host.remove();
+    if (state.container) state.container.remove();
+    state.container = null;
     state.host = null;
     state.root = null;
     state.panel = null;
@@ -607,31 +720,53 @@
     state.emphasis = [];
     state.picking = false;
     state.catcher = null;
-    state.open = false;
+    state.view = { vision: 'off', tenths: 10, scope: 'charts' };
+    state.phase = 'closed';
   }
 
   // read reads the page for the core: the read pass's result as one JSON
   // string (it crosses the messaging layer far faster than a large object,
-  // and goes to the core as it is), with its timings.
-  function read() {
+  // and goes to the core as it is), with its timings and the check's seq.
+  async function read(seq) {
     const t0 = performance.now();
-    const page = globalThis.standoutReader.readPage(document);
+    const page = await globalThis.standoutReader.readPage(document);
     const t1 = performance.now();
     const json = JSON.stringify(page);
-    return { json, readMs: t1 - t0, stringifyMs: performance.now() - t1 };
+    return { json, seq, readMs: page.readMs, stringifyMs: performance.now() - t1, wallMs: t1 - t0 };
   }
 
-  // press is the toolbar action: it closes an open check, or reads the
-  // page for a new one.
+  // press is the toolbar action: it closes an open check (or one being
+  // read), or reads the page for a new one.
   function press() {
-    if (state.open) {
+    if (state.phase !== 'closed') {
       teardown();
       return { closed: true };
     }
-    return read();
+    state.phase = 'reading';
+    return read(++state.seq);
+  }
+
+  // recheck reads the page again for the background (a re-check the
+  // overlay asked for), under the current seq.
+  function recheck() {
+    return read(state.seq);
+  }
+
+  // show and fail are the background's answers to a press.
+  function show(result) {
+    return render(result, result && result.seq);
+  }
+
+  // fail shows an error of the press or check seq; without seq (the
+  // press itself failed before a read began) it always shows.
+  function fail(msg, seq) {
+    if (seq !== undefined && (seq !== state.seq || state.phase === 'closed')) return false;
+    showError(msg);
+    return true;
   }
 
   // The background calls these through chrome.scripting (press through
-  // press.js).
-  globalThis.standoutOverlay = Object.freeze({ press, read, show: render, showError });
+  // press.js). They live in the extension's isolated world, out of the
+  // page's reach.
+  globalThis.standoutOverlay = Object.freeze({ press, read: recheck, show, showError: fail });
 })();

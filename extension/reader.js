@@ -9,6 +9,16 @@
   if (globalThis.standoutReader) return;
 
   const SNAPSHOT_VERSION = 2;
+  // What one check reads at most, as the Go core accepts (dom/build.go:
+  // MaxNodes, MaxPageNodes, MaxUseNodes; a test keeps them equal). A
+  // chart beyond a cap is not read and the page says so: a partial chart
+  // would be judged wrongly.
+  const MAX_CHART_NODES = 524288;
+  const MAX_PAGE_NODES = 1048576;
+  const MAX_USE_NODES = 100000;
+  // The read pass hands the tab back to the page after this much work
+  // (ms), so that a large page stays responsive while it is read.
+  const SLICE_MS = 40;
   // Elements whose content is never rendered directly (dom/build.go).
   const NOT_RENDERED = new Set([
     'defs', 'clippath', 'mask', 'marker', 'pattern', 'symbol', 'lineargradient',
@@ -226,9 +236,15 @@
     return [s, 0, 0, s, tx, ty];
   }
 
+  // ownTransform is the product of an element's transform list, read
+  // without consolidate(), which would rewrite the page's list into one
+  // matrix.
   function ownTransform(el) {
-    const t = el.transform && el.transform.baseVal && el.transform.baseVal.consolidate();
-    return t ? matrixOf(t.matrix) : [1, 0, 0, 1, 0, 0];
+    const list = el.transform && el.transform.baseVal;
+    let m = [1, 0, 0, 1, 0, 0];
+    if (!list) return m;
+    for (let i = 0; i < list.numberOfItems; i++) m = mul(m, matrixOf(list.getItem(i).matrix));
+    return m;
   }
 
   // Sibling style sharing. Computed-style reads are most of the read
@@ -340,7 +356,11 @@
   // stroke-width without a stroke, and a bounding box only for text and
   // paths, whose extent only the browser knows (the walk computes the
   // other shapes' boxes from their geometry, as the browser does).
-  function readChart(svg, path, root, off, emphasis, share) {
+  // capError is thrown when a chart passes a cap; its message is the note.
+  class capError extends Error {}
+
+  function readChart(svg, path, root, off, emphasis, share, budget) {
+    let useNodes = 0;
     const sx = off[0];
     const sy = off[1];
     const box = svg.getBoundingClientRect();
@@ -472,6 +492,9 @@
     // instantiates; vp is its nearest viewport; shared, when sibling style
     // sharing is safe, maps the style keys of el's siblings to their styles.
     const add = (el, parent, k, vp, ctmOverride, useDepth, shared) => {
+      if (styles.length >= MAX_CHART_NODES) throw new capError(`${path}: not checked: it has more than ${MAX_CHART_NODES} elements`);
+      if (budget.nodes++ >= MAX_PAGE_NODES) throw new capError(`${path} and the charts after it: not checked: the page's charts have more than ${MAX_PAGE_NODES} elements`);
+      if (useDepth > 0 && useNodes++ >= MAX_USE_NODES) throw new capError(`${path}: not checked: it instantiates more than ${MAX_USE_NODES} elements through <use> (a chain of references?)`);
       const tag = el.localName.toLowerCase();
       // An <svg> is a viewport of its own: measured directly.
       const m = ctmOverride ? mul(ctmOverride, ownTransform(el)) : screenCTM(el, tag === 'svg' ? null : vp);
@@ -646,6 +669,7 @@
     let nTop = 0;
     let nShadow = 0;
     let nFrame = 0;
+    const perPrefix = new Map(); // charts named so far under each prefix
     const visit = (root, prefix, off, top, frames) => {
       const walker = (root.ownerDocument || root).createTreeWalker(root, NodeFilter.SHOW_ELEMENT);
       let n = walker.currentNode;
@@ -653,7 +677,14 @@
       while (n) {
         const tag = n.localName;
         if (tag === 'svg' && n.namespaceURI === SVG_NS) {
-          const path = top ? 'svg' + nTop++ : prefix + 'svg' + out.filter((c) => c.path.startsWith(prefix)).length;
+          let path;
+          if (top) {
+            path = 'svg' + nTop++;
+          } else {
+            const k = perPrefix.get(prefix) || 0;
+            perPrefix.set(prefix, k + 1);
+            path = prefix + 'svg' + k;
+          }
           out.push({ svg: n, path, root, off, frames });
           // Skip the subtree: nested <svg> belong to this chart.
           let next = walker.nextSibling();
@@ -708,8 +739,9 @@
   // Reads every chart of the page. opts.emphasis, a CSS selector, names
   // the intended emphasis besides the data-standout-emphasis attribute.
   // sharedStyles in the result counts the charts read with sibling style
-  // sharing.
-  function readPage(doc, opts) {
+  // sharing. It resolves to the reading; between charts it hands the tab
+  // back to the page whenever it has worked SLICE_MS.
+  async function readPage(doc, opts) {
     const emphasis = (opts && opts.emphasis) || '';
     const t0 = performance.now();
     const problems = [];
@@ -719,18 +751,36 @@
     // opts.noSharing turns it off (to measure what it saves).
     const shareable = new Map();
     let shared = 0;
+    let slice = performance.now();
+    let yieldMs = 0;
+    const budget = { nodes: 0 };
     for (const c of charts) {
+      if (performance.now() - slice > SLICE_MS) {
+        const y = performance.now();
+        await new Promise((r) => setTimeout(r, 0));
+        slice = performance.now();
+        yieldMs += slice - y;
+      }
       try {
         if (!shareable.has(c.root)) shareable.set(c.root, !(opts && opts.noSharing) && siblingsShareStyles(c.root));
         const share = shareable.get(c.root);
+        const before = budget.nodes;
+        try {
+          snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share, budget));
+        } catch (e) {
+          if (!(e instanceof capError)) throw e;
+          problems.push(e.message);
+          if (budget.nodes > MAX_PAGE_NODES) break;
+          budget.nodes = before;
+          continue;
+        }
         if (share) shared++;
-        snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share));
       } catch (e) {
         problems.push(`${c.path}: could not be read: ${e && e.message}`);
       }
     }
-    return { source: location.href, snapshots, problems, readMs: performance.now() - t0, sharedStyles: shared };
+    return { source: location.href, snapshots, problems, readMs: performance.now() - t0 - yieldMs, sharedStyles: shared };
   }
 
-  globalThis.standoutReader = Object.freeze({ readPage, findCharts, pageBox, SNAPSHOT_VERSION });
+  globalThis.standoutReader = Object.freeze({ readPage, findCharts, pageBox, SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES });
 })();

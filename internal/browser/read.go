@@ -164,7 +164,7 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions) PageResult
 		return r
 	}
 	opts, _ := json.Marshal(map[string]string{"emphasis": o.Emphasis})
-	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(globalThis.standoutReader.readPage(document, `+string(opts)+`))`, world))
+	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`globalThis.standoutReader.readPage(document, `+string(opts)+`).then((p) => JSON.stringify(p))`, chromedp.EvalAwaitPromise, world))
 	if err != nil {
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r
