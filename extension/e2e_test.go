@@ -294,6 +294,16 @@ func mouseClick(ctx context.Context, tg *chromedp.Target, x, y float64) error {
 	return nil
 }
 
+// chooseInOverlay picks the option at index of a <select> of the overlay
+// with the keyboard, as a person does: Home, then ArrowDown.
+func (h *harness) chooseInOverlay(action string, index int) {
+	keys := []string{"Home"}
+	for i := 0; i < index; i++ {
+		keys = append(keys, "ArrowDown")
+	}
+	h.typeInOverlay(action, keys...)
+}
+
 // typeInOverlay focuses a control of the overlay and types keys into it
 // as a person does (trusted key events): a letter picks the option of a
 // <select> that starts with it; "ArrowLeft" and "ArrowRight" move a range.
@@ -316,7 +326,7 @@ func (h *harness) typeInOverlay(action string, keys ...string) {
 	require.NoError(h.t, err)
 }
 
-var keyCodes = map[string]int64{"Escape": 27, "ArrowLeft": 37, "ArrowRight": 39, "ArrowUp": 38, "ArrowDown": 40}
+var keyCodes = map[string]int64{"Home": 36, "Escape": 27, "ArrowLeft": 37, "ArrowRight": 39, "ArrowUp": 38, "ArrowDown": 40}
 
 func pressKey(ctx context.Context, tg *chromedp.Target, key string) error {
 	p := input.DispatchKeyEventParams{Key: key, Code: key, WindowsVirtualKeyCode: keyCodes[key]}
@@ -574,7 +584,7 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	before := h.eval(`document.documentElement.outerHTML`)
 	h.trigger()
 	h.waitState("ready")
-	h.typeInOverlay("cvd", "d")
+	h.chooseInOverlay("cvd", 2)
 	time.Sleep(300 * time.Millisecond)
 	_, img := h.screenshot()
 	r, g, b, _ := img.At(100, 150).RGBA()
@@ -589,7 +599,7 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	assert.InDelta(t, want.B, got.B, tol, "B: got %s want %s", got.Hex(), want.Hex())
 	// Switching the preview off, then closing with Escape, leaves the page
 	// exactly as it was.
-	h.typeInOverlay("cvd", "o")
+	h.chooseInOverlay("cvd", 0)
 	require.NoError(t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
 		return chromedp.Void{}, pressKey(ctx, tg, "Escape")
 	}))

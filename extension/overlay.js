@@ -293,18 +293,14 @@
     const lab = el('label', { for: 'standout-cvd' }, 'Preview as:');
     const sel = el('select', { id: 'standout-cvd', 'data-action': 'cvd' });
     for (const [v, t] of [['off', 'normal vision (off)'], ['protan', 'protan'], ['deutan', 'deutan'], ['tritan', 'tritan'], ['achromat', 'achromatic']]) {
-      const o = el('option', { value: v }, t);
-      o.selected = v === state.view.vision;
-      sel.appendChild(o);
+      sel.appendChild(el('option', v === state.view.vision ? { value: v, selected: '' } : { value: v }, t));
     }
     const sevLab = el('label', { for: 'standout-sev' }, 'severity');
     const sev = el('input', { id: 'standout-sev', type: 'range', min: '0', max: '10', step: '1', value: String(state.view.tenths), 'data-action': 'severity', 'aria-valuetext': (state.view.tenths / 10).toFixed(1) });
     const scopeLab = el('label', { for: 'standout-scope' }, 'on');
     const scope = el('select', { id: 'standout-scope', 'data-action': 'scope' });
     for (const [v, t] of [['charts', 'the charts'], ['page', 'the whole page']]) {
-      const o = el('option', { value: v }, t);
-      o.selected = v === state.view.scope;
-      scope.appendChild(o);
+      scope.appendChild(el('option', v === state.view.scope ? { value: v, selected: '' } : { value: v }, t));
     }
     const update = () => {
       state.view = { vision: sel.value, tenths: Number(sev.value), scope: scope.value };
@@ -493,6 +489,7 @@
     for (const t of targets) {
       const r = { el: t, attr: t.getAttribute('style'), value: t.style.getPropertyValue('filter'), priority: t.style.getPropertyPriority('filter'), url };
       t.style.setProperty('filter', url, 'important');
+      r.url = t.style.getPropertyValue('filter'); // as the browser serialises it
       r.after = t.getAttribute('style');
       restored.push(r);
     }

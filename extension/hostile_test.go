@@ -1,0 +1,185 @@
+package extension
+
+// End-to-end tests of hostile pages (issue 10), in real Chromium.
+
+import (
+	"context"
+	"fmt"
+	"net/http"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/chromedp/cdproto/target"
+	"github.com/chromedp/chromedp"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	sdom "standout/dom"
+)
+
+// inWorker evaluates expr in the extension's service worker.
+func (h *harness) inWorker(expr string) {
+	ts, err := chromedp.Targets(h.ctx)
+	require.NoError(h.t, err)
+	var id target.ID
+	for _, ti := range ts {
+		if ti.Type == "service_worker" && strings.HasPrefix(ti.URL, "chrome-extension://"+h.extID) {
+			id = ti.TargetID
+		}
+	}
+	require.NotEmpty(h.t, id, "no service worker")
+	wctx, cancel := chromedp.NewContext(h.ctx, chromedp.WithTargetID(id))
+	defer cancel()
+	_, err = chromedp.Run(wctx, chromedp.Evaluate[chromedp.Void](expr))
+	require.NoError(h.t, err)
+}
+
+func (h *harness) escape() {
+	require.NoError(h.t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		return chromedp.Void{}, pressKey(ctx, tg, "Escape")
+	}))
+}
+
+// A page that registers the old host's custom element name and keeps its
+// ElementInternals gets no shadow root; synthetic events do nothing.
+func TestIssue10PageCannotReachTheOverlay(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(`<!doctype html><html><body style="margin:0"><script>
+	window.stolen = [];
+	for (const name of ['standout-overlay', 'standout-host']) {
+	  customElements.define(name, class extends HTMLElement { constructor() { super(); window.stolen.push(this.attachInternals()); } });
+	}
+	const orig = Element.prototype.attachShadow;
+	Element.prototype.attachShadow = function (o) { const r = orig.call(this, o); window.stolen.push({ shadowRoot: r }); return r; };
+	</script>` + chartSVG + `</body></html>`)
+	assert.Equal(t, "0", h.eval(`String(window.stolen.filter((i) => i.shadowRoot).length)`), "the page got hold of the overlay's shadow root")
+	// Synthetic keys and clicks are not the reader's: the overlay stays.
+	h.eval(`window.dispatchEvent(new KeyboardEvent('keydown', { key: 'Escape', bubbles: true })), document.body.dispatchEvent(new KeyboardEvent('keydown', { key: 'Escape', bubbles: true })), ''`)
+	time.Sleep(200 * time.Millisecond)
+	assert.Equal(t, "ready", h.state())
+	h.escape()
+	h.waitState("")
+}
+
+// Closing while a re-check is on its way keeps the overlay closed.
+func TestIssue10CloseDuringRecheckStaysClosed(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(scatterPage(4000, ""))
+	h.eval(`document.querySelector('circle').setAttribute('r', '5'), ''`)
+	deadline := time.Now().Add(10 * time.Second)
+	for h.state() != "rechecking" && time.Now().Before(deadline) {
+		time.Sleep(5 * time.Millisecond)
+	}
+	require.Equal(t, "rechecking", h.state())
+	h.escape()
+	h.waitState("")
+	time.Sleep(1500 * time.Millisecond)
+	assert.Equal(t, "", h.state(), "the re-check's answer brought the overlay back")
+}
+
+// The preview takes back only what it set: the page's own style changes
+// made while it was on stay, and the read pass rewrites no transform list.
+func TestIssue10PreviewAndReadLeaveThePageAlone(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(`<!doctype html><html><body style="margin:0"><svg width="240" height="120" style="display:block"><g transform="translate(5,5) scale(0.9)">` +
+		strings.TrimPrefix(strings.TrimSuffix(chartSVG, `</g></svg>`), `<svg width="240" height="120"><g>`) + `</g></svg></body></html>`)
+	assert.Equal(t, "2 translate(5,5) scale(0.9)", h.eval(`(() => { const g = document.querySelector('g'); return g.transform.baseVal.numberOfItems + ' ' + g.getAttribute('transform'); })()`))
+	h.chooseInOverlay("cvd", 2)
+	time.Sleep(200 * time.Millisecond)
+	require.Contains(t, h.eval(`document.querySelector('svg').getAttribute('style')`), "filter")
+	h.eval(`document.querySelector('svg').style.outline = '3px solid rgb(10, 20, 30)', ''`)
+	h.chooseInOverlay("cvd", 0)
+	time.Sleep(200 * time.Millisecond)
+	style := h.eval(`document.querySelector('svg').getAttribute('style')`)
+	assert.Contains(t, style, "outline: rgb(10, 20, 30) solid 3px", "the page's own change was undone")
+	assert.NotContains(t, style, "filter")
+	// A re-check under an active preview keeps the control in step.
+	h.chooseInOverlay("cvd", 3)
+	h.eval(`document.querySelector('`+hostSelector+`').removeAttribute('data-state'), document.querySelectorAll('rect')[0].setAttribute('height', '70'), ''`)
+	h.waitState("ready")
+	assert.Contains(t, h.overlayHTML(), `<option value="tritan" selected="">`)
+	assert.Contains(t, h.eval(`document.querySelector('svg').getAttribute('style')`), "filter")
+	h.escape()
+	h.waitState("")
+	assert.NotContains(t, h.eval(`document.querySelector('svg').getAttribute('style')`), "filter")
+}
+
+// A standalone SVG document gets the overlay too.
+func TestIssue10StandaloneSVG(t *testing.T) {
+	h := newHarness(t)
+	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "image/svg+xml")
+		fmt.Fprint(w, strings.Replace(chartSVG, "<svg ", `<svg xmlns="http://www.w3.org/2000/svg" `, 1))
+	})
+	h.open(srv.URL + "/chart.svg")
+	h.trigger()
+	h.waitState("ready")
+	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+	h.escape()
+	h.waitState("")
+}
+
+// A core that has exited is reloaded: the next press works, in the same
+// worker, without a restart.
+func TestIssue10CoreReloadedAfterExit(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(chartPage)
+	h.escape()
+	h.waitState("")
+	// What a worker holds after the Go program exits: a handle that throws.
+	h.inWorker(`globalThis.standoutHandle = () => { throw new Error('Go program has already exited'); }; 0`)
+	h.trigger()
+	h.waitState("ready")
+	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+}
+
+// Pages built to exhaust the read pass: a <use> chain, many shadow roots,
+// many icons. Each is answered (with the cap named where one applies),
+// and the next press on a plain page works.
+func TestIssue10ReadPassCaps(t *testing.T) {
+	h := newHarness(t)
+	var chain strings.Builder
+	chain.WriteString(`<!doctype html><html><body>` + chartSVG + `<svg width="100" height="100"><defs><circle id="l0" r="1"/>`)
+	for i := 1; i < 6; i++ {
+		fmt.Fprintf(&chain, `<g id="l%d">%s</g>`, i, strings.Repeat(fmt.Sprintf(`<use href="#l%d"/>`, i-1), 10))
+	}
+	chain.WriteString(`</defs><use href="#l5"/></svg></body></html>`)
+	start := time.Now()
+	h.showPage(chain.String())
+	t.Logf("<use> chain answered in %v", time.Since(start))
+	ov := h.overlayHTML()
+	assert.Contains(t, ov, "svg1: not checked: it instantiates more than 100000 elements through &lt;use&gt;")
+	assert.Len(t, layerRects(t, ov)["svg0"]["pops"], 1, "the other chart is still checked")
+	h.escape()
+	h.waitState("")
+
+	shadows := `<!doctype html><html><body><div id="m"></div><script>
+	const m = document.getElementById('m');
+	for (let i = 0; i < 30000; i++) { const d = document.createElement('span'); d.attachShadow({ mode: 'open' }).innerHTML = '<svg width="4" height="4"><rect width="4" height="4" fill="#5f6b3a"/></svg>'; m.appendChild(d); }
+	</script></body></html>`
+	start = time.Now()
+	h.showPage(shadows)
+	t.Logf("30,000 shadow roots answered in %v", time.Since(start))
+	h.escape()
+	h.waitState("")
+
+	icons := `<!doctype html><html><body>` + strings.Repeat(`<svg width="12" height="12" viewBox="0 0 12 12"><path d="M1 1h10v10H1z" fill="#3b5b7a"/><circle cx="6" cy="6" r="3" fill="#f2efe6"/></svg>`, 25000) + `</body></html>`
+	start = time.Now()
+	h.showPage(icons)
+	t.Logf("25,000 icons answered in %v", time.Since(start))
+	assert.NotContains(t, h.overlayHTML(), "could not check")
+	h.escape()
+	h.waitState("")
+	h.showPage(chartPage)
+	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+}
+
+// The read pass and the Go core share their caps.
+func TestIssue10ReadPassCapsMatchTheCore(t *testing.T) {
+	src := Reader()
+	for name, want := range map[string]int{"MAX_CHART_NODES": sdom.MaxNodes, "MAX_PAGE_NODES": sdom.MaxPageNodes, "MAX_USE_NODES": sdom.MaxUseNodes} {
+		assert.Contains(t, src, fmt.Sprintf("const %s = %d;", name, want), name)
+	}
+}
+
