@@ -96,7 +96,7 @@ func TestIssue10PreviewAndReadLeaveThePageAlone(t *testing.T) {
 	assert.NotContains(t, style, "filter")
 	// A re-check under an active preview keeps the control in step.
 	h.chooseInOverlay("cvd", 3)
-	h.eval(`document.querySelector('`+hostSelector+`').removeAttribute('data-state'), document.querySelectorAll('rect')[0].setAttribute('height', '70'), ''`)
+	h.eval(`document.querySelector('` + hostSelector + `').removeAttribute('data-state'), document.querySelectorAll('rect')[0].setAttribute('height', '70'), ''`)
 	h.waitState("ready")
 	assert.Contains(t, h.overlayHTML(), `<option value="tritan" selected="">`)
 	assert.Contains(t, h.eval(`document.querySelector('svg').getAttribute('style')`), "filter")
@@ -182,4 +182,3 @@ func TestIssue10ReadPassCapsMatchTheCore(t *testing.T) {
 		assert.Contains(t, src, fmt.Sprintf("const %s = %d;", name, want), name)
 	}
 }
-
