@@ -182,3 +182,26 @@ func TestIssue10ReadPassCapsMatchTheCore(t *testing.T) {
 		assert.Contains(t, src, fmt.Sprintf("const %s = %d;", name, want), name)
 	}
 }
+
+// The worker answers only messages of the shapes its scripts send.
+func TestIssue10MessagesAreShapeChecked(t *testing.T) {
+	h := newHarness(t)
+	h.open("chrome-extension://" + h.extID + "/export.html#none")
+	send := func(msg string) string {
+		return h.eval(`chrome.runtime.sendMessage(` + msg + `).then((r) => JSON.stringify(r === undefined ? 'no answer' : r), (e) => 'refused: ' + e.message)`)
+	}
+	// A well-formed request gets an answer (here: nothing to take).
+	assert.Contains(t, send(`{ type: 'standout/take-export', data: 'no-such-key' }`), "expired")
+	for _, bad := range []string{
+		`{ type: 'standout/take-export', data: { key: 1 } }`,
+		`{ type: 'standout/reanalyse', data: { emphasisNodes: 'svg0#1', severity: 1 } }`,
+		`{ type: 'standout/reanalyse', data: { emphasisNodes: ['svg0#1'], severity: 5 } }`,
+		`{ type: 'standout/full-report', data: { emphasisNodes: [{}], severity: 1 } }`,
+		`{ type: 'standout/capture', data: { charts: [{ name: 'x', box: [0, 0, 1] }], viewport: [1, 1] } }`,
+		`{ type: 'standout/unknown' }`,
+		`null`,
+	} {
+		got := send(bad)
+		assert.True(t, strings.HasPrefix(got, "refused") || got == `"no answer"`, "%s was answered: %s", bad, got)
+	}
+}
