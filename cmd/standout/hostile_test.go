@@ -142,13 +142,7 @@ func TestIssue10Timeout(t *testing.T) {
 	assert.Equal(t, 2, code)
 
 	needBrowser(t)
-	stall := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-		select {
-		case <-r.Context().Done():
-		case <-time.After(20 * time.Second):
-		}
-	}))
-	defer stall.Close()
+	stall := stallingServer(t)
 	start := time.Now()
 	code, _, errs = runCmd("check", "--browser", "--timeout", "2s", stall.URL)
 	assert.Equal(t, 2, code)
@@ -165,13 +159,7 @@ func TestIssue10InterruptRemovesProfile(t *testing.T) {
 	bin := filepath.Join(t.TempDir(), "standout")
 	out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput()
 	require.NoError(t, err, "%s", out)
-	stall := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-		select {
-		case <-r.Context().Done():
-		case <-time.After(30 * time.Second):
-		}
-	}))
-	defer stall.Close()
+	stall := stallingServer(t)
 	tmp := t.TempDir()
 	cmd := exec.Command(bin, "check", "--browser", stall.URL)
 	cmd.Env = append(os.Environ(), "TMPDIR="+tmp)
@@ -234,4 +222,17 @@ func decodePNGBytes(t *testing.T, b []byte) image.Image {
 	img, err := png.Decode(bytes.NewReader(b))
 	require.NoError(t, err)
 	return img
+}
+
+// stallingServer answers no request for 30 s (or until the client gives
+// up).
+func stallingServer(t *testing.T) *httptest.Server {
+	s := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		select {
+		case <-r.Context().Done():
+		case <-time.After(30 * time.Second):
+		}
+	}))
+	t.Cleanup(s.Close)
+	return s
 }
