@@ -670,7 +670,7 @@
     drawLayers(result.report.pages[0]);
     showSelection();
     // The preview follows the view, over the charts as they now are.
-    if (state.preview || state.view.vision !== 'off') setPreview();
+    if (state.view.vision !== 'off') setPreview();
     observeCharts();
     result.timing.renderMs = performance.now() - t0;
     state.host.setAttribute('data-timing', JSON.stringify(result.timing));
@@ -725,11 +725,10 @@
   // string (it crosses the messaging layer far faster than a large object,
   // and goes to the core as it is), with its timings and the check's seq.
   async function read(seq) {
-    const t0 = performance.now();
     const page = await globalThis.standoutReader.readPage(document);
     const t1 = performance.now();
     const json = JSON.stringify(page);
-    return { json, seq, readMs: page.readMs, stringifyMs: performance.now() - t1, wallMs: t1 - t0 };
+    return { json, seq, readMs: page.readMs, stringifyMs: performance.now() - t1 };
   }
 
   // press is the toolbar action: it closes an open check (or one being

@@ -103,7 +103,7 @@ func orNone(s string) string {
 }
 
 func mdCell(s string) string {
-	return strings.ReplaceAll(mdEscape(strings.ReplaceAll(s, "\n", " ")), "\\#", "#")
+	return strings.ReplaceAll(mdEscape(s), "\\#", "#")
 }
 
 // MarkdownEscape is the escaping WriteMarkdown applies to page-derived text.

@@ -34,20 +34,23 @@ func (t terminalWriter) Write(p []byte) (int, error) {
 	return len(p), nil
 }
 
+var mdEscaper = strings.NewReplacer("\\", "\\\\", "`", "\\`", "*", "\\*", "_", "\\_", "[", "\\[", "]", "\\]", "<", "&lt;", ">", "&gt;",
+	"#", "\\#", "|", "\\|", "!", "\\!", "\n", " ", "\r", " ")
+
 // mdEscape neutralises Markdown and HTML in page-derived text, and keeps
 // it on one line.
 func mdEscape(s string) string {
-	r := strings.NewReplacer("\\", "\\\\", "`", "\\`", "*", "\\*", "_", "\\_", "[", "\\[", "]", "\\]", "<", "&lt;", ">", "&gt;",
-		"#", "\\#", "|", "\\|", "!", "\\!", "\n", " ", "\r", " ")
-	return r.Replace(TerminalSafe(s))
+	return mdEscaper.Replace(TerminalSafe(s))
 }
+
+var codeSpanText = strings.NewReplacer("\n", " ", "\r", " ", "|", "¦")
 
 // mdCode writes s as a Markdown code span that s cannot close: the fence
 // is one backtick longer than the longest run of backticks in s, with a
 // space inside each end (CommonMark 0.31 §6.1). In a table cell a "|"
 // would still end the cell, so it becomes "¦".
 func mdCode(s string) string {
-	s = strings.NewReplacer("\n", " ", "\r", " ", "|", "¦").Replace(TerminalSafe(s))
+	s = codeSpanText.Replace(TerminalSafe(s))
 	longest, run := 0, 0
 	for i := 0; i < len(s); i++ {
 		if s[i] == '`' {
