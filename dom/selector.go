@@ -28,10 +28,11 @@ import (
 //	  '+'  the previous element sibling s has match(s, i−1)
 //	  '~'  some previous element sibling s has match(s, i−1)
 //
-// so each (element, position) is decided once. Every step is also
-// counted against a budget shared by the whole build, which bounds what a
-// selector inside :is(), :not() or :has() can cost, since cascadia matches
-// those itself.
+// so each (element, position) is decided once. A compound whose
+// pseudo-class argument has a combinator (":not(g g)") is refused, since
+// cascadia would backtrack through it within one test. Every test is also
+// counted against a budget shared by the whole build, which watches the
+// build's deadline too.
 
 // MaxSelectorSteps bounds the compound-selector tests of one build. A
 // 5,000-mark chart with a hundred rules takes well under a million.
@@ -175,7 +176,18 @@ func compileGroup(text string, budget *matchBudget) (cascadia.SelectorGroup, err
 	if err != nil {
 		return nil, err
 	}
-	texts := splitTopLevel(text, func(r byte) bool { return r == ',' })
+	if strings.Contains(text, "/*") {
+		// cascadia skips comments; the splitter does not know them.
+		return nil, errors.New("the static reader does not match selectors with comments inside")
+	}
+	namespaced := false
+	topLevel(text, func(i int) { namespaced = namespaced || text[i] == '|' })
+	if namespaced {
+		// Namespace prefixes ("svg|rect"), which cascadia reads in a
+		// way of its own; HTML style sheets rarely have them.
+		return nil, errors.New("the static reader does not match namespace prefixes in selectors")
+	}
+	texts := splitTopLevel(text, ',')
 	if len(texts) != len(group) {
 		return nil, fmt.Errorf("selector list %q could not be split into its selectors", clip(text, 60))
 	}
@@ -216,12 +228,22 @@ func compileChain(text string, whole cascadia.Sel, budget *matchBudget) (cascadi
 		}
 		p, err := cascadia.Parse(tok)
 		if err != nil {
-			return nil, errNotChain
+			p = nil // kept only if the chain is this one compound
 		}
 		parts = append(parts, p)
 	}
 	if len(parts) == 0 || (pending != 0 && pending != ' ') || len(parts) > maxChain {
 		return nil, errNotChain
+	}
+	if len(parts) == 1 {
+		// A compound needs no backtracking: match it as cascadia parsed
+		// it (its grammar reads a few odd compounds apart differently).
+		parts[0] = whole
+	}
+	for _, p := range parts {
+		if p == nil {
+			return nil, errNotChain
+		}
 	}
 	return &chainSel{whole: whole, parts: parts, combs: combs, budget: budget}, nil
 }
@@ -244,30 +266,24 @@ func selectorArgument(prefix string) bool {
 // pseudo-class whose argument has a combinator (":not(g circle)").
 func complexArgument(compound string) bool {
 	open := -1
-	depth := 0
-	for i := 0; i < len(compound); i++ {
+	found := false
+	topLevel(compound, func(i int) {
 		switch compound[i] {
-		case '\\':
-			i = escapeEnd(compound, i)
 		case '(':
-			if depth == 0 {
-				open = i
-			}
-			depth++
+			open = i
 		case ')':
-			depth--
-			if depth == 0 && open >= 0 && selectorArgument(compound[:open]) {
-				for _, arg := range splitTopLevel(compound[open+1:i], func(r byte) bool { return r == ',' }) {
+			if open >= 0 && !found && selectorArgument(compound[:open]) {
+				for _, arg := range splitTopLevel(compound[open+1:i], ',') {
 					toks := tokensOfChain(arg)
 					if len(toks) > 1 || (len(toks) == 1 && complexArgument(toks[0])) {
-						return true
+						found = true
 					}
 				}
-				open = -1
 			}
+			open = -1
 		}
-	}
-	return false
+	})
+	return found
 }
 
 // tokensOfChain cuts a complex selector into compounds and combinator
@@ -298,12 +314,12 @@ func tokensOfChain(s string) []string {
 	return out
 }
 
-// splitTopLevel cuts s at the top-level bytes sep accepts.
-func splitTopLevel(s string, sep func(byte) bool) []string {
+// splitTopLevel cuts s at the top-level bytes sep.
+func splitTopLevel(s string, sep byte) []string {
 	var out []string
 	start := 0
 	topLevel(s, func(i int) {
-		if sep(s[i]) {
+		if s[i] == sep {
 			out = append(out, s[start:i])
 			start = i + 1
 		}
@@ -312,7 +328,8 @@ func splitTopLevel(s string, sep func(byte) bool) []string {
 }
 
 // topLevel calls f with the index of each byte of s that lies outside
-// brackets, parentheses, strings and escapes.
+// brackets, parentheses, strings and escapes, and of each bracket or
+// parenthesis that opens from the top level or closes back to it.
 func topLevel(s string, f func(i int)) {
 	depth := 0
 	var quote byte
@@ -328,9 +345,15 @@ func topLevel(s string, f func(i int)) {
 		case c == '"' || c == '\'':
 			quote = c
 		case c == '(' || c == '[':
+			if depth == 0 {
+				f(i)
+			}
 			depth++
 		case c == ')' || c == ']':
 			depth--
+			if depth == 0 {
+				f(i)
+			}
 		case depth == 0:
 			f(i)
 		}
