@@ -37,10 +37,10 @@ import (
 	"github.com/stretchr/testify/require"
 	"golang.org/x/net/html"
 
-	sdom "standout/dom"
 	"standout/internal/browser"
 	"standout/internal/demo"
 	"standout/internal/report"
+	"standout/marks"
 	"standout/perception/colour"
 )
 
@@ -376,7 +376,7 @@ func layerRects(t testing.TB, overlay string) map[string]map[string][][4]float64
 			out[chart] = map[string][][4]float64{}
 		}
 		if n.Type == html.ElementNode && n.Data == "path" && attr("data-verdict") != "" && chart != "" {
-			subs, _, err := sdom.ParsePath(attr("d"))
+			subs, _, err := marks.ParsePath(attr("d"))
 			require.NoError(t, err)
 			for _, s := range subs {
 				minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)

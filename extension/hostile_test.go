@@ -15,7 +15,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
-	sdom "standout/dom"
+	"standout/snapshot"
 )
 
 // inWorker evaluates expr in the extension's service worker.
@@ -178,7 +178,7 @@ func TestIssue10ReadPassCaps(t *testing.T) {
 // The read pass and the Go core share their caps.
 func TestIssue10ReadPassCapsMatchTheCore(t *testing.T) {
 	src := Reader()
-	for name, want := range map[string]int{"MAX_CHART_NODES": sdom.MaxNodes, "MAX_PAGE_NODES": sdom.MaxPageNodes, "MAX_USE_NODES": sdom.MaxUseNodes} {
+	for name, want := range map[string]int{"MAX_CHART_NODES": snapshot.MaxNodes, "MAX_PAGE_NODES": snapshot.MaxPageNodes, "MAX_USE_NODES": snapshot.MaxUseNodes} {
 		assert.Contains(t, src, fmt.Sprintf("const %s = %d;", name, want), name)
 	}
 }

@@ -4,10 +4,9 @@ import (
 	"encoding/json"
 	"fmt"
 	"math/rand"
+	"standout/static"
 	"strings"
 	"testing"
-
-	"standout/dom"
 )
 
 // benchRequest is a request with one scatter chart of n circles.
@@ -20,7 +19,7 @@ func benchRequest(b *testing.B, n int) []byte {
 		fmt.Fprintf(&s, `<circle cx="%.1f" cy="%.1f" r="3" fill="%s"/>`, 10+rng.Float64()*980, 10+rng.Float64()*780, cols[rng.Intn(4)])
 	}
 	s.WriteString(`</g></svg>`)
-	p, err := dom.Build(strings.NewReader(s.String()), dom.Options{Source: "bench"})
+	p, err := static.Build(strings.NewReader(s.String()), static.Options{Source: "bench"})
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -12,10 +12,10 @@ import (
 	"strings"
 	"time"
 
-	"standout/dom"
 	"standout/internal/jsonio"
 	"standout/internal/report"
 	"standout/perception/colour"
+	"standout/snapshot"
 )
 
 // Request is what the extension sends.
@@ -24,7 +24,7 @@ type Request struct {
 	Type   string `json:"type"`
 	Source string `json:"source"`
 	// Snapshots are the charts the read pass found.
-	Snapshots []dom.Snapshot `json:"snapshots"`
+	Snapshots []snapshot.Snapshot `json:"snapshots"`
 	// Problems are page-level notes from the read pass (frames that could
 	// not be read, …).
 	Problems []string `json:"problems"`
@@ -78,7 +78,7 @@ func HandlePage(options, page []byte) (out []byte) {
 	if err != nil {
 		return errorResponse("bad request: " + err.Error())
 	}
-	p, err := dom.DecodePage(page)
+	p, err := snapshot.DecodePage(page)
 	if err != nil {
 		return errorResponse("bad page: " + err.Error())
 	}

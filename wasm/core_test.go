@@ -14,8 +14,8 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
-	"standout/dom"
 	"standout/internal/jsonio"
+	"standout/static"
 )
 
 func TestHandleStaticSnapshot(t *testing.T) {
@@ -23,7 +23,7 @@ func TestHandleStaticSnapshot(t *testing.T) {
 	// a browser snapshot would.
 	doc := `<svg width="200" height="100"><g><rect x="0" y="50" width="10" height="50" fill="#999"/><rect x="20" y="40" width="10" height="60" fill="#999"/>
 	<rect x="40" y="30" width="10" height="70" fill="#d62728"/><rect x="60" y="45" width="10" height="55" fill="#999"/></g></svg>`
-	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
+	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t"})
 	require.NoError(t, err)
 	req, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Emphasis: []string{"svg0/g0/rect2"}, Full: true})
 	require.NoError(t, err, "snapshots must be JSON-safe")
@@ -64,7 +64,7 @@ func TestJSOnlyFilesHaveConstraint(t *testing.T) {
 
 func TestHandlePageMatchesHandle(t *testing.T) {
 	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30" cy="10" r="4" fill="#999"/><circle cx="50" cy="10" r="4" fill="#c2410c"/></g></svg>`
-	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
+	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t"})
 	require.NoError(t, err)
 	whole, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Full: true})
 	require.NoError(t, err)
@@ -87,7 +87,7 @@ func TestDigestMatchesReport(t *testing.T) {
 	// and finding, and is valid JSON for any text a page may hold.
 	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30.333" cy="10" r="4" fill="#999"/>
 	<circle cx="50" cy="10" r="4" fill="#999"/><circle cx="70" cy="10" r="4" fill="#c2410c" aria-label="a &quot;quoted&quot; \ label &#1;"/></g></svg>`
-	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t\u2028\"x"})
+	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t\u2028\"x"})
 	require.NoError(t, err)
 	page, _ := json.Marshal(map[string]any{"source": "t\x00\xff\"", "snapshots": p.Charts, "problems": []string{"a\tb"}})
 	var full, lite Response
@@ -179,7 +179,7 @@ func TestEmphasisByNode(t *testing.T) {
 	// by id, as if they had been named so.
 	doc := `<svg width="200" height="100"><g><rect x="0" y="50" width="10" height="50" fill="#999"/><rect x="20" y="40" width="10" height="60" fill="#999"/>
 	<rect x="40" y="30" width="10" height="70" fill="#999"/><rect x="60" y="45" width="10" height="55" fill="#999"/></g></svg>`
-	p, err := dom.Build(strings.NewReader(doc), dom.Options{Source: "t"})
+	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t"})
 	require.NoError(t, err)
 	node := -1
 	for i, n := range p.Charts[0].Nodes {

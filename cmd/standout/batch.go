@@ -14,10 +14,11 @@ import (
 	"strings"
 	"syscall"
 
-	"standout/dom"
 	"standout/extension"
 	"standout/internal/browser"
 	"standout/internal/report"
+	"standout/marks"
+	"standout/snapshot"
 )
 
 // progress reports a batch on stderr: a rewritten line on a terminal,
@@ -194,8 +195,8 @@ func readInBrowser(exe string, urls []string, o browser.ReadOptions, stderr io.W
 
 // pageFromRead walks and analyses what the read pass returned for a page,
 // decoded with the snapshot decoder the extension's core uses.
-func pageFromRead(name string, r browser.PageResult, opt report.Options) (report.Page, []*dom.Chart, error) {
-	pg, err := dom.DecodePage([]byte(r.JSON))
+func pageFromRead(name string, r browser.PageResult, opt report.Options) (report.Page, []*marks.Chart, error) {
+	pg, err := snapshot.DecodePage([]byte(r.JSON))
 	if err != nil {
 		return report.Page{}, nil, fmt.Errorf("the read pass returned bad data: %w", err)
 	}

@@ -10,9 +10,9 @@ import (
 	"strings"
 	"time"
 
-	"standout/dom"
 	"standout/internal/browser"
 	"standout/internal/report"
+	"standout/marks"
 	"standout/perception"
 	"standout/perception/colour"
 )
@@ -82,7 +82,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		}
 	}
 	rep := report.Report{Schema: "standout-report", Version: report.Version, Caution: report.Caution}
-	var all [][]*dom.Chart
+	var all [][]*marks.Chart
 	var shots [][]byte
 	var failed []string
 	progress := newProgress(stderr, len(fs.Args()))
@@ -192,7 +192,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 }
 
 // checkOneFile checks one file with the static reader within timeout.
-func checkOneFile(name string, opt report.Options, timeout time.Duration) (report.Page, []*dom.Chart, error) {
+func checkOneFile(name string, opt report.Options, timeout time.Duration) (report.Page, []*marks.Chart, error) {
 	if webURL(name) {
 		return report.Page{}, nil, errors.New("is a URL; the static reader reads files: add --browser to load it in headless Chromium")
 	}

@@ -8,8 +8,8 @@ import (
 	"math"
 	"strings"
 
-	"standout/dom"
 	"standout/perception/colour"
+	"standout/static"
 )
 
 // PaletteVersion is the version of the palette --json document.
@@ -71,7 +71,7 @@ func checkPalette(inputs []string, bg colour.SRGB, severity float64, mark colour
 	rep := &paletteReport{Schema: "standout-palette", Version: PaletteVersion, Background: bg.Hex(), Severity: severity,
 		Mark: markName, SizePx: size, Collapsed: map[string][][2]int{}, Caution: caution}
 	for _, in := range inputs {
-		c, err := dom.ParseColor(in)
+		c, err := static.ParseColor(in)
 		if err != nil {
 			return nil, fmt.Errorf("colour %q: not a CSS colour", in)
 		}
@@ -135,7 +135,7 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "standout palette: give at least two colours")
 		return 2
 	}
-	bgc, err := dom.ParseColor(*bgFlag)
+	bgc, err := static.ParseColor(*bgFlag)
 	if err != nil {
 		fmt.Fprintf(stderr, "standout palette: --background %q is not a CSS colour\n", *bgFlag)
 		return 2

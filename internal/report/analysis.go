@@ -5,44 +5,45 @@ import (
 	"strconv"
 	"strings"
 
-	"standout/dom"
+	"standout/marks"
 	"standout/perception"
 	"standout/perception/colour"
+	"standout/snapshot"
 )
 
 // ToPerception converts a walked chart into the analysis input: each mark's
 // painted colour composited over the chart background, its size channel
 // and geometry.
-func ToPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
-	bg := dom.Unpack(ch.Background).SRGB
+func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input {
+	bg := snapshot.Unpack(ch.Background).SRGB
 	in := perception.Input{Background: bg}
-	conv := func(m dom.Mark) perception.Mark {
+	conv := func(m marks.Mark) perception.Mark {
 		pm := perception.Mark{ID: m.ID, Kind: string(m.Kind), Size: m.Size, Angle: m.Angle, Fold: m.Fold,
 			Shape: string(m.Shape), X: m.Centroid.X, Y: m.Centroid.Y}
-		filled := m.Fill != nil && m.FillOpacity > 0 && (m.Area > 0 || m.Kind == dom.KindText)
+		filled := m.Fill != nil && m.FillOpacity > 0 && (m.Area > 0 || m.Kind == marks.KindText)
 		switch {
 		case filled:
-			pm.Colour = colour.Over(dom.Unpack(*m.Fill), m.FillOpacity*m.Opacity, bg)
+			pm.Colour = colour.Over(snapshot.Unpack(*m.Fill), m.FillOpacity*m.Opacity, bg)
 			if m.Stroke != nil && m.StrokeOpacity > 0 && m.StrokeWidth > 0 {
-				pm.Outline = colour.Over(dom.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
+				pm.Outline = colour.Over(snapshot.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
 				pm.HasOutline = true
 			}
 		case m.Stroke != nil:
-			pm.Colour = colour.Over(dom.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
+			pm.Colour = colour.Over(snapshot.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
 		default:
 			pm.Colour = bg
 		}
 		pm.MinPx, pm.MaxPx = min(m.BBox[2], m.BBox[3]), max(m.BBox[2], m.BBox[3])
 		switch m.Kind {
-		case dom.KindPoint:
+		case marks.KindPoint:
 			pm.Type = colour.Point
 			if !filled {
 				pm.MinPx = max(m.StrokeWidth, 0.5)
 				pm.Type = colour.Line
 			}
-		case dom.KindBar, dom.KindRule:
+		case marks.KindBar, marks.KindRule:
 			pm.Type, pm.Length = colour.Bar, true
-			if m.Kind == dom.KindRule {
+			if m.Kind == marks.KindRule {
 				pm.Type, pm.MinPx = colour.Line, max(m.StrokeWidth, 0.5)
 				// A rule connects what it passes through.
 				if len(m.Vertices) >= 2 {
@@ -51,12 +52,12 @@ func ToPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
 					}
 				}
 			}
-		case dom.KindLine:
+		case marks.KindLine:
 			pm.Type, pm.MinPx = colour.Line, max(m.StrokeWidth, 0.5)
 			for _, v := range m.Vertices {
 				pm.Vertices = append(pm.Vertices, [2]float64{v.X, v.Y})
 			}
-		case dom.KindText:
+		case marks.KindText:
 			pm.Type, pm.MinPx = colour.Line, max(m.Size/8, 0.5) // stroke weight of text, about an eighth of the size
 		default:
 			pm.Type = colour.Area
@@ -69,7 +70,7 @@ func ToPerception(ch *dom.Chart, emphasisIDs map[string]bool) perception.Input {
 		if emphasisIDs[m.ID] {
 			in.Emphasis = append(in.Emphasis, i)
 		}
-		if m.Kind == dom.KindText {
+		if m.Kind == marks.KindText {
 			in.Labelled = true
 		}
 	}
@@ -147,7 +148,7 @@ func channelNames(cs []perception.Channel) []string {
 }
 
 // attachAnalysis adds the analysis to a report chart.
-func attachAnalysis(rc *Chart, ch *dom.Chart, res *perception.Result) {
+func attachAnalysis(rc *Chart, ch *marks.Chart, res *perception.Result) {
 	for i := range rc.Marks {
 		r := res.Marks[i]
 		rc.Marks[i].Verdict = string(r[0].Verdict)
@@ -175,7 +176,7 @@ func attachAnalysis(rc *Chart, ch *dom.Chart, res *perception.Result) {
 }
 
 // markIDs names the marks idx of ch by their ids.
-func markIDs(ch *dom.Chart, idx []int) []string {
+func markIDs(ch *marks.Chart, idx []int) []string {
 	out := []string{}
 	for _, i := range idx {
 		if i >= 0 && i < len(ch.Marks) {
@@ -186,7 +187,7 @@ func markIDs(ch *dom.Chart, idx []int) []string {
 }
 
 // Findings are the analysis's findings as the report states them.
-func Findings(ch *dom.Chart, res *perception.Result) []Finding {
+func Findings(ch *marks.Chart, res *perception.Result) []Finding {
 	out := []Finding{}
 	for _, f := range res.Findings {
 		rf := Finding{ID: f.ID, Severity: string(f.Severity), Marks: markIDs(ch, f.Marks), Message: f.Message, Source: f.Source}
@@ -203,7 +204,7 @@ func Findings(ch *dom.Chart, res *perception.Result) []Finding {
 }
 
 // EmphasisOf is the analysis's emphasis as the report states it.
-func EmphasisOf(ch *dom.Chart, res *perception.Result) *Emphasis {
+func EmphasisOf(ch *marks.Chart, res *perception.Result) *Emphasis {
 	em := &Emphasis{Marks: markIDs(ch, res.Emphasis), Inferred: res.Inferred, Holds: map[string]bool{}}
 	for vi, v := range perception.Visions {
 		em.Holds[v.String()] = res.Holds[vi]

@@ -11,8 +11,10 @@ import (
 	"strings"
 	"time"
 
-	"standout/dom"
+	"standout/marks"
 	"standout/perception"
+	"standout/snapshot"
+	"standout/static"
 )
 
 // Caution is the statement of the limits of the check, carried in every
@@ -108,11 +110,11 @@ func hexPtr(v *uint32) *string {
 	if v == nil {
 		return nil
 	}
-	s := dom.Hex(*v)
+	s := snapshot.Hex(*v)
 	return &s
 }
 
-func toMark(m dom.Mark) Mark {
+func toMark(m marks.Mark) Mark {
 	rm := Mark{ID: m.ID, Kind: string(m.Kind), Shape: string(m.Shape), Fill: hexPtr(m.Fill), Stroke: hexPtr(m.Stroke),
 		Opacity: r2(m.Opacity * paintAlpha(m)), FillOpacity: r2(m.FillOpacity), Area: r2(m.Area), Angle: r2(m.Angle), Size: r2(m.Size),
 		Text: m.Text, Label: m.Label}
@@ -120,14 +122,14 @@ func toMark(m dom.Mark) Mark {
 		rm.BBox[i] = r2(v)
 	}
 	for _, s := range m.FillStops {
-		rm.FillStops = append(rm.FillStops, dom.Hex(s))
+		rm.FillStops = append(rm.FillStops, snapshot.Hex(s))
 	}
 	return rm
 }
 
 // paintAlpha is the alpha of the paint that shows the mark: the fill's when
 // it has one, else the stroke's.
-func paintAlpha(m dom.Mark) float64 {
+func paintAlpha(m marks.Mark) float64 {
 	if m.Fill != nil && m.FillOpacity > 0 {
 		return m.FillOpacity
 	}
@@ -156,8 +158,8 @@ type Options struct {
 var DefaultOptions = Options{Params: perception.DefaultParams}
 
 // CheckFile builds, walks and analyses every chart of one file.
-func CheckFile(name string, r io.Reader, opt Options) (Page, []*dom.Chart, error) {
-	page, err := dom.Build(r, dom.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline})
+func CheckFile(name string, r io.Reader, opt Options) (Page, []*marks.Chart, error) {
+	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline})
 	if err != nil {
 		return Page{}, nil, err
 	}
@@ -166,7 +168,7 @@ func CheckFile(name string, r io.Reader, opt Options) (Page, []*dom.Chart, error
 
 // Analysed is one chart walked and, if it is a chart, analysed.
 type Analysed struct {
-	Chart *dom.Chart
+	Chart *marks.Chart
 	// Result is nil when Chart.IsChart is false.
 	Result *perception.Result
 }
@@ -174,13 +176,13 @@ type Analysed struct {
 // AnalyseSnapshots walks and analyses snapshots, from the static builder
 // or a browser's read pass, without building the report: the overlay's
 // digest needs only part of it.
-func AnalyseSnapshots(snaps []dom.Snapshot, opt Options) ([]Analysed, error) {
+func AnalyseSnapshots(snaps []snapshot.Snapshot, opt Options) ([]Analysed, error) {
 	out := make([]Analysed, 0, len(snaps))
 	for i := range snaps {
 		if !opt.Deadline.IsZero() && time.Now().After(opt.Deadline) {
 			return nil, fmt.Errorf("the check ran past its time limit at chart %s (see --timeout)", snaps[i].Path)
 		}
-		ch, err := dom.Walk(&snaps[i])
+		ch, err := marks.Walk(&snaps[i])
 		if err != nil {
 			return nil, err
 		}
@@ -195,7 +197,7 @@ func AnalyseSnapshots(snaps []dom.Snapshot, opt Options) ([]Analysed, error) {
 
 // emphasisIDs is the declared emphasis of one chart by mark id: opt.IDs,
 // and the marks of the nodes opt.Nodes names in this chart.
-func emphasisIDs(ch *dom.Chart, opt Options) map[string]bool {
+func emphasisIDs(ch *marks.Chart, opt Options) map[string]bool {
 	nodes := opt.Nodes[ch.Path]
 	if len(nodes) == 0 {
 		return opt.IDs
@@ -214,7 +216,7 @@ func emphasisIDs(ch *dom.Chart, opt Options) map[string]bool {
 
 // FromSnapshots walks and analyses snapshots, from the static builder or
 // a browser's read pass, into a report page.
-func FromSnapshots(name string, snaps []dom.Snapshot, problems []string, opt Options) (Page, []*dom.Chart, error) {
+func FromSnapshots(name string, snaps []snapshot.Snapshot, problems []string, opt Options) (Page, []*marks.Chart, error) {
 	as, err := AnalyseSnapshots(snaps, opt)
 	if err != nil {
 		return Page{}, nil, err
@@ -224,14 +226,14 @@ func FromSnapshots(name string, snaps []dom.Snapshot, problems []string, opt Opt
 }
 
 // PageOf builds the report page of analysed charts.
-func PageOf(name string, problems []string, as []Analysed) (Page, []*dom.Chart) {
+func PageOf(name string, problems []string, as []Analysed) (Page, []*marks.Chart) {
 	rp := Page{Source: name, Problems: nonNil(problems), Charts: []Chart{}}
-	var charts []*dom.Chart
+	var charts []*marks.Chart
 	for _, a := range as {
 		ch := a.Chart
 		charts = append(charts, ch)
 		rc := Chart{Path: ch.Path, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
-			Background: dom.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
+			Background: snapshot.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
 			Furniture: ch.Furniture, Problems: nonNil(ch.Problems)}
 		for _, m := range ch.Marks {
 			rc.Marks = append(rc.Marks, toMark(m))
@@ -257,7 +259,7 @@ func nonNil(s []string) []string {
 
 // WriteText lists each chart with its marks grouped by kind, shape and
 // colour.
-func WriteText(w io.Writer, p Page, charts []*dom.Chart) {
+func WriteText(w io.Writer, p Page, charts []*marks.Chart) {
 	w = terminalWriter{w} // page-derived text carries no escape sequences
 	fmt.Fprintf(w, "%s: %d drawing(s)\n", p.Source, len(p.Charts))
 	for _, pr := range p.Problems {

@@ -106,7 +106,7 @@ func SRGB8(r, g, b uint8) SRGB {
 }
 
 // ParseHex parses "#rgb", "#rrggbb" (case-insensitive, '#' optional). For
-// the full CSS colour syntax see package dom.
+// the full CSS colour syntax see package static.
 func ParseHex(s string) (SRGB, error) {
 	h := s
 	if len(h) > 0 && h[0] == '#' {

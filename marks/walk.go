@@ -1,0 +1,884 @@
+package marks
+
+import (
+	"cmp"
+	"fmt"
+	"math"
+	"slices"
+	"standout/snapshot"
+	"strings"
+)
+
+// Kind is what a data mark is.
+type Kind string
+
+// Mark kinds.
+const (
+	KindPoint Kind = "point"
+	KindBar   Kind = "bar"
+	KindCell  Kind = "cell"
+	KindArc   Kind = "arc"
+	KindLine  Kind = "line"
+	KindArea  Kind = "area"
+	KindRule  Kind = "rule"
+	KindText  Kind = "text"
+)
+
+// Discrete reports whether marks of this kind are counted one per datum
+// (points, bars, cells, arcs).
+func (k Kind) Discrete() bool {
+	return k == KindPoint || k == KindBar || k == KindCell || k == KindArc
+}
+
+// Mark is one data mark with its effective paint and geometry in page px.
+type Mark struct {
+	ID    string
+	Node  int
+	Kind  Kind
+	Shape Shape
+	// Fill and Stroke are the paints as declared (packed 0xRRGGBBAA), nil
+	// for none. For a gradient or pattern they hold the central colour and
+	// FillStops every colour it paints.
+	Fill, Stroke *uint32
+	FillStops    []uint32
+	// FillOpacity and StrokeOpacity are the paint alphas (colour alpha ×
+	// fill-opacity or stroke-opacity); Opacity is the product of the
+	// element's and every ancestor's opacity.
+	FillOpacity, StrokeOpacity, Opacity float64
+	StrokeWidth                         float64 // page px
+	BBox                                [4]float64
+	Area                                float64
+	Centroid                            Point
+	// Size is the channel value for size: area for points, cells, arcs and
+	// areas; length along the value axis for bars and rules; stroke width
+	// for lines; font size for text.
+	Size  float64
+	Angle float64
+	Fold  int
+	// Text is the content of a text mark; Label the <title> or aria-label.
+	Text, Label string
+	// Vertices of a line mark (page px), for connectedness.
+	Vertices []Point
+}
+
+// Chart is what Walk makes of a snapshot.
+type Chart struct {
+	Path       string
+	Source     string
+	Box        [4]float64
+	Background uint32
+	// IsChart is false for icons, logos and empty drawings; Reason says why.
+	IsChart bool
+	Reason  string
+	Marks   []Mark
+	// Legend holds the legend swatches, kept apart from the data marks.
+	Legend []Mark
+	// Furniture counts what was set aside, by role: "axis", "tick",
+	// "gridline", "label", "title", "background", "frame", "helper",
+	// "hidden", "image", "legend-label".
+	Furniture map[string]int
+	Problems  []string
+	// Selected lists the indices into Marks of the marks that matched the
+	// caller's selector, or sit inside an element that did.
+	Selected []int
+}
+
+type cand struct {
+	node    int
+	n       *snapshot.Node
+	g       Geometry
+	opacity float64
+	fillA   float64
+	strokeA float64
+	strokeW float64
+	label   string
+	role    string // furniture role, or "" for a mark
+	kind    Kind
+	textPos Point
+}
+
+// Walk decides what every element of a chart is: a data mark (and of which
+// kind and shape), a legend swatch, or chart furniture. It uses geometry,
+// structure and repetition only, never a generator's class names, so it
+// works the same on any library's markup and on the static and browser
+// snapshots alike.
+func Walk(s *snapshot.Snapshot) (*Chart, error) {
+	if s.Version != snapshot.SnapshotVersion {
+		return nil, fmt.Errorf("marks: snapshot version %d, want %d", s.Version, snapshot.SnapshotVersion)
+	}
+	ch := &Chart{Path: s.Path, Source: s.Source, Box: s.Box, Background: s.Background,
+		Furniture: map[string]int{}, Problems: append([]string(nil), s.Problems...)}
+	n := len(s.Nodes)
+	if n == 0 {
+		ch.Reason = "empty drawing"
+		return ch, nil
+	}
+	hidden := make([]bool, n)
+	opac := make([]float64, n)
+	for i := range s.Nodes {
+		nd := &s.Nodes[i]
+		p := int(nd.Parent)
+		if p >= i || p < -1 {
+			return nil, fmt.Errorf("marks: snapshot %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+		}
+		hidden[i] = nd.Flags&snapshot.Hidden != 0
+		opac[i] = clamp01(nd.Opacity)
+		if p >= 0 {
+			hidden[i] = hidden[i] || hidden[p]
+			opac[i] *= opac[p]
+		}
+	}
+	// <title> children label their parent.
+	labels := map[int]string{}
+	for i := range s.Nodes {
+		nd := &s.Nodes[i]
+		if nd.Tag == "title" && nd.Parent >= 0 && labels[int(nd.Parent)] == "" {
+			labels[int(nd.Parent)] = nd.Text
+		}
+	}
+	// One slab for all candidates, and room for them in the lists: the
+	// walk allocates per chart, not per mark.
+	slab := make([]cand, 0, n)
+	cands := make([]*cand, 0, n)
+	var texts []*cand
+	for i := range s.Nodes {
+		nd := &s.Nodes[i]
+		switch nd.Tag {
+		case "circle", "ellipse", "rect", "line", "polyline", "polygon", "path", "text", "image":
+		default:
+			continue
+		}
+		if hidden[i] || nd.Flags&snapshot.Invisible != 0 || opac[i] <= 0 {
+			ch.Furniture["hidden"]++
+			continue
+		}
+		slab = append(slab, cand{node: i, n: nd, opacity: opac[i], label: labels[i]})
+		c := &slab[len(slab)-1]
+		switch ch.sortOut(c) {
+		case isText:
+			texts = append(texts, c)
+		case isShape:
+			cands = append(cands, c)
+		}
+	}
+	classifyFurniture(ch, cands)
+	classifyTexts(texts)
+	legendSwatches(ch, cands, texts)
+	assignKinds(cands)
+	ch.Marks = make([]Mark, 0, len(cands)+len(texts))
+	for _, c := range cands {
+		if c.role != "" {
+			if c.role != "legend" {
+				ch.Furniture[c.role]++
+			}
+			continue
+		}
+		ch.Marks = append(ch.Marks, makeMark(c))
+	}
+	for _, c := range cands {
+		if c.role == "legend" {
+			ch.Legend = append(ch.Legend, makeMark(c))
+		}
+	}
+	for _, t := range texts {
+		if t.role != "" {
+			ch.Furniture[t.role]++
+			continue
+		}
+		ch.Marks = append(ch.Marks, makeMark(t))
+	}
+	// Usually in order already; a Mark is large to move.
+	byNode := func(a, b Mark) int { return cmp.Compare(a.Node, b.Node) }
+	if !slices.IsSortedFunc(ch.Marks, byNode) {
+		slices.SortStableFunc(ch.Marks, byNode)
+	}
+	if len(s.Selected) > 0 {
+		sel := make([]bool, n)
+		for _, k := range s.Selected {
+			if k >= 0 && int(k) < n {
+				sel[k] = true
+			}
+		}
+		for i := range s.Nodes {
+			if p := s.Nodes[i].Parent; p >= 0 && sel[p] {
+				sel[i] = true
+			}
+		}
+		for i, m := range ch.Marks {
+			if sel[m.Node] {
+				ch.Selected = append(ch.Selected, i)
+			}
+		}
+	}
+	w, h := s.Box[2], s.Box[3]
+	switch {
+	case w > 0 && h > 0 && w <= 64 && h <= 64:
+		ch.Reason = fmt.Sprintf("icon-sized drawing (%.0f×%.0f px)", w, h)
+	case len(ch.Marks) == 0:
+		ch.Reason = "no data marks"
+	default:
+		ch.IsChart = true
+	}
+	return ch, nil
+}
+
+// What a visible node's candidate is.
+const (
+	notDrawn = iota // nothing drawn, an image, or geometry that is not finite
+	isText
+	isShape
+)
+
+// sortOut measures a visible node's candidate and says what it is,
+// counting images and reporting bad geometry on ch. It is a function of
+// its own because it runs per node: a WebAssembly engine optimises a
+// function that is called often, not a loop inside one that runs once.
+func (ch *Chart) sortOut(c *cand) int {
+	nd := c.n
+	if c.label == "" {
+		c.label = nd.Label
+	}
+	scale := math.Sqrt(math.Abs(snapshot.Matrix(nd.CTM).Det()))
+	c.strokeW = nd.StrokeWidth * scale
+	if nd.Fill.Kind != snapshot.PaintNone {
+		c.fillA = float64(uint8(nd.Fill.RGBA)) / 255 * clamp01(nd.FillOpacity)
+	}
+	if nd.Stroke.Kind != snapshot.PaintNone && c.strokeW > 0 {
+		c.strokeA = float64(uint8(nd.Stroke.RGBA)) / 255 * clamp01(nd.StrokeOpacity)
+	}
+	if nd.Tag == "text" {
+		if strings.TrimSpace(nd.Text) == "" {
+			return notDrawn
+		}
+		x, y := 0.0, 0.0
+		if len(nd.Geom) >= 2 {
+			x, y = nd.Geom[0], nd.Geom[1]
+		}
+		px, py := snapshot.Matrix(nd.CTM).Apply(x, y)
+		c.textPos = Point{px, py}
+		return isText
+	}
+	if nd.Tag == "image" {
+		ch.Furniture["image"]++
+		return notDrawn
+	}
+	g, ok, err := Measure(nd)
+	if err != nil {
+		ch.Problems = append(ch.Problems, fmt.Sprintf("%s: %v; drawn up to the error", nd.Name, err))
+	}
+	if !ok {
+		return notDrawn
+	}
+	if len(nd.BBox) == 4 {
+		g.BBox = [4]float64{nd.BBox[0], nd.BBox[1], nd.BBox[2], nd.BBox[3]}
+	}
+	c.g = g
+	if !finiteBox(g.BBox) || !finiteBox([4]float64{g.Area, g.Angle, g.Centroid.X, g.Centroid.Y}) || math.IsInf(nd.StrokeWidth*scale, 0) {
+		ch.Problems = append(ch.Problems, fmt.Sprintf("%s: geometry is not finite; skipped", nd.Name))
+		return notDrawn
+	}
+	if !(c.fillA > 0 && g.Area > 0) && !(c.strokeA > 0) {
+		c.role = "helper"
+	}
+	return isShape
+}
+
+func clamp01(v float64) float64 {
+	if !(v > 0) {
+		return 0
+	}
+	if v > 1 {
+		return 1
+	}
+	return v
+}
+
+func finiteBox(b [4]float64) bool {
+	for _, v := range b {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return false
+		}
+	}
+	return true
+}
+
+// straight reports whether an outline is a single open straight segment
+// (possibly with collinear interior points), returning its ends.
+func straight(g *Geometry) (Point, Point, bool) {
+	if g.Closed || len(g.Subpaths) != 1 || g.Info.Curves > 0 {
+		return Point{}, Point{}, false
+	}
+	pts := g.Subpaths[0].Pts
+	a, b := pts[0], pts[len(pts)-1]
+	L := math.Hypot(b.X-a.X, b.Y-a.Y)
+	if L == 0 {
+		return a, b, false
+	}
+	for _, p := range pts[1 : len(pts)-1] {
+		d := math.Abs((b.X-a.X)*(a.Y-p.Y)-(a.X-p.X)*(b.Y-a.Y)) / L
+		if d > 0.5 {
+			return a, b, false
+		}
+	}
+	return a, b, true
+}
+
+// classifyFurniture marks backgrounds, frames, ticks, gridlines and axis
+// lines among the shapes.
+func classifyFurniture(ch *Chart, cands []*cand) {
+	chartArea := ch.Box[2] * ch.Box[3]
+	// Union of all shape boxes, to judge "covers the drawing".
+	var ux0, uy0, ux1, uy1 = math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	for _, c := range cands {
+		if c.role != "" {
+			continue
+		}
+		b := c.g.BBox
+		ux0, uy0 = min(ux0, b[0]), min(uy0, b[1])
+		ux1, uy1 = max(ux1, b[0]+b[2]), max(uy1, b[1]+b[3])
+	}
+	unionArea := (ux1 - ux0) * (uy1 - uy0)
+	nShapes := 0
+	for _, c := range cands {
+		if c.role == "" {
+			nShapes++
+		}
+	}
+	// Backgrounds and frames: rectangles covering most of the drawing,
+	// drawn before the things they cover.
+	for _, c := range cands {
+		if c.role != "" || c.g.Shape != ShapeSquare || nShapes < 2 {
+			continue
+		}
+		a := c.g.BBox[2] * c.g.BBox[3]
+		if (chartArea > 0 && a >= 0.5*chartArea) || (unionArea > 0 && a >= 0.85*unionArea) {
+			if c.fillA > 0 {
+				c.role = "background"
+			} else {
+				c.role = "frame"
+			}
+		}
+	}
+	// Facet backgrounds and frames: rectangles that hold several other
+	// shapes drawn after them.
+	for _, c := range cands {
+		if c.role != "" || c.g.Shape != ShapeSquare || c.g.Fold == 0 {
+			continue
+		}
+		b := c.g.BBox
+		if b[2]*b[3] < 0.05*chartArea {
+			continue
+		}
+		inside := 0
+		for _, o := range cands {
+			if o == c || o.node < c.node {
+				continue
+			}
+			ob := o.g.BBox
+			if ob[2]*ob[3] > 0.25*b[2]*b[3] {
+				continue
+			}
+			if ob[0] >= b[0]-0.5 && ob[1] >= b[1]-0.5 && ob[0]+ob[2] <= b[0]+b[2]+0.5 && ob[1]+ob[3] <= b[1]+b[3]+0.5 {
+				inside++
+				if inside >= 3 {
+					break
+				}
+			}
+		}
+		if inside >= 3 {
+			if c.fillA > 0 {
+				c.role = "background"
+			} else {
+				c.role = "frame"
+			}
+		}
+	}
+	// Straight axis-aligned segments in parallel groups whose starts line
+	// up are ticks or gridlines.
+	type seg struct {
+		c    *cand
+		a, b Point
+		vert bool
+		L    float64
+	}
+	var segs []seg
+	for _, c := range cands {
+		if c.role != "" {
+			continue
+		}
+		a, b, ok := straight(&c.g)
+		if !ok {
+			continue
+		}
+		dx, dy := math.Abs(b.X-a.X), math.Abs(b.Y-a.Y)
+		if dx > 0.5 && dy > 0.5 {
+			continue
+		}
+		vert := dy > dx
+		// Normalise so a is the top or left end.
+		if vert && a.Y > b.Y || !vert && a.X > b.X {
+			a, b = b, a
+		}
+		segs = append(segs, seg{c, a, b, vert, max(dx, dy)})
+	}
+	type key struct {
+		vert   bool
+		parent int32
+		L      int64
+		stroke uint32
+	}
+	groups := map[key][]int{}
+	for i, s := range segs {
+		k := key{s.vert, s.c.n.Parent, int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}
+		groups[k] = append(groups[k], i)
+	}
+	// Siblings in separate <g> per line (as some generators wrap each
+	// tick) are pooled by grandparent too.
+	isAxis := make([]bool, len(segs))
+	check := func(idx []int) {
+		if len(idx) < 2 {
+			return
+		}
+		s0 := segs[idx[0]]
+		lined := true
+		for _, i := range idx[1:] {
+			s := segs[i]
+			if s0.vert && math.Abs(s.a.Y-s0.a.Y) > 1 && math.Abs(s.b.Y-s0.b.Y) > 1 {
+				lined = false
+			}
+			if !s0.vert && math.Abs(s.a.X-s0.a.X) > 1 && math.Abs(s.b.X-s0.b.X) > 1 {
+				lined = false
+			}
+		}
+		if lined {
+			for _, i := range idx {
+				isAxis[i] = true
+			}
+		}
+	}
+	for _, idx := range groups {
+		check(idx)
+	}
+	type key2 struct {
+		vert   bool
+		L      int64
+		stroke uint32
+	}
+	groups2 := map[key2][]int{}
+	for i, s := range segs {
+		if !isAxis[i] {
+			groups2[key2{s.vert, int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}] = append(groups2[key2{s.vert, int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}], i)
+		}
+	}
+	for _, idx := range groups2 {
+		if len(idx) >= 3 && len(idx) <= 200 {
+			check(idx)
+		}
+	}
+	// A line through the centres of several other shapes connects data,
+	// whatever its regularity: it is not a gridline.
+	through := func(s seg) int {
+		n := 0
+		for _, o := range cands {
+			if o == s.c || o.role != "" || !o.g.Closed {
+				continue
+			}
+			c := o.g.Centroid
+			tol := s.c.strokeW/2 + 1.5
+			if s.vert && math.Abs(c.X-s.a.X) <= tol && c.Y >= s.a.Y-tol && c.Y <= s.b.Y+tol ||
+				!s.vert && math.Abs(c.Y-s.a.Y) <= tol && c.X >= s.a.X-tol && c.X <= s.b.X+tol {
+				n++
+				if n >= 2 {
+					break
+				}
+			}
+		}
+		return n
+	}
+	var tickEnds []Point
+	for i, s := range segs {
+		if !isAxis[i] {
+			continue
+		}
+		if s.L >= 15 && through(s) >= 2 {
+			isAxis[i] = false
+			continue
+		}
+		if s.L < 15 {
+			s.c.role = "tick"
+			tickEnds = append(tickEnds, s.a, s.b)
+		} else {
+			s.c.role = "gridline"
+		}
+	}
+	// A long line that ticks hang from is an axis line.
+	for i, s := range segs {
+		if isAxis[i] || s.c.role != "" {
+			continue
+		}
+		touching := 0
+		for _, p := range tickEnds {
+			if s.vert && math.Abs(p.X-s.a.X) <= 1 && p.Y >= s.a.Y-1 && p.Y <= s.b.Y+1 ||
+				!s.vert && math.Abs(p.Y-s.a.Y) <= 1 && p.X >= s.a.X-1 && p.X <= s.b.X+1 {
+				touching++
+			}
+		}
+		if touching >= 2 {
+			s.c.role = "axis"
+		}
+	}
+}
+
+// classifyTexts sets aside labels and titles; what remains are text marks.
+// Texts that share a parent and line up along one axis are axis or legend
+// labels; a lone text is a title or annotation label.
+func classifyTexts(texts []*cand) {
+	byParent := map[int32][]*cand{}
+	for _, t := range texts {
+		byParent[t.n.Parent] = append(byParent[t.n.Parent], t)
+	}
+	for _, ts := range byParent {
+		if len(ts) < 3 {
+			for _, t := range ts {
+				t.role = "label"
+			}
+			continue
+		}
+		sameX, sameY := true, true
+		for _, t := range ts[1:] {
+			if math.Abs(t.textPos.X-ts[0].textPos.X) > 1 {
+				sameX = false
+			}
+			if math.Abs(t.textPos.Y-ts[0].textPos.Y) > 1 {
+				sameY = false
+			}
+		}
+		if sameX || sameY {
+			for _, t := range ts {
+				t.role = "label"
+			}
+		}
+	}
+}
+
+// legendSwatches finds legend entries: small marks each with its own label
+// text just to the right, at the same offset for every entry, lined up in
+// a column or a row.
+func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
+	type pair struct {
+		c      *cand
+		t      *cand
+		dx, dy float64
+	}
+	var pairs []pair
+	// Per parent node, its candidate children (parents are node indices).
+	top := int32(0)
+	for _, c := range cands {
+		top = max(top, c.n.Parent+1)
+	}
+	siblings := make([]int, top)
+	for _, c := range cands {
+		if c.n.Parent >= 0 {
+			siblings[c.n.Parent]++
+		}
+	}
+	for _, c := range cands {
+		// Legend entries come in small groups; a swatch is never one of
+		// dozens of siblings.
+		if c.role != "" || c.n.Parent >= 0 && siblings[c.n.Parent] > 20 {
+			continue
+		}
+		b := c.g.BBox
+		size := max(b[2], b[3])
+		if size > 60 {
+			continue
+		}
+		cy := b[1] + b[3]/2
+		right := b[0] + b[2]
+		var best *cand
+		bestDx := math.Inf(1)
+		for _, t := range texts {
+			if t.role != "label" {
+				continue
+			}
+			fs := 10.0
+			if len(t.n.Geom) >= 3 {
+				fs = t.n.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det()))
+			}
+			dx := t.textPos.X - right
+			dy := math.Abs(t.textPos.Y - fs*0.35 - cy)
+			if dx >= -1 && dx <= max(size, 10)+12 && dy <= max(size, fs)*0.6 && dx < bestDx {
+				best, bestDx = t, dx
+			}
+		}
+		if best != nil {
+			pairs = append(pairs, pair{c, best, bestDx, best.textPos.Y - cy})
+		}
+	}
+	// Group pairs by their label offset; an entry needs a second entry
+	// with the same offset lined up with it, and a label of its own.
+	used := map[*cand]int{}
+	for _, p := range pairs {
+		used[p.t]++
+	}
+	for i, a := range pairs {
+		if used[a.t] != 1 {
+			continue
+		}
+		for j, b := range pairs {
+			if i == j || used[b.t] != 1 {
+				continue
+			}
+			ca, cb := a.c.g.Centroid, b.c.g.Centroid
+			column := math.Abs(ca.X-cb.X) <= 1.5 && math.Abs(a.t.textPos.X-b.t.textPos.X) <= 1
+			row := math.Abs(ca.Y-cb.Y) <= 1.5 && math.Abs(a.dy-b.dy) <= 1 && math.Abs(a.dx-b.dx) <= 1
+			if column || row {
+				a.c.role = "legend"
+				a.t.role = "legend-label"
+				break
+			}
+		}
+	}
+	// A gradient ramp with labels is a legend too.
+	paintCount := map[uint32]int{}
+	for _, c := range cands {
+		if c.role == "" && c.n.Fill.Kind == snapshot.PaintServer {
+			paintCount[c.n.Fill.RGBA]++
+		}
+	}
+	for _, c := range cands {
+		if c.role != "" || c.n.Fill.Kind != snapshot.PaintServer || c.g.Shape != ShapeSquare || paintCount[c.n.Fill.RGBA] != 1 {
+			continue
+		}
+		b := c.g.BBox
+		if max(b[2], b[3]) >= 4*min(b[2], b[3]) {
+			c.role = "legend"
+		}
+	}
+}
+
+// assignKinds gives each remaining shape its mark kind. Closed outlines
+// are judged per parent group, by repetition: a data series draws the same
+// kind of glyph many times, while regions (maps, areas) vary.
+func assignKinds(cands []*cand) {
+	groups := map[int32][]*cand{}
+	// Siblings come in runs: append to the last parent's group without a
+	// map lookup.
+	lastParent, last := int32(-2), []*cand(nil)
+	flush := func() {
+		if last != nil {
+			groups[lastParent] = last
+		}
+	}
+	for _, c := range cands {
+		if c.role != "" {
+			continue
+		}
+		g := &c.g
+		switch {
+		case g.Shape == ShapeWedge:
+			c.kind = KindArc
+		case c.n.Tag == "circle" || c.n.Tag == "ellipse":
+			c.kind = KindPoint
+		case g.Closed && len(g.Subpaths) == 1:
+			if c.n.Parent != lastParent {
+				flush()
+				lastParent, last = c.n.Parent, groups[c.n.Parent]
+			}
+			last = append(last, c)
+		case !g.Closed && symbolStrokes(g):
+			c.kind = KindPoint
+		case !g.Closed:
+			if _, _, ok := straight(g); ok {
+				c.kind = KindRule
+			} else {
+				c.kind = KindLine
+			}
+		default:
+			c.kind = KindArea
+		}
+	}
+	flush()
+	for _, grp := range groups {
+		// The most common shape class (and corner count) in the group.
+		type sig struct {
+			s Shape
+			k int
+		}
+		count := map[sig]int{}
+		for _, c := range grp {
+			count[sig{c.g.Shape, c.g.Corners}]++
+		}
+		var top sig
+		for k, v := range count {
+			if v > count[top] || v == count[top] && k.s < top.s {
+				top = k
+			}
+		}
+		symbols := 0
+		for _, c := range grp {
+			if c.g.Shape != ShapeOther && c.g.Shape != ShapeSquare || pointLike(&c.g) {
+				symbols++
+			}
+		}
+		homogeneous := float64(count[top]) >= 0.8*float64(len(grp)) ||
+			float64(symbols) >= 0.9*float64(len(grp)) && len(count) <= 12
+		var rects []*cand
+		for _, c := range grp {
+			g := &c.g
+			switch {
+			case g.Shape == ShapeSquare:
+				rects = append(rects, c)
+			case !homogeneous && len(grp) > 1:
+				c.kind = KindArea
+			case g.Shape != ShapeOther || pointLike(g):
+				c.kind = KindPoint
+			default:
+				c.kind = KindArea
+			}
+		}
+		if len(rects) > 0 && !homogeneous && len(grp) > 4 {
+			for _, c := range rects {
+				c.kind = KindArea
+			}
+			continue
+		}
+		rectKinds(rects)
+	}
+}
+
+// rectKinds decides between bars, cells and square points for the
+// rectangles of one group: equal sizes on a lattice are cells, small equal
+// squares that do not tile are points, the rest are bars.
+func rectKinds(grp []*cand) {
+	if len(grp) == 0 {
+		return
+	}
+	ws, hs := map[int64]int{}, map[int64]int{}
+	xs, ys := map[int64]bool{}, map[int64]bool{}
+	for _, c := range grp {
+		b := c.g.BBox
+		ws[int64(math.Round(b[2]*2))]++
+		hs[int64(math.Round(b[3]*2))]++
+		xs[int64(math.Round(b[0]))] = true
+		ys[int64(math.Round(b[1]))] = true
+	}
+	kind := KindBar
+	equal := len(ws) == 1 && len(hs) == 1
+	switch {
+	case len(grp) >= 4 && equal && len(xs) >= 2 && len(ys) >= 2 && tiles(grp):
+		kind = KindCell
+	case equal && len(grp) >= 2 && squareish(grp[0].g.Subpaths[0].Pts) && max(grp[0].g.BBox[2], grp[0].g.BBox[3]) <= 24:
+		kind = KindPoint
+	}
+	for _, c := range grp {
+		c.kind = kind
+	}
+}
+
+// tiles reports whether most rectangles have a neighbour within a tenth of
+// their size: cells abut, scattered squares do not.
+func tiles(grp []*cand) bool {
+	if len(grp) > 2000 {
+		return true // a lattice that large is a heat map
+	}
+	near := 0
+	for i, a := range grp {
+		ab := a.g.BBox
+		gap := 0.1*max(ab[2], ab[3]) + 1
+		for j, b := range grp {
+			if i == j {
+				continue
+			}
+			bb := b.g.BBox
+			dx := max(bb[0]-(ab[0]+ab[2]), ab[0]-(bb[0]+bb[2]))
+			dy := max(bb[1]-(ab[1]+ab[3]), ab[1]-(bb[1]+bb[3]))
+			if max(dx, dy) <= gap {
+				near++
+				break
+			}
+		}
+	}
+	return near*2 >= len(grp)
+}
+
+// pointLike: a small closed outline with few corners and no long curves,
+// such as a hexagon or an arrow glyph.
+func pointLike(g *Geometry) bool {
+	n := 0
+	for _, s := range g.Subpaths {
+		n += len(s.Pts)
+	}
+	return n <= 48 && max(g.BBox[2], g.BBox[3]) <= 60
+}
+
+// symbolStrokes: a glyph drawn as a few short crossing strokes (a plus, an
+// ×, an asterisk).
+func symbolStrokes(g *Geometry) bool {
+	if len(g.Subpaths) < 2 || len(g.Subpaths) > 4 || max(g.BBox[2], g.BBox[3]) > 30 {
+		return false
+	}
+	for _, s := range g.Subpaths {
+		if len(s.Pts) != 2 {
+			return false
+		}
+	}
+	return true
+}
+
+func makeMark(c *cand) Mark {
+	nd := c.n
+	m := Mark{ID: nd.Name, Node: c.node, Kind: c.kind, Shape: c.g.Shape, Opacity: c.opacity,
+		FillOpacity: c.fillA, StrokeOpacity: c.strokeA, StrokeWidth: c.strokeW, Label: c.label,
+		BBox: c.g.BBox, Area: c.g.Area, Centroid: c.g.Centroid, Angle: c.g.Angle, Fold: c.g.Fold}
+	if nd.Fill.Kind != snapshot.PaintNone && (c.g.Area > 0 || nd.Tag == "text") {
+		v := nd.Fill.RGBA
+		m.Fill = &v
+		m.FillStops = nd.Fill.Stops
+	}
+	if nd.Stroke.Kind != snapshot.PaintNone && c.strokeW > 0 {
+		v := nd.Stroke.RGBA
+		m.Stroke = &v
+	}
+	if nd.Tag == "text" {
+		m.Kind, m.Shape, m.Text = KindText, ShapeOther, nd.Text
+		fs := 16.0
+		if len(nd.Geom) >= 3 {
+			fs = nd.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(nd.CTM).Det()))
+		}
+		m.Size = fs
+		w := 0.55 * fs * float64(len([]rune(nd.Text))) // estimated advance width
+		m.BBox = [4]float64{c.textPos.X, c.textPos.Y - 0.8*fs, w, fs}
+		if len(nd.BBox) == 4 {
+			m.BBox = [4]float64{nd.BBox[0], nd.BBox[1], nd.BBox[2], nd.BBox[3]}
+		}
+		m.Centroid = Point{m.BBox[0] + m.BBox[2]/2, m.BBox[1] + m.BBox[3]/2}
+		m.Area = m.BBox[2] * m.BBox[3]
+		m.Fold = 2
+		return m
+	}
+	switch m.Kind {
+	case KindBar, KindRule:
+		m.Size = max(c.g.BBox[2], c.g.BBox[3])
+		if m.Kind == KindRule {
+			m.Size = c.g.Length
+			for _, s := range c.g.Subpaths {
+				m.Vertices = append(m.Vertices, s.Pts...)
+			}
+		}
+	case KindLine:
+		if m.Fill == nil || c.fillA == 0 {
+			m.Area = 0 // an unfilled line encloses nothing the reader sees
+		}
+		m.Size = c.strokeW
+		for _, s := range c.g.Subpaths {
+			m.Vertices = append(m.Vertices, s.Pts...)
+		}
+	default:
+		m.Size = c.g.Area
+		if m.Size == 0 {
+			m.Size = c.g.BBox[2] * c.g.BBox[3]
+		}
+	}
+	return m
+}

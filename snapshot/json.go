@@ -1,0 +1,679 @@
+package snapshot
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"standout/internal/jsonio"
+)
+
+// The JSON form of a Snapshot (SnapshotVersion 2) is columnar, so that the
+// read pass writes it with a few array pushes per element and the core
+// reads it without an object per element:
+//
+//	{"v": 2, "source": "…", "path": "svg0", "box": [x, y, w, h], "bg": rgba,
+//	 "sel": [node, …], "problems": ["…", …],
+//	 "tags": ["svg", "g", "circle", …],
+//	 "paints": [kind, rgba, count, stop…, kind, rgba, count, stop…, …],
+//	 "strs": ["…", …],
+//	 "nodes": [record, record, …]}
+//
+// "paints" is a table of Paint entries, each its kind, its colour, the
+// number of its stops and the stops. Each node is one record of numbers in
+// "nodes", four fixed fields, then the node's style (seven numbers, unless
+// it repeats the previous record's) and then the optional fields:
+//
+//	parent tag name has [flags fill stroke fillOpacity strokeOpacity opacity strokeWidth] …
+//
+// tag indexes "tags"; fill and stroke index the paint entries; flags are
+// Node.Flags. name derives Node.Name from the parent's: the root's is the
+// snapshot's Path; k ≥ 0 names the parent's k-th element child, parent +
+// "/" + tag + k; −1 content a <use> instantiates, parent + ">" + tag. has
+// says whether the style is there and which optional fields follow, in
+// this order:
+//
+//	128 the style is the previous record's and is not written
+//	 1  CTM: six numbers; without it the parent's CTM (the root's: identity)
+//	 2  Geom: a count, at most maxGeom, then the numbers
+//	 4  BBox: four numbers
+//	 8  D: an index into "strs"
+//	16  Text: an index into "strs"
+//	32  Label: an index into "strs"
+//	64  Name: an index into "strs", replacing the derived name
+//
+// JavaScript writes NaN and the infinities as null; they read as 0, as
+// encoding/json reads null into a number.
+const (
+	hasCTM = 1 << iota
+	hasGeom
+	hasBBox
+	hasD
+	hasText
+	hasLabel
+	hasName
+	hasSameStyle
+	hasAll = hasCTM | hasGeom | hasBBox | hasD | hasText | hasLabel | hasName | hasSameStyle
+)
+
+const (
+	// recordMin is the fewest numbers a node record has.
+	recordMin = 4
+	// nameUse is the name field of content instantiated by <use>.
+	nameUse = -1
+	// maxGeom bounds a record's geometry count.
+	maxGeom = 16
+	// maxStops bounds the stops of one paint entry.
+	maxStops = 1 << 16
+)
+
+// snapshotWire is the JSON document as it stands, before its records are
+// interpreted. encoding/json decodes it by reflection (the fuzz test's
+// oracle); the scanner decodes it faster.
+type snapshotWire struct {
+	Version  float64   `json:"v"`
+	Source   string    `json:"source"`
+	Path     string    `json:"path"`
+	Box      []float64 `json:"box"`
+	Bg       float64   `json:"bg"`
+	Sel      []float64 `json:"sel"`
+	Problems []string  `json:"problems"`
+	Tags     []string  `json:"tags"`
+	Paints   []float64 `json:"paints"`
+	Strs     []string  `json:"strs"`
+	Nodes    []float64 `json:"nodes"`
+}
+
+var wireKeys = []string{"v", "source", "path", "box", "bg", "sel", "problems", "tags", "paints", "strs", "nodes"}
+
+// UnmarshalJSON decodes a snapshot's columnar JSON form.
+func (s *Snapshot) UnmarshalJSON(b []byte) error {
+	d := jsonio.New(b)
+	var w snapshotWire
+	if err := readWire(d, &w); err != nil {
+		return fmt.Errorf("snapshot: snapshot %w", err)
+	}
+	if err := d.End(); err != nil {
+		return fmt.Errorf("snapshot: snapshot %w", err)
+	}
+	out, err := w.snapshot()
+	if err != nil {
+		return err
+	}
+	*s = out
+	return nil
+}
+
+// readWire reads a snapshot document into w. A repeated key replaces what
+// the earlier one set, as encoding/json does.
+func readWire(d *jsonio.Scanner, w *snapshotWire) error {
+	return d.Object(func(key string) error {
+		var err error
+		switch fold(key, wireKeys) {
+		case "v":
+			w.Version, err = d.Number()
+		case "source":
+			w.Source, err = d.Text()
+		case "path":
+			w.Path, err = d.Text()
+		case "box":
+			w.Box, err = d.Numbers(w.Box[:0])
+		case "bg":
+			w.Bg, err = d.Number()
+		case "sel":
+			w.Sel, err = d.Numbers(w.Sel[:0])
+		case "problems":
+			w.Problems, err = d.Strings(w.Problems[:0])
+		case "tags":
+			w.Tags, err = d.Strings(w.Tags[:0])
+		case "paints":
+			w.Paints, err = d.Numbers(w.Paints[:0])
+		case "strs":
+			w.Strs, err = d.Strings(w.Strs[:0])
+		case "nodes":
+			if w.Nodes == nil {
+				// Room for the numbers the rest of the input could hold
+				// at about four bytes each, so that the array does not
+				// double its way up from one. A page's snapshots share
+				// one such buffer (DecodePage), so this is paid once per
+				// input, not once per chart.
+				w.Nodes = make([]float64, 0, d.Remaining()/4+1)
+			}
+			w.Nodes, err = d.Numbers(w.Nodes[:0])
+		default:
+			err = d.Skip()
+		}
+		return err
+	})
+}
+
+// fold maps a key to the field it names the way encoding/json does: an
+// exact match first, else the first case-insensitive one.
+func fold(key string, known []string) string {
+	for _, k := range known {
+		if k == key {
+			return k
+		}
+	}
+	for _, k := range known {
+		if strings.EqualFold(k, key) {
+			return k
+		}
+	}
+	return key
+}
+
+// record reads the numbers of "nodes" one at a time.
+type record struct {
+	v    []float64
+	i    int
+	node int
+}
+
+func (r *record) errorf(format string, a ...any) error {
+	return fmt.Errorf("snapshot: snapshot node %d: %s", r.node, fmt.Sprintf(format, a...))
+}
+
+func (r *record) num() (float64, error) {
+	if r.i >= len(r.v) {
+		return 0, r.errorf("the record is cut short")
+	}
+	r.i++
+	return r.v[r.i-1], nil
+}
+
+// int reads an integer within [lo, hi).
+func (r *record) int(what string, lo, hi int) (int, error) {
+	f, err := r.num()
+	if err != nil {
+		return 0, err
+	}
+	if f != math.Trunc(f) || f < float64(lo) || f >= float64(hi) {
+		return 0, r.errorf("%s %v is not an integer within [%d, %d)", what, f, lo, hi)
+	}
+	return int(f), nil
+}
+
+// str reads an index into strs.
+func (r *record) str(strs []string) (string, error) {
+	k, err := r.int("string", 0, len(strs))
+	if err != nil {
+		return "", err
+	}
+	return strs[k], nil
+}
+
+func packed(f float64) (uint32, bool) {
+	if f < 0 || f > 0xffffffff || f != math.Trunc(f) {
+		return 0, false
+	}
+	return uint32(f), true
+}
+
+// snapshot interprets the document: the tables and every record.
+func (w *snapshotWire) snapshot() (Snapshot, error) {
+	if w.Version != SnapshotVersion {
+		return Snapshot{}, fmt.Errorf("snapshot: snapshot version %v, want %d", w.Version, SnapshotVersion)
+	}
+	s := Snapshot{Version: SnapshotVersion, Source: w.Source, Path: w.Path, Problems: w.Problems}
+	switch len(w.Box) {
+	case 0:
+	case 4:
+		copy(s.Box[:], w.Box)
+	default:
+		return Snapshot{}, fmt.Errorf("snapshot: snapshot box has %d numbers, want 4", len(w.Box))
+	}
+	bg, ok := packed(w.Bg)
+	if !ok {
+		return Snapshot{}, fmt.Errorf("snapshot: snapshot background %v is not a packed colour", w.Bg)
+	}
+	s.Background = bg
+	paints, err := paintTable(w.Paints)
+	if err != nil {
+		return Snapshot{}, err
+	}
+	if err := w.nodes(&s, paints); err != nil {
+		return Snapshot{}, err
+	}
+	for _, f := range w.Sel {
+		if f != math.Trunc(f) || f < 0 || f >= float64(len(s.Nodes)) {
+			return Snapshot{}, fmt.Errorf("snapshot: snapshot selects node %v of %d", f, len(s.Nodes))
+		}
+		s.Selected = append(s.Selected, int32(f))
+	}
+	return s, nil
+}
+
+func paintTable(v []float64) ([]Paint, error) {
+	var out []Paint
+	for i := 0; i < len(v); {
+		if len(v)-i < 3 {
+			return nil, fmt.Errorf("snapshot: snapshot paint %d is cut short", len(out))
+		}
+		k, c, n := v[i], v[i+1], v[i+2]
+		rgba, ok := packed(c)
+		if !ok || (k != float64(PaintNone) && k != float64(PaintColour) && k != float64(PaintServer)) || n != math.Trunc(n) || n < 0 || n > maxStops || float64(len(v)-i-3) < n {
+			return nil, fmt.Errorf("snapshot: snapshot paint %d (%v, %v, %v) is not a paint", len(out), k, c, n)
+		}
+		p := Paint{Kind: uint8(k), RGBA: rgba}
+		i += 3
+		if n > 0 {
+			p.Stops = make([]uint32, int(n))
+			for j := range p.Stops {
+				if p.Stops[j], ok = packed(v[i+j]); !ok {
+					return nil, fmt.Errorf("snapshot: snapshot paint %d: stop %v is not a packed colour", len(out), v[i+j])
+				}
+			}
+			i += int(n)
+		}
+		out = append(out, p)
+	}
+	return out, nil
+}
+
+// nodes interprets the records. The nodes' names are written into one
+// buffer and cut from one string, and their geometry shares one slab, so
+// decoding allocates per snapshot rather than per node.
+func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
+	v := w.Nodes
+	// Room for the nodes, from the usual record length (a style repeated,
+	// a CTM inherited, three numbers of geometry) rather than the shortest.
+	s.Nodes = make([]Node, 0, min(len(v)/8+1, MaxNodes))
+	var names []byte
+	nameAt := make([][2]int32, 0, cap(s.Nodes))
+	var slab []float64
+	type span struct{ node, at, n int32 }
+	var spans []span // geometry and boxes, cut from slab once it is complete
+	r := record{v: v}
+	for r.i < len(v) {
+		r.node = len(s.Nodes)
+		if r.node >= MaxNodes {
+			return fmt.Errorf("snapshot: snapshot %s has more than %d elements", s.Path, MaxNodes)
+		}
+		p, err := r.int("parent", -1, r.node)
+		if err != nil {
+			return err
+		}
+		tag, err := r.int("tag", 0, len(w.Tags))
+		if err != nil {
+			return err
+		}
+		nk, err := r.int("name", nameUse, math.MaxInt32)
+		if err != nil {
+			return err
+		}
+		has, err := r.int("has", 0, hasAll+1)
+		if err != nil {
+			return err
+		}
+		// Built in place: a Node is large, and copying one into the slice
+		// costs a write barrier per pointer while the collector runs.
+		s.Nodes = append(s.Nodes, Node{})
+		nd := &s.Nodes[len(s.Nodes)-1]
+		nd.Parent, nd.Tag = int32(p), w.Tags[tag]
+		if has&hasSameStyle != 0 {
+			if r.node == 0 {
+				return r.errorf("the first record cannot repeat a style")
+			}
+			prev := &s.Nodes[r.node-1]
+			nd.Flags, nd.Fill, nd.Stroke = prev.Flags, prev.Fill, prev.Stroke
+			nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = prev.FillOpacity, prev.StrokeOpacity, prev.Opacity, prev.StrokeWidth
+		} else {
+			flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
+			if err != nil {
+				return err
+			}
+			fill, err := r.int("fill", 0, len(paints))
+			if err != nil {
+				return err
+			}
+			stroke, err := r.int("stroke", 0, len(paints))
+			if err != nil {
+				return err
+			}
+			if len(v)-r.i < 4 {
+				return r.errorf("the record is cut short")
+			}
+			nd.Flags, nd.Fill, nd.Stroke = uint8(flags), paints[fill], paints[stroke]
+			nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]
+			r.i += 4
+		}
+		switch {
+		case has&hasCTM != 0:
+			for k := range nd.CTM {
+				if nd.CTM[k], err = r.num(); err != nil {
+					return err
+				}
+			}
+		case p >= 0:
+			nd.CTM = s.Nodes[p].CTM
+		default:
+			nd.CTM = IdentityMatrix
+		}
+		if has&hasGeom != 0 {
+			n, err := r.int("geometry count", 0, maxGeom+1)
+			if err != nil {
+				return err
+			}
+			if len(v)-r.i < n {
+				return r.errorf("the record is cut short")
+			}
+			spans = append(spans, span{int32(r.node), int32(len(slab)), int32(n)})
+			slab = append(slab, v[r.i:r.i+n]...)
+			r.i += n
+		}
+		if has&hasBBox != 0 {
+			if len(v)-r.i < 4 {
+				return r.errorf("the record is cut short")
+			}
+			spans = append(spans, span{-int32(r.node) - 1, int32(len(slab)), 4})
+			slab = append(slab, v[r.i:r.i+4]...)
+			r.i += 4
+		}
+		if has&hasD != 0 {
+			if nd.D, err = r.str(w.Strs); err != nil {
+				return err
+			}
+		}
+		if has&hasText != 0 {
+			if nd.Text, err = r.str(w.Strs); err != nil {
+				return err
+			}
+		}
+		if has&hasLabel != 0 {
+			if nd.Label, err = r.str(w.Strs); err != nil {
+				return err
+			}
+		}
+		start := len(names)
+		switch {
+		case has&hasName != 0:
+			explicit, err := r.str(w.Strs)
+			if err != nil {
+				return err
+			}
+			names = append(names, explicit...)
+		case p < 0:
+			names = append(names, s.Path...)
+		default:
+			pn := nameAt[p]
+			names = append(names, names[pn[0]:pn[1]]...)
+			if nk == nameUse {
+				names = append(names, '>')
+				names = append(names, nd.Tag...)
+			} else {
+				names = append(names, '/')
+				names = append(names, nd.Tag...)
+				names = strconv.AppendInt(names, int64(nk), 10)
+			}
+		}
+		nameAt = append(nameAt, [2]int32{int32(start), int32(len(names))})
+	}
+	all := string(names)
+	for i := range s.Nodes {
+		s.Nodes[i].Name = all[nameAt[i][0]:nameAt[i][1]]
+	}
+	for _, sp := range spans {
+		vals := slab[sp.at : sp.at+sp.n : sp.at+sp.n]
+		if sp.node >= 0 {
+			s.Nodes[sp.node].Geom = vals
+		} else {
+			s.Nodes[-sp.node-1].BBox = vals
+		}
+	}
+	return nil
+}
+
+// MarshalJSON writes the snapshot's columnar JSON form. Names that follow
+// the derivation rules are not written out; others go to "strs".
+func (s Snapshot) MarshalJSON() ([]byte, error) {
+	var e wireEncoder
+	b := []byte(`{"v":`)
+	b = strconv.AppendInt(b, int64(s.Version), 10)
+	b = append(b, `,"source":`...)
+	b = jsonio.AppendString(b, s.Source)
+	b = append(b, `,"path":`...)
+	b = jsonio.AppendString(b, s.Path)
+	b = append(b, `,"box":`...)
+	b = jsonio.AppendFloats(b, s.Box[:])
+	b = append(b, `,"bg":`...)
+	b = strconv.AppendUint(b, uint64(s.Background), 10)
+	if len(s.Selected) > 0 {
+		b = append(b, `,"sel":[`...)
+		for i, v := range s.Selected {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			b = strconv.AppendInt(b, int64(v), 10)
+		}
+		b = append(b, ']')
+	}
+	if len(s.Problems) > 0 {
+		b = append(b, `,"problems":`...)
+		b = jsonio.AppendStrings(b, s.Problems)
+	}
+	nodes, err := e.records(&s)
+	if err != nil {
+		return nil, err
+	}
+	b = append(b, `,"tags":`...)
+	b = jsonio.AppendStrings(b, e.tags)
+	b = append(b, `,"paints":`...)
+	b = jsonio.AppendFloats(b, e.paints)
+	b = append(b, `,"strs":`...)
+	b = jsonio.AppendStrings(b, e.strs)
+	b = append(b, `,"nodes":`...)
+	b = jsonio.AppendFloats(b, nodes)
+	return append(b, '}'), nil
+}
+
+type paintKey struct {
+	kind  uint8
+	rgba  uint32
+	stops string
+}
+
+type wireEncoder struct {
+	tags   []string
+	tagIdx map[string]int
+	paints []float64
+	paintI map[paintKey]int
+	strs   []string
+}
+
+func (e *wireEncoder) tag(t string) float64 {
+	if e.tagIdx == nil {
+		e.tagIdx = map[string]int{}
+	}
+	i, ok := e.tagIdx[t]
+	if !ok {
+		i = len(e.tags)
+		e.tags = append(e.tags, t)
+		e.tagIdx[t] = i
+	}
+	return float64(i)
+}
+
+func (e *wireEncoder) paint(p Paint) float64 {
+	if e.paintI == nil {
+		e.paintI = map[paintKey]int{}
+	}
+	k := paintKey{p.Kind, p.RGBA, fmt.Sprint(p.Stops)}
+	i, ok := e.paintI[k]
+	if !ok {
+		i = len(e.paintI)
+		e.paintI[k] = i
+		e.paints = append(e.paints, float64(p.Kind), float64(p.RGBA), float64(len(p.Stops)))
+		for _, st := range p.Stops {
+			e.paints = append(e.paints, float64(st))
+		}
+	}
+	return float64(i)
+}
+
+func (e *wireEncoder) str(s string) float64 {
+	e.strs = append(e.strs, s)
+	return float64(len(e.strs) - 1)
+}
+
+// records writes every node's record.
+func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
+	var out []float64
+	var prevStyle [7]float64
+	for i := range s.Nodes {
+		nd := &s.Nodes[i]
+		p := int(nd.Parent)
+		if p >= i || p < -1 {
+			return nil, fmt.Errorf("snapshot: snapshot %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+		}
+		if len(nd.Geom) > maxGeom {
+			return nil, fmt.Errorf("snapshot: snapshot %s: node %d has %d geometry values, more than %d", s.Path, i, len(nd.Geom), maxGeom)
+		}
+		if len(nd.BBox) != 0 && len(nd.BBox) != 4 {
+			return nil, fmt.Errorf("snapshot: snapshot %s: node %d has a box of %d numbers", s.Path, i, len(nd.BBox))
+		}
+		nk, explicit := 0, false
+		switch {
+		case p < 0:
+			explicit = nd.Name != s.Path
+		default:
+			pn := s.Nodes[p].Name
+			rest, ok := strings.CutPrefix(nd.Name, pn)
+			switch {
+			case ok && rest == ">"+nd.Tag:
+				nk = nameUse
+			case ok && strings.HasPrefix(rest, "/"+nd.Tag):
+				k, err := strconv.Atoi(rest[1+len(nd.Tag):])
+				explicit = err != nil || k < 0 || strconv.Itoa(k) != rest[1+len(nd.Tag):]
+				nk = k
+			default:
+				explicit = true
+			}
+		}
+		has := 0
+		if (p >= 0 && nd.CTM != s.Nodes[p].CTM) || (p < 0 && Matrix(nd.CTM) != IdentityMatrix) {
+			has |= hasCTM
+		}
+		if len(nd.Geom) > 0 {
+			has |= hasGeom
+		}
+		if len(nd.BBox) == 4 {
+			has |= hasBBox
+		}
+		if nd.D != "" {
+			has |= hasD
+		}
+		if nd.Text != "" {
+			has |= hasText
+		}
+		if nd.Label != "" {
+			has |= hasLabel
+		}
+		if explicit {
+			has |= hasName
+			nk = 0
+		}
+		fill, stroke := e.paint(nd.Fill), e.paint(nd.Stroke)
+		style := [7]float64{float64(nd.Flags), fill, stroke, nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth}
+		if i > 0 && sameStyle(style, prevStyle) {
+			has |= hasSameStyle
+		}
+		out = append(out, float64(p), e.tag(nd.Tag), float64(nk), float64(has))
+		if has&hasSameStyle == 0 {
+			out = append(out, style[:]...)
+		}
+		prevStyle = style
+		if has&hasCTM != 0 {
+			out = append(out, nd.CTM[:]...)
+		}
+		if has&hasGeom != 0 {
+			out = append(out, float64(len(nd.Geom)))
+			out = append(out, nd.Geom...)
+		}
+		if has&hasBBox != 0 {
+			out = append(out, nd.BBox...)
+		}
+		if has&hasD != 0 {
+			out = append(out, e.str(nd.D))
+		}
+		if has&hasText != 0 {
+			out = append(out, e.str(nd.Text))
+		}
+		if has&hasLabel != 0 {
+			out = append(out, e.str(nd.Label))
+		}
+		if has&hasName != 0 {
+			out = append(out, e.str(nd.Name))
+		}
+	}
+	return out, nil
+}
+
+// sameStyle compares styles as the decoder will read them: bit for bit, so
+// that a NaN, written as null and read as 0, is never taken for another.
+func sameStyle(a, b [7]float64) bool {
+	for k := range a {
+		if math.Float64bits(a[k]) != math.Float64bits(b[k]) {
+			return false
+		}
+	}
+	return true
+}
+
+// PageJSON is what the browser's read pass returns for a page.
+type PageJSON struct {
+	Source    string
+	Snapshots []Snapshot
+	Problems  []string
+}
+
+// DecodePage decodes the read pass's result,
+// {"source": …, "snapshots": […], "problems": […], …}, with the fast
+// scanner throughout (encoding/json would first scan the whole input to
+// validate it, which costs as much again under WebAssembly).
+func DecodePage(b []byte) (*PageJSON, error) {
+	d := jsonio.New(b)
+	var p PageJSON
+	err := d.Object(func(key string) error {
+		var err error
+		switch key {
+		case "source":
+			p.Source, err = d.Text()
+		case "problems":
+			p.Problems, err = d.Strings(p.Problems[:0])
+		case "snapshots":
+			p.Snapshots = p.Snapshots[:0]
+			// One buffer for every snapshot's numbers: a snapshot keeps
+			// none of them once interpreted.
+			var numbers []float64
+			total := 0
+			err = d.Array(func() error {
+				w := snapshotWire{Nodes: numbers}
+				if err := readWire(d, &w); err != nil {
+					return err
+				}
+				numbers = w.Nodes[:0]
+				s, err := w.snapshot()
+				if err != nil {
+					return fmt.Errorf("snapshot %d: %w", len(p.Snapshots), err)
+				}
+				if total += len(s.Nodes); total > MaxPageNodes {
+					return fmt.Errorf("the page's charts have more than %d elements, more than one check takes", MaxPageNodes)
+				}
+				p.Snapshots = append(p.Snapshots, s)
+				return nil
+			})
+		default:
+			err = d.Skip()
+		}
+		return err
+	})
+	if err == nil {
+		err = d.End()
+	}
+	if err != nil {
+		return nil, fmt.Errorf("snapshot: page %w", err)
+	}
+	return &p, nil
+}

@@ -1,0 +1,287 @@
+package snapshot_test
+
+import (
+	"encoding/json"
+	"errors"
+	"os"
+	"path/filepath"
+	"runtime"
+	"standout/snapshot"
+	"standout/static"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// normalised makes empty and nil slices alike, which the JSON form does
+// not tell apart.
+func normalised(s snapshot.Snapshot) snapshot.Snapshot {
+	if len(s.Problems) == 0 {
+		s.Problems = nil
+	}
+	if len(s.Selected) == 0 {
+		s.Selected = nil
+	}
+	nodes := make([]snapshot.Node, len(s.Nodes))
+	for i, n := range s.Nodes {
+		if len(n.Geom) == 0 {
+			n.Geom = nil
+		}
+		if len(n.BBox) == 0 {
+			n.BBox = nil
+		}
+		for _, p := range []*snapshot.Paint{&n.Fill, &n.Stroke} {
+			if len(p.Stops) == 0 {
+				p.Stops = nil
+			}
+		}
+		nodes[i] = n
+	}
+	s.Nodes = nodes
+	if len(s.Nodes) == 0 {
+		s.Nodes = nil
+	}
+	return s
+}
+
+func TestSnapshotJSONRoundTripFixtures(t *testing.T) {
+	// Every fixture's snapshots survive encoding and decoding unchanged,
+	// and the scanner reads what encoding/json reads.
+	files, _ := filepath.Glob("../testdata/*.*")
+	corpus, _ := filepath.Glob("../../shared/corpus/*/*.svg")
+	files = append(files, corpus...)
+	require.NotEmpty(t, files)
+	for _, f := range files {
+		if strings.HasSuffix(f, ".golden") {
+			continue
+		}
+		data, err := os.ReadFile(f)
+		require.NoError(t, err)
+		p, err := static.Build(strings.NewReader(string(data)), static.Options{Source: f})
+		require.NoError(t, err)
+		for _, s := range p.Charts {
+			b, err := json.Marshal(s)
+			require.NoError(t, err, f)
+			var fast snapshot.Snapshot
+			require.NoError(t, json.Unmarshal(b, &fast), f)
+			assert.Equal(t, normalised(s), normalised(fast), f)
+			slow, err := snapshot.DecodeByReflection(b)
+			require.NoError(t, err, f)
+			assert.Equal(t, normalised(slow), normalised(fast), f)
+		}
+	}
+}
+
+// TestSnapshotJSONRecords decodes a document written by hand from the
+// format's documentation (snapshotjson.go): the names derived from the
+// parent, the CTM inherited when a record has none, the tables, and null
+// read as 0.
+func TestSnapshotJSONRecords(t *testing.T) {
+	in := `{"v":2,"source":"page","path":"frame0/svg1","box":[1,2,3,4],"bg":4294967295,"sel":[2],"problems":["a\u00e9"],
+	"tags":["svg","g","circle","path"],
+	"paints":[0,0,0, 1,4278190335,0, 2,255,2,16711935,65535],
+	"strs":["M0,0L1,1","a label","custom/name"],
+	"nodes":[
+	  -1,0,0,1,0, 0,0, 1,1,1,1, 2,0,0,2,10,20,
+	  0,1,3,0,0, 1,0, 0.5,1,1,1,
+	  1,2,-1,2,1, 2,1, 1,1,null,2, 3,5,6,7,
+	  1,3,7,44,0, 1,0, 1,1,1,1, 1,2,3,4, 0,1,
+	  0,2,0,80,2, 0,0, 1,1,1,1, 1,2,
+	  0,2,9,130, 3,9,8,7
+	]}`
+	var s snapshot.Snapshot
+	require.NoError(t, json.Unmarshal([]byte(in), &s))
+	assert.Equal(t, snapshot.SnapshotVersion, s.Version)
+	assert.Equal(t, [4]float64{1, 2, 3, 4}, s.Box)
+	assert.Equal(t, uint32(0xffffffff), s.Background)
+	assert.Equal(t, []int32{2}, s.Selected)
+	assert.Equal(t, []string{"aé"}, s.Problems)
+	require.Len(t, s.Nodes, 6)
+	root, g, c, p, named, same := s.Nodes[0], s.Nodes[1], s.Nodes[2], s.Nodes[3], s.Nodes[4], s.Nodes[5]
+	assert.Equal(t, "frame0/svg1", root.Name)
+	assert.Equal(t, [6]float64{2, 0, 0, 2, 10, 20}, root.CTM)
+	assert.Equal(t, "frame0/svg1/g3", g.Name)
+	assert.Equal(t, root.CTM, g.CTM, "no CTM in the record: the parent's")
+	assert.Equal(t, snapshot.Paint{Kind: snapshot.PaintColour, RGBA: 0xff0000ff}, g.Fill)
+	assert.Equal(t, 0.5, g.FillOpacity)
+	assert.Equal(t, "frame0/svg1/g3>circle", c.Name)
+	assert.Equal(t, snapshot.Hidden, c.Flags)
+	assert.Equal(t, snapshot.Paint{Kind: snapshot.PaintServer, RGBA: 255, Stops: []uint32{0xff00ff, 0xffff}}, c.Fill)
+	assert.Equal(t, 0.0, c.Opacity, "null reads as 0")
+	assert.Equal(t, 2.0, c.StrokeWidth)
+	assert.Equal(t, []float64{5, 6, 7}, c.Geom)
+	assert.Equal(t, "frame0/svg1/g3/path7", p.Name)
+	assert.Equal(t, []float64{1, 2, 3, 4}, p.BBox)
+	assert.Equal(t, "M0,0L1,1", p.D)
+	assert.Equal(t, "a label", p.Label)
+	assert.Equal(t, "custom/name", named.Name)
+	assert.Equal(t, "a label", named.Text)
+	assert.Equal(t, "frame0/svg1/circle9", same.Name)
+	assert.Equal(t, []float64{9, 8, 7}, same.Geom)
+	assert.Equal(t, []any{named.Flags, named.Fill, named.Stroke, named.FillOpacity, named.StrokeOpacity, named.Opacity, named.StrokeWidth},
+		[]any{same.Flags, same.Fill, same.Stroke, same.FillOpacity, same.StrokeOpacity, same.Opacity, same.StrokeWidth}, "has 128: the previous record's style")
+
+	// What json.Marshal writes decodes to the same snapshot.
+	b, err := json.Marshal(s)
+	require.NoError(t, err)
+	var again snapshot.Snapshot
+	require.NoError(t, json.Unmarshal(b, &again))
+	assert.Equal(t, normalised(s), normalised(again))
+}
+
+func TestSnapshotJSONErrors(t *testing.T) {
+	head := `{"v":2,"path":"svg0","tags":["svg"],"paints":[0,0,0],"strs":["x"],"nodes":`
+	for name, bad := range map[string]string{
+		"old version":         `{"v":1,"nodes":[]}`,
+		"no version":          `{"nodes":[]}`,
+		"string version":      `{"v":"2"}`,
+		"unclosed":            `{"v":2`,
+		"not an object":       `[1]`,
+		"control character":   `{"v":2,"path":"\x01"}`,
+		"leading zero":        `{"v":02}`,
+		"trailing data":       `{"v":2} x`,
+		"box of three":        `{"v":2,"box":[1,2,3]}`,
+		"bad background":      `{"v":2,"bg":-1}`,
+		"bad paint kind":      `{"v":2,"paints":[7,0,0]}`,
+		"paint cut short":     `{"v":2,"paints":[1,0,2,5]}`,
+		"short record":        head + `[-1,0,0,0,0,0,0,1,1,1]}`,
+		"parent after":        head + `[0,0,0,0,0,0,0,1,1,1,1]}`,
+		"tag out of range":    head + `[-1,1,0,0,0,0,0,1,1,1,1]}`,
+		"paint out of range":  head + `[-1,0,0,0,0,1,0,1,1,1,1]}`,
+		"fractional index":    head + `[-1,0.5,0,0,0,0,0,1,1,1,1]}`,
+		"unknown has bit":     head + `[-1,0,0,256,0,0,0,1,1,1,1]}`,
+		"first repeats style": head + `[-1,0,0,128]}`,
+		"unknown flag":        head + `[-1,0,0,0,4,0,0,1,1,1,1]}`,
+		"string out of range": head + `[-1,0,0,8,0,0,0,1,1,1,1,1]}`,
+		"geometry too long":   head + `[-1,0,0,2,0,0,0,1,1,1,1,17]}`,
+		"geometry cut short":  head + `[-1,0,0,2,0,0,0,1,1,1,1,3,1]}`,
+		"selects nothing":     `{"v":2,"sel":[0]}`,
+	} {
+		var s snapshot.Snapshot
+		assert.Error(t, json.Unmarshal([]byte(bad), &s), name)
+		_, err := snapshot.DecodeByReflection([]byte(bad))
+		assert.Error(t, err, "%s: the oracle", name)
+	}
+}
+
+func TestDecodePage(t *testing.T) {
+	in := `{"source":"http://x/","readMs":3.5,"problems":["frame0: not readable"],"snapshots":[
+	{"v":2,"path":"svg0","tags":["svg","rect"],"paints":[0,0,0,1,255,0],"strs":[],
+	 "nodes":[-1,0,0,0,0,0,0,1,1,1,1, 0,1,0,2,0,1,0,1,1,1,1,6,0,0,10,20,-1,-1]}]}`
+	p, err := snapshot.DecodePage([]byte(in))
+	require.NoError(t, err)
+	assert.Equal(t, "http://x/", p.Source)
+	assert.Equal(t, []string{"frame0: not readable"}, p.Problems)
+	require.Len(t, p.Snapshots, 1)
+	require.Len(t, p.Snapshots[0].Nodes, 2)
+	assert.Equal(t, "svg0/rect0", p.Snapshots[0].Nodes[1].Name)
+	assert.Equal(t, []float64{0, 0, 10, 20, -1, -1}, p.Snapshots[0].Nodes[1].Geom)
+	_, err = snapshot.DecodePage([]byte(`{"snapshots":[{"v":1}]}`))
+	assert.ErrorContains(t, err, "snapshot 0")
+}
+
+func FuzzSnapshotJSON(f *testing.F) {
+	f.Add([]byte(`{"v":2,"path":"svg0","box":[0,0,10,10],"bg":4294967295,"tags":["svg","circle"],"paints":[0,0,0,1,255,0],"strs":["h\u00e9"],"nodes":[-1,0,0,0,0,0,0,1,1,1,1,0,1,0,18,0,1,0,1,1,1,1,3,1,2,3,0]}`))
+	f.Add([]byte(`{"v":2,"nodes":[],"problems":["a\\b"],"sel":[]}`))
+	f.Add([]byte(`{"v":2,"tags":["g"],"tags":["svg"],"nodes":[-1,0,0,65,0,0,0,1,1,1,1,1,2,3,4,5,6,0],"strs":["n"],"paints":[0,0,0],"V":2}`))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		slow, serr := snapshot.DecodeByReflection(b)
+		var fast snapshot.Snapshot
+		ferr := json.Unmarshal(b, &fast)
+		if (serr == nil) != (ferr == nil) {
+			t.Fatalf("on %q: encoding/json says %v, the scanner %v", b, serr, ferr)
+		}
+		if ferr != nil {
+			return
+		}
+		require.Equal(t, normalised(slow), normalised(fast), "decoders disagree on %q", b)
+		// What decodes, encodes and decodes again to the same snapshot.
+		again, err := json.Marshal(fast)
+		require.NoError(t, err)
+		var back snapshot.Snapshot
+		require.NoError(t, json.Unmarshal(again, &back), "%s", again)
+		require.Equal(t, normalised(fast), normalised(back))
+	})
+}
+
+// manyChartsPage is a read-pass result with n small charts (one circle
+// each), as a page of inline icons gives.
+func manyChartsPage(n int) []byte {
+	var b strings.Builder
+	b.WriteString(`{"source":"http://icons/","snapshots":[`)
+	for i := 0; i < n; i++ {
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		b.WriteString(`{"v":2,"path":"svg` + strconv.Itoa(i) + `","box":[0,0,16,16],"bg":4294967295,"tags":["svg","circle"],"paints":[0,0,0,1,255,0],"strs":[],"nodes":[-1,0,0,0,0,0,0,1,1,1,1,0,1,0,2,0,1,0,1,1,1,1,3,8,8,6]}`)
+	}
+	b.WriteString(`],"problems":[]}`)
+	return []byte(b.String())
+}
+
+// Issue 10: the decoder reserved, for every chart, room sized by the rest
+// of the page, so a page of 25,000 icons cost charts × page size and
+// drove the extension's core out of memory. Its cost is now linear.
+func TestIssue10DecodeManyChartsLinear(t *testing.T) {
+	in := manyChartsPage(25000)
+	var before, after runtime.MemStats
+	runtime.GC()
+	runtime.ReadMemStats(&before)
+	p, err := snapshot.DecodePage(in)
+	runtime.ReadMemStats(&after)
+	require.NoError(t, err)
+	require.Len(t, p.Snapshots, 25000)
+	// About 1 MB of JSON; the old decoder allocated about 9 GB here.
+	assert.Less(t, after.TotalAlloc-before.TotalAlloc, uint64(40*len(in)), "bytes allocated for %d input bytes", len(in))
+}
+
+// A request beyond snapshot.MaxPageNodes is refused with a message naming the cap.
+func TestIssue10DecodePageCap(t *testing.T) {
+	_, err := snapshot.DecodePage(manyChartsPage(snapshot.MaxPageNodes/2 + 1))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), strconv.Itoa(snapshot.MaxPageNodes))
+}
+
+// FuzzDecodePage checks the page decoder, many charts at a time, against
+// decoding each snapshot on its own with encoding/json's reflection.
+func FuzzDecodePage(f *testing.F) {
+	f.Add(manyChartsPage(3))
+	f.Add([]byte(`{"snapshots":[{"v":2,"nodes":[]},{"v":2,"tags":["svg"],"paints":[0,0,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,1]}],"source":"s"}`))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		var doc struct {
+			Snapshots []json.RawMessage `json:"snapshots"`
+		}
+		fast, ferr := snapshot.DecodePage(b)
+		if json.Unmarshal(b, &doc) != nil {
+			return
+		}
+		var want []snapshot.Snapshot
+		total := 0
+		var werr error
+		for _, raw := range doc.Snapshots {
+			s, err := snapshot.DecodeByReflection(raw)
+			if err != nil {
+				werr = err
+				break
+			}
+			total += len(s.Nodes)
+			want = append(want, s)
+		}
+		if werr == nil && total > snapshot.MaxPageNodes {
+			werr = errors.New("over the cap")
+		}
+		if (werr == nil) != (ferr == nil) {
+			t.Fatalf("on %q: one by one %v, the page decoder %v", b, werr, ferr)
+		}
+		if ferr != nil {
+			return
+		}
+		require.Len(t, fast.Snapshots, len(want))
+		for i := range want {
+			require.Equal(t, normalised(want[i]), normalised(fast.Snapshots[i]))
+		}
+	})
+}

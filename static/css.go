@@ -1,0 +1,217 @@
+package static
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/andybalholm/cascadia"
+	"github.com/tdewolff/parse/v2"
+	"github.com/tdewolff/parse/v2/css"
+)
+
+// decl is one declaration: a property and its value as written.
+type decl struct {
+	prop      string
+	value     string
+	important bool
+}
+
+// rule is a style rule with one selector of its selector list.
+type rule struct {
+	sel   cascadia.Sel
+	spec  int // specificity packed as a·2²⁰ + b·2¹⁰ + c
+	order int
+	decls []decl
+}
+
+// parseSheet parses a style sheet with tdewolff/parse's CSS parser. Rules
+// inside @media are kept unless the media query mentions only print
+// (there is no layout to test other queries against); other at-rules
+// (@font-face, @keyframes, …) are skipped. Selectors cascadia cannot
+// compile, and parse errors, are returned as problems; the rules that did
+// parse are kept.
+func parseSheet(text string, order *int, where string, budget *matchBudget) ([]rule, []string) {
+	var rules []rule
+	var problems []string
+	p := css.NewParser(parse.NewInputString(text), false)
+	var stack []bool // for each open at-rule: whether its contents apply
+	applies := func() bool {
+		for _, s := range stack {
+			if !s {
+				return false
+			}
+		}
+		return true
+	}
+	var cur []cascadia.Sel
+	var curDecls []decl
+	zero := false
+	inRule := false
+	for {
+		gt, _, data := p.Next()
+		switch gt {
+		case css.ErrorGrammar:
+			if err := p.Err(); err != nil && err.Error() != "EOF" {
+				problems = append(problems, fmt.Sprintf("%s: CSS error, the rest of the style sheet is ignored: %s", where, firstLine(err.Error())))
+			}
+			return rules, problems
+		case css.BeginAtRuleGrammar:
+			name := strings.ToLower(string(data))
+			ok := false
+			if name == "@media" || name == "@supports" || name == "@layer" || name == "@container" {
+				q := strings.ToLower(joinTokens(p.Values()))
+				ok = !(name == "@media" && strings.Contains(q, "print") && !strings.Contains(q, "screen") && !strings.Contains(q, "all"))
+			}
+			stack = append(stack, ok)
+		case css.EndAtRuleGrammar:
+			if len(stack) > 0 {
+				stack = stack[:len(stack)-1]
+			}
+		case css.BeginRulesetGrammar, css.QualifiedRuleGrammar:
+			text := joinTokens(p.Values())
+			cur = cur[:0]
+			zero = false
+			group, err := compileGroup(text, budget)
+			if err != nil {
+				// cascadia lacks :where(); a selector list made only of
+				// :where(…) wrappers matches like its contents with zero
+				// specificity (Selectors 4 §4.4).
+				if inner, ok := unwrapWhere(text); ok {
+					if g2, err2 := compileGroup(inner, budget); err2 == nil {
+						group, err, zero = g2, nil, true
+					}
+				}
+			}
+			if err != nil {
+				problems = append(problems, fmt.Sprintf("%s: selector %q is not supported and its rule is ignored (%v)", where, clip(text, 80), err))
+			}
+			for _, s := range group {
+				cur = append(cur, s)
+			}
+			curDecls = nil
+			inRule = gt == css.BeginRulesetGrammar
+		case css.DeclarationGrammar, css.CustomPropertyGrammar:
+			if inRule {
+				if d, ok := makeDecl(string(data), p.Values(), gt == css.CustomPropertyGrammar); ok {
+					curDecls = append(curDecls, d)
+				}
+			}
+		case css.EndRulesetGrammar:
+			if inRule && applies() && len(curDecls) > 0 {
+				for _, s := range cur {
+					sp := s.Specificity()
+					if zero {
+						sp = cascadia.Specificity{}
+					}
+					*order++
+					rules = append(rules, rule{sel: s, spec: sp[0]<<20 | sp[1]<<10 | sp[2], order: *order, decls: curDecls})
+				}
+			}
+			inRule = false
+		}
+	}
+}
+
+// parseDecls parses the declarations of a style attribute.
+func parseDecls(text string) ([]decl, error) {
+	var out []decl
+	p := css.NewParser(parse.NewInputString(text), true)
+	for {
+		gt, _, data := p.Next()
+		switch gt {
+		case css.ErrorGrammar:
+			if err := p.Err(); err != nil && err.Error() != "EOF" {
+				return out, err
+			}
+			return out, nil
+		case css.DeclarationGrammar, css.CustomPropertyGrammar:
+			if d, ok := makeDecl(string(data), p.Values(), gt == css.CustomPropertyGrammar); ok {
+				out = append(out, d)
+			}
+		}
+	}
+}
+
+func makeDecl(prop string, vals []css.Token, custom bool) (decl, bool) {
+	if custom {
+		v := joinTokens(vals)
+		imp := false
+		if t := strings.TrimSpace(v); strings.HasSuffix(strings.ToLower(t), "!important") {
+			v, imp = strings.TrimSpace(t[:len(t)-len("!important")]), true
+		}
+		return decl{prop: prop, value: strings.TrimSpace(v), important: imp}, true
+	}
+	imp := false
+	n := len(vals)
+	for n > 0 && vals[n-1].TokenType == css.WhitespaceToken {
+		n--
+	}
+	if n >= 2 && vals[n-1].TokenType == css.IdentToken && strings.EqualFold(string(vals[n-1].Data), "important") &&
+		vals[n-2].TokenType == css.DelimToken && string(vals[n-2].Data) == "!" {
+		imp = true
+		n -= 2
+	}
+	v := strings.TrimSpace(joinTokens(vals[:n]))
+	if v == "" {
+		return decl{}, false
+	}
+	return decl{prop: strings.ToLower(prop), value: v, important: imp}, true
+}
+
+func joinTokens(vals []css.Token) string {
+	var b strings.Builder
+	for _, v := range vals {
+		if v.TokenType == css.CommentToken {
+			continue
+		}
+		if v.TokenType == css.WhitespaceToken {
+			b.WriteByte(' ')
+			continue
+		}
+		b.Write(v.Data)
+	}
+	return b.String()
+}
+
+func firstLine(s string) string {
+	if i := strings.IndexByte(s, '\n'); i >= 0 {
+		return s[:i]
+	}
+	return s
+}
+
+func clip(s string, n int) string {
+	if len(s) <= n {
+		return s
+	}
+	return s[:n] + "…"
+}
+
+// unwrapWhere turns ":where(a b),:where(c)" into "a b,c". It reports false
+// when any part of the list is not a single :where(…).
+func unwrapWhere(sel string) (string, bool) {
+	var parts []string
+	depth, start := 0, 0
+	for i := 0; i < len(sel); i++ {
+		switch sel[i] {
+		case '(':
+			depth++
+		case ')':
+			depth--
+		case ',':
+			if depth == 0 {
+				parts = append(parts, sel[start:i])
+				start = i + 1
+			}
+		}
+	}
+	parts = append(parts, sel[start:])
+	for i, p := range parts {
+		p = strings.TrimSpace(p)
+		if !strings.HasPrefix(p, ":where(") || !strings.HasSuffix(p, ")") {
+			return "", false
+		}
+		parts[i] = p[len(":where(") : len(p)-1]
+	}
+	return strings.Join(parts, ","), true
+}

@@ -1,0 +1,138 @@
+package static
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"standout/marks"
+	"standout/snapshot"
+	"strings"
+	"testing"
+)
+
+// Seeds come from every fixture in testdata/ plus the cases below. Each
+// target checks a property, not just the absence of a panic.
+
+func seedFiles(f *testing.F) [][]byte {
+	var out [][]byte
+	files, _ := filepath.Glob("../testdata/*.*")
+	for _, p := range files {
+		if strings.HasSuffix(p, ".golden") {
+			continue
+		}
+		if b, err := os.ReadFile(p); err == nil {
+			out = append(out, b)
+		}
+	}
+	return out
+}
+
+func finite(vs ...float64) bool {
+	for _, v := range vs {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return false
+		}
+	}
+	return true
+}
+
+func FuzzTransform(f *testing.F) {
+	for _, s := range []string{"translate(1,2)", "rotate(45 1 1) scale(2)", "matrix(1 0 0 1 0 0)", "skewX(30)skewY(-10)", "translate(1-2)"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		m, err := ParseTransform(s)
+		if err != nil {
+			if m != snapshot.IdentityMatrix {
+				t.Fatalf("error %v but matrix %v", err, m)
+			}
+			return
+		}
+		// Each parsed number is finite; products of a few may overflow
+		// only for huge inputs, which the grammar allows.
+		_ = m
+	})
+}
+
+func FuzzColor(f *testing.F) {
+	for _, s := range []string{"red", "#abc", "#aabbccdd", "rgb(1 2 3 / 50%)", "hsla(120deg, 50%, 50%, .3)", "transparent", "rgb(300,-5,1e3)"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		c, err := ParseColor(s)
+		if err != nil {
+			return
+		}
+		for _, v := range []float64{c.R, c.G, c.B, c.A} {
+			if !(v >= 0 && v <= 1) {
+				t.Fatalf("%q parsed to out-of-range %+v", s, c)
+			}
+		}
+		// The packed form round-trips through snapshot.Hex.
+		if h := snapshot.Hex(snapshot.RGBA(c)); len(h) != 7 || h[0] != '#' {
+			t.Fatalf("bad hex %q", h)
+		}
+	})
+}
+
+func FuzzStyle(f *testing.F) {
+	for _, s := range []string{"fill: red; stroke: var(--x, blue) !important", "--a: 1; fill: var(--a)", "fill: light-dark(red, blue)", "fill:;;;", "}{"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		if len(s) > 1<<14 {
+			return
+		}
+		doc := `<svg width="100" height="100"><style>.a{` + s + `}</style><circle class="a" cx="5" cy="5" r="4" style="` + strings.ReplaceAll(s, `"`, "") + `"/></svg>`
+		p, err := Build(strings.NewReader(doc), Options{Source: "fuzz"})
+		if err != nil {
+			t.Fatalf("style %q: %v", s, err)
+		}
+		for _, ch := range p.Charts {
+			for _, n := range ch.Nodes {
+				if !(n.FillOpacity >= 0 && n.FillOpacity <= 1 && n.Opacity >= 0 && n.Opacity <= 1 && n.StrokeWidth >= 0) {
+					t.Fatalf("style %q gave node %+v", s, n)
+				}
+			}
+		}
+	})
+}
+
+func FuzzDocument(f *testing.F) {
+	for _, b := range seedFiles(f) {
+		f.Add(b)
+	}
+	f.Add([]byte(`<svg><g><circle r="NaN"/><rect width="Infinity" height="1"/><path d="M0,0L1e400,0"/>`))
+	f.Add([]byte(`<svg viewBox="0 0 0 0"><use href="#a" id="a"/></svg>`))
+	f.Add([]byte(`<svg><g transform="scale(1e300)"><g transform="scale(1e300)"><circle r="1"/></g></g></svg>`))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		if len(b) > 1<<18 {
+			return
+		}
+		p, err := Build(bytes.NewReader(b), Options{Source: "fuzz"})
+		if err != nil {
+			return
+		}
+		// Snapshots cross to JavaScript as JSON, which has no NaN or
+		// infinity: they must always encode.
+		if _, err := json.Marshal(p.Charts); err != nil {
+			t.Fatalf("snapshot does not encode: %v", err)
+		}
+		for i := range p.Charts {
+			ch, err := marks.Walk(&p.Charts[i])
+			if err != nil {
+				t.Fatalf("walk: %v", err)
+			}
+			for _, m := range ch.Marks {
+				if !finite(m.BBox[0], m.BBox[1], m.BBox[2], m.BBox[3], m.Angle, m.Opacity) {
+					t.Fatalf("mark %s has non-finite geometry %+v", m.ID, m)
+				}
+				if m.Opacity < 0 || m.Opacity > 1 {
+					t.Fatalf("mark %s opacity %v", m.ID, m.Opacity)
+				}
+			}
+		}
+	})
+}

@@ -1,0 +1,351 @@
+package static
+
+import (
+	"math"
+	"strconv"
+	"strings"
+
+	"github.com/tdewolff/parse/v2/css"
+	"golang.org/x/net/html"
+)
+
+// The properties the cascade resolves. Everything else is ignored.
+const (
+	pFill = iota
+	pStroke
+	pFillOpacity
+	pStrokeOpacity
+	pOpacity
+	pStrokeWidth
+	pDisplay
+	pVisibility
+	pColor
+	pFontSize
+	pStopColor
+	pStopOpacity
+	pBackgroundColor
+	pBackground
+	nProps
+)
+
+var propIndex = map[string]int{
+	"fill": pFill, "stroke": pStroke, "fill-opacity": pFillOpacity, "stroke-opacity": pStrokeOpacity,
+	"opacity": pOpacity, "stroke-width": pStrokeWidth, "display": pDisplay, "visibility": pVisibility,
+	"color": pColor, "font-size": pFontSize,
+	"stop-color": pStopColor, "stop-opacity": pStopOpacity,
+	"background-color": pBackgroundColor, "background": pBackground,
+}
+
+// inherited marks the properties that inherit by default (SVG 2 property
+// index; CSS 2 for color, font-size, visibility).
+var inherited = [nProps]bool{
+	pFill: true, pStroke: true, pFillOpacity: true, pStrokeOpacity: true, pStrokeWidth: true,
+	pVisibility: true, pColor: true, pFontSize: true,
+}
+
+// initial values (SVG 2, CSS 2; color's initial value is CanvasText, black
+// in a light colour scheme).
+var initial = [nProps]string{
+	pFill: "black", pStroke: "none", pFillOpacity: "1", pStrokeOpacity: "1", pOpacity: "1",
+	pStrokeWidth: "1", pDisplay: "inline", pVisibility: "visible", pColor: "black",
+	pFontSize: "16px", pStopColor: "black", pStopOpacity: "1",
+	pBackgroundColor: "transparent", pBackground: "",
+}
+
+// computed is the computed style of one element: for each property its
+// value after cascade, inheritance, var() and light-dark() substitution.
+// Paints keep currentColor as a keyword; it is resolved against Color.
+type computed struct {
+	v      [nProps]string
+	custom map[string]string // custom properties, shared with the parent until one is declared
+}
+
+// cascader resolves styles for a document.
+type cascader struct {
+	rules    []rule
+	matched  map[*html.Node][]decl // per element: the rule declarations that match, in cascade order
+	problems *[]string
+	dark     bool
+	// budget bounds the selector tests of the whole build.
+	budget matchBudget
+}
+
+type prio struct {
+	important bool
+	level     int // 0 presentation attribute, 1 author sheet, 2 style attribute
+	spec      int
+	order     int
+}
+
+func (a prio) less(b prio) bool {
+	if a.important != b.important {
+		return !a.important
+	}
+	if a.important && a.level != b.level {
+		// Among !important declarations the style attribute still wins.
+		return a.level < b.level
+	}
+	if a.level != b.level {
+		return a.level < b.level
+	}
+	if a.spec != b.spec {
+		return a.spec < b.spec
+	}
+	return a.order < b.order
+}
+
+// presentation lists the SVG presentation attributes the cascade reads.
+var presentation = []string{"fill", "stroke", "fill-opacity", "stroke-opacity", "opacity", "stroke-width",
+	"display", "visibility", "color", "font-size", "clip-path", "mask", "stop-color", "stop-opacity", "pointer-events"}
+
+// compute returns n's computed style given its parent's (nil for the root).
+// Inline-style parse errors are recorded as problems.
+func (c *cascader) compute(n *html.Node, parent *computed, name string) *computed {
+	var declared [nProps]string
+	var have [nProps]prio
+	var set [nProps]bool
+	var customs map[string]string
+	var customPrio map[string]prio
+	put := func(d decl, p prio) {
+		if strings.HasPrefix(d.prop, "--") {
+			if customs == nil {
+				customs, customPrio = map[string]string{}, map[string]prio{}
+			}
+			if old, ok := customPrio[d.prop]; !ok || old.less(p) || old == p {
+				customs[d.prop], customPrio[d.prop] = d.value, p
+			}
+			return
+		}
+		i, ok := propIndex[d.prop]
+		if !ok {
+			return
+		}
+		if !set[i] || have[i].less(p) || have[i] == p {
+			declared[i], have[i], set[i] = d.value, p, true
+		}
+	}
+	isSVG := n.Namespace == "svg"
+	var style string
+	for _, a := range n.Attr {
+		if a.Namespace != "" {
+			continue
+		}
+		if a.Key == "style" {
+			style = a.Val
+			continue
+		}
+		if isSVG {
+			for _, pa := range presentation {
+				if a.Key == pa {
+					put(decl{prop: pa, value: strings.TrimSpace(a.Val)}, prio{level: 0})
+				}
+			}
+		}
+	}
+	for _, r := range c.rules {
+		if r.sel.Match(n) {
+			for _, d := range r.decls {
+				put(d, prio{important: d.important, level: 1, spec: r.spec, order: r.order})
+			}
+		}
+	}
+	if style != "" {
+		ds, err := parseDecls(style)
+		if err != nil {
+			*c.problems = append(*c.problems, name+": style attribute has a CSS error, the rest of it is ignored: "+firstLine(err.Error()))
+		}
+		for i, d := range ds {
+			put(d, prio{important: d.important, level: 2, order: i})
+		}
+	}
+
+	out := &computed{}
+	if parent != nil {
+		out.custom = parent.custom
+	}
+	if customs != nil {
+		m := make(map[string]string, len(customs)+len(out.custom))
+		for k, v := range out.custom {
+			m[k] = v
+		}
+		for k, v := range customs {
+			m[k] = v
+		}
+		// Custom properties may refer to each other; resolve now.
+		for k, v := range m {
+			if strings.Contains(v, "(") {
+				m[k] = substitute(v, m, c.dark, 0)
+			}
+		}
+		out.custom = m
+	}
+	for i := 0; i < nProps; i++ {
+		v := declared[i]
+		if set[i] && strings.Contains(v, "(") {
+			v = substitute(v, out.custom, c.dark, 0)
+		}
+		lv := strings.ToLower(v)
+		switch {
+		case !set[i] || lv == "unset" || v == "":
+			if inherited[i] && parent != nil {
+				out.v[i] = parent.v[i]
+			} else {
+				out.v[i] = initial[i]
+			}
+		case lv == "inherit":
+			if parent != nil {
+				out.v[i] = parent.v[i]
+			} else {
+				out.v[i] = initial[i]
+			}
+		case lv == "initial" || lv == "revert" || lv == "revert-layer":
+			out.v[i] = initial[i]
+		default:
+			out.v[i] = v
+		}
+	}
+	if set[pFontSize] {
+		base := 16.0
+		if parent != nil {
+			base = fontSize(parent.v[pFontSize], 16)
+		}
+		out.v[pFontSize] = strconv.FormatFloat(fontSize(out.v[pFontSize], base), 'g', -1, 64) + "px"
+	}
+	return out
+}
+
+// substitute replaces var(--x, fallback) and light-dark(a, b) in a value.
+// References to undefined properties without a fallback make the value
+// invalid at computed-value time, which is returned as "" (unset).
+func substitute(v string, custom map[string]string, dark bool, depth int) string {
+	if depth > 16 {
+		return ""
+	}
+	toks := tokens(v)
+	var b strings.Builder
+	for i := 0; i < len(toks); i++ {
+		t := toks[i]
+		if t.tt != css.FunctionToken {
+			b.WriteString(t.s)
+			continue
+		}
+		fn := strings.ToLower(t.s)
+		if fn != "var(" && fn != "light-dark(" {
+			b.WriteString(t.s)
+			continue
+		}
+		// Collect the arguments up to the matching parenthesis.
+		depthP := 1
+		var args [][]token
+		var curArg []token
+		j := i + 1
+		for ; j < len(toks) && depthP > 0; j++ {
+			switch toks[j].tt {
+			case css.FunctionToken, css.LeftParenthesisToken:
+				depthP++
+			case css.RightParenthesisToken:
+				depthP--
+				if depthP == 0 {
+					continue
+				}
+			case css.CommaToken:
+				if depthP == 1 {
+					args = append(args, curArg)
+					curArg = nil
+					continue
+				}
+			}
+			curArg = append(curArg, toks[j])
+		}
+		args = append(args, curArg)
+		i = j - 1
+		str := func(ts []token) string {
+			var s strings.Builder
+			for _, t := range ts {
+				s.WriteString(t.s)
+			}
+			return strings.TrimSpace(s.String())
+		}
+		if fn == "light-dark(" {
+			if len(args) != 2 {
+				return ""
+			}
+			pick := args[0]
+			if dark {
+				pick = args[1]
+			}
+			b.WriteString(substitute(str(pick), custom, dark, depth+1))
+			continue
+		}
+		name := str(args[0])
+		if val, ok := custom[name]; ok && val != "" {
+			b.WriteString(substitute(val, custom, dark, depth+1))
+			continue
+		}
+		if len(args) >= 2 {
+			fb := make([]token, 0)
+			for k, a := range args[1:] {
+				if k > 0 {
+					fb = append(fb, token{css.CommaToken, ","})
+				}
+				fb = append(fb, a...)
+			}
+			b.WriteString(substitute(str(fb), custom, dark, depth+1))
+			continue
+		}
+		return ""
+	}
+	return b.String()
+}
+
+// fontSize resolves a font-size value in px against the parent's size.
+func fontSize(v string, parent float64) float64 {
+	v = strings.TrimSpace(strings.ToLower(v))
+	keywords := map[string]float64{"xx-small": 9, "x-small": 10, "small": 13, "medium": 16, "large": 18, "x-large": 24, "xx-large": 32}
+	if k, ok := keywords[v]; ok {
+		return k
+	}
+	if l, ok := length(v, parent); ok && l >= 0 {
+		return l
+	}
+	return parent
+}
+
+// length parses a CSS/SVG length in px; percentages and em resolve against
+// ref. A unitless number is user units (px).
+func length(v string, ref float64) (float64, bool) {
+	v = strings.TrimSpace(strings.ToLower(v))
+	units := []struct {
+		u string
+		f float64
+	}{{"px", 1}, {"pt", 96.0 / 72}, {"pc", 16}, {"in", 96}, {"cm", 96 / 2.54}, {"mm", 96 / 25.4}, {"q", 96 / 101.6}, {"rem", 16}, {"em", ref}, {"ex", ref / 2}, {"%", ref / 100}}
+	for _, u := range units {
+		if strings.HasSuffix(v, u.u) {
+			x, err := strconv.ParseFloat(strings.TrimSpace(v[:len(v)-len(u.u)]), 64)
+			if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {
+				return 0, false
+			}
+			return x * u.f, true
+		}
+	}
+	x, err := strconv.ParseFloat(v, 64)
+	if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {
+		return 0, false
+	}
+	return x, true
+}
+
+// number01 parses an opacity-like value (number or percentage), clamped
+// to [0, 1]; bad values give def.
+func number01(v string, def float64) float64 {
+	v = strings.TrimSpace(v)
+	pct := strings.HasSuffix(v, "%")
+	x, err := strconv.ParseFloat(strings.TrimSuffix(v, "%"), 64)
+	if err != nil || math.IsNaN(x) {
+		return def
+	}
+	if pct {
+		x /= 100
+	}
+	return min(max(x, 0), 1)
+}
