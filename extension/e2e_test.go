@@ -42,6 +42,7 @@ import (
 	"standout/internal/report"
 	"standout/marks"
 	"standout/perception/colour"
+	"standout/static"
 )
 
 var (
@@ -474,7 +475,9 @@ func TestE2EOverlayMatchesStaticPath(t *testing.T) {
 	for _, pg := range pages {
 		h.showPage(string(pg.body))
 		layers := layerRects(t, h.overlayHTML())
-		static, _, err := report.CheckFile(pg.name, bytes.NewReader(pg.body), report.DefaultOptions)
+		built, err := static.Build(bytes.NewReader(pg.body), static.Options{Source: pg.name})
+		require.NoError(t, err)
+		static, err := report.FromSnapshots(pg.name, built.Charts, built.Problems, report.DefaultOptions)
 		require.NoError(t, err)
 		charts, checked := 0, 0
 		for _, c := range static.Charts {

@@ -8,15 +8,19 @@ import "embed"
 // Files are the extension's source files (manifests and scripts). The
 // WebAssembly core and wasm_exec.js are added at build time.
 //
-//go:embed manifest.json manifest.firefox.json background.js reader.js overlay.js cvd-filters.js press.js export.html export.js
+//go:embed manifest.json manifest.firefox.json background.js reader.js overlay.js constants.js cvd-filters.js press.js export.html export.js
 var Files embed.FS
 
-// Reader is the read pass (reader.js), shared with the browser mode of the
-// command-line tool.
+// Reader is the read pass (reader.js, after the constants it reads from
+// constants.js), shared with the browser mode of the command-line tool.
 func Reader() string {
+	c, err := Files.ReadFile(ConstantsFile)
+	if err != nil {
+		panic("extension: constants.js missing from the embedded files")
+	}
 	b, err := Files.ReadFile("reader.js")
 	if err != nil {
 		panic("extension: reader.js missing from the embedded files")
 	}
-	return string(b)
+	return string(c) + "\n" + string(b)
 }

@@ -9,22 +9,18 @@
   const SVG_NS = 'http://www.w3.org/2000/svg';
   const VISIONS = ['normal', 'protan', 'deutan', 'tritan', 'achromat'];
 
-  // The visual language, our own, redundant for readers with CVD: each
-  // verdict differs in line width and style and in a corner mark, not in
-  // colour alone. The marks that blend in, usually nearly all of them,
-  // get a plain thin line with no white halo: dashes and halos on
-  // thousands of outlines cost the browser's software rasteriser hundreds
-  // of milliseconds a frame.
-  const STYLE = {
-    pops: { colour: '#0f766e', width: 2.5, dash: '', corner: 'notch', halo: true },
-    conjunction: { colour: '#b45309', width: 2, dash: '7 3', corner: 'ring', halo: true },
-    blends: { colour: '#52525b', width: 1, dash: '', corner: '', halo: false },
-  };
-  const WORDS = {
-    pops: 'stands out at a glance',
-    conjunction: 'found only by a slow search (a conjunction of features)',
-    blends: 'blends in',
-  };
+  // The visual language, redundant for readers with CVD: each verdict
+  // differs in line width and style and in a corner mark, not in colour
+  // alone (internal/report/look.go, generated into constants.js; the
+  // annotated PNGs of the command line draw the same).
+  const STYLE = {};
+  const WORDS = {};
+  const VERDICT_OF = {};
+  for (const v of globalThis.standoutConstants.VERDICTS) {
+    STYLE[v.verdict] = v;
+    WORDS[v.verdict] = v.words;
+    VERDICT_OF[v.letter] = v.verdict;
+  }
 
   const CSS = `
   :host { all: initial; }
@@ -157,7 +153,6 @@
     return d;
   }
 
-  const VERDICT_OF = { p: 'pops', c: 'conjunction', b: 'blends' };
 
   // byVerdict lists a chart's mark indices per verdict.
   function byVerdict(chart) {

@@ -1,6 +1,6 @@
 // The read pass: one walk over the live page that turns every inline SVG
-// chart into the snapshot that Go's dom.Walk reads (see dom/snapshot.go for
-// the format). The extension injects this file into the page, and the
+// chart into the snapshot that Go's marks.Walk reads (see snapshot/json.go
+// for the format, and constants.js for its numbers, generated from Go). The extension injects this file into the page, and the
 // command line's browser mode evaluates the very same file, so the two
 // ways in share one reader.
 //
@@ -8,30 +8,16 @@
 (() => {
   if (globalThis.standoutReader) return;
 
-  const SNAPSHOT_VERSION = 2;
-  // What one check reads at most, as the Go core accepts (dom/build.go:
-  // MaxNodes, MaxPageNodes, MaxUseNodes; a test keeps them equal). A
-  // chart beyond a cap is not read and the page says so: a partial chart
-  // would be judged wrongly.
-  const MAX_CHART_NODES = 524288;
-  const MAX_PAGE_NODES = 1048576;
-  const MAX_USE_NODES = 100000;
+  // The wire format's numbers, the limits both ways in share (a chart
+  // beyond a cap is not read and the page says so: a partial chart would
+  // be judged wrongly) and the geometry layouts, generated from Go
+  // (constants.js).
+  const C = globalThis.standoutConstants;
+  const { SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES, NAME_USE, GEOM_AUTO } = C;
+  const notRendered = new Set(C.NOT_RENDERED);
   // The read pass hands the tab back to the page after this much work
   // (ms), so that a large page stays responsive while it is read.
   const SLICE_MS = 40;
-  // Elements whose content is never rendered directly (dom/build.go).
-  const NOT_RENDERED = new Set([
-    'defs', 'clippath', 'mask', 'marker', 'pattern', 'symbol', 'lineargradient',
-    'radialgradient', 'style', 'script', 'metadata', 'foreignobject', 'filter',
-  ]);
-  const GEOM = {
-    rect: ['x', 'y', 'width', 'height', 'rx', 'ry'],
-    image: ['x', 'y', 'width', 'height'],
-    circle: ['cx', 'cy', 'r'],
-    ellipse: ['cx', 'cy', 'rx', 'ry'],
-    line: ['x1', 'y1', 'x2', 'y2'],
-    text: ['x', 'y'],
-  };
   const SHAPES = new Set(['circle', 'ellipse', 'rect', 'line', 'polyline', 'polygon', 'path', 'text', 'image']);
   const SVG_NS = 'http://www.w3.org/2000/svg';
   const PLAIN_NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
@@ -107,8 +93,8 @@
     return st[st.length - 1][1];
   }
 
-  // Computed fill or stroke to a Paint: {k: 0 none | 1 colour | 2 server,
-  // c: colour, st: stops}.
+  // Computed fill or stroke to a Paint: {k: its kind (PAINT_COLOUR or
+  // PAINT_SERVER), c: colour, st: stops}; null for none.
   function paintOf(v, root) {
     if (!v || v === 'none') return null;
     if (v.startsWith('url(')) {
@@ -119,7 +105,7 @@
         if (n === 'lineargradient' || n === 'radialgradient') {
           const st = stops(el, root, 0);
           if (st.length === 0) return null;
-          return { k: 2, c: stopAt(st, 0.5), st: st.map((s) => s[1]) };
+          return { k: C.PAINT_SERVER, c: stopAt(st, 0.5), st: st.map((s) => s[1]) };
         }
         if (n === 'pattern') {
           const list = [];
@@ -137,7 +123,7 @@
             if (area > bestArea) { best = col; bestArea = area; }
           }
           if (list.length === 0) return null;
-          return { k: 2, c: best, st: list };
+          return { k: C.PAINT_SERVER, c: best, st: list };
         }
       }
       if (m && m[2]) return paintOf(m[2], root);
@@ -145,7 +131,7 @@
     }
     const c = packColour(v);
     if (c === null) return null;
-    return { k: 1, c, st: [] };
+    return { k: C.PAINT_COLOUR, c, st: [] };
   }
 
   function num(v) {
@@ -161,13 +147,13 @@
   // them, onto out (count first), and for text its font size; false when
   // the tag has none.
   function geometry(el, tag, out, fontSize) {
-    const keys = GEOM[tag];
+    const keys = C.GEOM[tag];
     if (!keys) return false;
     out.push(keys.length + (tag === 'text' ? 1 : 0));
     for (const k of keys) {
       const a = el.getAttribute(k);
       if (a === null || a === '') {
-        out.push((tag === 'rect' || tag === 'image') && (k === 'rx' || k === 'ry') ? -1 : 0);
+        out.push(tag === 'rect' && (k === 'rx' || k === 'ry') ? GEOM_AUTO : 0);
         continue;
       }
       // Plain numbers (the usual case) parse directly; lengths with units
@@ -327,25 +313,13 @@
   }
 
   const IDENTITY = [1, 0, 0, 1, 0, 0];
-  // The optional fields of a node record (dom/snapshotjson.go).
-  const HAS_CTM = 1;
-  const HAS_GEOM = 2;
-  const HAS_BBOX = 4;
-  const HAS_D = 8;
-  const HAS_TEXT = 16;
-  const HAS_LABEL = 32;
-  const HAS_NAME = 64;
-  const HAS_SAME_STYLE = 128;
-  // A style: flags, fill, stroke, fill-opacity, stroke-opacity, opacity,
-  // stroke-width, as a record holds them.
-  const S_FILL = 1;
-  const S_STROKE = 2;
-  const S_FO = 3;
-  const S_SO = 4;
-  const S_SW = 6;
+  // The optional fields of a node record and the slots of its style
+  // (snapshot/json.go).
+  const { HAS_CTM, HAS_GEOM, HAS_BBOX, HAS_D, HAS_TEXT, HAS_LABEL, HAS_NAME, HAS_SAME_STYLE } = C;
+  const { STYLE_FILL, STYLE_STROKE, STYLE_FILL_OPACITY, STYLE_STROKE_OPACITY, STYLE_STROKE_WIDTH } = C;
 
   // Reads one outermost <svg> into a snapshot in its columnar JSON form
-  // (dom/snapshotjson.go). off maps the client coordinates of the
+  // (snapshot/json.go). off maps the client coordinates of the
   // element's own window to page coordinates of the top document, in CSS
   // px (the scroll offset, plus the frame's position for charts inside
   // frames).
@@ -473,16 +447,16 @@
         sw = Math.max(0, parseFloat(cs.strokeWidth) || 0);
       }
       if (dp) {
-        if (cs.fill === dp.fill) fi = up[S_FILL];
-        if (cs.stroke === dp.stroke) si = up[S_STROKE];
-        if (cs.fillOpacity === dp.fillOpacity) fo = up[S_FO];
-        if (cs.strokeOpacity === dp.strokeOpacity) so = up[S_SO];
-        if (cs.strokeWidth === dp.strokeWidth) sw = up[S_SW];
+        if (cs.fill === dp.fill) fi = up[STYLE_FILL];
+        if (cs.stroke === dp.stroke) si = up[STYLE_STROKE];
+        if (cs.fillOpacity === dp.fillOpacity) fo = up[STYLE_FILL_OPACITY];
+        if (cs.strokeOpacity === dp.strokeOpacity) so = up[STYLE_STROKE_OPACITY];
+        if (cs.strokeWidth === dp.strokeWidth) sw = up[STYLE_STROKE_WIDTH];
       }
       let x = 0;
-      if (cs.display === 'none') x |= 1;
+      if (cs.display === 'none') x |= C.NODE_HIDDEN;
       const vis = cs.visibility;
-      if (vis === 'hidden' || vis === 'collapse') x |= 2;
+      if (vis === 'hidden' || vis === 'collapse') x |= C.NODE_INVISIBLE;
       const fontSize = tag === 'text' ? parseFloat(cs.fontSize) || 16 : 0;
       return [x, fi, si, fo, so, clamp01(num(cs.opacity)), sw, fontSize];
     };
@@ -518,7 +492,7 @@
         st = styleOf(el, tag, null);
       }
       const x = st[0];
-      nodes.push(parent, tagOf(tag), k < 0 ? -1 : k, 0);
+      nodes.push(parent, tagOf(tag), k < 0 ? NAME_USE : k, 0);
       let has = pushStyle(x, st[1], st[2], st[3], st[4], st[5], st[6]);
       if (!sameMatrix(m, parent >= 0 ? ctms[parent] : IDENTITY)) {
         has |= HAS_CTM;
@@ -555,7 +529,7 @@
       }
       nodes[at + 3] = has;
       if (el.hasAttribute('data-standout-emphasis') || (emphasis && el.matches(emphasis))) sel.push(idx);
-      if (isText || NOT_RENDERED.has(tag)) return;
+      if (isText || notRendered.has(tag)) return;
       if (tag === 'use') {
         expandUse(el, idx, m, useDepth);
         return;
@@ -585,10 +559,10 @@
       const uy = el.y ? el.y.baseVal.value : 0;
       const base = mul(m, [1, 0, 0, 1, ux, uy]);
       if (target.localName !== 'symbol') {
-        add(target, idx, -1, null, base, depth + 1);
+        add(target, idx, NAME_USE, null, base, depth + 1);
         return;
       }
-      // As the static builder does (dom/build.go): a symbol is a nested
+      // As the static builder does (static/build.go): a symbol is a nested
       // viewport sized by the use's width and height (else its own, else
       // 100), mapped from its viewBox, and renders like a <g> holding its
       // children.
@@ -613,9 +587,9 @@
       parentOf.push(idx);
       linkOf.push(-1);
       tagName.push('symbol');
-      const fi = dp && cs.fill === dp.fill ? up[S_FILL] : paint(cs.fill);
-      const si = dp && cs.stroke === dp.stroke ? up[S_STROKE] : paint(cs.stroke);
-      nodes.push(idx, tagOf('g'), -1, 0);
+      const fi = dp && cs.fill === dp.fill ? up[STYLE_FILL] : paint(cs.fill);
+      const si = dp && cs.stroke === dp.stroke ? up[STYLE_STROKE] : paint(cs.stroke);
+      nodes.push(idx, tagOf('g'), NAME_USE, 0);
       nodes[at + 3] = HAS_CTM | HAS_NAME | pushStyle(0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1);
       nodes.push(inner[0], inner[1], inner[2], inner[3], inner[4], inner[5]);
       nodes.push(strs.length);

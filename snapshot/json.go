@@ -45,23 +45,37 @@ import (
 //
 // JavaScript writes NaN and the infinities as null; they read as 0, as
 // encoding/json reads null into a number.
+// The optional fields of a node record, as the has number announces them.
+// extension/constants.js carries the same values, generated from these.
 const (
-	hasCTM = 1 << iota
-	hasGeom
-	hasBBox
-	hasD
-	hasText
-	hasLabel
-	hasName
-	hasSameStyle
-	hasAll = hasCTM | hasGeom | hasBBox | hasD | hasText | hasLabel | hasName | hasSameStyle
+	FieldCTM = 1 << iota
+	FieldGeom
+	FieldBBox
+	FieldD
+	FieldText
+	FieldLabel
+	FieldName
+	FieldSameStyle
+	fieldAll = FieldCTM | FieldGeom | FieldBBox | FieldD | FieldText | FieldLabel | FieldName | FieldSameStyle
+)
+
+// The slots of a node record's style, in order.
+const (
+	StyleFlags = iota
+	StyleFill
+	StyleStroke
+	StyleFillOpacity
+	StyleStrokeOpacity
+	StyleOpacity
+	StyleStrokeWidth
+	StyleLen
 )
 
 const (
 	// recordMin is the fewest numbers a node record has.
 	recordMin = 4
-	// nameUse is the name field of content instantiated by <use>.
-	nameUse = -1
+	// NameUse is the name field of content instantiated by <use>.
+	NameUse = -1
 	// maxGeom bounds a record's geometry count.
 	maxGeom = 16
 	// maxStops bounds the stops of one paint entry.
@@ -92,10 +106,10 @@ func (s *Snapshot) UnmarshalJSON(b []byte) error {
 	d := jsonio.New(b)
 	var w snapshotWire
 	if err := readWire(d, &w); err != nil {
-		return fmt.Errorf("snapshot: snapshot %w", err)
+		return fmt.Errorf("snapshot: %w", err)
 	}
 	if err := d.End(); err != nil {
-		return fmt.Errorf("snapshot: snapshot %w", err)
+		return fmt.Errorf("snapshot: %w", err)
 	}
 	out, err := w.snapshot()
 	if err != nil {
@@ -172,7 +186,7 @@ type record struct {
 }
 
 func (r *record) errorf(format string, a ...any) error {
-	return fmt.Errorf("snapshot: snapshot node %d: %s", r.node, fmt.Sprintf(format, a...))
+	return fmt.Errorf("snapshot: node %d: %s", r.node, fmt.Sprintf(format, a...))
 }
 
 func (r *record) num() (float64, error) {
@@ -214,7 +228,7 @@ func packed(f float64) (uint32, bool) {
 // snapshot interprets the document: the tables and every record.
 func (w *snapshotWire) snapshot() (Snapshot, error) {
 	if w.Version != SnapshotVersion {
-		return Snapshot{}, fmt.Errorf("snapshot: snapshot version %v, want %d", w.Version, SnapshotVersion)
+		return Snapshot{}, fmt.Errorf("snapshot: version %v, want %d", w.Version, SnapshotVersion)
 	}
 	s := Snapshot{Version: SnapshotVersion, Source: w.Source, Path: w.Path, Problems: w.Problems}
 	switch len(w.Box) {
@@ -222,11 +236,11 @@ func (w *snapshotWire) snapshot() (Snapshot, error) {
 	case 4:
 		copy(s.Box[:], w.Box)
 	default:
-		return Snapshot{}, fmt.Errorf("snapshot: snapshot box has %d numbers, want 4", len(w.Box))
+		return Snapshot{}, fmt.Errorf("snapshot: box has %d numbers, want 4", len(w.Box))
 	}
 	bg, ok := packed(w.Bg)
 	if !ok {
-		return Snapshot{}, fmt.Errorf("snapshot: snapshot background %v is not a packed colour", w.Bg)
+		return Snapshot{}, fmt.Errorf("snapshot: background %v is not a packed colour", w.Bg)
 	}
 	s.Background = bg
 	paints, err := paintTable(w.Paints)
@@ -238,7 +252,7 @@ func (w *snapshotWire) snapshot() (Snapshot, error) {
 	}
 	for _, f := range w.Sel {
 		if f != math.Trunc(f) || f < 0 || f >= float64(len(s.Nodes)) {
-			return Snapshot{}, fmt.Errorf("snapshot: snapshot selects node %v of %d", f, len(s.Nodes))
+			return Snapshot{}, fmt.Errorf("snapshot: selects node %v of %d", f, len(s.Nodes))
 		}
 		s.Selected = append(s.Selected, int32(f))
 	}
@@ -249,12 +263,12 @@ func paintTable(v []float64) ([]Paint, error) {
 	var out []Paint
 	for i := 0; i < len(v); {
 		if len(v)-i < 3 {
-			return nil, fmt.Errorf("snapshot: snapshot paint %d is cut short", len(out))
+			return nil, fmt.Errorf("snapshot: paint %d is cut short", len(out))
 		}
 		k, c, n := v[i], v[i+1], v[i+2]
 		rgba, ok := packed(c)
 		if !ok || (k != float64(PaintNone) && k != float64(PaintColour) && k != float64(PaintServer)) || n != math.Trunc(n) || n < 0 || n > maxStops || float64(len(v)-i-3) < n {
-			return nil, fmt.Errorf("snapshot: snapshot paint %d (%v, %v, %v) is not a paint", len(out), k, c, n)
+			return nil, fmt.Errorf("snapshot: paint %d (%v, %v, %v) is not a paint", len(out), k, c, n)
 		}
 		p := Paint{Kind: uint8(k), RGBA: rgba}
 		i += 3
@@ -262,7 +276,7 @@ func paintTable(v []float64) ([]Paint, error) {
 			p.Stops = make([]uint32, int(n))
 			for j := range p.Stops {
 				if p.Stops[j], ok = packed(v[i+j]); !ok {
-					return nil, fmt.Errorf("snapshot: snapshot paint %d: stop %v is not a packed colour", len(out), v[i+j])
+					return nil, fmt.Errorf("snapshot: paint %d: stop %v is not a packed colour", len(out), v[i+j])
 				}
 			}
 			i += int(n)
@@ -289,7 +303,7 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 	for r.i < len(v) {
 		r.node = len(s.Nodes)
 		if r.node >= MaxNodes {
-			return fmt.Errorf("snapshot: snapshot %s has more than %d elements", s.Path, MaxNodes)
+			return fmt.Errorf("snapshot: chart %s has more than %d elements", s.Path, MaxNodes)
 		}
 		p, err := r.int("parent", -1, r.node)
 		if err != nil {
@@ -299,11 +313,11 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 		if err != nil {
 			return err
 		}
-		nk, err := r.int("name", nameUse, math.MaxInt32)
+		nk, err := r.int("name", NameUse, math.MaxInt32)
 		if err != nil {
 			return err
 		}
-		has, err := r.int("has", 0, hasAll+1)
+		has, err := r.int("has", 0, fieldAll+1)
 		if err != nil {
 			return err
 		}
@@ -312,7 +326,7 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 		s.Nodes = append(s.Nodes, Node{})
 		nd := &s.Nodes[len(s.Nodes)-1]
 		nd.Parent, nd.Tag = int32(p), w.Tags[tag]
-		if has&hasSameStyle != 0 {
+		if has&FieldSameStyle != 0 {
 			if r.node == 0 {
 				return r.errorf("the first record cannot repeat a style")
 			}
@@ -340,7 +354,7 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 			r.i += 4
 		}
 		switch {
-		case has&hasCTM != 0:
+		case has&FieldCTM != 0:
 			for k := range nd.CTM {
 				if nd.CTM[k], err = r.num(); err != nil {
 					return err
@@ -351,7 +365,7 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 		default:
 			nd.CTM = IdentityMatrix
 		}
-		if has&hasGeom != 0 {
+		if has&FieldGeom != 0 {
 			n, err := r.int("geometry count", 0, maxGeom+1)
 			if err != nil {
 				return err
@@ -363,7 +377,7 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 			slab = append(slab, v[r.i:r.i+n]...)
 			r.i += n
 		}
-		if has&hasBBox != 0 {
+		if has&FieldBBox != 0 {
 			if len(v)-r.i < 4 {
 				return r.errorf("the record is cut short")
 			}
@@ -371,24 +385,24 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 			slab = append(slab, v[r.i:r.i+4]...)
 			r.i += 4
 		}
-		if has&hasD != 0 {
+		if has&FieldD != 0 {
 			if nd.D, err = r.str(w.Strs); err != nil {
 				return err
 			}
 		}
-		if has&hasText != 0 {
+		if has&FieldText != 0 {
 			if nd.Text, err = r.str(w.Strs); err != nil {
 				return err
 			}
 		}
-		if has&hasLabel != 0 {
+		if has&FieldLabel != 0 {
 			if nd.Label, err = r.str(w.Strs); err != nil {
 				return err
 			}
 		}
 		start := len(names)
 		switch {
-		case has&hasName != 0:
+		case has&FieldName != 0:
 			explicit, err := r.str(w.Strs)
 			if err != nil {
 				return err
@@ -399,7 +413,7 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 		default:
 			pn := nameAt[p]
 			names = append(names, names[pn[0]:pn[1]]...)
-			if nk == nameUse {
+			if nk == NameUse {
 				names = append(names, '>')
 				names = append(names, nd.Tag...)
 			} else {
@@ -520,18 +534,18 @@ func (e *wireEncoder) str(s string) float64 {
 // records writes every node's record.
 func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 	var out []float64
-	var prevStyle [7]float64
+	var prevStyle [StyleLen]float64
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
 		p := int(nd.Parent)
 		if p >= i || p < -1 {
-			return nil, fmt.Errorf("snapshot: snapshot %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+			return nil, fmt.Errorf("snapshot: chart %s: node %d has parent %d, which does not precede it", s.Path, i, p)
 		}
 		if len(nd.Geom) > maxGeom {
-			return nil, fmt.Errorf("snapshot: snapshot %s: node %d has %d geometry values, more than %d", s.Path, i, len(nd.Geom), maxGeom)
+			return nil, fmt.Errorf("snapshot: chart %s: node %d has %d geometry values, more than %d", s.Path, i, len(nd.Geom), maxGeom)
 		}
 		if len(nd.BBox) != 0 && len(nd.BBox) != 4 {
-			return nil, fmt.Errorf("snapshot: snapshot %s: node %d has a box of %d numbers", s.Path, i, len(nd.BBox))
+			return nil, fmt.Errorf("snapshot: chart %s: node %d has a box of %d numbers", s.Path, i, len(nd.BBox))
 		}
 		nk, explicit := 0, false
 		switch {
@@ -542,7 +556,7 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 			rest, ok := strings.CutPrefix(nd.Name, pn)
 			switch {
 			case ok && rest == ">"+nd.Tag:
-				nk = nameUse
+				nk = NameUse
 			case ok && strings.HasPrefix(rest, "/"+nd.Tag):
 				k, err := strconv.Atoi(rest[1+len(nd.Tag):])
 				explicit = err != nil || k < 0 || strconv.Itoa(k) != rest[1+len(nd.Tag):]
@@ -553,57 +567,57 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 		}
 		has := 0
 		if (p >= 0 && nd.CTM != s.Nodes[p].CTM) || (p < 0 && Matrix(nd.CTM) != IdentityMatrix) {
-			has |= hasCTM
+			has |= FieldCTM
 		}
 		if len(nd.Geom) > 0 {
-			has |= hasGeom
+			has |= FieldGeom
 		}
 		if len(nd.BBox) == 4 {
-			has |= hasBBox
+			has |= FieldBBox
 		}
 		if nd.D != "" {
-			has |= hasD
+			has |= FieldD
 		}
 		if nd.Text != "" {
-			has |= hasText
+			has |= FieldText
 		}
 		if nd.Label != "" {
-			has |= hasLabel
+			has |= FieldLabel
 		}
 		if explicit {
-			has |= hasName
+			has |= FieldName
 			nk = 0
 		}
 		fill, stroke := e.paint(nd.Fill), e.paint(nd.Stroke)
-		style := [7]float64{float64(nd.Flags), fill, stroke, nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth}
+		style := [StyleLen]float64{float64(nd.Flags), fill, stroke, nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth}
 		if i > 0 && sameStyle(style, prevStyle) {
-			has |= hasSameStyle
+			has |= FieldSameStyle
 		}
 		out = append(out, float64(p), e.tag(nd.Tag), float64(nk), float64(has))
-		if has&hasSameStyle == 0 {
+		if has&FieldSameStyle == 0 {
 			out = append(out, style[:]...)
 		}
 		prevStyle = style
-		if has&hasCTM != 0 {
+		if has&FieldCTM != 0 {
 			out = append(out, nd.CTM[:]...)
 		}
-		if has&hasGeom != 0 {
+		if has&FieldGeom != 0 {
 			out = append(out, float64(len(nd.Geom)))
 			out = append(out, nd.Geom...)
 		}
-		if has&hasBBox != 0 {
+		if has&FieldBBox != 0 {
 			out = append(out, nd.BBox...)
 		}
-		if has&hasD != 0 {
+		if has&FieldD != 0 {
 			out = append(out, e.str(nd.D))
 		}
-		if has&hasText != 0 {
+		if has&FieldText != 0 {
 			out = append(out, e.str(nd.Text))
 		}
-		if has&hasLabel != 0 {
+		if has&FieldLabel != 0 {
 			out = append(out, e.str(nd.Label))
 		}
-		if has&hasName != 0 {
+		if has&FieldName != 0 {
 			out = append(out, e.str(nd.Name))
 		}
 	}
@@ -612,7 +626,7 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 
 // sameStyle compares styles as the decoder will read them: bit for bit, so
 // that a NaN, written as null and read as 0, is never taken for another.
-func sameStyle(a, b [7]float64) bool {
+func sameStyle(a, b [StyleLen]float64) bool {
 	for k := range a {
 		if math.Float64bits(a[k]) != math.Float64bits(b[k]) {
 			return false

@@ -51,12 +51,9 @@ type Node struct {
 	// Name is the stable path of the element within the page, used as the
 	// mark id, such as "svg0/g1/circle3".
 	Name string
-	// Geom holds the tag's numeric geometry attributes in this order:
-	//	rect, image, svg: x y width height rx ry (rx, ry −1 for auto)
-	//	circle: cx cy r
-	//	ellipse: cx cy rx ry
-	//	line: x1 y1 x2 y2
-	//	text: x y font-size
+	// Geom holds the tag's numeric geometry attributes in the order
+	// GeomLayout lists them (rx and ry of a rect are GeomAuto when not
+	// given); a <text> adds its computed font size in px after x and y.
 	Geom []float64
 	// D is the path data of a <path>, or the points of a <polyline> or
 	// <polygon>.
@@ -143,6 +140,9 @@ var NotRendered = map[string]bool{
 	"lineargradient": true, "radialgradient": true, "style": true, "script": true, "metadata": true,
 	"foreignobject": true, "filter": true,
 }
+
+// GeomAuto stands for an absent rx or ry of a rect (auto).
+const GeomAuto = -1
 
 // GeomLayout lists, per tag, the attributes stored in Node.Geom, in
 // order; tags not listed store none.

@@ -445,7 +445,7 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 			v := attr(n, k)
 			if v == "" {
 				if (tag == "rect" || tag == "image") && (k == "rx" || k == "ry") {
-					node.Geom[i] = -1 // auto (JSON has no NaN)
+					node.Geom[i] = snapshot.GeomAuto // JSON has no NaN
 				}
 				continue
 			}

@@ -8,13 +8,11 @@ import (
 	"encoding/json"
 	"fmt"
 	"runtime/debug"
-	"strconv"
 	"strings"
 	"time"
 
 	"standout/internal/jsonio"
 	"standout/internal/report"
-	"standout/perception/colour"
 	"standout/snapshot"
 )
 
@@ -138,37 +136,17 @@ func handle(q *Request, t0 time.Time) []byte {
 	if q.Type != "analyse" {
 		return errorResponse(fmt.Sprintf("unknown request type %q", q.Type))
 	}
-	opt := report.DefaultOptions
+	set := report.DefaultSettings
 	if q.Severity != nil {
-		if !(*q.Severity >= 0 && *q.Severity <= 1) {
-			return errorResponse("severity must be within [0, 1]")
-		}
-		opt.Params.Severity = *q.Severity
+		set.Severity = *q.Severity
 	}
-	if q.DistanceCM > 0 && q.PxPerInch > 0 {
-		opt.Params.ND.Viewing = colour.Viewing{DistanceCM: q.DistanceCM, CSSPxPerInch: q.PxPerInch}
-	}
+	set.DistanceCM, set.PxPerInch = q.DistanceCM, q.PxPerInch
+	set.EmphasisIDs, set.EmphasisNodes = q.Emphasis, q.EmphasisNodes
 	// The overlay's digest needs the CVD re-analysis of the emphasis only.
-	opt.Params.FindingsOnly = !q.Full
-	if len(q.Emphasis) > 0 {
-		opt.IDs = map[string]bool{}
-		for _, id := range q.Emphasis {
-			opt.IDs[id] = true
-		}
-	}
-	for _, pn := range q.EmphasisNodes {
-		i := strings.LastIndexByte(pn, '#')
-		node, err := strconv.Atoi(pn[i+1:])
-		if i < 0 || err != nil || node < 0 {
-			return errorResponse(fmt.Sprintf("bad request: emphasis node %q is not path#node", pn))
-		}
-		if opt.Nodes == nil {
-			opt.Nodes = map[string]map[int]bool{}
-		}
-		if opt.Nodes[pn[:i]] == nil {
-			opt.Nodes[pn[:i]] = map[int]bool{}
-		}
-		opt.Nodes[pn[:i]][node] = true
+	set.FindingsOnly = !q.Full
+	opt, err := set.Options()
+	if err != nil {
+		return errorResponse("bad request: " + err.Error())
 	}
 	timing["decodeMs"] = ms(t0)
 	t1 := time.Now()
@@ -188,7 +166,7 @@ func handle(q *Request, t0 time.Time) []byte {
 		b = appendTiming(b, timing)
 		return append(b, '}')
 	}
-	page, _ := report.PageOf(q.Source, q.Problems, as)
+	page := report.PageOf(q.Source, q.Problems, as)
 	rep := &report.Report{Schema: "standout-report", Version: report.Version, Pages: []report.Page{page}, Caution: report.Caution}
 	var md strings.Builder
 	report.WriteMarkdown(&md, rep, nil)

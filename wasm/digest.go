@@ -68,7 +68,14 @@ type DigestEmphasis struct {
 	Holds    map[string]bool `json:"holds"`
 }
 
-var verdictLetter = map[perception.Verdict]byte{perception.Pops: 'p', perception.Conjunction: 'c', perception.Blends: 'b'}
+// verdictLetter is each verdict's letter in the digest (report.VerdictStyles).
+var verdictLetter = func() map[perception.Verdict]byte {
+	m := map[perception.Verdict]byte{}
+	for _, s := range report.VerdictStyles {
+		m[perception.Verdict(s.Verdict)] = s.Letter[0]
+	}
+	return m
+}()
 
 func countMarks(as []report.Analysed) int {
 	n := 0

@@ -17,7 +17,6 @@ import (
 	"standout/extension"
 	"standout/internal/browser"
 	"standout/internal/report"
-	"standout/marks"
 	"standout/snapshot"
 )
 
@@ -131,7 +130,7 @@ func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) erro
 				if err != nil {
 					return err
 				}
-				err = png.Encode(f, report.Annotate(img, c))
+				err = png.Encode(f, annotate(img, c))
 				if cerr := f.Close(); err == nil {
 					err = cerr
 				}
@@ -195,10 +194,10 @@ func readInBrowser(exe string, urls []string, o browser.ReadOptions, stderr io.W
 
 // pageFromRead walks and analyses what the read pass returned for a page,
 // decoded with the snapshot decoder the extension's core uses.
-func pageFromRead(name string, r browser.PageResult, opt report.Options) (report.Page, []*marks.Chart, error) {
+func pageFromRead(name string, r browser.PageResult, opt report.Options) (report.Page, error) {
 	pg, err := snapshot.DecodePage([]byte(r.JSON))
 	if err != nil {
-		return report.Page{}, nil, fmt.Errorf("the read pass returned bad data: %w", err)
+		return report.Page{}, fmt.Errorf("the read pass returned bad data: %w", err)
 	}
 	return report.FromSnapshots(name, pg.Snapshots, pg.Problems, opt)
 }

@@ -251,7 +251,7 @@ func BenchmarkBatch(b *testing.B) {
 					load += r.LoadMs
 					read += r.ReadMs
 					a0 := time.Now()
-					_, _, err := pageFromRead(r.URL, r, report.DefaultOptions)
+					_, err := pageFromRead(r.URL, r, report.DefaultOptions)
 					require.NoError(b, err)
 					analyse += float64(time.Since(a0).Microseconds()) / 1000
 				}

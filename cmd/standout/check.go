@@ -7,14 +7,13 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"strings"
 	"time"
 
 	"standout/internal/browser"
 	"standout/internal/report"
-	"standout/marks"
 	"standout/perception"
 	"standout/perception/colour"
+	"standout/static"
 )
 
 func runCheck(args []string, stdout, stderr io.Writer) int {
@@ -55,10 +54,6 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "standout check: --tabs must be within 1–32")
 		return 2
 	}
-	if !(*severity >= 0 && *severity <= 1) || !(*distance > 0) || !(*ppi > 0) {
-		fmt.Fprintln(stderr, "standout check: --cvd-severity must be within [0, 1]; --distance-cm and --px-per-inch must be positive")
-		return 2
-	}
 	failRank := -1
 	switch *failOn {
 	case "":
@@ -68,21 +63,14 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "standout check: --fail-on %q: want info, warning or error\n", *failOn)
 		return 2
 	}
-	opt := report.DefaultOptions
-	opt.Params.Severity = *severity
-	opt.Params.ND.Viewing = colour.Viewing{DistanceCM: *distance, CSSPxPerInch: *ppi}
-	if e := strings.TrimSpace(*emphasis); e != "" {
-		if looksLikeIDs(e) {
-			opt.IDs = map[string]bool{}
-			for _, id := range strings.Split(e, ",") {
-				opt.IDs[strings.TrimSpace(id)] = true
-			}
-		} else {
-			opt.Selector = e
-		}
+	set := report.Settings{Severity: *severity, DistanceCM: *distance, PxPerInch: *ppi}
+	set.EmphasisIDs, set.EmphasisSelector = report.SplitEmphasis(*emphasis)
+	opt, err := set.Options()
+	if err != nil {
+		fmt.Fprintln(stderr, "standout check:", err)
+		return 2
 	}
 	rep := report.Report{Schema: "standout-report", Version: report.Version, Caution: report.Caution}
-	var all [][]*marks.Chart
 	var shots [][]byte
 	var failed []string
 	progress := newProgress(stderr, len(fs.Args()))
@@ -122,25 +110,23 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 				failed = append(failed, fmt.Sprintf("%s: %v", names[i], r.Err))
 				continue
 			}
-			rp, charts, err := pageFromRead(names[i], r, opt)
+			rp, err := pageFromRead(names[i], r, opt)
 			if err != nil {
 				failed = append(failed, fmt.Sprintf("%s: %v", names[i], err))
 				continue
 			}
 			rep.Pages = append(rep.Pages, rp)
-			all = append(all, charts)
 			shots = append(shots, r.Screenshot)
 		}
 	} else {
 		for i, name := range fs.Args() {
-			rp, charts, err := checkOneFile(name, opt, *timeout)
+			rp, err := checkOneFile(name, opt, *timeout)
 			progress.step(i+1, name, err)
 			if err != nil {
 				failed = append(failed, fmt.Sprintf("%s: %v", name, err))
 				continue
 			}
 			rep.Pages = append(rep.Pages, rp)
-			all = append(all, charts)
 			shots = append(shots, nil)
 		}
 	}
@@ -160,8 +146,8 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 			return 2
 		}
 	} else {
-		for i, p := range rep.Pages {
-			report.WriteText(stdout, p, all[i])
+		for _, p := range rep.Pages {
+			writeText(stdout, p)
 		}
 	}
 	summary := stdout
@@ -192,24 +178,28 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 }
 
 // checkOneFile checks one file with the static reader within timeout.
-func checkOneFile(name string, opt report.Options, timeout time.Duration) (report.Page, []*marks.Chart, error) {
+func checkOneFile(name string, opt report.Options, timeout time.Duration) (report.Page, error) {
 	if webURL(name) {
-		return report.Page{}, nil, errors.New("is a URL; the static reader reads files: add --browser to load it in headless Chromium")
+		return report.Page{}, errors.New("is a URL; the static reader reads files: add --browser to load it in headless Chromium")
 	}
 	f, err := os.Open(name)
 	if err != nil {
-		return report.Page{}, nil, err
+		return report.Page{}, err
 	}
 	defer f.Close()
 	if st, err := f.Stat(); err == nil && st.IsDir() {
-		return report.Page{}, nil, errors.New("is a folder, not a page")
+		return report.Page{}, errors.New("is a folder, not a page")
 	}
 	opt.Deadline = time.Now().Add(timeout)
-	return report.CheckFile(name, f, opt)
+	return checkReader(name, f, opt)
 }
 
-// looksLikeIDs tells mark ids ("svg0/g1/rect2,svg0/g1/rect3") from a CSS
-// selector: ids are paths with slashes and no selector punctuation.
-func looksLikeIDs(s string) bool {
-	return strings.Contains(s, "/") && !strings.ContainsAny(s, "#.[]:> ")
+// checkReader builds, walks and analyses every chart of one file with the
+// static reader.
+func checkReader(name string, r io.Reader, opt report.Options) (report.Page, error) {
+	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline})
+	if err != nil {
+		return report.Page{}, err
+	}
+	return report.FromSnapshots(name, page.Charts, page.Problems, opt)
 }

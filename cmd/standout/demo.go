@@ -68,12 +68,12 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stdout)
 		for _, name := range names {
 			data, _ := fs.ReadFile(sub, name)
-			rp, charts, err := report.CheckFile(name, bytes.NewReader(data), report.DefaultOptions)
+			rp, err := checkReader(name, bytes.NewReader(data), report.DefaultOptions)
 			if err != nil {
 				fmt.Fprintf(stderr, "standout demo: %s: %v\n", name, err)
 				return 2
 			}
-			report.WriteText(stdout, rp, charts)
+			writeText(stdout, rp)
 			fmt.Fprintln(stdout)
 		}
 		fmt.Fprintln(stdout, "Caution:", report.Caution)
@@ -105,12 +105,12 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 			fmt.Fprintf(stderr, "standout demo: %s: %v\n", names[i], r.Err)
 			return 2
 		}
-		rp, charts, err := pageFromRead(path.Base(urls[i]), r, report.DefaultOptions)
+		rp, err := pageFromRead(path.Base(urls[i]), r, report.DefaultOptions)
 		if err != nil {
 			fmt.Fprintf(stderr, "standout demo: %s: %v\n", names[i], err)
 			return 2
 		}
-		report.WriteText(stdout, rp, charts)
+		writeText(stdout, rp)
 		fmt.Fprintln(stdout)
 	}
 	fmt.Fprintln(stdout, "Caution:", report.Caution)

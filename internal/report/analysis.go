@@ -212,8 +212,8 @@ func EmphasisOf(ch *marks.Chart, res *perception.Result) *Emphasis {
 	return em
 }
 
-// verdictSummary says in one sentence how the marks fare.
-func verdictSummary(rc Chart) string {
+// Summary says in one sentence how the marks fare.
+func Summary(rc Chart) string {
 	count := map[string]int{}
 	chans := map[string]int{}
 	for _, m := range rc.Marks {

@@ -30,7 +30,7 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 			if img, ok := pngs[p.Source+"#"+c.Path]; ok {
 				fmt.Fprintf(w, "![Chart %s with Standout's outlines](%s)\n\n", mdEscape(c.Path), img)
 			}
-			fmt.Fprintf(w, "%d data marks. At a glance: %s.\n\n", len(c.Marks), orNone(verdictSummary(c)))
+			fmt.Fprintf(w, "%d data marks. At a glance: %s.\n\n", len(c.Marks), orNone(Summary(c)))
 			if c.Emphasis != nil && len(c.Emphasis.Marks) > 0 {
 				var ok, lost []string
 				for _, v := range []string{"normal", "protan", "deutan", "tritan", "achromat"} {

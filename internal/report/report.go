@@ -5,16 +5,12 @@ package report
 
 import (
 	"fmt"
-	"io"
 	"math"
-	"sort"
-	"strings"
 	"time"
 
 	"standout/marks"
 	"standout/perception"
 	"standout/snapshot"
-	"standout/static"
 )
 
 // Caution is the statement of the limits of the check, carried in every
@@ -157,15 +153,6 @@ type Options struct {
 
 var DefaultOptions = Options{Params: perception.DefaultParams}
 
-// CheckFile builds, walks and analyses every chart of one file.
-func CheckFile(name string, r io.Reader, opt Options) (Page, []*marks.Chart, error) {
-	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline})
-	if err != nil {
-		return Page{}, nil, err
-	}
-	return FromSnapshots(name, page.Charts, page.Problems, opt)
-}
-
 // Analysed is one chart walked and, if it is a chart, analysed.
 type Analysed struct {
 	Chart *marks.Chart
@@ -216,22 +203,19 @@ func emphasisIDs(ch *marks.Chart, opt Options) map[string]bool {
 
 // FromSnapshots walks and analyses snapshots, from the static builder or
 // a browser's read pass, into a report page.
-func FromSnapshots(name string, snaps []snapshot.Snapshot, problems []string, opt Options) (Page, []*marks.Chart, error) {
+func FromSnapshots(name string, snaps []snapshot.Snapshot, problems []string, opt Options) (Page, error) {
 	as, err := AnalyseSnapshots(snaps, opt)
 	if err != nil {
-		return Page{}, nil, err
+		return Page{}, err
 	}
-	rp, charts := PageOf(name, problems, as)
-	return rp, charts, nil
+	return PageOf(name, problems, as), nil
 }
 
 // PageOf builds the report page of analysed charts.
-func PageOf(name string, problems []string, as []Analysed) (Page, []*marks.Chart) {
+func PageOf(name string, problems []string, as []Analysed) Page {
 	rp := Page{Source: name, Problems: nonNil(problems), Charts: []Chart{}}
-	var charts []*marks.Chart
 	for _, a := range as {
 		ch := a.Chart
-		charts = append(charts, ch)
 		rc := Chart{Path: ch.Path, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
 			Background: snapshot.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
 			Furniture: ch.Furniture, Problems: nonNil(ch.Problems)}
@@ -247,7 +231,7 @@ func PageOf(name string, problems []string, as []Analysed) (Page, []*marks.Chart
 		}
 		rp.Charts = append(rp.Charts, rc)
 	}
-	return rp, charts
+	return rp
 }
 
 func nonNil(s []string) []string {
@@ -255,77 +239,4 @@ func nonNil(s []string) []string {
 		return []string{}
 	}
 	return s
-}
-
-// WriteText lists each chart with its marks grouped by kind, shape and
-// colour.
-func WriteText(w io.Writer, p Page, charts []*marks.Chart) {
-	w = terminalWriter{w} // page-derived text carries no escape sequences
-	fmt.Fprintf(w, "%s: %d drawing(s)\n", p.Source, len(p.Charts))
-	for _, pr := range p.Problems {
-		fmt.Fprintf(w, "  note: %s\n", pr)
-	}
-	for _, c := range p.Charts {
-		if !c.IsChart {
-			fmt.Fprintf(w, "  %s: not a chart (%s)\n", c.Path, c.Reason)
-			continue
-		}
-		fmt.Fprintf(w, "  %s: %d data marks, %.0f×%.0f px on %s\n", c.Path, len(c.Marks), c.Box[2], c.Box[3], c.Background)
-		type key struct{ kind, shape, fill, stroke string }
-		groups := map[key]int{}
-		for _, m := range c.Marks {
-			k := key{m.Kind, m.Shape, "none", "none"}
-			if m.Fill != nil {
-				k.fill = *m.Fill
-			}
-			if m.Stroke != nil {
-				k.stroke = *m.Stroke
-			}
-			groups[k]++
-		}
-		keys := make([]key, 0, len(groups))
-		for k := range groups {
-			keys = append(keys, k)
-		}
-		sort.Slice(keys, func(i, j int) bool {
-			if groups[keys[i]] != groups[keys[j]] {
-				return groups[keys[i]] > groups[keys[j]]
-			}
-			return fmt.Sprint(keys[i]) < fmt.Sprint(keys[j])
-		})
-		for _, k := range keys {
-			fmt.Fprintf(w, "    %5d %-6s %-8s fill %-8s stroke %s\n", groups[k], k.kind, k.shape, k.fill, k.stroke)
-		}
-		if len(c.Legend) > 0 {
-			fmt.Fprintf(w, "    legend: %d entries\n", len(c.Legend))
-		}
-		var furn []string
-		for k, v := range c.Furniture {
-			furn = append(furn, fmt.Sprintf("%s %d", k, v))
-		}
-		sort.Strings(furn)
-		if len(furn) > 0 {
-			fmt.Fprintf(w, "    set aside: %s\n", strings.Join(furn, ", "))
-		}
-		for _, pr := range c.Problems {
-			fmt.Fprintf(w, "    note: %s\n", pr)
-		}
-		if sum := verdictSummary(c); sum != "" {
-			fmt.Fprintf(w, "    at a glance: %s.\n", sum)
-		}
-		for _, f := range c.Findings {
-			fmt.Fprintf(w, "    [%s] %s\n", f.Severity, f.Message)
-			if f.Fix != nil {
-				state := "checked: the emphasis then pops out for every vision type"
-				if !f.Fix.Verified {
-					state = "not enough on its own: colour alone cannot make it pop for every reader"
-				}
-				what := "recolour the emphasis"
-				if f.Fix.Kind == "mute-others" {
-					what = "mute the other marks"
-				}
-				fmt.Fprintf(w, "        fix: %s with `%s` (%s)\n", what, f.Fix.CSS, state)
-			}
-		}
-	}
 }

@@ -1,8 +1,10 @@
 package report
 
 import (
+	"bytes"
 	"os"
 	"path/filepath"
+	"standout/static"
 	"strings"
 	"testing"
 
@@ -36,9 +38,9 @@ func TestFindingsOnlyAgreesOnCharts(t *testing.T) {
 	for _, f := range charts(t) {
 		data, err := os.ReadFile(f)
 		require.NoError(t, err)
-		full, _, err := CheckFile(f, strings.NewReader(string(data)), DefaultOptions)
+		full, err := checkFile(f, data, DefaultOptions)
 		require.NoError(t, err, f)
-		part, _, err := CheckFile(f, strings.NewReader(string(data)), lite)
+		part, err := checkFile(f, data, lite)
 		require.NoError(t, err, f)
 		require.Len(t, part.Charts, len(full.Charts), f)
 		for i, c := range full.Charts {
@@ -51,4 +53,14 @@ func TestFindingsOnlyAgreesOnCharts(t *testing.T) {
 			}
 		}
 	}
+}
+
+// checkFile reads a file with the static reader and reports it.
+func checkFile(name string, data []byte, opt Options) (Page, error) {
+	page, err := static.Build(bytes.NewReader(data), static.Options{Source: name, Select: opt.Selector})
+	if err != nil {
+		return Page{}, err
+	}
+	p, err := FromSnapshots(name, page.Charts, page.Problems, opt)
+	return p, err
 }

@@ -1,7 +1,6 @@
 package report
 
 import (
-	"io"
 	"strings"
 	"unicode"
 )
@@ -21,17 +20,6 @@ func TerminalSafe(s string) string {
 		}
 		return r
 	}, s)
-}
-
-// terminalWriter passes what is written through TerminalSafe. Each Write
-// must hold whole UTF-8 sequences, as fmt.Fprintf's do.
-type terminalWriter struct{ w io.Writer }
-
-func (t terminalWriter) Write(p []byte) (int, error) {
-	if _, err := io.WriteString(t.w, TerminalSafe(string(p))); err != nil {
-		return 0, err
-	}
-	return len(p), nil
 }
 
 var mdEscaper = strings.NewReplacer("\\", "\\\\", "`", "\\`", "*", "\\*", "_", "\\_", "[", "\\[", "]", "\\]", "<", "&lt;", ">", "&gt;",

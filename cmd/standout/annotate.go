@@ -1,37 +1,47 @@
-package report
+package main
 
 import (
+	"fmt"
 	"image"
 	"image/color"
 	"image/draw"
 	"math"
+	"standout/internal/report"
 )
 
-// The overlay's visual language (extension/overlay.js), drawn into a
-// raster: per verdict a line style, a colour and a corner mark, so the
-// picture reads without colour too.
-var verdictInk = map[string]struct {
+// ink is a verdict's style (report.VerdictStyles, which the overlay
+// draws too) as the raster draws it: whole pixels, and a white halo under
+// every outline, which costs a raster nothing.
+type ink struct {
 	c      color.RGBA
 	width  int
 	dash   []int // on, off (px); nil is solid
 	corner string
-}{
-	"pops":        {color.RGBA{0x0f, 0x76, 0x6e, 0xff}, 3, nil, "notch"},
-	"conjunction": {color.RGBA{0xb4, 0x53, 0x09, 0xff}, 2, []int{7, 3}, "ring"},
-	"blends":      {color.RGBA{0x52, 0x52, 0x5b, 0xff}, 1, nil, ""},
 }
 
-// Annotate crops a full-page screenshot (1 image px per CSS px) to a
+func inkOf(verdict string) ink {
+	st := report.StyleOf(verdict)
+	var r, g, b uint8
+	fmt.Sscanf(st.Colour, "#%02x%02x%02x", &r, &g, &b)
+	k := ink{c: color.RGBA{r, g, b, 0xff}, width: int(math.Ceil(st.Width)), corner: st.Corner}
+	for _, d := range st.Dash {
+		k.dash = append(k.dash, int(math.Round(d)))
+	}
+	return k
+}
+
+// annotate crops a full-page screenshot (1 image px per CSS px) to a
 // chart with a 10 px margin and outlines each mark by its verdict.
-func Annotate(page image.Image, c Chart) *image.RGBA {
+func annotate(page image.Image, c report.Chart) *image.RGBA {
 	const margin = 10
 	r := image.Rect(int(math.Floor(c.Box[0]))-margin, int(math.Floor(c.Box[1]))-margin,
 		int(math.Ceil(c.Box[0]+c.Box[2]))+margin, int(math.Ceil(c.Box[1]+c.Box[3]))+margin).Intersect(page.Bounds())
 	out := image.NewRGBA(image.Rect(0, 0, r.Dx(), r.Dy()))
 	draw.Draw(out, out.Bounds(), page, r.Min, draw.Src)
 	white := color.RGBA{0xff, 0xff, 0xff, 0xff}
-	for _, v := range []string{"blends", "conjunction", "pops"} {
-		ink := verdictInk[v]
+	for i := len(report.VerdictStyles) - 1; i >= 0; i-- {
+		v := report.VerdictStyles[i].Verdict
+		ink := inkOf(v)
 		for _, m := range c.Marks {
 			if m.Verdict != v {
 				continue

@@ -1,0 +1,93 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"sort"
+	"standout/internal/report"
+	"strings"
+)
+
+// terminalWriter passes what is written through TerminalSafe. Each Write
+// must hold whole UTF-8 sequences, as fmt.Fprintf's do.
+type terminalWriter struct{ w io.Writer }
+
+func (t terminalWriter) Write(p []byte) (int, error) {
+	if _, err := io.WriteString(t.w, report.TerminalSafe(string(p))); err != nil {
+		return 0, err
+	}
+	return len(p), nil
+}
+
+// writeText lists each chart with its marks grouped by kind, shape and
+// colour.
+func writeText(w io.Writer, p report.Page) {
+	w = terminalWriter{w} // page-derived text carries no escape sequences
+	fmt.Fprintf(w, "%s: %d drawing(s)\n", p.Source, len(p.Charts))
+	for _, pr := range p.Problems {
+		fmt.Fprintf(w, "  note: %s\n", pr)
+	}
+	for _, c := range p.Charts {
+		if !c.IsChart {
+			fmt.Fprintf(w, "  %s: not a chart (%s)\n", c.Path, c.Reason)
+			continue
+		}
+		fmt.Fprintf(w, "  %s: %d data marks, %.0f×%.0f px on %s\n", c.Path, len(c.Marks), c.Box[2], c.Box[3], c.Background)
+		type key struct{ kind, shape, fill, stroke string }
+		groups := map[key]int{}
+		for _, m := range c.Marks {
+			k := key{m.Kind, m.Shape, "none", "none"}
+			if m.Fill != nil {
+				k.fill = *m.Fill
+			}
+			if m.Stroke != nil {
+				k.stroke = *m.Stroke
+			}
+			groups[k]++
+		}
+		keys := make([]key, 0, len(groups))
+		for k := range groups {
+			keys = append(keys, k)
+		}
+		sort.Slice(keys, func(i, j int) bool {
+			if groups[keys[i]] != groups[keys[j]] {
+				return groups[keys[i]] > groups[keys[j]]
+			}
+			return fmt.Sprint(keys[i]) < fmt.Sprint(keys[j])
+		})
+		for _, k := range keys {
+			fmt.Fprintf(w, "    %5d %-6s %-8s fill %-8s stroke %s\n", groups[k], k.kind, k.shape, k.fill, k.stroke)
+		}
+		if len(c.Legend) > 0 {
+			fmt.Fprintf(w, "    legend: %d entries\n", len(c.Legend))
+		}
+		var furn []string
+		for k, v := range c.Furniture {
+			furn = append(furn, fmt.Sprintf("%s %d", k, v))
+		}
+		sort.Strings(furn)
+		if len(furn) > 0 {
+			fmt.Fprintf(w, "    set aside: %s\n", strings.Join(furn, ", "))
+		}
+		for _, pr := range c.Problems {
+			fmt.Fprintf(w, "    note: %s\n", pr)
+		}
+		if sum := report.Summary(c); sum != "" {
+			fmt.Fprintf(w, "    at a glance: %s.\n", sum)
+		}
+		for _, f := range c.Findings {
+			fmt.Fprintf(w, "    [%s] %s\n", f.Severity, f.Message)
+			if f.Fix != nil {
+				state := "checked: the emphasis then pops out for every vision type"
+				if !f.Fix.Verified {
+					state = "not enough on its own: colour alone cannot make it pop for every reader"
+				}
+				what := "recolour the emphasis"
+				if f.Fix.Kind == "mute-others" {
+					what = "mute the other marks"
+				}
+				fmt.Fprintf(w, "        fix: %s with `%s` (%s)\n", what, f.Fix.CSS, state)
+			}
+		}
+	}
+}

@@ -1,0 +1,86 @@
+package report
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+
+	"standout/perception"
+	"standout/perception/colour"
+)
+
+// Settings are a check's settings as they arrive: from the command line's
+// flags or from the overlay's request. Options validates them; it is the
+// one place both build a check's Options.
+type Settings struct {
+	// Severity is the CVD severity of the re-analysis, within [0, 1].
+	Severity float64
+	// DistanceCM and PxPerInch describe the viewing; zero keeps the
+	// default (colour.DefaultViewing).
+	DistanceCM, PxPerInch float64
+	// EmphasisIDs names the intended emphasis by mark id;
+	// EmphasisSelector by a CSS selector; EmphasisNodes by chart path and
+	// snapshot node, as "path#node" (the overlay's picks).
+	EmphasisIDs      []string
+	EmphasisSelector string
+	EmphasisNodes    []string
+	// FindingsOnly asks for the findings and the emphasis's CVD
+	// re-analysis only (the overlay's digest), not every mark's.
+	FindingsOnly bool
+}
+
+// DefaultSettings are the settings of a check nobody tuned.
+var DefaultSettings = Settings{Severity: perception.DefaultParams.Severity}
+
+// Options validates the settings into a check's Options. The error names
+// the setting that is out of range.
+func (s Settings) Options() (Options, error) {
+	opt := DefaultOptions
+	if !(s.Severity >= 0 && s.Severity <= 1) {
+		return opt, fmt.Errorf("CVD severity %v is not within [0, 1]", s.Severity)
+	}
+	opt.Params.Severity = s.Severity
+	if s.DistanceCM != 0 || s.PxPerInch != 0 {
+		if !(s.DistanceCM > 0) || !(s.PxPerInch > 0) {
+			return opt, fmt.Errorf("viewing distance %v cm and %v px per inch: both must be positive", s.DistanceCM, s.PxPerInch)
+		}
+		opt.Params.ND.Viewing = colour.Viewing{DistanceCM: s.DistanceCM, CSSPxPerInch: s.PxPerInch}
+	}
+	opt.Params.FindingsOnly = s.FindingsOnly
+	opt.Selector = strings.TrimSpace(s.EmphasisSelector)
+	for _, id := range s.EmphasisIDs {
+		if id = strings.TrimSpace(id); id == "" {
+			continue
+		}
+		if opt.IDs == nil {
+			opt.IDs = map[string]bool{}
+		}
+		opt.IDs[id] = true
+	}
+	for _, pn := range s.EmphasisNodes {
+		i := strings.LastIndexByte(pn, '#')
+		node, err := strconv.Atoi(pn[i+1:])
+		if i < 0 || err != nil || node < 0 {
+			return opt, fmt.Errorf("emphasis node %q is not path#node", pn)
+		}
+		if opt.Nodes == nil {
+			opt.Nodes = map[string]map[int]bool{}
+		}
+		if opt.Nodes[pn[:i]] == nil {
+			opt.Nodes[pn[:i]] = map[int]bool{}
+		}
+		opt.Nodes[pn[:i]][node] = true
+	}
+	return opt, nil
+}
+
+// SplitEmphasis reads an emphasis as a person types it: mark ids
+// ("svg0/g1/rect2,svg0/g1/rect3": paths with slashes and no selector
+// punctuation) or else a CSS selector.
+func SplitEmphasis(text string) (ids []string, selector string) {
+	text = strings.TrimSpace(text)
+	if strings.Contains(text, "/") && !strings.ContainsAny(text, "#.[]:> ") {
+		return strings.Split(text, ","), ""
+	}
+	return nil, text
+}
