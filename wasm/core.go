@@ -8,6 +8,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"runtime/debug"
+	"sort"
 	"strings"
 	"time"
 
@@ -46,7 +47,7 @@ type Response struct {
 	Error  string         `json:"error,omitempty"`
 	Report *report.Report `json:"report,omitempty"`
 	// Overlay is the report's digest for drawing (digest.go).
-	Overlay *Digest `json:"overlay,omitempty"`
+	Overlay *report.Digest `json:"overlay,omitempty"`
 	// Markdown is the report, ready for a ticket.
 	Markdown string `json:"markdown,omitempty"`
 	// Timing is how long each step took inside the core, in ms.
@@ -159,8 +160,8 @@ func handle(q *Request, t0 time.Time) []byte {
 	if !q.Full {
 		// The overlay's digest, written by hand: encoding/json's
 		// reflection over thousands of marks is slow under WebAssembly.
-		b := append(make([]byte, 0, 64+80*countMarks(as)), `{"ok":true,"overlay":`...)
-		b = appendDigest(b, q.Source, q.Problems, as)
+		b := append(make([]byte, 0, 64+80*report.CountMarks(as)), `{"ok":true,"overlay":`...)
+		b = report.AppendDigest(b, q.Source, q.Problems, as)
 		timing["encodeMs"] = ms(t2)
 		b = append(b, `,"timing":`...)
 		b = appendTiming(b, timing)
@@ -181,4 +182,23 @@ func handle(q *Request, t0 time.Time) []byte {
 func errorResponse(msg string) []byte {
 	b, _ := json.Marshal(Response{OK: false, Error: msg})
 	return b
+}
+
+// appendTiming writes a map of timings with its keys in order.
+func appendTiming(b []byte, t map[string]float64) []byte {
+	keys := make([]string, 0, len(t))
+	for k := range t {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	b = append(b, '{')
+	for i, k := range keys {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = jsonio.AppendString(b, k)
+		b = append(b, ':')
+		b = jsonio.AppendFloat(b, t[k])
+	}
+	return append(b, '}')
 }

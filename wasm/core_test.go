@@ -3,8 +3,6 @@ package main
 import (
 	"encoding/json"
 	"fmt"
-	"math"
-	"math/rand"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -14,7 +12,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
-	"standout/internal/jsonio"
+	"standout/internal/report"
 	"standout/static"
 )
 
@@ -125,7 +123,7 @@ func TestDigestMatchesReport(t *testing.T) {
 		assert.ElementsMatch(t, f.Marks, ids)
 		if f.Fix != nil {
 			require.NotNil(t, g.Fix)
-			assert.Equal(t, DigestFix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Verified: f.Fix.Verified}, *g.Fix)
+			assert.Equal(t, report.DigestFix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Verified: f.Fix.Verified}, *g.Fix)
 		}
 	}
 	require.NotNil(t, lc.Emphasis)
@@ -136,26 +134,6 @@ func TestDigestMatchesReport(t *testing.T) {
 	assert.Equal(t, fc.Emphasis.Marks, em)
 	assert.Equal(t, fc.Emphasis.Holds, lc.Emphasis.Holds)
 	assert.Equal(t, fc.Emphasis.Inferred, lc.Emphasis.Inferred)
-}
-
-func TestAppendHundredths(t *testing.T) {
-	// The same number as strconv's shortest form of the rounded value.
-	rng := rand.New(rand.NewSource(2))
-	cases := []float64{0, -0.0, 0.004, -0.004, 0.005, 1.5, -1.5, 12.345, 99.995, -0.07, 1e15, -3e20, math.NaN(), math.Inf(1)}
-	for i := 0; i < 10000; i++ {
-		cases = append(cases, (rng.Float64()-0.5)*math.Pow(10, float64(rng.Intn(12))))
-	}
-	for _, v := range cases {
-		var got, want float64
-		gs, ws := string(appendHundredths(nil, v)), string(jsonio.AppendFloat(nil, math.Round(v*100)/100))
-		if ws == "null" {
-			assert.Equal(t, ws, gs)
-			continue
-		}
-		require.NoError(t, json.Unmarshal([]byte(gs), &got), gs)
-		require.NoError(t, json.Unmarshal([]byte(ws), &want), ws)
-		assert.Equal(t, want, got, "%v: %s vs %s", v, gs, ws)
-	}
 }
 
 func TestParseOptionsMatchesEncodingJSON(t *testing.T) {

@@ -1,12 +1,10 @@
-package main
+package report
 
 import (
 	"math"
-	"sort"
 	"strconv"
 
 	"standout/internal/jsonio"
-	"standout/internal/report"
 	"standout/perception"
 )
 
@@ -14,7 +12,7 @@ import (
 // encodes and crosses to JavaScript quickly: per chart the marks' ids,
 // their boxes as one flat array and their verdicts as one letter each, the
 // findings with their marks as indices, and the emphasis. The core writes
-// it by hand (appendDigest); the type documents it and decodes it in tests.
+// it by hand (AppendDigest); the type documents it and decodes it in tests.
 type Digest struct {
 	Pages   []DigestPage `json:"pages"`
 	Caution string       `json:"caution"`
@@ -68,16 +66,16 @@ type DigestEmphasis struct {
 	Holds    map[string]bool `json:"holds"`
 }
 
-// verdictLetter is each verdict's letter in the digest (report.VerdictStyles).
+// verdictLetter is each verdict's letter in the digest (VerdictStyles).
 var verdictLetter = func() map[perception.Verdict]byte {
 	m := map[perception.Verdict]byte{}
-	for _, s := range report.VerdictStyles {
+	for _, s := range VerdictStyles {
 		m[perception.Verdict(s.Verdict)] = s.Letter[0]
 	}
 	return m
 }()
 
-func countMarks(as []report.Analysed) int {
+func CountMarks(as []Analysed) int {
 	n := 0
 	for _, a := range as {
 		n += len(a.Chart.Marks)
@@ -85,8 +83,8 @@ func countMarks(as []report.Analysed) int {
 	return n
 }
 
-// appendDigest writes the Digest of the analysed charts of one page.
-func appendDigest(b []byte, source string, problems []string, as []report.Analysed) []byte {
+// AppendDigest writes the Digest of the analysed charts of one page.
+func AppendDigest(b []byte, source string, problems []string, as []Analysed) []byte {
 	b = append(b, `{"pages":[{"source":`...)
 	b = jsonio.AppendString(b, source)
 	b = append(b, `,"problems":`...)
@@ -96,109 +94,110 @@ func appendDigest(b []byte, source string, problems []string, as []report.Analys
 		if ci > 0 {
 			b = append(b, ',')
 		}
-		ch := a.Chart
-		b = append(b, `{"path":`...)
-		b = jsonio.AppendString(b, ch.Path)
-		b = append(b, `,"isChart":`...)
-		b = strconv.AppendBool(b, ch.IsChart)
-		b = append(b, `,"box":`...)
-		b = jsonio.AppendFloats(b, ch.Box[:])
-		b = append(b, `,"nodes":[`...)
-		for i, m := range ch.Marks {
-			if i > 0 {
-				b = append(b, ',')
-			}
-			b = strconv.AppendInt(b, int64(m.Node), 10)
-		}
-		b = append(b, `],"boxes":[`...)
-		for i, m := range ch.Marks {
-			if i > 0 {
-				b = append(b, ',')
-			}
-			for k, v := range m.BBox {
-				if k > 0 {
-					b = append(b, ',')
-				}
-				b = appendHundredths(b, v)
-			}
-		}
-		b = append(b, `],"verdicts":"`...)
-		for i := range ch.Marks {
-			v := byte('b')
-			if a.Result != nil {
-				if l, ok := verdictLetter[a.Result.Marks[i][0].Verdict]; ok {
-					v = l
-				}
-			}
-			b = append(b, v)
-		}
-		b = append(b, `","findings":[`...)
-		if a.Result != nil {
-			for fi, f := range a.Result.Findings {
-				if fi > 0 {
-					b = append(b, ',')
-				}
-				b = append(b, `{"id":`...)
-				b = jsonio.AppendString(b, f.ID)
-				b = append(b, `,"severity":`...)
-				b = jsonio.AppendString(b, string(f.Severity))
-				b = append(b, `,"message":`...)
-				b = jsonio.AppendString(b, f.Message)
-				b = append(b, `,"marks":`...)
-				b = appendInts(b, f.Marks, len(ch.Marks))
-				if f.Fix != nil {
-					b = append(b, `,"fix":{"kind":`...)
-					b = jsonio.AppendString(b, f.Fix.Kind)
-					b = append(b, `,"css":`...)
-					b = jsonio.AppendString(b, f.Fix.CSS)
-					b = append(b, `,"verified":`...)
-					b = strconv.AppendBool(b, f.Fix.Verified)
-					b = append(b, '}')
-				}
-				b = append(b, '}')
-			}
-		}
-		b = append(b, ']')
-		if a.Result != nil {
-			b = append(b, `,"emphasis":{"marks":`...)
-			b = appendInts(b, a.Result.Emphasis, len(ch.Marks))
-			b = append(b, `,"inferred":`...)
-			b = strconv.AppendBool(b, a.Result.Inferred)
-			b = append(b, `,"holds":{`...)
-			for vi, v := range perception.Visions {
-				if vi > 0 {
-					b = append(b, ',')
-				}
-				b = jsonio.AppendString(b, v.String())
-				b = append(b, ':')
-				b = strconv.AppendBool(b, a.Result.Holds[vi])
-			}
-			b = append(b, "}}"...)
-		}
-		b = append(b, '}')
+		b = appendDigestChart(b, a)
 	}
 	b = append(b, `]}],"caution":`...)
-	b = jsonio.AppendString(b, report.Caution)
+	b = jsonio.AppendString(b, Caution)
 	return append(b, '}')
 }
 
-// appendTiming writes a map of timings with its keys in order.
-func appendTiming(b []byte, t map[string]float64) []byte {
-	keys := make([]string, 0, len(t))
-	for k := range t {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	b = append(b, '{')
-	for i, k := range keys {
+// appendDigestChart writes one chart of a Digest.
+func appendDigestChart(b []byte, a Analysed) []byte {
+	ch := a.Chart
+	b = append(b, `{"path":`...)
+	b = jsonio.AppendString(b, ch.Path)
+	b = append(b, `,"isChart":`...)
+	b = strconv.AppendBool(b, ch.IsChart)
+	b = append(b, `,"box":`...)
+	b = jsonio.AppendFloats(b, ch.Box[:])
+	b = append(b, `,"nodes":[`...)
+	for i, m := range ch.Marks {
 		if i > 0 {
 			b = append(b, ',')
 		}
-		b = jsonio.AppendString(b, k)
-		b = append(b, ':')
-		b = jsonio.AppendFloat(b, t[k])
+		b = strconv.AppendInt(b, int64(m.Node), 10)
+	}
+	b = append(b, `],"boxes":[`...)
+	for i, m := range ch.Marks {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		for k, v := range m.BBox {
+			if k > 0 {
+				b = append(b, ',')
+			}
+			b = appendHundredths(b, v)
+		}
+	}
+	b = append(b, `],"verdicts":"`...)
+	for i := range ch.Marks {
+		v := byte('b')
+		if a.Result != nil {
+			if l, ok := verdictLetter[a.Result.Marks[i][0].Verdict]; ok {
+				v = l
+			}
+		}
+		b = append(b, v)
+	}
+	b = append(b, `","findings":`...)
+	b = appendDigestFindings(b, a)
+	if a.Result != nil {
+		b = appendDigestEmphasis(b, a)
 	}
 	return append(b, '}')
+}
+
+// appendDigestFindings writes a chart's findings, their marks as indices.
+func appendDigestFindings(b []byte, a Analysed) []byte {
+	ch := a.Chart
+	b = append(b, '[')
+	if a.Result != nil {
+		for fi, f := range a.Result.Findings {
+			if fi > 0 {
+				b = append(b, ',')
+			}
+			b = append(b, `{"id":`...)
+			b = jsonio.AppendString(b, f.ID)
+			b = append(b, `,"severity":`...)
+			b = jsonio.AppendString(b, string(f.Severity))
+			b = append(b, `,"message":`...)
+			b = jsonio.AppendString(b, f.Message)
+			b = append(b, `,"marks":`...)
+			b = appendInts(b, f.Marks, len(ch.Marks))
+			if f.Fix != nil {
+				b = append(b, `,"fix":{"kind":`...)
+				b = jsonio.AppendString(b, f.Fix.Kind)
+				b = append(b, `,"css":`...)
+				b = jsonio.AppendString(b, f.Fix.CSS)
+				b = append(b, `,"verified":`...)
+				b = strconv.AppendBool(b, f.Fix.Verified)
+				b = append(b, '}')
+			}
+			b = append(b, '}')
+		}
+	}
+	return append(b, ']')
+}
+
+// appendDigestEmphasis writes a chart's emphasis, by mark index, and
+// whether it holds for each vision type.
+func appendDigestEmphasis(b []byte, a Analysed) []byte {
+	ch := a.Chart
+	b = append(b, `,"emphasis":{"marks":`...)
+	b = appendInts(b, a.Result.Emphasis, len(ch.Marks))
+	b = append(b, `,"inferred":`...)
+	b = strconv.AppendBool(b, a.Result.Inferred)
+	b = append(b, `,"holds":{`...)
+	for vi, v := range perception.Visions {
+		if vi > 0 {
+			b = append(b, ',')
+		}
+		b = jsonio.AppendString(b, v.String())
+		b = append(b, ':')
+		b = strconv.AppendBool(b, a.Result.Holds[vi])
+	}
+	b = append(b, "}}"...)
+	return b
 }
 
 // appendHundredths writes v rounded to hundredths: the same number as
