@@ -82,6 +82,28 @@ func markFills(ch *Chart) []string {
 	return out
 }
 
+// judge compares a walked chart with its truth: the discrete marks'
+// count (within 2%, or 1) and the set of fills.
+func judge(tc truthChart, ch *Chart) (got int, countOK bool, gotFills, wantFills []string, fillsOK bool) {
+	want := 0
+	for k, v := range tc.MarksByType {
+		if discreteTruth[k] {
+			want += v
+		}
+	}
+	for _, m := range ch.Marks {
+		if m.Kind.Discrete() {
+			got++
+		}
+	}
+	countOK = math.Abs(float64(got-want)) <= math.Max(1, 0.02*float64(want))
+	wantFills = append([]string(nil), tc.FillsResolved...)
+	sort.Strings(wantFills)
+	gotFills = markFills(ch)
+	fillsOK = strings.Join(gotFills, ",") == strings.Join(wantFills, ",")
+	return got, countOK, gotFills, wantFills, fillsOK
+}
+
 func TestCorpus(t *testing.T) {
 	dir := corpusDir(t)
 	data, err := os.ReadFile(filepath.Join(dir, "truth.json"))
@@ -107,17 +129,7 @@ func TestCorpus(t *testing.T) {
 				want += v
 			}
 		}
-		got := 0
-		for _, m := range ch.Marks {
-			if m.Kind.Discrete() {
-				got++
-			}
-		}
-		cok := math.Abs(float64(got-want)) <= math.Max(1, 0.02*float64(want))
-		wantFills := append([]string(nil), tc.FillsResolved...)
-		sort.Strings(wantFills)
-		gotFills := markFills(ch)
-		fok := strings.Join(gotFills, ",") == strings.Join(wantFills, ",")
+		got, cok, gotFills, wantFills, fok := judge(tc, ch)
 		if cok {
 			countOK++
 		}

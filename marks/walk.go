@@ -30,6 +30,25 @@ func (k Kind) Discrete() bool {
 	return k == KindPoint || k == KindBar || k == KindCell || k == KindArc
 }
 
+// Role is what an element the walk sets aside is; RoleMark is a data mark.
+type Role string
+
+// Roles.
+const (
+	RoleMark        Role = ""
+	RoleBackground  Role = "background"   // a rectangle behind most of the drawing or of a facet, filled
+	RoleFrame       Role = "frame"        // the same, unfilled
+	RoleTick        Role = "tick"         // a short segment in a lined-up group
+	RoleGridline    Role = "gridline"     // a long segment in a lined-up group
+	RoleAxis        Role = "axis"         // a long line that ticks hang from
+	RoleLabel       Role = "label"        // text that labels an axis, a title or an annotation
+	RoleLegend      Role = "legend"       // a legend swatch (kept in Chart.Legend)
+	RoleLegendLabel Role = "legend-label" // a legend swatch's text
+	RoleHelper      Role = "helper"       // a shape that paints nothing
+	RoleHidden      Role = "hidden"       // not rendered, invisible or fully transparent
+	RoleImage       Role = "image"        // a raster image
+)
+
 // Mark is one data mark with its effective paint and geometry in page px.
 type Mark struct {
 	ID    string
@@ -73,10 +92,9 @@ type Chart struct {
 	Marks   []Mark
 	// Legend holds the legend swatches, kept apart from the data marks.
 	Legend []Mark
-	// Furniture counts what was set aside, by role: "axis", "tick",
-	// "gridline", "label", "title", "background", "frame", "helper",
-	// "hidden", "image", "legend-label".
-	Furniture map[string]int
+	// Furniture counts what was set aside, by role (legend swatches are
+	// in Legend instead).
+	Furniture map[Role]int
 	Problems  []string
 	// Selected lists the indices into Marks of the marks that matched the
 	// caller's selector, or sit inside an element that did.
@@ -92,7 +110,7 @@ type cand struct {
 	strokeA float64
 	strokeW float64
 	label   string
-	role    string // furniture role, or "" for a mark
+	role    Role
 	kind    Kind
 	textPos Point
 }
@@ -103,11 +121,16 @@ type cand struct {
 // works the same on any library's markup and on the static and browser
 // snapshots alike.
 func Walk(s *snapshot.Snapshot) (*Chart, error) {
+	return WalkWith(s, &DefaultHeuristics)
+}
+
+// WalkWith is Walk with other thresholds.
+func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	if s.Version != snapshot.SnapshotVersion {
 		return nil, fmt.Errorf("marks: snapshot version %d, want %d", s.Version, snapshot.SnapshotVersion)
 	}
 	ch := &Chart{Path: s.Path, Source: s.Source, Box: s.Box, Background: s.Background,
-		Furniture: map[string]int{}, Problems: append([]string(nil), s.Problems...)}
+		Furniture: map[Role]int{}, Problems: append([]string(nil), s.Problems...)}
 	n := len(s.Nodes)
 	if n == 0 {
 		ch.Reason = "empty drawing"
@@ -149,7 +172,7 @@ func Walk(s *snapshot.Snapshot) (*Chart, error) {
 			continue
 		}
 		if hidden[i] || nd.Flags&snapshot.Invisible != 0 || opac[i] <= 0 {
-			ch.Furniture["hidden"]++
+			ch.Furniture[RoleHidden]++
 			continue
 		}
 		slab = append(slab, cand{node: i, n: nd, opacity: opac[i], label: labels[i]})
@@ -161,14 +184,14 @@ func Walk(s *snapshot.Snapshot) (*Chart, error) {
 			cands = append(cands, c)
 		}
 	}
-	classifyFurniture(ch, cands)
-	classifyTexts(texts)
-	legendSwatches(ch, cands, texts)
-	assignKinds(cands)
+	classifyFurniture(h, ch, cands)
+	classifyTexts(h, texts)
+	legendSwatches(h, cands, texts)
+	assignKinds(h, cands)
 	ch.Marks = make([]Mark, 0, len(cands)+len(texts))
 	for _, c := range cands {
-		if c.role != "" {
-			if c.role != "legend" {
+		if c.role != RoleMark {
+			if c.role != RoleLegend {
 				ch.Furniture[c.role]++
 			}
 			continue
@@ -176,12 +199,12 @@ func Walk(s *snapshot.Snapshot) (*Chart, error) {
 		ch.Marks = append(ch.Marks, makeMark(c))
 	}
 	for _, c := range cands {
-		if c.role == "legend" {
+		if c.role == RoleLegend {
 			ch.Legend = append(ch.Legend, makeMark(c))
 		}
 	}
 	for _, t := range texts {
-		if t.role != "" {
+		if t.role != RoleMark {
 			ch.Furniture[t.role]++
 			continue
 		}
@@ -210,10 +233,10 @@ func Walk(s *snapshot.Snapshot) (*Chart, error) {
 			}
 		}
 	}
-	w, h := s.Box[2], s.Box[3]
+	w, ht := s.Box[2], s.Box[3]
 	switch {
-	case w > 0 && h > 0 && w <= 64 && h <= 64:
-		ch.Reason = fmt.Sprintf("icon-sized drawing (%.0f×%.0f px)", w, h)
+	case w > 0 && ht > 0 && w <= h.IconMax && ht <= h.IconMax:
+		ch.Reason = fmt.Sprintf("icon-sized drawing (%.0f×%.0f px)", w, ht)
 	case len(ch.Marks) == 0:
 		ch.Reason = "no data marks"
 	default:
@@ -259,7 +282,7 @@ func (ch *Chart) sortOut(c *cand) int {
 		return isText
 	}
 	if nd.Tag == "image" {
-		ch.Furniture["image"]++
+		ch.Furniture[RoleImage]++
 		return notDrawn
 	}
 	g, ok, err := Measure(nd)
@@ -278,7 +301,7 @@ func (ch *Chart) sortOut(c *cand) int {
 		return notDrawn
 	}
 	if !(c.fillA > 0 && g.Area > 0) && !(c.strokeA > 0) {
-		c.role = "helper"
+		c.role = RoleHelper
 	}
 	return isShape
 }
@@ -323,50 +346,66 @@ func straight(g *Geometry) (Point, Point, bool) {
 	return a, b, true
 }
 
-// classifyFurniture marks backgrounds, frames, ticks, gridlines and axis
-// lines among the shapes.
-func classifyFurniture(ch *Chart, cands []*cand) {
+// classifyFurniture sets aside backgrounds, frames, ticks, gridlines and
+// axis lines among the shapes, one rule after another.
+func classifyFurniture(h *Heuristics, ch *Chart, cands []*cand) {
+	backgrounds(h, ch, cands)
+	panels(h, ch, cands)
+	segs := alignedSegments(h, cands)
+	grid := gridGroups(h, segs)
+	tickEnds := ticksAndGridlines(h, cands, segs, grid)
+	axisLines(h, segs, grid, tickEnds)
+}
+
+// coverRole is the role of a rectangle that covers others: a background
+// when filled, else a frame.
+func coverRole(c *cand) Role {
+	if c.fillA > 0 {
+		return RoleBackground
+	}
+	return RoleFrame
+}
+
+// backgrounds: rectangles covering most of the drawing (or of the union of
+// the shapes' boxes) are its background or frame.
+func backgrounds(h *Heuristics, ch *Chart, cands []*cand) {
 	chartArea := ch.Box[2] * ch.Box[3]
-	// Union of all shape boxes, to judge "covers the drawing".
-	var ux0, uy0, ux1, uy1 = math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	ux0, uy0, ux1, uy1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	nShapes := 0
 	for _, c := range cands {
-		if c.role != "" {
+		if c.role != RoleMark {
 			continue
 		}
+		nShapes++
 		b := c.g.BBox
 		ux0, uy0 = min(ux0, b[0]), min(uy0, b[1])
 		ux1, uy1 = max(ux1, b[0]+b[2]), max(uy1, b[1]+b[3])
 	}
 	unionArea := (ux1 - ux0) * (uy1 - uy0)
-	nShapes := 0
-	for _, c := range cands {
-		if c.role == "" {
-			nShapes++
-		}
+	if nShapes < 2 {
+		return
 	}
-	// Backgrounds and frames: rectangles covering most of the drawing,
-	// drawn before the things they cover.
 	for _, c := range cands {
-		if c.role != "" || c.g.Shape != ShapeSquare || nShapes < 2 {
+		if c.role != RoleMark || c.g.Shape != ShapeSquare {
 			continue
 		}
 		a := c.g.BBox[2] * c.g.BBox[3]
-		if (chartArea > 0 && a >= 0.5*chartArea) || (unionArea > 0 && a >= 0.85*unionArea) {
-			if c.fillA > 0 {
-				c.role = "background"
-			} else {
-				c.role = "frame"
-			}
+		if (chartArea > 0 && a >= h.BackgroundChart*chartArea) || (unionArea > 0 && a >= h.BackgroundUnion*unionArea) {
+			c.role = coverRole(c)
 		}
 	}
-	// Facet backgrounds and frames: rectangles that hold several other
-	// shapes drawn after them.
+}
+
+// panels: rectangles that hold several smaller shapes drawn after them are
+// a facet's background or frame.
+func panels(h *Heuristics, ch *Chart, cands []*cand) {
+	chartArea := ch.Box[2] * ch.Box[3]
 	for _, c := range cands {
-		if c.role != "" || c.g.Shape != ShapeSquare || c.g.Fold == 0 {
+		if c.role != RoleMark || c.g.Shape != ShapeSquare || c.g.Fold == 0 {
 			continue
 		}
 		b := c.g.BBox
-		if b[2]*b[3] < 0.05*chartArea {
+		if b[2]*b[3] < h.PanelMinShare*chartArea {
 			continue
 		}
 		inside := 0
@@ -375,35 +414,35 @@ func classifyFurniture(ch *Chart, cands []*cand) {
 				continue
 			}
 			ob := o.g.BBox
-			if ob[2]*ob[3] > 0.25*b[2]*b[3] {
+			if ob[2]*ob[3] > h.PanelInnerShare*b[2]*b[3] {
 				continue
 			}
 			if ob[0] >= b[0]-0.5 && ob[1] >= b[1]-0.5 && ob[0]+ob[2] <= b[0]+b[2]+0.5 && ob[1]+ob[3] <= b[1]+b[3]+0.5 {
-				inside++
-				if inside >= 3 {
+				if inside++; inside >= h.PanelMinInside {
 					break
 				}
 			}
 		}
-		if inside >= 3 {
-			if c.fillA > 0 {
-				c.role = "background"
-			} else {
-				c.role = "frame"
-			}
+		if inside >= h.PanelMinInside {
+			c.role = coverRole(c)
 		}
 	}
-	// Straight axis-aligned segments in parallel groups whose starts line
-	// up are ticks or gridlines.
-	type seg struct {
-		c    *cand
-		a, b Point
-		vert bool
-		L    float64
-	}
+}
+
+// seg is a straight axis-aligned segment, a the top or left end.
+type seg struct {
+	c    *cand
+	a, b Point
+	vert bool
+	L    float64
+}
+
+// alignedSegments lists the straight, axis-aligned segments among the
+// shapes not yet set aside.
+func alignedSegments(h *Heuristics, cands []*cand) []seg {
 	var segs []seg
 	for _, c := range cands {
-		if c.role != "" {
+		if c.role != RoleMark {
 			continue
 		}
 		a, b, ok := straight(&c.g)
@@ -411,15 +450,39 @@ func classifyFurniture(ch *Chart, cands []*cand) {
 			continue
 		}
 		dx, dy := math.Abs(b.X-a.X), math.Abs(b.Y-a.Y)
-		if dx > 0.5 && dy > 0.5 {
+		if dx > h.AxisAlignSlack && dy > h.AxisAlignSlack {
 			continue
 		}
 		vert := dy > dx
-		// Normalise so a is the top or left end.
 		if vert && a.Y > b.Y || !vert && a.X > b.X {
 			a, b = b, a
 		}
 		segs = append(segs, seg{c, a, b, vert, max(dx, dy)})
+	}
+	return segs
+}
+
+// gridGroups finds the segments that come in parallel groups of equal
+// length and stroke whose starts or ends line up: ticks and gridlines.
+// Groups are formed per parent, then pooled across parents (some
+// generators wrap each tick in a <g> of its own).
+func gridGroups(h *Heuristics, segs []seg) []bool {
+	grid := make([]bool, len(segs))
+	lineUp := func(idx []int) {
+		if len(idx) < 2 {
+			return
+		}
+		s0 := segs[idx[0]]
+		for _, i := range idx[1:] {
+			s := segs[i]
+			if s0.vert && math.Abs(s.a.Y-s0.a.Y) > h.AlignTol && math.Abs(s.b.Y-s0.b.Y) > h.AlignTol ||
+				!s0.vert && math.Abs(s.a.X-s0.a.X) > h.AlignTol && math.Abs(s.b.X-s0.b.X) > h.AlignTol {
+				return
+			}
+		}
+		for _, i := range idx {
+			grid[i] = true
+		}
 	}
 	type key struct {
 		vert   bool
@@ -427,104 +490,85 @@ func classifyFurniture(ch *Chart, cands []*cand) {
 		L      int64
 		stroke uint32
 	}
-	groups := map[key][]int{}
+	byParent := map[key][]int{}
 	for i, s := range segs {
 		k := key{s.vert, s.c.n.Parent, int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}
-		groups[k] = append(groups[k], i)
+		byParent[k] = append(byParent[k], i)
 	}
-	// Siblings in separate <g> per line (as some generators wrap each
-	// tick) are pooled by grandparent too.
-	isAxis := make([]bool, len(segs))
-	check := func(idx []int) {
-		if len(idx) < 2 {
-			return
-		}
-		s0 := segs[idx[0]]
-		lined := true
-		for _, i := range idx[1:] {
-			s := segs[i]
-			if s0.vert && math.Abs(s.a.Y-s0.a.Y) > 1 && math.Abs(s.b.Y-s0.b.Y) > 1 {
-				lined = false
-			}
-			if !s0.vert && math.Abs(s.a.X-s0.a.X) > 1 && math.Abs(s.b.X-s0.b.X) > 1 {
-				lined = false
-			}
-		}
-		if lined {
-			for _, i := range idx {
-				isAxis[i] = true
-			}
-		}
+	for _, idx := range byParent {
+		lineUp(idx)
 	}
-	for _, idx := range groups {
-		check(idx)
-	}
-	type key2 struct {
-		vert   bool
-		L      int64
-		stroke uint32
-	}
-	groups2 := map[key2][]int{}
+	pooled := map[key][]int{}
 	for i, s := range segs {
-		if !isAxis[i] {
-			groups2[key2{s.vert, int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}] = append(groups2[key2{s.vert, int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}], i)
+		if !grid[i] {
+			k := key{s.vert, -1, int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}
+			pooled[k] = append(pooled[k], i)
 		}
 	}
-	for _, idx := range groups2 {
-		if len(idx) >= 3 && len(idx) <= 200 {
-			check(idx)
+	for _, idx := range pooled {
+		if len(idx) >= h.PooledGroupMin && len(idx) <= h.PooledGroupMax {
+			lineUp(idx)
 		}
 	}
-	// A line through the centres of several other shapes connects data,
-	// whatever its regularity: it is not a gridline.
-	through := func(s seg) int {
-		n := 0
-		for _, o := range cands {
-			if o == s.c || o.role != "" || !o.g.Closed {
-				continue
+	return grid
+}
+
+// throughCentres counts (up to two) the closed shapes whose centres a
+// segment passes through.
+func throughCentres(h *Heuristics, s seg, cands []*cand) int {
+	n := 0
+	tol := s.c.strokeW/2 + h.ThroughTol
+	for _, o := range cands {
+		if o == s.c || o.role != RoleMark || !o.g.Closed {
+			continue
+		}
+		c := o.g.Centroid
+		if s.vert && math.Abs(c.X-s.a.X) <= tol && c.Y >= s.a.Y-tol && c.Y <= s.b.Y+tol ||
+			!s.vert && math.Abs(c.Y-s.a.Y) <= tol && c.X >= s.a.X-tol && c.X <= s.b.X+tol {
+			if n++; n >= 2 {
+				break
 			}
-			c := o.g.Centroid
-			tol := s.c.strokeW/2 + 1.5
-			if s.vert && math.Abs(c.X-s.a.X) <= tol && c.Y >= s.a.Y-tol && c.Y <= s.b.Y+tol ||
-				!s.vert && math.Abs(c.Y-s.a.Y) <= tol && c.X >= s.a.X-tol && c.X <= s.b.X+tol {
-				n++
-				if n >= 2 {
-					break
-				}
-			}
 		}
-		return n
 	}
+	return n
+}
+
+// ticksAndGridlines gives the grouped segments their roles: short ones are
+// ticks, long ones gridlines, unless a long one passes through the
+// centres of data shapes, which it then connects. It returns the ticks'
+// ends.
+func ticksAndGridlines(h *Heuristics, cands []*cand, segs []seg, grid []bool) []Point {
 	var tickEnds []Point
 	for i, s := range segs {
-		if !isAxis[i] {
-			continue
-		}
-		if s.L >= 15 && through(s) >= 2 {
-			isAxis[i] = false
-			continue
-		}
-		if s.L < 15 {
-			s.c.role = "tick"
+		switch {
+		case !grid[i]:
+		case s.L >= h.TickMaxLen && throughCentres(h, s, cands) >= 2:
+			grid[i] = false
+		case s.L < h.TickMaxLen:
+			s.c.role = RoleTick
 			tickEnds = append(tickEnds, s.a, s.b)
-		} else {
-			s.c.role = "gridline"
+		default:
+			s.c.role = RoleGridline
 		}
 	}
-	// A long line that ticks hang from is an axis line.
+	return tickEnds
+}
+
+// axisLines: a long line that ticks hang from is an axis line.
+func axisLines(h *Heuristics, segs []seg, grid []bool, tickEnds []Point) {
 	for i, s := range segs {
-		if isAxis[i] || s.c.role != "" {
+		if grid[i] || s.c.role != RoleMark {
 			continue
 		}
 		touching := 0
 		for _, p := range tickEnds {
-			if s.vert && math.Abs(p.X-s.a.X) <= 1 && p.Y >= s.a.Y-1 && p.Y <= s.b.Y+1 ||
-				!s.vert && math.Abs(p.Y-s.a.Y) <= 1 && p.X >= s.a.X-1 && p.X <= s.b.X+1 {
+			if s.vert && math.Abs(p.X-s.a.X) <= h.AlignTol && p.Y >= s.a.Y-h.AlignTol && p.Y <= s.b.Y+h.AlignTol ||
+				!s.vert && math.Abs(p.Y-s.a.Y) <= h.AlignTol && p.X >= s.a.X-h.AlignTol && p.X <= s.b.X+h.AlignTol {
 				touching++
 			}
 		}
-		if touching >= 2 {
-			s.c.role = "axis"
+		if touching >= h.AxisTickTouches {
+			s.c.role = RoleAxis
 		}
 	}
 }
@@ -532,15 +576,15 @@ func classifyFurniture(ch *Chart, cands []*cand) {
 // classifyTexts sets aside labels and titles; what remains are text marks.
 // Texts that share a parent and line up along one axis are axis or legend
 // labels; a lone text is a title or annotation label.
-func classifyTexts(texts []*cand) {
+func classifyTexts(h *Heuristics, texts []*cand) {
 	byParent := map[int32][]*cand{}
 	for _, t := range texts {
 		byParent[t.n.Parent] = append(byParent[t.n.Parent], t)
 	}
 	for _, ts := range byParent {
-		if len(ts) < 3 {
+		if len(ts) < h.LabelGroupMin {
 			for _, t := range ts {
-				t.role = "label"
+				t.role = RoleLabel
 			}
 			continue
 		}
@@ -555,7 +599,7 @@ func classifyTexts(texts []*cand) {
 		}
 		if sameX || sameY {
 			for _, t := range ts {
-				t.role = "label"
+				t.role = RoleLabel
 			}
 		}
 	}
@@ -564,7 +608,7 @@ func classifyTexts(texts []*cand) {
 // legendSwatches finds legend entries: small marks each with its own label
 // text just to the right, at the same offset for every entry, lined up in
 // a column or a row.
-func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
+func legendSwatches(h *Heuristics, cands []*cand, texts []*cand) {
 	type pair struct {
 		c      *cand
 		t      *cand
@@ -585,12 +629,12 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 	for _, c := range cands {
 		// Legend entries come in small groups; a swatch is never one of
 		// dozens of siblings.
-		if c.role != "" || c.n.Parent >= 0 && siblings[c.n.Parent] > 20 {
+		if c.role != RoleMark || c.n.Parent >= 0 && siblings[c.n.Parent] > h.SwatchMaxSiblings {
 			continue
 		}
 		b := c.g.BBox
 		size := max(b[2], b[3])
-		if size > 60 {
+		if size > h.SwatchMaxSize {
 			continue
 		}
 		cy := b[1] + b[3]/2
@@ -598,7 +642,7 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 		var best *cand
 		bestDx := math.Inf(1)
 		for _, t := range texts {
-			if t.role != "label" {
+			if t.role != RoleLabel {
 				continue
 			}
 			fs := 10.0
@@ -607,7 +651,7 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 			}
 			dx := t.textPos.X - right
 			dy := math.Abs(t.textPos.Y - fs*0.35 - cy)
-			if dx >= -1 && dx <= max(size, 10)+12 && dy <= max(size, fs)*0.6 && dx < bestDx {
+			if dx >= -1 && dx <= max(size, h.SwatchLabelGapMin)+h.SwatchLabelGapExtra && dy <= max(size, fs)*0.6 && dx < bestDx {
 				best, bestDx = t, dx
 			}
 		}
@@ -633,8 +677,8 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 			column := math.Abs(ca.X-cb.X) <= 1.5 && math.Abs(a.t.textPos.X-b.t.textPos.X) <= 1
 			row := math.Abs(ca.Y-cb.Y) <= 1.5 && math.Abs(a.dy-b.dy) <= 1 && math.Abs(a.dx-b.dx) <= 1
 			if column || row {
-				a.c.role = "legend"
-				a.t.role = "legend-label"
+				a.c.role = RoleLegend
+				a.t.role = RoleLegendLabel
 				break
 			}
 		}
@@ -642,17 +686,17 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 	// A gradient ramp with labels is a legend too.
 	paintCount := map[uint32]int{}
 	for _, c := range cands {
-		if c.role == "" && c.n.Fill.Kind == snapshot.PaintServer {
+		if c.role == RoleMark && c.n.Fill.Kind == snapshot.PaintServer {
 			paintCount[c.n.Fill.RGBA]++
 		}
 	}
 	for _, c := range cands {
-		if c.role != "" || c.n.Fill.Kind != snapshot.PaintServer || c.g.Shape != ShapeSquare || paintCount[c.n.Fill.RGBA] != 1 {
+		if c.role != RoleMark || c.n.Fill.Kind != snapshot.PaintServer || c.g.Shape != ShapeSquare || paintCount[c.n.Fill.RGBA] != 1 {
 			continue
 		}
 		b := c.g.BBox
-		if max(b[2], b[3]) >= 4*min(b[2], b[3]) {
-			c.role = "legend"
+		if max(b[2], b[3]) >= h.RampMinAspect*min(b[2], b[3]) {
+			c.role = RoleLegend
 		}
 	}
 }
@@ -660,7 +704,7 @@ func legendSwatches(ch *Chart, cands []*cand, texts []*cand) {
 // assignKinds gives each remaining shape its mark kind. Closed outlines
 // are judged per parent group, by repetition: a data series draws the same
 // kind of glyph many times, while regions (maps, areas) vary.
-func assignKinds(cands []*cand) {
+func assignKinds(h *Heuristics, cands []*cand) {
 	groups := map[int32][]*cand{}
 	// Siblings come in runs: append to the last parent's group without a
 	// map lookup.
@@ -671,7 +715,7 @@ func assignKinds(cands []*cand) {
 		}
 	}
 	for _, c := range cands {
-		if c.role != "" {
+		if c.role != RoleMark {
 			continue
 		}
 		g := &c.g
@@ -686,7 +730,7 @@ func assignKinds(cands []*cand) {
 				lastParent, last = c.n.Parent, groups[c.n.Parent]
 			}
 			last = append(last, c)
-		case !g.Closed && symbolStrokes(g):
+		case !g.Closed && symbolStrokes(h, g):
 			c.kind = KindPoint
 		case !g.Closed:
 			if _, _, ok := straight(g); ok {
@@ -717,12 +761,12 @@ func assignKinds(cands []*cand) {
 		}
 		symbols := 0
 		for _, c := range grp {
-			if c.g.Shape != ShapeOther && c.g.Shape != ShapeSquare || pointLike(&c.g) {
+			if c.g.Shape != ShapeOther && c.g.Shape != ShapeSquare || pointLike(h, &c.g) {
 				symbols++
 			}
 		}
-		homogeneous := float64(count[top]) >= 0.8*float64(len(grp)) ||
-			float64(symbols) >= 0.9*float64(len(grp)) && len(count) <= 12
+		homogeneous := float64(count[top]) >= h.HomogeneousShare*float64(len(grp)) ||
+			float64(symbols) >= h.SymbolShare*float64(len(grp)) && len(count) <= h.MaxSymbolKinds
 		var rects []*cand
 		for _, c := range grp {
 			g := &c.g
@@ -731,26 +775,26 @@ func assignKinds(cands []*cand) {
 				rects = append(rects, c)
 			case !homogeneous && len(grp) > 1:
 				c.kind = KindArea
-			case g.Shape != ShapeOther || pointLike(g):
+			case g.Shape != ShapeOther || pointLike(h, g):
 				c.kind = KindPoint
 			default:
 				c.kind = KindArea
 			}
 		}
-		if len(rects) > 0 && !homogeneous && len(grp) > 4 {
+		if len(rects) > 0 && !homogeneous && len(grp) > h.MixedRectsMin {
 			for _, c := range rects {
 				c.kind = KindArea
 			}
 			continue
 		}
-		rectKinds(rects)
+		rectKinds(h, rects)
 	}
 }
 
 // rectKinds decides between bars, cells and square points for the
 // rectangles of one group: equal sizes on a lattice are cells, small equal
 // squares that do not tile are points, the rest are bars.
-func rectKinds(grp []*cand) {
+func rectKinds(h *Heuristics, grp []*cand) {
 	if len(grp) == 0 {
 		return
 	}
@@ -766,9 +810,9 @@ func rectKinds(grp []*cand) {
 	kind := KindBar
 	equal := len(ws) == 1 && len(hs) == 1
 	switch {
-	case len(grp) >= 4 && equal && len(xs) >= 2 && len(ys) >= 2 && tiles(grp):
+	case len(grp) >= h.CellsMin && equal && len(xs) >= 2 && len(ys) >= 2 && tiles(h, grp):
 		kind = KindCell
-	case equal && len(grp) >= 2 && squareish(grp[0].g.Subpaths[0].Pts) && max(grp[0].g.BBox[2], grp[0].g.BBox[3]) <= 24:
+	case equal && len(grp) >= 2 && squareish(grp[0].g.Subpaths[0].Pts) && max(grp[0].g.BBox[2], grp[0].g.BBox[3]) <= h.SquarePointMax:
 		kind = KindPoint
 	}
 	for _, c := range grp {
@@ -778,8 +822,8 @@ func rectKinds(grp []*cand) {
 
 // tiles reports whether most rectangles have a neighbour within a tenth of
 // their size: cells abut, scattered squares do not.
-func tiles(grp []*cand) bool {
-	if len(grp) > 2000 {
+func tiles(h *Heuristics, grp []*cand) bool {
+	if len(grp) > h.LatticeAssumed {
 		return true // a lattice that large is a heat map
 	}
 	near := 0
@@ -804,18 +848,18 @@ func tiles(grp []*cand) bool {
 
 // pointLike: a small closed outline with few corners and no long curves,
 // such as a hexagon or an arrow glyph.
-func pointLike(g *Geometry) bool {
+func pointLike(h *Heuristics, g *Geometry) bool {
 	n := 0
 	for _, s := range g.Subpaths {
 		n += len(s.Pts)
 	}
-	return n <= 48 && max(g.BBox[2], g.BBox[3]) <= 60
+	return n <= h.PointMaxVertices && max(g.BBox[2], g.BBox[3]) <= h.PointMaxSize
 }
 
 // symbolStrokes: a glyph drawn as a few short crossing strokes (a plus, an
 // ×, an asterisk).
-func symbolStrokes(g *Geometry) bool {
-	if len(g.Subpaths) < 2 || len(g.Subpaths) > 4 || max(g.BBox[2], g.BBox[3]) > 30 {
+func symbolStrokes(h *Heuristics, g *Geometry) bool {
+	if len(g.Subpaths) < 2 || len(g.Subpaths) > h.SymbolStrokesMax || max(g.BBox[2], g.BBox[3]) > h.SymbolStrokesSize {
 		return false
 	}
 	for _, s := range g.Subpaths {

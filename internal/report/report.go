@@ -218,7 +218,7 @@ func PageOf(name string, problems []string, as []Analysed) Page {
 		ch := a.Chart
 		rc := Chart{Path: ch.Path, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
 			Background: snapshot.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
-			Furniture: ch.Furniture, Problems: nonNil(ch.Problems)}
+			Furniture: furniture(ch.Furniture), Problems: nonNil(ch.Problems)}
 		for _, m := range ch.Marks {
 			rc.Marks = append(rc.Marks, toMark(m))
 		}
@@ -232,6 +232,15 @@ func PageOf(name string, problems []string, as []Analysed) Page {
 		rp.Charts = append(rp.Charts, rc)
 	}
 	return rp
+}
+
+// furniture counts what the walk set aside, by role name.
+func furniture(f map[marks.Role]int) map[string]int {
+	out := make(map[string]int, len(f))
+	for r, n := range f {
+		out[string(r)] = n
+	}
+	return out
 }
 
 func nonNil(s []string) []string {

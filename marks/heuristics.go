@@ -1,0 +1,117 @@
+package marks
+
+// Heuristics are the walk's thresholds. Each says what it decides and why.
+// Its evidence is the corpus charts the walk reads right with the value
+// and wrong with it halved or doubled (heuristicsEvidence in
+// heuristics_test.go, which TestHeuristicsEvidence recomputes from
+// shared/corpus). Where the corpus reads the same across that range, the
+// value is provisional: common practice or a case built by a unit test,
+// and a candidate for tuning on more charts. Lengths are in page CSS px.
+type Heuristics struct {
+	// IconMax: a drawing at most this wide and high is an icon, not a
+	// chart. Common practice: interface icons are 16–48 px.
+	IconMax float64
+
+	// BackgroundChart and BackgroundUnion: a rectangle covering at least
+	// this share of the drawing, or of the union of the shapes' boxes, is
+	// a background (filled) or a frame (unfilled), not a bar. Evidence
+	// (BackgroundChart): vega-lite/bar_1d.
+	BackgroundChart, BackgroundUnion float64
+	// PanelMinShare: a rectangle covering at least this share of the
+	// drawing and holding PanelMinInside shapes drawn after it is a facet's
+	// background or frame; each inner shape covers at most PanelInnerShare
+	// of it.
+	PanelMinShare   float64
+	PanelMinInside  int
+	PanelInnerShare float64
+
+	// AxisAlignSlack: a segment is axis-aligned when its extent across
+	// its direction is within this; segments line up when their ends are
+	// within AlignTol.
+	AxisAlignSlack, AlignTol float64
+	// PooledGroupMin and PooledGroupMax: segments pooled across parents
+	// (ticks each wrapped in a <g> of its own) count as a tick or grid
+	// group only in groups of this many; more is a data series of rules.
+	PooledGroupMin, PooledGroupMax int
+	// TickMaxLen: an aligned segment shorter than this is a tick, a longer
+	// one a gridline, unless it passes through the centres of two closed
+	// shapes (within half its stroke plus ThroughTol): then it connects
+	// data.
+	TickMaxLen, ThroughTol float64
+	// AxisTickTouches: a long line that this many tick ends touch (within
+	// AlignTol) is an axis line.
+	AxisTickTouches int
+
+	// LabelGroupMin: texts sharing a parent are marks (direct labels of
+	// data) only in groups of at least this many that do not line up.
+	LabelGroupMin int
+
+	// SwatchMaxSiblings: a legend swatch is never one of more siblings
+	// than this. SwatchMaxSize: nor larger than this. A swatch's label
+	// starts within max(size, SwatchLabelGapMin) + SwatchLabelGapExtra
+	// to its right.
+	SwatchMaxSiblings                      int
+	SwatchMaxSize                          float64
+	SwatchLabelGapMin, SwatchLabelGapExtra float64
+	// RampMinAspect: a lone gradient-filled rectangle at least this many
+	// times longer than wide is a colour ramp in a legend. Evidence:
+	// vega-lite/rect_heatmap, vega-lite/layer_text_heatmap.
+	RampMinAspect float64
+
+	// HomogeneousShare: a group of closed outlines is one series of glyphs
+	// when its commonest shape makes up this share, or when SymbolShare of
+	// them are symbols of at most MaxSymbolKinds kinds. Evidence
+	// (HomogeneousShare): eight bar charts of both libraries, among them
+	// vega-lite/bar and observable-plot/letterFrequencyBar; (SymbolShare)
+	// observable-plot/explicitSymbol, observable-plot/symbolSetFill,
+	// vega-lite/point_color_with_shape; (MaxSymbolKinds)
+	// observable-plot/symbolSetFill.
+	HomogeneousShare, SymbolShare float64
+	MaxSymbolKinds                int
+	// MixedRectsMin: in a group that is not homogeneous and has more
+	// outlines than this, rectangles are areas (map regions), not bars.
+	MixedRectsMin int
+	// CellsMin: equal rectangles on a lattice are cells in groups of at
+	// least this many; SquarePointMax: equal squares at most this large
+	// that do not tile are points. LatticeAssumed: a group this large is
+	// taken for a lattice without testing neighbours (the test is
+	// quadratic).
+	CellsMin       int
+	SquarePointMax float64
+	LatticeAssumed int
+	// PointMaxVertices and PointMaxSize: a small closed outline of few
+	// vertices is a point symbol (a hexagon, an arrow glyph).
+	PointMaxVertices int
+	PointMaxSize     float64
+	// SymbolStrokesMax and SymbolStrokesSize: two to this many short
+	// crossing strokes within this size are one symbol (a plus, an ×).
+	SymbolStrokesMax  int
+	SymbolStrokesSize float64
+}
+
+// DefaultHeuristics are the thresholds the walk uses.
+var DefaultHeuristics = Heuristics{
+	IconMax: 64,
+
+	BackgroundChart: 0.5, BackgroundUnion: 0.85,
+	PanelMinShare: 0.05, PanelMinInside: 3, PanelInnerShare: 0.25,
+
+	AxisAlignSlack: 0.5, AlignTol: 1,
+	PooledGroupMin: 3, PooledGroupMax: 200,
+	TickMaxLen: 15, ThroughTol: 1.5,
+	AxisTickTouches: 2,
+
+	LabelGroupMin: 3,
+
+	SwatchMaxSiblings: 20, SwatchMaxSize: 60,
+	SwatchLabelGapMin: 10, SwatchLabelGapExtra: 12,
+	RampMinAspect: 4,
+
+	HomogeneousShare: 0.8, SymbolShare: 0.9, MaxSymbolKinds: 12,
+	MixedRectsMin:    4,
+	CellsMin:         4,
+	SquarePointMax:   24,
+	LatticeAssumed:   2000,
+	PointMaxVertices: 48, PointMaxSize: 60,
+	SymbolStrokesMax: 4, SymbolStrokesSize: 30,
+}
