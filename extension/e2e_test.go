@@ -40,6 +40,7 @@ import (
 	"standout/internal/browser"
 	"standout/internal/demo"
 	"standout/internal/report"
+	"standout/internal/testkit"
 	"standout/marks"
 	"standout/perception/colour"
 	"standout/static"
@@ -72,16 +73,7 @@ type harness struct {
 	url   string
 }
 
-func chromium(t testing.TB) string {
-	exe, err := browser.Find("")
-	if err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatalf("Chromium is required under CI=true: %v", err)
-		}
-		t.Skip(err)
-	}
-	return exe
-}
+func chromium(t testing.TB) string { return testkit.Chromium(t) }
 
 func newHarness(t testing.TB) *harness {
 	exe := chromium(t)

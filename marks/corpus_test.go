@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"standout/internal/testkit"
 	"standout/snapshot"
 	"standout/static"
 	"strings"
@@ -15,20 +16,9 @@ import (
 	"github.com/stretchr/testify/require"
 )
 
-// corpusDir finds shared/corpus beside the repository. Under CI=true it
-// must exist.
-func corpusDir(t testing.TB) string {
-	for _, p := range []string{"../../shared/corpus", "../shared/corpus"} {
-		if _, err := os.Stat(filepath.Join(p, "truth.json")); err == nil {
-			return p
-		}
-	}
-	if os.Getenv("CI") == "true" {
-		t.Fatal("shared/corpus/truth.json not found beside the repository")
-	}
-	t.Skip("shared/corpus not found beside the repository")
-	return ""
-}
+// corpusDir is shared/corpus (testkit.Corpus): a developer machine
+// without it skips, CI fails.
+func corpusDir(t testing.TB) string { return testkit.Corpus(t) }
 
 type truthChart struct {
 	MarksByType   map[string]int `json:"marks_by_type"`

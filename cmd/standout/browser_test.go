@@ -24,18 +24,12 @@ import (
 	"standout/internal/browser"
 	"standout/internal/demo"
 	"standout/internal/report"
+	"standout/internal/testkit"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files")
 
-func needBrowser(t testing.TB) {
-	if _, err := browser.Find(""); err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatalf("Chromium is required under CI=true: %v", err)
-		}
-		t.Skip(err)
-	}
-}
+func needBrowser(t testing.TB) { testkit.Chromium(t) }
 
 // parityPages are the demo pages and the testdata pages.
 func parityPages(t *testing.T) []string {
@@ -237,8 +231,7 @@ func BenchmarkBatch(b *testing.B) {
 	for i := 0; i < 24; i++ {
 		urls = append(urls, fmt.Sprintf("%s/p%d", srv.URL, i))
 	}
-	exe, err := browser.Find("")
-	require.NoError(b, err)
+	exe := testkit.Chromium(b)
 	for _, tabs := range []int{1, 2, 4} {
 		b.Run(fmt.Sprintf("tabs=%d", tabs), func(b *testing.B) {
 			var load, read, analyse, wall float64

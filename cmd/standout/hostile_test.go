@@ -23,6 +23,7 @@ import (
 
 	"standout/internal/browser"
 	"standout/internal/report"
+	"standout/internal/testkit"
 )
 
 func writePage(t *testing.T, dir, name, body string) string {
@@ -73,8 +74,7 @@ func TestIssue10LocalPagesStayInTheirFolder(t *testing.T) {
 	defer local.Close()
 	u, err := local.url(page)
 	require.NoError(t, err)
-	exe, err := browser.Find("")
-	require.NoError(t, err)
+	exe := testkit.Chromium(t)
 	res, err := readInBrowser(exe, []string{u}, browser.ReadOptions{Screenshot: true}, &strings.Builder{})
 	require.NoError(t, err)
 	require.NoError(t, res[0].Err)

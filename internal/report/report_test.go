@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"os"
 	"path/filepath"
+	"standout/internal/testkit"
 	"standout/static"
 	"strings"
 	"testing"
@@ -12,14 +13,11 @@ import (
 	"github.com/stretchr/testify/require"
 )
 
-// charts are the repository's fixtures and, when it is beside the
-// repository, the shared corpus of real charts.
+// charts are the repository's test pages and the shared corpus of real
+// charts.
 func charts(t *testing.T) []string {
-	files, _ := filepath.Glob("../../testdata/*.*")
-	corpus, _ := filepath.Glob("../../../shared/corpus/*/*.svg")
-	if len(corpus) == 0 && os.Getenv("CI") == "true" {
-		t.Fatal("shared/corpus not found beside the repository")
-	}
+	files := testkit.Pages(t)
+	corpus, _ := filepath.Glob(filepath.Join(testkit.Corpus(t), "*", "*.svg"))
 	var out []string
 	for _, f := range append(files, corpus...) {
 		if !strings.HasSuffix(f, ".golden") {

@@ -11,6 +11,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"regexp"
+	"standout/internal/testkit"
 	"strconv"
 	"strings"
 	"testing"
@@ -19,28 +20,12 @@ import (
 	"github.com/stretchr/testify/require"
 )
 
-// sharedDir finds the project's shared/ folder beside the repository, which
-// holds REFERENCES.md. Under CI=true it must exist.
-func sharedDir(t *testing.T) string {
-	t.Helper()
-	for _, p := range []string{"../../../shared", "../../shared", "../shared"} {
-		if _, err := os.Stat(filepath.Join(p, "REFERENCES.md")); err == nil {
-			return p
-		}
-	}
-	if os.Getenv("CI") == "true" {
-		t.Fatal("shared/REFERENCES.md not found beside the repository")
-	}
-	t.Skip("shared/ not found beside the repository")
-	return ""
-}
-
 func TestMachadoMatchesPublishedTables(t *testing.T) {
 	// Appendix A of REFERENCES.md is the colour-science transcription
 	// (colour/blindness/datasets/machado2010.py) of Machado et al.'s
 	// supplementary tables, checked identical to culori src/deficiency.js.
 	// Every matrix must match digit for digit.
-	f, err := os.Open(filepath.Join(sharedDir(t), "REFERENCES.md"))
+	f, err := os.Open(filepath.Join(testkit.Shared(t), "REFERENCES.md"))
 	require.NoError(t, err)
 	defer f.Close()
 	row := regexp.MustCompile(`^\| (Protanomaly|Deuteranomaly|Tritanomaly) \| ([0-9.]+) \| ([-0-9. ]+) \|$`)
