@@ -82,7 +82,7 @@ async function readPage(tabId, toggle) {
       ? await run(tabId, { files: [...SCRIPTS, 'press.js'] })
       : await run(tabId, { func: () => globalThis.standoutOverlay.read() });
   } catch (e) {
-    throw new Error(`reading the page: ${(e && e.message) || e}`);
+    throw new Error(`reading the page: ${(e && e.message) || e}`, { cause: e });
   }
   if (!r || (!r.closed && typeof r.json !== 'string')) throw new Error('reading the page: the read pass returned nothing');
   return r;
@@ -127,7 +127,7 @@ async function show(tabId, result) {
       args: [result],
     });
   } catch (e) {
-    throw new Error(`showing the result: ${(e && e.message) || e}`);
+    throw new Error(`showing the result: ${(e && e.message) || e}`, { cause: e });
   }
 }
 

@@ -3,12 +3,12 @@
 // runs in the extension's origin, so neither the screenshot nor the files
 // are ever readable by the page that was checked.
 
-const status = document.getElementById('status');
+const statusLine = document.getElementById('status');
 const list = document.getElementById('charts');
 
 function say(text, isError) {
-  status.textContent = text;
-  status.className = isError ? 'error' : '';
+  statusLine.textContent = text;
+  statusLine.className = isError ? 'error' : '';
 }
 
 async function main() {

@@ -212,7 +212,7 @@
       let b;
       try {
         b = globalThis.standoutReader.pageBox(l.entry);
-      } catch (e) {
+      } catch {
         continue;
       }
       // Marks were measured relative to the chart's box at read time; the

@@ -267,10 +267,10 @@
         if (!sheetShareable(r.styleSheet, depth + 1)) return false;
         continue;
       }
-      let inner = null;
+      let inner;
       try {
         inner = r.cssRules || null;
-      } catch (e) {
+      } catch {
         return false;
       }
       if (inner && inner.length && !rulesShareable(inner, depth + 1)) return false;
@@ -282,7 +282,7 @@
     let rules;
     try {
       rules = sheet.cssRules;
-    } catch (e) {
+    } catch {
       return false; // a cross-origin sheet: its selectors are unknown
     }
     return rulesShareable(rules, depth);
@@ -671,10 +671,10 @@
         }
         if (tag === 'iframe' || tag === 'frame') {
           const i = nFrame++;
-          let d = null;
+          let d;
           try {
             d = n.contentDocument;
-          } catch (e) {
+          } catch {
             d = null;
           }
           if (!d) {
@@ -756,5 +756,8 @@
     return { source: location.href, snapshots, problems, readMs: performance.now() - t0 - yieldMs, sharedStyles: shared };
   }
 
-  globalThis.standoutReader = Object.freeze({ readPage, findCharts, pageBox, SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES });
+  // The pure parts, which need no page, are exported too, for the unit
+  // tests under Node (test/reader.test.js).
+  const pure = Object.freeze({ packColour, stopAt, mul, invert, viewBoxMatrix, clamp01 });
+  globalThis.standoutReader = Object.freeze({ readPage, findCharts, pageBox, pure, SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES });
 })();

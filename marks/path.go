@@ -4,10 +4,7 @@ import (
 	"fmt"
 	"math"
 	"standout/internal/svgnum"
-	"strconv"
 )
-
-var parseFloat = func(s string) (float64, error) { return strconv.ParseFloat(s, 64) }
 
 // Point is a position in some coordinate system.
 type Point struct{ X, Y float64 }

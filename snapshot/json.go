@@ -72,8 +72,6 @@ const (
 )
 
 const (
-	// recordMin is the fewest numbers a node record has.
-	recordMin = 4
 	// NameUse is the name field of content instantiated by <use>.
 	NameUse = -1
 	// maxGeom bounds a record's geometry count.

@@ -63,7 +63,6 @@ type computed struct {
 // cascader resolves styles for a document.
 type cascader struct {
 	rules    []rule
-	matched  map[*html.Node][]decl // per element: the rule declarations that match, in cascade order
 	problems *[]string
 	dark     bool
 	// budget bounds the selector tests of the whole build.

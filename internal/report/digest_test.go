@@ -14,7 +14,7 @@ import (
 func TestAppendHundredths(t *testing.T) {
 	// The same number as strconv's shortest form of the rounded value.
 	rng := rand.New(rand.NewSource(2))
-	cases := []float64{0, -0.0, 0.004, -0.004, 0.005, 1.5, -1.5, 12.345, 99.995, -0.07, 1e15, -3e20, math.NaN(), math.Inf(1)}
+	cases := []float64{0, math.Copysign(0, -1), 0.004, -0.004, 0.005, 1.5, -1.5, 12.345, 99.995, -0.07, 1e15, -3e20, math.NaN(), math.Inf(1)}
 	for i := 0; i < 10000; i++ {
 		cases = append(cases, (rng.Float64()-0.5)*math.Pow(10, float64(rng.Intn(12))))
 	}

@@ -4,7 +4,6 @@ import (
 	"bufio"
 	"bytes"
 	"encoding/json"
-	"fmt"
 	"math"
 	"math/rand"
 	"os"
@@ -265,5 +264,5 @@ func TestSimulateAgainstColorspacious(t *testing.T) {
 			}
 		}
 	}
-	t.Log(fmt.Sprintf("%d colours, worst difference %.2e", len(reqs)*2000, worst))
+	t.Logf("%d colours, worst difference %.2e", len(reqs)*2000, worst)
 }

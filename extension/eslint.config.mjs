@@ -1,0 +1,26 @@
+// ESLint's recommended rules for the extension's scripts. Classic scripts
+// share globals through globalThis; the browser's and the WebExtension
+// APIs are the environment.
+import js from '@eslint/js';
+import globals from 'globals';
+
+export default [
+  { ignores: ['node_modules/', 'wasm_exec.js'] },
+  js.configs.recommended,
+  {
+    files: ['**/*.js'],
+    languageOptions: {
+      ecmaVersion: 2023,
+      sourceType: 'script',
+      globals: { ...globals.browser, ...globals.webextensions, ...globals.serviceworker, Go: 'readonly' },
+    },
+  },
+  {
+    files: ['background.js'],
+    languageOptions: { sourceType: 'module' },
+  },
+  {
+    files: ['test/**/*.js', 'eslint.config.mjs'],
+    languageOptions: { sourceType: 'module', globals: { ...globals.node } },
+  },
+];
