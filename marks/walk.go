@@ -136,13 +136,39 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 		ch.Reason = "empty drawing"
 		return ch, nil
 	}
+	cands, texts, err := ch.candidates(s)
+	if err != nil {
+		return nil, err
+	}
+	classifyFurniture(h, ch, cands)
+	classifyTexts(h, texts)
+	legendSwatches(h, cands, texts)
+	assignKinds(h, cands)
+	ch.collect(cands, texts)
+	ch.selected(s)
+	w, ht := s.Box[2], s.Box[3]
+	switch {
+	case w > 0 && ht > 0 && w <= h.IconMax && ht <= h.IconMax:
+		ch.Reason = fmt.Sprintf("icon-sized drawing (%.0f×%.0f px)", w, ht)
+	case len(ch.Marks) == 0:
+		ch.Reason = "no data marks"
+	default:
+		ch.IsChart = true
+	}
+	return ch, nil
+}
+
+// candidates lists the shapes and the texts of a snapshot that are drawn,
+// each measured, counting what is hidden or an image as furniture.
+func (ch *Chart) candidates(s *snapshot.Snapshot) (cands, texts []*cand, err error) {
+	n := len(s.Nodes)
 	hidden := make([]bool, n)
 	opac := make([]float64, n)
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
 		p := int(nd.Parent)
 		if p >= i || p < -1 {
-			return nil, fmt.Errorf("marks: snapshot %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+			return nil, nil, fmt.Errorf("marks: snapshot %s: node %d has parent %d, which does not precede it", s.Path, i, p)
 		}
 		hidden[i] = nd.Flags&snapshot.Hidden != 0
 		opac[i] = clamp01(nd.Opacity)
@@ -162,8 +188,7 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	// One slab for all candidates, and room for them in the lists: the
 	// walk allocates per chart, not per mark.
 	slab := make([]cand, 0, n)
-	cands := make([]*cand, 0, n)
-	var texts []*cand
+	cands = make([]*cand, 0, n)
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
 		switch nd.Tag {
@@ -184,10 +209,12 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 			cands = append(cands, c)
 		}
 	}
-	classifyFurniture(h, ch, cands)
-	classifyTexts(h, texts)
-	legendSwatches(h, cands, texts)
-	assignKinds(h, cands)
+	return cands, texts, nil
+}
+
+// collect makes the marks, the legend and the furniture counts of the
+// classified candidates, the marks in document order.
+func (ch *Chart) collect(cands, texts []*cand) {
 	ch.Marks = make([]Mark, 0, len(cands)+len(texts))
 	for _, c := range cands {
 		if c.role != RoleMark {
@@ -215,34 +242,31 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	if !slices.IsSortedFunc(ch.Marks, byNode) {
 		slices.SortStableFunc(ch.Marks, byNode)
 	}
-	if len(s.Selected) > 0 {
-		sel := make([]bool, n)
-		for _, k := range s.Selected {
-			if k >= 0 && int(k) < n {
-				sel[k] = true
-			}
-		}
-		for i := range s.Nodes {
-			if p := s.Nodes[i].Parent; p >= 0 && sel[p] {
-				sel[i] = true
-			}
-		}
-		for i, m := range ch.Marks {
-			if sel[m.Node] {
-				ch.Selected = append(ch.Selected, i)
-			}
+}
+
+// selected lists the marks that the snapshot's selection names, or that
+// sit inside an element it names.
+func (ch *Chart) selected(s *snapshot.Snapshot) {
+	if len(s.Selected) == 0 {
+		return
+	}
+	n := len(s.Nodes)
+	sel := make([]bool, n)
+	for _, k := range s.Selected {
+		if k >= 0 && int(k) < n {
+			sel[k] = true
 		}
 	}
-	w, ht := s.Box[2], s.Box[3]
-	switch {
-	case w > 0 && ht > 0 && w <= h.IconMax && ht <= h.IconMax:
-		ch.Reason = fmt.Sprintf("icon-sized drawing (%.0f×%.0f px)", w, ht)
-	case len(ch.Marks) == 0:
-		ch.Reason = "no data marks"
-	default:
-		ch.IsChart = true
+	for i := range s.Nodes {
+		if p := s.Nodes[i].Parent; p >= 0 && sel[p] {
+			sel[i] = true
+		}
 	}
-	return ch, nil
+	for i, m := range ch.Marks {
+		if sel[m.Node] {
+			ch.Selected = append(ch.Selected, i)
+		}
+	}
 }
 
 // What a visible node's candidate is.
@@ -683,7 +707,12 @@ func legendSwatches(h *Heuristics, cands []*cand, texts []*cand) {
 			}
 		}
 	}
-	// A gradient ramp with labels is a legend too.
+	colourRamps(h, cands)
+}
+
+// colourRamps: a gradient-filled rectangle whose paint no other shape
+// shares, much longer than wide, is a colour ramp in a legend.
+func colourRamps(h *Heuristics, cands []*cand) {
 	paintCount := map[uint32]int{}
 	for _, c := range cands {
 		if c.role == RoleMark && c.n.Fill.Kind == snapshot.PaintServer {

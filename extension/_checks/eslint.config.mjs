@@ -1,11 +1,12 @@
-// ESLint's recommended rules for the extension's scripts. Classic scripts
+// ESLint's recommended rules for the extension's scripts, run from
+// extension/: _checks/node_modules/.bin/eslint -c _checks/eslint.config.mjs . Classic scripts
 // share globals through globalThis; the browser's and the WebExtension
 // APIs are the environment.
 import js from '@eslint/js';
 import globals from 'globals';
 
 export default [
-  { ignores: ['node_modules/', 'wasm_exec.js'] },
+  { ignores: ['_checks/node_modules/', 'wasm_exec.js'] },
   js.configs.recommended,
   {
     files: ['**/*.js'],
@@ -20,7 +21,7 @@ export default [
     languageOptions: { sourceType: 'module' },
   },
   {
-    files: ['test/**/*.js', 'eslint.config.mjs'],
+    files: ['test/**/*.js', '_checks/eslint.config.mjs'],
     languageOptions: { sourceType: 'module', globals: { ...globals.node } },
   },
 ];
