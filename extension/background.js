@@ -53,7 +53,7 @@ async function callCore(options, page) {
   }
 }
 
-const SCRIPTS = ['constants.js', 'cvd-filters.js', 'reader.js', 'overlay.js'];
+const SCRIPTS = ['constants.js', 'cvd-filters.js', 'reader.js', 'machine.js', 'overlay.js'];
 
 // run executes one injection in the tab and returns its result. The tab's
 // activeTab grant can land a moment after the action's click event (seen

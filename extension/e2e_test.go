@@ -70,7 +70,9 @@ type harness struct {
 	t     testing.TB
 	ctx   context.Context
 	extID string
-	url   string
+	// worker is the service worker's context, once a test reached into it.
+	worker context.Context
+	url    string
 }
 
 func chromium(t testing.TB) string { return testkit.Chromium(t) }

@@ -20,19 +20,31 @@ import (
 
 // inWorker evaluates expr in the extension's service worker.
 func (h *harness) inWorker(expr string) {
-	ts, err := chromedp.Targets(h.ctx)
-	require.NoError(h.t, err)
-	var id target.ID
-	for _, ti := range ts {
-		if ti.Type == "service_worker" && strings.HasPrefix(ti.URL, "chrome-extension://"+h.extID) {
-			id = ti.TargetID
+	h.workerValue(expr + "\n;''")
+}
+
+// workerValue evaluates expr, a string, in the extension's service worker.
+// The worker's context lives as long as the harness: cancelling a
+// context attached to the worker would close the worker, and the next
+// message would start a fresh one without what a test put in it.
+func (h *harness) workerValue(expr string) string {
+	if h.worker == nil {
+		ts, err := chromedp.Targets(h.ctx)
+		require.NoError(h.t, err)
+		var id target.ID
+		for _, ti := range ts {
+			if ti.Type == "service_worker" && strings.HasPrefix(ti.URL, "chrome-extension://"+h.extID) {
+				id = ti.TargetID
+			}
 		}
+		require.NotEmpty(h.t, id, "no service worker")
+		wctx, cancel := chromedp.NewContext(h.ctx, chromedp.WithTargetID(id))
+		h.t.Cleanup(cancel)
+		h.worker = wctx
 	}
-	require.NotEmpty(h.t, id, "no service worker")
-	wctx, cancel := chromedp.NewContext(h.ctx, chromedp.WithTargetID(id))
-	defer cancel()
-	_, err = chromedp.Run(wctx, chromedp.Evaluate[chromedp.Void](expr))
+	v, err := chromedp.Run(h.worker, chromedp.Evaluate[string](expr))
 	require.NoError(h.t, err)
+	return v
 }
 
 func (h *harness) escape() {
@@ -128,9 +140,10 @@ func TestIssue10CoreReloadedAfterExit(t *testing.T) {
 	h.escape()
 	h.waitState("")
 	// What a worker holds after the Go program exits: a handle that throws.
-	h.inWorker(`globalThis.standoutHandle = () => { throw new Error('Go program has already exited'); }; 0`)
+	h.inWorker(`globalThis.testThrew = false; globalThis.standoutHandle = () => { globalThis.testThrew = true; throw new Error('Go program has already exited'); }; 0`)
 	h.trigger()
 	h.waitState("ready")
+	assert.Equal(t, "true", h.workerValue(`String(globalThis.testThrew)`), "the press never reached the exited core")
 	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
 }
 

@@ -7,6 +7,7 @@
   if (globalThis.standoutOverlay) return;
 
   const SVG_NS = 'http://www.w3.org/2000/svg';
+  const XHTML_NS = 'http://www.w3.org/1999/xhtml';
   const VISIONS = ['normal', 'protan', 'deutan', 'tritan', 'achromat'];
 
   // The visual language, redundant for readers with CVD: each verdict
@@ -51,19 +52,13 @@
   @media (prefers-reduced-motion: reduce) { * { transition: none !important; animation: none !important; } }
   `;
 
-  // The overlay's state. phase is one of
-  //   closed      nothing on the page;
-  //   reading     a press is being read and checked (no host yet);
-  //   shown       the host shows a check;
-  //   rechecking  the host shows a check and a new one is on its way;
-  //   error       the host shows an error.
-  // Every transition that starts a check takes a new seq; an answer that
-  // does not carry the current seq, or that arrives after a close, is
-  // dropped. view is what the reader chose (preview vision, severity in
-  // tenths, scope); the panel is drawn from it, never read back.
+  // The overlay's state. machine is the phase and the awaited check's seq
+  // (machine.js decides every transition; dispatch applies them). view is
+  // what the reader chose (preview vision, severity in tenths, scope); the
+  // panel is drawn from it, never read back.
+  const M = globalThis.standoutMachine;
   const state = {
-    phase: 'closed',
-    seq: 0,
+    machine: M.initial(),
     view: { vision: 'off', tenths: 10, scope: 'charts' },
     host: null,
     root: null,
@@ -81,15 +76,33 @@
     frame: 0,
   };
 
-  const isOpen = () => state.phase === 'shown' || state.phase === 'rechecking' || state.phase === 'error';
+  const isOpen = () => M.isOpen(state.machine);
 
-  function setPhase(p) {
-    state.phase = p;
-    if (state.host) state.host.setAttribute('data-state', p === 'shown' ? 'ready' : p);
+  // dispatch moves the machine on by one event and carries out the
+  // effects it asks for; it returns the effects. payload is the answer to
+  // render or the error to show.
+  function dispatch(ev, payload) {
+    const { machine, effects } = M.next(state.machine, ev);
+    state.machine = machine;
+    try {
+      for (const e of effects) {
+        if (e === 'teardown') teardown();
+        else if (e === 'unwatch') stopObserving();
+        else if (e === 'error') showError(payload);
+        else if (e === 'render') renderAnswer(payload);
+        else if (e === 'watch') observeCharts();
+      }
+    } finally {
+      if (state.host) state.host.setAttribute('data-state', machine.phase === 'shown' ? 'ready' : machine.phase);
+    }
+    return effects;
   }
 
+  // el makes an HTML element, in the XHTML namespace so that it is one in
+  // a standalone SVG document too (createElement would make a plain XML
+  // element there, without focus() or HTML styling).
   function el(tag, attrs, text) {
-    const e = document.createElement(tag);
+    const e = document.createElementNS(XHTML_NS, tag);
     for (const [k, v] of Object.entries(attrs || {})) e.setAttribute(k, v);
     if (text !== undefined) e.textContent = text;
     return e;
@@ -278,9 +291,9 @@
     const pick = el('button', { type: 'button', 'aria-pressed': String(state.picking), 'data-action': 'pick' }, 'Pick the point of the chart');
     on(pick, 'click', () => setPicking(!state.picking));
     const apply = el('button', { type: 'button', 'data-action': 'check-emphasis' }, 'Check the picked marks');
-    on(apply, 'click', () => rerun());
+    on(apply, 'click', () => rerun({ type: 'recheck' }));
     const close = el('button', { type: 'button', 'data-action': 'close' }, 'Close');
-    on(close, 'click', () => teardown());
+    on(close, 'click', () => dispatch({ type: 'close' }));
     controls.append(pick, apply, close);
     panel.appendChild(controls);
 
@@ -411,21 +424,19 @@
   // rerun checks the page again with the picked emphasis. An answer that
   // is no longer wanted (the overlay closed, or a newer check started) is
   // dropped; a worker that stops on the way is an error on the panel.
-  async function rerun() {
-    if (!isOpen()) return;
+  async function rerun(ev = { type: 'recheck' }) {
+    if (!dispatch(ev).includes('read')) return;
     setPicking(false);
     state.emphasis = [...state.picked];
-    const seq = ++state.seq;
-    setPhase('rechecking');
+    const seq = state.machine.seq;
     let resp;
     try {
       resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasisNodes: state.emphasis, severity: state.view.tenths / 10 } });
     } catch (e) {
       resp = { ok: false, error: `the extension stopped before the check finished (${(e && e.message) || e}); press the button again` };
     }
-    if (seq !== state.seq || !isOpen()) return;
     if (!resp || !resp.ok) {
-      showError((resp && resp.error) || 'the check could not run again');
+      dispatch({ type: 'fail', seq }, (resp && resp.error) || 'the check could not run again');
       return;
     }
     render(resp.data, seq);
@@ -436,7 +447,7 @@
     for (const l of state.layers.values()) {
       const o = new MutationObserver(() => {
         clearTimeout(state.rerunTimer);
-        state.rerunTimer = setTimeout(rerun, 600);
+        state.rerunTimer = setTimeout(() => rerun({ type: 'change' }), 600);
       });
       o.observe(l.entry.svg, { subtree: true, childList: true, attributes: true, characterData: true });
       state.observers.push(o);
@@ -540,12 +551,12 @@
     }
     if (!isOpen()) return;
     if (!resp || !resp.ok) {
-      showError((resp && resp.error) || 'the report could not be made');
+      dispatch({ type: 'fail' }, (resp && resp.error) || 'the report could not be made');
       return;
     }
     const r = JSON.parse(resp.data.response);
     if (!r.ok) {
-      showError(r.error);
+      dispatch({ type: 'fail' }, r.error);
       return;
     }
     if (kind === 'md') download('standout-report.md', 'text/markdown', r.markdown);
@@ -574,12 +585,11 @@
     } catch (e) {
       resp = { ok: false, error: String((e && e.message) || e) };
     }
-    if (isOpen() && (!resp || !resp.ok)) showError((resp && resp.error) || 'the screenshot failed');
+    if (isOpen() && (!resp || !resp.ok)) dispatch({ type: 'fail' }, (resp && resp.error) || 'the screenshot failed');
   }
 
   // ---------- lifecycle ----------
 
-  const XHTML_NS = 'http://www.w3.org/1999/xhtml';
 
   // ensureHost puts the overlay's host on the page: a plain <div> (a
   // built-in element, so no custom element the page defines can reach
@@ -632,7 +642,7 @@
     listen(window, 'keydown', (ev) => {
       if (ev.key === 'Escape' && isOpen()) {
         ev.preventDefault();
-        teardown();
+        dispatch({ type: 'close' });
       }
     }, { capture: true });
   }
@@ -647,17 +657,22 @@
     return { report: r.overlay, timing: Object.assign({}, data.timing, { core: r.timing }) };
   }
 
-  // render shows a check's answer, if it is the one awaited (seq).
+  // render shows a check's answer, if it is the one awaited (seq): a
+  // core's error becomes the error panel.
   function render(data, seq) {
-    if (seq !== state.seq || !(state.phase === 'reading' || isOpen())) return false;
-    const t0 = performance.now();
     let result;
     try {
       result = unpack(data);
     } catch (e) {
-      showError(String((e && e.message) || e));
-      return true;
+      return dispatch({ type: 'fail', seq }, String((e && e.message) || e)).length > 0;
     }
+    return dispatch({ type: 'answer', seq }, result).length > 0;
+  }
+
+  // renderAnswer draws an unpacked answer: the panel from the view model,
+  // the outlines, the picks and the preview.
+  function renderAnswer(result) {
+    const t0 = performance.now();
     ensureHost();
     const panel = buildPanel(result);
     state.panel.replaceWith(panel);
@@ -666,36 +681,29 @@
     showSelection();
     // The preview follows the view, over the charts as they now are.
     if (state.view.vision !== 'off') setPreview();
-    observeCharts();
     result.timing.renderMs = performance.now() - t0;
     state.host.setAttribute('data-timing', JSON.stringify(result.timing));
-    setPhase('shown');
     panel.setAttribute('tabindex', '-1');
     panel.focus({ preventScroll: true });
-    return true;
   }
 
-  // showError shows msg on the panel; a check in flight is dropped and the
-  // charts are no longer watched.
+  // showError shows msg on the error panel (the machine has dropped any
+  // check in flight and stopped watching the charts).
   function showError(msg) {
-    state.seq++;
-    stopObserving();
     ensureHost();
     const panel = el('div', { class: 'panel error', role: 'alert' });
     panel.appendChild(el('h1', {}, 'Standout could not check this page'));
     panel.appendChild(el('p', {}, msg));
     const close = el('button', { type: 'button', 'data-action': 'close' }, 'Close');
-    on(close, 'click', () => teardown());
+    on(close, 'click', () => dispatch({ type: 'close' }));
     panel.appendChild(close);
     state.panel.replaceWith(panel);
     state.panel = panel;
-    setPhase('error');
   }
 
-  // teardown closes the overlay and leaves the page as it was; any answer
-  // still on its way is dropped.
+  // teardown removes the overlay and leaves the page as it was (the
+  // machine drops any answer still on its way).
   function teardown() {
-    state.seq++;
     clearPreview();
     stopObserving();
     if (state.frame) cancelAnimationFrame(state.frame);
@@ -713,7 +721,6 @@
     state.picking = false;
     state.catcher = null;
     state.view = { vision: 'off', tenths: 10, scope: 'charts' };
-    state.phase = 'closed';
   }
 
   // read reads the page for the core: the read pass's result as one JSON
@@ -729,18 +736,14 @@
   // press is the toolbar action: it closes an open check (or one being
   // read), or reads the page for a new one.
   function press() {
-    if (state.phase !== 'closed') {
-      teardown();
-      return { closed: true };
-    }
-    state.phase = 'reading';
-    return read(++state.seq);
+    if (!dispatch({ type: 'press' }).includes('read')) return { closed: true };
+    return read(state.machine.seq);
   }
 
   // recheck reads the page again for the background (a re-check the
   // overlay asked for), under the current seq.
   function recheck() {
-    return read(state.seq);
+    return read(state.machine.seq);
   }
 
   // show and fail are the background's answers to a press.
@@ -751,9 +754,7 @@
   // fail shows an error of the press or check seq; without seq (the
   // press itself failed before a read began) it always shows.
   function fail(msg, seq) {
-    if (seq !== undefined && (seq !== state.seq || state.phase === 'closed')) return false;
-    showError(msg);
-    return true;
+    return dispatch({ type: 'fail', seq }, msg).length > 0;
   }
 
   // The background calls these through chrome.scripting (press through

@@ -318,254 +318,305 @@
   const { HAS_CTM, HAS_GEOM, HAS_BBOX, HAS_D, HAS_TEXT, HAS_LABEL, HAS_NAME, HAS_SAME_STYLE } = C;
   const { STYLE_FILL, STYLE_STROKE, STYLE_FILL_OPACITY, STYLE_STROKE_OPACITY, STYLE_STROKE_WIDTH } = C;
 
-  // Reads one outermost <svg> into a snapshot in its columnar JSON form
-  // (snapshot/json.go). off maps the client coordinates of the
-  // element's own window to page coordinates of the top document, in CSS
-  // px (the scroll offset, plus the frame's position for charts inside
-  // frames).
-  //
-  // The browser reads each computed property and geometry call at a cost
-  // (about half a microsecond each), so the pass reads only what the walk
-  // uses: no fill-opacity without a fill, no stroke-opacity or
-  // stroke-width without a stroke, and a bounding box only for text and
-  // paths, whose extent only the browser knows (the walk computes the
-  // other shapes' boxes from their geometry, as the browser does).
   // capError is thrown when a chart passes a cap; its message is the note.
   class capError extends Error {}
 
-  function readChart(svg, path, root, off, emphasis, share, budget) {
-    let useNodes = 0;
-    const sx = off[0];
-    const sy = off[1];
-    const box = svg.getBoundingClientRect();
-    const tags = [];
-    const tagIndex = new Map();
-    const paints = [0, 0, 0]; // entry 0: none
-    let nPaints = 1;
-    const paintIndex = new Map();
-    const strs = [];
-    const nodes = [];
-    const sel = [];
-    const problems = [];
-    // Per node: its style, its CTM, and what its name is made of (its
-    // parent, its link to it and its tag, for the problems that name it).
-    const styles = [];
-    const ctms = [];
-    const parentOf = [];
-    const linkOf = [];
-    const tagName = [];
-    let prev = null;
-    // pushStyle writes a record's style, or, when it repeats the previous
-    // record's (as most marks' do), says so in the has bits it returns.
-    const pushStyle = (x, fi, si, fo, so, o, sw) => {
-      const p = prev;
-      if (p && x === p[0] && fi === p[1] && si === p[2] && fo === p[3] && so === p[4] && o === p[5] && sw === p[6]) {
-        styles.push(p);
-        return HAS_SAME_STYLE;
-      }
-      nodes.push(x, fi, si, fo, so, o, sw);
-      prev = [x, fi, si, fo, so, o, sw];
-      styles.push(prev);
-      return 0;
-    };
-    const tagOf = (t) => {
-      let i = tagIndex.get(t);
+  // SnapshotWriter writes one chart's snapshot in its columnar JSON form,
+  // record by record, as snapshot/json.go's encoder does: the tags, paints
+  // and strings tables, and per node its record (parent, tag, name link,
+  // has bits, the style unless it repeats the previous record's, then the
+  // optional fields in the order of their bits). It also keeps what the
+  // walk needs back per node: its style, its CTM and its name's parts.
+  class SnapshotWriter {
+    constructor(path, paintOf) {
+      this.path = path;
+      this.paintOf = paintOf;
+      this.tags = [];
+      this.tagIndex = new Map();
+      this.paints = [0, 0, 0]; // entry 0: none
+      this.nPaints = 1;
+      this.paintIndex = new Map();
+      this.strs = [];
+      this.nodes = [];
+      this.sel = [];
+      this.problems = [];
+      this.styles = [];
+      this.ctms = [];
+      this.parentOf = [];
+      this.linkOf = [];
+      this.tagName = [];
+      this.prev = null;
+    }
+
+    get count() {
+      return this.styles.length;
+    }
+
+    tag(t) {
+      let i = this.tagIndex.get(t);
       if (i === undefined) {
-        i = tags.length;
-        tags.push(t);
-        tagIndex.set(t, i);
+        i = this.tags.length;
+        this.tags.push(t);
+        this.tagIndex.set(t, i);
       }
       return i;
-    };
-    const paint = (v) => {
-      let i = paintIndex.get(v);
+    }
+
+    // paint is the index of a computed paint's entry in the paints table.
+    paint(v) {
+      let i = this.paintIndex.get(v);
       if (i === undefined) {
-        const p = paintOf(v, root);
+        const p = this.paintOf(v);
         if (!p) {
           i = 0;
         } else {
-          i = nPaints++;
-          paints.push(p.k, p.c, p.st.length);
-          for (const c of p.st) paints.push(c);
+          i = this.nPaints++;
+          this.paints.push(p.k, p.c, p.st.length);
+          for (const c of p.st) this.paints.push(c);
         }
-        paintIndex.set(v, i);
+        this.paintIndex.set(v, i);
       }
       return i;
-    };
-    const nameOf = (i) => {
-      if (parentOf[i] < 0) return path;
-      const k = linkOf[i];
-      return nameOf(parentOf[i]) + (k < 0 ? '>' + tagName[i] : '/' + tagName[i] + k);
-    };
+    }
 
-    // screenCTM is el's transform to page px: the screen CTM plus the
-    // scroll (and frame) offset. vp is el's nearest viewport ({} when its
-    // mapping to the screen is not known yet): getCTM, which maps to the
-    // viewport, costs about half of getScreenCTM, and the viewport's own
-    // mapping to the screen is the same for every element in it.
-    const screenCTM = (el, vp) => {
-      let m;
-      if (!el.getCTM) {
-        m = null; // not a graphics element (<title>, <style>, …)
-      } else if (vp && vp.toScreen === undefined) {
-        const sc = el.getScreenCTM();
-        const c = el.getCTM();
-        const inv = c && sc && invert(matrixOf(c));
-        vp.toScreen = inv ? mul(matrixOf(sc), inv) : null;
-        m = sc ? matrixOf(sc) : null;
-      } else if (vp && vp.toScreen) {
-        const c = el.getCTM();
-        m = c ? mul(vp.toScreen, matrixOf(c)) : null;
-      } else {
-        const sc = el.getScreenCTM();
-        m = sc ? matrixOf(sc) : null;
-      }
-      if (!m) return [1, 0, 0, 1, sx, sy];
-      m[4] += sx;
-      m[5] += sy;
-      return m;
-    };
+    // begin starts a node's record and returns the node's index; its has
+    // bits are written by end.
+    begin(parent, tag, link, ctm) {
+      const idx = this.styles.length;
+      this.at = this.nodes.length;
+      this.ctms.push(ctm);
+      this.parentOf.push(parent);
+      this.linkOf.push(link);
+      this.tagName.push(tag);
+      this.nodes.push(parent, this.tag(tag), link < 0 ? NAME_USE : link, 0);
+      return idx;
+    }
 
-    // styleOf reads an element's style as a record holds it, with its
-    // font size: [flags, fill, stroke, fill-opacity, stroke-opacity,
-    // opacity, stroke-width, font size]. up is the style of the <use> (or
-    // of the instantiated parent) for content a <use> instantiates, which
-    // inherits from there, not from where it is defined: where the
-    // element's value merely repeats its defining parent's (it was
-    // inherited there), the instance's inherited value is taken instead.
-    const styleOf = (el, tag, up) => {
-      const cs = getComputedStyle(el);
-      let fi = paint(cs.fill);
-      let si = paint(cs.stroke);
-      const dp = up && el.parentElement ? getComputedStyle(el.parentElement) : null;
-      let fo = 1;
-      let so = 1;
-      let sw = 0;
-      if (fi || up) fo = clamp01(num(cs.fillOpacity));
-      if (si || up) {
-        so = clamp01(num(cs.strokeOpacity));
-        sw = Math.max(0, parseFloat(cs.strokeWidth) || 0);
+    // style writes the record's style, or, when it repeats the previous
+    // record's (as most marks' do), says so in the has bits it returns.
+    style(st) {
+      const p = this.prev;
+      this.styles.push(st);
+      if (p && st[0] === p[0] && st[1] === p[1] && st[2] === p[2] && st[3] === p[3] && st[4] === p[4] && st[5] === p[5] && st[6] === p[6]) {
+        return HAS_SAME_STYLE;
       }
-      if (dp) {
-        if (cs.fill === dp.fill) fi = up[STYLE_FILL];
-        if (cs.stroke === dp.stroke) si = up[STYLE_STROKE];
-        if (cs.fillOpacity === dp.fillOpacity) fo = up[STYLE_FILL_OPACITY];
-        if (cs.strokeOpacity === dp.strokeOpacity) so = up[STYLE_STROKE_OPACITY];
-        if (cs.strokeWidth === dp.strokeWidth) sw = up[STYLE_STROKE_WIDTH];
-      }
-      let x = 0;
-      if (cs.display === 'none') x |= C.NODE_HIDDEN;
-      const vis = cs.visibility;
-      if (vis === 'hidden' || vis === 'collapse') x |= C.NODE_INVISIBLE;
-      const fontSize = tag === 'text' ? parseFloat(cs.fontSize) || 16 : 0;
-      return [x, fi, si, fo, so, clamp01(num(cs.opacity)), sw, fontSize];
-    };
+      this.nodes.push(st[0], st[1], st[2], st[3], st[4], st[5], st[6]);
+      this.prev = st;
+      return 0;
+    }
 
-    // add appends el's record and reads its subtree. k is its index among
-    // its parent's element children, or -1 for content a <use>
-    // instantiates; vp is its nearest viewport; shared, when sibling style
-    // sharing is safe, maps the style keys of el's siblings to their styles.
-    const add = (el, parent, k, vp, ctmOverride, useDepth, shared) => {
-      if (styles.length >= MAX_CHART_NODES) throw new capError(`${path}: not checked: it has more than ${MAX_CHART_NODES} elements`);
-      if (budget.nodes++ >= MAX_PAGE_NODES) throw new capError(`${path} and the charts after it: not checked: the page's charts have more than ${MAX_PAGE_NODES} elements`);
-      if (useDepth > 0 && useNodes++ >= MAX_USE_NODES) throw new capError(`${path}: not checked: it instantiates more than ${MAX_USE_NODES} elements through <use> (a chain of references?)`);
+    // ctm writes the node's CTM where it is not its parent's.
+    ctm(idx, m) {
+      const parent = this.parentOf[idx];
+      if (sameMatrix(m, parent >= 0 ? this.ctms[parent] : IDENTITY)) return 0;
+      this.nodes.push(m[0], m[1], m[2], m[3], m[4], m[5]);
+      return HAS_CTM;
+    }
+
+    box(r, sx, sy) {
+      this.nodes.push(r.left + sx, r.top + sy, r.width, r.height);
+      return HAS_BBOX;
+    }
+
+    // text writes a string field (D, Text, Label or Name) with its bit.
+    text(s, bit) {
+      this.nodes.push(this.strs.length);
+      this.strs.push(s);
+      return bit;
+    }
+
+    end(has) {
+      this.nodes[this.at + 3] = has;
+    }
+
+    nameOf(i) {
+      if (this.parentOf[i] < 0) return this.path;
+      const k = this.linkOf[i];
+      return this.nameOf(this.parentOf[i]) + (k < 0 ? '>' + this.tagName[i] : '/' + this.tagName[i] + k);
+    }
+
+    snapshot(source, box, bg) {
+      const snap = {
+        v: SNAPSHOT_VERSION, source, path: this.path, box, bg, problems: this.problems,
+        tags: this.tags, paints: this.paints, strs: this.strs, nodes: this.nodes,
+      };
+      if (this.sel.length) snap.sel = this.sel;
+      return snap;
+    }
+  }
+
+  // screenCTMOf is el's transform to page px: the screen CTM plus the
+  // offset (sx, sy). vp is el's nearest viewport ({} when its mapping to
+  // the screen is not known yet): getCTM, which maps to the viewport,
+  // costs about half of getScreenCTM, and the viewport's own mapping to
+  // the screen is the same for every element in it.
+  function screenCTMOf(el, vp, sx, sy) {
+    let m;
+    if (!el.getCTM) {
+      m = null; // not a graphics element (<title>, <style>, …)
+    } else if (vp && vp.toScreen === undefined) {
+      const sc = el.getScreenCTM();
+      const c = el.getCTM();
+      const inv = c && sc && invert(matrixOf(c));
+      vp.toScreen = inv ? mul(matrixOf(sc), inv) : null;
+      m = sc ? matrixOf(sc) : null;
+    } else if (vp && vp.toScreen) {
+      const c = el.getCTM();
+      m = c ? mul(vp.toScreen, matrixOf(c)) : null;
+    } else {
+      const sc = el.getScreenCTM();
+      m = sc ? matrixOf(sc) : null;
+    }
+    if (!m) return [1, 0, 0, 1, sx, sy];
+    m[4] += sx;
+    m[5] += sy;
+    return m;
+  }
+
+  // styleOf reads an element's style as a record holds it, with its font
+  // size: [flags, fill, stroke, fill-opacity, stroke-opacity, opacity,
+  // stroke-width, font size], its paints as indices into w's table. up is
+  // the style of the <use> (or of the instantiated parent) for content a
+  // <use> instantiates, which inherits from there, not from where it is
+  // defined: where the element's value merely repeats its defining
+  // parent's (it was inherited there), the instance's inherited value is
+  // taken instead.
+  function styleOf(w, el, tag, up) {
+    const cs = getComputedStyle(el);
+    let fi = w.paint(cs.fill);
+    let si = w.paint(cs.stroke);
+    const dp = up && el.parentElement ? getComputedStyle(el.parentElement) : null;
+    let fo = 1;
+    let so = 1;
+    let sw = 0;
+    if (fi || up) fo = clamp01(num(cs.fillOpacity));
+    if (si || up) {
+      so = clamp01(num(cs.strokeOpacity));
+      sw = Math.max(0, parseFloat(cs.strokeWidth) || 0);
+    }
+    if (dp) {
+      if (cs.fill === dp.fill) fi = up[STYLE_FILL];
+      if (cs.stroke === dp.stroke) si = up[STYLE_STROKE];
+      if (cs.fillOpacity === dp.fillOpacity) fo = up[STYLE_FILL_OPACITY];
+      if (cs.strokeOpacity === dp.strokeOpacity) so = up[STYLE_STROKE_OPACITY];
+      if (cs.strokeWidth === dp.strokeWidth) sw = up[STYLE_STROKE_WIDTH];
+    }
+    let x = 0;
+    if (cs.display === 'none') x |= C.NODE_HIDDEN;
+    const vis = cs.visibility;
+    if (vis === 'hidden' || vis === 'collapse') x |= C.NODE_INVISIBLE;
+    const fontSize = tag === 'text' ? parseFloat(cs.fontSize) || 16 : 0;
+    return [x, fi, si, fo, so, clamp01(num(cs.opacity)), sw, fontSize];
+  }
+
+  // ChartWalk walks one outermost <svg> in document order and writes each
+  // element to a SnapshotWriter: the DOM side of the read pass.
+  class ChartWalk {
+    constructor(svg, path, root, off, emphasis, share, budget) {
+      this.path = path;
+      this.root = root;
+      this.sx = off[0];
+      this.sy = off[1];
+      this.emphasis = emphasis;
+      this.share = share;
+      this.budget = budget;
+      this.useNodes = 0;
+      this.w = new SnapshotWriter(path, (v) => paintOf(v, root));
+    }
+
+    // count enforces the caps before an element is read.
+    count(useDepth) {
+      const path = this.path;
+      if (this.w.count >= MAX_CHART_NODES) throw new capError(`${path}: not checked: it has more than ${MAX_CHART_NODES} elements`);
+      if (this.budget.nodes++ >= MAX_PAGE_NODES) throw new capError(`${path} and the charts after it: not checked: the page's charts have more than ${MAX_PAGE_NODES} elements`);
+      if (useDepth > 0 && this.useNodes++ >= MAX_USE_NODES) throw new capError(`${path}: not checked: it instantiates more than ${MAX_USE_NODES} elements through <use> (a chain of references?)`);
+    }
+
+    // style reads el's style, shared among alike siblings where that is
+    // safe (shared maps their style keys to styles).
+    style(el, tag, parent, instanced, shared) {
+      if (instanced && parent >= 0) return styleOf(this.w, el, tag, this.w.styles[parent]);
+      if (!shared) return styleOf(this.w, el, tag, null);
+      const key = styleKey(el, tag);
+      let st = shared.get(key);
+      if (!st) {
+        st = styleOf(this.w, el, tag, null);
+        shared.set(key, st);
+      }
+      return st;
+    }
+
+    // add writes el's record and walks its subtree. k is its index among
+    // its parent's element children, or NAME_USE for content a <use>
+    // instantiates; vp is its nearest viewport; ctmOverride is its parent's
+    // CTM for instantiated content, which the browser does not lay out.
+    add(el, parent, k, vp, ctmOverride, useDepth, shared) {
+      this.count(useDepth);
+      const w = this.w;
       const tag = el.localName.toLowerCase();
       // An <svg> is a viewport of its own: measured directly.
-      const m = ctmOverride ? mul(ctmOverride, ownTransform(el)) : screenCTM(el, tag === 'svg' ? null : vp);
-      const idx = styles.length;
-      const at = nodes.length;
-      ctms.push(m);
-      parentOf.push(parent);
-      linkOf.push(k);
-      tagName.push(tag);
-      let st;
-      if (ctmOverride && parent >= 0) {
-        st = styleOf(el, tag, styles[parent]);
-      } else if (shared) {
-        const key = styleKey(el, tag);
-        st = shared.get(key);
-        if (!st) {
-          st = styleOf(el, tag, null);
-          shared.set(key, st);
-        }
-      } else {
-        st = styleOf(el, tag, null);
-      }
-      const x = st[0];
-      nodes.push(parent, tagOf(tag), k < 0 ? NAME_USE : k, 0);
-      let has = pushStyle(x, st[1], st[2], st[3], st[4], st[5], st[6]);
-      if (!sameMatrix(m, parent >= 0 ? ctms[parent] : IDENTITY)) {
-        has |= HAS_CTM;
-        nodes.push(m[0], m[1], m[2], m[3], m[4], m[5]);
-      }
-      if (geometry(el, tag, nodes, st[7])) has |= HAS_GEOM;
-      if ((tag === 'text' || tag === 'path') && !ctmOverride && !(x & 1)) {
-        const r = el.getBoundingClientRect();
-        has |= HAS_BBOX;
-        nodes.push(r.left + sx, r.top + sy, r.width, r.height);
-      }
+      const m = ctmOverride ? mul(ctmOverride, ownTransform(el)) : screenCTMOf(el, tag === 'svg' ? null : vp, this.sx, this.sy);
+      const idx = w.begin(parent, tag, k, m);
+      const st = this.style(el, tag, parent, !!ctmOverride, shared);
+      let has = w.style(st) | w.ctm(idx, m);
+      if (geometry(el, tag, w.nodes, st[7])) has |= HAS_GEOM;
+      if ((tag === 'text' || tag === 'path') && !ctmOverride && !(st[0] & C.NODE_HIDDEN)) has |= w.box(el.getBoundingClientRect(), this.sx, this.sy);
       if (tag === 'path' || tag === 'polyline' || tag === 'polygon') {
         const d = el.getAttribute(tag === 'path' ? 'd' : 'points');
-        if (d) {
-          has |= HAS_D;
-          nodes.push(strs.length);
-          strs.push(d);
-        }
+        if (d) has |= w.text(d, HAS_D);
       }
       const isText = tag === 'text' || tag === 'title' || tag === 'desc';
-      if (isText) {
-        const t = (el.textContent || '').trim();
-        if (t) {
-          has |= HAS_TEXT;
-          nodes.push(strs.length);
-          strs.push(t);
-        }
-      }
+      const t = isText ? (el.textContent || '').trim() : '';
+      if (t) has |= w.text(t, HAS_TEXT);
       const al = el.getAttribute('aria-label');
-      if (al) {
-        has |= HAS_LABEL;
-        nodes.push(strs.length);
-        strs.push(al);
-      }
-      nodes[at + 3] = has;
-      if (el.hasAttribute('data-standout-emphasis') || (emphasis && el.matches(emphasis))) sel.push(idx);
+      if (al) has |= w.text(al, HAS_LABEL);
+      w.end(has);
+      if (el.hasAttribute('data-standout-emphasis') || (this.emphasis && el.matches(this.emphasis))) w.sel.push(idx);
       if (isText || notRendered.has(tag)) return;
       if (tag === 'use') {
-        expandUse(el, idx, m, useDepth);
+        this.expandUse(el, idx, m, useDepth);
         return;
       }
       const childVp = tag === 'svg' ? {} : vp;
-      const siblings = share && !ctmOverride ? new Map() : null;
+      const siblings = this.share && !ctmOverride ? new Map() : null;
       let i = 0;
       // Sibling links: iterating el.children costs ten times as much.
       for (let c = el.firstElementChild; c; c = c.nextElementSibling, i++) {
         if (c.namespaceURI !== SVG_NS) continue;
-        add(c, idx, i, childVp, ctmOverride ? m : null, useDepth, siblings);
+        this.add(c, idx, i, childVp, ctmOverride ? m : null, useDepth, siblings);
       }
-    };
-    const expandUse = (el, idx, m, depth) => {
+    }
+
+    // expandUse instantiates the content a <use> refers to under it.
+    expandUse(el, idx, m, depth) {
+      const w = this.w;
       const h = el.getAttribute('href') || el.getAttributeNS('http://www.w3.org/1999/xlink', 'href');
       if (!h || !h.startsWith('#')) return;
-      const target = findById(root, h.slice(1));
+      const target = findById(this.root, h.slice(1));
       if (!target) {
-        problems.push(`${nameOf(idx)}: <use> refers to missing #${h.slice(1, 61)}`);
+        w.problems.push(`${w.nameOf(idx)}: <use> refers to missing #${h.slice(1, 61)}`);
         return;
       }
       if (depth >= 16 || target.contains(el)) {
-        problems.push(`${nameOf(idx)}: <use> of #${h.slice(1, 61)} is a reference cycle; not expanded`);
+        w.problems.push(`${w.nameOf(idx)}: <use> of #${h.slice(1, 61)} is a reference cycle; not expanded`);
         return;
       }
       const ux = el.x ? el.x.baseVal.value : 0;
       const uy = el.y ? el.y.baseVal.value : 0;
       const base = mul(m, [1, 0, 0, 1, ux, uy]);
       if (target.localName !== 'symbol') {
-        add(target, idx, NAME_USE, null, base, depth + 1);
+        this.add(target, idx, NAME_USE, null, base, depth + 1);
         return;
       }
-      // As the static builder does (static/build.go): a symbol is a nested
-      // viewport sized by the use's width and height (else its own, else
-      // 100), mapped from its viewBox, and renders like a <g> holding its
-      // children.
+      this.expandSymbol(el, target, idx, base, depth);
+    }
+
+    // expandSymbol instantiates a <symbol> as the static builder does
+    // (static/build.go): a nested viewport sized by the use's width and
+    // height (else its own, else 100), mapped from its viewBox, that
+    // renders like a <g> holding its children.
+    expandSymbol(el, target, idx, base, depth) {
+      const w = this.w;
       const size = (k) => {
         for (const e of [el, target]) {
           const v = parseFloat(e.getAttribute(k));
@@ -580,40 +631,39 @@
       }
       const cs = getComputedStyle(target);
       const dp = target.parentElement ? getComputedStyle(target.parentElement) : null;
-      const up = styles[idx];
-      const gi = styles.length;
-      const at = nodes.length;
-      ctms.push(inner);
-      parentOf.push(idx);
-      linkOf.push(-1);
-      tagName.push('symbol');
-      const fi = dp && cs.fill === dp.fill ? up[STYLE_FILL] : paint(cs.fill);
-      const si = dp && cs.stroke === dp.stroke ? up[STYLE_STROKE] : paint(cs.stroke);
-      nodes.push(idx, tagOf('g'), NAME_USE, 0);
-      nodes[at + 3] = HAS_CTM | HAS_NAME | pushStyle(0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1);
-      nodes.push(inner[0], inner[1], inner[2], inner[3], inner[4], inner[5]);
-      nodes.push(strs.length);
-      strs.push(nameOf(idx) + '>symbol');
+      const up = w.styles[idx];
+      const fi = dp && cs.fill === dp.fill ? up[STYLE_FILL] : w.paint(cs.fill);
+      const si = dp && cs.stroke === dp.stroke ? up[STYLE_STROKE] : w.paint(cs.stroke);
+      const name = w.nameOf(idx) + '>symbol';
+      const gi = w.begin(idx, 'g', NAME_USE, inner);
+      w.tagName[gi] = 'symbol';
+      const has = w.style([0, fi, si, 1, 1, clamp01(num(cs.opacity)), 1]);
+      w.nodes.push(inner[0], inner[1], inner[2], inner[3], inner[4], inner[5]);
+      w.end(HAS_CTM | HAS_NAME | has | w.text(name, HAS_NAME));
       let i = 0;
       for (let c = target.firstElementChild; c; c = c.nextElementSibling, i++) {
-        if (c.namespaceURI === SVG_NS) add(c, gi, i, null, inner, depth + 1);
+        if (c.namespaceURI === SVG_NS) this.add(c, gi, i, null, inner, depth + 1);
       }
-    };
-    add(svg, -1, 0, null, null, 0);
-    const snap = {
-      v: SNAPSHOT_VERSION,
-      source: svg.ownerDocument.location.href,
-      path,
-      box: [box.left + sx, box.top + sy, box.width, box.height],
-      bg: background(svg),
-      problems,
-      tags,
-      paints,
-      strs,
-      nodes,
-    };
-    if (sel.length) snap.sel = sel;
-    return snap;
+    }
+  }
+
+  // readChart reads one outermost <svg> into a snapshot in its columnar
+  // JSON form (snapshot/json.go). off maps the client coordinates of the
+  // element's own window to page coordinates of the top document, in CSS
+  // px (the scroll offset, plus the frame's position for charts inside
+  // frames).
+  //
+  // The browser reads each computed property and geometry call at a cost
+  // (about half a microsecond each), so the pass reads only what the walk
+  // uses: no fill-opacity without a fill, no stroke-opacity or
+  // stroke-width without a stroke, and a bounding box only for text and
+  // paths, whose extent only the browser knows (the walk computes the
+  // other shapes' boxes from their geometry, as the browser does).
+  function readChart(svg, path, root, off, emphasis, share, budget) {
+    const box = svg.getBoundingClientRect();
+    const walk = new ChartWalk(svg, path, root, off, emphasis, share, budget);
+    walk.add(svg, -1, 0, null, null, 0);
+    return walk.w.snapshot(svg.ownerDocument.location.href, [box.left + off[0], box.top + off[1], box.width, box.height], background(svg));
   }
 
   // The colour behind an element: ancestors' backgrounds composited over

@@ -43,222 +43,282 @@ const maxPathPoints = 4 << 20
 // §F.2 requires, rendering stops at the first error: the subpaths before
 // it are returned together with the error.
 func ParsePath(d string) ([]Subpath, PathInfo, error) {
-	var subs []Subpath
-	var info PathInfo
-	sc := svgnum.Scanner{S: d}
-	var cur, start, ctrl Point
-	var lastCmd byte
-	var sub *Subpath
-	total := 0
-	emit := func(p Point) error {
-		if sub == nil {
-			subs = append(subs, Subpath{Pts: []Point{cur}})
-			sub = &subs[len(subs)-1]
-		}
-		sub.Pts = append(sub.Pts, p)
-		total++
-		if total > maxPathPoints {
-			return fmt.Errorf("marks: path data flattens to more than %d points", maxPathPoints)
-		}
-		return nil
+	p := pathParser{sc: svgnum.Scanner{S: d}}
+	err := p.run()
+	if err == nil {
+		closeLoops(p.subs)
 	}
-	nums := func(k int) ([]float64, bool) {
-		var out [7]float64
-		for i := 0; i < k; i++ {
-			sc.SkipSep()
-			v, ok := sc.Number()
-			if !ok {
-				return nil, false
-			}
-			out[i] = v
+	return p.subs, p.info, err
+}
+
+// pathParser is the state of one ParsePath: the subpaths so far, the
+// current point, the subpath's start and the last control point (for the
+// smooth curves), with a method per command family.
+type pathParser struct {
+	sc               svgnum.Scanner
+	subs             []Subpath
+	info             PathInfo
+	cur, start, ctrl Point
+	lastCmd          byte
+	sub              *Subpath
+	total            int
+}
+
+// commandNames names the commands in errors (SVG 1.1 §8.3).
+var commandNames = map[byte]string{'L': "lineto", 'H': "horizontal lineto", 'V': "vertical lineto",
+	'C': "curveto", 'S': "smooth curveto", 'Q': "quadratic curveto", 'T': "smooth quadratic curveto"}
+
+func (p *pathParser) errAt(what string) error {
+	return fmt.Errorf("marks: path data: %s at offset %d", what, p.sc.I)
+}
+
+// run reads commands until the end of the data or the first error.
+func (p *pathParser) run() error {
+	for {
+		p.sc.SkipSpace()
+		if p.sc.Done() {
+			return nil
 		}
-		return out[:k], true
+		cmd, err := p.command()
+		if err != nil {
+			return err
+		}
+		base := Point{}
+		if cmd >= 'a' {
+			base = p.cur
+		}
+		switch up := cmd &^ 0x20; up {
+		case 'M':
+			err = p.moveTo(base)
+		case 'L', 'H', 'V':
+			err = p.lineTo(up, base)
+		case 'C', 'S', 'Q', 'T':
+			err = p.curveTo(up, base)
+		case 'A':
+			err = p.arcTo(base)
+		case 'Z':
+			p.closePath()
+		default:
+			err = p.errAt(fmt.Sprintf("unknown command %q", cmd))
+		}
+		if err != nil {
+			return err
+		}
+		p.lastCmd = cmd
 	}
-	flag := func() (float64, bool) {
-		sc.SkipSep()
-		if sc.Done() {
-			return 0, false
+}
+
+// command reads the next command letter, or repeats the last command
+// when numbers follow it (an implicit repeat of moveto is a lineto).
+func (p *pathParser) command() (byte, error) {
+	c := p.sc.S[p.sc.I]
+	cmd := c
+	if c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z' {
+		p.sc.I++
+	} else {
+		if p.lastCmd == 0 || p.lastCmd == 'Z' || p.lastCmd == 'z' {
+			return 0, p.errAt(fmt.Sprintf("expected a command, found %q", c))
 		}
-		switch sc.S[sc.I] {
-		case '0':
-			sc.I++
-			return 0, true
-		case '1':
-			sc.I++
-			return 1, true
+		cmd = p.lastCmd
+		switch cmd {
+		case 'M':
+			cmd = 'L'
+		case 'm':
+			cmd = 'l'
 		}
+	}
+	if p.lastCmd == 0 && cmd != 'M' && cmd != 'm' {
+		return 0, p.errAt("path data must start with a moveto")
+	}
+	return cmd, nil
+}
+
+// nums reads k numbers.
+func (p *pathParser) nums(k int) ([]float64, bool) {
+	var out [7]float64
+	for i := 0; i < k; i++ {
+		p.sc.SkipSep()
+		v, ok := p.sc.Number()
+		if !ok {
+			return nil, false
+		}
+		out[i] = v
+	}
+	return out[:k], true
+}
+
+// flag reads an arc flag: a single 0 or 1.
+func (p *pathParser) flag() (float64, bool) {
+	p.sc.SkipSep()
+	if p.sc.Done() {
 		return 0, false
 	}
-	errAt := func(what string) error {
-		return fmt.Errorf("marks: path data: %s at offset %d", what, sc.I)
+	switch p.sc.S[p.sc.I] {
+	case '0':
+		p.sc.I++
+		return 0, true
+	case '1':
+		p.sc.I++
+		return 1, true
 	}
-	for {
-		sc.SkipSpace()
-		if sc.Done() {
-			closeLoops(subs)
-			return subs, info, nil
-		}
-		c := sc.S[sc.I]
-		var cmd byte
-		if c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z' {
-			cmd = c
-			sc.I++
+	return 0, false
+}
+
+// emit adds a flattened point to the current subpath, which starts at the
+// current point if the last command closed one.
+func (p *pathParser) emit(q Point) error {
+	if p.sub == nil {
+		p.subs = append(p.subs, Subpath{Pts: []Point{p.cur}})
+		p.sub = &p.subs[len(p.subs)-1]
+	}
+	p.sub.Pts = append(p.sub.Pts, q)
+	p.total++
+	if p.total > maxPathPoints {
+		return fmt.Errorf("marks: path data flattens to more than %d points", maxPathPoints)
+	}
+	return nil
+}
+
+func (p *pathParser) moveTo(base Point) error {
+	a, ok := p.nums(2)
+	if !ok {
+		return p.errAt("bad moveto")
+	}
+	p.cur = Point{base.X + a[0], base.Y + a[1]}
+	p.start = p.cur
+	p.subs = append(p.subs, Subpath{Pts: []Point{p.cur}})
+	p.sub = &p.subs[len(p.subs)-1]
+	p.ctrl = p.cur
+	return nil
+}
+
+// lineTo reads L, H or V.
+func (p *pathParser) lineTo(up byte, base Point) error {
+	n := 1
+	if up == 'L' {
+		n = 2
+	}
+	a, ok := p.nums(n)
+	if !ok {
+		return p.errAt("bad " + commandNames[up])
+	}
+	q := Point{base.X + a[0], base.Y + a[1%n]}
+	switch up {
+	case 'H':
+		q.Y = p.cur.Y
+	case 'V':
+		q = Point{p.cur.X, base.Y + a[0]}
+	}
+	if err := p.emit(q); err != nil {
+		return err
+	}
+	p.info.Lines++
+	p.cur, p.ctrl = q, q
+	return nil
+}
+
+// curveTo reads C, S, Q or T and flattens the curve into curveSteps
+// segments.
+func (p *pathParser) curveTo(up byte, base Point) error {
+	cubic := up == 'C' || up == 'S'
+	p0, p1, p2, p3, err := p.controlPoints(up, base)
+	if err != nil {
+		return err
+	}
+	for k := 1; k <= curveSteps; k++ {
+		t := float64(k) / curveSteps
+		u := 1 - t
+		var q Point
+		if cubic {
+			q = Point{
+				u*u*u*p0.X + 3*u*u*t*p1.X + 3*u*t*t*p2.X + t*t*t*p3.X,
+				u*u*u*p0.Y + 3*u*u*t*p1.Y + 3*u*t*t*p2.Y + t*t*t*p3.Y,
+			}
 		} else {
-			if lastCmd == 0 || lastCmd == 'Z' || lastCmd == 'z' {
-				return subs, info, errAt(fmt.Sprintf("expected a command, found %q", c))
-			}
-			cmd = lastCmd
-			// An implicit repeat of moveto is a lineto.
-			if cmd == 'M' {
-				cmd = 'L'
-			} else if cmd == 'm' {
-				cmd = 'l'
-			}
+			q = Point{u*u*p0.X + 2*u*t*p1.X + t*t*p3.X, u*u*p0.Y + 2*u*t*p1.Y + t*t*p3.Y}
 		}
-		if lastCmd == 0 && cmd != 'M' && cmd != 'm' {
-			return subs, info, errAt("path data must start with a moveto")
+		if err := p.emit(q); err != nil {
+			return err
 		}
-		rel := cmd >= 'a'
-		up := cmd &^ 0x20
-		base := Point{}
-		if rel {
-			base = cur
-		}
-		switch up {
-		case 'M':
-			a, ok := nums(2)
-			if !ok {
-				return subs, info, errAt("bad moveto")
-			}
-			cur = Point{base.X + a[0], base.Y + a[1]}
-			start = cur
-			subs = append(subs, Subpath{Pts: []Point{cur}})
-			sub = &subs[len(subs)-1]
-			ctrl = cur
-		case 'L', 'H', 'V':
-			var p Point
-			switch up {
-			case 'L':
-				a, ok := nums(2)
-				if !ok {
-					return subs, info, errAt("bad lineto")
-				}
-				p = Point{base.X + a[0], base.Y + a[1]}
-			case 'H':
-				a, ok := nums(1)
-				if !ok {
-					return subs, info, errAt("bad horizontal lineto")
-				}
-				p = Point{base.X + a[0], cur.Y}
-			case 'V':
-				a, ok := nums(1)
-				if !ok {
-					return subs, info, errAt("bad vertical lineto")
-				}
-				p = Point{cur.X, base.Y + a[0]}
-			}
-			if err := emit(p); err != nil {
-				return subs, info, err
-			}
-			info.Lines++
-			cur, ctrl = p, p
-		case 'C', 'S', 'Q', 'T':
-			var p0, p1, p2, p3 Point
-			p0 = cur
-			cubic := up == 'C' || up == 'S'
-			reflect := Point{2*cur.X - ctrl.X, 2*cur.Y - ctrl.Y}
-			switch up {
-			case 'C':
-				a, ok := nums(6)
-				if !ok {
-					return subs, info, errAt("bad curveto")
-				}
-				p1 = Point{base.X + a[0], base.Y + a[1]}
-				p2 = Point{base.X + a[2], base.Y + a[3]}
-				p3 = Point{base.X + a[4], base.Y + a[5]}
-			case 'S':
-				a, ok := nums(4)
-				if !ok {
-					return subs, info, errAt("bad smooth curveto")
-				}
-				p1 = cur
-				if l := lastCmd &^ 0x20; l == 'C' || l == 'S' {
-					p1 = reflect
-				}
-				p2 = Point{base.X + a[0], base.Y + a[1]}
-				p3 = Point{base.X + a[2], base.Y + a[3]}
-			case 'Q':
-				a, ok := nums(4)
-				if !ok {
-					return subs, info, errAt("bad quadratic curveto")
-				}
-				p1 = Point{base.X + a[0], base.Y + a[1]}
-				p3 = Point{base.X + a[2], base.Y + a[3]}
-			case 'T':
-				a, ok := nums(2)
-				if !ok {
-					return subs, info, errAt("bad smooth quadratic curveto")
-				}
-				p1 = cur
-				if l := lastCmd &^ 0x20; l == 'Q' || l == 'T' {
-					p1 = reflect
-				}
-				p3 = Point{base.X + a[0], base.Y + a[1]}
-			}
-			for k := 1; k <= curveSteps; k++ {
-				t := float64(k) / curveSteps
-				u := 1 - t
-				var q Point
-				if cubic {
-					q = Point{
-						u*u*u*p0.X + 3*u*u*t*p1.X + 3*u*t*t*p2.X + t*t*t*p3.X,
-						u*u*u*p0.Y + 3*u*u*t*p1.Y + 3*u*t*t*p2.Y + t*t*t*p3.Y,
-					}
-				} else {
-					q = Point{u*u*p0.X + 2*u*t*p1.X + t*t*p3.X, u*u*p0.Y + 2*u*t*p1.Y + t*t*p3.Y}
-				}
-				if err := emit(q); err != nil {
-					return subs, info, err
-				}
-			}
-			info.Curves++
-			if cubic {
-				ctrl = p2
-			} else {
-				ctrl = p1
-			}
-			cur = p3
-		case 'A':
-			a, ok := nums(3)
-			if !ok {
-				return subs, info, errAt("bad arc")
-			}
-			large, ok1 := flag()
-			sweep, ok2 := flag()
-			e, ok3 := nums(2)
-			if !ok1 || !ok2 || !ok3 {
-				return subs, info, errAt("bad arc")
-			}
-			p := Point{base.X + e[0], base.Y + e[1]}
-			for _, q := range arcPoints(cur, a[0], a[1], a[2], large != 0, sweep != 0, p) {
-				if err := emit(q); err != nil {
-					return subs, info, err
-				}
-			}
-			info.Curves++
-			info.Arcs++
-			cur, ctrl = p, p
-		case 'Z':
-			if sub != nil {
-				sub.Closed = true
-			}
-			cur, ctrl = start, start
-			sub = nil
-		default:
-			return subs, info, errAt(fmt.Sprintf("unknown command %q", cmd))
-		}
-		lastCmd = cmd
 	}
+	p.info.Curves++
+	if cubic {
+		p.ctrl = p2
+	} else {
+		p.ctrl = p1
+	}
+	p.cur = p3
+	return nil
+}
+
+// controlPoints reads a curve's points: the smooth forms reflect the
+// previous curve's last control point, if the previous command was a
+// curve of the same degree.
+func (p *pathParser) controlPoints(up byte, base Point) (p0, p1, p2, p3 Point, err error) {
+	n := 2
+	switch up {
+	case 'C':
+		n = 6
+	case 'S', 'Q':
+		n = 4
+	}
+	a, ok := p.nums(n)
+	if !ok {
+		return p0, p1, p2, p3, p.errAt("bad " + commandNames[up])
+	}
+	at := func(i int) Point { return Point{base.X + a[i], base.Y + a[i+1]} }
+	p0 = p.cur
+	reflect := Point{2*p.cur.X - p.ctrl.X, 2*p.cur.Y - p.ctrl.Y}
+	last := p.lastCmd &^ 0x20
+	switch up {
+	case 'C':
+		p1, p2, p3 = at(0), at(2), at(4)
+	case 'S':
+		p1, p2, p3 = p.cur, at(0), at(2)
+		if last == 'C' || last == 'S' {
+			p1 = reflect
+		}
+	case 'Q':
+		p1, p3 = at(0), at(2)
+	case 'T':
+		p1, p3 = p.cur, at(0)
+		if last == 'Q' || last == 'T' {
+			p1 = reflect
+		}
+	}
+	return p0, p1, p2, p3, nil
+}
+
+// arcTo reads an elliptical arc and flattens it (SVG 1.1 Appendix F.6).
+func (p *pathParser) arcTo(base Point) error {
+	a, ok := p.nums(3)
+	if !ok {
+		return p.errAt("bad arc")
+	}
+	large, ok1 := p.flag()
+	sweep, ok2 := p.flag()
+	e, ok3 := p.nums(2)
+	if !ok1 || !ok2 || !ok3 {
+		return p.errAt("bad arc")
+	}
+	q := Point{base.X + e[0], base.Y + e[1]}
+	for _, v := range arcPoints(p.cur, a[0], a[1], a[2], large != 0, sweep != 0, q) {
+		if err := p.emit(v); err != nil {
+			return err
+		}
+	}
+	p.info.Curves++
+	p.info.Arcs++
+	p.cur, p.ctrl = q, q
+	return nil
+}
+
+func (p *pathParser) closePath() {
+	if p.sub != nil {
+		p.sub.Closed = true
+	}
+	p.cur, p.ctrl = p.start, p.start
+	p.sub = nil
 }
 
 // closeLoops marks subpaths whose last point returns to the first as
