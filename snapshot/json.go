@@ -292,149 +292,216 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 	// Room for the nodes, from the usual record length (a style repeated,
 	// a CTM inherited, three numbers of geometry) rather than the shortest.
 	s.Nodes = make([]Node, 0, min(len(v)/8+1, MaxNodes))
-	var names []byte
-	nameAt := make([][2]int32, 0, cap(s.Nodes))
-	var slab []float64
-	type span struct{ node, at, n int32 }
-	var spans []span // geometry and boxes, cut from slab once it is complete
-	r := record{v: v}
-	for r.i < len(v) {
-		r.node = len(s.Nodes)
-		if r.node >= MaxNodes {
-			return fmt.Errorf("snapshot: chart %s has more than %d elements", s.Path, MaxNodes)
-		}
-		p, err := r.int("parent", -1, r.node)
-		if err != nil {
+	nr := nodeReader{w: w, s: s, paints: paints, r: record{v: v}, nameAt: make([][2]int32, 0, cap(s.Nodes))}
+	for nr.r.i < len(v) {
+		if err := nr.next(); err != nil {
 			return err
 		}
-		tag, err := r.int("tag", 0, len(w.Tags))
-		if err != nil {
-			return err
-		}
-		nk, err := r.int("name", NameUse, math.MaxInt32)
-		if err != nil {
-			return err
-		}
-		has, err := r.int("has", 0, fieldAll+1)
-		if err != nil {
-			return err
-		}
-		// Built in place: a Node is large, and copying one into the slice
-		// costs a write barrier per pointer while the collector runs.
-		s.Nodes = append(s.Nodes, Node{})
-		nd := &s.Nodes[len(s.Nodes)-1]
-		nd.Parent, nd.Tag = int32(p), w.Tags[tag]
-		if has&FieldSameStyle != 0 {
-			if r.node == 0 {
-				return r.errorf("the first record cannot repeat a style")
-			}
-			prev := &s.Nodes[r.node-1]
-			nd.Flags, nd.Fill, nd.Stroke = prev.Flags, prev.Fill, prev.Stroke
-			nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = prev.FillOpacity, prev.StrokeOpacity, prev.Opacity, prev.StrokeWidth
-		} else {
-			flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
-			if err != nil {
-				return err
-			}
-			fill, err := r.int("fill", 0, len(paints))
-			if err != nil {
-				return err
-			}
-			stroke, err := r.int("stroke", 0, len(paints))
-			if err != nil {
-				return err
-			}
-			if len(v)-r.i < 4 {
-				return r.errorf("the record is cut short")
-			}
-			nd.Flags, nd.Fill, nd.Stroke = uint8(flags), paints[fill], paints[stroke]
-			nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]
-			r.i += 4
-		}
-		switch {
-		case has&FieldCTM != 0:
-			for k := range nd.CTM {
-				if nd.CTM[k], err = r.num(); err != nil {
-					return err
-				}
-			}
-		case p >= 0:
-			nd.CTM = s.Nodes[p].CTM
-		default:
-			nd.CTM = IdentityMatrix
-		}
-		if has&FieldGeom != 0 {
-			n, err := r.int("geometry count", 0, maxGeom+1)
-			if err != nil {
-				return err
-			}
-			if len(v)-r.i < n {
-				return r.errorf("the record is cut short")
-			}
-			spans = append(spans, span{int32(r.node), int32(len(slab)), int32(n)})
-			slab = append(slab, v[r.i:r.i+n]...)
-			r.i += n
-		}
-		if has&FieldBBox != 0 {
-			if len(v)-r.i < 4 {
-				return r.errorf("the record is cut short")
-			}
-			spans = append(spans, span{-int32(r.node) - 1, int32(len(slab)), 4})
-			slab = append(slab, v[r.i:r.i+4]...)
-			r.i += 4
-		}
-		if has&FieldD != 0 {
-			if nd.D, err = r.str(w.Strs); err != nil {
-				return err
-			}
-		}
-		if has&FieldText != 0 {
-			if nd.Text, err = r.str(w.Strs); err != nil {
-				return err
-			}
-		}
-		if has&FieldLabel != 0 {
-			if nd.Label, err = r.str(w.Strs); err != nil {
-				return err
-			}
-		}
-		start := len(names)
-		switch {
-		case has&FieldName != 0:
-			explicit, err := r.str(w.Strs)
-			if err != nil {
-				return err
-			}
-			names = append(names, explicit...)
-		case p < 0:
-			names = append(names, s.Path...)
-		default:
-			pn := nameAt[p]
-			names = append(names, names[pn[0]:pn[1]]...)
-			if nk == NameUse {
-				names = append(names, '>')
-				names = append(names, nd.Tag...)
-			} else {
-				names = append(names, '/')
-				names = append(names, nd.Tag...)
-				names = strconv.AppendInt(names, int64(nk), 10)
-			}
-		}
-		nameAt = append(nameAt, [2]int32{int32(start), int32(len(names))})
 	}
-	all := string(names)
-	for i := range s.Nodes {
-		s.Nodes[i].Name = all[nameAt[i][0]:nameAt[i][1]]
+	nr.finish()
+	return nil
+}
+
+// nodeReader interprets a snapshot's node records one by one. Names are
+// built in one byte slab, and geometry and boxes in one number slab, both
+// cut into the nodes once complete.
+type nodeReader struct {
+	w      *snapshotWire
+	s      *Snapshot
+	paints []Paint
+	r      record
+	names  []byte
+	nameAt [][2]int32
+	slab   []float64
+	spans  []span // geometry (node ≥ 0) and boxes (−node−1), cut from slab
+}
+
+type span struct{ node, at, n int32 }
+
+// next reads one record.
+func (nr *nodeReader) next() error {
+	r, s := &nr.r, nr.s
+	r.node = len(s.Nodes)
+	if r.node >= MaxNodes {
+		return fmt.Errorf("snapshot: chart %s has more than %d elements", s.Path, MaxNodes)
 	}
-	for _, sp := range spans {
-		vals := slab[sp.at : sp.at+sp.n : sp.at+sp.n]
-		if sp.node >= 0 {
-			s.Nodes[sp.node].Geom = vals
-		} else {
-			s.Nodes[-sp.node-1].BBox = vals
+	p, err := r.int("parent", -1, r.node)
+	if err != nil {
+		return err
+	}
+	tag, err := r.int("tag", 0, len(nr.w.Tags))
+	if err != nil {
+		return err
+	}
+	nk, err := r.int("name", NameUse, math.MaxInt32)
+	if err != nil {
+		return err
+	}
+	has, err := r.int("has", 0, fieldAll+1)
+	if err != nil {
+		return err
+	}
+	// Built in place: a Node is large, and copying one into the slice
+	// costs a write barrier per pointer while the collector runs.
+	s.Nodes = append(s.Nodes, Node{})
+	nd := &s.Nodes[len(s.Nodes)-1]
+	nd.Parent, nd.Tag = int32(p), nr.w.Tags[tag]
+	if err := nr.style(nd, has); err != nil {
+		return err
+	}
+	if err := nr.ctm(nd, has, p); err != nil {
+		return err
+	}
+	if err := nr.numbers(has); err != nil {
+		return err
+	}
+	if err := nr.strings(nd, has); err != nil {
+		return err
+	}
+	return nr.name(nd, has, p, nk)
+}
+
+// style reads the record's style, or repeats the previous record's.
+func (nr *nodeReader) style(nd *Node, has int) error {
+	r, v := &nr.r, nr.r.v
+	if has&FieldSameStyle != 0 {
+		if r.node == 0 {
+			return r.errorf("the first record cannot repeat a style")
+		}
+		prev := &nr.s.Nodes[r.node-1]
+		nd.Flags, nd.Fill, nd.Stroke = prev.Flags, prev.Fill, prev.Stroke
+		nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = prev.FillOpacity, prev.StrokeOpacity, prev.Opacity, prev.StrokeWidth
+		return nil
+	}
+	flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
+	if err != nil {
+		return err
+	}
+	fill, err := r.int("fill", 0, len(nr.paints))
+	if err != nil {
+		return err
+	}
+	stroke, err := r.int("stroke", 0, len(nr.paints))
+	if err != nil {
+		return err
+	}
+	if len(v)-r.i < 4 {
+		return r.errorf("the record is cut short")
+	}
+	nd.Flags, nd.Fill, nd.Stroke = uint8(flags), nr.paints[fill], nr.paints[stroke]
+	nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]
+	r.i += 4
+	return nil
+}
+
+// ctm reads the record's CTM, or takes the parent's (the root's:
+// identity).
+func (nr *nodeReader) ctm(nd *Node, has, p int) error {
+	switch {
+	case has&FieldCTM != 0:
+		for k := range nd.CTM {
+			var err error
+			if nd.CTM[k], err = nr.r.num(); err != nil {
+				return err
+			}
+		}
+	case p >= 0:
+		nd.CTM = nr.s.Nodes[p].CTM
+	default:
+		nd.CTM = IdentityMatrix
+	}
+	return nil
+}
+
+// numbers reads the record's geometry and box into the slab.
+func (nr *nodeReader) numbers(has int) error {
+	r, v := &nr.r, nr.r.v
+	if has&FieldGeom != 0 {
+		n, err := r.int("geometry count", 0, maxGeom+1)
+		if err != nil {
+			return err
+		}
+		if len(v)-r.i < n {
+			return r.errorf("the record is cut short")
+		}
+		nr.spans = append(nr.spans, span{int32(r.node), int32(len(nr.slab)), int32(n)})
+		nr.slab = append(nr.slab, v[r.i:r.i+n]...)
+		r.i += n
+	}
+	if has&FieldBBox != 0 {
+		if len(v)-r.i < 4 {
+			return r.errorf("the record is cut short")
+		}
+		nr.spans = append(nr.spans, span{-int32(r.node) - 1, int32(len(nr.slab)), 4})
+		nr.slab = append(nr.slab, v[r.i:r.i+4]...)
+		r.i += 4
+	}
+	return nil
+}
+
+// strings reads the record's path data, text and label.
+func (nr *nodeReader) strings(nd *Node, has int) error {
+	var err error
+	if has&FieldD != 0 {
+		if nd.D, err = nr.r.str(nr.w.Strs); err != nil {
+			return err
+		}
+	}
+	if has&FieldText != 0 {
+		if nd.Text, err = nr.r.str(nr.w.Strs); err != nil {
+			return err
+		}
+	}
+	if has&FieldLabel != 0 {
+		if nd.Label, err = nr.r.str(nr.w.Strs); err != nil {
+			return err
 		}
 	}
 	return nil
+}
+
+// name derives the node's name from its parent's, or reads it.
+func (nr *nodeReader) name(nd *Node, has, p, nk int) error {
+	start := len(nr.names)
+	switch {
+	case has&FieldName != 0:
+		explicit, err := nr.r.str(nr.w.Strs)
+		if err != nil {
+			return err
+		}
+		nr.names = append(nr.names, explicit...)
+	case p < 0:
+		nr.names = append(nr.names, nr.s.Path...)
+	default:
+		pn := nr.nameAt[p]
+		nr.names = append(nr.names, nr.names[pn[0]:pn[1]]...)
+		if nk == NameUse {
+			nr.names = append(nr.names, '>')
+			nr.names = append(nr.names, nd.Tag...)
+		} else {
+			nr.names = append(nr.names, '/')
+			nr.names = append(nr.names, nd.Tag...)
+			nr.names = strconv.AppendInt(nr.names, int64(nk), 10)
+		}
+	}
+	nr.nameAt = append(nr.nameAt, [2]int32{int32(start), int32(len(nr.names))})
+	return nil
+}
+
+// finish cuts the names, geometry and boxes into the nodes.
+func (nr *nodeReader) finish() {
+	all := string(nr.names)
+	for i := range nr.s.Nodes {
+		nr.s.Nodes[i].Name = all[nr.nameAt[i][0]:nr.nameAt[i][1]]
+	}
+	for _, sp := range nr.spans {
+		vals := nr.slab[sp.at : sp.at+sp.n : sp.at+sp.n]
+		if sp.node >= 0 {
+			nr.s.Nodes[sp.node].Geom = vals
+		} else {
+			nr.s.Nodes[-sp.node-1].BBox = vals
+		}
+	}
 }
 
 // MarshalJSON writes the snapshot's columnar JSON form. Names that follow
@@ -536,52 +603,11 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
 		p := int(nd.Parent)
-		if p >= i || p < -1 {
-			return nil, fmt.Errorf("snapshot: chart %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+		if err := checkNode(s, i); err != nil {
+			return nil, err
 		}
-		if len(nd.Geom) > maxGeom {
-			return nil, fmt.Errorf("snapshot: chart %s: node %d has %d geometry values, more than %d", s.Path, i, len(nd.Geom), maxGeom)
-		}
-		if len(nd.BBox) != 0 && len(nd.BBox) != 4 {
-			return nil, fmt.Errorf("snapshot: chart %s: node %d has a box of %d numbers", s.Path, i, len(nd.BBox))
-		}
-		nk, explicit := 0, false
-		switch {
-		case p < 0:
-			explicit = nd.Name != s.Path
-		default:
-			pn := s.Nodes[p].Name
-			rest, ok := strings.CutPrefix(nd.Name, pn)
-			switch {
-			case ok && rest == ">"+nd.Tag:
-				nk = NameUse
-			case ok && strings.HasPrefix(rest, "/"+nd.Tag):
-				k, err := strconv.Atoi(rest[1+len(nd.Tag):])
-				explicit = err != nil || k < 0 || strconv.Itoa(k) != rest[1+len(nd.Tag):]
-				nk = k
-			default:
-				explicit = true
-			}
-		}
-		has := 0
-		if (p >= 0 && nd.CTM != s.Nodes[p].CTM) || (p < 0 && Matrix(nd.CTM) != IdentityMatrix) {
-			has |= FieldCTM
-		}
-		if len(nd.Geom) > 0 {
-			has |= FieldGeom
-		}
-		if len(nd.BBox) == 4 {
-			has |= FieldBBox
-		}
-		if nd.D != "" {
-			has |= FieldD
-		}
-		if nd.Text != "" {
-			has |= FieldText
-		}
-		if nd.Label != "" {
-			has |= FieldLabel
-		}
+		nk, explicit := nameLink(s, i)
+		has := presentFields(s, i)
 		if explicit {
 			has |= FieldName
 			nk = 0
@@ -596,30 +622,97 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 			out = append(out, style[:]...)
 		}
 		prevStyle = style
-		if has&FieldCTM != 0 {
-			out = append(out, nd.CTM[:]...)
-		}
-		if has&FieldGeom != 0 {
-			out = append(out, float64(len(nd.Geom)))
-			out = append(out, nd.Geom...)
-		}
-		if has&FieldBBox != 0 {
-			out = append(out, nd.BBox...)
-		}
-		if has&FieldD != 0 {
-			out = append(out, e.str(nd.D))
-		}
-		if has&FieldText != 0 {
-			out = append(out, e.str(nd.Text))
-		}
-		if has&FieldLabel != 0 {
-			out = append(out, e.str(nd.Label))
-		}
-		if has&FieldName != 0 {
-			out = append(out, e.str(nd.Name))
-		}
+		out = e.optional(out, nd, has)
 	}
 	return out, nil
+}
+
+// checkNode refuses a node the JSON form cannot hold.
+func checkNode(s *Snapshot, i int) error {
+	nd := &s.Nodes[i]
+	p := int(nd.Parent)
+	switch {
+	case p >= i || p < -1:
+		return fmt.Errorf("snapshot: chart %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+	case len(nd.Geom) > maxGeom:
+		return fmt.Errorf("snapshot: chart %s: node %d has %d geometry values, more than %d", s.Path, i, len(nd.Geom), maxGeom)
+	case len(nd.BBox) != 0 && len(nd.BBox) != 4:
+		return fmt.Errorf("snapshot: chart %s: node %d has a box of %d numbers", s.Path, i, len(nd.BBox))
+	}
+	return nil
+}
+
+// nameLink is the name field of node i: its index among its parent's
+// children, or NameUse, when its name derives from the parent's; else
+// explicit is true and the name is written out.
+func nameLink(s *Snapshot, i int) (nk int, explicit bool) {
+	nd := &s.Nodes[i]
+	p := int(nd.Parent)
+	if p < 0 {
+		return 0, nd.Name != s.Path
+	}
+	rest, ok := strings.CutPrefix(nd.Name, s.Nodes[p].Name)
+	switch {
+	case ok && rest == ">"+nd.Tag:
+		return NameUse, false
+	case ok && strings.HasPrefix(rest, "/"+nd.Tag):
+		k, err := strconv.Atoi(rest[1+len(nd.Tag):])
+		return k, err != nil || k < 0 || strconv.Itoa(k) != rest[1+len(nd.Tag):]
+	}
+	return 0, true
+}
+
+// presentFields are the optional fields node i has (all but the name).
+func presentFields(s *Snapshot, i int) int {
+	nd := &s.Nodes[i]
+	p := int(nd.Parent)
+	has := 0
+	if (p >= 0 && nd.CTM != s.Nodes[p].CTM) || (p < 0 && Matrix(nd.CTM) != IdentityMatrix) {
+		has |= FieldCTM
+	}
+	if len(nd.Geom) > 0 {
+		has |= FieldGeom
+	}
+	if len(nd.BBox) == 4 {
+		has |= FieldBBox
+	}
+	if nd.D != "" {
+		has |= FieldD
+	}
+	if nd.Text != "" {
+		has |= FieldText
+	}
+	if nd.Label != "" {
+		has |= FieldLabel
+	}
+	return has
+}
+
+// optional appends the optional fields has announces, in their order.
+func (e *wireEncoder) optional(out []float64, nd *Node, has int) []float64 {
+	if has&FieldCTM != 0 {
+		out = append(out, nd.CTM[:]...)
+	}
+	if has&FieldGeom != 0 {
+		out = append(out, float64(len(nd.Geom)))
+		out = append(out, nd.Geom...)
+	}
+	if has&FieldBBox != 0 {
+		out = append(out, nd.BBox...)
+	}
+	if has&FieldD != 0 {
+		out = append(out, e.str(nd.D))
+	}
+	if has&FieldText != 0 {
+		out = append(out, e.str(nd.Text))
+	}
+	if has&FieldLabel != 0 {
+		out = append(out, e.str(nd.Label))
+	}
+	if has&FieldName != 0 {
+		out = append(out, e.str(nd.Name))
+	}
+	return out
 }
 
 // sameStyle compares styles as the decoder will read them: bit for bit, so

@@ -374,99 +374,19 @@ func viewBoxMatrix(vb []float64, w, h float64, par string) snapshot.Matrix {
 // parentCTM is the parent's user space to page px; inner is an extra
 // transform applied before this element's own (a viewBox, a <use> offset).
 func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed, parentCTM, inner snapshot.Matrix, useDepth int) error {
+	if err := b.count(useDepth); err != nil {
+		return err
+	}
 	snap := b.snap
-	if len(snap.Nodes) >= snapshot.MaxNodes {
-		return fmt.Errorf("static: %s: chart %s has more than %d elements", b.opt.Source, snap.Path, snapshot.MaxNodes)
-	}
-	if b.pageNodes++; b.pageNodes > snapshot.MaxPageNodes {
-		return fmt.Errorf("static: %s: the page's charts have more than %d elements", b.opt.Source, snapshot.MaxPageNodes)
-	}
-	if useDepth > 0 {
-		if b.useNodes++; b.useNodes > snapshot.MaxUseNodes {
-			return fmt.Errorf("static: %s: chart %s instantiates more than %d elements through <use> (a chain of references?)", b.opt.Source, snap.Path, snapshot.MaxUseNodes)
-		}
-	}
-	if len(snap.Nodes)&1023 == 1023 && !b.opt.Deadline.IsZero() && time.Now().After(b.opt.Deadline) {
-		return fmt.Errorf("static: %s: %w", b.opt.Source, errTimeLimit)
-	}
 	tag := strings.ToLower(n.Data)
-	ctm := parentCTM
-	// A transform applies to any element but the outermost <svg>, whose
-	// placement is the page's business.
-	if t := attr(n, "transform"); t != "" && (tag != "svg" || parent >= 0) {
-		m, err := ParseTransform(t)
-		if err != nil {
-			snap.Problems = append(snap.Problems, fmt.Sprintf("%s: %v; the transform is ignored", name, err))
-		} else {
-			ctm = ctm.Mul(m)
-		}
-	}
-	ctm = ctm.Mul(inner)
-	for _, v := range ctm {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			snap.Problems = append(snap.Problems, fmt.Sprintf("%s: the accumulated transform overflows; the element is not drawn", name))
-			ctm = snapshot.IdentityMatrix
-			inner = snapshot.Matrix{}
-			break
-		}
-	}
-	node := snapshot.Node{
-		Parent: parent, Tag: tag, Name: name, CTM: ctm,
-		FillOpacity: number01(st.v[pFillOpacity], 1), StrokeOpacity: number01(st.v[pStrokeOpacity], 1),
-		Opacity: number01(st.v[pOpacity], 1),
-	}
+	ctm, inner := b.nodeCTM(n, tag, parent, name, parentCTM, inner)
+	node := b.styledNode(st, name)
+	node.Parent, node.Tag, node.Name, node.CTM = parent, tag, name, ctm
 	if inner == (snapshot.Matrix{}) {
 		node.Flags |= snapshot.Hidden
 	}
-	if sw, ok := length(st.v[pStrokeWidth], 16); ok && sw >= 0 {
-		node.StrokeWidth = sw
-	} else {
-		node.StrokeWidth = 1
-	}
-	if strings.EqualFold(st.v[pDisplay], "none") {
-		node.Flags |= snapshot.Hidden
-	}
-	if v := strings.ToLower(st.v[pVisibility]); v == "hidden" || v == "collapse" {
-		node.Flags |= snapshot.Invisible
-	}
 	node.Label = attr(n, "aria-label")
-	node.Fill = b.paint(st.v[pFill], st, name)
-	node.Stroke = b.paint(st.v[pStroke], st, name)
-	// As the read pass records them (snapshot.Node): no paint, no paint opacity.
-	if node.Fill.Kind == snapshot.PaintNone {
-		node.FillOpacity = 1
-	}
-	if node.Stroke.Kind == snapshot.PaintNone {
-		node.StrokeOpacity, node.StrokeWidth = 1, 0
-	}
-	if keys, ok := snapshot.GeomLayout[tag]; ok {
-		node.Geom = make([]float64, len(keys), len(keys)+1)
-		for i, k := range keys {
-			v := attr(n, k)
-			if v == "" {
-				if (tag == "rect" || tag == "image") && (k == "rx" || k == "ry") {
-					node.Geom[i] = snapshot.GeomAuto // JSON has no NaN
-				}
-				continue
-			}
-			if tag == "text" {
-				// x and y may be lists; the first value anchors the text.
-				if f := strings.FieldsFunc(v, func(r rune) bool { return r == ' ' || r == ',' }); len(f) > 0 {
-					v = f[0]
-				}
-			}
-			x, ok := length(v, 0)
-			if !ok {
-				snap.Problems = append(snap.Problems, fmt.Sprintf("%s: %s=%q is not a number; the element is not drawn", name, k, clip(v, 30)))
-				node.Flags |= snapshot.Hidden
-				continue
-			}
-			node.Geom[i] = x
-		}
-		if tag == "text" {
-			node.Geom = append(node.Geom, fontSize(st.v[pFontSize], 16))
-		}
-	}
+	b.geometry(n, &node, st)
 	switch tag {
 	case "path":
 		node.D = attr(n, "d")
@@ -486,6 +406,120 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 	if tag == "use" {
 		return b.expandUse(n, idx, name, st, ctm, useDepth)
 	}
+	return b.addChildren(n, idx, name, st, ctm, useDepth)
+}
+
+// count enforces the caps and the deadline before a node is added.
+func (b *builder) count(useDepth int) error {
+	snap := b.snap
+	if len(snap.Nodes) >= snapshot.MaxNodes {
+		return fmt.Errorf("static: %s: chart %s has more than %d elements", b.opt.Source, snap.Path, snapshot.MaxNodes)
+	}
+	if b.pageNodes++; b.pageNodes > snapshot.MaxPageNodes {
+		return fmt.Errorf("static: %s: the page's charts have more than %d elements", b.opt.Source, snapshot.MaxPageNodes)
+	}
+	if useDepth > 0 {
+		if b.useNodes++; b.useNodes > snapshot.MaxUseNodes {
+			return fmt.Errorf("static: %s: chart %s instantiates more than %d elements through <use> (a chain of references?)", b.opt.Source, snap.Path, snapshot.MaxUseNodes)
+		}
+	}
+	if len(snap.Nodes)&1023 == 1023 && !b.opt.Deadline.IsZero() && time.Now().After(b.opt.Deadline) {
+		return fmt.Errorf("static: %s: %w", b.opt.Source, errTimeLimit)
+	}
+	return nil
+}
+
+// nodeCTM is the element's CTM: the parent's, its own transform (which
+// the outermost <svg> does not take: its placement is the page's
+// business), then inner. A CTM that overflows is recorded as a problem
+// and the element is not drawn (inner comes back zero).
+func (b *builder) nodeCTM(n *html.Node, tag string, parent int32, name string, ctm, inner snapshot.Matrix) (snapshot.Matrix, snapshot.Matrix) {
+	if t := attr(n, "transform"); t != "" && (tag != "svg" || parent >= 0) {
+		m, err := ParseTransform(t)
+		if err != nil {
+			b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: %v; the transform is ignored", name, err))
+		} else {
+			ctm = ctm.Mul(m)
+		}
+	}
+	ctm = ctm.Mul(inner)
+	for _, v := range ctm {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: the accumulated transform overflows; the element is not drawn", name))
+			return snapshot.IdentityMatrix, snapshot.Matrix{}
+		}
+	}
+	return ctm, inner
+}
+
+// styledNode is a node with the computed paint, opacities, stroke width
+// and flags of st, recorded as the read pass records them
+// (snapshot.Node): no paint, no paint opacity.
+func (b *builder) styledNode(st *computed, name string) snapshot.Node {
+	node := snapshot.Node{
+		FillOpacity: number01(st.v[pFillOpacity], 1), StrokeOpacity: number01(st.v[pStrokeOpacity], 1),
+		Opacity: number01(st.v[pOpacity], 1), StrokeWidth: 1,
+	}
+	if sw, ok := length(st.v[pStrokeWidth], 16); ok && sw >= 0 {
+		node.StrokeWidth = sw
+	}
+	if strings.EqualFold(st.v[pDisplay], "none") {
+		node.Flags |= snapshot.Hidden
+	}
+	if v := strings.ToLower(st.v[pVisibility]); v == "hidden" || v == "collapse" {
+		node.Flags |= snapshot.Invisible
+	}
+	node.Fill = b.paint(st.v[pFill], st, name)
+	node.Stroke = b.paint(st.v[pStroke], st, name)
+	if node.Fill.Kind == snapshot.PaintNone {
+		node.FillOpacity = 1
+	}
+	if node.Stroke.Kind == snapshot.PaintNone {
+		node.StrokeOpacity, node.StrokeWidth = 1, 0
+	}
+	return node
+}
+
+// geometry reads the tag's geometry attributes (snapshot.GeomLayout) into
+// node.Geom; a value that is not a number hides the element, with a
+// problem.
+func (b *builder) geometry(n *html.Node, node *snapshot.Node, st *computed) {
+	tag := node.Tag
+	keys, ok := snapshot.GeomLayout[tag]
+	if !ok {
+		return
+	}
+	node.Geom = make([]float64, len(keys), len(keys)+1)
+	for i, k := range keys {
+		v := attr(n, k)
+		if v == "" {
+			if tag == "rect" && (k == "rx" || k == "ry") {
+				node.Geom[i] = snapshot.GeomAuto // JSON has no NaN
+			}
+			continue
+		}
+		if tag == "text" {
+			// x and y may be lists; the first value anchors the text.
+			if f := strings.FieldsFunc(v, func(r rune) bool { return r == ' ' || r == ',' }); len(f) > 0 {
+				v = f[0]
+			}
+		}
+		x, ok := length(v, 0)
+		if !ok {
+			b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: %s=%q is not a number; the element is not drawn", node.Name, k, clip(v, 30)))
+			node.Flags |= snapshot.Hidden
+			continue
+		}
+		node.Geom[i] = x
+	}
+	if tag == "text" {
+		node.Geom = append(node.Geom, fontSize(st.v[pFontSize], 16))
+	}
+}
+
+// addChildren adds the SVG element children of n; a nested <svg> is a
+// viewport of its own.
+func (b *builder) addChildren(n *html.Node, idx int32, name string, st *computed, ctm snapshot.Matrix, useDepth int) error {
 	k := 0
 	for c := n.FirstChild; c != nil; c = c.NextSibling {
 		if c.Type != html.ElementNode {

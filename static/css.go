@@ -31,85 +31,102 @@ type rule struct {
 // compile, and parse errors, are returned as problems; the rules that did
 // parse are kept.
 func parseSheet(text string, order *int, where string, budget *matchBudget) ([]rule, []string) {
-	var rules []rule
-	var problems []string
-	p := css.NewParser(parse.NewInputString(text), false)
-	var stack []bool // for each open at-rule: whether its contents apply
-	applies := func() bool {
-		for _, s := range stack {
-			if !s {
-				return false
-			}
-		}
-		return true
-	}
-	var cur []cascadia.Sel
-	var curDecls []decl
-	zero := false
-	inRule := false
+	sp := sheetParser{p: css.NewParser(parse.NewInputString(text), false), order: order, where: where, budget: budget}
 	for {
-		gt, _, data := p.Next()
+		gt, _, data := sp.p.Next()
 		switch gt {
 		case css.ErrorGrammar:
-			if err := p.Err(); err != nil && err.Error() != "EOF" {
-				problems = append(problems, fmt.Sprintf("%s: CSS error, the rest of the style sheet is ignored: %s", where, firstLine(err.Error())))
+			if err := sp.p.Err(); err != nil && err.Error() != "EOF" {
+				sp.problems = append(sp.problems, fmt.Sprintf("%s: CSS error, the rest of the style sheet is ignored: %s", where, firstLine(err.Error())))
 			}
-			return rules, problems
+			return sp.rules, sp.problems
 		case css.BeginAtRuleGrammar:
 			name := strings.ToLower(string(data))
 			ok := false
 			if name == "@media" || name == "@supports" || name == "@layer" || name == "@container" {
-				q := strings.ToLower(joinTokens(p.Values()))
+				q := strings.ToLower(joinTokens(sp.p.Values()))
 				ok = !(name == "@media" && strings.Contains(q, "print") && !strings.Contains(q, "screen") && !strings.Contains(q, "all"))
 			}
-			stack = append(stack, ok)
+			sp.stack = append(sp.stack, ok)
 		case css.EndAtRuleGrammar:
-			if len(stack) > 0 {
-				stack = stack[:len(stack)-1]
+			if len(sp.stack) > 0 {
+				sp.stack = sp.stack[:len(sp.stack)-1]
 			}
 		case css.BeginRulesetGrammar, css.QualifiedRuleGrammar:
-			text := joinTokens(p.Values())
-			cur = cur[:0]
-			zero = false
-			group, err := compileGroup(text, budget)
-			if err != nil {
-				// cascadia lacks :where(); a selector list made only of
-				// :where(…) wrappers matches like its contents with zero
-				// specificity (Selectors 4 §4.4).
-				if inner, ok := unwrapWhere(text); ok {
-					if g2, err2 := compileGroup(inner, budget); err2 == nil {
-						group, err, zero = g2, nil, true
-					}
-				}
-			}
-			if err != nil {
-				problems = append(problems, fmt.Sprintf("%s: selector %q is not supported and its rule is ignored (%v)", where, clip(text, 80), err))
-			}
-			for _, s := range group {
-				cur = append(cur, s)
-			}
-			curDecls = nil
-			inRule = gt == css.BeginRulesetGrammar
+			sp.selectors(joinTokens(sp.p.Values()))
+			sp.inRule = gt == css.BeginRulesetGrammar
 		case css.DeclarationGrammar, css.CustomPropertyGrammar:
-			if inRule {
-				if d, ok := makeDecl(string(data), p.Values(), gt == css.CustomPropertyGrammar); ok {
-					curDecls = append(curDecls, d)
+			if sp.inRule {
+				if d, ok := makeDecl(string(data), sp.p.Values(), gt == css.CustomPropertyGrammar); ok {
+					sp.decls = append(sp.decls, d)
 				}
 			}
 		case css.EndRulesetGrammar:
-			if inRule && applies() && len(curDecls) > 0 {
-				for _, s := range cur {
-					sp := s.Specificity()
-					if zero {
-						sp = cascadia.Specificity{}
-					}
-					*order++
-					rules = append(rules, rule{sel: s, spec: sp[0]<<20 | sp[1]<<10 | sp[2], order: *order, decls: curDecls})
-				}
-			}
-			inRule = false
+			sp.endRule()
 		}
 	}
+}
+
+// sheetParser is the state of one parseSheet: the rules so far, the open
+// at-rules (whether each one's contents apply), and the rule being read.
+type sheetParser struct {
+	p        *css.Parser
+	order    *int
+	where    string
+	budget   *matchBudget
+	rules    []rule
+	problems []string
+	stack    []bool
+	cur      []cascadia.Sel
+	decls    []decl
+	zero     bool // the rule's selectors are :where(…): zero specificity
+	inRule   bool
+}
+
+func (sp *sheetParser) applies() bool {
+	for _, s := range sp.stack {
+		if !s {
+			return false
+		}
+	}
+	return true
+}
+
+// selectors compiles a rule's selector list.
+func (sp *sheetParser) selectors(text string) {
+	sp.cur, sp.zero, sp.decls = sp.cur[:0], false, nil
+	group, err := compileGroup(text, sp.budget)
+	if err != nil {
+		// cascadia lacks :where(); a selector list made only of
+		// :where(…) wrappers matches like its contents with zero
+		// specificity (Selectors 4 §4.4).
+		if inner, ok := unwrapWhere(text); ok {
+			if g2, err2 := compileGroup(inner, sp.budget); err2 == nil {
+				group, err, sp.zero = g2, nil, true
+			}
+		}
+	}
+	if err != nil {
+		sp.problems = append(sp.problems, fmt.Sprintf("%s: selector %q is not supported and its rule is ignored (%v)", sp.where, clip(text, 80), err))
+	}
+	for _, s := range group {
+		sp.cur = append(sp.cur, s)
+	}
+}
+
+// endRule keeps a finished rule, one per selector, if it applies.
+func (sp *sheetParser) endRule() {
+	if sp.inRule && sp.applies() && len(sp.decls) > 0 {
+		for _, s := range sp.cur {
+			spec := s.Specificity()
+			if sp.zero {
+				spec = cascadia.Specificity{}
+			}
+			*sp.order++
+			sp.rules = append(sp.rules, rule{sel: s, spec: spec[0]<<20 | spec[1]<<10 | spec[2], order: *sp.order, decls: sp.decls})
+		}
+	}
+	sp.inRule = false
 }
 
 // parseDecls parses the declarations of a style attribute.

@@ -100,29 +100,74 @@ var presentation = []string{"fill", "stroke", "fill-opacity", "stroke-opacity", 
 // compute returns n's computed style given its parent's (nil for the root).
 // Inline-style parse errors are recorded as problems.
 func (c *cascader) compute(n *html.Node, parent *computed, name string) *computed {
-	var declared [nProps]string
-	var have [nProps]prio
-	var set [nProps]bool
-	var customs map[string]string
-	var customPrio map[string]prio
-	put := func(d decl, p prio) {
-		if strings.HasPrefix(d.prop, "--") {
-			if customs == nil {
-				customs, customPrio = map[string]string{}, map[string]prio{}
-			}
-			if old, ok := customPrio[d.prop]; !ok || old.less(p) || old == p {
-				customs[d.prop], customPrio[d.prop] = d.value, p
-			}
-			return
-		}
-		i, ok := propIndex[d.prop]
-		if !ok {
-			return
-		}
-		if !set[i] || have[i].less(p) || have[i] == p {
-			declared[i], have[i], set[i] = d.value, p, true
-		}
+	var d declared
+	c.declare(&d, n, name)
+	out := &computed{}
+	if parent != nil {
+		out.custom = parent.custom
 	}
+	if d.customs != nil {
+		m := make(map[string]string, len(d.customs)+len(out.custom))
+		for k, v := range out.custom {
+			m[k] = v
+		}
+		for k, v := range d.customs {
+			m[k] = v
+		}
+		// Custom properties may refer to each other; resolve now.
+		for k, v := range m {
+			if strings.Contains(v, "(") {
+				m[k] = substitute(v, m, c.dark, 0)
+			}
+		}
+		out.custom = m
+	}
+	for i := 0; i < nProps; i++ {
+		out.v[i] = c.value(&d, i, parent, out.custom)
+	}
+	if d.set[pFontSize] {
+		base := 16.0
+		if parent != nil {
+			base = fontSize(parent.v[pFontSize], 16)
+		}
+		out.v[pFontSize] = strconv.FormatFloat(fontSize(out.v[pFontSize], base), 'g', -1, 64) + "px"
+	}
+	return out
+}
+
+// declared holds, per property, the winning declaration so far and its
+// priority, and the custom properties declared on the element.
+type declared struct {
+	value      [nProps]string
+	have       [nProps]prio
+	set        [nProps]bool
+	customs    map[string]string
+	customPrio map[string]prio
+}
+
+// put records a declaration if it wins over what is there.
+func (d *declared) put(dc decl, p prio) {
+	if strings.HasPrefix(dc.prop, "--") {
+		if d.customs == nil {
+			d.customs, d.customPrio = map[string]string{}, map[string]prio{}
+		}
+		if old, ok := d.customPrio[dc.prop]; !ok || old.less(p) || old == p {
+			d.customs[dc.prop], d.customPrio[dc.prop] = dc.value, p
+		}
+		return
+	}
+	i, ok := propIndex[dc.prop]
+	if !ok {
+		return
+	}
+	if !d.set[i] || d.have[i].less(p) || d.have[i] == p {
+		d.value[i], d.have[i], d.set[i] = dc.value, p, true
+	}
+}
+
+// declare collects n's declarations in cascade order: presentation
+// attributes, then style sheet rules, then the style attribute.
+func (c *cascader) declare(d *declared, n *html.Node, name string) {
 	isSVG := n.Namespace == "svg"
 	var style string
 	for _, a := range n.Attr {
@@ -136,15 +181,15 @@ func (c *cascader) compute(n *html.Node, parent *computed, name string) *compute
 		if isSVG {
 			for _, pa := range presentation {
 				if a.Key == pa {
-					put(decl{prop: pa, value: strings.TrimSpace(a.Val)}, prio{level: 0})
+					d.put(decl{prop: pa, value: strings.TrimSpace(a.Val)}, prio{level: 0})
 				}
 			}
 		}
 	}
 	for _, r := range c.rules {
 		if r.sel.Match(n) {
-			for _, d := range r.decls {
-				put(d, prio{important: d.important, level: 1, spec: r.spec, order: r.order})
+			for _, dc := range r.decls {
+				d.put(dc, prio{important: dc.important, level: 1, spec: r.spec, order: r.order})
 			}
 		}
 	}
@@ -153,64 +198,36 @@ func (c *cascader) compute(n *html.Node, parent *computed, name string) *compute
 		if err != nil {
 			*c.problems = append(*c.problems, name+": style attribute has a CSS error, the rest of it is ignored: "+firstLine(err.Error()))
 		}
-		for i, d := range ds {
-			put(d, prio{important: d.important, level: 2, order: i})
+		for i, dc := range ds {
+			d.put(dc, prio{important: dc.important, level: 2, order: i})
 		}
 	}
+}
 
-	out := &computed{}
-	if parent != nil {
-		out.custom = parent.custom
+// value is property i's computed value: the declared one with var() and
+// light-dark() substituted, or the inherited or initial one (CSS
+// Cascading 4 §7: unset, inherit, initial, revert).
+func (c *cascader) value(d *declared, i int, parent *computed, custom map[string]string) string {
+	v := d.value[i]
+	if d.set[i] && strings.Contains(v, "(") {
+		v = substitute(v, custom, c.dark, 0)
 	}
-	if customs != nil {
-		m := make(map[string]string, len(customs)+len(out.custom))
-		for k, v := range out.custom {
-			m[k] = v
+	lv := strings.ToLower(v)
+	switch {
+	case !d.set[i] || lv == "unset" || v == "":
+		if inherited[i] && parent != nil {
+			return parent.v[i]
 		}
-		for k, v := range customs {
-			m[k] = v
-		}
-		// Custom properties may refer to each other; resolve now.
-		for k, v := range m {
-			if strings.Contains(v, "(") {
-				m[k] = substitute(v, m, c.dark, 0)
-			}
-		}
-		out.custom = m
-	}
-	for i := 0; i < nProps; i++ {
-		v := declared[i]
-		if set[i] && strings.Contains(v, "(") {
-			v = substitute(v, out.custom, c.dark, 0)
-		}
-		lv := strings.ToLower(v)
-		switch {
-		case !set[i] || lv == "unset" || v == "":
-			if inherited[i] && parent != nil {
-				out.v[i] = parent.v[i]
-			} else {
-				out.v[i] = initial[i]
-			}
-		case lv == "inherit":
-			if parent != nil {
-				out.v[i] = parent.v[i]
-			} else {
-				out.v[i] = initial[i]
-			}
-		case lv == "initial" || lv == "revert" || lv == "revert-layer":
-			out.v[i] = initial[i]
-		default:
-			out.v[i] = v
-		}
-	}
-	if set[pFontSize] {
-		base := 16.0
+		return initial[i]
+	case lv == "inherit":
 		if parent != nil {
-			base = fontSize(parent.v[pFontSize], 16)
+			return parent.v[i]
 		}
-		out.v[pFontSize] = strconv.FormatFloat(fontSize(out.v[pFontSize], base), 'g', -1, 64) + "px"
+		return initial[i]
+	case lv == "initial" || lv == "revert" || lv == "revert-layer":
+		return initial[i]
 	}
-	return out
+	return v
 }
 
 // substitute replaces var(--x, fallback) and light-dark(a, b) in a value.

@@ -1,6 +1,7 @@
 package static
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"standout/internal/svgnum"
@@ -20,83 +21,97 @@ func ParseTransform(s string) (snapshot.Matrix, error) {
 		if sc.Done() {
 			return m, nil
 		}
-		start := sc.I
-		for !sc.Done() && (sc.S[sc.I] >= 'a' && sc.S[sc.I] <= 'z' || sc.S[sc.I] >= 'A' && sc.S[sc.I] <= 'Z') {
-			sc.I++
+		name, args, err := transformFunc(&sc, s)
+		if err != nil {
+			return snapshot.IdentityMatrix, err
 		}
-		name := sc.S[start:sc.I]
-		sc.SkipSpace()
-		if sc.Done() || sc.S[sc.I] != '(' {
-			return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: expected '(' after %q at offset %d", clip(s, 60), name, sc.I)
-		}
-		sc.I++
-		var args []float64
-		for {
-			sc.SkipSep()
-			if sc.Done() {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: missing ')'", clip(s, 60))
-			}
-			if sc.S[sc.I] == ')' {
-				sc.I++
-				break
-			}
-			v, ok := sc.Number()
-			if !ok {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: bad number at offset %d", clip(s, 60), sc.I)
-			}
-			args = append(args, v)
-			if len(args) > 6 {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: too many arguments to %s", clip(s, 60), name)
-			}
-		}
-		var t snapshot.Matrix
-		n := len(args)
-		switch strings.ToLower(name) {
-		case "matrix":
-			if n != 6 {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: matrix takes 6 numbers", clip(s, 60))
-			}
-			copy(t[:], args)
-		case "translate":
-			if n != 1 && n != 2 {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: translate takes 1 or 2 numbers", clip(s, 60))
-			}
-			t = snapshot.Matrix{1, 0, 0, 1, args[0], 0}
-			if n == 2 {
-				t[5] = args[1]
-			}
-		case "scale":
-			if n != 1 && n != 2 {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: scale takes 1 or 2 numbers", clip(s, 60))
-			}
-			sy := args[0]
-			if n == 2 {
-				sy = args[1]
-			}
-			t = snapshot.Matrix{args[0], 0, 0, sy, 0, 0}
-		case "rotate":
-			if n != 1 && n != 3 {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: rotate takes 1 or 3 numbers", clip(s, 60))
-			}
-			sn, cs := math.Sincos(args[0] * math.Pi / 180)
-			t = snapshot.Matrix{cs, sn, -sn, cs, 0, 0}
-			if n == 3 {
-				cx, cy := args[1], args[2]
-				t = snapshot.Matrix{1, 0, 0, 1, cx, cy}.Mul(t).Mul(snapshot.Matrix{1, 0, 0, 1, -cx, -cy})
-			}
-		case "skewx":
-			if n != 1 {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: skewX takes 1 number", clip(s, 60))
-			}
-			t = snapshot.Matrix{1, 0, math.Tan(args[0] * math.Pi / 180), 1, 0, 0}
-		case "skewy":
-			if n != 1 {
-				return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: skewY takes 1 number", clip(s, 60))
-			}
-			t = snapshot.Matrix{1, math.Tan(args[0] * math.Pi / 180), 0, 1, 0, 0}
-		default:
-			return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: unknown function %q", clip(s, 60), name)
+		t, err := transformMatrix(name, args)
+		if err != nil {
+			return snapshot.IdentityMatrix, fmt.Errorf("static: transform %q: %w", clip(s, 60), err)
 		}
 		m = m.Mul(t)
 	}
+}
+
+// transformFunc reads one transform function: its name and its numbers.
+func transformFunc(sc *svgnum.Scanner, s string) (string, []float64, error) {
+	start := sc.I
+	for !sc.Done() && (sc.S[sc.I] >= 'a' && sc.S[sc.I] <= 'z' || sc.S[sc.I] >= 'A' && sc.S[sc.I] <= 'Z') {
+		sc.I++
+	}
+	name := sc.S[start:sc.I]
+	sc.SkipSpace()
+	if sc.Done() || sc.S[sc.I] != '(' {
+		return "", nil, fmt.Errorf("static: transform %q: expected '(' after %q at offset %d", clip(s, 60), name, sc.I)
+	}
+	sc.I++
+	var args []float64
+	for {
+		sc.SkipSep()
+		if sc.Done() {
+			return "", nil, fmt.Errorf("static: transform %q: missing ')'", clip(s, 60))
+		}
+		if sc.S[sc.I] == ')' {
+			sc.I++
+			return name, args, nil
+		}
+		v, ok := sc.Number()
+		if !ok {
+			return "", nil, fmt.Errorf("static: transform %q: bad number at offset %d", clip(s, 60), sc.I)
+		}
+		args = append(args, v)
+		if len(args) > 6 {
+			return "", nil, fmt.Errorf("static: transform %q: too many arguments to %s", clip(s, 60), name)
+		}
+	}
+}
+
+// transformMatrix is the matrix of one transform function (SVG 1.1
+// §7.6); names are case-insensitive.
+func transformMatrix(name string, args []float64) (snapshot.Matrix, error) {
+	n := len(args)
+	switch lname := strings.ToLower(name); lname {
+	case "matrix":
+		if n != 6 {
+			return snapshot.Matrix{}, errors.New("matrix takes 6 numbers")
+		}
+		var t snapshot.Matrix
+		copy(t[:], args)
+		return t, nil
+	case "translate":
+		if n != 1 && n != 2 {
+			return snapshot.Matrix{}, errors.New("translate takes 1 or 2 numbers")
+		}
+		t := snapshot.Matrix{1, 0, 0, 1, args[0], 0}
+		if n == 2 {
+			t[5] = args[1]
+		}
+		return t, nil
+	case "scale":
+		if n != 1 && n != 2 {
+			return snapshot.Matrix{}, errors.New("scale takes 1 or 2 numbers")
+		}
+		return snapshot.Matrix{args[0], 0, 0, args[n-1], 0, 0}, nil
+	case "rotate":
+		if n != 1 && n != 3 {
+			return snapshot.Matrix{}, errors.New("rotate takes 1 or 3 numbers")
+		}
+		sn, cs := math.Sincos(args[0] * math.Pi / 180)
+		t := snapshot.Matrix{cs, sn, -sn, cs, 0, 0}
+		if n == 3 {
+			cx, cy := args[1], args[2]
+			t = snapshot.Matrix{1, 0, 0, 1, cx, cy}.Mul(t).Mul(snapshot.Matrix{1, 0, 0, 1, -cx, -cy})
+		}
+		return t, nil
+	case "skewx", "skewy":
+		if n != 1 {
+			return snapshot.Matrix{}, fmt.Errorf("skew%s takes 1 number", strings.ToUpper(lname[4:]))
+		}
+		k := math.Tan(args[0] * math.Pi / 180)
+		if lname == "skewx" {
+			return snapshot.Matrix{1, 0, k, 1, 0, 0}, nil
+		}
+		return snapshot.Matrix{1, k, 0, 1, 0, 0}, nil
+	}
+	return snapshot.Matrix{}, fmt.Errorf("unknown function %q", name)
 }

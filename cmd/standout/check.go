@@ -16,165 +16,212 @@ import (
 	"standout/static"
 )
 
-func runCheck(args []string, stdout, stderr io.Writer) int {
+// checkFlags are check's flags, parsed and validated.
+type checkFlags struct {
+	args               []string
+	asJSON, useBrowser bool
+	chromium           string
+	tabs               int
+	pngDir, mdDir      string
+	timeout            time.Duration
+	failRank           int // -1: never fail on findings
+	opt                report.Options
+}
+
+// parseCheckFlags reads check's flags; an error has been written to
+// stderr when it returns nil.
+func parseCheckFlags(args []string, stderr io.Writer) *checkFlags {
 	fs := flag.NewFlagSet("check", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	asJSON := fs.Bool("json", false, "write the versioned JSON report")
+	cf := &checkFlags{failRank: -1}
+	fs.BoolVar(&cf.asJSON, "json", false, "write the versioned JSON report")
 	emphasis := fs.String("emphasis", "", "the intended emphasis: mark ids (comma-separated) or a CSS selector")
 	severity := fs.Float64("cvd-severity", 1, "CVD severity within [0, 1] for the re-analysis")
 	distance := fs.Float64("distance-cm", colour.DefaultViewing.DistanceCM, "viewing distance in cm")
 	ppi := fs.Float64("px-per-inch", colour.DefaultViewing.CSSPxPerInch, "CSS px per physical inch")
 	failOn := fs.String("fail-on", "", "exit 1 when a finding reaches this severity: info, warning or error")
-	useBrowser := fs.Bool("browser", false, "load each page or file in headless Chromium and read it as rendered")
-	chromium := fs.String("chromium", "", "path to the Chromium binary (default: $STANDOUT_CHROMIUM, then known paths)")
-	tabs := fs.Int("tabs", 2, "pages loaded at once with --browser")
-	pngDir := fs.String("png", "", "with --browser, write an annotated PNG per chart into this folder")
-	mdDir := fs.String("md", "", "write a Markdown report per page into this folder")
-	timeout := fs.Duration("timeout", 60*time.Second, "the longest one page may take to load and check")
+	fs.BoolVar(&cf.useBrowser, "browser", false, "load each page or file in headless Chromium and read it as rendered")
+	fs.StringVar(&cf.chromium, "chromium", "", "path to the Chromium binary (default: $STANDOUT_CHROMIUM, then known paths)")
+	fs.IntVar(&cf.tabs, "tabs", 2, "pages loaded at once with --browser")
+	fs.StringVar(&cf.pngDir, "png", "", "with --browser, write an annotated PNG per chart into this folder")
+	fs.StringVar(&cf.mdDir, "md", "", "write a Markdown report per page into this folder")
+	fs.DurationVar(&cf.timeout, "timeout", 60*time.Second, "the longest one page may take to load and check")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: standout check [flags] FILE|URL…")
 		fs.PrintDefaults()
 	}
 	if err := parseFlags(fs, args); err != nil {
-		return 2
+		return nil
 	}
-	if fs.NArg() == 0 {
+	cf.args = fs.Args()
+	bad := func(msg string) *checkFlags {
+		fmt.Fprintln(stderr, "standout check:", msg)
+		return nil
+	}
+	switch {
+	case fs.NArg() == 0:
 		fs.Usage()
-		return 2
+		return nil
+	case cf.pngDir != "" && !cf.useBrowser:
+		return bad("--png needs --browser (the static reader has no rendering)")
+	case cf.timeout <= 0:
+		return bad("--timeout must be positive, for example 30s or 2m")
+	case cf.tabs < 1 || cf.tabs > 32:
+		return bad("--tabs must be within 1–32")
 	}
-	if *pngDir != "" && !*useBrowser {
-		fmt.Fprintln(stderr, "standout check: --png needs --browser (the static reader has no rendering)")
-		return 2
-	}
-	if *timeout <= 0 {
-		fmt.Fprintln(stderr, "standout check: --timeout must be positive, for example 30s or 2m")
-		return 2
-	}
-	if *tabs < 1 || *tabs > 32 {
-		fmt.Fprintln(stderr, "standout check: --tabs must be within 1–32")
-		return 2
-	}
-	failRank := -1
 	switch *failOn {
 	case "":
 	case "info", "warning", "error":
-		failRank = perception.Severity(*failOn).Rank()
+		cf.failRank = perception.Severity(*failOn).Rank()
 	default:
-		fmt.Fprintf(stderr, "standout check: --fail-on %q: want info, warning or error\n", *failOn)
-		return 2
+		return bad(fmt.Sprintf("--fail-on %q: want info, warning or error", *failOn))
 	}
 	set := report.Settings{Severity: *severity, DistanceCM: *distance, PxPerInch: *ppi}
 	set.EmphasisIDs, set.EmphasisSelector = report.SplitEmphasis(*emphasis)
 	opt, err := set.Options()
 	if err != nil {
-		fmt.Fprintln(stderr, "standout check:", err)
+		return bad(err.Error())
+	}
+	cf.opt = opt
+	return cf
+}
+
+func runCheck(args []string, stdout, stderr io.Writer) int {
+	cf := parseCheckFlags(args, stderr)
+	if cf == nil {
 		return 2
 	}
 	rep := report.Report{Schema: "standout-report", Version: report.Version, Caution: report.Caution}
+	progress := newProgress(stderr, len(cf.args))
 	var shots [][]byte
 	var failed []string
-	progress := newProgress(stderr, len(fs.Args()))
-	if *useBrowser {
-		exe, err := browser.Find(*chromium)
-		if err != nil {
+	if cf.useBrowser {
+		var err error
+		if shots, failed, err = checkInBrowser(cf, &rep, progress, stderr); err != nil {
 			fmt.Fprintln(stderr, "standout check:", err)
 			return 2
-		}
-		local, err := newLocalPages()
-		if err != nil {
-			fmt.Fprintln(stderr, "standout check:", err)
-			return 2
-		}
-		defer local.Close()
-		// Pages that cannot be found are named; the others are read.
-		var urls, names []string
-		for _, a := range fs.Args() {
-			u := a
-			if !webURL(a) {
-				if u, err = local.url(a); err != nil {
-					failed = append(failed, fmt.Sprintf("%s: %v", a, err))
-					continue
-				}
-			}
-			urls, names = append(urls, u), append(names, a)
-		}
-		results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: *tabs, Screenshot: *pngDir != "", Emphasis: opt.Selector, Timeout: *timeout, Progress: func(done, total int, r *browser.PageResult) {
-			progress.step(done, r.URL, r.Err)
-		}}, stderr)
-		if err != nil {
-			fmt.Fprintln(stderr, "standout check:", err)
-			return 2
-		}
-		for i, r := range results {
-			if r.Err != nil {
-				failed = append(failed, fmt.Sprintf("%s: %v", names[i], r.Err))
-				continue
-			}
-			rp, err := pageFromRead(names[i], r, opt)
-			if err != nil {
-				failed = append(failed, fmt.Sprintf("%s: %v", names[i], err))
-				continue
-			}
-			rep.Pages = append(rep.Pages, rp)
-			shots = append(shots, r.Screenshot)
 		}
 	} else {
-		for i, name := range fs.Args() {
-			rp, err := checkOneFile(name, opt, *timeout)
-			progress.step(i+1, name, err)
-			if err != nil {
-				failed = append(failed, fmt.Sprintf("%s: %v", name, err))
-				continue
-			}
-			rep.Pages = append(rep.Pages, rp)
-			shots = append(shots, nil)
-		}
+		shots, failed = checkStatic(cf, &rep, progress)
 	}
 	progress.done()
 	rep.Errors = failed
-	if *pngDir != "" || *mdDir != "" {
-		if err := writeArtifacts(&rep, shots, *pngDir, *mdDir); err != nil {
-			fmt.Fprintln(stderr, "standout check:", err)
-			return 2
+	if err := writeCheck(cf, &rep, shots, stdout, stderr); err != nil {
+		fmt.Fprintln(stderr, "standout check:", err)
+		return 2
+	}
+	for _, f := range failed {
+		fmt.Fprintf(stderr, "standout check: %s\n", f)
+	}
+	switch {
+	case len(failed) > 0:
+		return 2
+	case cf.failRank >= 0 && reaches(&rep, cf.failRank):
+		return 1
+	}
+	return 0
+}
+
+// checkInBrowser reads every page in headless Chromium and reports the
+// ones it could read into rep; the others are named in failed.
+func checkInBrowser(cf *checkFlags, rep *report.Report, progress *progress, stderr io.Writer) (shots [][]byte, failed []string, err error) {
+	exe, err := browser.Find(cf.chromium)
+	if err != nil {
+		return nil, nil, err
+	}
+	local, err := newLocalPages()
+	if err != nil {
+		return nil, nil, err
+	}
+	defer local.Close()
+	// Pages that cannot be found are named; the others are read.
+	var urls, names []string
+	for _, a := range cf.args {
+		u := a
+		if !webURL(a) {
+			if u, err = local.url(a); err != nil {
+				failed = append(failed, fmt.Sprintf("%s: %v", a, err))
+				continue
+			}
+		}
+		urls, names = append(urls, u), append(names, a)
+	}
+	o := browser.ReadOptions{Tabs: cf.tabs, Screenshot: cf.pngDir != "", Emphasis: cf.opt.Selector, Timeout: cf.timeout,
+		Progress: func(done, total int, r *browser.PageResult) { progress.step(done, r.URL, r.Err) }}
+	results, err := readInBrowser(exe, urls, o, stderr)
+	if err != nil {
+		return nil, nil, err
+	}
+	for i, r := range results {
+		if r.Err != nil {
+			failed = append(failed, fmt.Sprintf("%s: %v", names[i], r.Err))
+			continue
+		}
+		rp, err := pageFromRead(names[i], r, cf.opt)
+		if err != nil {
+			failed = append(failed, fmt.Sprintf("%s: %v", names[i], err))
+			continue
+		}
+		rep.Pages = append(rep.Pages, rp)
+		shots = append(shots, r.Screenshot)
+	}
+	return shots, failed, nil
+}
+
+// checkStatic reads every file with the static reader.
+func checkStatic(cf *checkFlags, rep *report.Report, progress *progress) (shots [][]byte, failed []string) {
+	for i, name := range cf.args {
+		rp, err := checkOneFile(name, cf.opt, cf.timeout)
+		progress.step(i+1, name, err)
+		if err != nil {
+			failed = append(failed, fmt.Sprintf("%s: %v", name, err))
+			continue
+		}
+		rep.Pages = append(rep.Pages, rp)
+		shots = append(shots, nil)
+	}
+	return shots, failed
+}
+
+// writeCheck writes the artifacts, the report (JSON or text) and, for
+// several pages or any failure, the summary.
+func writeCheck(cf *checkFlags, rep *report.Report, shots [][]byte, stdout, stderr io.Writer) error {
+	if cf.pngDir != "" || cf.mdDir != "" {
+		if err := writeArtifacts(rep, shots, cf.pngDir, cf.mdDir); err != nil {
+			return err
 		}
 	}
-	if *asJSON {
+	summary := stdout
+	if cf.asJSON {
+		summary = stderr
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", " ")
 		if err := enc.Encode(rep); err != nil {
-			fmt.Fprintln(stderr, "standout check:", err)
-			return 2
+			return err
 		}
 	} else {
 		for _, p := range rep.Pages {
 			writeText(stdout, p)
 		}
 	}
-	summary := stdout
-	if *asJSON {
-		summary = stderr
+	if len(cf.args) > 1 || len(rep.Errors) > 0 {
+		writeSummary(summary, rep, len(cf.args))
 	}
-	if len(fs.Args()) > 1 || len(failed) > 0 {
-		writeSummary(summary, &rep, len(fs.Args()))
-	}
-	for _, f := range failed {
-		fmt.Fprintf(stderr, "standout check: %s\n", f)
-	}
-	if len(failed) > 0 {
-		return 2
-	}
-	if failRank >= 0 {
-		for _, p := range rep.Pages {
-			for _, c := range p.Charts {
-				for _, f := range c.Findings {
-					if perception.Severity(f.Severity).Rank() >= failRank {
-						return 1
-					}
+	return nil
+}
+
+// reaches says whether a finding of the report reaches the rank.
+func reaches(rep *report.Report, rank int) bool {
+	for _, p := range rep.Pages {
+		for _, c := range p.Charts {
+			for _, f := range c.Findings {
+				if perception.Severity(f.Severity).Rank() >= rank {
+					return true
 				}
 			}
 		}
 	}
-	return 0
+	return false
 }
 
 // checkOneFile checks one file with the static reader within timeout.

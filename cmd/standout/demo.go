@@ -35,56 +35,76 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "standout demo: no built-in pages")
 		return 2
 	}
-	if *serve {
-		l, err := net.Listen("tcp", *addr)
-		if err != nil {
-			fmt.Fprintln(stderr, "standout demo:", err)
-			return 2
-		}
-		fmt.Fprintln(stdout, "Serving the demo pages (an invented newsroom scenario):")
-		for _, n := range names {
-			fmt.Fprintf(stdout, "  http://%s/%s\n", l.Addr(), n)
-		}
-		fmt.Fprintln(stdout, "Load the extension (standout extension DIR), open a page and press the toolbar button. Ctrl-C stops.")
-		srv := &http.Server{Handler: http.FileServer(http.FS(sub))}
-		go func() {
-			c := make(chan os.Signal, 1)
-			signal.Notify(c, os.Interrupt)
-			<-c
-			srv.Close()
-		}()
-		if err := srv.Serve(l); err != nil && err != http.ErrServerClosed {
-			fmt.Fprintln(stderr, "standout demo:", err)
-			return 2
-		}
-		return 0
-	}
-	exe, ferr := browser.Find("")
-	if *static || ferr != nil {
+	var runErr error
+	switch exe, ferr := browser.Find(""); {
+	case *serve:
+		runErr = serveDemo(sub, names, *addr, stdout)
+	case *static || ferr != nil:
 		fmt.Fprintln(stdout, "Standout demo: the built-in pages (an invented newsroom scenario), read without a browser.")
 		if ferr != nil && !*static {
 			fmt.Fprintln(stdout, "(No Chromium found, so the static reader is used:", ferr.Error()+")")
 		}
 		fmt.Fprintln(stdout)
-		for _, name := range names {
-			data, _ := fs.ReadFile(sub, name)
-			rp, err := checkReader(name, bytes.NewReader(data), report.DefaultOptions)
-			if err != nil {
-				fmt.Fprintf(stderr, "standout demo: %s: %v\n", name, err)
-				return 2
-			}
-			writeText(stdout, rp)
-			fmt.Fprintln(stdout)
-		}
-		fmt.Fprintln(stdout, "Caution:", report.Caution)
-		return 0
+		runErr = demoStatic(sub, names, stdout)
+	default:
+		fmt.Fprintln(stdout, "Standout demo: the built-in pages (an invented newsroom scenario), read as rendered in headless Chromium.")
+		fmt.Fprintln(stdout)
+		runErr = demoInBrowser(exe, sub, names, stdout, stderr)
 	}
-	// The browser path: serve the pages on loopback and read them as
-	// rendered, with the extension's own read pass.
+	if runErr != nil {
+		fmt.Fprintln(stderr, "standout demo:", runErr)
+		return 2
+	}
+	if !*serve {
+		fmt.Fprintln(stdout, "Caution:", report.Caution)
+	}
+	return 0
+}
+
+// serveDemo serves the demo pages on addr until interrupted.
+func serveDemo(sub fs.FS, names []string, addr string, stdout io.Writer) error {
+	l, err := net.Listen("tcp", addr)
+	if err != nil {
+		return err
+	}
+	fmt.Fprintln(stdout, "Serving the demo pages (an invented newsroom scenario):")
+	for _, n := range names {
+		fmt.Fprintf(stdout, "  http://%s/%s\n", l.Addr(), n)
+	}
+	fmt.Fprintln(stdout, "Load the extension (standout extension DIR), open a page and press the toolbar button. Ctrl-C stops.")
+	srv := &http.Server{Handler: http.FileServer(http.FS(sub))}
+	go func() {
+		c := make(chan os.Signal, 1)
+		signal.Notify(c, os.Interrupt)
+		<-c
+		srv.Close()
+	}()
+	if err := srv.Serve(l); err != nil && err != http.ErrServerClosed {
+		return err
+	}
+	return nil
+}
+
+// demoStatic checks the demo pages with the static reader.
+func demoStatic(sub fs.FS, names []string, stdout io.Writer) error {
+	for _, name := range names {
+		data, _ := fs.ReadFile(sub, name)
+		rp, err := checkReader(name, bytes.NewReader(data), report.DefaultOptions)
+		if err != nil {
+			return fmt.Errorf("%s: %w", name, err)
+		}
+		writeText(stdout, rp)
+		fmt.Fprintln(stdout)
+	}
+	return nil
+}
+
+// demoInBrowser serves the pages on loopback and reads them as rendered,
+// with the extension's own read pass.
+func demoInBrowser(exe string, sub fs.FS, names []string, stdout, stderr io.Writer) error {
 	l, err := net.Listen("tcp", "127.0.0.1:0")
 	if err != nil {
-		fmt.Fprintln(stderr, "standout demo:", err)
-		return 2
+		return err
 	}
 	srv := &http.Server{Handler: http.FileServer(http.FS(sub))}
 	go srv.Serve(l)
@@ -93,26 +113,20 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 	for _, n := range names {
 		urls = append(urls, "http://"+l.Addr().String()+"/"+n)
 	}
-	fmt.Fprintln(stdout, "Standout demo: the built-in pages (an invented newsroom scenario), read as rendered in headless Chromium.")
-	fmt.Fprintln(stdout)
 	results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: 2}, stderr)
 	if err != nil {
-		fmt.Fprintln(stderr, "standout demo:", err)
-		return 2
+		return err
 	}
 	for i, r := range results {
 		if r.Err != nil {
-			fmt.Fprintf(stderr, "standout demo: %s: %v\n", names[i], r.Err)
-			return 2
+			return fmt.Errorf("%s: %w", names[i], r.Err)
 		}
 		rp, err := pageFromRead(path.Base(urls[i]), r, report.DefaultOptions)
 		if err != nil {
-			fmt.Fprintf(stderr, "standout demo: %s: %v\n", names[i], err)
-			return 2
+			return fmt.Errorf("%s: %w", names[i], err)
 		}
 		writeText(stdout, rp)
 		fmt.Fprintln(stdout)
 	}
-	fmt.Fprintln(stdout, "Caution:", report.Caution)
-	return 0
+	return nil
 }

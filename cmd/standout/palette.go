@@ -135,28 +135,9 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "standout palette: give at least two colours")
 		return 2
 	}
-	bgc, err := static.ParseColor(*bgFlag)
-	if err != nil {
-		fmt.Fprintf(stderr, "standout palette: --background %q is not a CSS colour\n", *bgFlag)
-		return 2
-	}
-	if !(*severity >= 0 && *severity <= 1) {
-		fmt.Fprintf(stderr, "standout palette: --severity %v is outside [0, 1]\n", *severity)
-		return 2
-	}
-	if !(*size > 0) || !(*distance > 0) || !(*ppi > 0) {
-		fmt.Fprintln(stderr, "standout palette: --size, --distance-cm and --px-per-inch must be positive")
-		return 2
-	}
-	mt, err := markType(*mark)
+	bgc, mt, err := paletteInputs(*bgFlag, *severity, *size, *distance, *ppi, *mark, *failOn)
 	if err != nil {
 		fmt.Fprintln(stderr, "standout palette:", err)
-		return 2
-	}
-	switch *failOn {
-	case "", "normal", "cvd", "contrast", "any":
-	default:
-		fmt.Fprintf(stderr, "standout palette: --fail-on %q: want normal, cvd, contrast or any\n", *failOn)
 		return 2
 	}
 	model := colour.DefaultND
@@ -177,7 +158,14 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 	} else {
 		writePaletteText(stdout, rep)
 	}
-	fail := false
+	if paletteFails(rep, *failOn) {
+		return 1
+	}
+	return 0
+}
+
+// paletteFails says whether the report meets --fail-on's condition.
+func paletteFails(rep *paletteReport, failOn string) bool {
 	lowContrast := false
 	for _, c := range rep.Colors {
 		if !c.MeetsNonText {
@@ -190,20 +178,42 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 			anyCVD = true
 		}
 	}
-	switch *failOn {
+	switch failOn {
 	case "normal":
-		fail = len(rep.Collapsed["normal"]) > 0
+		return len(rep.Collapsed["normal"]) > 0
 	case "cvd":
-		fail = anyCVD
+		return anyCVD
 	case "contrast":
-		fail = lowContrast
+		return lowContrast
 	case "any":
-		fail = anyCVD || lowContrast
+		return anyCVD || lowContrast
 	}
-	if fail {
-		return 1
+	return false
+}
+
+// paletteInputs validates palette's flags: the background, the ranges of
+// the numbers, the mark type and --fail-on.
+func paletteInputs(bgFlag string, severity, size, distance, ppi float64, mark, failOn string) (colour.RGBA, colour.MarkType, error) {
+	bgc, err := static.ParseColor(bgFlag)
+	if err != nil {
+		return bgc, 0, fmt.Errorf("--background %q is not a CSS colour", bgFlag)
 	}
-	return 0
+	if !(severity >= 0 && severity <= 1) {
+		return bgc, 0, fmt.Errorf("--severity %v is outside [0, 1]", severity)
+	}
+	if !(size > 0) || !(distance > 0) || !(ppi > 0) {
+		return bgc, 0, fmt.Errorf("--size, --distance-cm and --px-per-inch must be positive")
+	}
+	mt, err := markType(mark)
+	if err != nil {
+		return bgc, 0, err
+	}
+	switch failOn {
+	case "", "normal", "cvd", "contrast", "any":
+	default:
+		return bgc, 0, fmt.Errorf("--fail-on %q: want normal, cvd, contrast or any", failOn)
+	}
+	return bgc, mt, nil
 }
 
 func writePaletteText(w io.Writer, r *paletteReport) {

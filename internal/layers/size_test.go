@@ -28,24 +28,15 @@ const (
 // defect to remove, not a licence. The test fails when one is split (so
 // the list stays true) and when any other grows past the limit.
 var notYetSplit = map[string]bool{
-	"cmd/standout/check.go runCheck":          true,
-	"snapshot/json.go nodes":                  true,
-	"static/build.go addNode":                 true,
 	"perception/findings.go categoryFindings": true,
 	"perception/verdict.go judgeSome":         true,
 	"perception/fix.go suggestFix":            true,
-	"static/style.go compute":                 true,
 	"perception/analyse.go Analyse":           true,
-	"cmd/standout/demo.go runDemo":            true,
-	"cmd/standout/palette.go runPalette":      true,
-	"snapshot/json.go records":                true,
 	"perception/salience.go colourStats":      true,
-	"static/transform.go ParseTransform":      true,
 	"perception/ari.go AdjustedRandIndex":     true,
 	"marks/geometry.go Measure":               true,
 	"marks/walk.go assignKinds":               true,
 	"internal/jsonio/scan.go str":             true,
-	"static/css.go parseSheet":                true,
 }
 
 func TestFunctionLength(t *testing.T) {
