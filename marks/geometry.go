@@ -61,35 +61,7 @@ func Measure(n *snapshot.Node) (g Geometry, ok bool, err error) {
 	m := snapshot.Matrix(n.CTM)
 	switch n.Tag {
 	case "circle", "ellipse":
-		if len(n.Geom) < 3 {
-			return g, false, nil
-		}
-		cx, cy := n.Geom[0], n.Geom[1]
-		rx, ry := n.Geom[2], n.Geom[2]
-		if n.Tag == "ellipse" {
-			if len(n.Geom) < 4 {
-				return g, false, nil
-			}
-			ry = n.Geom[3]
-		}
-		if !(rx > 0 && ry > 0) {
-			return g, false, nil
-		}
-		px, py := m.Apply(cx, cy)
-		g.BBox = boundsOf(m, cx-rx, cy-ry, cx+rx, cy+ry)
-		g.Area = math.Pi * rx * ry * math.Abs(m.Det())
-		g.Centroid = Point{px, py}
-		// Semi-axes after the transform: singular values of [a c; b d]·diag(rx, ry).
-		a, b, c, d := m[0]*rx, m[1]*rx, m[2]*ry, m[3]*ry
-		s1, s2, ang := svd2(a, b, c, d)
-		g.Length = math.Pi * (3*(s1+s2) - math.Sqrt((3*s1+s2)*(s1+3*s2))) // Ramanujan
-		g.Closed = true
-		if s2 > 0 && s1/s2 < 1.05 {
-			g.Shape, g.Fold = ShapeCircle, 0
-		} else {
-			g.Shape, g.Fold, g.Angle = ShapeOther, 2, mod(ang, 180)
-		}
-		return g, true, nil
+		return measureEllipse(n, m)
 	case "rect", "image":
 		if len(n.Geom) < 4 || !(n.Geom[2] > 0 && n.Geom[3] > 0) {
 			return g, false, nil
@@ -117,16 +89,7 @@ func Measure(n *snapshot.Node) (g Geometry, ok bool, err error) {
 		g.Subpaths = []Subpath{{Pts: transformPts(m, pts), Closed: n.Tag == "polygon"}}
 		g.Info.Lines = len(pts) - 1
 	case "path":
-		subs, info, perr := ParsePath(n.D)
-		err = perr
-		g.Info = info
-		for _, s := range subs {
-			if len(s.Pts) >= 2 {
-				g.local = append(g.local, s.Pts)
-				g.Subpaths = append(g.Subpaths, Subpath{Pts: transformPts(m, s.Pts), Closed: s.Closed})
-			}
-		}
-		if len(g.Subpaths) == 0 {
+		if ok, err = g.fromPath(n.D, m); !ok {
 			return g, false, err
 		}
 	default:
@@ -144,6 +107,53 @@ func Measure(n *snapshot.Node) (g Geometry, ok bool, err error) {
 	g.BBox = boundsOf(m, minX, minY, maxX, maxY)
 	g.local = nil
 	return g, true, err
+}
+
+// fromPath takes the outline from path data; false when it draws nothing.
+func (g *Geometry) fromPath(d string, m snapshot.Matrix) (bool, error) {
+	subs, info, err := ParsePath(d)
+	g.Info = info
+	for _, s := range subs {
+		if len(s.Pts) >= 2 {
+			g.local = append(g.local, s.Pts)
+			g.Subpaths = append(g.Subpaths, Subpath{Pts: transformPts(m, s.Pts), Closed: s.Closed})
+		}
+	}
+	return len(g.Subpaths) > 0, err
+}
+
+// measureEllipse measures a circle or an ellipse exactly, from its
+// geometry rather than an outline.
+func measureEllipse(n *snapshot.Node, m snapshot.Matrix) (g Geometry, ok bool, err error) {
+	if len(n.Geom) < 3 {
+		return g, false, nil
+	}
+	cx, cy := n.Geom[0], n.Geom[1]
+	rx, ry := n.Geom[2], n.Geom[2]
+	if n.Tag == "ellipse" {
+		if len(n.Geom) < 4 {
+			return g, false, nil
+		}
+		ry = n.Geom[3]
+	}
+	if !(rx > 0 && ry > 0) {
+		return g, false, nil
+	}
+	px, py := m.Apply(cx, cy)
+	g.BBox = boundsOf(m, cx-rx, cy-ry, cx+rx, cy+ry)
+	g.Area = math.Pi * rx * ry * math.Abs(m.Det())
+	g.Centroid = Point{px, py}
+	// Semi-axes after the transform: singular values of [a c; b d]·diag(rx, ry).
+	a, b, c, d := m[0]*rx, m[1]*rx, m[2]*ry, m[3]*ry
+	s1, s2, ang := svd2(a, b, c, d)
+	g.Length = math.Pi * (3*(s1+s2) - math.Sqrt((3*s1+s2)*(s1+3*s2))) // Ramanujan
+	g.Closed = true
+	if s2 > 0 && s1/s2 < 1.05 {
+		g.Shape, g.Fold = ShapeCircle, 0
+	} else {
+		g.Shape, g.Fold, g.Angle = ShapeOther, 2, mod(ang, 180)
+	}
+	return g, true, nil
 }
 
 // boundsOf maps the box [x0, x1] × [y0, y1] by m and returns the bounds

@@ -773,51 +773,64 @@ func assignKinds(h *Heuristics, cands []*cand) {
 	}
 	flush()
 	for _, grp := range groups {
-		// The most common shape class (and corner count) in the group.
-		type sig struct {
-			s Shape
-			k int
-		}
-		count := map[sig]int{}
-		for _, c := range grp {
-			count[sig{c.g.Shape, c.g.Corners}]++
-		}
-		var top sig
-		for k, v := range count {
-			if v > count[top] || v == count[top] && k.s < top.s {
-				top = k
-			}
-		}
-		symbols := 0
-		for _, c := range grp {
-			if c.g.Shape != ShapeOther && c.g.Shape != ShapeSquare || pointLike(h, &c.g) {
-				symbols++
-			}
-		}
-		homogeneous := float64(count[top]) >= h.HomogeneousShare*float64(len(grp)) ||
-			float64(symbols) >= h.SymbolShare*float64(len(grp)) && len(count) <= h.MaxSymbolKinds
-		var rects []*cand
-		for _, c := range grp {
-			g := &c.g
-			switch {
-			case g.Shape == ShapeSquare:
-				rects = append(rects, c)
-			case !homogeneous && len(grp) > 1:
-				c.kind = KindArea
-			case g.Shape != ShapeOther || pointLike(h, g):
-				c.kind = KindPoint
-			default:
-				c.kind = KindArea
-			}
-		}
-		if len(rects) > 0 && !homogeneous && len(grp) > h.MixedRectsMin {
-			for _, c := range rects {
-				c.kind = KindArea
-			}
-			continue
-		}
-		rectKinds(h, rects)
+		groupKinds(h, grp)
 	}
+}
+
+// homogeneous says whether a group of closed outlines is one series of
+// glyphs: its commonest shape (and corner count) dominates, or nearly all
+// are symbols of few kinds.
+func homogeneous(h *Heuristics, grp []*cand) bool {
+	type sig struct {
+		s Shape
+		k int
+	}
+	count := map[sig]int{}
+	for _, c := range grp {
+		count[sig{c.g.Shape, c.g.Corners}]++
+	}
+	var top sig
+	for k, v := range count {
+		if v > count[top] || v == count[top] && k.s < top.s {
+			top = k
+		}
+	}
+	symbols := 0
+	for _, c := range grp {
+		if c.g.Shape != ShapeOther && c.g.Shape != ShapeSquare || pointLike(h, &c.g) {
+			symbols++
+		}
+	}
+	return float64(count[top]) >= h.HomogeneousShare*float64(len(grp)) ||
+		float64(symbols) >= h.SymbolShare*float64(len(grp)) && len(count) <= h.MaxSymbolKinds
+}
+
+// groupKinds gives the closed outlines of one parent their kinds: a
+// series of glyphs is points (rectangles: bars, cells or points), a mixed
+// group is areas.
+func groupKinds(h *Heuristics, grp []*cand) {
+	homo := homogeneous(h, grp)
+	var rects []*cand
+	for _, c := range grp {
+		g := &c.g
+		switch {
+		case g.Shape == ShapeSquare:
+			rects = append(rects, c)
+		case !homo && len(grp) > 1:
+			c.kind = KindArea
+		case g.Shape != ShapeOther || pointLike(h, g):
+			c.kind = KindPoint
+		default:
+			c.kind = KindArea
+		}
+	}
+	if len(rects) > 0 && !homo && len(grp) > h.MixedRectsMin {
+		for _, c := range rects {
+			c.kind = KindArea
+		}
+		return
+	}
+	rectKinds(h, rects)
 }
 
 // rectKinds decides between bars, cells and square points for the

@@ -45,60 +45,8 @@ func Analyse(in Input, p Params) *Result {
 	for i := range res.Marks {
 		res.Marks[i] = flat[i*rows : (i+1)*rows : (i+1)*rows]
 	}
-	kindIx := newIndexer[string]()
-	kindOf := make([]int, n)
-	for i, m := range in.Marks {
-		kindOf[i] = kindIx.of(m.Kind)
-	}
-	lists := make([][]int, len(kindIx.keys))
-	for i, k := range kindOf {
-		lists[k] = append(lists[k], i)
-	}
-	kinds := make(map[string][]int, len(lists))
-	for k, l := range lists {
-		kinds[kindIx.keys[k]] = l
-	}
-	keys := append([]string(nil), kindIx.keys...)
-	sort.Strings(keys)
-	nbs := map[string][][]int{}
-	for _, k := range keys {
-		nbs[k] = neighbours(in.Marks, kinds[k], p.Neighbours)
-	}
-	reuse := map[string]*reuseData{}
-	for _, k := range keys {
-		reuse[k] = &reuseData{}
-	}
-	res.kinds, res.nbs, res.reuse = kinds, nbs, reuse
-	shares := map[string]*shared{}
-	for _, k := range keys {
-		shares[k] = &shared{}
-	}
-	res.shares = shares
-	judgeVision := func(vi int, only map[string][]int) {
-		for _, k := range keys {
-			idx := kinds[k]
-			var targets []int
-			if only != nil {
-				if targets = only[k]; len(targets) == 0 {
-					continue
-				}
-			}
-			d := newDisplayShared(&p, in.Marks, idx, Visions[vi], p.Severity, shares[k])
-			d.nb, d.reuse = nbs[k], reuse[k]
-			var rs []MarkResult
-			if targets != nil {
-				rs = d.judgeSome(targets)
-				for t, j := range targets {
-					res.Marks[idx[j]][vi] = rs[t]
-				}
-				continue
-			}
-			for j, r := range d.judge() {
-				res.Marks[idx[j]][vi] = r
-			}
-		}
-	}
-	judgeVision(0, nil)
+	keys := res.displays(in, p)
+	res.judgeVision(in, &p, keys, 0, nil)
 	res.Emphasis = append([]int(nil), in.Emphasis...)
 	if len(res.Emphasis) == 0 {
 		res.Inferred = true
@@ -108,25 +56,10 @@ func Analyse(in Input, p Params) *Result {
 	// fate is what the findings report.
 	var only map[string][]int
 	if p.FindingsOnly {
-		only = map[string][]int{}
-		pos := make([]int, n)
-		for _, k := range keys {
-			for j, i := range kinds[k] {
-				pos[i] = j
-			}
-		}
-		for _, i := range res.Emphasis {
-			if i >= 0 && i < n {
-				k := in.Marks[i].Kind
-				only[k] = append(only[k], pos[i])
-				if len(res.Marks[i]) == 1 {
-					res.Marks[i] = append(append(make([]MarkResult, 0, len(Visions)), res.Marks[i][0]), make([]MarkResult, len(Visions)-1)...)
-				}
-			}
-		}
+		only = res.emphasisOnly(in, keys)
 	}
 	for vi := 1; vi < len(Visions); vi++ {
-		judgeVision(vi, only)
+		res.judgeVision(in, &p, keys, vi, only)
 	}
 	for vi := range Visions {
 		res.Holds[vi] = len(res.Emphasis) > 0
@@ -136,9 +69,85 @@ func Analyse(in Input, p Params) *Result {
 			}
 		}
 	}
-	res.Groups = group(in, p, kinds, nbs)
+	res.Groups = group(in, p, res.kinds, res.nbs)
 	res.Findings = findings(in, p, res)
 	return res
+}
+
+// displays sorts the marks into one display per kind, with each one's
+// neighbours and the data its vision types share; it returns the kinds in
+// order.
+func (res *Result) displays(in Input, p Params) []string {
+	kindIx := newIndexer[string]()
+	kindOf := make([]int, len(in.Marks))
+	for i, m := range in.Marks {
+		kindOf[i] = kindIx.of(m.Kind)
+	}
+	lists := make([][]int, len(kindIx.keys))
+	for i, k := range kindOf {
+		lists[k] = append(lists[k], i)
+	}
+	res.kinds = make(map[string][]int, len(lists))
+	for k, l := range lists {
+		res.kinds[kindIx.keys[k]] = l
+	}
+	keys := append([]string(nil), kindIx.keys...)
+	sort.Strings(keys)
+	res.nbs, res.reuse, res.shares = map[string][][]int{}, map[string]*reuseData{}, map[string]*shared{}
+	for _, k := range keys {
+		res.nbs[k] = neighbours(in.Marks, res.kinds[k], p.Neighbours)
+		res.reuse[k] = &reuseData{}
+		res.shares[k] = &shared{}
+	}
+	return keys
+}
+
+// judgeVision judges every display under vision type vi: every mark, or
+// with only, those marks (positions within their kind's display).
+func (res *Result) judgeVision(in Input, p *Params, keys []string, vi int, only map[string][]int) {
+	for _, k := range keys {
+		idx := res.kinds[k]
+		var targets []int
+		if only != nil {
+			if targets = only[k]; len(targets) == 0 {
+				continue
+			}
+		}
+		d := newDisplayShared(p, in.Marks, idx, Visions[vi], p.Severity, res.shares[k])
+		d.nb, d.reuse = res.nbs[k], res.reuse[k]
+		if targets != nil {
+			for t, r := range d.judgeSome(targets) {
+				res.Marks[idx[targets[t]]][vi] = r
+			}
+			continue
+		}
+		for j, r := range d.judge() {
+			res.Marks[idx[j]][vi] = r
+		}
+	}
+}
+
+// emphasisOnly lists the emphasis by kind and position in its display,
+// and gives each emphasis mark a row per vision type.
+func (res *Result) emphasisOnly(in Input, keys []string) map[string][]int {
+	n := len(in.Marks)
+	only := map[string][]int{}
+	pos := make([]int, n)
+	for _, k := range keys {
+		for j, i := range res.kinds[k] {
+			pos[i] = j
+		}
+	}
+	for _, i := range res.Emphasis {
+		if i >= 0 && i < n {
+			k := in.Marks[i].Kind
+			only[k] = append(only[k], pos[i])
+			if len(res.Marks[i]) == 1 {
+				res.Marks[i] = append(append(make([]MarkResult, 0, len(Visions)), res.Marks[i][0]), make([]MarkResult, len(Visions)-1)...)
+			}
+		}
+	}
+	return only
 }
 
 // inferEmphasis picks the marks that differ from the majority: those that

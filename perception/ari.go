@@ -19,67 +19,86 @@ func AdjustedRandIndex(a, b []int) float64 {
 	if n < 2 {
 		return 1
 	}
-	c2 := func(x int) float64 { return float64(x) * float64(x-1) / 2 }
-	var sij, sa, sb float64
 	// Dense labels 0..k−1 (as partitions here have) use flat tables; a
-	// contingency table much larger than n is counted row by row instead:
-	// the items grouped by their label in a (a counting sort), and each
-	// group's labels in b counted in one scratch row, cleared as it is
-	// read.
+	// contingency table much larger than n is counted row by row instead.
 	ka, kb := maxLabel(a)+1, maxLabel(b)+1
-	if ka > 0 && kb > 0 && ka*kb > 4*n+64 {
-		ra, rb := make([]int32, ka+1), make([]int32, kb)
-		for k := range a {
-			ra[a[k]+1]++
-			rb[b[k]]++
-		}
-		for i := range ka {
-			sa += c2(int(ra[i+1]))
-			ra[i+1] += ra[i]
-		}
-		for _, v := range rb {
-			sb += c2(int(v))
-		}
-		byA := make([]int32, n)
-		next := append([]int32(nil), ra[:ka]...)
-		for k := range a {
-			byA[next[a[k]]] = int32(k)
-			next[a[k]]++
-		}
-		row := make([]int32, kb)
-		for i := range ka {
-			items := byA[ra[i]:ra[i+1]]
-			for _, k := range items {
-				row[b[k]]++
-			}
-			for _, k := range items {
-				if c := row[b[k]]; c > 0 {
-					sij += c2(int(c))
-					row[b[k]] = 0
-				}
-			}
-		}
-		return ariFrom(sij, sa, sb, c2(n))
+	var sij, sa, sb float64
+	switch {
+	case ka > 0 && kb > 0 && ka*kb > 4*n+64:
+		sij, sa, sb = pairsByRows(a, b, ka, kb)
+	case ka > 0 && kb > 0:
+		sij, sa, sb = pairsByTable(a, b, ka, kb)
+	default:
+		sij, sa, sb = pairsByMap(a, b)
 	}
-	if ka > 0 && kb > 0 {
-		t := make([]int32, ka*kb)
-		ra, rb := make([]int32, ka), make([]int32, kb)
-		for k := range a {
-			t[a[k]*kb+b[k]]++
-			ra[a[k]]++
-			rb[b[k]]++
-		}
-		for _, v := range t {
-			sij += c2(int(v))
-		}
-		for _, v := range ra {
-			sa += c2(int(v))
-		}
-		for _, v := range rb {
-			sb += c2(int(v))
-		}
-		return ariFrom(sij, sa, sb, c2(n))
+	return ariFrom(sij, sa, sb, pairs(n))
+}
+
+// pairs is x choose 2.
+func pairs(x int) float64 { return float64(x) * float64(x-1) / 2 }
+
+// pairsByRows counts the pairs together in both partitions (sij), in a
+// (sa) and in b (sb) row by row: the items grouped by their label in a (a
+// counting sort), and each group's labels in b counted in one scratch
+// row, cleared as it is read.
+func pairsByRows(a, b []int, ka, kb int) (sij, sa, sb float64) {
+	ra, rb := make([]int32, ka+1), make([]int32, kb)
+	for k := range a {
+		ra[a[k]+1]++
+		rb[b[k]]++
 	}
+	for i := range ka {
+		sa += pairs(int(ra[i+1]))
+		ra[i+1] += ra[i]
+	}
+	for _, v := range rb {
+		sb += pairs(int(v))
+	}
+	byA := make([]int32, len(a))
+	next := append([]int32(nil), ra[:ka]...)
+	for k := range a {
+		byA[next[a[k]]] = int32(k)
+		next[a[k]]++
+	}
+	row := make([]int32, kb)
+	for i := range ka {
+		items := byA[ra[i]:ra[i+1]]
+		for _, k := range items {
+			row[b[k]]++
+		}
+		for _, k := range items {
+			if c := row[b[k]]; c > 0 {
+				sij += pairs(int(c))
+				row[b[k]] = 0
+			}
+		}
+	}
+	return sij, sa, sb
+}
+
+// pairsByTable counts the pairs with a flat contingency table.
+func pairsByTable(a, b []int, ka, kb int) (sij, sa, sb float64) {
+	t := make([]int32, ka*kb)
+	ra, rb := make([]int32, ka), make([]int32, kb)
+	for k := range a {
+		t[a[k]*kb+b[k]]++
+		ra[a[k]]++
+		rb[b[k]]++
+	}
+	for _, v := range t {
+		sij += pairs(int(v))
+	}
+	for _, v := range ra {
+		sa += pairs(int(v))
+	}
+	for _, v := range rb {
+		sb += pairs(int(v))
+	}
+	return sij, sa, sb
+}
+
+// pairsByMap counts the pairs of partitions with any labels.
+func pairsByMap(a, b []int) (sij, sa, sb float64) {
 	type pair struct{ x, y int }
 	nij := map[pair]int{}
 	ai, bj := map[int]int{}, map[int]int{}
@@ -89,15 +108,15 @@ func AdjustedRandIndex(a, b []int) float64 {
 		bj[b[k]]++
 	}
 	for _, v := range nij {
-		sij += c2(v)
+		sij += pairs(v)
 	}
 	for _, v := range ai {
-		sa += c2(v)
+		sa += pairs(v)
 	}
 	for _, v := range bj {
-		sb += c2(v)
+		sb += pairs(v)
 	}
-	return ariFrom(sij, sa, sb, c2(n))
+	return sij, sa, sb
 }
 
 // ariFrom finishes the index from the pair counts: Σ C(n_ij,2), Σ C(a_i,2),

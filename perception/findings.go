@@ -227,47 +227,9 @@ func contrastFindings(in Input) []Finding {
 // are the only cue, and which merge for readers with CVD.
 func categoryFindings(in Input, p Params, res *Result) []Finding {
 	var out []Finding
-	type col struct {
-		c     colour.SRGB
-		marks []int
-		nd    [3]float64
-	}
-	// Categories are compared within one kind of mark: the colour of a
-	// connecting line is no category of the dots it joins.
-	kinds := newIndexer[string]()
-	var kindCount []int
-	for i := range in.Marks {
-		if m := &in.Marks[i]; m.Kind != "text" {
-			k := kinds.of(m.Kind)
-			if k == len(kindCount) {
-				kindCount = append(kindCount, 0)
-			}
-			kindCount[k]++
-		}
-	}
-	main, mainN := "", 0
-	for k, n := range kindCount {
-		if name := kinds.keys[k]; n > mainN || n == mainN && name < main {
-			main, mainN = name, n
-		}
-	}
-	colours := newIndexer[colour.SRGB]()
-	var cols []*col
-	shapes := newIndexer[string]()
-	for i := range in.Marks {
-		m := &in.Marks[i]
-		if m.Kind != main {
-			continue
-		}
-		shapes.of(m.Shape)
-		c := colours.of(m.Colour)
-		if c == len(cols) {
-			cols = append(cols, &col{c: m.Colour, nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)})
-		}
-		cols[c].marks = append(cols[c].marks, i)
-	}
+	cols, nShapes := categoryColours(in, p)
 	if len(cols) < 2 || len(cols) > 20 {
-		return out // one colour, or a continuous ramp
+		return nil // one colour, or a continuous ramp
 	}
 	// Noticeably different categories for normal vision.
 	distinct := 0
@@ -295,22 +257,78 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 			multi++
 		}
 	}
-	if distinct >= 2 && multi >= 2 && len(shapes.keys) == 1 && !in.Labelled {
+	if distinct >= 2 && multi >= 2 && nShapes == 1 && !in.Labelled && !luminanceApart(cols) {
 		// SC 1.4.1: colour alone, unless the colours also differ by 3:1.
-		lumOK := true
-		for a := range cols {
-			for b := a + 1; b < len(cols); b++ {
-				if colour.ContrastRatio(cols[a].c, cols[b].c) < 3 {
-					lumOK = false
-				}
+		out = append(out, Finding{ID: "colour-only-categories", Severity: Warning,
+			Message: "Categories differ by colour alone: no shape, pattern or direct label repeats the distinction, and the colours do not differ by 3:1 in luminance.",
+			Source:  srcColour})
+	}
+	out = mergedForCVD(cols, p, out)
+	return legendFindings(in, p, out)
+}
+
+// category is one colour of the main kind of mark, with its marks and
+// the noticeable difference at their size.
+type category struct {
+	c     colour.SRGB
+	marks []int
+	nd    [3]float64
+}
+
+// categoryColours lists the colours of the commonest kind of mark (the
+// colour of a connecting line is no category of the dots it joins), and
+// counts that kind's shapes.
+func categoryColours(in Input, p Params) ([]*category, int) {
+	kinds := newIndexer[string]()
+	var kindCount []int
+	for i := range in.Marks {
+		if m := &in.Marks[i]; m.Kind != "text" {
+			k := kinds.of(m.Kind)
+			if k == len(kindCount) {
+				kindCount = append(kindCount, 0)
 			}
-		}
-		if !lumOK {
-			out = append(out, Finding{ID: "colour-only-categories", Severity: Warning,
-				Message: "Categories differ by colour alone: no shape, pattern or direct label repeats the distinction, and the colours do not differ by 3:1 in luminance.",
-				Source:  srcColour})
+			kindCount[k]++
 		}
 	}
+	main, mainN := "", 0
+	for k, n := range kindCount {
+		if name := kinds.keys[k]; n > mainN || n == mainN && name < main {
+			main, mainN = name, n
+		}
+	}
+	colours := newIndexer[colour.SRGB]()
+	var cols []*category
+	shapes := newIndexer[string]()
+	for i := range in.Marks {
+		m := &in.Marks[i]
+		if m.Kind != main {
+			continue
+		}
+		shapes.of(m.Shape)
+		c := colours.of(m.Colour)
+		if c == len(cols) {
+			cols = append(cols, &category{c: m.Colour, nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)})
+		}
+		cols[c].marks = append(cols[c].marks, i)
+	}
+	return cols, len(shapes.keys)
+}
+
+// luminanceApart says whether every pair of colours differs by 3:1.
+func luminanceApart(cols []*category) bool {
+	for a := range cols {
+		for b := a + 1; b < len(cols); b++ {
+			if colour.ContrastRatio(cols[a].c, cols[b].c) < 3 {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// mergedForCVD finds, per CVD type, the categories that are noticeably
+// different for normal vision and not for that type.
+func mergedForCVD(cols []*category, p Params, out []Finding) []Finding {
 	for _, v := range Visions[1:] {
 		var pairs []string
 		var marks []int
@@ -336,7 +354,12 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 				Source:  srcCVD + "; " + srcND})
 		}
 	}
-	// Legend entries.
+	return out
+}
+
+// legendFindings finds, per vision type, legend swatches of one shape
+// whose colours cannot be told apart.
+func legendFindings(in Input, p Params, out []Finding) []Finding {
 	for _, v := range Visions {
 		var pairs []string
 		for a := range in.Legend {

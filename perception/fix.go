@@ -33,107 +33,15 @@ func suggestFix(in Input, p Params, em []int, res *Result) *Fix {
 	if len(em) == 0 {
 		return nil
 	}
-	kind := in.Marks[em[0]].Kind
-	isEm := map[int]bool{}
-	for _, i := range em {
-		isEm[i] = true
-	}
-	var others []colour.SRGB
-	seen := map[colour.SRGB]bool{}
-	for i, m := range in.Marks {
-		if m.Kind == kind && !isEm[i] && !seen[m.Colour] {
-			seen[m.Colour] = true
-			others = append(others, m.Colour)
-		}
-	}
-	if len(others) == 0 {
+	fs := newFixSearch(in, p, em)
+	if fs == nil {
 		return nil
 	}
-	t := in.Marks[em[0]]
-	nd := p.ND.For(t.Type, t.MinPx, t.MaxPx)
-	sim := func(v colour.Deficiency, c colour.SRGB) colour.Lab {
-		return colour.SRGBToLab(colour.Simulate(v, p.Severity, c))
-	}
-	simOthers := make([][]colour.Lab, len(Visions))
-	for vi, v := range Visions {
-		for _, o := range others {
-			simOthers[vi] = append(simOthers[vi], sim(v, o))
-		}
-	}
-	worst := func(c colour.SRGB) (float64, map[string]float64) {
-		w := math.Inf(1)
-		m := map[string]float64{}
-		for vi, v := range Visions {
-			sc := sim(v, c)
-			mv := math.Inf(1)
-			for _, o := range simOthers[vi] {
-				mv = min(mv, colour.NDUnits(sc, o, nd))
-			}
-			m[v.String()] = mv
-			w = min(w, mv)
-		}
-		return w, m
-	}
-	var best colour.SRGB
-	bestW := -1.0
-	for L := 20.0; L <= 90; L += 5 {
-		for a := -96.0; a <= 96; a += 8 {
-			for b := -96.0; b <= 96; b += 8 {
-				c := colour.LabToSRGB(colour.Lab{L: L, A: a, B: b})
-				if !c.InGamut() {
-					continue
-				}
-				c = c.Clamped()
-				if colour.ContrastRatio(c, in.Background) < colour.NonTextContrast {
-					continue
-				}
-				if w, _ := worst(c); w > bestW {
-					best, bestW = c, w
-				}
-			}
-		}
-	}
 	var fixes []*Fix
-	if bestW > 0 {
-		c := quantise(best)
-		_, m := worst(c)
-		f := &Fix{Kind: "recolour-emphasis", CSS: "fill: " + c.Hex(), Colour: c, Margin: m}
-		f.Verified = verify(in, p, em, res, func(i int, mk *Mark) {
-			if isEm[i] {
-				mk.Colour = c
-			}
-		})
+	if f := fs.recolour(res); f != nil {
 		fixes = append(fixes, f)
 	}
-	// Muting: the other marks become one grey that still meets 3:1.
-	tc := t.Colour
-	var bestG colour.SRGB
-	bestGW := -1.0
-	for L := 10.0; L <= 95; L += 2.5 {
-		g := colour.LabToSRGB(colour.Lab{L: L}).Clamped()
-		if colour.ContrastRatio(g, in.Background) < colour.NonTextContrast {
-			continue
-		}
-		w := math.Inf(1)
-		for _, v := range Visions {
-			w = min(w, colour.NDUnits(sim(v, tc), sim(v, g), nd))
-		}
-		if w > bestGW {
-			bestG, bestGW = g, w
-		}
-	}
-	if bestGW > 0 {
-		g := quantise(bestG)
-		m := map[string]float64{}
-		for _, v := range Visions {
-			m[v.String()] = colour.NDUnits(sim(v, tc), sim(v, g), nd)
-		}
-		f := &Fix{Kind: "mute-others", CSS: "fill: " + g.Hex(), Colour: g, Margin: m}
-		f.Verified = verify(in, p, em, res, func(i int, mk *Mark) {
-			if !isEm[i] && mk.Kind == kind {
-				mk.Colour = g
-			}
-		})
+	if f := fs.mute(res); f != nil {
 		fixes = append(fixes, f)
 	}
 	// Prefer the change that touches fewest marks: recolouring the
@@ -151,6 +59,142 @@ func suggestFix(in Input, p Params, em []int, res *Result) *Fix {
 		}
 	}
 	return pick
+}
+
+// fixSearch holds what both fixes search over: the emphasis, the other
+// marks' colours simulated for each vision type, and the noticeable
+// difference at the emphasis's size.
+type fixSearch struct {
+	in        Input
+	p         Params
+	em        []int
+	isEm      map[int]bool
+	kind      string
+	target    Mark
+	nd        [3]float64
+	simOthers [][]colour.Lab
+}
+
+// newFixSearch prepares the search; nil when no other mark of the
+// emphasis's kind has a colour to differ from.
+func newFixSearch(in Input, p Params, em []int) *fixSearch {
+	fs := &fixSearch{in: in, p: p, em: em, isEm: map[int]bool{}, kind: in.Marks[em[0]].Kind, target: in.Marks[em[0]]}
+	for _, i := range em {
+		fs.isEm[i] = true
+	}
+	var others []colour.SRGB
+	seen := map[colour.SRGB]bool{}
+	for i, m := range in.Marks {
+		if m.Kind == fs.kind && !fs.isEm[i] && !seen[m.Colour] {
+			seen[m.Colour] = true
+			others = append(others, m.Colour)
+		}
+	}
+	if len(others) == 0 {
+		return nil
+	}
+	fs.nd = p.ND.For(fs.target.Type, fs.target.MinPx, fs.target.MaxPx)
+	fs.simOthers = make([][]colour.Lab, len(Visions))
+	for vi, v := range Visions {
+		for _, o := range others {
+			fs.simOthers[vi] = append(fs.simOthers[vi], fs.sim(v, o))
+		}
+	}
+	return fs
+}
+
+func (fs *fixSearch) sim(v colour.Deficiency, c colour.SRGB) colour.Lab {
+	return colour.SRGBToLab(colour.Simulate(v, fs.p.Severity, c))
+}
+
+// worst is the smallest margin, in noticeable differences, between c and
+// the other marks' colours over every vision type, and the margin per type.
+func (fs *fixSearch) worst(c colour.SRGB) (float64, map[string]float64) {
+	w := math.Inf(1)
+	m := map[string]float64{}
+	for vi, v := range Visions {
+		sc := fs.sim(v, c)
+		mv := math.Inf(1)
+		for _, o := range fs.simOthers[vi] {
+			mv = min(mv, colour.NDUnits(sc, o, fs.nd))
+		}
+		m[v.String()] = mv
+		w = min(w, mv)
+	}
+	return w, m
+}
+
+// recolour searches CIELAB on a grid for the in-gamut colour, at 3:1
+// against the background, that is farthest from the other marks for the
+// worst-off vision type.
+func (fs *fixSearch) recolour(res *Result) *Fix {
+	var best colour.SRGB
+	bestW := -1.0
+	for L := 20.0; L <= 90; L += 5 {
+		for a := -96.0; a <= 96; a += 8 {
+			for b := -96.0; b <= 96; b += 8 {
+				c := colour.LabToSRGB(colour.Lab{L: L, A: a, B: b})
+				if !c.InGamut() {
+					continue
+				}
+				c = c.Clamped()
+				if colour.ContrastRatio(c, fs.in.Background) < colour.NonTextContrast {
+					continue
+				}
+				if w, _ := fs.worst(c); w > bestW {
+					best, bestW = c, w
+				}
+			}
+		}
+	}
+	if bestW <= 0 {
+		return nil
+	}
+	c := quantise(best)
+	_, m := fs.worst(c)
+	f := &Fix{Kind: "recolour-emphasis", CSS: "fill: " + c.Hex(), Colour: c, Margin: m}
+	f.Verified = verify(fs.in, fs.p, fs.em, res, func(i int, mk *Mark) {
+		if fs.isEm[i] {
+			mk.Colour = c
+		}
+	})
+	return f
+}
+
+// mute searches the greys that still meet 3:1 against the background for
+// the one farthest from the emphasis for the worst-off vision type.
+func (fs *fixSearch) mute(res *Result) *Fix {
+	tc := fs.target.Colour
+	var bestG colour.SRGB
+	bestGW := -1.0
+	for L := 10.0; L <= 95; L += 2.5 {
+		g := colour.LabToSRGB(colour.Lab{L: L}).Clamped()
+		if colour.ContrastRatio(g, fs.in.Background) < colour.NonTextContrast {
+			continue
+		}
+		w := math.Inf(1)
+		for _, v := range Visions {
+			w = min(w, colour.NDUnits(fs.sim(v, tc), fs.sim(v, g), fs.nd))
+		}
+		if w > bestGW {
+			bestG, bestGW = g, w
+		}
+	}
+	if bestGW <= 0 {
+		return nil
+	}
+	g := quantise(bestG)
+	m := map[string]float64{}
+	for _, v := range Visions {
+		m[v.String()] = colour.NDUnits(fs.sim(v, tc), fs.sim(v, g), fs.nd)
+	}
+	f := &Fix{Kind: "mute-others", CSS: "fill: " + g.Hex(), Colour: g, Margin: m}
+	f.Verified = verify(fs.in, fs.p, fs.em, res, func(i int, mk *Mark) {
+		if !fs.isEm[i] && mk.Kind == fs.kind {
+			mk.Colour = g
+		}
+	})
+	return f
 }
 
 func minMargin(f *Fix) float64 {

@@ -21,18 +21,36 @@ const (
 	Shape       Channel = "shape"
 )
 
-// Channels lists every channel.
-var Channels = []Channel{Hue, Lightness, Size, Orientation, Shape}
+// The channels' positions in Channels and Saliences.
+const (
+	hueAt = iota
+	lightnessAt
+	sizeAt
+	orientationAt
+	shapeAt
+	nChannels
+)
+
+// Channels lists every channel, each at its position.
+var Channels = []Channel{hueAt: Hue, lightnessAt: Lightness, sizeAt: Size, orientationAt: Orientation, shapeAt: Shape}
 
 // Saliences holds one salience per channel, in the order of Channels.
-type Saliences [5]float64
+type Saliences [nChannels]float64
+
+// channelAt is the position of channel c, or −1.
+func channelAt(c Channel) int {
+	for i, x := range Channels {
+		if x == c {
+			return i
+		}
+	}
+	return -1
+}
 
 // Of returns the salience of channel c.
 func (s Saliences) Of(c Channel) float64 {
-	for i, x := range Channels {
-		if x == c {
-			return s[i]
-		}
+	if i := channelAt(c); i >= 0 {
+		return s[i]
 	}
 	return 0
 }
@@ -461,45 +479,51 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		b := binOf[ci]
 		st.group[k], st.global[k] = groupOf[b], globalOf[b]
 	}
-	// Spread: the 90th percentile of the distractors' distances from their
-	// mean colour, which, like spread1's half interdecile range, measures
-	// half the distractors' extent. Computed per colour bin, weighted by
-	// its marks.
-	if len(distractorBins) > 0 {
-		var mL, mA, mB, f float64
-		for _, b := range distractorBins {
-			w := float64(b.count)
-			l := d.lab[b.rep]
-			mL += w * l.L
-			mA += w * l.A
-			mB += w * l.B
-			f += w
+	st.spread = d.colourSpread(c, distractorBins)
+}
+
+// colourSpread is the 90th percentile of the distractors' distances from
+// their mean colour, which, like spread1's half interdecile range,
+// measures half the distractors' extent. Computed per colour bin, weighted
+// by its marks.
+func (d *display) colourSpread(c Channel, distractorBins []colourBin) float64 {
+	if len(distractorBins) == 0 {
+		return 0
+	}
+	var mL, mA, mB, f float64
+	for _, b := range distractorBins {
+		w := float64(b.count)
+		l := d.lab[b.rep]
+		mL += w * l.L
+		mA += w * l.A
+		mB += w * l.B
+		f += w
+	}
+	if f <= 1 {
+		return 0
+	}
+	mean := colour.Lab{L: mL / f, A: mA / f, B: mB / f}
+	type wd struct{ v, w float64 }
+	ds := make([]wd, 0, len(distractorBins))
+	for _, b := range distractorBins {
+		l, nd := d.lab[b.rep], d.nd[b.rep]
+		var v float64
+		if c == Hue {
+			v = math.Hypot((l.A-mean.A)/nd[1], (l.B-mean.B)/nd[2])
+		} else {
+			v = math.Abs(l.L-mean.L) / nd[0]
 		}
-		if f > 1 {
-			mean := colour.Lab{L: mL / f, A: mA / f, B: mB / f}
-			type wd struct{ v, w float64 }
-			ds := make([]wd, 0, len(distractorBins))
-			for _, b := range distractorBins {
-				l, nd := d.lab[b.rep], d.nd[b.rep]
-				var v float64
-				if c == Hue {
-					v = math.Hypot((l.A-mean.A)/nd[1], (l.B-mean.B)/nd[2])
-				} else {
-					v = math.Abs(l.L-mean.L) / nd[0]
-				}
-				ds = append(ds, wd{v, float64(b.count)})
-			}
-			slices.SortFunc(ds, func(a, b wd) int { return cmp.Compare(a.v, b.v) })
-			// The value at rank round(0.9·(f−1)) of the expanded list.
-			target := math.Round(0.9 * (f - 1))
-			acc := 0.0
-			for _, x := range ds {
-				acc += x.w
-				if acc > target {
-					st.spread = x.v
-					break
-				}
-			}
+		ds = append(ds, wd{v, float64(b.count)})
+	}
+	slices.SortFunc(ds, func(a, b wd) int { return cmp.Compare(a.v, b.v) })
+	// The value at rank round(0.9·(f−1)) of the expanded list.
+	target := math.Round(0.9 * (f - 1))
+	acc := 0.0
+	for _, x := range ds {
+		acc += x.w
+		if acc > target {
+			return x.v
 		}
 	}
+	return 0
 }

@@ -11,7 +11,7 @@ import (
 func (d *display) judge() []MarkResult { return d.judgeSome(nil) }
 
 // colourChannel reports whether a channel depends on the vision type.
-func colourChannel(ci int) bool { return Channels[ci] == Hue || Channels[ci] == Lightness }
+func colourChannel(ci int) bool { return ci == hueAt || ci == lightnessAt }
 
 // judgeSome computes every mark's verdict or, with only non-nil, just the
 // salience and pop-out of those marks, returned in the order of only.
@@ -22,118 +22,39 @@ func (d *display) judgeSome(only []int) []MarkResult {
 	if n == 0 {
 		return make([]MarkResult, len(only))
 	}
-	var statList [5]channelStats
+	j := judging{d: d, nb: d.nb, reuse: d.reuse != nil && d.reuse.have}
 	for ci, c := range Channels {
-		if d.reuse != nil && d.reuse.have && !colourChannel(ci) {
-			statList[ci] = d.reuse.stats[ci]
+		if j.reuse && !colourChannel(ci) {
+			j.stats[ci] = d.reuse.stats[ci]
 			continue
 		}
-		statList[ci] = d.stats(c)
+		j.stats[ci] = d.stats(c)
 	}
-	nb := d.nb
-	if nb == nil && n > 1 && d.p.Neighbours > 0 {
-		nb = neighbours(d.all, d.idx, d.p.Neighbours)
+	if j.nb == nil && n > 1 && d.p.Neighbours > 0 {
+		j.nb = neighbours(d.all, d.idx, d.p.Neighbours)
 	}
-	reuse := d.reuse != nil && d.reuse.have
 	// One backing array for every mark's channel list: fewer allocations.
-	chBuf := make([]Channel, 0, n/4+8)
-	hueCI, lightCI := 0, 1 // positions of Hue and Lightness in Channels
-	one := func(k int) MarkResult {
-		r := MarkResult{}
-		for ci, c := range Channels {
-			if reuse && !colourChannel(ci) {
-				r.Salience[ci] = d.reuse.sal[k][ci]
-				continue
-			}
-			if ci == lightCI {
-				continue // computed with hue below
-			}
-			st := &statList[ci]
-			m := d.margin(c)
-			h := st.spread / m
-			global := st.global[k] / m / (1 + h)
-			if ci == hueCI {
-				// Hue and lightness share one pass over the neighbours:
-				// the hot loop on large charts.
-				st2 := &statList[lightCI]
-				m2 := d.margin(Lightness)
-				h2 := st2.spread / m2
-				global2 := st2.global[k] / m2 / (1 + h2)
-				local, local2 := 0.0, 0.0
-				if nb != nil {
-					ld, ld2 := math.Inf(1), math.Inf(1)
-					own, own2 := st.group[k] <= d.small, st2.group[k] <= d.small
-					lk, nd := d.lab[k], d.nd[k]
-					for _, j := range nb[k] {
-						lj := d.lab[j]
-						x, y := (lk.A-lj.A)/nd[1], (lk.B-lj.B)/nd[2]
-						dh := math.Sqrt(x*x + y*y)
-						dl := math.Abs(lk.L-lj.L) / nd[0]
-						if (!own || dh >= 1) && dh < ld {
-							ld = dh
-						}
-						if (!own2 || dl >= 1) && dl < ld2 {
-							ld2 = dl
-						}
-					}
-					local = localSalience(ld, m, h, global, st.group[k] > d.small)
-					local2 = localSalience(ld2, m2, h2, global2, st2.group[k] > d.small)
-				}
-				r.Salience[hueCI] = max(global, local)
-				r.Salience[lightCI] = max(global2, local2)
-				continue
-			}
-			local := 0.0
-			if nb != nil {
-				ld := math.Inf(1)
-				own := st.group[k] <= d.small
-				for _, j := range nb[k] {
-					dj := d.dist(c, k, j)
-					if (!own || dj >= 1) && dj < ld {
-						ld = dj
-					}
-				}
-				local = localSalience(ld, m, h, global, st.group[k] > d.small)
-			}
-			r.Salience[ci] = max(global, local)
-		}
-		start := len(chBuf)
-		for ci, c := range Channels {
-			if r.Salience[ci] >= 1 {
-				chBuf = append(chBuf, c)
-			}
-		}
-		if len(chBuf) > start {
-			r.Channels = chBuf[start:len(chBuf):len(chBuf)]
-		}
-		if len(r.Channels) > 1 {
-			slices.SortStableFunc(r.Channels, func(a, b Channel) int { return cmp.Compare(r.Salience.Of(b), r.Salience.Of(a)) })
-		}
-		if len(r.Channels) > 0 {
-			r.Verdict = Pops
-		}
-		return r
-	}
+	j.chBuf = make([]Channel, 0, n/4+8)
 	if only != nil {
 		res := make([]MarkResult, len(only))
 		for t, k := range only {
-			res[t] = one(k)
+			res[t] = j.one(k)
 		}
 		return res
 	}
 	res := make([]MarkResult, n)
 	for k := range d.idx {
-		res[k] = one(k)
+		res[k] = j.one(k)
 	}
 	if d.reuse != nil && !d.reuse.have {
 		d.reuse.have = true
-		d.reuse.stats = statList
+		d.reuse.stats = j.stats
 		d.reuse.sal = make([]Saliences, n)
 		for k := range res {
 			d.reuse.sal[k] = res[k].Salience
 		}
 	}
-	d.conjunctions(res, &statList)
+	d.conjunctions(res, &j.stats)
 	for k := range res {
 		slope := d.p.SerialSlope
 		if res[k].Verdict == Pops {
@@ -143,6 +64,105 @@ func (d *display) judgeSome(only []int) []MarkResult {
 		res[k].SearchMs = [2]float64{slope[0] * float64(n), slope[1] * float64(n)}
 	}
 	return res
+}
+
+// judging is one judgeSome: the channels' statistics, the neighbours and
+// whether the colour-free channels come from an earlier vision type.
+type judging struct {
+	d     *display
+	stats [nChannels]channelStats
+	nb    [][]int
+	reuse bool
+	chBuf []Channel
+}
+
+// one is mark k's saliences, the channels that carry it and its verdict
+// (pop-out or not; conjunctions come after).
+func (j *judging) one(k int) MarkResult {
+	d := j.d
+	r := MarkResult{}
+	for ci, c := range Channels {
+		switch {
+		case j.reuse && !colourChannel(ci):
+			r.Salience[ci] = d.reuse.sal[k][ci]
+		case ci == lightnessAt:
+			// computed with hue
+		case ci == hueAt:
+			r.Salience[hueAt], r.Salience[lightnessAt] = j.hueAndLightness(k)
+		default:
+			r.Salience[ci] = j.channel(k, ci, c)
+		}
+	}
+	start := len(j.chBuf)
+	for ci, c := range Channels {
+		if r.Salience[ci] >= 1 {
+			j.chBuf = append(j.chBuf, c)
+		}
+	}
+	if len(j.chBuf) > start {
+		r.Channels = j.chBuf[start:len(j.chBuf):len(j.chBuf)]
+	}
+	if len(r.Channels) > 1 {
+		slices.SortStableFunc(r.Channels, func(a, b Channel) int { return cmp.Compare(r.Salience.Of(b), r.Salience.Of(a)) })
+	}
+	if len(r.Channels) > 0 {
+		r.Verdict = Pops
+	}
+	return r
+}
+
+// channel is mark k's salience in one channel that is not colour: the
+// larger of its global and its local contrast.
+func (j *judging) channel(k, ci int, c Channel) float64 {
+	d := j.d
+	st := &j.stats[ci]
+	m := d.margin(c)
+	h := st.spread / m
+	global := st.global[k] / m / (1 + h)
+	if j.nb == nil {
+		return global
+	}
+	ld := math.Inf(1)
+	own := st.group[k] <= d.small
+	for _, n := range j.nb[k] {
+		dj := d.dist(c, k, n)
+		if (!own || dj >= 1) && dj < ld {
+			ld = dj
+		}
+	}
+	return max(global, localSalience(ld, m, h, global, st.group[k] > d.small))
+}
+
+// hueAndLightness are mark k's hue and lightness saliences. They share one
+// pass over the neighbours: the hot loop on large charts.
+func (j *judging) hueAndLightness(k int) (float64, float64) {
+	d := j.d
+	st, st2 := &j.stats[hueAt], &j.stats[lightnessAt]
+	m, m2 := d.margin(Hue), d.margin(Lightness)
+	h, h2 := st.spread/m, st2.spread/m2
+	global := st.global[k] / m / (1 + h)
+	global2 := st2.global[k] / m2 / (1 + h2)
+	if j.nb == nil {
+		return global, global2
+	}
+	ld, ld2 := math.Inf(1), math.Inf(1)
+	own, own2 := st.group[k] <= d.small, st2.group[k] <= d.small
+	lk, nd := d.lab[k], d.nd[k]
+	for _, n := range j.nb[k] {
+		ln := d.lab[n]
+		x, y := (lk.A-ln.A)/nd[1], (lk.B-ln.B)/nd[2]
+		dh := math.Sqrt(x*x + y*y)
+		dl := math.Abs(lk.L-ln.L) / nd[0]
+		if (!own || dh >= 1) && dh < ld {
+			ld = dh
+		}
+		if (!own2 || dl >= 1) && dl < ld2 {
+			ld2 = dl
+		}
+	}
+	local := localSalience(ld, m, h, global, st.group[k] > d.small)
+	local2 := localSalience(ld2, m2, h2, global2, st2.group[k] > d.small)
+	return max(global, local), max(global2, local2)
 }
 
 // localSalience turns the distance to the most similar neighbour (leaving
@@ -164,7 +184,7 @@ func localSalience(ld, margin, h, global float64, large bool) float64 {
 // shape) from the first vision type to the others.
 type reuseData struct {
 	have  bool
-	stats [5]channelStats
+	stats [nChannels]channelStats
 	sal   []Saliences
 }
 
@@ -205,7 +225,7 @@ func neighboursXY(xs, ys []float64, k int) [][]int {
 // whose combination of features is shared by few marks while each of its
 // feature values is shared by many (Treisman & Gelade 1980), and that
 // differ noticeably from every other mark in some channel.
-func (d *display) conjunctions(res []MarkResult, stats *[5]channelStats) {
+func (d *display) conjunctions(res []MarkResult, stats *[nChannels]channelStats) {
 	type sig [6]int64
 	n := len(d.idx)
 	sigOf := func(k int) sig {

@@ -389,48 +389,54 @@ func (d *Scanner) str() (string, error) {
 		if d.i >= len(d.b) {
 			break
 		}
-		e := d.b[d.i]
-		d.i++
-		switch e {
-		case '"', '\\', '/':
-			buf = append(buf, e)
-		case 'b':
-			buf = append(buf, '\b')
-		case 'f':
-			buf = append(buf, '\f')
-		case 'n':
-			buf = append(buf, '\n')
-		case 'r':
-			buf = append(buf, '\r')
-		case 't':
-			buf = append(buf, '\t')
-		case 'u':
-			r, ok := d.hex4()
-			if !ok {
-				return "", d.Errorf("bad \\u escape")
-			}
-			if utf16.IsSurrogate(r) {
-				// A pair when the next escape completes it; alone it is
-				// replaced, as encoding/json does.
-				save := d.i
-				if d.i+1 < len(d.b) && d.b[d.i] == '\\' && d.b[d.i+1] == 'u' {
-					d.i += 2
-					if r2, ok := d.hex4(); ok {
-						if dec := utf16.DecodeRune(r, r2); dec != utf8.RuneError {
-							buf = utf8.AppendRune(buf, dec)
-							continue
-						}
-					}
-				}
-				d.i = save
-				r = utf8.RuneError
-			}
-			buf = utf8.AppendRune(buf, r)
-		default:
-			return "", d.Errorf("bad escape")
+		var err error
+		if buf, err = d.escape(buf); err != nil {
+			return "", err
 		}
 	}
 	return "", d.Errorf("unterminated string")
+}
+
+// escape appends what the escape after a backslash stands for.
+func (d *Scanner) escape(buf []byte) ([]byte, error) {
+	e := d.b[d.i]
+	d.i++
+	switch e {
+	case '"', '\\', '/':
+		return append(buf, e), nil
+	case 'b':
+		return append(buf, '\b'), nil
+	case 'f':
+		return append(buf, '\f'), nil
+	case 'n':
+		return append(buf, '\n'), nil
+	case 'r':
+		return append(buf, '\r'), nil
+	case 't':
+		return append(buf, '\t'), nil
+	case 'u':
+		r, ok := d.hex4()
+		if !ok {
+			return buf, d.Errorf("bad \\u escape")
+		}
+		if utf16.IsSurrogate(r) {
+			// A pair when the next escape completes it; alone it is
+			// replaced, as encoding/json does.
+			save := d.i
+			if d.i+1 < len(d.b) && d.b[d.i] == '\\' && d.b[d.i+1] == 'u' {
+				d.i += 2
+				if r2, ok := d.hex4(); ok {
+					if dec := utf16.DecodeRune(r, r2); dec != utf8.RuneError {
+						return utf8.AppendRune(buf, dec), nil
+					}
+				}
+			}
+			d.i = save
+			r = utf8.RuneError
+		}
+		return utf8.AppendRune(buf, r), nil
+	}
+	return buf, d.Errorf("bad escape")
 }
 
 func (d *Scanner) hex4() (rune, bool) {
