@@ -541,32 +541,34 @@ func TestE2EStrictCSPFrameAndShadowRoot(t *testing.T) {
 	})
 	for _, c := range []struct{ path, chart string }{{"/csp", "svg0"}, {"/frames", "frame0/svg0"}, {"/shadow", "shadow0/svg0"}} {
 		t.Run(c.path, func(t *testing.T) {
-			h.t = t
-			h.open(srv.URL + c.path)
-			h.trigger()
-			h.waitState("ready")
-			layers := layerRects(t, h.overlayHTML())
-			require.Contains(t, layers, c.chart)
-			assert.Len(t, layers[c.chart]["pops"], 1, "the orange bar pops")
-			assert.Len(t, layers[c.chart]["blends"], 4)
-			// The outline sits on the bar as the page shows it.
-			pos := h.eval(`(() => {
-			  let doc = document, ox = scrollX, oy = scrollY;
-			  const f = document.querySelector('iframe');
-			  if (f) { const r = f.getBoundingClientRect(); ox += r.left + 3; oy += r.top + 3; doc = f.contentDocument; }
-			  const host = document.querySelector('bar-card');
-			  const root = host ? host.shadowRoot : doc;
-			  const r = root.querySelectorAll('rect')[2].getBoundingClientRect();
-			  return JSON.stringify([r.left + ox, r.top + oy, r.width, r.height]);
-			})()`)
-			var want [4]float64
-			require.NoError(t, json.Unmarshal([]byte(pos), &want))
-			got := layers[c.chart]["pops"][0]
-			for i := range want {
-				assert.InDelta(t, want[i], got[i], 1, "%s box %d", c.path, i)
-			}
-			h.trigger() // pressing the action again closes the check
-			h.waitState("")
+			t.Run(c.path, func(t *testing.T) {
+				h.t = t
+				h.open(srv.URL + c.path)
+				h.trigger()
+				h.waitState("ready")
+				layers := layerRects(t, h.overlayHTML())
+				require.Contains(t, layers, c.chart)
+				assert.Len(t, layers[c.chart]["pops"], 1, "the orange bar pops")
+				assert.Len(t, layers[c.chart]["blends"], 4)
+				// The outline sits on the bar as the page shows it.
+				pos := h.eval(`(() => {
+				  let doc = document, ox = scrollX, oy = scrollY;
+				  const f = document.querySelector('iframe');
+				  if (f) { const r = f.getBoundingClientRect(); ox += r.left + 3; oy += r.top + 3; doc = f.contentDocument; }
+				  const host = document.querySelector('bar-card');
+				  const root = host ? host.shadowRoot : doc;
+				  const r = root.querySelectorAll('rect')[2].getBoundingClientRect();
+				  return JSON.stringify([r.left + ox, r.top + oy, r.width, r.height]);
+				})()`)
+				var want [4]float64
+				require.NoError(t, json.Unmarshal([]byte(pos), &want))
+				got := layers[c.chart]["pops"][0]
+				for i := range want {
+					assert.InDelta(t, want[i], got[i], 1, "%s box %d", c.path, i)
+				}
+				h.trigger() // pressing the action again closes the check
+				h.waitState("")
+			})
 		})
 	}
 }

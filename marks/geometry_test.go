@@ -110,11 +110,13 @@ func TestShapeClasses(t *testing.T) {
 		{"M0,0L10,0A10,10,0,0,1,0,10Z", ShapeWedge, 45},
 	}
 	for _, c := range cases {
-		g, ok, err := Measure(node("path", nil, c.d, snapshot.IdentityMatrix))
-		require.True(t, ok, c.d)
-		require.NoError(t, err)
-		assert.Equal(t, c.shape, g.Shape, c.d)
-		assert.InDelta(t, c.angle, g.Angle, 1.5, c.d)
+		t.Run(c.d, func(t *testing.T) {
+			g, ok, err := Measure(node("path", nil, c.d, snapshot.IdentityMatrix))
+			require.True(t, ok, c.d)
+			require.NoError(t, err)
+			assert.Equal(t, c.shape, g.Shape, c.d)
+			assert.InDelta(t, c.angle, g.Angle, 1.5, c.d)
+		})
 	}
 	// Rotation by a transform shows in the angle, modulo the symmetry.
 	g, _, _ := Measure(node("path", nil, "M0,-10L8.66,5L-8.66,5Z", snapshot.Matrix{math.Cos(0.5), math.Sin(0.5), -math.Sin(0.5), math.Cos(0.5), 0, 0}))

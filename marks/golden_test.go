@@ -85,25 +85,27 @@ func TestGolden(t *testing.T) {
 	require.NotEmpty(t, files)
 	for _, f := range files {
 		t.Run(filepath.Base(f), func(t *testing.T) {
-			in, err := os.Open(f)
-			require.NoError(t, err)
-			defer in.Close()
-			p, err := static.Build(in, static.Options{Source: filepath.Base(f)})
-			require.NoError(t, err)
-			got := dump(p)
-			golden := strings.TrimSuffix(f, filepath.Ext(f)) + ".golden"
-			if *update {
-				require.NoError(t, os.WriteFile(golden, []byte(got), 0o644))
-			}
-			want, err := os.ReadFile(golden)
-			require.NoError(t, err, "run go test ./marks -run Golden -update")
-			assert.Equal(t, string(want), got)
-			// Idempotent: building again gives the same dump.
-			in2, _ := os.Open(f)
-			defer in2.Close()
-			p2, err := static.Build(in2, static.Options{Source: filepath.Base(f)})
-			require.NoError(t, err)
-			assert.Equal(t, got, dump(p2))
+			t.Run(filepath.Base(f), func(t *testing.T) {
+				in, err := os.Open(f)
+				require.NoError(t, err)
+				defer in.Close()
+				p, err := static.Build(in, static.Options{Source: filepath.Base(f)})
+				require.NoError(t, err)
+				got := dump(p)
+				golden := strings.TrimSuffix(f, filepath.Ext(f)) + ".golden"
+				if *update {
+					require.NoError(t, os.WriteFile(golden, []byte(got), 0o644))
+				}
+				want, err := os.ReadFile(golden)
+				require.NoError(t, err, "run go test ./marks -run Golden -update")
+				assert.Equal(t, string(want), got)
+				// Idempotent: building again gives the same dump.
+				in2, _ := os.Open(f)
+				defer in2.Close()
+				p2, err := static.Build(in2, static.Options{Source: filepath.Base(f)})
+				require.NoError(t, err)
+				assert.Equal(t, got, dump(p2))
+			})
 		})
 	}
 }

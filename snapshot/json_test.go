@@ -55,23 +55,25 @@ func TestSnapshotJSONRoundTripFixtures(t *testing.T) {
 	files = append(files, corpus...)
 	require.NotEmpty(t, files)
 	for _, f := range files {
-		if strings.HasSuffix(f, ".golden") {
-			continue
-		}
-		data, err := os.ReadFile(f)
-		require.NoError(t, err)
-		p, err := static.Build(strings.NewReader(string(data)), static.Options{Source: f})
-		require.NoError(t, err)
-		for _, s := range p.Charts {
-			b, err := json.Marshal(s)
-			require.NoError(t, err, f)
-			var fast snapshot.Snapshot
-			require.NoError(t, json.Unmarshal(b, &fast), f)
-			assert.Equal(t, normalised(s), normalised(fast), f)
-			slow, err := snapshot.DecodeByReflection(b)
-			require.NoError(t, err, f)
-			assert.Equal(t, normalised(slow), normalised(fast), f)
-		}
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			if strings.HasSuffix(f, ".golden") {
+				return
+			}
+			data, err := os.ReadFile(f)
+			require.NoError(t, err)
+			p, err := static.Build(strings.NewReader(string(data)), static.Options{Source: f})
+			require.NoError(t, err)
+			for _, s := range p.Charts {
+				b, err := json.Marshal(s)
+				require.NoError(t, err, f)
+				var fast snapshot.Snapshot
+				require.NoError(t, json.Unmarshal(b, &fast), f)
+				assert.Equal(t, normalised(s), normalised(fast), f)
+				slow, err := snapshot.DecodeByReflection(b)
+				require.NoError(t, err, f)
+				assert.Equal(t, normalised(slow), normalised(fast), f)
+			}
+		})
 	}
 }
 
@@ -160,10 +162,12 @@ func TestSnapshotJSONErrors(t *testing.T) {
 		"geometry cut short":  head + `[-1,0,0,2,0,0,0,1,1,1,1,3,1]}`,
 		"selects nothing":     `{"v":2,"sel":[0]}`,
 	} {
-		var s snapshot.Snapshot
-		assert.Error(t, json.Unmarshal([]byte(bad), &s), name)
-		_, err := snapshot.DecodeByReflection([]byte(bad))
-		assert.Error(t, err, "%s: the oracle", name)
+		t.Run(name, func(t *testing.T) {
+			var s snapshot.Snapshot
+			assert.Error(t, json.Unmarshal([]byte(bad), &s), name)
+			_, err := snapshot.DecodeByReflection([]byte(bad))
+			assert.Error(t, err, "%s: the oracle", name)
+		})
 	}
 }
 

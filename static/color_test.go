@@ -50,11 +50,13 @@ func TestParseColorSyntaxes(t *testing.T) {
 		{"transparent", "#000000", 0},
 		{"  Red ", "#ff0000", 1},
 	} {
-		got, err := ParseColor(c.in)
-		if assert.NoError(t, err, c.in) {
-			assert.Equal(t, c.hex, got.SRGB.Hex(), c.in)
-			assert.InDelta(t, c.a, got.A, 1e-9, c.in)
-		}
+		t.Run(c.in, func(t *testing.T) {
+			got, err := ParseColor(c.in)
+			if assert.NoError(t, err, c.in) {
+				assert.Equal(t, c.hex, got.SRGB.Hex(), c.in)
+				assert.InDelta(t, c.a, got.A, 1e-9, c.in)
+			}
+		})
 	}
 	for _, bad := range []string{"", "#12", "#12345", "rgb(1,2)", "rgb(1 2 3 4)", "rgb(1, 2 3)", "hsl(1, 2%)", "notacolour", "rgb(NaN, 0, 0)", "#ggg", "rgb(1 2 3 / 4 / 5)"} {
 		_, err := ParseColor(bad)

@@ -51,12 +51,14 @@ func TestJSOnlyFilesHaveConstraint(t *testing.T) {
 	files, _ := filepath.Glob("*.go")
 	require.NotEmpty(t, files)
 	for _, f := range files {
-		b, err := os.ReadFile(f)
-		require.NoError(t, err)
-		s := string(b)
-		if regexp.MustCompile(`(?m)^\s*(import\s+)?"syscall/js"\s*$`).MatchString(s) {
-			assert.True(t, strings.HasPrefix(s, "//go:build js && wasm"), "%s imports syscall/js without the js && wasm constraint", f)
-		}
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			b, err := os.ReadFile(f)
+			require.NoError(t, err)
+			s := string(b)
+			if regexp.MustCompile(`(?m)^\s*(import\s+)?"syscall/js"\s*$`).MatchString(s) {
+				assert.True(t, strings.HasPrefix(s, "//go:build js && wasm"), "%s imports syscall/js without the js && wasm constraint", f)
+			}
+		})
 	}
 }
 

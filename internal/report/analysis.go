@@ -94,12 +94,18 @@ func uniq(v []int) []int {
 	return out
 }
 
+// Result is a mark's verdict under one vision type: the channels that
+// carry its pop-out and, in the full report, its search slope.
 type Result struct {
 	Verdict  string    `json:"verdict"`
 	Channels []string  `json:"channels"`
 	SlopeMs  []float64 `json:"searchSlopeMsPerMark,omitempty"`
 }
 
+// Fix is a finding's suggested change: its kind ("recolour-emphasis" or
+// "mute-others"), the CSS to apply, the margin it leaves per vision type
+// in noticeable differences, and whether the re-analysis with it applied
+// confirmed that the emphasis then pops out for every vision type.
 type Fix struct {
 	Kind     string             `json:"kind"`
 	CSS      string             `json:"css"`
@@ -107,6 +113,9 @@ type Fix struct {
 	Verified bool               `json:"verified"`
 }
 
+// Finding is one problem the analysis found: its id, severity, the marks
+// it concerns (by id), a message in words, the published source behind
+// it, and a fix where one is known.
 type Finding struct {
 	ID       string   `json:"id"`
 	Severity string   `json:"severity"`
@@ -116,11 +125,15 @@ type Finding struct {
 	Fix      *Fix     `json:"fix,omitempty"`
 }
 
+// Partition is how many groups one cue (proximity, colour or shape)
+// divides the marks into.
 type Partition struct {
 	Cue    string `json:"cue"`
 	Groups int    `json:"groups"`
 }
 
+// Agreement compares two cues' partitions: their adjusted Rand index and
+// what it means ("agree", "conflict" or "partial").
 type Agreement struct {
 	A        string  `json:"a"`
 	B        string  `json:"b"`
@@ -128,11 +141,14 @@ type Agreement struct {
 	Relation string  `json:"relation"`
 }
 
+// Groups is the grouping analysis of a chart.
 type Groups struct {
 	Partitions []Partition `json:"partitions"`
 	Agreement  []Agreement `json:"agreement"`
 }
 
+// Emphasis is the chart's emphasis: its marks (declared, or inferred
+// when none was declared) and whether it pops out for each vision type.
 type Emphasis struct {
 	Marks    []string        `json:"marks"`
 	Inferred bool            `json:"inferred"`

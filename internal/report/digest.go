@@ -75,6 +75,8 @@ var verdictLetter = func() map[perception.Verdict]byte {
 	return m
 }()
 
+// CountMarks counts the marks of the analysed charts (to size the
+// digest's buffer).
 func CountMarks(as []Analysed) int {
 	n := 0
 	for _, a := range as {

@@ -21,6 +21,10 @@ const Caution = "CVD simulation is a model of average readers and real readers v
 // docs/report.md).
 const Version = 1
 
+// Mark is one mark of a chart as the report states it: what it is, its
+// paint as authored (packed colours as #rrggbb), its box in page px and
+// channel values, and, for data marks, its verdict under normal vision and
+// each CVD type.
 type Mark struct {
 	ID          string     `json:"id"`
 	Kind        string     `json:"kind"`
@@ -44,6 +48,9 @@ type Mark struct {
 	CVD         *CVDResults `json:"cvd,omitempty"`
 }
 
+// Chart is one drawing of a page: whether it is a chart (and if not,
+// why), its marks, legend swatches and furniture, the problems met
+// reading it, and the analysis's findings, grouping and emphasis.
 type Chart struct {
 	Path       string         `json:"path"`
 	IsChart    bool           `json:"isChart"`
@@ -59,6 +66,7 @@ type Chart struct {
 	Emphasis   *Emphasis      `json:"emphasis,omitempty"`
 }
 
+// Page is one page or file: its charts and the problems met reading it.
 type Page struct {
 	Source   string   `json:"source"`
 	Charts   []Chart  `json:"charts"`
@@ -151,6 +159,7 @@ type Options struct {
 	Deadline time.Time
 }
 
+// DefaultOptions are the options of a check nobody tuned.
 var DefaultOptions = Options{Params: perception.DefaultParams}
 
 // Analysed is one chart walked and, if it is a chart, analysed.

@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"bytes"
 	"encoding/json"
+	"fmt"
 	"math"
 	"math/rand"
 	"os"
@@ -96,10 +97,12 @@ func TestSimulateColorspaciousGold(t *testing.T) {
 		{Protan, 0.95, SRGB{0.1, 0.2, 0.3}, SRGB{0.15588987, 0.2038791, 0.30416046}},
 		{Protan, 0.95, SRGB{0.9, 0.5, 0.3}, SRGB{0.62151883, 0.55237436, 0.27997229}},
 	} {
-		got := Simulate(c.d, c.sev, c.in)
-		assert.InDelta(t, c.want.R, got.R, tol, "%v %v", c.d, c.in)
-		assert.InDelta(t, c.want.G, got.G, tol, "%v %v", c.d, c.in)
-		assert.InDelta(t, c.want.B, got.B, tol, "%v %v", c.d, c.in)
+		t.Run(fmt.Sprint(c.d, c.sev, c.in), func(t *testing.T) {
+			got := Simulate(c.d, c.sev, c.in)
+			assert.InDelta(t, c.want.R, got.R, tol, "%v %v", c.d, c.in)
+			assert.InDelta(t, c.want.G, got.G, tol, "%v %v", c.d, c.in)
+			assert.InDelta(t, c.want.B, got.B, tol, "%v %v", c.d, c.in)
+		})
 	}
 }
 
@@ -130,7 +133,9 @@ func TestMatricesCuloriConvention(t *testing.T) {
 		{Tritan, 0.6, "#0000ff", "#000fae"},
 		{Protan, 0, "#ff0000", "#ff0000"},
 	} {
-		assert.Equal(t, c.want, gamma(MachadoMatrix(c.d, c.sev), MustHex(c.in)), "%v %s", c.d, c.in)
+		t.Run(fmt.Sprint(c.d, c.sev, c.in), func(t *testing.T) {
+			assert.Equal(t, c.want, gamma(MachadoMatrix(c.d, c.sev), MustHex(c.in)), "%v %s", c.d, c.in)
+		})
 	}
 }
 
@@ -144,10 +149,12 @@ func TestSimulateLinearSelfCheck(t *testing.T) {
 		{"#e41a1c", "#645817", "#938208", "#fc0020"},
 		{"#808080", "#808080", "#808080", "#808080"},
 	} {
-		in := MustHex(c.in)
-		assert.Equal(t, c.p, Simulate(Protan, 1, in).Hex(), c.in)
-		assert.Equal(t, c.d, Simulate(Deutan, 1, in).Hex(), c.in)
-		assert.Equal(t, c.tr, Simulate(Tritan, 1, in).Hex(), c.in)
+		t.Run(c.in, func(t *testing.T) {
+			in := MustHex(c.in)
+			assert.Equal(t, c.p, Simulate(Protan, 1, in).Hex(), c.in)
+			assert.Equal(t, c.d, Simulate(Deutan, 1, in).Hex(), c.in)
+			assert.Equal(t, c.tr, Simulate(Tritan, 1, in).Hex(), c.in)
+		})
 	}
 }
 
@@ -167,10 +174,12 @@ func TestVienot(t *testing.T) {
 		{"#008000", "#797900", "#6d6d0f"},
 		{"#808080", "#808080", "#808080"},
 	} {
-		pm, _ := VienotMatrix(Protan)
-		dm, _ := VienotMatrix(Deutan)
-		assert.Equal(t, c.p, SimulateWith(&pm, MustHex(c.in)).Hex(), c.in)
-		assert.Equal(t, c.d, SimulateWith(&dm, MustHex(c.in)).Hex(), c.in)
+		t.Run(c.in, func(t *testing.T) {
+			pm, _ := VienotMatrix(Protan)
+			dm, _ := VienotMatrix(Deutan)
+			assert.Equal(t, c.p, SimulateWith(&pm, MustHex(c.in)).Hex(), c.in)
+			assert.Equal(t, c.d, SimulateWith(&dm, MustHex(c.in)).Hex(), c.in)
+		})
 	}
 }
 

@@ -1,6 +1,7 @@
 package colour
 
 import (
+	"fmt"
 	"math/rand"
 	"testing"
 
@@ -60,8 +61,10 @@ func TestDeltaE2000Sharma(t *testing.T) {
 	// rounding slack (colour-science uses atol 1e-4).
 	const tol = 1e-4
 	for i, p := range sharmaPairs {
-		assert.InDelta(t, p.want, DeltaE2000(p.x, p.y), tol, "pair %d", i+1)
-		assert.InDelta(t, p.want, DeltaE2000(p.y, p.x), tol, "pair %d reversed", i+1)
+		t.Run(fmt.Sprint("pair ", i+1), func(t *testing.T) {
+			assert.InDelta(t, p.want, DeltaE2000(p.x, p.y), tol, "pair %d", i+1)
+			assert.InDelta(t, p.want, DeltaE2000(p.y, p.x), tol, "pair %d reversed", i+1)
+		})
 	}
 }
 
@@ -81,8 +84,10 @@ func TestDeltaE76(t *testing.T) {
 		{Lab{84.25, 5.74, 96.00}, Lab{84.52, 5.75, 93.09}, 2.9225},
 		{Lab{84.25, 5.74, 96.00}, Lab{84.37, 5.86, 99.42}, 3.4242},
 	} {
-		// Values are published to 2–4 decimals.
-		assert.InDelta(t, c.want, DeltaE76(c.x, c.y), 5e-3+tol)
+		t.Run(fmt.Sprint(c.x, c.y), func(t *testing.T) {
+			// Values are published to 2–4 decimals.
+			assert.InDelta(t, c.want, DeltaE76(c.x, c.y), 5e-3+tol)
+		})
 	}
 }
 
@@ -97,8 +102,10 @@ func TestDeltaE2000SRGB(t *testing.T) {
 		{"#00beef", "#00beee", 0.28076037937072745},
 		{"#ffffff", "#000000", 100},
 	} {
-		got := DeltaE2000(SRGBToLab(MustHex(c.a)), SRGBToLab(MustHex(c.b)))
-		assert.InDelta(t, c.want, got, 0.01, "%s vs %s", c.a, c.b)
+		t.Run(c.a+" "+c.b, func(t *testing.T) {
+			got := DeltaE2000(SRGBToLab(MustHex(c.a)), SRGBToLab(MustHex(c.b)))
+			assert.InDelta(t, c.want, got, 0.01, "%s vs %s", c.a, c.b)
+		})
 	}
 }
 

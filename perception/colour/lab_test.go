@@ -1,6 +1,7 @@
 package colour
 
 import (
+	"fmt"
 	"math"
 	"testing"
 
@@ -22,10 +23,12 @@ func TestSRGBToLabCulori(t *testing.T) {
 		{"#000000", Lab{0, 0, 0}},
 		{"#ff0000", Lab{53.237115595429344, 80.09011352310385, 67.20326351172214}},
 	} {
-		got := SRGBToLab(MustHex(c.hex))
-		assert.InDelta(t, c.want.L, got.L, tol, c.hex)
-		assert.InDelta(t, c.want.A, got.A, tol, c.hex)
-		assert.InDelta(t, c.want.B, got.B, tol, c.hex)
+		t.Run(c.hex, func(t *testing.T) {
+			got := SRGBToLab(MustHex(c.hex))
+			assert.InDelta(t, c.want.L, got.L, tol, c.hex)
+			assert.InDelta(t, c.want.A, got.A, tol, c.hex)
+			assert.InDelta(t, c.want.B, got.B, tol, c.hex)
+		})
 	}
 }
 
@@ -58,10 +61,12 @@ func TestSRGBToLabOtherLibraries(t *testing.T) {
 		{"colorspacious", SRGB{0.2, 0.4, 0.6}, Lab{42.0099857768665, -0.147373964354935, -32.8445986139017}},
 	}
 	for _, c := range cases {
-		got := SRGBToLab(c.in)
-		assert.InDelta(t, c.want.L, got.L, tol, "%s %v L", c.src, c.in)
-		assert.InDelta(t, c.want.A, got.A, tol, "%s %v a", c.src, c.in)
-		assert.InDelta(t, c.want.B, got.B, tol, "%s %v b", c.src, c.in)
+		t.Run(c.src+" "+c.in.Hex(), func(t *testing.T) {
+			got := SRGBToLab(c.in)
+			assert.InDelta(t, c.want.L, got.L, tol, "%s %v L", c.src, c.in)
+			assert.InDelta(t, c.want.A, got.A, tol, "%s %v a", c.src, c.in)
+			assert.InDelta(t, c.want.B, got.B, tol, "%s %v b", c.src, c.in)
+		})
 	}
 }
 
@@ -78,10 +83,12 @@ func TestXYZToLabColourScience(t *testing.T) {
 		{XYZ{0.14222010, 0.23042768, 0.10495772}, Lab{55.11636304, -41.08791787, 30.91825778}},
 		{XYZ{0.07818780, 0.06157201, 0.28099326}, Lab{29.80565520, 20.01830466, -48.34913874}},
 	} {
-		got := XYZToLab(c.in)
-		assert.InDelta(t, c.want.L, got.L, tol)
-		assert.InDelta(t, c.want.A, got.A, tol)
-		assert.InDelta(t, c.want.B, got.B, tol)
+		t.Run(fmt.Sprint(c.in), func(t *testing.T) {
+			got := XYZToLab(c.in)
+			assert.InDelta(t, c.want.L, got.L, tol)
+			assert.InDelta(t, c.want.A, got.A, tol)
+			assert.InDelta(t, c.want.B, got.B, tol)
+		})
 	}
 }
 

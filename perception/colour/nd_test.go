@@ -1,6 +1,7 @@
 package colour
 
 import (
+	"fmt"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -21,11 +22,13 @@ func TestStone2014Derived(t *testing.T) {
 		{2, [3]float64{5.455, 6.110, 6.785}, [3]float64{8.728, 9.776, 10.856}, true},
 		{6, [3]float64{5.205, 5.597, 5.828}, [3]float64{8.328, 8.955, 9.325}, true},
 	} {
-		got50, got80 := Stone2014.ND(0.5, c.s), Stone2014.ND(0.8, c.s)
-		for i := 0; i < 3; i++ {
-			assert.InDelta(t, c.p50[i], got50[i], tol, "s=%v axis %d p=0.5", c.s, i)
-			assert.InDelta(t, c.p80[i], got80[i], tol, "s=%v axis %d p=0.8", c.s, i)
-		}
+		t.Run(fmt.Sprint(c.s), func(t *testing.T) {
+			got50, got80 := Stone2014.ND(0.5, c.s), Stone2014.ND(0.8, c.s)
+			for i := 0; i < 3; i++ {
+				assert.InDelta(t, c.p50[i], got50[i], tol, "s=%v axis %d p=0.5", c.s, i)
+				assert.InDelta(t, c.p80[i], got80[i], tol, "s=%v axis %d p=0.8", c.s, i)
+			}
+		})
 	}
 	// Below the tested 1/3° the model is clamped, not extrapolated.
 	assert.Equal(t, Stone2014.ND(0.5, 1.0/3), Stone2014.ND(0.5, 0.1))
@@ -44,10 +47,12 @@ func TestStone2014MeasuredSecondary(t *testing.T) {
 		{1, [3]float64{6.017, 6.897, 8.197}},
 		{2, [3]float64{5.010, 5.917, 6.831}},
 	} {
-		got := Stone2014.ND(0.5, c.s)
-		for i := 0; i < 3; i++ {
-			assert.InEpsilon(t, c.want[i], got[i], 0.12, "s=%v axis %d", c.s, i)
-		}
+		t.Run(fmt.Sprint(c.s), func(t *testing.T) {
+			got := Stone2014.ND(0.5, c.s)
+			for i := 0; i < 3; i++ {
+				assert.InEpsilon(t, c.want[i], got[i], 0.12, "s=%v axis %d", c.s, i)
+			}
+		})
 	}
 }
 
@@ -69,10 +74,12 @@ func TestSzafir2018Points(t *testing.T) {
 		{1.5, [3]float64{6.08, 6.87, 8.97}, 0.15},
 		{2.0, [3]float64{5.47, 6.84, 7.99}, 0.15},
 	} {
-		got := SzafirPoints.ND(0.5, c.s, 1)
-		for i := 0; i < 3; i++ {
-			assert.InEpsilon(t, c.want[i], got[i], c.tol, "s=%v axis %d", c.s, i)
-		}
+		t.Run(fmt.Sprint(c.s), func(t *testing.T) {
+			got := SzafirPoints.ND(0.5, c.s, 1)
+			for i := 0; i < 3; i++ {
+				assert.InEpsilon(t, c.want[i], got[i], c.tol, "s=%v axis %d", c.s, i)
+			}
+		})
 	}
 	// REFERENCES §6.2 (DERIVED): the inverse fit gives (8.38, 17.18, 22.03)
 	// at 0.25° and (5.59, 7.00, 8.88) at 2°.
@@ -98,10 +105,12 @@ func TestSzafir2018Lines(t *testing.T) {
 		{0.25, [3]float64{7.74, 9.39, 13.75}},
 		{0.35, [3]float64{6.92, 7.79, 11.05}},
 	} {
-		got := SzafirLines.ND(0.5, c.s, 1)
-		for i := 0; i < 3; i++ {
-			assert.InEpsilon(t, c.want[i], got[i], 0.20, "s=%v axis %d", c.s, i)
-		}
+		t.Run(fmt.Sprint(c.s), func(t *testing.T) {
+			got := SzafirLines.ND(0.5, c.s, 1)
+			for i := 0; i < 3; i++ {
+				assert.InEpsilon(t, c.want[i], got[i], 0.20, "s=%v axis %d", c.s, i)
+			}
+		})
 	}
 }
 

@@ -25,9 +25,11 @@ func TestContrastPublished(t *testing.T) {
 		{"#3366cc", "#000000", 3.9, 0.05, "WCAG technique G183, 1 decimal"},
 	}
 	for _, c := range cases {
-		got := ContrastRatio(MustHex(c.fg), MustHex(c.bg))
-		assert.InDelta(t, c.want, got, c.tol, "%s on %s (%s)", c.fg, c.bg, c.src)
-		assert.Equal(t, got, ContrastRatio(MustHex(c.bg), MustHex(c.fg)), "symmetric")
+		t.Run(c.fg+" on "+c.bg, func(t *testing.T) {
+			got := ContrastRatio(MustHex(c.fg), MustHex(c.bg))
+			assert.InDelta(t, c.want, got, c.tol, "%s on %s (%s)", c.fg, c.bg, c.src)
+			assert.Equal(t, got, ContrastRatio(MustHex(c.bg), MustHex(c.fg)), "symmetric")
+		})
 	}
 	// Understanding SC 1.4.11, purple checkbox: "5.6:1", which is truncated
 	// (the formula gives 5.699…).
