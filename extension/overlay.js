@@ -57,15 +57,17 @@
   // what the reader chose (preview vision, severity in tenths, scope); the
   // panel is drawn from it, never read back.
   const M = globalThis.standoutMachine;
+  // The view model: what the reader chose (preview vision, severity in
+  // tenths, scope; picking, and the picked marks as "chart path#snapshot
+  // node"). Only teardown resets it.
+  const initialView = () => ({ vision: 'off', tenths: 10, scope: 'charts', picking: false, picked: new Set() });
   const state = {
     machine: M.initial(),
-    view: { vision: 'off', tenths: 10, scope: 'charts' },
+    view: initialView(),
     host: null,
     root: null,
     panel: null,
     layers: new Map(), // path → {svg, entry, readBox, chart, highlight, selection}
-    picking: false,
-    picked: new Set(), // picked marks, as "chart path#snapshot node"
     catcher: null,
     observers: [],
     listeners: [],
@@ -77,6 +79,36 @@
   };
 
   const isOpen = () => M.isOpen(state.machine);
+
+  // setView changes the view model and shows it.
+  function setView(change) {
+    const before = state.view;
+    state.view = Object.assign({}, before, change);
+    const v = state.view;
+    renderView(v.vision !== before.vision || v.tenths !== before.tenths || v.scope !== before.scope);
+  }
+
+  // renderView is the one function that shows the view model: the panel's
+  // controls, the picking layer, the picked marks and, when it changed
+  // (or the charts were drawn anew), the CVD preview.
+  function renderView(previewChanged) {
+    const v = state.view;
+    const control = (a) => state.panel && state.panel.querySelector(`[data-action="${a}"]`);
+    const pick = control('pick');
+    if (pick) pick.setAttribute('aria-pressed', String(v.picking));
+    const cvd = control('cvd');
+    if (cvd) cvd.value = v.vision;
+    const sev = control('severity');
+    if (sev) {
+      sev.value = String(v.tenths);
+      sev.setAttribute('aria-valuetext', (v.tenths / 10).toFixed(1));
+    }
+    const scope = control('scope');
+    if (scope) scope.value = v.scope;
+    showCatcher(v.picking);
+    showSelection();
+    if (previewChanged) setPreview();
+  }
 
   // dispatch moves the machine on by one event and carries out the
   // effects it asks for; it returns the effects. payload is the answer to
@@ -255,7 +287,7 @@
     for (const [path, l] of state.layers) {
       const idx = [];
       l.chart.nodes.forEach((node, i) => {
-        if (state.picked.has(path + '#' + node)) idx.push(i);
+        if (state.view.picked.has(path + '#' + node)) idx.push(i);
       });
       l.selection.setAttribute('d', rectPath(l.chart, idx, l.readBox[0], l.readBox[1], 7));
     }
@@ -288,8 +320,8 @@
     panel.appendChild(key);
 
     const controls = el('div', { class: 'row' });
-    const pick = el('button', { type: 'button', 'aria-pressed': String(state.picking), 'data-action': 'pick' }, 'Pick the point of the chart');
-    on(pick, 'click', () => setPicking(!state.picking));
+    const pick = el('button', { type: 'button', 'aria-pressed': String(state.view.picking), 'data-action': 'pick' }, 'Pick the point of the chart');
+    on(pick, 'click', () => setView({ picking: !state.view.picking }));
     const apply = el('button', { type: 'button', 'data-action': 'check-emphasis' }, 'Check the picked marks');
     on(apply, 'click', () => rerun({ type: 'recheck' }));
     const close = el('button', { type: 'button', 'data-action': 'close' }, 'Close');
@@ -310,11 +342,7 @@
     for (const [v, t] of [['charts', 'the charts'], ['page', 'the whole page']]) {
       scope.appendChild(el('option', v === state.view.scope ? { value: v, selected: '' } : { value: v }, t));
     }
-    const update = () => {
-      state.view = { vision: sel.value, tenths: Number(sev.value), scope: scope.value };
-      sev.setAttribute('aria-valuetext', (state.view.tenths / 10).toFixed(1));
-      setPreview();
-    };
+    const update = () => setView({ vision: sel.value, tenths: Number(sev.value), scope: scope.value });
     on(sel, 'change', update);
     on(sev, 'input', update);
     on(scope, 'change', update);
@@ -374,11 +402,10 @@
 
   // ---------- picking ----------
 
-  function setPicking(picking) {
-    state.picking = picking;
-    const b = state.panel && state.panel.querySelector('[data-action="pick"]');
-    if (b) b.setAttribute('aria-pressed', String(picking));
-    if (picking && !state.catcher) {
+  // showCatcher puts the layer that takes the picking clicks over the
+  // page, or removes it.
+  function showCatcher(picking) {
+    if (picking && !state.catcher && state.root) {
       const c = el('div', { class: 'catcher', 'aria-hidden': 'true' });
       on(c, 'click', (ev) => {
         ev.preventDefault();
@@ -414,9 +441,10 @@
       }
     }
     if (best === null) return;
-    if (state.picked.has(best)) state.picked.delete(best);
-    else state.picked.add(best);
-    showSelection();
+    const picked = new Set(state.view.picked);
+    if (picked.has(best)) picked.delete(best);
+    else picked.add(best);
+    setView({ picked });
   }
 
   // ---------- re-running ----------
@@ -426,8 +454,8 @@
   // dropped; a worker that stops on the way is an error on the panel.
   async function rerun(ev = { type: 'recheck' }) {
     if (!dispatch(ev).includes('read')) return;
-    setPicking(false);
-    state.emphasis = [...state.picked];
+    setView({ picking: false });
+    state.emphasis = [...state.view.picked];
     const seq = state.machine.seq;
     let resp;
     try {
@@ -678,9 +706,8 @@
     state.panel.replaceWith(panel);
     state.panel = panel;
     drawLayers(result.report.pages[0]);
-    showSelection();
-    // The preview follows the view, over the charts as they now are.
-    if (state.view.vision !== 'off') setPreview();
+    // The view, the preview included, over the charts as they now are.
+    renderView(true);
     result.timing.renderMs = performance.now() - t0;
     state.host.setAttribute('data-timing', JSON.stringify(result.timing));
     panel.setAttribute('tabindex', '-1');
@@ -716,11 +743,9 @@
     state.root = null;
     state.panel = null;
     state.layers.clear();
-    state.picked.clear();
     state.emphasis = [];
-    state.picking = false;
     state.catcher = null;
-    state.view = { vision: 'off', tenths: 10, scope: 'charts' };
+    state.view = initialView();
   }
 
   // read reads the page for the core: the read pass's result as one JSON
