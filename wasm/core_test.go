@@ -6,6 +6,7 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"runtime"
 	"strings"
 	"testing"
 
@@ -13,6 +14,8 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"standout/internal/report"
+	"standout/internal/testkit"
+	"standout/snapshot"
 	"standout/static"
 )
 
@@ -99,22 +102,42 @@ func TestDigestMatchesReport(t *testing.T) {
 	require.NotNil(t, lite.Overlay)
 	assert.Nil(t, lite.Report)
 	assert.Empty(t, lite.Markdown, "the Markdown is made on export")
+	require.NotEmpty(t, lite.Overlay.Pages[0].Charts[0].Findings)
+	digestMatchesReport(t, p.Charts, full, lite)
+}
+
+// digestMatchesReport checks that the overlay's digest of a page says what
+// the full report says of every mark, finding and emphasis.
+func digestMatchesReport(t *testing.T, snaps []snapshot.Snapshot, full, lite Response) {
+	t.Helper()
+	require.True(t, full.OK, full.Error)
+	require.True(t, lite.OK, lite.Error)
 	fp, lp := full.Report.Pages[0], lite.Overlay.Pages[0]
 	assert.Equal(t, fp.Source, lp.Source)
 	assert.Equal(t, fp.Problems, lp.Problems)
-	fc, lc := fp.Charts[0], lp.Charts[0]
-	require.Len(t, lc.Nodes, len(fc.Marks))
+	require.Len(t, lp.Charts, len(fp.Charts))
+	for ci, fc := range fp.Charts {
+		t.Run(fc.Path, func(t *testing.T) {
+			chartDigestMatches(t, snaps[ci], fc, lp.Charts[ci])
+		})
+	}
+}
+
+// chartDigestMatches compares one chart's digest with its report.
+func chartDigestMatches(t *testing.T, snap snapshot.Snapshot, fc report.Chart, lc report.DigestChart) {
 	// The node of each mark is the node its id names.
-	nodeName := func(k int) string { return p.Charts[0].Nodes[lc.Nodes[k]].Name }
+	nodeName := func(k int) string { return snap.Nodes[lc.Nodes[k]].Name }
+	require.Len(t, lc.Nodes, len(fc.Marks))
 	require.Len(t, lc.Boxes, 4*len(fc.Marks))
 	require.Len(t, lc.Verdicts, len(fc.Marks))
 	for i, m := range fc.Marks {
 		assert.Equal(t, m.ID, nodeName(i))
 		assert.Equal(t, m.BBox[:], lc.Boxes[4*i:4*i+4])
-		assert.Equal(t, m.Verdict[:1], lc.Verdicts[i:i+1])
+		if fc.IsChart {
+			assert.Equal(t, m.Verdict[:1], lc.Verdicts[i:i+1])
+		}
 	}
 	require.Len(t, lc.Findings, len(fc.Findings))
-	require.NotEmpty(t, lc.Findings)
 	for i, f := range fc.Findings {
 		g := lc.Findings[i]
 		assert.Equal(t, []any{f.ID, f.Severity, f.Message}, []any{g.ID, g.Severity, g.Message})
@@ -128,14 +151,49 @@ func TestDigestMatchesReport(t *testing.T) {
 			assert.Equal(t, report.DigestFix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Verified: f.Fix.Verified}, *g.Fix)
 		}
 	}
+	if fc.Emphasis == nil {
+		assert.Nil(t, lc.Emphasis)
+		return
+	}
 	require.NotNil(t, lc.Emphasis)
 	var em []string
 	for _, k := range lc.Emphasis.Marks {
 		em = append(em, nodeName(k))
 	}
-	assert.Equal(t, fc.Emphasis.Marks, em)
+	assert.Equal(t, fc.Emphasis.Marks, nonNilStrings(em))
 	assert.Equal(t, fc.Emphasis.Holds, lc.Emphasis.Holds)
 	assert.Equal(t, fc.Emphasis.Inferred, lc.Emphasis.Inferred)
+}
+
+func nonNilStrings(s []string) []string {
+	if s == nil {
+		return []string{}
+	}
+	return s
+}
+
+// The digest is cut from the same analysis as the report on every test
+// page and corpus chart.
+func TestDigestMatchesReportOnEveryChart(t *testing.T) {
+	if testing.Short() || runtime.GOOS == "js" {
+		t.Skip("analyses every test page and corpus chart twice")
+	}
+	corpus, _ := filepath.Glob(filepath.Join(testkit.Corpus(t), "*", "*.svg"))
+	for _, f := range append(testkit.Pages(t), corpus...) {
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			data, err := os.ReadFile(f)
+			require.NoError(t, err)
+			p, err := static.Build(strings.NewReader(string(data)), static.Options{Source: f})
+			require.NoError(t, err)
+			page, err := json.Marshal(map[string]any{"source": f, "snapshots": p.Charts, "problems": p.Problems})
+			require.NoError(t, err)
+			var full, lite Response
+			require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse","full":true}`), page), &full))
+			require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), page), &lite))
+			digestMatchesReport(t, p.Charts, full, lite)
+		})
+	}
+
 }
 
 func TestParseOptionsMatchesEncodingJSON(t *testing.T) {
