@@ -81,7 +81,12 @@ func Constants() []byte {
 		fmt.Fprintf(&b, "    Object.freeze({ verdict: %q, letter: %q, colour: %q, width: %s, dash: %q, corner: %q, halo: %t, words: %q }),\n",
 			s.Verdict, s.Letter, s.Colour, strconv.FormatFloat(s.Width, 'g', -1, 64), strings.Join(dash, " "), s.Corner, s.Halo, s.Words)
 	}
-	b.WriteString("  ]),\n});\n")
+	b.WriteString("  ]),\n")
+	b.WriteString("  // The panel's palette (internal/report/look.go).\n")
+	in := report.Ink
+	fmt.Fprintf(&b, "  INK: Object.freeze({ ink: %q, paper: %q, wash: %q, rule: %q, quiet: %q, focus: %q, highlight: %q, alert: %q }),\n",
+		in.Ink, in.Paper, in.Wash, in.Rule, in.Quiet, in.Focus, in.Highlight, in.Alert)
+	b.WriteString("});\n")
 	return b.Bytes()
 }
 

@@ -43,8 +43,10 @@ globalThis.standoutConstants = Object.freeze({
   }),
   // The verdicts' styles (internal/report/look.go), strongest first.
   VERDICTS: Object.freeze([
-    Object.freeze({ verdict: "pops", letter: "p", colour: "#0f766e", width: 2.5, dash: "", corner: "notch", halo: true, words: "stands out at a glance" }),
-    Object.freeze({ verdict: "conjunction", letter: "c", colour: "#b45309", width: 2, dash: "7 3", corner: "ring", halo: true, words: "found only by a slow search (a conjunction of features)" }),
-    Object.freeze({ verdict: "blends", letter: "b", colour: "#52525b", width: 1, dash: "", corner: "", halo: false, words: "blends in" }),
+    Object.freeze({ verdict: "pops", letter: "p", colour: "#0d5e6e", width: 2.5, dash: "", corner: "notch", halo: true, words: "stands out at a glance" }),
+    Object.freeze({ verdict: "conjunction", letter: "c", colour: "#a34a0c", width: 2, dash: "7 3", corner: "ring", halo: true, words: "found only by a slow search (a conjunction of features)" }),
+    Object.freeze({ verdict: "blends", letter: "b", colour: "#5b5866", width: 1, dash: "", corner: "", halo: false, words: "blends in" }),
   ]),
+  // The panel's palette (internal/report/look.go).
+  INK: Object.freeze({ ink: "#1d1b24", paper: "#ffffff", wash: "#f2f0ec", rule: "#d7d3cc", quiet: "#46424f", focus: "#2a58a6", highlight: "#23498b", alert: "#a32530" }),
 });

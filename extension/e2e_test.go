@@ -738,19 +738,21 @@ func TestE2EExportMarkdownAndPNG(t *testing.T) {
 	// The chart (240 × 120) with a 10 px margin, outlines included.
 	assert.InDelta(t, 260, img.Bounds().Dx(), 4)
 	assert.InDelta(t, 140, img.Bounds().Dy(), 4)
-	// The popping bar's solid outline colour (#0f766e) is in the picture,
-	// within the anti-aliasing of the page's rendering.
-	teal := 0
-	near := func(v uint32, want int) bool { return math.Abs(float64(int(v>>8)-want)) <= 24 }
+	// The popping bar's solid outline colour (report.VerdictStyles) is in
+	// the picture, within the anti-aliasing of the page's rendering.
+	pops := colour.MustHex(report.StyleOf("pops").Colour)
+	pr, pg, pb := pops.RGB8()
+	outline := 0
+	near := func(v uint32, want uint8) bool { return math.Abs(float64(int(v>>8)-int(want))) <= 24 }
 	for y := 0; y < img.Bounds().Dy(); y++ {
 		for x := 0; x < img.Bounds().Dx(); x++ {
 			r, g, b, _ := img.At(x, y).RGBA()
-			if near(r, 0x0f) && near(g, 0x76) && near(b, 0x6e) {
-				teal++
+			if near(r, pr) && near(g, pg) && near(b, pb) {
+				outline++
 			}
 		}
 	}
-	assert.Greater(t, teal, 50)
+	assert.Greater(t, outline, 50)
 }
 
 func TestE2ESiblingStyleSharing(t *testing.T) {

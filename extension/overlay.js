@@ -23,32 +23,33 @@
     VERDICT_OF[v.letter] = v.verdict;
   }
 
+  const INK = globalThis.standoutConstants.INK;
   const CSS = `
   :host { all: initial; }
   .layer { position: absolute; overflow: visible; pointer-events: none; }
   .panel { position: fixed; top: 12px; right: 12px; width: 360px; max-height: calc(100vh - 24px); overflow: auto;
-    background: #ffffff; color: #18181b; font: 13px/1.45 system-ui, sans-serif; border: 2px solid #18181b;
+    background: ${INK.paper}; color: ${INK.ink}; font: 13px/1.45 system-ui, sans-serif; border: 2px solid ${INK.ink};
     border-radius: 6px; box-shadow: 0 4px 18px rgba(0,0,0,.25); pointer-events: auto; padding: 10px 12px; }
   .panel h1 { font-size: 15px; margin: 0 0 6px; }
   .panel h2 { font-size: 13px; margin: 10px 0 4px; }
   .panel p { margin: 4px 0; }
   .panel button, .panel select, .panel input { font: inherit; pointer-events: auto; }
-  .panel button { border: 1px solid #18181b; background: #f4f4f5; border-radius: 4px; padding: 2px 8px; cursor: pointer; }
-  .panel button[aria-pressed="true"] { background: #18181b; color: #fff; }
-  .panel button:focus-visible, .panel select:focus-visible, .panel input:focus-visible, .finding:focus-visible { outline: 3px solid #2563eb; outline-offset: 1px; }
+  .panel button { border: 1px solid ${INK.ink}; background: ${INK.wash}; border-radius: 4px; padding: 2px 8px; cursor: pointer; }
+  .panel button[aria-pressed="true"] { background: ${INK.ink}; color: ${INK.paper}; }
+  .panel button:focus-visible, .panel select:focus-visible, .panel input:focus-visible, .finding:focus-visible { outline: 3px solid ${INK.focus}; outline-offset: 1px; }
   .row { display: flex; flex-wrap: wrap; gap: 6px; align-items: center; margin: 6px 0; }
   .findings { list-style: none; padding: 0; margin: 4px 0; }
-  .finding { display: block; width: 100%; text-align: left; border: 1px solid #d4d4d8; background: #fff; border-radius: 4px;
+  .finding { display: block; width: 100%; text-align: left; border: 1px solid ${INK.rule}; background: ${INK.paper}; border-radius: 4px;
     padding: 4px 6px; margin: 3px 0; cursor: default; }
   .finding .sev { font-weight: 700; text-transform: uppercase; font-size: 11px; margin-right: 4px; }
-  .finding[data-sev="error"] { border-left: 5px solid #18181b; }
-  .finding[data-sev="warning"] { border-left: 5px dashed #18181b; }
-  .finding[data-sev="info"] { border-left: 5px dotted #18181b; }
-  code { font: 12px ui-monospace, monospace; background: #f4f4f5; padding: 1px 3px; border-radius: 3px; }
+  .finding[data-sev="error"] { border-left: 5px solid ${INK.ink}; }
+  .finding[data-sev="warning"] { border-left: 5px dashed ${INK.ink}; }
+  .finding[data-sev="info"] { border-left: 5px dotted ${INK.ink}; }
+  code { font: 12px ui-monospace, monospace; background: ${INK.wash}; padding: 1px 3px; border-radius: 3px; }
   .key svg { vertical-align: middle; }
-  .caution { font-size: 11px; color: #3f3f46; border-top: 1px solid #d4d4d8; margin-top: 8px; padding-top: 6px; }
+  .caution { font-size: 11px; color: ${INK.quiet}; border-top: 1px solid ${INK.rule}; margin-top: 8px; padding-top: 6px; }
   .catcher { position: fixed; inset: 0; pointer-events: auto; cursor: crosshair; background: transparent; }
-  .error { border-color: #b91c1c; }
+  .error { border-color: ${INK.alert}; }
   @media (prefers-reduced-motion: reduce) { * { transition: none !important; animation: none !important; } }
   `;
 
@@ -231,18 +232,18 @@
         if (!groups[v].length) continue;
         const st = STYLE[v];
         const d = rectPath(c, groups[v], readBox[0], readBox[1], 1.5);
-        if (st.halo) svg.appendChild(svgEl('path', { d, fill: 'none', stroke: '#ffffff', 'stroke-width': st.width + 2.5, 'stroke-linejoin': 'round' }));
+        if (st.halo) svg.appendChild(svgEl('path', { d, fill: 'none', stroke: INK.paper, 'stroke-width': st.width + 2.5, 'stroke-linejoin': 'round' }));
         const p = svgEl('path', { d, fill: 'none', stroke: st.colour, 'stroke-width': st.width, 'stroke-linejoin': 'round', 'data-verdict': v });
         if (st.dash) p.setAttribute('stroke-dasharray', st.dash);
         svg.appendChild(p);
         if (st.corner === 'notch') {
-          svg.appendChild(svgEl('path', { d: cornerPath(c, groups[v], readBox[0], readBox[1], 'notch'), fill: st.colour, stroke: '#ffffff', 'stroke-width': 1 }));
+          svg.appendChild(svgEl('path', { d: cornerPath(c, groups[v], readBox[0], readBox[1], 'notch'), fill: st.colour, stroke: INK.paper, 'stroke-width': 1 }));
         } else if (st.corner === 'ring') {
-          svg.appendChild(svgEl('path', { d: cornerPath(c, groups[v], readBox[0], readBox[1], 'ring'), fill: '#ffffff', stroke: st.colour, 'stroke-width': 2 }));
+          svg.appendChild(svgEl('path', { d: cornerPath(c, groups[v], readBox[0], readBox[1], 'ring'), fill: INK.paper, stroke: st.colour, 'stroke-width': 2 }));
         }
       }
-      const highlight = svgEl('path', { d: '', fill: 'none', stroke: '#1d4ed8', 'stroke-width': 4, 'stroke-dasharray': '2 2' });
-      const selection = svgEl('path', { d: '', fill: 'none', stroke: '#18181b', 'stroke-width': 3, 'stroke-dasharray': '10 2 2 2' });
+      const highlight = svgEl('path', { d: '', fill: 'none', stroke: INK.highlight, 'stroke-width': 4, 'stroke-dasharray': '2 2' });
+      const selection = svgEl('path', { d: '', fill: 'none', stroke: INK.ink, 'stroke-width': 3, 'stroke-dasharray': '10 2 2 2' });
       svg.append(highlight, selection);
       state.root.insertBefore(svg, state.panel);
       state.layers.set(c.path, { svg, entry, readBox, chart: c, highlight, selection });
@@ -302,7 +303,7 @@
     if (st.dash) r.setAttribute('stroke-dasharray', st.dash);
     s.appendChild(r);
     if (st.corner === 'notch') s.appendChild(svgEl('path', { d: 'M20,5l7,0l-7,7Z', fill: st.colour }));
-    if (st.corner === 'ring') s.appendChild(svgEl('circle', { cx: 21, cy: 5, r: 3.5, fill: '#fff', stroke: st.colour, 'stroke-width': 2 }));
+    if (st.corner === 'ring') s.appendChild(svgEl('circle', { cx: 21, cy: 5, r: 3.5, fill: INK.paper, stroke: st.colour, 'stroke-width': 2 }));
     return s;
   }
 

@@ -25,6 +25,7 @@ import (
 	"standout/internal/demo"
 	"standout/internal/report"
 	"standout/internal/testkit"
+	"standout/perception/colour"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files")
@@ -189,19 +190,20 @@ func TestMarkdownAndPNGGolden(t *testing.T) {
 		}
 	}
 	assert.LessOrEqual(t, bad, 5, "sampled pixels off the golden PNG")
-	// The outline of the emphasised bar (it pops) is drawn in the overlay's
-	// solid teal.
-	var teal int
+	// The outline of the emphasised bar (it pops) is drawn in the style
+	// the overlay draws it in (report.VerdictStyles).
+	pr, pg, pb := colour.MustHex(report.StyleOf("pops").Colour).RGB8()
+	var outline int
 	bb := img.Bounds()
 	for y := bb.Min.Y; y < bb.Max.Y; y++ {
 		for x := bb.Min.X; x < bb.Max.X; x++ {
 			r, g, b, _ := img.At(x, y).RGBA()
-			if r>>8 == 0x0f && g>>8 == 0x76 && b>>8 == 0x6e {
-				teal++
+			if uint8(r>>8) == pr && uint8(g>>8) == pg && uint8(b>>8) == pb {
+				outline++
 			}
 		}
 	}
-	assert.Greater(t, teal, 100)
+	assert.Greater(t, outline, 100)
 }
 
 func decodePNG(t *testing.T, p string) image.Image {

@@ -112,7 +112,7 @@ func TestDemo(t *testing.T) {
 	code, out, errs := runCmd("demo", "--static")
 	require.Equal(t, 0, code, errs)
 	// The invented page holds a deutan collapse and a low-contrast series.
-	assert.Contains(t, out, "For deutan readers #c0392b and #3f9b3a look the same")
+	assert.Contains(t, out, "For deutan readers #b8432e and #3f9b3a look the same")
 	assert.Contains(t, out, "need 3:1")
 	assert.Contains(t, out, "pops out at a glance")
 	// Every kind of finding the demo is built to show.
@@ -132,7 +132,7 @@ func TestDemoInBrowser(t *testing.T) {
 	code, out, errs := runCmd("demo")
 	require.Equal(t, 0, code, errs)
 	assert.Contains(t, out, "read as rendered in headless Chromium")
-	assert.Contains(t, out, "For deutan readers #c0392b and #3f9b3a look the same")
+	assert.Contains(t, out, "For deutan readers #b8432e and #3f9b3a look the same")
 	assert.Contains(t, out, "can be found only as a combination")
 }
 

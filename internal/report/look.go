@@ -30,11 +30,11 @@ type VerdictStyle struct {
 
 // VerdictStyles are the verdicts' styles, the strongest first.
 var VerdictStyles = []VerdictStyle{
-	{Verdict: "pops", Letter: "p", Colour: "#0f766e", Width: 2.5, Corner: "notch", Halo: true,
+	{Verdict: "pops", Letter: "p", Colour: "#0d5e6e", Width: 2.5, Corner: "notch", Halo: true,
 		Words: "stands out at a glance"},
-	{Verdict: "conjunction", Letter: "c", Colour: "#b45309", Width: 2, Dash: []float64{7, 3}, Corner: "ring", Halo: true,
+	{Verdict: "conjunction", Letter: "c", Colour: "#a34a0c", Width: 2, Dash: []float64{7, 3}, Corner: "ring", Halo: true,
 		Words: "found only by a slow search (a conjunction of features)"},
-	{Verdict: "blends", Letter: "b", Colour: "#52525b", Width: 1,
+	{Verdict: "blends", Letter: "b", Colour: "#5b5866", Width: 1,
 		Words: "blends in"},
 }
 
@@ -47,4 +47,21 @@ func StyleOf(verdict string) VerdictStyle {
 		}
 	}
 	return VerdictStyles[len(VerdictStyles)-1]
+}
+
+// Ink is the panel's palette, Standout's own: dark ink on warm paper, a
+// blue for focus and for the finding under the pointer, a red for errors.
+// Every text colour meets WCAG 2.x SC 1.4.3 (4.5:1) on Paper and Wash, and
+// Focus meets SC 1.4.11 (3:1) against both (TestInkContrast).
+var Ink = struct {
+	Ink, Paper, Wash, Rule, Quiet, Focus, Highlight, Alert string
+}{
+	Ink:       "#1d1b24", // text, borders, the pressed button
+	Paper:     "#ffffff", // the panel, halos behind outlines
+	Wash:      "#f2f0ec", // buttons and code
+	Rule:      "#d7d3cc", // thin separators
+	Quiet:     "#46424f", // the caution's small print
+	Focus:     "#2a58a6", // keyboard focus
+	Highlight: "#23498b", // the marks of the finding under the pointer
+	Alert:     "#a32530", // the error panel's border
 }

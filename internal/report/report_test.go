@@ -5,6 +5,7 @@ import (
 	"os"
 	"path/filepath"
 	"standout/internal/testkit"
+	"standout/perception/colour"
 	"standout/static"
 	"strings"
 	"testing"
@@ -61,4 +62,26 @@ func checkFile(name string, data []byte, opt Options) (Page, error) {
 	}
 	p, err := FromSnapshots(name, page.Charts, page.Problems, opt)
 	return p, err
+}
+
+func TestInkContrast(t *testing.T) {
+	// WCAG 2.x SC 1.4.3 (4.5:1 for text) and SC 1.4.11 (3:1 for focus
+	// indicators and graphics), with the contrast ratio of
+	// perception/colour (checked there against the W3C's worked values).
+	bgs := []string{Ink.Paper, Ink.Wash}
+	for _, bg := range bgs {
+		for name, fg := range map[string]string{"Ink": Ink.Ink, "Quiet": Ink.Quiet, "Alert": Ink.Alert} {
+			t.Run(name+" on "+bg, func(t *testing.T) {
+				assert.GreaterOrEqual(t, colour.ContrastRatio(colour.MustHex(fg), colour.MustHex(bg)), 4.5)
+			})
+		}
+		for name, fg := range map[string]string{"Focus": Ink.Focus, "Highlight": Ink.Highlight, "pops": StyleOf("pops").Colour,
+			"conjunction": StyleOf("conjunction").Colour, "blends": StyleOf("blends").Colour} {
+			t.Run(name+" on "+bg, func(t *testing.T) {
+				assert.GreaterOrEqual(t, colour.ContrastRatio(colour.MustHex(fg), colour.MustHex(bg)), 3.0)
+			})
+		}
+	}
+	// The pressed button's text: Paper on Ink.
+	assert.GreaterOrEqual(t, colour.ContrastRatio(colour.MustHex(Ink.Paper), colour.MustHex(Ink.Ink)), 4.5)
 }
