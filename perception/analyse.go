@@ -113,7 +113,7 @@ func (res *Result) judgeVision(in Input, p *Params, keys []string, vi int, only 
 				continue
 			}
 		}
-		d := newDisplayShared(p, in.Marks, idx, Visions[vi], p.Severity, res.shares[k])
+		d := newDisplayShared(p, in.Marks, idx, in.Background, Visions[vi], p.Severity, res.shares[k])
 		d.nb, d.reuse = res.nbs[k], res.reuse[k]
 		if targets != nil {
 			for t, r := range d.judgeSome(targets) {

@@ -247,7 +247,7 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 		targets = append(targets, pos[i])
 	}
 	for _, v := range Visions {
-		d := newDisplayShared(&p, marks, idx, v, p.Severity, sh)
+		d := newDisplayShared(&p, marks, idx, in.Background, v, p.Severity, sh)
 		d.nb, d.reuse = nb, reuse
 		if reuse.have {
 			for _, r := range d.judgeSome(targets) {

@@ -49,6 +49,14 @@ type Params struct {
 	// Provisional.
 	SmallGroupFraction float64
 	SmallGroupMin      int
+	// GroundMargin is how far, in noticeable differences at the mark's
+	// size (Szafir 2018's 50% discrimination threshold), a mark's fill or
+	// outline must stand from the chart's background for the mark to be
+	// seen at all: a mark the reader cannot tell from its ground cannot
+	// pop out, however much it differs from the other marks. One
+	// noticeable difference is the threshold itself; provisional as a
+	// margin.
+	GroundMargin float64
 	// Neighbours is how many nearest marks form the local surround
 	// (Nothdurft 1993: local feature contrast). Provisional.
 	Neighbours int
@@ -99,6 +107,7 @@ var DefaultParams = Params{
 	ShapeMargin:        1,
 	SmallGroupFraction: 0.1,
 	SmallGroupMin:      3,
+	GroundMargin:       1,
 	Neighbours:         8,
 	ProximityRatio:     2,
 	ConnectTolerancePx: 1.5,

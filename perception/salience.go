@@ -94,6 +94,9 @@ type display struct {
 	ori   []float64 // orientation in steps
 	oriP  float64   // circular period in steps; 0 = no orientation channel
 	small int
+	bg    colour.Lab // the background, under the display's vision
+	v     colour.Deficiency
+	sev   float64
 	nb    [][]int // spatial neighbours, shared across vision types
 	reuse *reuseData
 	bins  []colourBin // colourBins' bins, once computed
@@ -149,8 +152,9 @@ type shared struct {
 // newDisplayShared prepares the marks idx of all (the marks of one kind)
 // under vision v, taking what does not depend on the vision type from sh
 // when an earlier vision type computed it.
-func newDisplayShared(p *Params, all []Mark, idx []int, v colour.Deficiency, severity float64, sh *shared) *display {
-	d := &display{p: p, idx: idx, all: all}
+func newDisplayShared(p *Params, all []Mark, idx []int, bg colour.SRGB, v colour.Deficiency, severity float64, sh *shared) *display {
+	d := &display{p: p, idx: idx, all: all, v: v, sev: severity,
+		bg: colour.SRGBToLab(colour.Simulate(v, severity, bg))}
 	n := len(idx)
 	if sh != nil && sh.cols != nil {
 		d.cols = sh.cols
@@ -211,6 +215,19 @@ func newDisplayShared(p *Params, all []Mark, idx []int, v colour.Deficiency, sev
 	// majority, whatever the fraction says.
 	d.small = min(int(max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n)))), (n-1)/2)
 	return d
+}
+
+// seen says whether mark k stands from the background by GroundMargin
+// noticeable differences, by its fill or, when it has one, its outline.
+func (d *display) seen(k int) bool {
+	if colour.NDUnits(d.lab[k], d.bg, d.nd[k]) >= d.p.GroundMargin {
+		return true
+	}
+	m := &d.all[d.idx[k]]
+	if !m.HasOutline {
+		return false
+	}
+	return colour.NDUnits(colour.SRGBToLab(colour.Simulate(d.v, d.sev, m.Outline)), d.bg, d.nd[k]) >= d.p.GroundMargin
 }
 
 // dist is the distance between marks a and b in channel c, in steps, using

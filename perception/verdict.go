@@ -81,6 +81,9 @@ type judging struct {
 func (j *judging) one(k int) MarkResult {
 	d := j.d
 	r := MarkResult{}
+	if !d.seen(k) {
+		return r // a mark the reader cannot tell from its ground cannot pop
+	}
 	for ci, c := range Channels {
 		switch {
 		case j.reuse && !colourChannel(ci):
@@ -250,7 +253,7 @@ func (d *display) conjunctions(res []MarkResult, stats *[nChannels]channelStats)
 	}
 	sort.Ints(reps)
 	for _, g := range groups {
-		if len(g) > d.small || len(g) >= n || res[g[0]].Verdict == Pops {
+		if len(g) > d.small || len(g) >= n || res[g[0]].Verdict == Pops || !d.seen(g[0]) {
 			continue
 		}
 		k := g[0]
