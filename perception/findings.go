@@ -83,6 +83,7 @@ func findings(in Input, p Params, res *Result) []Finding {
 	var out []Finding
 	out = append(out, emphasisFindings(in, p, res)...)
 	out = append(out, contrastFindings(in)...)
+	out = append(out, adjacentFindings(in)...)
 	out = append(out, categoryFindings(in, p, res)...)
 	out = append(out, groupingFindings(res)...)
 	slices.SortStableFunc(out, func(a, b Finding) int { return cmp.Compare(b.Severity.Rank(), a.Severity.Rank()) })
@@ -151,21 +152,43 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 	return out
 }
 
+// largeText says whether a text mark is large-scale text for WCAG 2.x
+// SC 1.4.3: at least 18 pt (24 CSS px). Text of 14 pt bold is large too,
+// but the snapshot does not carry the font weight, so bold text between
+// 18.66 and 24 px is held to the stricter 4.5:1.
+func largeText(m *Mark) bool { return m.Size >= 24 }
+
 func contrastFindings(in Input) []Finding {
-	type agg struct {
-		marks []int
-		cr    float64
-		text  bool
+	low, keys := lowContrast(in)
+	out := make([]Finding, 0, len(keys))
+	for _, k := range keys {
+		out = append(out, low[k].finding(k))
 	}
-	// Marks are grouped by their colour as CSS writes it (8-bit hex).
-	type key [3]uint8
-	low := map[key]*agg{}
-	var keys []key
+	return out
+}
+
+// contrastKey groups marks by their colour as CSS writes it (8-bit hex)
+// and, for text, by whether it is large (1 text, 2 large text).
+type contrastKey [4]uint8
+
+// lowGroup is the marks of one key below their contrast threshold.
+type lowGroup struct {
+	marks []int
+	cr    float64
+	text  bool
+	large bool
+}
+
+// lowContrast finds the marks below the contrast their kind needs against
+// the background: 3:1 for graphics (SC 1.4.11), 4.5:1 for text and 3:1
+// for large text (SC 1.4.3). Heat-map cells are exempt as essential.
+func lowContrast(in Input) (map[contrastKey]*lowGroup, []contrastKey) {
 	type known struct {
 		cr float64
-		k  key
+		k  contrastKey
 	}
 	cache := map[colour.SRGB]known{}
+	// Neighbouring marks often repeat a colour: the last one is at hand.
 	var lastC colour.SRGB
 	var last known
 	lookup := func(c colour.SRGB) known {
@@ -175,52 +198,73 @@ func contrastFindings(in Input) []Finding {
 		v, ok := cache[c]
 		if !ok {
 			r, g, b := c.RGB8()
-			v = known{colour.ContrastRatio(c, in.Background), key{r, g, b}}
+			v = known{colour.ContrastRatio(c, in.Background), contrastKey{r, g, b, 0}}
 			cache[c] = v
 		}
 		lastC, last = c, v
 		return v
 	}
-	ratio := func(c colour.SRGB) float64 { return lookup(c).cr }
-	for i, m := range in.Marks {
+	low := map[contrastKey]*lowGroup{}
+	var keys []contrastKey
+	for i := range in.Marks {
+		m := &in.Marks[i]
 		if m.Kind == "cell" {
-			continue // heat maps fall under the "essential" exception of SC 1.4.11
+			continue
 		}
-		cr := ratio(m.Colour)
+		cr := lookup(m.Colour).cr
 		if m.HasOutline {
-			cr = max(cr, ratio(m.Outline))
+			cr = max(cr, lookup(m.Outline).cr)
 		}
+		text, large := m.Kind == "text", m.Kind == "text" && largeText(m)
 		need := colour.NonTextContrast
-		if m.Kind == "text" {
+		switch {
+		case large:
+			need = colour.LargeTextContrast
+		case text:
 			need = colour.TextContrast
 		}
 		if cr >= need {
 			continue
 		}
 		k := lookup(m.Colour).k
+		if text {
+			k[3] = 1 + boolByte(large)
+		}
 		a, ok := low[k]
 		if !ok {
-			a = &agg{cr: cr, text: m.Kind == "text"}
+			a = &lowGroup{cr: cr, text: text, large: large}
 			low[k] = a
 			keys = append(keys, k)
 		}
 		a.marks = append(a.marks, i)
 	}
-	var out []Finding
-	for _, k := range keys {
-		a := low[k]
-		h := colour.SRGB8(k[0], k[1], k[2]).Hex()
-		if a.text {
-			out = append(out, Finding{ID: "text-contrast-low", Severity: Warning, Marks: a.marks,
-				Message: itoa(len(a.marks)) + " text " + plural(len(a.marks), "mark", "marks") + " in " + h + " " + plural(len(a.marks), "has", "have") + " " + ff(math.Floor(a.cr*100)/100, 2) + ":1 against the background; text needs 4.5:1.",
-				Source:  srcText})
-			continue
-		}
-		out = append(out, Finding{ID: "mark-contrast-low", Severity: Error, Marks: a.marks,
-			Message: itoa(len(a.marks)) + " " + plural(len(a.marks), "mark", "marks") + " in " + h + " " + plural(len(a.marks), "has", "have") + " only " + ff(math.Floor(a.cr*100)/100, 2) + ":1 against the background; graphics needed to understand a chart need 3:1.",
-			Source:  srcContrast})
+	return low, keys
+}
+
+func boolByte(b bool) uint8 {
+	if b {
+		return 1
 	}
-	return out
+	return 0
+}
+
+// finding states a group's low contrast.
+func (a *lowGroup) finding(k contrastKey) Finding {
+	h := colour.SRGB8(k[0], k[1], k[2]).Hex()
+	n := len(a.marks)
+	cr := ff(math.Floor(a.cr*100)/100, 2)
+	if a.text {
+		need := "text needs 4.5:1"
+		if a.large {
+			need = "large text (24 px and over) needs 3:1"
+		}
+		return Finding{ID: "text-contrast-low", Severity: Warning, Marks: a.marks,
+			Message: itoa(n) + " text " + plural(n, "mark", "marks") + " in " + h + " " + plural(n, "has", "have") + " " + cr + ":1 against the background; " + need + ".",
+			Source:  srcText}
+	}
+	return Finding{ID: "mark-contrast-low", Severity: Error, Marks: a.marks,
+		Message: itoa(n) + " " + plural(n, "mark", "marks") + " in " + h + " " + plural(n, "has", "have") + " only " + cr + ":1 against the background; graphics needed to understand a chart need 3:1.",
+		Source:  srcContrast}
 }
 
 // categoryFindings checks the categorical colours: how many, whether they
@@ -414,5 +458,112 @@ func dedupe(v []int) []int {
 			out = append(out, x)
 		}
 	}
+	return out
+}
+
+// maxAdjacentPairs bounds the edge comparisons of adjacentFindings, so a
+// chart of many bars on one line stays fast; past it the rest are not
+// compared.
+const maxAdjacentPairs = 1 << 20
+
+// adjacentFindings finds touching bars (stacked segments, bars drawn edge
+// to edge) whose fills differ by less than 3:1: SC 1.4.11 asks graphics
+// to contrast with adjacent colours, unless a separating line that
+// contrasts with both sits between them.
+func adjacentFindings(in Input) []Finding {
+	pairs := touchingBars(in.Marks)
+	type agg struct {
+		marks []int
+		cr    float64
+		a, b  string
+	}
+	byColours := map[[2]string]*agg{}
+	var keys [][2]string
+	for _, pr := range pairs {
+		a, b := &in.Marks[pr[0]], &in.Marks[pr[1]]
+		if a.Colour == b.Colour || separated(a, b) {
+			continue
+		}
+		cr := colour.ContrastRatio(a.Colour, b.Colour)
+		if cr >= colour.NonTextContrast {
+			continue
+		}
+		k := [2]string{a.Colour.Hex(), b.Colour.Hex()}
+		if k[1] < k[0] {
+			k[0], k[1] = k[1], k[0]
+		}
+		g, ok := byColours[k]
+		if !ok {
+			g = &agg{cr: cr, a: k[0], b: k[1]}
+			byColours[k] = g
+			keys = append(keys, k)
+		}
+		g.marks = append(g.marks, pr[0], pr[1])
+	}
+	var out []Finding
+	for _, k := range keys {
+		g := byColours[k]
+		out = append(out, Finding{ID: "adjacent-contrast-low", Severity: Warning, Marks: dedupe(g.marks),
+			Message: "Touching marks in " + g.a + " and " + g.b + " differ by only " + ff(math.Floor(g.cr*100)/100, 2) + ":1; where parts of a chart touch, they need 3:1 between them, or a separating line that contrasts with both.",
+			Source:  srcContrast + " (adjacent colours)"})
+	}
+	return out
+}
+
+// separated says whether either mark's outline contrasts by 3:1 with both
+// fills: a separating line between them.
+func separated(a, b *Mark) bool {
+	for _, m := range []*Mark{a, b} {
+		if m.HasOutline && colour.ContrastRatio(m.Outline, a.Colour) >= colour.NonTextContrast &&
+			colour.ContrastRatio(m.Outline, b.Colour) >= colour.NonTextContrast {
+			return true
+		}
+	}
+	return false
+}
+
+// touchingBars lists the pairs of bars that share an edge (within half a
+// pixel) along more than a pixel: one's right edge on the other's left, or
+// one's bottom on the other's top.
+func touchingBars(marks []Mark) [][2]int {
+	type edge struct {
+		i      int
+		lo, hi float64
+	}
+	key := func(v float64) int64 { return int64(math.Round(v * 2)) }
+	rights, lefts := map[int64][]edge{}, map[int64][]edge{}
+	bottoms, tops := map[int64][]edge{}, map[int64][]edge{}
+	for i := range marks {
+		m := &marks[i]
+		if m.Kind != "bar" || !(m.Box[2] > 0 && m.Box[3] > 0) {
+			continue
+		}
+		x0, y0, x1, y1 := m.Box[0], m.Box[1], m.Box[0]+m.Box[2], m.Box[1]+m.Box[3]
+		rights[key(x1)] = append(rights[key(x1)], edge{i, y0, y1})
+		lefts[key(x0)] = append(lefts[key(x0)], edge{i, y0, y1})
+		bottoms[key(y1)] = append(bottoms[key(y1)], edge{i, x0, x1})
+		tops[key(y0)] = append(tops[key(y0)], edge{i, x0, x1})
+	}
+	var out [][2]int
+	budget := maxAdjacentPairs
+	match := func(from, to map[int64][]edge) {
+		for k, es := range from {
+			for dk := int64(-1); dk <= 1; dk++ {
+				for _, a := range es {
+					for _, b := range to[k+dk] {
+						if budget--; budget < 0 {
+							return
+						}
+						if a.i != b.i && min(a.hi, b.hi)-max(a.lo, b.lo) > 1 {
+							out = append(out, [2]int{a.i, b.i})
+						}
+					}
+				}
+			}
+		}
+	}
+	match(rights, lefts)
+	match(bottoms, tops)
+	slices.SortFunc(out, func(a, b [2]int) int { return cmp.Or(cmp.Compare(a[0], b[0]), cmp.Compare(a[1], b[1])) })
 	return out
 }

@@ -32,6 +32,9 @@ type Mark struct {
 	Fold  int
 	Shape string
 	X, Y  float64
+	// Box is the mark's bounding box (x, y, width, height), for marks
+	// that may touch their neighbours (bars).
+	Box [4]float64
 	// Vertices of a line or path mark, for connectedness.
 	Vertices [][2]float64
 }

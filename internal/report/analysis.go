@@ -19,7 +19,7 @@ func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input
 	in := perception.Input{Background: bg}
 	conv := func(m marks.Mark) perception.Mark {
 		pm := perception.Mark{ID: m.ID, Kind: string(m.Kind), Size: m.Size, Angle: m.Angle, Fold: m.Fold,
-			Shape: string(m.Shape), X: m.Centroid.X, Y: m.Centroid.Y}
+			Shape: string(m.Shape), X: m.Centroid.X, Y: m.Centroid.Y, Box: m.BBox}
 		filled := m.Fill != nil && m.FillOpacity > 0 && (m.Area > 0 || m.Kind == marks.KindText)
 		switch {
 		case filled:
