@@ -1,6 +1,7 @@
 package perception
 
 import (
+	"slices"
 	"sort"
 
 	"standout/perception/colour"
@@ -18,6 +19,10 @@ type Result struct {
 	// Emphasis is the intended emphasis (given, or inferred when Inferred).
 	Emphasis []int
 	Inferred bool
+	// Extremes are the marks that stand out, for normal vision, only
+	// through the channel that encodes their data (MarkResult.Extreme):
+	// reported apart, never taken for emphasis.
+	Extremes []int
 	// Holds[v] says whether every emphasised mark pops under Visions[v].
 	Holds    []bool
 	Groups   Grouping
@@ -47,10 +52,15 @@ func Analyse(in Input, p Params) *Result {
 	}
 	keys := res.displays(in, p)
 	res.judgeVision(in, &p, keys, 0, nil)
+	for i := range res.Marks {
+		if r := res.Marks[i][0]; r.Extreme && r.Verdict != Pops {
+			res.Extremes = append(res.Extremes, i)
+		}
+	}
 	res.Emphasis = append([]int(nil), in.Emphasis...)
 	if len(res.Emphasis) == 0 {
 		res.Inferred = true
-		res.Emphasis = inferEmphasis(in, res)
+		res.Emphasis = inferEmphasis(in, p, res)
 	}
 	// Under CVD: every mark, or (FindingsOnly) just the emphasis, whose
 	// fate is what the findings report.
@@ -153,12 +163,22 @@ func (res *Result) emphasisOnly(in Input, keys []string) map[string][]int {
 // inferEmphasis picks the marks that differ from the majority: those that
 // pop for normal vision in some channel while belonging to a small group
 // of their kind.
-func inferEmphasis(in Input, res *Result) []int {
-	var out []int
+func inferEmphasis(in Input, p Params, res *Result) []int {
+	var out, conj []int
 	for i := range in.Marks {
-		if res.Marks[i][0].Verdict == Pops || res.Marks[i][0].Verdict == Conjunction {
+		switch res.Marks[i][0].Verdict {
+		case Pops:
 			out = append(out, i)
+		case Conjunction:
+			conj = append(conj, i)
 		}
+	}
+	// A conjunction differs from the rest in no single channel: taken for
+	// an emphasis only when it is a few marks (a highlight made the wrong
+	// way), not whole categories of a categorical chart.
+	if len(conj) <= p.SmallGroupMin {
+		out = append(out, conj...)
+		slices.Sort(out)
 	}
 	// A display where most marks "pop" has no single emphasis.
 	if len(out)*3 > len(in.Marks) {

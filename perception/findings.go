@@ -53,6 +53,7 @@ const (
 	srcHues     = "Ware, Information Visualization, ch. 4 (six distinct colours are easy)"
 	srcGroup    = "Palmer & Rock 1994; Kubovy, Holcombe & Wagemans 1998; Hubert & Arabie 1985"
 	srcND       = "Szafir 2018; Stone, Szafir & Setlur 2014"
+	srcExtremes = "no published source: a design rule of the model (provisional)"
 )
 
 func plural(n int, one, many string) string {
@@ -82,6 +83,7 @@ func visionNames(vs []colour.Deficiency) string {
 func findings(in Input, p Params, res *Result) []Finding {
 	var out []Finding
 	out = append(out, emphasisFindings(in, p, res)...)
+	out = append(out, extremeFindings(in, res)...)
 	out = append(out, contrastFindings(in)...)
 	out = append(out, adjacentFindings(in)...)
 	out = append(out, categoryFindings(in, p, res)...)
@@ -566,4 +568,18 @@ func touchingBars(marks []Mark) [][2]int {
 	match(bottoms, tops)
 	slices.SortFunc(out, func(a, b [2]int) int { return cmp.Or(cmp.Compare(a[0], b[0]), cmp.Compare(a[1], b[1])) })
 	return out
+}
+
+// extremeFindings notes the data extremes: marks that stand out only by
+// the value they encode. A reader looking for the highlight is not pulled
+// to the longest bar the way a colour singleton pulls; the extreme is the
+// data speaking, worth knowing but no rival to the emphasis.
+func extremeFindings(in Input, res *Result) []Finding {
+	if len(res.Extremes) == 0 {
+		return nil
+	}
+	n := len(res.Extremes)
+	return []Finding{{ID: "data-extremes", Severity: Info, Marks: res.Extremes,
+		Message: itoa(n) + " " + plural(n, "mark stands", "marks stand") + " out only by the value " + plural(n, "it encodes", "they encode") + " (such as the longest or shortest bar): that is the data speaking, not a highlight, and is not counted as emphasis.",
+		Source:  srcExtremes}}
 }

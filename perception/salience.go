@@ -78,6 +78,11 @@ type MarkResult struct {
 	// marks), from published slope conventions, not measurements.
 	SlopeMs  [2]float64
 	SearchMs [2]float64
+	// Extreme says the mark stands out through the channel that encodes
+	// its data (the length of a bar, the angle of a pie slice, the area of
+	// a bubble): a data extreme, the data speaking, which is kept out of
+	// the pop-out verdict and of emphasis.
+	Extreme bool
 }
 
 // display is one group of comparable marks (one kind) under one vision.
@@ -93,14 +98,16 @@ type display struct {
 	size  []float64 // size in steps (log perceived magnitude / log step)
 	ori   []float64 // orientation in steps
 	oriP  float64   // circular period in steps; 0 = no orientation channel
-	small int
-	bg    colour.Lab // the background, under the display's vision
-	v     colour.Deficiency
-	sev   float64
-	nb    [][]int // spatial neighbours, shared across vision types
-	reuse *reuseData
-	bins  []colourBin // colourBins' bins, once computed
-	binOf []int32     // per distinct colour, its bin
+	// valueSize says the size channel encodes the data (valueChannelSize).
+	valueSize bool
+	small     int
+	bg        colour.Lab // the background, under the display's vision
+	v         colour.Deficiency
+	sev       float64
+	nb        [][]int // spatial neighbours, shared across vision types
+	reuse     *reuseData
+	bins      []colourBin // colourBins' bins, once computed
+	binOf     []int32     // per distinct colour, its bin
 }
 
 // palette is the distinct colours of a display's marks, in the order of
@@ -140,13 +147,14 @@ func newPalette(all []Mark, idx []int) *palette {
 // shared holds what does not depend on the vision type, computed for the
 // first vision and reused by the others.
 type shared struct {
-	cols  *palette
-	shape []int32
-	nd    [][3]float64
-	size  []float64
-	ori   []float64
-	oriP  float64
-	ready bool
+	valueSize bool
+	cols      *palette
+	shape     []int32
+	nd        [][3]float64
+	size      []float64
+	ori       []float64
+	oriP      float64
+	ready     bool
 }
 
 // newDisplayShared prepares the marks idx of all (the marks of one kind)
@@ -173,7 +181,7 @@ func newDisplayShared(p *Params, all []Mark, idx []int, bg colour.SRGB, v colour
 		d.lab[k] = d.clab[i]
 	}
 	if sh != nil && sh.ready {
-		d.nd, d.size, d.ori, d.oriP, d.shape = sh.nd, sh.size, sh.ori, sh.oriP, sh.shape
+		d.nd, d.size, d.ori, d.oriP, d.shape, d.valueSize = sh.nd, sh.size, sh.ori, sh.oriP, sh.shape, sh.valueSize
 	} else {
 		d.shape = make([]int32, n)
 		shapes := newIndexer[string]()
@@ -207,14 +215,40 @@ func newDisplayShared(p *Params, all []Mark, idx []int, bg colour.SRGB, v colour
 		if fold > 0 {
 			d.oriP = 360 / float64(fold) / p.OrientationStepDeg
 		}
+		d.valueSize = valueChannelSize(all, idx, d.size)
 		if sh != nil {
 			sh.nd, sh.size, sh.ori, sh.oriP, sh.shape, sh.ready = d.nd, d.size, d.ori, d.oriP, d.shape, true
+			sh.valueSize = d.valueSize
 		}
 	}
 	// A target group is a minority: in three marks, two alike are the
 	// majority, whatever the fraction says.
 	d.small = min(int(max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n)))), (n-1)/2)
 	return d
+}
+
+// valueChannelSize says whether the size channel encodes the data of the
+// marks idx (one kind): the length of bars and rules, the angle and area of
+// pie slices, the area of map regions, always; the area of points when
+// they take more than two sizes (a bubble chart; one or two sizes are a
+// plain scatter and perhaps a highlight by size). A line's width and a
+// text's size are chosen, not data.
+func valueChannelSize(all []Mark, idx []int, size []float64) bool {
+	if len(idx) == 0 {
+		return false
+	}
+	switch all[idx[0]].Kind {
+	case "bar", "rule", "arc", "area":
+		return true
+	case "point":
+		steps := map[int64]bool{}
+		for _, s := range size {
+			if steps[int64(math.Round(s))] = true; len(steps) > 2 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // seen says whether mark k stands from the background by GroundMargin

@@ -98,7 +98,11 @@ func (j *judging) one(k int) MarkResult {
 	}
 	start := len(j.chBuf)
 	for ci, c := range Channels {
-		if r.Salience[ci] >= 1 {
+		switch {
+		case r.Salience[ci] < 1:
+		case ci == sizeAt && d.valueSize:
+			r.Extreme = true
+		default:
 			j.chBuf = append(j.chBuf, c)
 		}
 	}
@@ -239,8 +243,11 @@ func (d *display) conjunctions(res []MarkResult, stats *[nChannels]channelStats)
 			o = int64(math.Round(math.Mod(d.ori[k], d.oriP)))
 		}
 		sh := int64(d.shape[k])
-		return sig{int64(math.Round(l.L / nd[0])), int64(math.Round(l.A / nd[1])), int64(math.Round(l.B / nd[2])),
-			int64(math.Round(d.size[k])), o, sh}
+		var sz int64 // a size that encodes the data is no feature of a conjunction
+		if !d.valueSize {
+			sz = int64(math.Round(d.size[k]))
+		}
+		return sig{int64(math.Round(l.L / nd[0])), int64(math.Round(l.A / nd[1])), int64(math.Round(l.B / nd[2])), sz, o, sh}
 	}
 	groups := map[sig][]int{}
 	for k := range d.idx {
@@ -276,7 +283,9 @@ func (d *display) conjunctions(res []MarkResult, stats *[nChannels]channelStats)
 			}
 			most := 0.0
 			for _, c := range Channels {
-				most = max(most, d.dist(c, k, j))
+				if channelMatters(d, c) {
+					most = max(most, d.dist(c, k, j))
+				}
 			}
 			if most < 1 {
 				unique = false
@@ -299,7 +308,7 @@ func (d *display) conjunctions(res []MarkResult, stats *[nChannels]channelStats)
 // channelMatters: a channel with no variation at all in the display
 // carries no feature value to share.
 func channelMatters(d *display, c Channel) bool {
-	if c == Orientation && d.oriP == 0 {
+	if c == Orientation && d.oriP == 0 || c == Size && d.valueSize {
 		return false
 	}
 	return true

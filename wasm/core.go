@@ -168,7 +168,7 @@ func handle(q *Request, t0 time.Time) []byte {
 		return append(b, '}')
 	}
 	page := report.PageOf(q.Source, q.Problems, as)
-	rep := &report.Report{Schema: "standout-report", Version: report.Version, Pages: []report.Page{page}, Caution: report.Caution}
+	rep := &report.Report{Schema: "standout-report", Version: report.Version, Minor: report.Minor, Pages: []report.Page{page}, Caution: report.Caution}
 	var md strings.Builder
 	report.WriteMarkdown(&md, rep, nil)
 	timing["encodeMs"] = ms(t2)

@@ -91,7 +91,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	if cf == nil {
 		return 2
 	}
-	rep := report.Report{Schema: "standout-report", Version: report.Version, Caution: report.Caution}
+	rep := report.Report{Schema: "standout-report", Version: report.Version, Minor: report.Minor, Caution: report.Caution}
 	progress := newProgress(stderr, len(cf.args))
 	var shots [][]byte
 	var failed []string

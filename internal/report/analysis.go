@@ -189,6 +189,9 @@ func attachAnalysis(rc *Chart, ch *marks.Chart, res *perception.Result) {
 		rc.Groups.Agreement = append(rc.Groups.Agreement, Agreement{A: string(a.A), B: string(a.B), ARI: math.Round(a.ARI*1000) / 1000, Relation: a.Relation})
 	}
 	rc.Emphasis = EmphasisOf(ch, res)
+	if len(res.Extremes) > 0 {
+		rc.Extremes = markIDs(ch, res.Extremes)
+	}
 }
 
 // markIDs names the marks idx of ch by their ids.

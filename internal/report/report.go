@@ -18,8 +18,11 @@ import (
 const Caution = "CVD simulation is a model of average readers and real readers vary; verdicts are predictions from published laboratory findings, not measurements of your audience; passing is not an accessibility audit: follow the accessibility law that applies to you, WCAG conformance reviews and tests with real readers."
 
 // Version is the version of the check --json document (see
-// docs/report.md).
-const Version = 1
+// docs/report.md); Minor counts the fields added within it.
+const (
+	Version = 1
+	Minor   = 1
+)
 
 // Mark is one mark of a chart as the report states it: what it is, its
 // paint as authored (packed colours as #rrggbb), its box in page px and
@@ -63,7 +66,10 @@ type Chart struct {
 	Problems   []string       `json:"problems"`
 	Findings   []Finding      `json:"findings"`
 	Groups     *Groups        `json:"groups,omitempty"`
-	Emphasis   *Emphasis      `json:"emphasis,omitempty"`
+	// Extremes are the data extremes: marks that stand out only through
+	// the value they encode (added in version 1, minor 1).
+	Extremes []string  `json:"extremes,omitempty"`
+	Emphasis *Emphasis `json:"emphasis,omitempty"`
 }
 
 // Page is one page or file: its charts and the problems met reading it.
@@ -104,6 +110,7 @@ type Report struct {
 	Errors  []string `json:"errors,omitempty"`
 	Schema  string   `json:"schema"`
 	Version int      `json:"version"`
+	Minor   int      `json:"minor"`
 	Pages   []Page   `json:"pages"`
 	Caution string   `json:"caution"`
 }
