@@ -77,6 +77,18 @@ type Params struct {
 	// 25 ms/item or longer" (REFERENCES §5.1); 20–50 ms/item for
 	// target-present inefficient search (REFERENCES §5.6, DERIVED).
 	EfficientSlope, SerialSlope [2]float64
+	// LogSearchMs is the steepness D, in ms per unit of ln(set size), of
+	// guided search for a target at the pop-out margin: added search time
+	// is 0 to D·ln(N)/salience. Efficient search "is best characterized
+	// by logarithmic curves", their steepness "determined by the
+	// similarity between target and distractor items" (Wang, Buetti &
+	// Lleras 2017, after Buetti et al. 2016; REFERENCES §5.6, EXACT); so
+	// a strongly salient target's curve is nearly flat, as pop-out's is
+	// ("near … 0 ms/item", Wolfe 2021). No published D was found: 88 ms
+	// makes the curve agree with the 10 ms per mark of EfficientSlope at
+	// 30 marks (88·ln 30 ≈ 300 ms), and is provisional. Serial search
+	// stays linear (SerialSlope × N).
+	LogSearchMs float64
 
 	// FindingsOnly computes only what the verdicts under normal vision and
 	// the findings need: the CVD re-analysis of the emphasised marks
@@ -115,5 +127,6 @@ var DefaultParams = Params{
 	AgreeARI:           0.8,
 	EfficientSlope:     [2]float64{0, 10},
 	SerialSlope:        [2]float64{20, 50},
+	LogSearchMs:        88,
 	MaxHues:            6,
 }

@@ -56,12 +56,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 	}
 	d.conjunctions(res, &j.stats)
 	for k := range res {
-		slope := d.p.SerialSlope
-		if res[k].Verdict == Pops {
-			slope = d.p.EfficientSlope
-		}
-		res[k].SlopeMs = slope
-		res[k].SearchMs = [2]float64{slope[0] * float64(n), slope[1] * float64(n)}
+		res[k].SlopeMs, res[k].SearchMs = d.searchTime(&res[k], n)
 	}
 	return res
 }
@@ -170,6 +165,23 @@ func (j *judging) hueAndLightness(k int) (float64, float64) {
 	local := localSalience(ld, m, h, global, st.group[k] > d.small)
 	local2 := localSalience(ld2, m2, h2, global2, st2.group[k] > d.small)
 	return max(global, local), max(global2, local2)
+}
+
+// searchTime estimates the search slope and the added search time for a
+// mark among n: for a mark that pops, guided search whose time grows with
+// ln(n) the more gently the more salient the mark (flat in the limit of
+// pop-out); otherwise serial search, linear in n (Params.LogSearchMs,
+// EfficientSlope, SerialSlope).
+func (d *display) searchTime(r *MarkResult, n int) (slope, search [2]float64) {
+	if r.Verdict != Pops {
+		s := d.p.SerialSlope
+		return s, [2]float64{s[0] * float64(n), s[1] * float64(n)}
+	}
+	top := 1.0
+	for _, c := range r.Channels {
+		top = max(top, r.Salience.Of(c))
+	}
+	return d.p.EfficientSlope, [2]float64{0, d.p.LogSearchMs * math.Log(float64(n)) / top}
 }
 
 // localSalience turns the distance to the most similar neighbour (leaving
