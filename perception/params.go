@@ -28,9 +28,14 @@ type Params struct {
 	// Margins: a channel carries a pop-out when its contrast, in steps,
 	// reaches the margin after allowing for distractor spread.
 	//
-	// ColourMargin and LightnessMargin are provisional design choices:
-	// three noticeable differences (Duncan 1989 says only that targets
-	// and non-targets must be "sufficiently dissimilar").
+	// ColourMargin is a provisional design choice: three noticeable
+	// differences (Duncan 1989 says only that targets and non-targets must
+	// be "sufficiently dissimilar"). LightnessMargin is two: at three, a
+	// mark at half the luminance of its neighbours (#5a5a5a among #808080,
+	// ΔL* ≈ 15, 2.2 noticeable differences at 10 px) blended, which no
+	// reader would say of a 2:1 luminance step. Provisional too: no
+	// published margin for lightness pop-out is in REFERENCES.md (the
+	// calibration table in calibration_test.go holds the case).
 	ColourMargin, LightnessMargin float64
 	// OrientationMargin: 2 steps = 30°, "pop-out-capable with homogeneous
 	// distractors" (REFERENCES §5.2, DERIVED band).
@@ -113,7 +118,7 @@ var DefaultParams = Params{
 	StevensArea:        0.7,
 	StevensLength:      1.0,
 	ColourMargin:       3,
-	LightnessMargin:    3,
+	LightnessMargin:    2,
 	OrientationMargin:  2,
 	SizeMargin:         2,
 	ShapeMargin:        1,
