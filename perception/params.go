@@ -50,10 +50,21 @@ type Params struct {
 	// SmallGroupFraction and SmallGroupMin bound the size of a target
 	// group: marks that share a feature value with at most
 	// max(SmallGroupMin, SmallGroupFraction·n) marks, and fewer than half
-	// of them, are candidate emphasis; the rest are distractors.
-	// Provisional.
+	// of them, are candidate emphasis, judged against the heterogeneity of
+	// the rest of the display; the rest are distractors. Provisional.
 	SmallGroupFraction float64
 	SmallGroupMin      int
+	// GroupShareMax extends that to larger sets in a colour channel, up
+	// to this share of the marks, when the rest is uniform in the channel
+	// (its spread under one step): a colour-defined set segregates from a
+	// uniform surround at a glance whatever its share (Julesz 1981;
+	// Treisman 1982; Healey, Booth & Enns 1996, all from memory), so a
+	// highlighted set of 11 or 20 in 100 pops. Among several colour
+	// categories, where the rest is not uniform, no category is taken for
+	// a highlight; and a third keeps the halves of a two-colour display
+	// from popping, where there is no rest to stand out from. The third is
+	// provisional.
+	GroupShareMax float64
 	// GroundMargin is how far, in noticeable differences at the mark's
 	// size (Szafir 2018's 50% discrimination threshold), a mark's fill or
 	// outline must stand from the chart's background for the mark to be
@@ -123,6 +134,7 @@ var DefaultParams = Params{
 	SizeMargin:         2,
 	ShapeMargin:        1,
 	SmallGroupFraction: 0.1,
+	GroupShareMax:      1.0 / 3,
 	SmallGroupMin:      3,
 	GroundMargin:       1,
 	Neighbours:         8,

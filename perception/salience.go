@@ -101,13 +101,16 @@ type display struct {
 	// valueSize says the size channel encodes the data (valueChannelSize).
 	valueSize bool
 	small     int
-	bg        colour.Lab // the background, under the display's vision
-	v         colour.Deficiency
-	sev       float64
-	nb        [][]int // spatial neighbours, shared across vision types
-	reuse     *reuseData
-	bins      []colourBin // colourBins' bins, once computed
-	binOf     []int32     // per distinct colour, its bin
+	// group bounds the larger candidate sets of colour channels, judged
+	// against a uniform rest (Params.GroupShareMax).
+	group int
+	bg    colour.Lab // the background, under the display's vision
+	v     colour.Deficiency
+	sev   float64
+	nb    [][]int // spatial neighbours, shared across vision types
+	reuse *reuseData
+	bins  []colourBin // colourBins' bins, once computed
+	binOf []int32     // per distinct colour, its bin
 }
 
 // palette is the distinct colours of a display's marks, in the order of
@@ -224,6 +227,7 @@ func newDisplayShared(p *Params, all []Mark, idx []int, bg colour.SRGB, v colour
 	// A target group is a minority: in three marks, two alike are the
 	// majority, whatever the fraction says.
 	d.small = min(int(max(float64(p.SmallGroupMin), math.Ceil(p.SmallGroupFraction*float64(n)))), (n-1)/2)
+	d.group = max(d.small, min(int(math.Floor(p.GroupShareMax*float64(n))), (n-1)/2))
 	return d
 }
 
@@ -310,6 +314,19 @@ type channelStats struct {
 	group  []int     // marks within one step of the mark (itself included)
 	global []float64 // steps to the most similar distractor
 	spread float64   // distractor heterogeneity, steps
+	// rest, when set, is per mark the heterogeneity of the marks outside
+	// its group, for the marks of a candidate group (colour channels):
+	// a group is judged against the rest of the display, whatever size
+	// the rest's own groups have.
+	rest []float64
+}
+
+// spreadFor is the distractor heterogeneity mark k is judged against.
+func (st *channelStats) spreadFor(k int) float64 {
+	if st.rest != nil && st.rest[k] >= 0 {
+		return st.rest[k]
+	}
+	return st.spread
 }
 
 // stats computes a channel's statistics in O(n log n) for the scalar
@@ -495,8 +512,10 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		}
 	}
 	var distractorBins []colourBin
-	groupOf, globalOf := make([]int, B), make([]float64, B)
+	groupOf, globalOf, restOf := make([]int, B), make([]float64, B), make([]float64, B)
+	var rest []colourBin
 	for i, bi := range list {
+		restOf[i] = -1
 		g := bi.count
 		for j, bj := range list {
 			if i != j && dm[i*B+j] < 1 {
@@ -504,13 +523,22 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 			}
 		}
 		global := math.Inf(1)
-		if g <= d.small && g < n {
-			for j := range list {
+		candidate := g <= d.group && g < n
+		if candidate {
+			rest = rest[:0]
+			for j, bj := range list {
 				if i != j && dm[i*B+j] >= 1 {
 					global = min(global, dm[i*B+j])
+					rest = append(rest, bj)
 				}
 			}
-		} else {
+			restOf[i] = d.colourSpread(c, rest)
+			// A set beyond the small groups stands out only from a
+			// uniform rest.
+			candidate = g <= d.small || restOf[i] < 1
+		}
+		if !candidate {
+			restOf[i], global = -1, math.Inf(1)
 			if bi.count > 1 {
 				global = 0
 			}
@@ -526,9 +554,10 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		}
 		groupOf[i], globalOf[i] = g, global
 	}
+	st.rest = make([]float64, n)
 	for k, ci := range d.cols.of {
 		b := binOf[ci]
-		st.group[k], st.global[k] = groupOf[b], globalOf[b]
+		st.group[k], st.global[k], st.rest[k] = groupOf[b], globalOf[b], restOf[b]
 	}
 	st.spread = d.colourSpread(c, distractorBins)
 }

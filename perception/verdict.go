@@ -119,7 +119,7 @@ func (j *judging) channel(k, ci int, c Channel) float64 {
 	d := j.d
 	st := &j.stats[ci]
 	m := d.margin(c)
-	h := st.spread / m
+	h := st.spreadFor(k) / m
 	global := st.global[k] / m / (1 + h)
 	if j.nb == nil {
 		return global
@@ -141,7 +141,7 @@ func (j *judging) hueAndLightness(k int) (float64, float64) {
 	d := j.d
 	st, st2 := &j.stats[hueAt], &j.stats[lightnessAt]
 	m, m2 := d.margin(Hue), d.margin(Lightness)
-	h, h2 := st.spread/m, st2.spread/m2
+	h, h2 := st.spreadFor(k)/m, st2.spreadFor(k)/m2
 	global := st.global[k] / m / (1 + h)
 	global2 := st2.global[k] / m2 / (1 + h2)
 	if j.nb == nil {
