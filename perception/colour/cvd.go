@@ -10,8 +10,11 @@ type Deficiency int
 
 // The deficiency types Standout simulates. Protan, Deutan and Tritan use
 // Machado et al. (2009) at a severity within [0, 1] (1 is dichromacy);
-// Achromat is complete achromatopsia, modelled as seeing relative luminance
-// only.
+// Achromat is a luminance greyscale: every colour becomes the grey of its
+// relative luminance. It is not a model of rod monochromacy (whose
+// spectral sensitivity and acuity differ), only a check of what survives
+// without hue. Machado's tritan at severity 1 approximates tritanopia; it
+// is not Brettel, Viénot & Mollon's (1997) dichromat model.
 const (
 	Normal Deficiency = iota
 	Protan
