@@ -73,6 +73,17 @@ type Params struct {
 	// noticeable difference is the threshold itself; provisional as a
 	// margin.
 	GroundMargin float64
+	// FlankedFactor scales the hue salience of a target whose colour lies
+	// between its distractors' (not linearly separable from them), which
+	// "resulted in steep search slopes" (REFERENCES §5.7, EXACT abstract
+	// of the 1996 Perception follow-up to Bauer, Jolicœur & Cowan). No
+	// published factor: one half is provisional.
+	FlankedFactor float64
+	// LessFeatureFactor scales the hue salience of a target less
+	// saturated than the marks around it: finding "more" of a feature
+	// among "less" is easier than the reverse (Treisman & Gormican 1988,
+	// from memory). No published factor: 0.8 is provisional.
+	LessFeatureFactor float64
 	// Neighbours is how many nearest marks form the local surround
 	// (Nothdurft 1993: local feature contrast). Provisional.
 	Neighbours int
@@ -137,6 +148,8 @@ var DefaultParams = Params{
 	GroupShareMax:      1.0 / 3,
 	SmallGroupMin:      3,
 	GroundMargin:       1,
+	FlankedFactor:      0.5,
+	LessFeatureFactor:  0.8,
 	Neighbours:         8,
 	ProximityRatio:     2,
 	ConnectTolerancePx: 1.5,

@@ -319,6 +319,9 @@ type channelStats struct {
 	// a group is judged against the rest of the display, whatever size
 	// the rest's own groups have.
 	rest []float64
+	// flanked, in the hue channel, marks the candidates whose chromaticity
+	// lies within the hull of the rest's: not linearly separable from them.
+	flanked []bool
 }
 
 // spreadFor is the distractor heterogeneity mark k is judged against.
@@ -459,6 +462,123 @@ func spread1(v []float64, period float64) float64 {
 	return (q(0.9) - q(0.1)) / 2
 }
 
+// flanked says whether mark k's chromaticity (a*, b*, in its noticeable
+// differences) lies within one noticeable difference of the convex hull
+// of the rest's: a target between its distractors in colour is not
+// linearly separable from them and is searched inefficiently (Bauer,
+// Jolicœur & Cowan 1996 as summarised in Perception 25(11), 1996;
+// REFERENCES §5.7, whose computable test this is).
+func (d *display) flanked(k int, rest []colourBin) bool {
+	if len(rest) < 2 {
+		return false
+	}
+	nd := d.nd[k]
+	at := func(m int) [2]float64 { return [2]float64{d.lab[m].A / nd[1], d.lab[m].B / nd[2]} }
+	pts := make([][2]float64, 0, len(rest))
+	for _, b := range rest {
+		pts = append(pts, at(b.rep))
+	}
+	return distanceToHull(at(k), pts) < 1
+}
+
+// hullVertices marks the bins whose colours are vertices of the convex
+// hull of all the bins' chromaticities. Being a vertex does not depend on
+// how the axes are scaled, so one hull serves every mark's noticeable
+// differences.
+func (d *display) hullVertices(list []colourBin) []bool {
+	pts := make([][2]float64, len(list))
+	at := map[[2]float64][]int{}
+	for i, b := range list {
+		pts[i] = [2]float64{d.lab[b.rep].A, d.lab[b.rep].B}
+		at[pts[i]] = append(at[pts[i]], i)
+	}
+	v := make([]bool, len(list))
+	for _, p := range convexHull(pts) {
+		for _, i := range at[p] {
+			v[i] = true
+		}
+	}
+	return v
+}
+
+// flankedBin says whether candidate bin i is flanked by the rest. When
+// neither it nor any bin of its group is a vertex of the hull of all the
+// bins, the rest's hull is that hull, and i lies within it; otherwise the
+// rest's hull is built.
+func (d *display) flankedBin(i int, list []colourBin, dm []float64, vertex []bool, rest []colourBin) bool {
+	B := len(list)
+	if len(rest) < 2 {
+		return false
+	}
+	onHull := vertex[i]
+	for j := 0; j < B && !onHull; j++ {
+		onHull = j != i && dm[i*B+j] < 1 && vertex[j]
+	}
+	if !onHull {
+		return true
+	}
+	return d.flanked(list[i].rep, rest)
+}
+
+// distanceToHull is the distance from p to the convex hull of pts (0
+// inside it), in the plane.
+func distanceToHull(p [2]float64, pts [][2]float64) float64 {
+	hull := convexHull(pts)
+	if len(hull) == 1 {
+		return math.Hypot(p[0]-hull[0][0], p[1]-hull[0][1])
+	}
+	inside := len(hull) >= 3
+	best := math.Inf(1)
+	for i := range hull {
+		a, b := hull[i], hull[(i+1)%len(hull)]
+		if cross(a, b, p) < 0 {
+			inside = false
+		}
+		best = min(best, segmentDistance(p, a, b))
+	}
+	if inside {
+		return 0
+	}
+	return best
+}
+
+func cross(o, a, b [2]float64) float64 {
+	return (a[0]-o[0])*(b[1]-o[1]) - (a[1]-o[1])*(b[0]-o[0])
+}
+
+func segmentDistance(p, a, b [2]float64) float64 {
+	dx, dy := b[0]-a[0], b[1]-a[1]
+	l2 := dx*dx + dy*dy
+	t := 0.0
+	if l2 > 0 {
+		t = max(0, min(1, ((p[0]-a[0])*dx+(p[1]-a[1])*dy)/l2))
+	}
+	return math.Hypot(p[0]-a[0]-t*dx, p[1]-a[1]-t*dy)
+}
+
+// convexHull is the counter-clockwise hull of pts (Andrew's monotone
+// chain); collinear points collapse to a segment's two ends.
+func convexHull(pts [][2]float64) [][2]float64 {
+	ps := append([][2]float64(nil), pts...)
+	slices.SortFunc(ps, func(a, b [2]float64) int { return cmp.Or(cmp.Compare(a[0], b[0]), cmp.Compare(a[1], b[1])) })
+	if len(ps) < 3 {
+		return ps
+	}
+	var h [][2]float64
+	for pass := 0; pass < 2; pass++ {
+		start := len(h)
+		for _, p := range ps {
+			for len(h) >= start+2 && cross(h[len(h)-2], h[len(h)-1], p) <= 0 {
+				h = h[:len(h)-1]
+			}
+			h = append(h, p)
+		}
+		h = h[:len(h)-1]
+		slices.Reverse(ps)
+	}
+	return h
+}
+
 // colourBin is a set of marks whose colours quantise together.
 type colourBin struct {
 	rep   int // a representative mark: the bin's first
@@ -513,6 +633,11 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 	}
 	var distractorBins []colourBin
 	groupOf, globalOf, restOf := make([]int, B), make([]float64, B), make([]float64, B)
+	var flankedOf, vertex []bool
+	if c == Hue {
+		flankedOf = make([]bool, B)
+		vertex = d.hullVertices(list)
+	}
 	var rest []colourBin
 	for i, bi := range list {
 		restOf[i] = -1
@@ -533,6 +658,9 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 				}
 			}
 			restOf[i] = d.colourSpread(c, rest)
+			if flankedOf != nil {
+				flankedOf[i] = d.flankedBin(i, list, dm, vertex, rest)
+			}
 			// A set beyond the small groups stands out only from a
 			// uniform rest.
 			candidate = g <= d.small || restOf[i] < 1
@@ -555,9 +683,15 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		groupOf[i], globalOf[i] = g, global
 	}
 	st.rest = make([]float64, n)
+	if flankedOf != nil {
+		st.flanked = make([]bool, n)
+	}
 	for k, ci := range d.cols.of {
 		b := binOf[ci]
 		st.group[k], st.global[k], st.rest[k] = groupOf[b], globalOf[b], restOf[b]
+		if flankedOf != nil {
+			st.flanked[k] = flankedOf[b] && restOf[b] >= 0
+		}
 	}
 	st.spread = d.colourSpread(c, distractorBins)
 }

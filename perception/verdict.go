@@ -5,6 +5,7 @@ import (
 	"math"
 	"slices"
 	"sort"
+	"standout/perception/colour"
 )
 
 // judge computes every mark's verdict in one display.
@@ -22,7 +23,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 	if n == 0 {
 		return make([]MarkResult, len(only))
 	}
-	j := judging{d: d, nb: d.nb, reuse: d.reuse != nil && d.reuse.have}
+	j := judging{d: d, nb: d.nb, reuse: d.reuse != nil && d.reuse.have, chromaRef: medianChroma(d)}
 	for ci, c := range Channels {
 		if j.reuse && !colourChannel(ci) {
 			j.stats[ci] = d.reuse.stats[ci]
@@ -64,11 +65,12 @@ func (d *display) judgeSome(only []int) []MarkResult {
 // judging is one judgeSome: the channels' statistics, the neighbours and
 // whether the colour-free channels come from an earlier vision type.
 type judging struct {
-	d     *display
-	stats [nChannels]channelStats
-	nb    [][]int
-	reuse bool
-	chBuf []Channel
+	d         *display
+	chromaRef float64 // the display's median chroma
+	stats     [nChannels]channelStats
+	nb        [][]int
+	reuse     bool
+	chBuf     []Channel
 }
 
 // one is mark k's saliences, the channels that carry it and its verdict
@@ -164,7 +166,7 @@ func (j *judging) hueAndLightness(k int) (float64, float64) {
 	}
 	local := localSalience(ld, m, h, global, st.group[k] > d.small)
 	local2 := localSalience(ld2, m2, h2, global2, st2.group[k] > d.small)
-	return max(global, local), max(global2, local2)
+	return j.hueAsymmetries(k, max(global, local)), max(global2, local2)
 }
 
 // searchTime estimates the search slope and the added search time for a
@@ -182,6 +184,43 @@ func (d *display) searchTime(r *MarkResult, n int) (slope, search [2]float64) {
 		top = max(top, r.Salience.Of(c))
 	}
 	return d.p.EfficientSlope, [2]float64{0, d.p.LogSearchMs * math.Log(float64(n)) / top}
+}
+
+// hueAsymmetries scales mark k's hue salience for what the distance
+// alone misses: a target flanked by its distractors' colours (FlankedFactor)
+// and a target less saturated than the display (LessFeatureFactor).
+func (j *judging) hueAsymmetries(k int, s float64) float64 {
+	d, st := j.d, &j.stats[hueAt]
+	if st.flanked != nil && st.flanked[k] {
+		s *= d.p.FlankedFactor
+	}
+	if chroma(d.lab[k]) < j.chromaRef-d.nd[k][1] {
+		s *= d.p.LessFeatureFactor
+	}
+	return s
+}
+
+func chroma(l colour.Lab) float64 { return math.Hypot(l.A, l.B) }
+
+// medianChroma is the median chroma of a display's marks: the saturation
+// a target is more or less of.
+func medianChroma(d *display) float64 {
+	type cw struct {
+		c float64
+		n int
+	}
+	cs := make([]cw, len(d.clab))
+	for i, l := range d.clab {
+		cs[i] = cw{chroma(l), d.cols.count[i]}
+	}
+	slices.SortFunc(cs, func(a, b cw) int { return cmp.Compare(a.c, b.c) })
+	half, acc := (len(d.idx)+1)/2, 0
+	for _, x := range cs {
+		if acc += x.n; acc >= half {
+			return x.c
+		}
+	}
+	return 0
 }
 
 // localSalience turns the distance to the most similar neighbour (leaving
