@@ -84,6 +84,15 @@ type Params struct {
 	// among "less" is easier than the reverse (Treisman & Gormican 1988,
 	// from memory). No published factor: 0.8 is provisional.
 	LessFeatureFactor float64
+	// CombineExponent and CombineShare pool redundant cues: channels each
+	// at CombineShare of the margin or more add as a Minkowski sum with
+	// this exponent, so that two channels each at 0.75 of the margin pop
+	// together (0.75·√2 ≈ 1.06). Guided Search sums weighted feature
+	// contrasts into one priority map (Wolfe 1994, from memory; Wolfe
+	// 2021, EXACT citation in REFERENCES §5.6); the exponent 2 and the
+	// share 0.5 are provisional: no published pooling rule for chart
+	// marks is in REFERENCES.md.
+	CombineExponent, CombineShare float64
 	// Neighbours is how many nearest marks form the local surround
 	// (Nothdurft 1993: local feature contrast). Provisional.
 	Neighbours int
@@ -149,6 +158,8 @@ var DefaultParams = Params{
 	SmallGroupMin:      3,
 	GroundMargin:       1,
 	FlankedFactor:      0.5,
+	CombineExponent:    2,
+	CombineShare:       0.5,
 	LessFeatureFactor:  0.8,
 	Neighbours:         8,
 	ProximityRatio:     2,

@@ -103,6 +103,9 @@ func (j *judging) one(k int) MarkResult {
 			j.chBuf = append(j.chBuf, c)
 		}
 	}
+	if len(j.chBuf) == start {
+		j.chBuf = j.combined(&r, j.chBuf)
+	}
 	if len(j.chBuf) > start {
 		r.Channels = j.chBuf[start:len(j.chBuf):len(j.chBuf)]
 	}
@@ -113,6 +116,31 @@ func (j *judging) one(k int) MarkResult {
 		r.Verdict = Pops
 	}
 	return r
+}
+
+// combined lets redundant cues add up: when no channel alone reaches the
+// margin, the channels' saliences pool (Minkowski summation with exponent
+// Params.CombineExponent) into one guidance signal, as Guided Search sums
+// feature contrasts (Wolfe 1994, 2021); when the pool reaches 1, the mark
+// pops through the channels that each carry at least Params.CombineShare
+// of the margin. A channel that encodes the data takes no part.
+func (j *judging) combined(r *MarkResult, buf []Channel) []Channel {
+	p := j.d.p
+	pool := 0.0
+	for ci := range Channels {
+		if s := r.Salience[ci]; s >= p.CombineShare && !(ci == sizeAt && j.d.valueSize) {
+			pool += math.Pow(s, p.CombineExponent)
+		}
+	}
+	if math.Pow(pool, 1/p.CombineExponent) < 1 {
+		return buf
+	}
+	for ci, c := range Channels {
+		if r.Salience[ci] >= p.CombineShare && !(ci == sizeAt && j.d.valueSize) {
+			buf = append(buf, c)
+		}
+	}
+	return buf
 }
 
 // channel is mark k's salience in one channel that is not colour: the
