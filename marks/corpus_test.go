@@ -94,7 +94,9 @@ func judge(tc truthChart, ch *Chart) (got int, countOK bool, gotFills, wantFills
 	return got, countOK, gotFills, wantFills, fillsOK
 }
 
-func TestCorpus(t *testing.T) {
+// corpusTruth reads shared/corpus/truth.json: the corpus folder and each
+// chart's truth, by its path within the folder.
+func corpusTruth(t testing.TB) (string, map[string]truthChart) {
 	dir := corpusDir(t)
 	data, err := os.ReadFile(filepath.Join(dir, "truth.json"))
 	require.NoError(t, err)
@@ -103,15 +105,20 @@ func TestCorpus(t *testing.T) {
 	}
 	require.NoError(t, json.Unmarshal(data, &truth))
 	require.NotEmpty(t, truth.Charts)
-	names := make([]string, 0, len(truth.Charts))
-	for k := range truth.Charts {
+	return dir, truth.Charts
+}
+
+func TestCorpus(t *testing.T) {
+	dir, charts := corpusTruth(t)
+	names := make([]string, 0, len(charts))
+	for k := range charts {
 		names = append(names, k)
 	}
 	sort.Strings(names)
 	countOK, fillOK := 0, 0
 	var report []string
 	for _, name := range names {
-		tc := truth.Charts[name]
+		tc := charts[name]
 		ch := loadChart(t, filepath.Join(dir, name))
 		want := 0
 		for k, v := range tc.MarksByType {

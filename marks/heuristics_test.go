@@ -1,7 +1,6 @@
 package marks
 
 import (
-	"encoding/json"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -55,22 +54,16 @@ func TestHeuristicsEvidence(t *testing.T) {
 	if testing.Short() || runtime.GOOS == "js" {
 		t.Skip("walks the corpus about seventy times; the walk is the same code under WebAssembly")
 	}
-	dir := corpusDir(t)
-	data, err := os.ReadFile(filepath.Join(dir, "truth.json"))
-	require.NoError(t, err)
-	var truth struct {
-		Charts map[string]truthChart `json:"charts"`
-	}
-	require.NoError(t, json.Unmarshal(data, &truth))
+	dir, charts := corpusTruth(t)
 	snaps := map[string]*snapshot.Snapshot{}
 	ok := func(name string, h *Heuristics) bool {
 		ch, err := WalkWith(snaps[name], h)
 		require.NoError(t, err)
-		_, cok, _, _, fok := judge(truth.Charts[name], ch)
+		_, cok, _, _, fok := judge(charts[name], ch)
 		return cok && fok
 	}
 	var right []string
-	for name := range truth.Charts {
+	for name := range charts {
 		f, err := os.Open(filepath.Join(dir, name))
 		require.NoError(t, err)
 		p, err := static.Build(f, static.Options{Source: name})
