@@ -3,10 +3,11 @@ package main
 import (
 	"encoding/json"
 	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"os"
+	"sort"
+	"strings"
 	"time"
 
 	"standout/internal/browser"
@@ -30,9 +31,9 @@ type checkFlags struct {
 
 // parseCheckFlags reads check's flags; an error has been written to
 // stderr when it returns nil.
-func parseCheckFlags(args []string, stderr io.Writer) *checkFlags {
-	fs := flag.NewFlagSet("check", flag.ContinueOnError)
-	fs.SetOutput(stderr)
+func parseCheckFlags(args []string, stdout, stderr io.Writer) (*checkFlags, int) {
+	fs := newFlags("check", "standout check [flags] FILE|URL…",
+		"0 every page was checked and no finding reached --fail-on; 1 a finding reached --fail-on; 2 bad usage, or a page that could not be read or checked", stdout, stderr)
 	cf := &checkFlags{failRank: -1}
 	fs.BoolVar(&cf.asJSON, "json", false, "write the versioned JSON report")
 	emphasis := fs.String("emphasis", "", "the intended emphasis: mark ids (comma-separated) or a CSS selector")
@@ -46,22 +47,18 @@ func parseCheckFlags(args []string, stderr io.Writer) *checkFlags {
 	fs.StringVar(&cf.pngDir, "png", "", "with --browser, write an annotated PNG per chart into this folder")
 	fs.StringVar(&cf.mdDir, "md", "", "write a Markdown report per page into this folder")
 	fs.DurationVar(&cf.timeout, "timeout", 60*time.Second, "the longest one page may take to load and check")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: standout check [flags] FILE|URL…")
-		fs.PrintDefaults()
-	}
-	if err := parseFlags(fs, args); err != nil {
-		return nil
+	if code, ok := fs.parse(args); !ok {
+		return nil, code
 	}
 	cf.args = fs.Args()
-	bad := func(msg string) *checkFlags {
+	bad := func(msg string) (*checkFlags, int) {
 		fmt.Fprintln(stderr, "standout check:", msg)
-		return nil
+		return nil, 2
 	}
 	switch {
 	case fs.NArg() == 0:
 		fs.Usage()
-		return nil
+		return nil, 2
 	case cf.pngDir != "" && !cf.useBrowser:
 		return bad("--png needs --browser (the static reader has no rendering)")
 	case cf.timeout <= 0:
@@ -83,13 +80,13 @@ func parseCheckFlags(args []string, stderr io.Writer) *checkFlags {
 		return bad(err.Error())
 	}
 	cf.opt = opt
-	return cf
+	return cf, 0
 }
 
 func runCheck(args []string, stdout, stderr io.Writer) int {
-	cf := parseCheckFlags(args, stderr)
+	cf, code := parseCheckFlags(args, stdout, stderr)
 	if cf == nil {
-		return 2
+		return code
 	}
 	rep := report.Report{Schema: "standout-report", Version: report.Version, Minor: report.Minor, Caution: report.Caution}
 	progress := newProgress(stderr, len(cf.args))
@@ -106,6 +103,10 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	}
 	progress.done()
 	rep.Errors = failed
+	if err := emphasisFound(cf, &rep); err != nil {
+		fmt.Fprintln(stderr, "standout check:", err)
+		return 2
+	}
 	if err := writeCheck(cf, &rep, shots, stdout, stderr); err != nil {
 		fmt.Fprintln(stderr, "standout check:", err)
 		return 2
@@ -204,8 +205,48 @@ func writeCheck(cf *checkFlags, rep *report.Report, shots [][]byte, stdout, stde
 			writeText(stdout, p)
 		}
 	}
-	if len(cf.args) > 1 || len(rep.Errors) > 0 {
+	// A summary of nothing checked says nothing the error does not.
+	if (len(cf.args) > 1 || len(rep.Errors) > 0) && len(rep.Pages) > 0 {
 		writeSummary(summary, rep, len(cf.args))
+	}
+	return nil
+}
+
+// emphasisFound checks that an --emphasis given names something: mark ids
+// that all exist, or a selector that matches a mark of some chart. An
+// emphasis that matches nothing would otherwise be replaced, silently, by
+// the inferred one.
+func emphasisFound(cf *checkFlags, rep *report.Report) error {
+	if len(rep.Pages) == 0 {
+		return nil // the pages' own errors say why
+	}
+	if cf.opt.Selector != "" {
+		for _, p := range rep.Pages {
+			for _, c := range p.Charts {
+				if c.Emphasis != nil && !c.Emphasis.Inferred {
+					return nil
+				}
+			}
+		}
+		return fmt.Errorf("--emphasis %q matches no mark of any chart", cf.opt.Selector)
+	}
+	var missing []string
+	for id := range cf.opt.IDs {
+		found := false
+		for _, p := range rep.Pages {
+			for _, c := range p.Charts {
+				for _, m := range c.Marks {
+					found = found || m.ID == id
+				}
+			}
+		}
+		if !found {
+			missing = append(missing, id)
+		}
+	}
+	if len(missing) > 0 {
+		sort.Strings(missing)
+		return fmt.Errorf("--emphasis names marks that no chart has: %s", strings.Join(missing, ", "))
 	}
 	return nil
 }

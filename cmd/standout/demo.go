@@ -2,7 +2,6 @@ package main
 
 import (
 	"bytes"
-	"flag"
 	"fmt"
 	"io"
 	"io/fs"
@@ -21,13 +20,12 @@ import (
 // when one is installed, else with the static reader. With --serve it
 // serves the pages on a local port, to try the extension on.
 func runDemo(args []string, stdout, stderr io.Writer) int {
-	fl := flag.NewFlagSet("demo", flag.ContinueOnError)
-	fl.SetOutput(stderr)
+	fl := newFlags("demo", "standout demo [flags]", "0 done; 2 bad usage, or a page that could not be served or checked", stdout, stderr)
 	serve := fl.Bool("serve", false, "serve the demo pages on a local port (to try the extension) instead of checking them")
 	addr := fl.String("addr", "127.0.0.1:8417", "address for --serve")
 	static := fl.Bool("static", false, "use the static reader even when Chromium is installed")
-	if err := parseFlags(fl, args); err != nil {
-		return 2
+	if code, ok := fl.parse(args); !ok {
+		return code
 	}
 	sub, _ := fs.Sub(demo.Pages, "pages")
 	names, err := fs.Glob(sub, "*.html")

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"flag"
 	"fmt"
 	"io"
 
@@ -12,14 +11,13 @@ import (
 // extension files, the Go core built for WebAssembly, and the wasm_exec.js
 // of the Go toolchain that built it.
 func runExtension(args []string, stdout, stderr io.Writer) int {
-	fl := flag.NewFlagSet("extension", flag.ContinueOnError)
-	fl.SetOutput(stderr)
+	fl := newFlags("extension", "standout extension [--firefox] DIR   (run from the Standout repository: it builds the WebAssembly core with the go tool)",
+		"0 written; 2 bad usage or a build that failed", stdout, stderr)
 	firefox := fl.Bool("firefox", false, "write the Firefox manifest (event page) instead of Chromium's")
-	fl.Usage = func() {
-		fmt.Fprintln(stderr, "usage: standout extension [--firefox] DIR   (run from the Standout repository: it builds the WebAssembly core with the go tool)")
-		fl.PrintDefaults()
+	if code, ok := fl.parse(args); !ok {
+		return code
 	}
-	if err := parseFlags(fl, args); err != nil || fl.NArg() != 1 {
+	if fl.NArg() != 1 {
 		fl.Usage()
 		return 2
 	}

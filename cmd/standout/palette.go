@@ -2,7 +2,6 @@ package main
 
 import (
 	"encoding/json"
-	"flag"
 	"fmt"
 	"io"
 	"math"
@@ -113,8 +112,8 @@ func lengthRatio(m colour.MarkType) float64 {
 }
 
 func runPalette(args []string, stdout, stderr io.Writer) int {
-	fs := flag.NewFlagSet("palette", flag.ContinueOnError)
-	fs.SetOutput(stderr)
+	fs := newFlags("palette", "standout palette [flags] COLOUR COLOUR…",
+		"0 checked and --fail-on not met; 1 --fail-on met; 2 bad usage or a colour that is not CSS", stdout, stderr)
 	bgFlag := fs.String("background", "white", "background `colour` for contrast")
 	asJSON := fs.Bool("json", false, "write the versioned JSON report")
 	severity := fs.Float64("severity", 1, "CVD severity within [0, 1]")
@@ -123,12 +122,8 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 	failOn := fs.String("fail-on", "", "exit 1 when: normal (a pair collapses for normal vision), cvd (for any vision type), contrast (a colour below 3:1), any")
 	distance := fs.Float64("distance-cm", colour.DefaultViewing.DistanceCM, "viewing distance in cm")
 	ppi := fs.Float64("px-per-inch", colour.DefaultViewing.CSSPxPerInch, "CSS px per physical inch")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: standout palette [flags] COLOUR COLOUR…")
-		fs.PrintDefaults()
-	}
-	if err := parseFlags(fs, args); err != nil {
-		return 2
+	if code, ok := fs.parse(args); !ok {
+		return code
 	}
 	if fs.NArg() < 2 {
 		fs.Usage()
