@@ -25,6 +25,10 @@ func runExtension(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "standout extension:", err)
 		return 2
 	}
-	fmt.Fprintf(stdout, "Wrote the extension to %s. Load it unpacked: chrome://extensions → Developer mode → Load unpacked.\n", fl.Arg(0))
+	load := "Load it unpacked: chrome://extensions → Developer mode → Load unpacked."
+	if *firefox {
+		load = "Load it as a temporary add-on: about:debugging → This Firefox → Load Temporary Add-on… → its manifest.json."
+	}
+	fmt.Fprintf(stdout, "Wrote the extension to %s. %s\n", fl.Arg(0), load)
 	return 0
 }

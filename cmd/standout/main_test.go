@@ -72,7 +72,14 @@ func TestPaletteFailOnAndErrors(t *testing.T) {
 	assert.Equal(t, 2, code)
 	code, _, _ = runCmd("palette", "--severity", "2", "red", "blue")
 	assert.Equal(t, 2, code)
-	code, out, _ := runCmd("palette", "red", "blue", "--mark", "bar", "--size", "20")
+	// One name for CVD strength in every command; the former one still works.
+	code, _, errs = runCmd("palette", "--cvd-severity", "2", "red", "blue")
+	assert.Equal(t, 2, code)
+	assert.Contains(t, errs, "--cvd-severity")
+	code, out, _ := runCmd("palette", "--cvd-severity", "0.5", "red", "blue", "--size", "2.5")
+	assert.Equal(t, 0, code)
+	assert.Contains(t, out, "marks of 2.5 px (CVD severity 0.5)", "the size as given")
+	code, out, _ = runCmd("palette", "red", "blue", "--mark", "bar", "--size", "20")
 	assert.Equal(t, 0, code)
 	assert.Contains(t, out, "Contrast against the background")
 }

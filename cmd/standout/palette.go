@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"strconv"
 	"strings"
 
 	"standout/perception/colour"
@@ -116,7 +117,8 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 		"0 checked and --fail-on not met; 1 --fail-on met; 2 bad usage or a colour that is not CSS", stdout, stderr)
 	bgFlag := fs.String("background", "white", "background `colour` for contrast")
 	asJSON := fs.Bool("json", false, "write the versioned JSON report")
-	severity := fs.Float64("severity", 1, "CVD severity within [0, 1]")
+	severity := fs.Float64("cvd-severity", 1, "CVD severity within [0, 1], as in check")
+	fs.Float64Var(severity, "severity", 1, "the former name of --cvd-severity, kept for one version")
 	mark := fs.String("mark", "point", "mark type the colours will paint: point, bar, line or area")
 	size := fs.Float64("size", 10, "mark size in CSS px (smallest dimension; stroke width for lines)")
 	failOn := fs.String("fail-on", "", "exit 1 when: normal (a pair collapses for normal vision), cvd (for any vision type), contrast (a colour below 3:1), any")
@@ -194,7 +196,7 @@ func paletteInputs(bgFlag string, severity, size, distance, ppi float64, mark, f
 		return bgc, 0, fmt.Errorf("--background %q is not a CSS colour", bgFlag)
 	}
 	if !(severity >= 0 && severity <= 1) {
-		return bgc, 0, fmt.Errorf("--severity %v is outside [0, 1]", severity)
+		return bgc, 0, fmt.Errorf("--cvd-severity %v is outside [0, 1]", severity)
 	}
 	if !(size > 0) || !(distance > 0) || !(ppi > 0) {
 		return bgc, 0, fmt.Errorf("--size, --distance-cm and --px-per-inch must be positive")
@@ -212,7 +214,7 @@ func paletteInputs(bgFlag string, severity, size, distance, ppi float64, mark, f
 }
 
 func writePaletteText(w io.Writer, r *paletteReport) {
-	fmt.Fprintf(w, "Palette of %d colours on %s, for %s marks of %.0f px (CVD severity %.2g)\n\n", len(r.Colors), r.Background, r.Mark, r.SizePx, r.Severity)
+	fmt.Fprintf(w, "Palette of %d colours on %s, for %s marks of %s px (CVD severity %.2g)\n\n", len(r.Colors), r.Background, r.Mark, strconv.FormatFloat(r.SizePx, 'g', 4, 64), r.Severity)
 	fmt.Fprintln(w, "Contrast against the background (WCAG 2.x; graphics need 3:1):")
 	for i, c := range r.Colors {
 		verdict := "meets 3:1"
