@@ -577,7 +577,7 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	h := newHarness(t)
 	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
 		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		fmt.Fprint(w, `<!doctype html><html><body style="margin:0;background:#fff"><svg width="400" height="300" style="display:block"><rect x="0" y="0" width="300" height="200" fill="#d62728"/><rect x="320" y="10" width="20" height="20" fill="#1f77b4"/><rect x="350" y="10" width="20" height="20" fill="#2ca02c"/></svg></body></html>`)
+		fmt.Fprint(w, `<!doctype html><html><body style="margin:0;background:#fff"><svg width="400" height="300" style="display:block"><rect x="0" y="0" width="300" height="200" fill="#c23a2e"/><rect x="320" y="10" width="20" height="20" fill="#2a6fa8"/><rect x="350" y="10" width="20" height="20" fill="#3b9a3f"/></svg></body></html>`)
 	})
 	h.open(srv.URL + "/")
 	before := h.eval(`document.documentElement.outerHTML`)
@@ -588,7 +588,7 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	_, img := h.screenshot()
 	r, g, b, _ := img.At(100, 150).RGBA()
 	got := colour.SRGB8(uint8(r>>8), uint8(g>>8), uint8(b>>8))
-	want := colour.Simulate(colour.Deutan, 1, colour.MustHex("#d62728"))
+	want := colour.Simulate(colour.Deutan, 1, colour.MustHex("#c23a2e"))
 	// The browser runs the same matrix in linear RGB (feColorMatrix with
 	// color-interpolation-filters: linearRGB) on 8-bit buffers: allow 3
 	// levels per channel for the two 8-bit quantisations.
@@ -777,22 +777,22 @@ func TestE2ESiblingStyleSharing(t *testing.T) {
 	}
 	pages := []page{
 		{"classes, ids, inline styles and presentation attributes", `<!doctype html><html><head><style>
-		  .a circle { fill: #1f77b4; } .a > .b { fill: #d62728; stroke: #000; stroke-width: 2px } #x { fill: green } svg g.c { opacity: .5 }
+		  .a circle { fill: #2a6fa8; } .a > .b { fill: #c23a2e; stroke: #000; stroke-width: 2px } #x { fill: green } svg g.c { opacity: .5 }
 		  .d { color: #8a2be2 } .d circle { fill: currentColor }</style></head><body>
 		  <svg width="400" height="200"><g class="a">` + circles(40) + `<circle class="b" cx="5" cy="5" r="3"/><circle id="x" cx="9" cy="9" r="3"/>
 		  <circle style="fill: orange" cx="7" cy="7" r="3"/><circle fill="red" cx="8" cy="8" r="3"/><circle fill-opacity=".3" cx="8" cy="9" r="3"/></g>
 		  <g class="c">` + circles(20) + `</g><g class="d" color="#ff0000">` + circles(5) + `<circle color="#00ff00" cx="3" cy="3" r="2"/></g></svg></body></html>`, true},
-		{":root, :not() and pseudo-elements", `<!doctype html><html><head><style>:root { --c: #1f77b4 } circle:not(.z) { fill: var(--c) } p::before { content: "x" }</style></head><body>
+		{":root, :not() and pseudo-elements", `<!doctype html><html><head><style>:root { --c: #2a6fa8 } circle:not(.z) { fill: var(--c) } p::before { content: "x" }</style></head><body>
 		  <svg width="400" height="200"><g>` + circles(30) + `<circle class="z" cx="1" cy="1" r="1"/></g></svg></body></html>`, true},
-		{"a state pseudo-class inside :not()", `<!doctype html><html><head><style>circle:not(:hover) { fill: #1f77b4 }</style></head><body>
+		{"a state pseudo-class inside :not()", `<!doctype html><html><head><style>circle:not(:hover) { fill: #2a6fa8 }</style></head><body>
 		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
-		{"a structural pseudo-class", `<!doctype html><html><head><style>circle:nth-child(2n) { fill: #d62728 }</style></head><body>
+		{"a structural pseudo-class", `<!doctype html><html><head><style>circle:nth-child(2n) { fill: #c23a2e }</style></head><body>
 		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
-		{"an attribute selector", `<!doctype html><html><head><style>[cy="23"] { fill: #d62728 }</style></head><body>
+		{"an attribute selector", `<!doctype html><html><head><style>[cy="23"] { fill: #c23a2e }</style></head><body>
 		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
-		{"a sibling combinator", `<!doctype html><html><head><style>circle + circle { fill: #d62728 }</style></head><body>
+		{"a sibling combinator", `<!doctype html><html><head><style>circle + circle { fill: #c23a2e }</style></head><body>
 		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
-		{"a running animation", `<!doctype html><html><head><style>@keyframes k { to { fill: #d62728 } } circle { animation: k 60s infinite }</style></head><body>
+		{"a running animation", `<!doctype html><html><head><style>@keyframes k { to { fill: #c23a2e } } circle { animation: k 60s infinite }</style></head><body>
 		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
 		{"a cross-origin style sheet", `<!doctype html><html><head><link rel="stylesheet" href="` + other.URL + `/s.css"></head><body>
 		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},

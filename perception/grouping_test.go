@@ -23,7 +23,7 @@ func TestGridColourVersusLines(t *testing.T) {
 	// colour groups the columns, connectedness the rows, so the cues
 	// conflict (Palmer & Rock 1994: connectedness groups; ARI from Hubert &
 	// Arabie 1985 measures the disagreement).
-	cols := []colour.SRGB{colour.MustHex("#1b9e77"), colour.MustHex("#d95f02"), colour.MustHex("#7570b3"), colour.MustHex("#e7298a")}
+	cols := []colour.SRGB{colour.MustHex("#1f8a6a"), colour.MustHex("#c9611a"), colour.MustHex("#6f64a8"), colour.MustHex("#cc3a86")}
 	var marks []Mark
 	for r := 0; r < 4; r++ {
 		for c := 0; c < 4; c++ {
@@ -44,7 +44,7 @@ func TestGridColourVersusLines(t *testing.T) {
 func TestGridColourAndSpacingAgree(t *testing.T) {
 	// Three clusters of 3×3 points, far apart, each one colour: proximity
 	// and colour partition the marks identically (ARI 1).
-	cols := []colour.SRGB{colour.MustHex("#1b9e77"), colour.MustHex("#d95f02"), colour.MustHex("#7570b3")}
+	cols := []colour.SRGB{colour.MustHex("#1f8a6a"), colour.MustHex("#c9611a"), colour.MustHex("#6f64a8")}
 	var marks []Mark
 	for k := 0; k < 3; k++ {
 		for i := 0; i < 9; i++ {

@@ -307,7 +307,7 @@ func TestFixVerificationMatchesFreshAnalysis(t *testing.T) {
 	res := Analyse(in, DefaultParams)
 	require.False(t, res.Holds[0])
 	agreed := map[bool]int{}
-	for _, c := range []string{"#d62728", "#111111", "#ff7f0e", "#9467bd", "#3c9c3c", "#e7e7e7"} {
+	for _, c := range []string{"#c23a2e", "#111111", "#e9822a", "#8a66b0", "#3c9c3c", "#e7e7e7"} {
 		col := colour.MustHex(c)
 		got := verify(in, DefaultParams, []int{target}, res, func(i int, m *Mark) {
 			if i == target {

@@ -23,7 +23,7 @@ func TestHandleStaticSnapshot(t *testing.T) {
 	// A snapshot from the static builder goes through the core exactly as
 	// a browser snapshot would.
 	doc := `<svg width="200" height="100"><g><rect x="0" y="50" width="10" height="50" fill="#999"/><rect x="20" y="40" width="10" height="60" fill="#999"/>
-	<rect x="40" y="30" width="10" height="70" fill="#d62728"/><rect x="60" y="45" width="10" height="55" fill="#999"/></g></svg>`
+	<rect x="40" y="30" width="10" height="70" fill="#c23a2e"/><rect x="60" y="45" width="10" height="55" fill="#999"/></g></svg>`
 	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t"})
 	require.NoError(t, err)
 	req, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Emphasis: []string{"svg0/g0/rect2"}, Full: true})

@@ -26,17 +26,17 @@ func TestPaletteJSON(t *testing.T) {
 	// Red and green of equal lightness-ish, and a blue: the red/green pair
 	// must collapse for deutan and protan readers (Machado et al. 2009 at
 	// severity 1), and stay apart for normal vision.
-	code, out, errs := runCmd("palette", "--json", "#d62728", "#2ca02c", "#1f77b4")
+	code, out, errs := runCmd("palette", "--json", "#c23a2e", "#3b9a3f", "#2a6fa8")
 	require.Equal(t, 0, code, errs)
 	var rep paletteReport
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
 	assert.Equal(t, 1, rep.Version)
 	require.Len(t, rep.Colors, 3)
-	assert.Equal(t, "#d62728", rep.Colors[0].Input)
-	assert.Equal(t, "#d62728", rep.Colors[0].Hex)
+	assert.Equal(t, "#c23a2e", rep.Colors[0].Input)
+	assert.Equal(t, "#c23a2e", rep.Colors[0].Hex)
 	// Contrast against white: the WCAG 2.x ratio the colour package
 	// verifies against the published examples, unrounded.
-	assert.Equal(t, colour.ContrastRatio(colour.MustHex("#d62728"), colour.MustHex("#ffffff")), rep.Colors[0].Contrast)
+	assert.Equal(t, colour.ContrastRatio(colour.MustHex("#c23a2e"), colour.MustHex("#ffffff")), rep.Colors[0].Contrast)
 	require.Len(t, rep.Pairs, 3)
 	rg := rep.Pairs[0]
 	assert.Equal(t, [2]int{0, 1}, [2]int{rg.A, rg.B})
@@ -56,13 +56,13 @@ func TestPaletteJSON(t *testing.T) {
 }
 
 func TestPaletteFailOnAndErrors(t *testing.T) {
-	code, _, _ := runCmd("palette", "--fail-on", "cvd", "#d62728", "#2ca02c")
+	code, _, _ := runCmd("palette", "--fail-on", "cvd", "#c23a2e", "#3b9a3f")
 	assert.Equal(t, 1, code)
-	code, _, _ = runCmd("palette", "--fail-on", "normal", "#d62728", "#2ca02c")
+	code, _, _ = runCmd("palette", "--fail-on", "normal", "#c23a2e", "#3b9a3f")
 	assert.Equal(t, 0, code)
 	code, _, _ = runCmd("palette", "--fail-on", "contrast", "#ffff00", "#000000")
 	assert.Equal(t, 1, code, "yellow on white is below 3:1")
-	code, _, errs := runCmd("palette", "#d62728", "bluish")
+	code, _, errs := runCmd("palette", "#c23a2e", "bluish")
 	assert.Equal(t, 2, code)
 	assert.Contains(t, errs, `"bluish"`)
 	code, _, errs = runCmd("palette", "--background", "nope", "red", "blue")
@@ -88,7 +88,7 @@ func TestCheckJSONAndExitCodes(t *testing.T) {
 	dir := t.TempDir()
 	page := filepath.Join(dir, "p.html")
 	require.NoError(t, os.WriteFile(page, []byte(`<svg width="200" height="100"><rect width="200" height="100" fill="#fff"/>
-	<circle cx="10" cy="10" r="4" fill="#1f77b4"/><circle cx="30" cy="10" r="4" fill="#1f77b4" opacity="0.5"/><circle cx="50" cy="10" r="4" stroke="red" fill="none"/></svg>`), 0o644))
+	<circle cx="10" cy="10" r="4" fill="#2a6fa8"/><circle cx="30" cy="10" r="4" fill="#2a6fa8" opacity="0.5"/><circle cx="50" cy="10" r="4" stroke="red" fill="none"/></svg>`), 0o644))
 	code, out, errs := runCmd("check", "--json", page)
 	require.Equal(t, 0, code, errs)
 	var rep report.Report
@@ -99,7 +99,7 @@ func TestCheckJSONAndExitCodes(t *testing.T) {
 	require.Len(t, c.Marks, 3)
 	assert.Equal(t, "point", c.Marks[0].Kind)
 	assert.Equal(t, "circle", c.Marks[0].Shape)
-	assert.Equal(t, "#1f77b4", *c.Marks[0].Fill)
+	assert.Equal(t, "#2a6fa8", *c.Marks[0].Fill)
 	assert.Nil(t, c.Marks[0].Stroke)
 	assert.Equal(t, 0.5, c.Marks[1].Opacity)
 	assert.Nil(t, c.Marks[2].Fill)

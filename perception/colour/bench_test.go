@@ -6,21 +6,21 @@ var sinkF float64
 var sinkC SRGB
 
 func BenchmarkDeltaE2000(b *testing.B) {
-	x, y := SRGBToLab(MustHex("#1b9e77")), SRGBToLab(MustHex("#d95f02"))
+	x, y := SRGBToLab(MustHex("#1f8a6a")), SRGBToLab(MustHex("#c9611a"))
 	for i := 0; i < b.N; i++ {
 		sinkF = DeltaE2000(x, y)
 	}
 }
 
 func BenchmarkSRGBToLab(b *testing.B) {
-	c := MustHex("#7570b3")
+	c := MustHex("#6f64a8")
 	for i := 0; i < b.N; i++ {
 		sinkF = SRGBToLab(c).L
 	}
 }
 
 func BenchmarkSimulateDeutan(b *testing.B) {
-	c := MustHex("#e7298a")
+	c := MustHex("#cc3a86")
 	for i := 0; i < b.N; i++ {
 		sinkC = Simulate(Deutan, 0.73, c)
 	}

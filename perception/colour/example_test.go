@@ -23,13 +23,13 @@ func ExampleContrastRatio() {
 func ExampleSimulate() {
 	// A red and a green that normal vision tells apart easily, as a
 	// deuteranope sees them (Machado et al. 2009, severity 1).
-	red, green := colour.MustHex("#d62728"), colour.MustHex("#2ca02c")
+	red, green := colour.MustHex("#c23a2e"), colour.MustHex("#3b9a3f")
 	r, g := colour.Simulate(colour.Deutan, 1, red), colour.Simulate(colour.Deutan, 1, green)
 	fmt.Println(r.Hex(), g.Hex())
 	fmt.Printf("ΔE00 normal %.1f, deutan %.1f\n",
 		colour.DeltaE2000(colour.SRGBToLab(red), colour.SRGBToLab(green)),
 		colour.DeltaE2000(colour.SRGBToLab(r), colour.SRGBToLab(g)))
 	// Output:
-	// #8b7c1f #968838
-	// ΔE00 normal 71.8, deutan 4.6
+	// #837629 #918446
+	// ΔE00 normal 64.5, deutan 6.3
 }
