@@ -32,6 +32,8 @@ func TestPaletteJSON(t *testing.T) {
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
 	assert.Equal(t, 1, rep.Version)
 	require.Len(t, rep.Colors, 3)
+	assert.Equal(t, rep.Colors, rep.FormerColors, "the former key carries the same colours until version 2")
+	assert.Contains(t, out, `"colours"`)
 	assert.Equal(t, "#c23a2e", rep.Colors[0].Input)
 	assert.Equal(t, "#c23a2e", rep.Colors[0].Hex)
 	// Contrast against white: the WCAG 2.x ratio the colour package

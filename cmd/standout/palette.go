@@ -12,8 +12,13 @@ import (
 	"standout/static"
 )
 
-// PaletteVersion is the version of the palette --json document.
-const PaletteVersion = 1
+// PaletteVersion is the version of the palette --json document, and
+// PaletteMinor counts the changes within it (minor 1: colours, spelled as
+// everywhere else, with the former colors kept for this version).
+const (
+	PaletteVersion = 1
+	PaletteMinor   = 1
+)
 
 type paletteColor struct {
 	Input    string  `json:"input"`
@@ -37,12 +42,16 @@ type palettePair struct {
 type paletteReport struct {
 	Schema     string         `json:"schema"`
 	Version    int            `json:"version"`
+	Minor      int            `json:"minor"`
 	Background string         `json:"background"`
 	Severity   float64        `json:"severity"`
 	Mark       string         `json:"mark"`
 	SizePx     float64        `json:"sizePx"`
-	Colors     []paletteColor `json:"colors"`
-	Pairs      []palettePair  `json:"pairs"`
+	Colors     []paletteColor `json:"colours"`
+	// FormerColors repeats Colors under the key version 1 first used;
+	// it goes in version 2.
+	FormerColors []paletteColor `json:"colors"`
+	Pairs        []palettePair  `json:"pairs"`
 	// Collapsed lists, per vision type, the pairs that are not noticeably
 	// different.
 	Collapsed map[string][][2]int `json:"collapsed"`
@@ -68,7 +77,7 @@ func markType(s string) (colour.MarkType, error) {
 // checkPalette computes the palette report.
 func checkPalette(inputs []string, bg colour.SRGB, severity float64, mark colour.MarkType, markName string, size float64, model colour.NDModel) (*paletteReport, error) {
 	var cols []colour.SRGB
-	rep := &paletteReport{Schema: "standout-palette", Version: PaletteVersion, Background: bg.Hex(), Severity: severity,
+	rep := &paletteReport{Schema: "standout-palette", Version: PaletteVersion, Minor: PaletteMinor, Background: bg.Hex(), Severity: severity,
 		Mark: markName, SizePx: size, Collapsed: map[string][][2]int{}, Caution: caution}
 	for _, in := range inputs {
 		c, err := static.ParseColor(in)
@@ -100,6 +109,7 @@ func checkPalette(inputs []string, bg colour.SRGB, severity float64, mark colour
 			rep.Pairs = append(rep.Pairs, p)
 		}
 	}
+	rep.FormerColors = rep.Colors
 	return rep, nil
 }
 
