@@ -365,8 +365,8 @@
     for (const c of page.charts) {
       if (!c.isChart) continue;
       n++;
-      const sec = el('section', { 'aria-label': 'Chart ' + c.path });
-      sec.appendChild(el('h2', {}, `Chart ${c.path}: ${c.nodes.length} marks`));
+      const sec = el('section', { 'aria-label': c.title ? `${c.title} (${c.path})` : 'Chart ' + c.path });
+      sec.appendChild(el('h2', {}, `${c.title ? `${c.title} (${c.path})` : `Chart ${c.path}`}: ${c.nodes.length} marks`));
       const counts = { pops: 0, conjunction: 0, blends: 0 };
       for (const v of c.verdicts) counts[VERDICT_OF[v] || 'blends']++;
       sec.appendChild(el('p', {}, `${counts.pops} ${WORDS.pops}; ${counts.conjunction} only by a slow search; ${counts.blends} ${WORDS.blends}.`));

@@ -20,6 +20,7 @@
   const SLICE_MS = 40;
   const SHAPES = new Set(['circle', 'ellipse', 'rect', 'line', 'polyline', 'polygon', 'path', 'text', 'image']);
   const SVG_NS = 'http://www.w3.org/2000/svg';
+  const XHTML_NS = 'http://www.w3.org/1999/xhtml';
   const PLAIN_NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
 
   let canvasCtx = null;
@@ -435,11 +436,12 @@
       return this.nameOf(this.parentOf[i]) + (k < 0 ? '>' + this.tagName[i] : '/' + this.tagName[i] + k);
     }
 
-    snapshot(source, box, bg) {
+    snapshot(source, title, box, bg) {
       const snap = {
         v: SNAPSHOT_VERSION, source, path: this.path, box, bg, problems: this.problems,
         tags: this.tags, paints: this.paints, strs: this.strs, nodes: this.nodes,
       };
+      if (title) snap.title = title;
       if (this.sel.length) snap.sel = this.sel;
       return snap;
     }
@@ -659,11 +661,38 @@
   // stroke-width without a stroke, and a bounding box only for text and
   // paths, whose extent only the browser knows (the walk computes the
   // other shapes' boxes from their geometry, as the browser does).
-  function readChart(svg, path, root, off, emphasis, share, budget) {
+  function readChart(svg, path, root, off, emphasis, share, budget, heading) {
     const box = svg.getBoundingClientRect();
     const walk = new ChartWalk(svg, path, root, off, emphasis, share, budget);
     walk.add(svg, -1, 0, null, null, 0);
-    return walk.w.snapshot(svg.ownerDocument.location.href, [box.left + off[0], box.top + off[1], box.width, box.height], background(svg));
+    const title = chartTitle(svg, heading);
+    return walk.w.snapshot(svg.ownerDocument.location.href, title, [box.left + off[0], box.top + off[1], box.width, box.height], background(svg));
+  }
+
+  // cleanTitle collapses white space and bounds a title to 120 code
+  // points, as the static reader does (static/title.go).
+  function cleanTitle(s) {
+    return Array.from((s || '').split(/\s+/).filter(Boolean).join(' ')).slice(0, 120).join('');
+  }
+
+  // chartTitle is what a reader would call the chart: its aria-label, its
+  // own <title>, the <figcaption> of the <figure> that holds it, or the
+  // nearest heading before it (heading, found by findCharts' walk), in the
+  // static reader's order (static/title.go).
+  function chartTitle(svg, heading) {
+    const al = cleanTitle(svg.getAttribute('aria-label'));
+    if (al) return al;
+    for (let c = svg.firstElementChild; c; c = c.nextElementSibling) {
+      if (c.localName.toLowerCase() === 'title') {
+        const t = cleanTitle(c.textContent);
+        if (t) return t;
+      }
+    }
+    const fig = svg.closest('figure');
+    const cap = fig && fig.querySelector('figcaption');
+    const ct = cap ? cleanTitle(cap.textContent) : '';
+    if (ct) return ct;
+    return heading ? cleanTitle(heading.textContent) : '';
   }
 
   // The colour behind an element: ancestors' backgrounds composited over
@@ -694,12 +723,16 @@
     let nShadow = 0;
     let nFrame = 0;
     const perPrefix = new Map(); // charts named so far under each prefix
-    const visit = (root, prefix, off, top, frames) => {
+    const HEADING = /^h[1-6]$/;
+    const visit = (root, prefix, off, top, frames, heading) => {
       const walker = (root.ownerDocument || root).createTreeWalker(root, NodeFilter.SHOW_ELEMENT);
       let n = walker.currentNode;
       if (n === root) n = walker.nextNode();
       while (n) {
         const tag = n.localName;
+        // The last heading so far in document order: a chart's name when
+        // it has no label of its own.
+        if (HEADING.test(tag) && n.namespaceURI === XHTML_NS) heading = n;
         if (tag === 'svg' && n.namespaceURI === SVG_NS) {
           let path;
           if (top) {
@@ -709,7 +742,7 @@
             perPrefix.set(prefix, k + 1);
             path = prefix + 'svg' + k;
           }
-          out.push({ svg: n, path, root, off, frames });
+          out.push({ svg: n, path, root, off, frames, heading });
           // Skip the subtree: nested <svg> belong to this chart.
           let next = walker.nextSibling();
           while (!next && walker.parentNode()) next = walker.nextSibling();
@@ -717,7 +750,7 @@
           continue;
         }
         if (n.shadowRoot) {
-          visit(n.shadowRoot, 'shadow' + nShadow++ + '/', off, false, frames);
+          visit(n.shadowRoot, 'shadow' + nShadow++ + '/', off, false, frames, heading);
         }
         if (tag === 'iframe' || tag === 'frame') {
           const i = nFrame++;
@@ -735,13 +768,13 @@
             // off already holds this window's scroll; frames nest.
             const fx = off[0] + r.left + (parseFloat(cs.borderLeftWidth) || 0) + (parseFloat(cs.paddingLeft) || 0);
             const fy = off[1] + r.top + (parseFloat(cs.borderTopWidth) || 0) + (parseFloat(cs.paddingTop) || 0);
-            visit(d, 'frame' + i + '/', [fx, fy], false, frames.concat([n]));
+            visit(d, 'frame' + i + '/', [fx, fy], false, frames.concat([n]), null);
           }
         }
         n = walker.nextNode();
       }
     };
-    visit(doc, '', [window.scrollX, window.scrollY], true, []);
+    visit(doc, '', [window.scrollX, window.scrollY], true, [], null);
     return out;
   }
 
@@ -790,7 +823,7 @@
         const share = shareable.get(c.root);
         const before = budget.nodes;
         try {
-          snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share, budget));
+          snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share, budget, c.heading));
         } catch (e) {
           if (!(e instanceof capError)) throw e;
           problems.push(e.message);

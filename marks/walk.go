@@ -83,6 +83,7 @@ type Mark struct {
 // Chart is what Walk makes of a snapshot.
 type Chart struct {
 	Path       string
+	Title      string // the chart's name for people (snapshot.Snapshot.Title)
 	Source     string
 	Box        [4]float64
 	Background uint32
@@ -129,7 +130,7 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	if s.Version != snapshot.SnapshotVersion {
 		return nil, fmt.Errorf("marks: snapshot version %d, want %d", s.Version, snapshot.SnapshotVersion)
 	}
-	ch := &Chart{Path: s.Path, Source: s.Source, Box: s.Box, Background: s.Background,
+	ch := &Chart{Path: s.Path, Title: s.Title, Source: s.Source, Box: s.Box, Background: s.Background,
 		Furniture: map[Role]int{}, Problems: append([]string(nil), s.Problems...)}
 	n := len(s.Nodes)
 	if n == 0 {

@@ -24,6 +24,10 @@ type Snapshot struct {
 	// Path is the stable id of the root <svg> within the page, such as
 	// "svg0" or "iframe1/svg2".
 	Path string
+	// Title is the chart's name for people: its aria-label, its own
+	// <title>, the caption of the <figure> that holds it, or the nearest
+	// heading before it; empty when it has none (then Path names it).
+	Title string
 	// Box is the root <svg>'s viewport in page CSS px: x, y, width, height.
 	Box [4]float64
 	// Background is the colour behind the chart (0xRRGGBBAA), from the

@@ -86,9 +86,14 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	b.sel = sel
 	order := 0
 	var svgs []*html.Node
+	var heading *html.Node // the last h1–h6 so far, in document order
+	b.headingOf = map[*html.Node]*html.Node{}
 	walkNodes(doc, func(n *html.Node) bool {
 		if n.Type != html.ElementNode {
 			return true
+		}
+		if isHeading(n) {
+			heading = n
 		}
 		if id := attr(n, "id"); id != "" {
 			if _, dup := b.ids[id]; !dup {
@@ -104,6 +109,7 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 			page.Problems = append(page.Problems, fmt.Sprintf("external style sheet %q was not loaded by the static reader; a browser may style the charts differently", attr(n, "href")))
 		case n.Data == "svg" && n.Namespace == "svg" && !insideSVG(n):
 			svgs = append(svgs, n)
+			b.headingOf[n] = heading
 		}
 		return true
 	})
@@ -121,13 +127,15 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 }
 
 type builder struct {
-	opt  Options
-	ids  map[string]*html.Node
-	casc *cascader
-	page *Page
-	html map[*html.Node]*computed // computed styles of HTML ancestors
-	snap *snapshot.Snapshot
-	sel  cascadia.SelectorGroup
+	// headingOf is, per outermost <svg>, the last heading before it.
+	headingOf map[*html.Node]*html.Node
+	opt       Options
+	ids       map[string]*html.Node
+	casc      *cascader
+	page      *Page
+	html      map[*html.Node]*computed // computed styles of HTML ancestors
+	snap      *snapshot.Snapshot
+	sel       cascadia.SelectorGroup
 	// pageNodes counts the page's chart elements; useNodes those the
 	// current chart instantiates through <use>.
 	pageNodes, useNodes int
@@ -224,7 +232,7 @@ func (b *builder) styleOfHTML(n *html.Node) *computed {
 }
 
 func (b *builder) chart(svg *html.Node, path string) (*snapshot.Snapshot, error) {
-	snap := &snapshot.Snapshot{Version: snapshot.SnapshotVersion, Source: b.opt.Source, Path: path, Background: 0xffffffff}
+	snap := &snapshot.Snapshot{Version: snapshot.SnapshotVersion, Source: b.opt.Source, Path: path, Title: chartTitle(svg, b.headingOf[svg]), Background: 0xffffffff}
 	b.snap = snap
 	b.useNodes = 0
 	var parentStyle *computed

@@ -125,6 +125,7 @@ func digestMatchesReport(t *testing.T, snaps []snapshot.Snapshot, full, lite Res
 
 // chartDigestMatches compares one chart's digest with its report.
 func chartDigestMatches(t *testing.T, snap snapshot.Snapshot, fc report.Chart, lc report.DigestChart) {
+	assert.Equal(t, fc.Title, lc.Title)
 	// The node of each mark is the node its id names.
 	nodeName := func(k int) string { return snap.Nodes[lc.Nodes[k]].Name }
 	require.Len(t, lc.Nodes, len(fc.Marks))

@@ -32,7 +32,7 @@ func writeText(w io.Writer, p report.Page) {
 			fmt.Fprintf(w, "  %s: not a chart (%s)\n", c.Path, c.Reason)
 			continue
 		}
-		fmt.Fprintf(w, "  %s: %d data marks, %.0f×%.0f px on %s\n", c.Path, len(c.Marks), c.Box[2], c.Box[3], c.Background)
+		fmt.Fprintf(w, "  %s: %d data marks, %.0f×%.0f px on %s\n", c.Name(), len(c.Marks), c.Box[2], c.Box[3], c.Background)
 		type key struct{ kind, shape, fill, stroke string }
 		groups := map[key]int{}
 		for _, m := range c.Marks {

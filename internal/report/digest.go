@@ -28,6 +28,7 @@ type DigestPage struct {
 // DigestChart is one chart of a Digest.
 type DigestChart struct {
 	Path    string     `json:"path"`
+	Title   string     `json:"title,omitempty"`
 	IsChart bool       `json:"isChart"`
 	Box     [4]float64 `json:"box"`
 	// Nodes are the marks' snapshot nodes (the overlay names a mark by its
@@ -108,6 +109,10 @@ func appendDigestChart(b []byte, a Analysed) []byte {
 	ch := a.Chart
 	b = append(b, `{"path":`...)
 	b = jsonio.AppendString(b, ch.Path)
+	if ch.Title != "" {
+		b = append(b, `,"title":`...)
+		b = jsonio.AppendString(b, ch.Title)
+	}
 	b = append(b, `,"isChart":`...)
 	b = strconv.AppendBool(b, ch.IsChart)
 	b = append(b, `,"box":`...)

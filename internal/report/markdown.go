@@ -26,7 +26,11 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				continue
 			}
 			charts++
-			fmt.Fprintf(w, "### Chart %s\n\n", mdCode(c.Path))
+			if c.Title != "" {
+				fmt.Fprintf(w, "### %s (%s)\n\n", mdEscape(c.Title), mdCode(c.Path))
+			} else {
+				fmt.Fprintf(w, "### Chart %s\n\n", mdCode(c.Path))
+			}
 			if img, ok := pngs[p.Source+"#"+c.Path]; ok {
 				fmt.Fprintf(w, "![Chart %s with Standout's outlines](%s)\n\n", mdEscape(c.Path), img)
 			}

@@ -55,7 +55,10 @@ type Mark struct {
 // why), its marks, legend swatches and furniture, the problems met
 // reading it, and the analysis's findings, grouping and emphasis.
 type Chart struct {
-	Path       string         `json:"path"`
+	Path string `json:"path"`
+	// Title is the chart's name for people: its aria-label, <title>,
+	// figure caption or nearest heading (minor 1); absent when it has none.
+	Title      string         `json:"title,omitempty"`
 	IsChart    bool           `json:"isChart"`
 	Reason     string         `json:"reason,omitempty"`
 	Box        [4]float64     `json:"box"`
@@ -232,7 +235,7 @@ func PageOf(name string, problems []string, as []Analysed) Page {
 	rp := Page{Source: name, Problems: nonNil(problems), Charts: []Chart{}}
 	for _, a := range as {
 		ch := a.Chart
-		rc := Chart{Path: ch.Path, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
+		rc := Chart{Path: ch.Path, Title: ch.Title, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
 			Background: snapshot.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
 			Furniture: furniture(ch.Furniture), Problems: nonNil(ch.Problems)}
 		for _, m := range ch.Marks {
@@ -248,6 +251,15 @@ func PageOf(name string, problems []string, as []Analysed) Page {
 		rp.Charts = append(rp.Charts, rc)
 	}
 	return rp
+}
+
+// Name is how the reports call a chart: its title with its path, or its
+// path alone.
+func (c *Chart) Name() string {
+	if c.Title == "" {
+		return c.Path
+	}
+	return "“" + c.Title + "” (" + c.Path + ")"
 }
 
 // furniture counts what the walk set aside, by role name.
