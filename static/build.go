@@ -106,7 +106,7 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 			b.casc.rules = append(b.casc.rules, rules...)
 			page.Problems = append(page.Problems, probs...)
 		case n.Data == "link" && strings.Contains(strings.ToLower(attr(n, "rel")), "stylesheet"):
-			page.Problems = append(page.Problems, fmt.Sprintf("external style sheet %q was not loaded by the static reader; a browser may style the charts differently", attr(n, "href")))
+			page.Problems = append(page.Problems, fmt.Sprintf("external style sheet %q was not loaded by the static reader, so the charts may be read with default colours; run check --browser to read them as a browser styles them", attr(n, "href")))
 		case n.Data == "svg" && n.Namespace == "svg" && !insideSVG(n):
 			svgs = append(svgs, n)
 			b.headingOf[n] = heading

@@ -105,7 +105,13 @@ func fileStem(src string) string {
 
 // writeArtifacts writes the annotated PNGs (one per chart) and the
 // Markdown reports (one per page).
-func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) error {
+func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) (pngs, mds int, err error) {
+	err = writeArtifactFiles(r, shots, pngDir, mdDir, &pngs, &mds)
+	return pngs, mds, err
+}
+
+// writeArtifactFiles writes the PNGs and the Markdown, counting them.
+func writeArtifactFiles(r *report.Report, shots [][]byte, pngDir, mdDir string, nPNG, nMD *int) error {
 	for _, d := range []string{pngDir, mdDir} {
 		if d != "" {
 			if err := os.MkdirAll(d, 0o755); err != nil {
@@ -137,6 +143,7 @@ func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) erro
 				if err != nil {
 					return err
 				}
+				*nPNG++
 				rel := name
 				if mdDir != "" {
 					if r, err := filepath.Rel(mdDir, name); err == nil {
@@ -148,11 +155,12 @@ func writeArtifacts(r *report.Report, shots [][]byte, pngDir, mdDir string) erro
 		}
 		if mdDir != "" {
 			var b bytes.Buffer
-			one := report.Report{Schema: r.Schema, Version: r.Version, Pages: []report.Page{p}, Caution: r.Caution}
+			one := report.Report{Schema: r.Schema, Version: r.Version, Minor: r.Minor, Pages: []report.Page{p}, Caution: r.Caution}
 			report.WriteMarkdown(&b, &one, pngs)
 			if err := os.WriteFile(filepath.Join(mdDir, stem+".md"), b.Bytes(), 0o644); err != nil {
 				return err
 			}
+			*nMD++
 		}
 	}
 	return nil

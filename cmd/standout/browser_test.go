@@ -150,6 +150,10 @@ func TestMarkdownAndPNGGolden(t *testing.T) {
 	require.Equal(t, 0, code, errs)
 	mds, _ := filepath.Glob(filepath.Join(md, "*.md"))
 	require.Len(t, mds, 1)
+	written, _ := filepath.Glob(filepath.Join(pngs, "*.png"))
+	// The run says where its files went, and how many.
+	assert.Contains(t, errs, fmt.Sprintf("wrote %d annotated PNG(s) to %s", len(written), pngs))
+	assert.Contains(t, errs, "wrote 1 Markdown report(s) to "+md)
 	got, err := os.ReadFile(mds[0])
 	require.NoError(t, err)
 	// The page's path differs per run; the golden file has a placeholder.

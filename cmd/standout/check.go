@@ -188,8 +188,16 @@ func checkStatic(cf *checkFlags, rep *report.Report, progress *progress) (shots 
 // several pages or any failure, the summary.
 func writeCheck(cf *checkFlags, rep *report.Report, shots [][]byte, stdout, stderr io.Writer) error {
 	if cf.pngDir != "" || cf.mdDir != "" {
-		if err := writeArtifacts(rep, shots, cf.pngDir, cf.mdDir); err != nil {
+		pngs, mds, err := writeArtifacts(rep, shots, cf.pngDir, cf.mdDir)
+		if err != nil {
 			return err
+		}
+		// Say where the files went, on standard error beside the progress.
+		if cf.pngDir != "" {
+			fmt.Fprintf(stderr, "standout check: wrote %d annotated PNG(s) to %s\n", pngs, cf.pngDir)
+		}
+		if cf.mdDir != "" {
+			fmt.Fprintf(stderr, "standout check: wrote %d Markdown report(s) to %s\n", mds, cf.mdDir)
 		}
 	}
 	summary := stdout
