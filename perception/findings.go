@@ -179,6 +179,7 @@ type lowGroup struct {
 	cr    float64
 	text  bool
 	large bool
+	shown string // the first mark's colour as authored
 }
 
 // lowContrast finds the marks below the contrast their kind needs against
@@ -234,7 +235,7 @@ func lowContrast(in Input) (map[contrastKey]*lowGroup, []contrastKey) {
 		}
 		a, ok := low[k]
 		if !ok {
-			a = &lowGroup{cr: cr, text: text, large: large}
+			a = &lowGroup{cr: cr, text: text, large: large, shown: m.Shown()}
 			low[k] = a
 			keys = append(keys, k)
 		}
@@ -252,7 +253,7 @@ func boolByte(b bool) uint8 {
 
 // finding states a group's low contrast.
 func (a *lowGroup) finding(k contrastKey) Finding {
-	h := colour.SRGB8(k[0], k[1], k[2]).Hex()
+	h := a.shown
 	n := len(a.marks)
 	cr := ff(math.Floor(a.cr*100)/100, 2)
 	if a.text {
@@ -317,6 +318,7 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 // the noticeable difference at their size.
 type category struct {
 	c     colour.SRGB
+	shown string // as authored (Mark.Shown) for its first mark
 	marks []int
 	nd    [3]float64
 }
@@ -353,7 +355,7 @@ func categoryColours(in Input, p Params) ([]*category, int) {
 		shapes.of(m.Shape)
 		c := colours.of(m.Colour)
 		if c == len(cols) {
-			cols = append(cols, &category{c: m.Colour, nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)})
+			cols = append(cols, &category{c: m.Colour, shown: m.Shown(), nd: p.ND.For(m.Type, m.MinPx, m.MaxPx)})
 		}
 		cols[c].marks = append(cols[c].marks, i)
 	}
@@ -388,7 +390,7 @@ func mergedForCVD(cols []*category, p Params, out []Finding) []Finding {
 				sa := colour.SRGBToLab(colour.Simulate(v, p.Severity, cols[a].c))
 				sb := colour.SRGBToLab(colour.Simulate(v, p.Severity, cols[b].c))
 				if !colour.Noticeable(sa, sb, nd) {
-					pairs = append(pairs, cols[a].c.Hex()+" and "+cols[b].c.Hex())
+					pairs = append(pairs, cols[a].shown+" and "+cols[b].shown)
 					marks = append(marks, cols[a].marks...)
 					marks = append(marks, cols[b].marks...)
 				}
@@ -415,7 +417,7 @@ func legendFindings(in Input, p Params, out []Finding) []Finding {
 				sa := colour.SRGBToLab(colour.Simulate(v, p.Severity, ma.Colour))
 				sb := colour.SRGBToLab(colour.Simulate(v, p.Severity, mb.Colour))
 				if ma.Colour != mb.Colour && ma.Shape == mb.Shape && !colour.Noticeable(sa, sb, nd) {
-					pairs = append(pairs, ma.Colour.Hex()+" and "+mb.Colour.Hex())
+					pairs = append(pairs, ma.Shown()+" and "+mb.Shown())
 				}
 			}
 		}
@@ -490,7 +492,7 @@ func adjacentFindings(in Input) []Finding {
 		if cr >= colour.NonTextContrast {
 			continue
 		}
-		k := [2]string{a.Colour.Hex(), b.Colour.Hex()}
+		k := [2]string{a.Shown(), b.Shown()}
 		if k[1] < k[0] {
 			k[0], k[1] = k[1], k[0]
 		}

@@ -1,6 +1,10 @@
 package perception
 
-import "standout/perception/colour"
+import (
+	"math"
+	"standout/perception/colour"
+	"strconv"
+)
 
 // Mark is one data mark as the analysis sees it. Coordinates are page CSS
 // px.
@@ -18,6 +22,13 @@ type Mark struct {
 	// composited likewise; it counts for contrast against the background.
 	Outline    colour.SRGB
 	HasOutline bool
+	// Paint is the colour as the page's author wrote it (#rrggbb) and
+	// Alpha the opacity the reader sees it through (paint alpha × fill- or
+	// stroke-opacity × opacity); findings quote these, since the colour
+	// composited over the background is not one the author can find in
+	// their style sheet. Empty Paint: Colour is quoted.
+	Paint string
+	Alpha float64
 	// Size is the size channel's value: area (px²) for points, cells,
 	// arcs and areas; length (px) for bars and rules; stroke width for
 	// lines. Length tells which Stevens exponent applies.
@@ -51,4 +62,17 @@ type Input struct {
 	// Labelled is true when the chart labels its marks directly (text
 	// marks beside the data), which makes colour not the only cue.
 	Labelled bool
+}
+
+// Shown names a mark's colour as its author wrote it: the paint, with the
+// opacity the reader sees it through when that is below one ("#2a6fa8 at
+// 40% opacity"), or the colour as seen when no paint is known.
+func (m *Mark) Shown() string {
+	if m.Paint == "" {
+		return m.Colour.Hex()
+	}
+	if m.Alpha > 0 && m.Alpha < 0.995 {
+		return m.Paint + " at " + strconv.Itoa(int(math.Round(m.Alpha*100))) + "% opacity"
+	}
+	return m.Paint
 }

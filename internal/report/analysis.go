@@ -24,12 +24,14 @@ func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input
 		switch {
 		case filled:
 			pm.Colour = colour.Over(snapshot.Unpack(*m.Fill), m.FillOpacity*m.Opacity, bg)
+			pm.Paint, pm.Alpha = snapshot.Hex(*m.Fill), m.FillOpacity*m.Opacity
 			if m.Stroke != nil && m.StrokeOpacity > 0 && m.StrokeWidth > 0 {
 				pm.Outline = colour.Over(snapshot.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
 				pm.HasOutline = true
 			}
 		case m.Stroke != nil:
 			pm.Colour = colour.Over(snapshot.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
+			pm.Paint, pm.Alpha = snapshot.Hex(*m.Stroke), m.StrokeOpacity*m.Opacity
 		default:
 			pm.Colour = bg
 		}

@@ -85,3 +85,24 @@ func TestInkContrast(t *testing.T) {
 	// The pressed button's text: Paper on Ink.
 	assert.GreaterOrEqual(t, colour.ContrastRatio(colour.MustHex(Ink.Paper), colour.MustHex(Ink.Ink)), 4.5)
 }
+
+// Findings quote a colour as the author wrote it, with its opacity, not
+// the colour composited over the background, which appears in no style
+// sheet (issue 15's cascade case).
+func TestFindingsQuoteAuthoredColours(t *testing.T) {
+	page := `<svg width="200" height="100"><g fill="#2a6fa8" fill-opacity="0.4">
+	<circle cx="10" cy="10" r="5"/><circle cx="30" cy="10" r="5"/><circle cx="50" cy="10" r="5"/></g>
+	<circle cx="70" cy="10" r="5" fill="#5a5a5a"/></svg>`
+	p, err := checkFile("t", []byte(page), DefaultOptions)
+	require.NoError(t, err)
+	composited := colour.Over(colour.RGBA{SRGB: colour.MustHex("#2a6fa8"), A: 1}, 0.4, colour.MustHex("#ffffff")).Hex()
+	var low *Finding
+	for i, f := range p.Charts[0].Findings {
+		if f.ID == "mark-contrast-low" {
+			low = &p.Charts[0].Findings[i]
+		}
+	}
+	require.NotNil(t, low)
+	assert.Contains(t, low.Message, "#2a6fa8 at 40% opacity")
+	assert.NotContains(t, low.Message, composited)
+}
