@@ -161,13 +161,18 @@ func (fs *fixSearch) recolour(res *Result) *Fix {
 	return f
 }
 
+// muteMinLightness bounds the greys a mute fix offers from below (CIE
+// L*): muted marks are quiet ones, never near-black, which would make the
+// rest of the chart louder than the emphasis. Provisional.
+const muteMinLightness = 40
+
 // mute searches the greys that still meet 3:1 against the background for
 // the one farthest from the emphasis for the worst-off vision type.
 func (fs *fixSearch) mute(res *Result) *Fix {
 	tc := fs.target.Colour
 	var bestG colour.SRGB
 	bestGW := -1.0
-	for L := 10.0; L <= 95; L += 2.5 {
+	for L := float64(muteMinLightness); L <= 95; L += 2.5 {
 		g := colour.LabToSRGB(colour.Lab{L: L}).Clamped()
 		if colour.ContrastRatio(g, fs.in.Background) < colour.NonTextContrast {
 			continue
