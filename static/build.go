@@ -4,7 +4,10 @@ import (
 	"bytes"
 	"fmt"
 	"io"
+	"io/fs"
 	"math"
+	"net/url"
+	"path"
 	"standout/internal/svgnum"
 	"standout/snapshot"
 	"strconv"
@@ -38,7 +41,20 @@ type Options struct {
 	// snapshot's Selected list (an intended emphasis). Empty means
 	// DefaultEmphasisSelector.
 	Select string
+	// Sheets, when set, holds the files beside the page: style sheets
+	// that <link rel=stylesheet> names by a relative path are read from
+	// it (at most MaxSheetBytes each). The caller roots it at the page's
+	// folder (os.Root refuses paths that leave it); nothing is fetched
+	// from the network.
+	Sheets fs.FS
 }
+
+// MaxSheetBytes is the largest linked style sheet the static reader reads,
+// and MaxPageSheetBytes the most it reads for one page's links together.
+const (
+	MaxSheetBytes     = 4 << 20
+	MaxPageSheetBytes = 32 << 20
+)
 
 // DefaultEmphasisSelector marks the intended emphasis in a page's own
 // markup: authors add the attribute data-standout-emphasis to the marks
@@ -106,7 +122,9 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 			b.casc.rules = append(b.casc.rules, rules...)
 			page.Problems = append(page.Problems, probs...)
 		case n.Data == "link" && strings.Contains(strings.ToLower(attr(n, "rel")), "stylesheet"):
-			page.Problems = append(page.Problems, fmt.Sprintf("external style sheet %q was not loaded by the static reader, so the charts may be read with default colours; run check --browser to read them as a browser styles them", attr(n, "href")))
+			rules, probs := b.linkedSheet(attr(n, "href"), &order)
+			b.casc.rules = append(b.casc.rules, rules...)
+			page.Problems = append(page.Problems, probs...)
 		case n.Data == "svg" && n.Namespace == "svg" && !insideSVG(n):
 			svgs = append(svgs, n)
 			b.headingOf[n] = heading
@@ -127,6 +145,8 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 }
 
 type builder struct {
+	// sheetBytes counts the linked style sheets read so far.
+	sheetBytes int
 	// headingOf is, per outermost <svg>, the last heading before it.
 	headingOf map[*html.Node]*html.Node
 	opt       Options
@@ -141,6 +161,44 @@ type builder struct {
 	pageNodes, useNodes int
 	// useStack holds the <use> targets being expanded, to refuse cycles.
 	useStack map[*html.Node]bool
+}
+
+// linkedSheet reads a style sheet a <link> names by a path relative to
+// the page, from Options.Sheets; any other (remote, absolute, outside the
+// page's folder, missing, too large) is named in a problem instead.
+func (b *builder) linkedSheet(href string, order *int) ([]rule, []string) {
+	notLoaded := func(why string) ([]rule, []string) {
+		return nil, []string{fmt.Sprintf("external style sheet %q was not loaded by the static reader (%s), so the charts may be read with default colours; run check --browser to read them as a browser styles them", clip(href, 120), why)}
+	}
+	u, err := url.Parse(href)
+	switch {
+	case err != nil || href == "":
+		return notLoaded("not a usable address")
+	case u.Scheme != "" || u.Host != "" || strings.HasPrefix(u.Path, "/"):
+		return notLoaded("it is not beside the page")
+	case b.opt.Sheets == nil:
+		return notLoaded("no folder to read it from")
+	}
+	name := path.Clean(u.Path)
+	if !fs.ValidPath(name) {
+		return notLoaded("its path leaves the page's folder")
+	}
+	f, err := b.opt.Sheets.Open(name)
+	if err != nil {
+		return notLoaded("it could not be opened")
+	}
+	defer f.Close()
+	data, err := io.ReadAll(io.LimitReader(f, MaxSheetBytes+1))
+	if err != nil {
+		return notLoaded("it could not be read")
+	}
+	if len(data) > MaxSheetBytes {
+		return notLoaded(fmt.Sprintf("it is larger than %d MiB", MaxSheetBytes>>20))
+	}
+	if b.sheetBytes += len(data); b.sheetBytes > MaxPageSheetBytes {
+		return notLoaded(fmt.Sprintf("the page's linked style sheets pass %d MiB", MaxPageSheetBytes>>20))
+	}
+	return parseSheet(string(data), order, "style sheet "+name, &b.casc.budget)
 }
 
 // walkNodes visits n and its descendants in document order without

@@ -12,8 +12,11 @@
 // a chart at snapshot.MaxNodes, of a page at snapshot.MaxPageNodes, those
 // instantiated through <use> at snapshot.MaxUseNodes per chart, and the
 // flattened points of a path; it matches selectors in bounded time and
-// stops at Options.Deadline. It never fetches anything a page refers to
-// (external style sheets and images are reported, not loaded). Nesting
+// stops at Options.Deadline. It never fetches anything from the network:
+// style sheets linked by a path beside the page are read from
+// Options.Sheets (at most MaxSheetBytes each and MaxPageSheetBytes in all;
+// the command line roots it at the page's folder with os.Root), and every
+// other linked sheet or image is reported, not loaded. Nesting
 // deeper than x/net/html accepts (512 open elements) is an error. Values
 // that are not finite numbers never reach a Snapshot.
 package static

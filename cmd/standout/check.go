@@ -5,7 +5,9 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
+	"path/filepath"
 	"sort"
 	"strings"
 	"time"
@@ -287,13 +289,21 @@ func checkOneFile(name string, opt report.Options, timeout time.Duration) (repor
 		return report.Page{}, errors.New("is a folder, not a page")
 	}
 	opt.Deadline = time.Now().Add(timeout)
-	return checkReader(name, f, opt)
+	// Style sheets the page links by a relative path are read from its
+	// folder, through an os.Root: no path can leave it.
+	var sheets fs.FS
+	if root, err := os.OpenRoot(filepath.Dir(name)); err == nil {
+		defer root.Close()
+		sheets = root.FS()
+	}
+	return checkReader(name, f, sheets, opt)
 }
 
 // checkReader builds, walks and analyses every chart of one file with the
-// static reader.
-func checkReader(name string, r io.Reader, opt report.Options) (report.Page, error) {
-	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline})
+// static reader; sheets holds the files beside it, for linked style
+// sheets.
+func checkReader(name string, r io.Reader, sheets fs.FS, opt report.Options) (report.Page, error) {
+	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline, Sheets: sheets})
 	if err != nil {
 		return report.Page{}, err
 	}

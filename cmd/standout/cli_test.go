@@ -1,10 +1,15 @@
 package main
 
 import (
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"standout/internal/report"
 	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // Help is asked for, not an error: -h exits 0 and writes to standard
@@ -53,4 +58,31 @@ func TestMissingPageHasNoSummary(t *testing.T) {
 	assert.Empty(t, out)
 	assert.Contains(t, errs, "no-such-page.html")
 	assert.NotContains(t, errs, "pages checked")
+}
+
+// check reads the style sheets a page links beside it, and none from
+// outside its folder, not even through a symbolic link.
+func TestCheckReadsLocalStyleSheets(t *testing.T) {
+	dir := t.TempDir()
+	site := filepath.Join(dir, "site")
+	require.NoError(t, os.Mkdir(site, 0o755))
+	require.NoError(t, os.WriteFile(filepath.Join(site, "chart.css"), []byte(`rect { fill: #2a6fa8 }`), 0o644))
+	require.NoError(t, os.WriteFile(filepath.Join(dir, "outside.css"), []byte(`circle { fill: #c23a2e }`), 0o644))
+	require.NoError(t, os.Symlink(filepath.Join(dir, "outside.css"), filepath.Join(site, "escape.css")))
+	page := filepath.Join(site, "page.html")
+	require.NoError(t, os.WriteFile(page, []byte(`<html><head><link rel="stylesheet" href="chart.css"><link rel="stylesheet" href="escape.css"></head>
+	<body><svg width="100" height="50"><rect width="5" height="5"/><rect x="10" width="5" height="5"/><circle cx="30" cy="5" r="3"/></svg></body></html>`), 0o644))
+	code, out, errs := runCmd("check", "--json", page)
+	require.Equal(t, 0, code, errs)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	fills := map[string]string{}
+	for _, m := range rep.Pages[0].Charts[0].Marks {
+		if m.Fill != nil {
+			fills[m.ID] = *m.Fill
+		}
+	}
+	assert.Equal(t, "#2a6fa8", fills["svg0/rect0"], "the sheet beside the page is read")
+	assert.Equal(t, "#000000", fills["svg0/circle2"], "the sheet outside the folder is not")
+	assert.Contains(t, strings.Join(rep.Pages[0].Problems, "\n"), "escape.css")
 }

@@ -87,7 +87,7 @@ func serveDemo(sub fs.FS, names []string, addr string, stdout io.Writer) error {
 func demoStatic(sub fs.FS, names []string, stdout io.Writer) error {
 	for _, name := range names {
 		data, _ := fs.ReadFile(sub, name)
-		rp, err := checkReader(name, bytes.NewReader(data), report.DefaultOptions)
+		rp, err := checkReader(name, bytes.NewReader(data), sub, report.DefaultOptions)
 		if err != nil {
 			return fmt.Errorf("%s: %w", name, err)
 		}
@@ -111,7 +111,11 @@ func demoInBrowser(exe string, sub fs.FS, names []string, stdout, stderr io.Writ
 	for _, n := range names {
 		urls = append(urls, "http://"+l.Addr().String()+"/"+n)
 	}
-	results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: 2}, stderr)
+	progress := newProgress(stderr, len(urls))
+	results, err := readInBrowser(exe, urls, browser.ReadOptions{Tabs: 2, Progress: func(done, total int, r *browser.PageResult) {
+		progress.step(done, path.Base(r.URL), r.Err)
+	}}, stderr)
+	progress.done()
 	if err != nil {
 		return err
 	}
