@@ -69,7 +69,36 @@ func annotate(page image.Image, c report.Chart) *image.RGBA {
 			}
 		}
 	}
+	markFailedEmphasis(out, c, r.Min)
 	return out
+}
+
+// markFailedEmphasis frames, in the panel's alert colour and dashed, each
+// mark of a declared emphasis that does not stand out for normal vision:
+// the picture then shows what the report says failed.
+func markFailedEmphasis(out *image.RGBA, c report.Chart, origin image.Point) {
+	em := c.Emphasis
+	if em == nil || em.Inferred || em.Holds["normal"] {
+		return
+	}
+	var r, g, b uint8
+	fmt.Sscanf(report.Ink.Alert, "#%02x%02x%02x", &r, &g, &b)
+	alert := color.RGBA{r, g, b, 0xff}
+	box := map[string][4]float64{}
+	for _, m := range c.Marks {
+		box[m.ID] = m.BBox
+	}
+	for _, id := range em.Marks {
+		bb, ok := box[id]
+		if !ok {
+			continue
+		}
+		x0 := int(math.Round(bb[0]-5)) - origin.X
+		y0 := int(math.Round(bb[1]-5)) - origin.Y
+		x1 := int(math.Round(bb[0]+bb[2]+5)) - origin.X
+		y1 := int(math.Round(bb[1]+bb[3]+5)) - origin.Y
+		rectOutline(out, x0, y0, x1, y1, 2, []int{4, 3}, alert)
+	}
 }
 
 func set(img *image.RGBA, x, y int, c color.RGBA) {

@@ -2,9 +2,12 @@ package main
 
 import (
 	"encoding/json"
+	"image"
+	"image/draw"
 	"os"
 	"path/filepath"
 	"standout/internal/report"
+	"standout/perception/colour"
 	"strings"
 	"testing"
 
@@ -85,4 +88,32 @@ func TestCheckReadsLocalStyleSheets(t *testing.T) {
 	assert.Equal(t, "#2a6fa8", fills["svg0/rect0"], "the sheet beside the page is read")
 	assert.Equal(t, "#000000", fills["svg0/circle2"], "the sheet outside the folder is not")
 	assert.Contains(t, strings.Join(rep.Pages[0].Problems, "\n"), "escape.css")
+}
+
+// A declared emphasis that does not stand out is framed in the picture,
+// dashed in the panel's alert colour (report.Ink.Alert).
+func TestAnnotateMarksFailedEmphasis(t *testing.T) {
+	page := image.NewRGBA(image.Rect(0, 0, 200, 100))
+	draw.Draw(page, page.Bounds(), image.White, image.Point{}, draw.Src)
+	c := report.Chart{Path: "svg0", IsChart: true, Box: [4]float64{0, 0, 200, 100},
+		Marks:    []report.Mark{{ID: "m0", Verdict: "blends", BBox: [4]float64{50, 40, 10, 10}}, {ID: "m1", Verdict: "blends", BBox: [4]float64{100, 40, 10, 10}}},
+		Emphasis: &report.Emphasis{Marks: []string{"m0"}, Holds: map[string]bool{"normal": false}}}
+	alert := colour.MustHex(report.Ink.Alert)
+	ar, ag, ab := alert.RGB8()
+	count := func(img *image.RGBA) int {
+		n := 0
+		for y := 0; y < img.Bounds().Dy(); y++ {
+			for x := 0; x < img.Bounds().Dx(); x++ {
+				if p := img.RGBAAt(x, y); p.R == ar && p.G == ag && p.B == ab {
+					n++
+				}
+			}
+		}
+		return n
+	}
+	assert.Greater(t, count(annotate(page, c)), 40, "the failed emphasis is framed")
+	c.Emphasis.Holds["normal"] = true
+	assert.Equal(t, 0, count(annotate(page, c)), "one that holds is not")
+	c.Emphasis.Holds["normal"], c.Emphasis.Inferred = false, true
+	assert.Equal(t, 0, count(annotate(page, c)), "nor an inferred one")
 }

@@ -86,6 +86,7 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 			fmt.Fprintln(w)
 		}
 	}
+	writeKey(w)
 	fmt.Fprintf(w, "> %s\n", r.Caution)
 }
 

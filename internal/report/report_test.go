@@ -2,6 +2,7 @@ package report
 
 import (
 	"bytes"
+	"flag"
 	"os"
 	"path/filepath"
 	"standout/internal/testkit"
@@ -105,4 +106,18 @@ func TestFindingsQuoteAuthoredColours(t *testing.T) {
 	require.NotNil(t, low)
 	assert.Contains(t, low.Message, "#2a6fa8 at 40% opacity")
 	assert.NotContains(t, low.Message, composited)
+}
+
+var updateGlossary = flag.Bool("update", false, "rewrite docs/glossary.md")
+
+func TestGlossaryFileIsCurrent(t *testing.T) {
+	var b strings.Builder
+	WriteGlossary(&b)
+	p := filepath.Join(testkit.Root(t), "docs", "glossary.md")
+	if *updateGlossary {
+		require.NoError(t, os.WriteFile(p, []byte(b.String()), 0o644))
+	}
+	got, err := os.ReadFile(p)
+	require.NoError(t, err)
+	assert.Equal(t, b.String(), string(got), "docs/glossary.md is stale: go test ./internal/report -run Glossary -update")
 }

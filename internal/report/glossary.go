@@ -1,0 +1,73 @@
+package report
+
+import (
+	"fmt"
+	"io"
+	"strings"
+)
+
+// Term is one entry of the glossary: the words Standout's reports use,
+// said plainly for reporters and editors.
+type Term struct {
+	Term, Means string
+}
+
+// Glossary is the one vocabulary of the reports: the text and Markdown
+// reports end with the entries they use, and docs/glossary.md is written
+// from it (go test ./internal/report -run Glossary -update).
+var Glossary = []Term{
+	{"stands out at a glance (pops out)", "A reader's eye goes to the mark before they look for it: it differs enough from the marks around it in one feature (hue, lightness, size, orientation or shape), or in a few together. Finding it takes about as long with 10 marks as with 1,000."},
+	{"found only by a slow search (conjunction)", "The mark differs from every other mark only in a combination of features that the others each have one of, so a reader has to check marks one by one. The time to find it grows with the number of marks."},
+	{"blends in", "Nothing about the mark draws the eye; a reader finds it only by looking for it."},
+	{"emphasis", "The marks the chart means the reader to see first: declared by the author (data-standout-emphasis, or --emphasis) or, when none is declared, inferred from the marks that stand out."},
+	{"data extreme", "A mark that stands out only by the value it shows, such as the longest bar. That is the data speaking, not a highlight, and it is never taken for the emphasis."},
+	{"protan, deutan, tritan", "Readers with the three kinds of colour-vision deficiency (CVD): red-weak or red-blind (protan), green-weak or green-blind (deutan, the most common: about 1 man in 16, from memory), blue-weak or blue-blind (tritan, rare). Standout simulates them with Machado, Oliveira & Fernandes (2009); a simulation is a model, and readers vary."},
+	{"achromat (greyscale)", "The chart with every colour replaced by the grey of its luminance: what survives without hue, as in a greyscale print. It is not a model of rod monochromacy."},
+	{"CVD strength", "How strong the simulated deficiency is, from 0 (none) to 1 (full dichromacy): --cvd-severity on the command line, the slider in the panel."},
+	{"noticeable difference", "The smallest colour difference that half of readers can see between two marks of a given size (Stone, Szafir & Setlur 2014; Szafir 2018). Small marks need bigger differences."},
+	{"contrast ratio", "WCAG 2.x's measure of how far apart two colours are in luminance, from 1:1 (the same) to 21:1 (black on white). Graphics a reader needs and large text need 3:1 against what is next to them; other text needs 4.5:1."},
+	{"finding levels: error, warning, info", "An error is a problem a reader will meet (a mark too faint to see against the page). A warning is a problem some readers will meet, or a risk (an emphasis lost for deutan readers). Info is worth knowing (what stands out, and through what)."},
+	{"grouping cues", "What makes marks look like they belong together: nearness, common colour, common shape, lines joining them. When two cues divide the marks differently, readers see two competing structures; the adjusted Rand index measures how much two divisions agree (1 the same, 0 no more than chance)."},
+}
+
+// WriteGlossary writes the glossary as Markdown.
+func WriteGlossary(w io.Writer) {
+	fmt.Fprintln(w, "# Glossary")
+	fmt.Fprintln(w)
+	fmt.Fprintln(w, "The words Standout's reports use. Generated from internal/report/glossary.go.")
+	fmt.Fprintln(w)
+	for _, t := range Glossary {
+		fmt.Fprintf(w, "**%s**: %s\n\n", t.Term, t.Means)
+	}
+}
+
+// writeKey writes the Markdown report's key: what the outlines in the
+// pictures mean (the overlay and the PNGs draw the same styles) and the
+// terms the report uses.
+func writeKey(w io.Writer) {
+	fmt.Fprintln(w, "## How to read this report")
+	fmt.Fprintln(w)
+	for _, s := range VerdictStyles {
+		line := "a thin solid outline"
+		switch {
+		case len(s.Dash) > 0:
+			line = "a dashed outline"
+		case s.Width >= 2:
+			line = "a thick solid outline"
+		}
+		corner := ""
+		switch s.Corner {
+		case "notch":
+			corner = " with a filled triangle at its top right"
+		case "ring":
+			corner = " with a ring at its top right"
+		}
+		fmt.Fprintf(w, "- %s%s (%s): %s.\n", strings.ToUpper(line[:1])+line[1:], corner, s.Colour, s.Words)
+	}
+	fmt.Fprintln(w, "- A red dashed frame in a picture marks a declared emphasis that does not stand out.")
+	fmt.Fprintln(w)
+	for _, t := range Glossary {
+		fmt.Fprintf(w, "- **%s**: %s\n", t.Term, t.Means)
+	}
+	fmt.Fprintln(w)
+}
