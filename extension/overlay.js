@@ -336,7 +336,7 @@
     for (const [v, t] of [['off', 'normal vision (off)'], ['protan', 'protan'], ['deutan', 'deutan'], ['tritan', 'tritan'], ['achromat', 'achromatic']]) {
       sel.appendChild(el('option', v === state.view.vision ? { value: v, selected: '' } : { value: v }, t));
     }
-    const sevLab = el('label', { for: 'standout-sev' }, 'severity');
+    const sevLab = el('label', { for: 'standout-sev' }, 'CVD strength');
     const sev = el('input', { id: 'standout-sev', type: 'range', min: '0', max: '10', step: '1', value: String(state.view.tenths), 'data-action': 'severity', 'aria-valuetext': (state.view.tenths / 10).toFixed(1) });
     const scopeLab = el('label', { for: 'standout-scope' }, 'on');
     const scope = el('select', { id: 'standout-scope', 'data-action': 'scope' });

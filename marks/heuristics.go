@@ -41,6 +41,11 @@ type Heuristics struct {
 	// AxisTickTouches: a long line that this many tick ends touch (within
 	// AlignTol) is an axis line.
 	AxisTickTouches int
+	// BaselineBars: a straight axis-aligned line on which this many bars
+	// stand (or hang from), their ends on it within AlignTol and half its
+	// stroke, is the value axis's baseline, not a data mark. Provisional:
+	// a bar chart's baseline is drawn as a rule by several generators.
+	BaselineBars int
 
 	// LabelGroupMin: texts sharing a parent are marks (direct labels of
 	// data) only in groups of at least this many that do not line up.
@@ -100,6 +105,7 @@ var DefaultHeuristics = Heuristics{
 	PooledGroupMin: 3, PooledGroupMax: 200,
 	TickMaxLen: 15, ThroughTol: 1.5,
 	AxisTickTouches: 2,
+	BaselineBars:    2,
 
 	LabelGroupMin: 3,
 

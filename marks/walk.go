@@ -380,6 +380,7 @@ func classifyFurniture(h *Heuristics, ch *Chart, cands []*cand) {
 	grid := gridGroups(h, segs)
 	tickEnds := ticksAndGridlines(h, cands, segs, grid)
 	axisLines(h, segs, grid, tickEnds)
+	baselines(h, cands, segs)
 }
 
 // coverRole is the role of a rectangle that covers others: a background
@@ -594,6 +595,35 @@ func axisLines(h *Heuristics, segs []seg, grid []bool, tickEnds []Point) {
 		}
 		if touching >= h.AxisTickTouches {
 			s.c.role = RoleAxis
+		}
+	}
+}
+
+// baselines: a line that bars stand on (or hang from, or start at, for
+// horizontal bars) is the value axis's baseline.
+func baselines(h *Heuristics, cands []*cand, segs []seg) {
+	for _, s := range segs {
+		if s.c.role != RoleMark {
+			continue
+		}
+		tol := h.AlignTol + s.c.strokeW/2
+		on := 0
+		for _, o := range cands {
+			if o == s.c || o.role != RoleMark || o.g.Shape != ShapeSquare || !o.g.Closed {
+				continue
+			}
+			b := o.g.BBox
+			if s.vert {
+				if (math.Abs(b[0]-s.a.X) <= tol || math.Abs(b[0]+b[2]-s.a.X) <= tol) && b[1] >= s.a.Y-tol && b[1]+b[3] <= s.b.Y+tol {
+					on++
+				}
+			} else if (math.Abs(b[1]-s.a.Y) <= tol || math.Abs(b[1]+b[3]-s.a.Y) <= tol) && b[0] >= s.a.X-tol && b[0]+b[2] <= s.b.X+tol {
+				on++
+			}
+			if on >= h.BaselineBars {
+				s.c.role = RoleAxis
+				break
+			}
 		}
 	}
 }

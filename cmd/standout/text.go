@@ -36,7 +36,13 @@ func writeText(w io.Writer, p report.Page) {
 		type key struct{ kind, shape, fill, stroke string }
 		groups := map[key]int{}
 		for _, m := range c.Marks {
-			k := key{m.Kind, m.Shape, "none", "none"}
+			// A shape is a feature of points; a bar's "square" outline
+			// class would only confuse.
+			shape := m.Shape
+			if m.Kind != "point" {
+				shape = ""
+			}
+			k := key{m.Kind, shape, "none", "none"}
 			if m.Fill != nil {
 				k.fill = *m.Fill
 			}
