@@ -661,11 +661,11 @@
   // stroke-width without a stroke, and a bounding box only for text and
   // paths, whose extent only the browser knows (the walk computes the
   // other shapes' boxes from their geometry, as the browser does).
-  function readChart(svg, path, root, off, emphasis, share, budget, heading) {
+  function readChart(svg, path, root, off, emphasis, share, budget, heading, captions) {
     const box = svg.getBoundingClientRect();
     const walk = new ChartWalk(svg, path, root, off, emphasis, share, budget);
     walk.add(svg, -1, 0, null, null, 0);
-    const title = chartTitle(svg, heading);
+    const title = chartTitle(svg, heading, captions);
     return walk.w.snapshot(svg.ownerDocument.location.href, title, [box.left + off[0], box.top + off[1], box.width, box.height], background(svg));
   }
 
@@ -678,8 +678,9 @@
   // chartTitle is what a reader would call the chart: its aria-label, its
   // own <title>, the <figcaption> of the <figure> that holds it, or the
   // nearest heading before it (heading, found by findCharts' walk), in the
-  // static reader's order (static/title.go).
-  function chartTitle(svg, heading) {
+  // static reader's order (static/title.go). captions caches each figure's
+  // caption, so that a figure of many charts is searched once.
+  function chartTitle(svg, heading, captions) {
     const al = cleanTitle(svg.getAttribute('aria-label'));
     if (al) return al;
     for (let c = svg.firstElementChild; c; c = c.nextElementSibling) {
@@ -689,8 +690,11 @@
       }
     }
     const fig = svg.closest('figure');
-    const cap = fig && fig.querySelector('figcaption');
-    const ct = cap ? cleanTitle(cap.textContent) : '';
+    if (fig && !captions.has(fig)) {
+      const cap = fig.querySelector('figcaption');
+      captions.set(fig, cap ? cleanTitle(cap.textContent) : '');
+    }
+    const ct = fig ? captions.get(fig) : '';
     if (ct) return ct;
     return heading ? cleanTitle(heading.textContent) : '';
   }
@@ -807,6 +811,7 @@
     // Whether sibling style sharing is safe, per document or shadow root;
     // opts.noSharing turns it off (to measure what it saves).
     const shareable = new Map();
+    const captions = new Map(); // per <figure>, its caption: read once for all its charts
     let shared = 0;
     let slice = performance.now();
     let yieldMs = 0;
@@ -823,7 +828,7 @@
         const share = shareable.get(c.root);
         const before = budget.nodes;
         try {
-          snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share, budget, c.heading));
+          snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share, budget, c.heading, captions));
         } catch (e) {
           if (!(e instanceof capError)) throw e;
           problems.push(e.message);

@@ -145,6 +145,8 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 }
 
 type builder struct {
+	// captions caches each <figure>'s caption (captionOf).
+	captions map[*html.Node]string
 	// sheetBytes counts the linked style sheets read so far.
 	sheetBytes int
 	// headingOf is, per outermost <svg>, the last heading before it.
@@ -290,7 +292,7 @@ func (b *builder) styleOfHTML(n *html.Node) *computed {
 }
 
 func (b *builder) chart(svg *html.Node, path string) (*snapshot.Snapshot, error) {
-	snap := &snapshot.Snapshot{Version: snapshot.SnapshotVersion, Source: b.opt.Source, Path: path, Title: chartTitle(svg, b.headingOf[svg]), Background: 0xffffffff}
+	snap := &snapshot.Snapshot{Version: snapshot.SnapshotVersion, Source: b.opt.Source, Path: path, Title: b.chartTitle(svg, b.headingOf[svg]), Background: 0xffffffff}
 	b.snap = snap
 	b.useNodes = 0
 	var parentStyle *computed

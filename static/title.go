@@ -14,7 +14,7 @@ const maxTitleRunes = 120
 // nearest heading before it (heading, found in the one walk over the
 // document), in that order; the read pass, extension/reader.js, looks in
 // the same places. Empty when none says.
-func chartTitle(svg, heading *html.Node) string {
+func (b *builder) chartTitle(svg, heading *html.Node) string {
 	if t := cleanTitle(attr(svg, "aria-label")); t != "" {
 		return t
 	}
@@ -27,14 +27,7 @@ func chartTitle(svg, heading *html.Node) string {
 	}
 	for p := svg.Parent; p != nil; p = p.Parent {
 		if p.Type == html.ElementNode && p.Data == "figure" {
-			var caption string
-			walkNodes(p, func(c *html.Node) bool {
-				if caption == "" && c.Type == html.ElementNode && c.Data == "figcaption" {
-					caption = cleanTitle(textContent(c))
-				}
-				return caption == ""
-			})
-			if caption != "" {
+			if caption := b.captionOf(p); caption != "" {
 				return caption
 			}
 			break
@@ -44,6 +37,26 @@ func chartTitle(svg, heading *html.Node) string {
 		return ""
 	}
 	return cleanTitle(textContent(heading))
+}
+
+// captionOf is a figure's caption: the text of its first <figcaption>,
+// searched once per figure, so a figure of many charts costs one walk.
+func (b *builder) captionOf(fig *html.Node) string {
+	if c, ok := b.captions[fig]; ok {
+		return c
+	}
+	var caption string
+	walkNodes(fig, func(c *html.Node) bool {
+		if caption == "" && c.Type == html.ElementNode && c.Data == "figcaption" {
+			caption = cleanTitle(textContent(c))
+		}
+		return caption == ""
+	})
+	if b.captions == nil {
+		b.captions = map[*html.Node]string{}
+	}
+	b.captions[fig] = caption
+	return caption
 }
 
 // isHeading says whether n is an HTML h1–h6.

@@ -1,12 +1,12 @@
 package main
 
 import (
-	"fmt"
 	"image"
 	"image/color"
 	"image/draw"
 	"math"
 	"standout/internal/report"
+	"standout/perception/colour"
 )
 
 // ink is a verdict's style (report.VerdictStyles, which the overlay
@@ -19,11 +19,15 @@ type ink struct {
 	corner string
 }
 
+// opaque is one of the look's #rrggbb colours as an opaque pixel.
+func opaque(hex string) color.RGBA {
+	r, g, b := colour.MustHex(hex).RGB8()
+	return color.RGBA{r, g, b, 0xff}
+}
+
 func inkOf(verdict string) ink {
 	st := report.StyleOf(verdict)
-	var r, g, b uint8
-	fmt.Sscanf(st.Colour, "#%02x%02x%02x", &r, &g, &b)
-	k := ink{c: color.RGBA{r, g, b, 0xff}, width: int(math.Ceil(st.Width)), corner: st.Corner}
+	k := ink{c: opaque(st.Colour), width: int(math.Ceil(st.Width)), corner: st.Corner}
 	for _, d := range st.Dash {
 		k.dash = append(k.dash, int(math.Round(d)))
 	}
@@ -81,9 +85,7 @@ func markFailedEmphasis(out *image.RGBA, c report.Chart, origin image.Point) {
 	if em == nil || em.Inferred || em.Holds["normal"] {
 		return
 	}
-	var r, g, b uint8
-	fmt.Sscanf(report.Ink.Alert, "#%02x%02x%02x", &r, &g, &b)
-	alert := color.RGBA{r, g, b, 0xff}
+	alert := opaque(report.Ink.Alert)
 	box := map[string][4]float64{}
 	for _, m := range c.Marks {
 		box[m.ID] = m.BBox
