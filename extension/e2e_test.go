@@ -596,6 +596,28 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	assert.InDelta(t, want.R, got.R, tol, "R: got %s want %s", got.Hex(), want.Hex())
 	assert.InDelta(t, want.G, got.G, tol, "G: got %s want %s", got.Hex(), want.Hex())
 	assert.InDelta(t, want.B, got.B, tol, "B: got %s want %s", got.Hex(), want.Hex())
+	// Tritan is two half-planes: the red and the blue lie on different
+	// wings, and the filter's mask must pick each one's.
+	h.chooseInOverlay("cvd", 3)
+	time.Sleep(300 * time.Millisecond)
+	_, img = h.screenshot()
+	for _, px := range []struct {
+		x, y int
+		fill string
+	}{{100, 150, "#c23a2e"}, {330, 20, "#2a6fa8"}, {360, 20, "#3b9a3f"}} {
+		r, g, b, _ := img.At(px.x, px.y).RGBA()
+		got := colour.SRGB8(uint8(r>>8), uint8(g>>8), uint8(b>>8))
+		want := colour.Simulate(colour.Tritan, 1, colour.MustHex(px.fill))
+		// The chain keeps intermediate results in 8-bit linear-light
+		// buffers, whose first step is sRGB 13: near black, allow one
+		// linear level instead.
+		wl, gl := colour.SRGBToLinear(want), colour.SRGBToLinear(got)
+		for i, d := range [][2]float64{{want.R, got.R}, {want.G, got.G}, {want.B, got.B}} {
+			lin := [][2]float64{{wl.R, gl.R}, {wl.G, gl.G}, {wl.B, gl.B}}[i]
+			assert.True(t, math.Abs(d[0]-d[1]) <= tol || math.Abs(lin[0]-lin[1]) <= 1.0/255,
+				"tritan %s channel %d: got %s want %s", px.fill, i, got.Hex(), want.Hex())
+		}
+	}
 	// Switching the preview off, then closing with Escape, leaves the page
 	// exactly as it was.
 	h.chooseInOverlay("cvd", 0)

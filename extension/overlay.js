@@ -500,7 +500,7 @@
     clearPreview();
     const { vision, tenths, scope } = state.view;
     if (vision === 'off' || !globalThis.standoutCVDFilters[vision]) return;
-    const values = globalThis.standoutCVDFilters[vision][Math.max(0, Math.min(10, tenths))];
+    const entry = globalThis.standoutCVDFilters[vision][Math.max(0, Math.min(10, tenths))];
     const id = 'standout-cvd-' + Math.random().toString(36).slice(2);
     const svg = document.createElementNS(SVG_NS, 'svg');
     svg.setAttribute('width', '0');
@@ -510,10 +510,7 @@
     const filter = document.createElementNS(SVG_NS, 'filter');
     filter.setAttribute('id', id);
     filter.setAttribute('color-interpolation-filters', 'linearRGB');
-    const m = document.createElementNS(SVG_NS, 'feColorMatrix');
-    m.setAttribute('type', 'matrix');
-    m.setAttribute('values', values);
-    filter.appendChild(m);
+    filterPrimitives(filter, entry);
     svg.appendChild(filter);
     const targets = scope === 'page' ? [document.body || document.documentElement] : [...state.layers.values()].map((l) => l.entry.svg).filter((t) => t.ownerDocument === document);
     const watching = state.observers.length > 0;
@@ -530,6 +527,33 @@
     }
     state.preview = { svg, restored };
     if (watching) observeCharts();
+  }
+
+  // filterPrimitives fills a filter with one feColorMatrix, or, for a
+  // dichromat of two half-planes, with both wings' matrices and a mask
+  // that keeps, per pixel, the wing on the colour's side of the plane
+  // between them (the side matrix's alpha, thresholded at one half).
+  function filterPrimitives(filter, entry) {
+    const add = (tag, attrs, parent = filter) => {
+      const el = document.createElementNS(SVG_NS, tag);
+      for (const [k, v] of Object.entries(attrs)) el.setAttribute(k, v);
+      parent.appendChild(el);
+      return el;
+    };
+    if (typeof entry === 'string') {
+      add('feColorMatrix', { type: 'matrix', values: entry });
+      return;
+    }
+    add('feColorMatrix', { in: 'SourceGraphic', type: 'matrix', values: entry.wings[0], result: 'wing0' });
+    add('feColorMatrix', { in: 'SourceGraphic', type: 'matrix', values: entry.wings[1], result: 'wing1' });
+    add('feColorMatrix', { in: 'SourceGraphic', type: 'matrix', values: entry.side, result: 'side' });
+    const step = add('feComponentTransfer', { in: 'side', result: 'mask' });
+    add('feFuncA', { type: 'discrete', tableValues: '0 1' }, step);
+    add('feComposite', { in: 'wing0', in2: 'mask', operator: 'in', result: 'kept0' });
+    add('feComposite', { in: 'wing1', in2: 'mask', operator: 'out', result: 'kept1' });
+    const merge = add('feMerge', {});
+    add('feMergeNode', { in: 'kept0' }, merge);
+    add('feMergeNode', { in: 'kept1' }, merge);
   }
 
   // clearPreview undoes what setPreview did: where the page has not

@@ -8,13 +8,14 @@ import (
 // Deficiency names a type of colour-vision deficiency.
 type Deficiency int
 
-// The deficiency types Standout simulates. Protan, Deutan and Tritan use
-// Machado et al. (2009) at a severity within [0, 1] (1 is dichromacy);
-// Achromat is a luminance greyscale: every colour becomes the grey of its
-// relative luminance. It is not a model of rod monochromacy (whose
-// spectral sensitivity and acuity differ), only a check of what survives
-// without hue. Machado's tritan at severity 1 approximates tritanopia; it
-// is not Brettel, Viénot & Mollon's (1997) dichromat model.
+// The deficiency types Standout simulates, at a severity within [0, 1]
+// (1 is dichromacy). Protan and Deutan use Machado et al. (2009). Tritan
+// uses Brettel, Viénot & Mollon's (1997) tritanope, blended with normal
+// vision below severity 1 (brettel.go): Machado's tritanomaly is only a
+// rough approximation. Achromat is a luminance greyscale: every colour
+// becomes the grey of its relative luminance. It is not a model of rod
+// monochromacy (whose spectral sensitivity and acuity differ), only a
+// check of what survives without hue.
 const (
 	Normal Deficiency = iota
 	Protan
@@ -115,15 +116,23 @@ func MachadoMatrix(d Deficiency, severity float64) Matrix {
 }
 
 // Simulate returns c as a reader with deficiency d at the given severity
-// would see it, by the Machado et al. (2009) model (Achromat: luminance
-// only), applied in linear light: decode, multiply, clamp to [0, 1], encode.
+// would see it, by the Machado et al. (2009) model (Tritan: Brettel et al.
+// 1997; Achromat: luminance only), applied in linear light: decode, multiply, clamp to [0, 1], encode.
 // The matrices are built from display-primary spectra and cone
 // fundamentals, which are linear-light quantities; colorspacious and R's
 // colorspace (since 2.0-3) apply them in linear RGB, culori applies them to
 // gamma-encoded values. Standout follows the model's linear definition.
 func Simulate(d Deficiency, severity float64, c SRGB) SRGB {
-	if d == Normal {
+	switch d {
+	case Normal:
 		return c
+	case Tritan:
+		s := clamp01(severity)
+		if s != s { // NaN
+			s = 0
+		}
+		m := brettelTritan.At(SRGBToLinear(c), s)
+		return SimulateWith(&m, c)
 	}
 	m := MachadoMatrix(d, severity)
 	return SimulateWith(&m, c)
