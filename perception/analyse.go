@@ -23,6 +23,10 @@ type Result struct {
 	// through the channel that encodes their data (MarkResult.Extreme):
 	// reported apart, never taken for emphasis.
 	Extremes []int
+	// Rivals are the marks of other kinds that catch the eye by colour,
+	// in the chart seen as one display, as strongly as an emphasis that
+	// pops (scene.go).
+	Rivals []int
 	// Holds[v] says whether every emphasised mark pops under Visions[v].
 	Holds    []bool
 	Groups   Grouping
@@ -78,6 +82,9 @@ func Analyse(in Input, p Params) *Result {
 				res.Holds[vi] = false
 			}
 		}
+	}
+	if res.Holds[0] {
+		res.Rivals = rivals(in, &p, res, sceneHue(in, &p, sceneNeeds(in, res.Emphasis)))
 	}
 	res.Groups = group(in, p, res.kinds, res.nbs)
 	res.Findings = findings(in, p, res)
@@ -184,5 +191,23 @@ func inferEmphasis(in Input, p Params, res *Result) []int {
 	if len(out)*3 > len(in.Marks) {
 		return nil
 	}
-	return out
+	return dataFirst(in, out)
+}
+
+// dataFirst keeps, of the marks that stand out, the data marks when there
+// are any: the highlight a chart means is in its data, and text that
+// stands out beside it (a coloured annotation, a label in the highlight's
+// colour) is judged as context, a rival or the highlight's own label
+// (scene.go), not as part of it.
+func dataFirst(in Input, out []int) []int {
+	data := out[:0:0]
+	for _, i := range out {
+		if in.Marks[i].Kind != "text" {
+			data = append(data, i)
+		}
+	}
+	if len(data) == 0 {
+		return out
+	}
+	return data
 }

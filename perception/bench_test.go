@@ -18,7 +18,17 @@ func benchMarks(n int) Input {
 			MinPx: 6, MaxPx: 6, Shape: "circle", X: rng.Float64() * 1000, Y: rng.Float64() * 1000}
 	}
 	marks[n/2].Colour = colour.MustHex("#111111") // a lightness emphasis that holds for every reader
-	return Input{Marks: marks, Background: colour.MustHex("#ffffff"), Emphasis: []int{n / 2}}
+	// A chart's furniture: 40 axis labels and a legend, so that the whole
+	// display (scene.go) is measured too.
+	for i := 0; i < 40; i++ {
+		marks = append(marks, Mark{Kind: "text", Type: colour.Line, Colour: colour.MustHex("#333333"), Size: 11,
+			MinPx: 1.4, MaxPx: 24, X: float64(i%20) * 50, Y: 1010 + float64(i/20)*990})
+	}
+	var legend []Mark
+	for i, c := range pal {
+		legend = append(legend, Mark{Kind: "point", Type: colour.Point, Colour: c, Size: 40, MinPx: 6, MaxPx: 6, X: 1020, Y: float64(i) * 12})
+	}
+	return Input{Marks: marks, Legend: legend, Background: colour.MustHex("#ffffff"), Emphasis: []int{n / 2}}
 }
 
 // BenchmarkFix10k is the same display with an emphasis that fails for

@@ -54,6 +54,7 @@ const (
 	srcGroup    = "Palmer & Rock 1994; Kubovy, Holcombe & Wagemans 1998; Hubert & Arabie 1985"
 	srcND       = "Szafir 2018; Stone, Szafir & Setlur 2014"
 	srcExtremes = "no published source: a design rule of the model (provisional)"
+	srcScene    = "Wolfe 1994; Wolfe 2021 (one priority map over the whole display)"
 )
 
 func plural(n int, one, many string) string {
@@ -84,6 +85,7 @@ func findings(in Input, p Params, res *Result) []Finding {
 	var out []Finding
 	out = append(out, emphasisFindings(in, p, res)...)
 	out = append(out, extremeFindings(in, res)...)
+	out = append(out, rivalFindings(in, res)...)
 	out = append(out, contrastFindings(in)...)
 	out = append(out, adjacentFindings(in)...)
 	out = append(out, categoryFindings(in, p, res)...)
@@ -570,6 +572,35 @@ func touchingBars(marks []Mark) [][2]int {
 	match(bottoms, tops)
 	slices.SortFunc(out, func(a, b [2]int) int { return cmp.Or(cmp.Compare(a[0], b[0]), cmp.Compare(a[1], b[1])) })
 	return out
+}
+
+// rivalFindings names what competes with an emphasis that pops: other
+// elements as colourful as it, which a reader's eye may reach first.
+func rivalFindings(in Input, res *Result) []Finding {
+	n := len(res.Rivals)
+	if n == 0 {
+		return nil
+	}
+	count := newIndexer[string]()
+	var kinds []int
+	var shown []string
+	for _, i := range res.Rivals {
+		k := count.of(in.Marks[i].Kind)
+		if k == len(kinds) {
+			kinds = append(kinds, 0)
+		}
+		kinds[k]++
+		if s := in.Marks[i].Shown(); len(shown) < 3 && !slices.Contains(shown, s) {
+			shown = append(shown, s)
+		}
+	}
+	var what []string
+	for k, c := range kinds {
+		what = append(what, itoa(c)+" "+count.keys[k])
+	}
+	return []Finding{{ID: "emphasis-rivalled", Severity: Warning, Marks: res.Rivals,
+		Message: "The emphasis stands out, but " + plural(n, "another element", itoa(n)+" other elements") + " (" + strings.Join(what, ", ") + ", in " + strings.Join(shown, ", ") + ") " + plural(n, "catches", "catch") + " the eye by colour too, and a reader may look there first. Give " + plural(n, "it", "them") + " a quieter colour, or the emphasis's own colour if " + plural(n, "it belongs", "they belong") + " to it.",
+		Source:  srcScene}}
 }
 
 // extremeFindings notes the data extremes: marks that stand out only by

@@ -93,6 +93,13 @@ type Params struct {
 	// share 0.5 are provisional: no published pooling rule for chart
 	// marks is in REFERENCES.md.
 	CombineExponent, CombineShare float64
+	// RivalShare is how strong, as a share of the emphasis's salience, an
+	// element of another kind that pops by colour in the whole display
+	// must be to compete with the emphasis (scene.go). Guided Search
+	// visits items in order of priority (Wolfe 2021, REFERENCES §5.6),
+	// but no published share says when a second pop-out steals the
+	// first glance: one half is provisional.
+	RivalShare float64
 	// Neighbours is how many nearest marks form the local surround
 	// (Nothdurft 1993: local feature contrast). Provisional.
 	Neighbours int
@@ -161,6 +168,7 @@ var DefaultParams = Params{
 	CombineExponent:    2,
 	CombineShare:       0.5,
 	LessFeatureFactor:  0.8,
+	RivalShare:         0.5,
 	Neighbours:         8,
 	ProximityRatio:     2,
 	ConnectTolerancePx: 1.5,
