@@ -68,3 +68,22 @@ func TestDistanceToHull(t *testing.T) {
 	assert.InDelta(t, 0.0, distanceToHull([2]float64{0.5, 0}, [][2]float64{{0, 0}, {1, 0}}), 1e-12)
 	assert.InDelta(t, 2.0, distanceToHull([2]float64{0.5, 2}, [][2]float64{{0, 0}, {1, 0}}), 1e-12)
 }
+
+// Search asymmetry in lightness (Treisman & Gormican 1988, from memory):
+// on a white ground, a darker target among lighter distractors (more
+// contrast among less) is found more easily than a lighter target among
+// darker ones (less among more), at the same ΔL*.
+func TestLightnessAsymmetry(t *testing.T) {
+	dark, light := lab(t, 45, 0, 0), lab(t, 65, 0, 0)
+	target := func(tc, dc colour.SRGB) float64 {
+		return analyseTarget(t, gridDisplay(30, 23, func(i int, m *Mark) {
+			m.Colour = dc
+			if i == 14 {
+				m.Colour = tc
+			}
+		}), 14).Salience.Of(Lightness)
+	}
+	more, less := target(dark, light), target(light, dark)
+	assert.Greater(t, more, less)
+	assert.InDelta(t, DefaultParams.LessFeatureFactor, less/more, 0.1, "the factor, and nothing else, separates them")
+}

@@ -57,3 +57,71 @@ func TestGroupsStandOut(t *testing.T) {
 		assert.Empty(t, res.Emphasis)
 	})
 }
+
+// Categories are not highlights: in a grouped bar chart of three colours
+// with three bars each, every colour group is as large as the largest,
+// so none is the "rest" another stands out from. Each group faces
+// distractors as unlike one another as they are unlike it (Duncan &
+// Humphreys 1989: search is hard when distractor heterogeneity rivals
+// target–distractor difference); the model's rule is that a highlight is
+// smaller than the display's largest group (provisional).
+func TestEqualCategoriesDoNotPop(t *testing.T) {
+	cols := []colour.SRGB{colour.MustHex("#2f5d8a"), colour.MustHex("#d9622b"), colour.MustHex("#e8a33d")}
+	marks := gridDisplay(9, 29, func(i int, m *Mark) { m.Colour = cols[i%3] })
+	res := Analyse(Input{Marks: marks, Background: colour.MustHex("#ffffff")}, DefaultParams)
+	for i := range res.Marks {
+		assert.NotEqual(t, Pops, res.Marks[i][0].Verdict, "mark %d", i)
+	}
+	assert.Empty(t, res.Emphasis)
+	// A single dark bar among four and four of two other colours is a
+	// feature singleton, smaller than the largest group, and pops
+	// (Treisman & Gelade 1980).
+	marks = gridDisplay(9, 29, func(i int, m *Mark) {
+		m.Colour = cols[1+i%2]
+		if i == 4 {
+			m.Colour = cols[0]
+		}
+	})
+	res = Analyse(Input{Marks: marks, Background: colour.MustHex("#ffffff")}, DefaultParams)
+	assert.Equal(t, Pops, res.Marks[4][0].Verdict)
+}
+
+// Groups defined by orientation or size segregate from a uniform surround
+// too: a region of tilted lines among vertical ones is seen at a glance
+// (texture segregation: Julesz 1981; Nothdurft 1991; both from memory),
+// so a highlighted set of 11 or 20 in 100, tilted 45° or drawn at four
+// times the area, pops whole; halves still do not.
+func TestGroupsInOtherChannels(t *testing.T) {
+	channels := map[string]func(m *Mark){
+		"orientation": func(m *Mark) { m.Angle = 45 },
+		"size":        func(m *Mark) { m.Size, m.MinPx, m.MaxPx = 78.5*4, 20, 20 },
+	}
+	base := func(m *Mark) {
+		m.Kind, m.Type, m.Shape = "point", colour.Point, "bar"
+		m.Fold, m.Angle = 2, 90
+	}
+	for name, set := range channels {
+		for _, share := range []int{11, 20, 50} {
+			t.Run(fmt.Sprintf("%s %d of 100", name, share), func(t *testing.T) {
+				var group []int
+				marks := gridDisplay(100, 31, func(i int, m *Mark) {
+					base(m)
+					if i%(100/share) == 0 && i/(100/share) < share {
+						set(m)
+						group = append(group, i)
+					}
+				})
+				require.Len(t, group, share)
+				res := Analyse(Input{Marks: marks, Background: colour.MustHex("#ffffff")}, DefaultParams)
+				if share == 50 {
+					assert.Empty(t, res.Emphasis, "halves: no rest to stand out from")
+					return
+				}
+				for _, i := range group {
+					assert.Equal(t, Pops, res.Marks[i][0].Verdict, "mark %d", i)
+				}
+				assert.Equal(t, group, res.Emphasis)
+			})
+		}
+	}
+}

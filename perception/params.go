@@ -49,13 +49,16 @@ type Params struct {
 
 	// SmallGroupFraction and SmallGroupMin bound the size of a target
 	// group: marks that share a feature value with at most
-	// max(SmallGroupMin, SmallGroupFraction·n) marks, and fewer than half
-	// of them, are candidate emphasis, judged against the heterogeneity of
+	// max(SmallGroupMin, SmallGroupFraction·n) marks, fewer than half of
+	// them and fewer than the display's largest group (equal groups are
+	// categories, not highlights), are candidate emphasis, judged against the heterogeneity of
 	// the rest of the display; the rest are distractors. Provisional.
 	SmallGroupFraction float64
 	SmallGroupMin      int
-	// GroupShareMax extends that to larger sets in a colour channel, up
-	// to this share of the marks, when the rest is uniform in the channel
+	// GroupShareMax extends that to larger sets in a colour, size or
+	// orientation channel (not shape, only a "probable" guiding
+	// attribute), up to this share of the marks, when the rest is uniform
+	// in the channel
 	// (its spread under one step): a colour-defined set segregates from a
 	// uniform surround at a glance whatever its share (Julesz 1981;
 	// Treisman 1982; Healey, Booth & Enns 1996, all from memory), so a

@@ -215,7 +215,10 @@ func newDisplayShared(p *Params, all []Mark, idx []int, bg colour.SRGB, v colour
 			}
 			d.ori[k] = m.Angle / p.OrientationStepDeg
 		}
-		if fold > 0 {
+		// A bar's aspect follows from its length, the data, and a slice's
+		// direction from its place in the pie: neither is an orientation
+		// the author chose to set a mark apart.
+		if k := all[idx[0]].Kind; fold > 0 && k != "bar" && k != "arc" {
 			d.oriP = 360 / float64(fold) / p.OrientationStepDeg
 		}
 		d.valueSize = valueChannelSize(all, idx, d.size)
@@ -319,9 +322,18 @@ type channelStats struct {
 	// a group is judged against the rest of the display, whatever size
 	// the rest's own groups have.
 	rest []float64
+	// largest is the display's largest group: a mark of a group as large
+	// is never a candidate target.
+	largest int
 	// flanked, in the hue channel, marks the candidates whose chromaticity
 	// lies within the hull of the rest's: not linearly separable from them.
 	flanked []bool
+}
+
+// own says whether mark k belongs to a small group that can be a target:
+// its own group is then left out of its local surround.
+func (st *channelStats) own(k, small int) bool {
+	return st.group[k] <= small && st.group[k] < st.largest
 }
 
 // spreadFor is the distractor heterogeneity mark k is judged against.
@@ -364,9 +376,11 @@ func (d *display) stats(c Channel) channelStats {
 		}
 		distractor := make([]bool, len(count))
 		distractors := 0
+		largest := slices.Max(count)
+		st.largest = largest
 		for k, i := range d.shape {
 			st.group[k] = count[i]
-			if count[i] <= d.small && count[i] < n {
+			if count[i] <= d.small && count[i] < largest {
 				st.global[k] = 1
 			} else if !distractor[i] {
 				distractor[i] = true
@@ -418,12 +432,28 @@ func (d *display) scalarStats(vals []float64, period float64, st *channelStats) 
 		}
 		return best
 	}
+	largest := 0
+	for k, v := range vals {
+		st.group[k] = count(v-1+1e-9, v+1-1e-9)
+		largest = max(largest, st.group[k])
+	}
+	st.largest = largest
+	uniform := d.uniformRest(vals, period, st.group)
 	var distractors []float64
 	for k, v := range vals {
-		g := count(v-1+1e-9, v+1-1e-9)
-		st.group[k] = g
-		if g <= d.small && g < n {
+		g := st.group[k]
+		restSpread := uniform(k)
+		if g < largest && (g <= d.small || restSpread >= 0) {
 			st.global[k] = nearest(v, 1)
+			if g > d.small {
+				if st.rest == nil {
+					st.rest = make([]float64, n)
+					for i := range st.rest {
+						st.rest[i] = -1
+					}
+				}
+				st.rest[k] = restSpread
+			}
 		} else {
 			// Shares its value with many: its nearest other mark.
 			if g > 1 {
@@ -435,6 +465,45 @@ func (d *display) scalarStats(vals []float64, period float64, st *channelStats) 
 		}
 	}
 	st.spread = spread1(distractors, period)
+}
+
+// uniformRest gives, for a mark whose group is beyond the small groups
+// but within GroupShareMax of the display, the spread of the marks outside
+// its group when they are uniform in the channel (under one step), and −1
+// otherwise: a set that differs in orientation or size from a uniform
+// surround segregates from it as a colour set does (texture segregation:
+// Julesz 1981; Nothdurft 1991 for orientation; both from memory). The
+// rest's spread is computed once per distinct value, for at most 16 of
+// them: a display with more candidate values has no uniform rest.
+func (d *display) uniformRest(vals []float64, period float64, group []int) func(int) float64 {
+	memo := map[float64]float64{}
+	return func(k int) float64 {
+		g, v := group[k], vals[k]
+		if g <= d.small || g > d.group {
+			return -1
+		}
+		if u, ok := memo[v]; ok {
+			return u
+		}
+		if len(memo) >= 16 {
+			return -1
+		}
+		var rest []float64
+		for _, x := range vals {
+			dx := math.Abs(x - v)
+			if period > 0 {
+				dx = min(math.Mod(dx, period), period-math.Mod(dx, period))
+			}
+			if dx >= 1 {
+				rest = append(rest, x)
+			}
+		}
+		memo[v] = -1
+		if sp := spread1(rest, period); len(rest) > 0 && sp < 1 {
+			memo[v] = sp
+		}
+		return memo[v]
+	}
 }
 
 // spread1 is half the interdecile range of the distractor values (for a
@@ -638,17 +707,14 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		flankedOf = make([]bool, B)
 		vertex = d.hullVertices(list)
 	}
+	largest := binGroups(list, dm, groupOf)
+	st.largest = largest
 	var rest []colourBin
 	for i, bi := range list {
 		restOf[i] = -1
-		g := bi.count
-		for j, bj := range list {
-			if i != j && dm[i*B+j] < 1 {
-				g += bj.count
-			}
-		}
+		g := groupOf[i]
 		global := math.Inf(1)
-		candidate := g <= d.group && g < n
+		candidate := g <= d.group && g < largest
 		if candidate {
 			rest = rest[:0]
 			for j, bj := range list {
@@ -694,6 +760,26 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		}
 	}
 	st.spread = d.colourSpread(c, distractorBins)
+}
+
+// binGroups fills groupOf with each bin's group, the marks within one
+// step of it (itself included), and returns the largest. A highlight is
+// smaller than the display's largest group: where every group is as large
+// as the largest (three colours of three bars each), the groups are
+// categories and none of them stands out.
+func binGroups(list []colourBin, dm []float64, groupOf []int) int {
+	B, largest := len(list), 0
+	for i, bi := range list {
+		g := bi.count
+		for j, bj := range list {
+			if i != j && dm[i*B+j] < 1 {
+				g += bj.count
+			}
+		}
+		groupOf[i] = g
+		largest = max(largest, g)
+	}
+	return largest
 }
 
 // colourSpread is the 90th percentile of the distractors' distances from

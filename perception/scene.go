@@ -39,7 +39,7 @@ func sceneHue(in Input, p *Params, need []int) []float64 {
 		need = idx[:n]
 	}
 	d := newDisplayShared(p, all, idx, in.Background, colour.Normal, 1, nil)
-	j := judging{d: d, nb: neighboursOf(all, need, p.Neighbours), chromaRef: medianChroma(d)}
+	j := judging{d: d, nb: neighboursOf(all, need, p.Neighbours), chromaRef: medianChroma(d), contrastRef: medianContrast(d)}
 	j.stats[hueAt], j.stats[lightnessAt] = d.stats(Hue), d.stats(Lightness)
 	out := make([]float64, n)
 	for _, k := range need {

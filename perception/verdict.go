@@ -23,7 +23,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 	if n == 0 {
 		return make([]MarkResult, len(only))
 	}
-	j := judging{d: d, nb: d.nb, reuse: d.reuse != nil && d.reuse.have, chromaRef: medianChroma(d)}
+	j := judging{d: d, nb: d.nb, reuse: d.reuse != nil && d.reuse.have, chromaRef: medianChroma(d), contrastRef: medianContrast(d)}
 	for ci, c := range Channels {
 		if j.reuse && !colourChannel(ci) {
 			j.stats[ci] = d.reuse.stats[ci]
@@ -67,10 +67,13 @@ func (d *display) judgeSome(only []int) []MarkResult {
 type judging struct {
 	d         *display
 	chromaRef float64 // the display's median chroma
-	stats     [nChannels]channelStats
-	nb        [][]int
-	reuse     bool
-	chBuf     []Channel
+	// contrastRef is the display's median lightness difference from the
+	// background.
+	contrastRef float64
+	stats       [nChannels]channelStats
+	nb          [][]int
+	reuse       bool
+	chBuf       []Channel
 }
 
 // one is mark k's saliences, the channels that carry it and its verdict
@@ -155,14 +158,14 @@ func (j *judging) channel(k, ci int, c Channel) float64 {
 		return global
 	}
 	ld := math.Inf(1)
-	own := st.group[k] <= d.small
+	own := st.own(k, d.small)
 	for _, n := range j.nb[k] {
 		dj := d.dist(c, k, n)
 		if (!own || dj >= 1) && dj < ld {
 			ld = dj
 		}
 	}
-	return max(global, localSalience(ld, m, h, global, st.group[k] > d.small))
+	return max(global, localSalience(ld, m, h, global, !own))
 }
 
 // hueAndLightness are mark k's hue and lightness saliences. They share one
@@ -178,7 +181,7 @@ func (j *judging) hueAndLightness(k int) (float64, float64) {
 		return global, global2
 	}
 	ld, ld2 := math.Inf(1), math.Inf(1)
-	own, own2 := st.group[k] <= d.small, st2.group[k] <= d.small
+	own, own2 := st.own(k, d.small), st2.own(k, d.small)
 	lk, nd := d.lab[k], d.nd[k]
 	for _, n := range j.nb[k] {
 		ln := d.lab[n]
@@ -192,9 +195,22 @@ func (j *judging) hueAndLightness(k int) (float64, float64) {
 			ld2 = dl
 		}
 	}
-	local := localSalience(ld, m, h, global, st.group[k] > d.small)
-	local2 := localSalience(ld2, m2, h2, global2, st2.group[k] > d.small)
-	return j.hueAsymmetries(k, max(global, local)), max(global2, local2)
+	local := localSalience(ld, m, h, global, !own)
+	local2 := localSalience(ld2, m2, h2, global2, !own2)
+	return j.hueAsymmetries(k, max(global, local)), j.lightnessAsymmetry(k, max(global2, local2))
+}
+
+// lightnessAsymmetry scales mark k's lightness salience when it stands
+// less far from the background than the display's marks do: a target of
+// lower contrast among higher-contrast distractors is the "less" of a
+// feature, found less easily than the reverse (Treisman & Gormican 1988,
+// from memory; LessFeatureFactor, provisional).
+func (j *judging) lightnessAsymmetry(k int, s float64) float64 {
+	d := j.d
+	if math.Abs(d.lab[k].L-d.bg.L) < j.contrastRef-d.nd[k][0] {
+		s *= d.p.LessFeatureFactor
+	}
+	return s
 }
 
 // searchTime estimates the search slope and the added search time for a
@@ -232,14 +248,18 @@ func chroma(l colour.Lab) float64 { return math.Hypot(l.A, l.B) }
 
 // medianChroma is the median chroma of a display's marks: the saturation
 // a target is more or less of.
-func medianChroma(d *display) float64 {
+func medianChroma(d *display) float64 { return weightedMedian(d, chroma) }
+
+// weightedMedian is the median of f over a display's marks, computed per
+// distinct colour.
+func weightedMedian(d *display, f func(colour.Lab) float64) float64 {
 	type cw struct {
 		c float64
 		n int
 	}
 	cs := make([]cw, len(d.clab))
 	for i, l := range d.clab {
-		cs[i] = cw{chroma(l), d.cols.count[i]}
+		cs[i] = cw{f(l), d.cols.count[i]}
 	}
 	slices.SortFunc(cs, func(a, b cw) int { return cmp.Compare(a.c, b.c) })
 	half, acc := (len(d.idx)+1)/2, 0
@@ -249,6 +269,12 @@ func medianChroma(d *display) float64 {
 		}
 	}
 	return 0
+}
+
+// medianContrast is the median lightness difference between a display's
+// marks and its background.
+func medianContrast(d *display) float64 {
+	return weightedMedian(d, func(l colour.Lab) float64 { return math.Abs(l.L - d.bg.L) })
 }
 
 // localSalience turns the distance to the most similar neighbour (leaving
