@@ -145,12 +145,12 @@
   }
 
   // Pushes the numeric geometry attributes, as the static builder reads
-  // them, onto out (count first), and for text its font size; false when
-  // the tag has none.
-  function geometry(el, tag, out, fontSize) {
+  // them, onto out (count first), and for text its font size and weight;
+  // false when the tag has none.
+  function geometry(el, tag, out, fontSize, fontWeight) {
     const keys = C.GEOM[tag];
     if (!keys) return false;
-    out.push(keys.length + (tag === 'text' ? 1 : 0));
+    out.push(keys.length + (tag === 'text' ? 2 : 0));
     for (const k of keys) {
       const a = el.getAttribute(k);
       if (a === null || a === '') {
@@ -173,7 +173,7 @@
       if (v === null) v = parseFloat(a);
       out.push(isFinite(v) ? v : 0);
     }
-    if (tag === 'text') out.push(fontSize);
+    if (tag === 'text') out.push(fontSize, fontWeight);
     return true;
   }
 
@@ -476,8 +476,9 @@
   }
 
   // styleOf reads an element's style as a record holds it, with its font
-  // size: [flags, fill, stroke, fill-opacity, stroke-opacity, opacity,
-  // stroke-width, font size], its paints as indices into w's table. up is
+  // size and weight: [flags, fill, stroke, fill-opacity, stroke-opacity,
+  // opacity, stroke-width, font size, font weight], its paints as indices
+  // into w's table. up is
   // the style of the <use> (or of the instantiated parent) for content a
   // <use> instantiates, which inherits from there, not from where it is
   // defined: where the element's value merely repeats its defining
@@ -508,7 +509,8 @@
     const vis = cs.visibility;
     if (vis === 'hidden' || vis === 'collapse') x |= C.NODE_INVISIBLE;
     const fontSize = tag === 'text' ? parseFloat(cs.fontSize) || 16 : 0;
-    return [x, fi, si, fo, so, clamp01(num(cs.opacity)), sw, fontSize];
+    const fontWeight = tag === 'text' ? parseFloat(cs.fontWeight) || 400 : 0;
+    return [x, fi, si, fo, so, clamp01(num(cs.opacity)), sw, fontSize, fontWeight];
   }
 
   // ChartWalk walks one outermost <svg> in document order and writes each
@@ -561,7 +563,7 @@
       const idx = w.begin(parent, tag, k, m);
       const st = this.style(el, tag, parent, !!ctmOverride, shared);
       let has = w.style(st) | w.ctm(idx, m);
-      if (geometry(el, tag, w.nodes, st[7])) has |= HAS_GEOM;
+      if (geometry(el, tag, w.nodes, st[7], st[8])) has |= HAS_GEOM;
       if ((tag === 'text' || tag === 'path') && !ctmOverride && !(st[0] & C.NODE_HIDDEN)) has |= w.box(el.getBoundingClientRect(), this.sx, this.sy);
       if (tag === 'path' || tag === 'polyline' || tag === 'polygon') {
         const d = el.getAttribute(tag === 'path' ? 'd' : 'points');

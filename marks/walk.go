@@ -76,6 +76,9 @@ type Mark struct {
 	Fold  int
 	// Text is the content of a text mark; Label the <title> or aria-label.
 	Text, Label string
+	// Weight is a text mark's font weight (1–1000; 400 is normal, 700
+	// bold), 0 for other marks.
+	Weight float64
 	// Vertices of a line mark (page px), for connectedness.
 	Vertices []Point
 }
@@ -963,7 +966,10 @@ func makeMark(c *cand) Mark {
 		if len(nd.Geom) >= 3 {
 			fs = nd.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(nd.CTM).Det()))
 		}
-		m.Size = fs
+		m.Size, m.Weight = fs, 400
+		if len(nd.Geom) >= 4 && nd.Geom[3] >= 1 && nd.Geom[3] <= 1000 {
+			m.Weight = nd.Geom[3]
+		}
 		w := 0.55 * fs * float64(len([]rune(nd.Text))) // estimated advance width
 		m.BBox = [4]float64{c.textPos.X, c.textPos.Y - 0.8*fs, w, fs}
 		if len(nd.BBox) == 4 {

@@ -34,6 +34,21 @@ func TestLargeTextContrast(t *testing.T) {
 	t.Run("24 px", func(t *testing.T) {
 		assert.NotContains(t, findingIDs(Analyse(text(24), DefaultParams).Findings), "text-contrast-low")
 	})
+	// Large scale is also "14 point and bold" (WCAG 2.x, definition of
+	// large scale text): 14 pt is 18.67 CSS px.
+	t.Run("19 px bold", func(t *testing.T) {
+		in := text(19)
+		in.Marks[0].Bold = true
+		assert.NotContains(t, findingIDs(Analyse(in, DefaultParams).Findings), "text-contrast-low")
+	})
+	t.Run("19 px regular", func(t *testing.T) {
+		assert.Contains(t, findingIDs(Analyse(text(19), DefaultParams).Findings), "text-contrast-low")
+	})
+	t.Run("18 px bold", func(t *testing.T) {
+		in := text(18)
+		in.Marks[0].Bold = true
+		assert.Contains(t, findingIDs(Analyse(in, DefaultParams).Findings), "text-contrast-low", "under 14 pt")
+	})
 	t.Run("14 px", func(t *testing.T) {
 		fs := Analyse(text(14), DefaultParams).Findings
 		require.Contains(t, findingIDs(fs), "text-contrast-low")

@@ -157,10 +157,9 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 }
 
 // largeText says whether a text mark is large-scale text for WCAG 2.x
-// SC 1.4.3: at least 18 pt (24 CSS px). Text of 14 pt bold is large too,
-// but the snapshot does not carry the font weight, so bold text between
-// 18.66 and 24 px is held to the stricter 4.5:1.
-func largeText(m *Mark) bool { return m.Size >= 24 }
+// SC 1.4.3: at least 18 point (24 CSS px), or 14 point (18.67 CSS px) and
+// bold. "Bold" is taken as a font weight of 700 or more (common practice).
+func largeText(m *Mark) bool { return m.Size >= 24 || m.Bold && m.Size >= 14*96/72.0-0.005 }
 
 func contrastFindings(in Input) []Finding {
 	low, keys := lowContrast(in)

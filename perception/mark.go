@@ -42,7 +42,10 @@ type Mark struct {
 	Angle float64
 	Fold  int
 	Shape string
-	X, Y  float64
+	// Bold marks text of font weight 700 or more, for the large-text rule
+	// of WCAG 2.x.
+	Bold bool
+	X, Y float64
 	// Box is the mark's bounding box (x, y, width, height), for marks
 	// that may touch their neighbours (bars).
 	Box [4]float64

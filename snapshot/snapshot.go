@@ -57,7 +57,8 @@ type Node struct {
 	Name string
 	// Geom holds the tag's numeric geometry attributes in the order
 	// GeomLayout lists them (rx and ry of a rect are GeomAuto when not
-	// given); a <text> adds its computed font size in px after x and y.
+	// given); a <text> adds its computed font size in px and its font
+	// weight (1–1000) after x and y.
 	Geom []float64
 	// D is the path data of a <path>, or the points of a <polyline> or
 	// <polygon>.

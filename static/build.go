@@ -581,7 +581,7 @@ func (b *builder) geometry(n *html.Node, node *snapshot.Node, st *computed) {
 		node.Geom[i] = x
 	}
 	if tag == "text" {
-		node.Geom = append(node.Geom, fontSize(st.v[pFontSize], 16))
+		node.Geom = append(node.Geom, fontSize(st.v[pFontSize], 16), fontWeight(st.v[pFontWeight], 400))
 	}
 }
 

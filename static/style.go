@@ -21,6 +21,7 @@ const (
 	pVisibility
 	pColor
 	pFontSize
+	pFontWeight
 	pStopColor
 	pStopOpacity
 	pBackgroundColor
@@ -31,7 +32,7 @@ const (
 var propIndex = map[string]int{
 	"fill": pFill, "stroke": pStroke, "fill-opacity": pFillOpacity, "stroke-opacity": pStrokeOpacity,
 	"opacity": pOpacity, "stroke-width": pStrokeWidth, "display": pDisplay, "visibility": pVisibility,
-	"color": pColor, "font-size": pFontSize,
+	"color": pColor, "font-size": pFontSize, "font-weight": pFontWeight,
 	"stop-color": pStopColor, "stop-opacity": pStopOpacity,
 	"background-color": pBackgroundColor, "background": pBackground,
 }
@@ -40,7 +41,7 @@ var propIndex = map[string]int{
 // index; CSS 2 for color, font-size, visibility).
 var inherited = [nProps]bool{
 	pFill: true, pStroke: true, pFillOpacity: true, pStrokeOpacity: true, pStrokeWidth: true,
-	pVisibility: true, pColor: true, pFontSize: true,
+	pVisibility: true, pColor: true, pFontSize: true, pFontWeight: true,
 }
 
 // initial values (SVG 2, CSS 2; color's initial value is CanvasText, black
@@ -48,7 +49,7 @@ var inherited = [nProps]bool{
 var initial = [nProps]string{
 	pFill: "black", pStroke: "none", pFillOpacity: "1", pStrokeOpacity: "1", pOpacity: "1",
 	pStrokeWidth: "1", pDisplay: "inline", pVisibility: "visible", pColor: "black",
-	pFontSize: "16px", pStopColor: "black", pStopOpacity: "1",
+	pFontSize: "16px", pFontWeight: "400", pStopColor: "black", pStopOpacity: "1",
 	pBackgroundColor: "transparent", pBackground: "",
 }
 
@@ -95,7 +96,7 @@ func (a prio) less(b prio) bool {
 
 // presentation lists the SVG presentation attributes the cascade reads.
 var presentation = []string{"fill", "stroke", "fill-opacity", "stroke-opacity", "opacity", "stroke-width",
-	"display", "visibility", "color", "font-size", "clip-path", "mask", "stop-color", "stop-opacity", "pointer-events"}
+	"display", "visibility", "color", "font-size", "font-weight", "clip-path", "mask", "stop-color", "stop-opacity", "pointer-events"}
 
 // compute returns n's computed style given its parent's (nil for the root).
 // Inline-style parse errors are recorded as problems.
@@ -131,6 +132,13 @@ func (c *cascader) compute(n *html.Node, parent *computed, name string) *compute
 			base = fontSize(parent.v[pFontSize], 16)
 		}
 		out.v[pFontSize] = strconv.FormatFloat(fontSize(out.v[pFontSize], base), 'g', -1, 64) + "px"
+	}
+	if d.set[pFontWeight] {
+		base := 400.0
+		if parent != nil {
+			base = fontWeight(parent.v[pFontWeight], 400)
+		}
+		out.v[pFontWeight] = strconv.FormatFloat(fontWeight(out.v[pFontWeight], base), 'g', -1, 64)
 	}
 	return out
 }
@@ -323,6 +331,42 @@ func fontSize(v string, parent float64) float64 {
 	}
 	if l, ok := length(v, parent); ok && l >= 0 {
 		return l
+	}
+	return parent
+}
+
+// fontWeight resolves a font-weight value to a number within [1, 1000]
+// against the parent's weight (CSS Fonts 4 §2.2, whose table maps bolder
+// and lighter); anything else keeps the parent's.
+func fontWeight(v string, parent float64) float64 {
+	switch v = strings.TrimSpace(strings.ToLower(v)); v {
+	case "normal":
+		return 400
+	case "bold":
+		return 700
+	case "bolder":
+		switch {
+		case parent < 350:
+			return 400
+		case parent < 550:
+			return 700
+		case parent < 900:
+			return 900
+		}
+		return parent
+	case "lighter":
+		switch {
+		case parent < 100:
+			return parent
+		case parent < 550:
+			return 100
+		case parent < 750:
+			return 400
+		}
+		return 700
+	}
+	if w, err := strconv.ParseFloat(v, 64); err == nil && w >= 1 && w <= 1000 {
+		return w
 	}
 	return parent
 }

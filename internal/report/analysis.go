@@ -61,6 +61,7 @@ func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input
 			}
 		case marks.KindText:
 			pm.Type, pm.MinPx = colour.Line, max(m.Size/8, 0.5) // stroke weight of text, about an eighth of the size
+			pm.Bold = m.Weight >= 700
 		default:
 			pm.Type = colour.Area
 		}

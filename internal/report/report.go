@@ -21,7 +21,7 @@ const Caution = "CVD simulation is a model of average readers and real readers v
 // docs/report.md); Minor counts the fields added within it.
 const (
 	Version = 1
-	Minor   = 1
+	Minor   = 2
 )
 
 // Mark is one mark of a chart as the report states it: what it is, its
@@ -42,7 +42,9 @@ type Mark struct {
 	Angle       float64    `json:"angle"`
 	Size        float64    `json:"size"`
 	Text        string     `json:"text,omitempty"`
-	Label       string     `json:"label,omitempty"`
+	// Weight is a text mark's font weight, 1–1000 (minor 2).
+	Weight float64 `json:"weight,omitempty"`
+	Label  string  `json:"label,omitempty"`
 	// Analysis (absent for legend swatches).
 	Verdict     string      `json:"verdict,omitempty"`
 	Channels    []string    `json:"channels,omitempty"`
@@ -131,7 +133,7 @@ func hexPtr(v *uint32) *string {
 func toMark(m marks.Mark) Mark {
 	rm := Mark{ID: m.ID, Kind: string(m.Kind), Shape: string(m.Shape), Fill: hexPtr(m.Fill), Stroke: hexPtr(m.Stroke),
 		Opacity: r2(m.Opacity * paintAlpha(m)), FillOpacity: r2(m.FillOpacity), Area: r2(m.Area), Angle: r2(m.Angle), Size: r2(m.Size),
-		Text: m.Text, Label: m.Label}
+		Text: m.Text, Weight: m.Weight, Label: m.Label}
 	for i, v := range m.BBox {
 		rm.BBox[i] = r2(v)
 	}
