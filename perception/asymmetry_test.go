@@ -87,3 +87,28 @@ func TestLightnessAsymmetry(t *testing.T) {
 	assert.Greater(t, more, less)
 	assert.InDelta(t, DefaultParams.LessFeatureFactor, less/more, 0.1, "the factor, and nothing else, separates them")
 }
+
+// Separability outweighs heterogeneity (D'Zmura 1991, J. Opt. Soc. Am. A
+// 8(4), from memory; Bauer, Jolicœur & Cowan 1996, REFERENCES §5.7): a
+// target whose colour lies outside the hull of two distractor colours is
+// found efficiently however far apart the two are, while one between them
+// is not. Distractors at b* = ±20, the target 40 along a*: its margin to
+// the distractors' hull is 40 ΔE*ab, more than the model's three noticeable
+// differences of a* at 10 px, and the spread of the distractors along b*
+// does not take that away.
+func TestSeparableTargetAmongTwoHues(t *testing.T) {
+	d1, d2 := lab(t, 60, 0, -20), lab(t, 60, 0, 20)
+	target := func(c colour.SRGB) MarkResult {
+		return analyseTarget(t, gridDisplay(30, 17, func(i int, m *Mark) {
+			m.Colour = d1
+			if i%2 == 1 {
+				m.Colour = d2
+			}
+			if i == 14 {
+				m.Colour = c
+			}
+		}), 14)
+	}
+	assert.Equal(t, Pops, target(lab(t, 60, 40, 0)).Verdict, "separable: pops")
+	assert.NotEqual(t, Pops, target(lab(t, 60, 0, 0)).Verdict, "flanked: does not")
+}

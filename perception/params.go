@@ -82,6 +82,15 @@ type Params struct {
 	// of the 1996 Perception follow-up to Bauer, Jolicœur & Cowan). No
 	// published factor: one half is provisional.
 	FlankedFactor float64
+	// SeparableColours is the most distinct colours the rest may have for
+	// a linearly separable colour target to be judged by its margin to
+	// the rest's colour hull alone, without the heterogeneity penalty
+	// (D'Zmura 1991, from memory; Bauer, Jolicœur & Cowan 1996, REFERENCES
+	// §5.7: the experiments used one to a few distractor colours). Beyond
+	// it, as among a categorical palette or along a colour ramp,
+	// heterogeneity counts (Duncan & Humphreys 1989). Three is
+	// provisional.
+	SeparableColours int
 	// LessFeatureFactor scales the hue salience of a target less
 	// saturated than the marks around it: finding "more" of a feature
 	// among "less" is easier than the reverse (Treisman & Gormican 1988,
@@ -171,6 +180,7 @@ var DefaultParams = Params{
 	CombineExponent:    2,
 	CombineShare:       0.5,
 	LessFeatureFactor:  0.8,
+	SeparableColours:   3,
 	RivalShare:         0.5,
 	Neighbours:         8,
 	ProximityRatio:     2,

@@ -325,15 +325,26 @@ type channelStats struct {
 	// largest is the display's largest group: a mark of a group as large
 	// is never a candidate target.
 	largest int
-	// flanked, in the hue channel, marks the candidates whose chromaticity
-	// lies within the hull of the rest's: not linearly separable from them.
-	flanked []bool
+	// hull, in the hue channel, is per candidate the distance of its
+	// chromaticity from the hull of the rest's, in steps (−1 for marks
+	// that are no candidate): under one, it is flanked, not linearly
+	// separable from them.
+	hull []float64
 }
 
 // own says whether mark k belongs to a small group that can be a target:
 // its own group is then left out of its local surround.
 func (st *channelStats) own(k, small int) bool {
 	return st.group[k] <= small && st.group[k] < st.largest
+}
+
+// flanked says whether candidate k lies within one step of the rest's
+// colour hull; separable, whether it lies beyond.
+func (st *channelStats) flanked(k int) bool {
+	return st.hull != nil && st.hull[k] >= 0 && st.hull[k] < 1
+}
+func (st *channelStats) separable(k int) bool {
+	return st.hull != nil && st.hull[k] >= 1 && !math.IsInf(st.hull[k], 1)
 }
 
 // spreadFor is the distractor heterogeneity mark k is judged against.
@@ -531,23 +542,22 @@ func spread1(v []float64, period float64) float64 {
 	return (q(0.9) - q(0.1)) / 2
 }
 
-// flanked says whether mark k's chromaticity (a*, b*, in its noticeable
-// differences) lies within one noticeable difference of the convex hull
-// of the rest's: a target between its distractors in colour is not
-// linearly separable from them and is searched inefficiently (Bauer,
-// Jolicœur & Cowan 1996 as summarised in Perception 25(11), 1996;
-// REFERENCES §5.7, whose computable test this is).
-func (d *display) flanked(k int, rest []colourBin) bool {
-	if len(rest) < 2 {
-		return false
-	}
+// hullDistance is how far mark k's chromaticity (a* and b*, CIELAB's
+// red–green and yellow–blue opponent axes, each in k's noticeable
+// differences) lies from the convex hull of the rest's: 0 within it.
+// Under one noticeable difference the target lies between its distractors
+// in colour, is not linearly separable from them and is searched
+// inefficiently (Bauer, Jolicœur & Cowan 1996 as summarised in Perception
+// 25(11), 1996; REFERENCES §5.7, whose computable test this is); beyond
+// it, the distance to the hull is the margin that separates it.
+func (d *display) hullDistance(k int, rest []colourBin) float64 {
 	nd := d.nd[k]
 	at := func(m int) [2]float64 { return [2]float64{d.lab[m].A / nd[1], d.lab[m].B / nd[2]} }
 	pts := make([][2]float64, 0, len(rest))
 	for _, b := range rest {
 		pts = append(pts, at(b.rep))
 	}
-	return distanceToHull(at(k), pts) < 1
+	return distanceToHull(at(k), pts)
 }
 
 // hullVertices marks the bins whose colours are vertices of the convex
@@ -570,23 +580,23 @@ func (d *display) hullVertices(list []colourBin) []bool {
 	return v
 }
 
-// flankedBin says whether candidate bin i is flanked by the rest. When
-// neither it nor any bin of its group is a vertex of the hull of all the
-// bins, the rest's hull is that hull, and i lies within it; otherwise the
-// rest's hull is built.
-func (d *display) flankedBin(i int, list []colourBin, dm []float64, vertex []bool, rest []colourBin) bool {
+// hullBin is candidate bin i's distance to the rest's hull. When neither
+// it nor any bin of its group is a vertex of the hull of all the bins, the
+// rest's hull is that hull, and i lies within it; otherwise the rest's
+// hull is built.
+func (d *display) hullBin(i int, list []colourBin, dm []float64, vertex []bool, rest []colourBin) float64 {
 	B := len(list)
-	if len(rest) < 2 {
-		return false
+	if len(rest) == 0 {
+		return math.Inf(1)
 	}
 	onHull := vertex[i]
 	for j := 0; j < B && !onHull; j++ {
 		onHull = j != i && dm[i*B+j] < 1 && vertex[j]
 	}
-	if !onHull {
-		return true
+	if !onHull && len(rest) >= 2 {
+		return 0
 	}
-	return d.flanked(list[i].rep, rest)
+	return d.hullDistance(list[i].rep, rest)
 }
 
 // distanceToHull is the distance from p to the convex hull of pts (0
@@ -702,9 +712,10 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 	}
 	var distractorBins []colourBin
 	groupOf, globalOf, restOf := make([]int, B), make([]float64, B), make([]float64, B)
-	var flankedOf, vertex []bool
+	var hullOf []float64
+	var vertex []bool
 	if c == Hue {
-		flankedOf = make([]bool, B)
+		hullOf = make([]float64, B)
 		vertex = d.hullVertices(list)
 	}
 	largest := binGroups(list, dm, groupOf)
@@ -724,8 +735,11 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 				}
 			}
 			restOf[i] = d.colourSpread(c, rest)
-			if flankedOf != nil {
-				flankedOf[i] = d.flankedBin(i, list, dm, vertex, rest)
+			if hullOf != nil {
+				hullOf[i] = d.hullBin(i, list, dm, vertex, rest)
+				if hullOf[i] >= 1 && len(rest) > d.p.SeparableColours {
+					hullOf[i] = math.Inf(1) // separable, but among many colours
+				}
 			}
 			// A set beyond the small groups stands out only from a
 			// uniform rest.
@@ -749,14 +763,17 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 		groupOf[i], globalOf[i] = g, global
 	}
 	st.rest = make([]float64, n)
-	if flankedOf != nil {
-		st.flanked = make([]bool, n)
+	if hullOf != nil {
+		st.hull = make([]float64, n)
 	}
 	for k, ci := range d.cols.of {
 		b := binOf[ci]
 		st.group[k], st.global[k], st.rest[k] = groupOf[b], globalOf[b], restOf[b]
-		if flankedOf != nil {
-			st.flanked[k] = flankedOf[b] && restOf[b] >= 0
+		if hullOf != nil {
+			st.hull[k] = -1
+			if restOf[b] >= 0 {
+				st.hull[k] = hullOf[b]
+			}
 		}
 	}
 	st.spread = d.colourSpread(c, distractorBins)

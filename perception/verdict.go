@@ -176,6 +176,13 @@ func (j *judging) hueAndLightness(k int) (float64, float64) {
 	m, m2 := d.margin(Hue), d.margin(Lightness)
 	h, h2 := st.spreadFor(k)/m, st2.spreadFor(k)/m2
 	global := st.global[k] / m / (1 + h)
+	if st.separable(k) {
+		// Linearly separable from a rest of a few colours: the margin to
+		// the rest's colour hull decides, however far apart those colours
+		// are (D'Zmura 1991; Bauer, Jolicœur & Cowan 1996).
+		h = 0
+		global = min(st.global[k], st.hull[k]) / m
+	}
 	global2 := st2.global[k] / m2 / (1 + h2)
 	if j.nb == nil {
 		return global, global2
@@ -235,7 +242,7 @@ func (d *display) searchTime(r *MarkResult, n int) (slope, search [2]float64) {
 // and a target less saturated than the display (LessFeatureFactor).
 func (j *judging) hueAsymmetries(k int, s float64) float64 {
 	d, st := j.d, &j.stats[hueAt]
-	if st.flanked != nil && st.flanked[k] {
+	if st.flanked(k) {
 		s *= d.p.FlankedFactor
 	}
 	if chroma(d.lab[k]) < j.chromaRef-d.nd[k][1] {
