@@ -1,6 +1,7 @@
 package perception
 
 import (
+	"math"
 	"slices"
 	"sort"
 
@@ -56,6 +57,7 @@ func Analyse(in Input, p Params) *Result {
 	}
 	keys := res.displays(in, p)
 	res.judgeVision(in, &p, keys, 0, nil)
+	res.positionExtremes(in, p)
 	for i := range res.Marks {
 		if r := res.Marks[i][0]; r.Extreme && r.Verdict != Pops {
 			res.Extremes = append(res.Extremes, i)
@@ -117,6 +119,51 @@ func (res *Result) displays(in Input, p Params) []string {
 		res.shares[k] = &shared{}
 	}
 	return keys
+}
+
+// positionExtremes marks as data extremes the points that stand apart in
+// position: a point is placed by its data, so an outlier that draws the
+// eye by where it lies, far outside the cloud of the others, is the data
+// speaking (Params.IsolationRatio).
+func (res *Result) positionExtremes(in Input, p Params) {
+	idx, nb := res.kinds["point"], res.nbs["point"]
+	if len(idx) < 3 || nb == nil || p.IsolationRatio <= 0 {
+		return
+	}
+	nn := make([]float64, len(idx))
+	for j, i := range idx {
+		if len(nb[j]) > 0 {
+			a, b := &in.Marks[i], &in.Marks[idx[nb[j][0]]]
+			nn[j] = math.Hypot(a.X-b.X, a.Y-b.Y)
+		}
+	}
+	sorted := slices.Clone(nn)
+	slices.Sort(sorted)
+	median := sorted[len(sorted)/2]
+	if median <= 0 {
+		return
+	}
+	for j, i := range idx {
+		// Far from its nearest neighbour (rare, so the hull is built only
+		// then) and outside the others' hull: not a sparse edge of the
+		// cloud but a point apart from it.
+		if nn[j] >= p.IsolationRatio*median && outside(in.Marks, idx, j) >= p.IsolationRatio*median {
+			res.Marks[i][0].Extreme = true
+		}
+	}
+}
+
+// outside is the distance from the mark idx[j] to the convex hull of the
+// other marks idx.
+func outside(all []Mark, idx []int, j int) float64 {
+	pts := make([][2]float64, 0, len(idx)-1)
+	for k, i := range idx {
+		if k != j {
+			pts = append(pts, [2]float64{all[i].X, all[i].Y})
+		}
+	}
+	m := &all[idx[j]]
+	return distanceToHull([2]float64{m.X, m.Y}, pts)
 }
 
 // judgeVision judges every display under vision type vi: every mark, or

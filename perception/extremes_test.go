@@ -1,6 +1,7 @@
 package perception
 
 import (
+	"math/rand"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -48,4 +49,53 @@ func TestSizeHighlightAmongEqualPoints(t *testing.T) {
 	r := analyseTarget(t, marks, 13)
 	assert.Equal(t, Pops, r.Verdict)
 	assert.False(t, r.Extreme)
+}
+
+// A point's position is its data: in a scatter, an outlier far from every
+// other point draws the eye by where it lies, and that is the data
+// speaking, a data extreme. A uniformly random scatter has none (see
+// Params.IsolationRatio for how rarely one appears).
+func TestOutlyingPointIsADataExtreme(t *testing.T) {
+	marks := gridDisplay(100, 37, func(i int, m *Mark) {})
+	res := Analyse(Input{Marks: marks, Background: colour.MustHex("#ffffff")}, DefaultParams)
+	assert.Empty(t, res.Extremes, "a regular scatter has no outlier")
+
+	rng := rand.New(rand.NewSource(41))
+	for i := range marks {
+		marks[i].X, marks[i].Y = rng.Float64()*200, rng.Float64()*200
+	}
+	res = Analyse(Input{Marks: marks, Background: colour.MustHex("#ffffff")}, DefaultParams)
+	assert.Empty(t, res.Extremes, "a uniformly random scatter has none")
+
+	marks = append(marks, Mark{ID: "far", Kind: "point", Type: colour.Point, Size: 78.5, MinPx: 10, MaxPx: 10, Shape: "circle",
+		X: 600, Y: 600, Colour: colour.MustHex("#808080")})
+	res = Analyse(Input{Marks: marks, Background: colour.MustHex("#ffffff")}, DefaultParams)
+	far := len(marks) - 1
+	assert.Equal(t, []int{far}, res.Extremes)
+	assert.NotContains(t, res.Emphasis, far, "an outlier is not a highlight")
+	assert.Contains(t, findingIDs(res.Findings), "data-extremes")
+}
+
+// Anscombe's quartet (Anscombe 1973, The American Statistician 27(1); the
+// values from memory, and the corpus's anscombeQuartet chart draws them):
+// in data set IV every point but one lies at x = 8, and (19, 12.5) lies
+// far from them: the one data extreme by position. Data set I, a noisy
+// line, has none.
+func TestAnscombeOutlier(t *testing.T) {
+	scatter := func(xs, ys []float64) []Mark {
+		var marks []Mark
+		for i := range xs {
+			marks = append(marks, Mark{ID: "p", Kind: "point", Type: colour.Point, Size: 19.6, MinPx: 5, MaxPx: 5, Shape: "circle",
+				X: xs[i] * 20, Y: 300 - ys[i]*20, Colour: colour.MustHex("#3a5f8f")})
+		}
+		return marks
+	}
+	four := scatter([]float64{8, 8, 8, 8, 8, 8, 8, 19, 8, 8, 8},
+		[]float64{6.58, 5.76, 7.71, 8.84, 8.47, 7.04, 5.25, 12.50, 5.56, 7.91, 6.89})
+	res := Analyse(Input{Marks: four, Background: colour.MustHex("#ffffff")}, DefaultParams)
+	assert.Equal(t, []int{7}, res.Extremes)
+	one := scatter([]float64{10, 8, 13, 9, 11, 14, 6, 4, 12, 7, 5},
+		[]float64{8.04, 6.95, 7.58, 8.81, 8.33, 9.96, 7.24, 4.26, 10.84, 4.82, 5.68})
+	res = Analyse(Input{Marks: one, Background: colour.MustHex("#ffffff")}, DefaultParams)
+	assert.Empty(t, res.Extremes)
 }

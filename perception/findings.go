@@ -612,6 +612,6 @@ func extremeFindings(in Input, res *Result) []Finding {
 	}
 	n := len(res.Extremes)
 	return []Finding{{ID: "data-extremes", Severity: Info, Marks: res.Extremes,
-		Message: itoa(n) + " " + plural(n, "mark stands", "marks stand") + " out only by the value " + plural(n, "it encodes", "they encode") + " (such as the longest or shortest bar): that is the data speaking, not a highlight, and is not counted as emphasis.",
+		Message: itoa(n) + " " + plural(n, "mark stands", "marks stand") + " out only by the value " + plural(n, "it encodes", "they encode") + " (such as the longest or shortest bar, or a point far from the others): that is the data speaking, not a highlight, and is not counted as emphasis.",
 		Source:  srcExtremes}}
 }

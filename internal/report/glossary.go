@@ -20,7 +20,7 @@ var Glossary = []Term{
 	{"found only by a slow search (conjunction)", "The mark differs from every other mark only in a combination of features that the others each have one of, so a reader has to check marks one by one. The time to find it grows with the number of marks."},
 	{"blends in", "Nothing about the mark draws the eye; a reader finds it only by looking for it."},
 	{"emphasis", "The marks the chart means the reader to see first: declared by the author (data-standout-emphasis, or --emphasis) or, when none is declared, inferred from the marks that stand out."},
-	{"data extreme", "A mark that stands out only by the value it shows, such as the longest bar. That is the data speaking, not a highlight, and it is never taken for the emphasis."},
+	{"data extreme", "A mark that stands out only by the value it shows, such as the longest bar or a point far from all the others. That is the data speaking, not a highlight, and it is never taken for the emphasis."},
 	{"protan, deutan, tritan", "Readers with the three kinds of colour-vision deficiency (CVD): red-weak or red-blind (protan), green-weak or green-blind (deutan, the most common: about 1 man in 16, from memory), blue-weak or blue-blind (tritan, rare). Standout simulates protan and deutan with Machado, Oliveira & Fernandes (2009) and tritan with Brettel, Viénot & Mollon's (1997) dichromat model; a simulation is a model, and readers vary."},
 	{"achromat (greyscale)", "The chart with every colour replaced by the grey of its luminance: what survives without hue, as in a greyscale print. It is not a model of rod monochromacy."},
 	{"CVD strength", "How strong the simulated deficiency is, from 0 (none) to 1 (full dichromacy): --cvd-severity on the command line, the slider in the panel."},
