@@ -74,6 +74,78 @@ var calibration = []struct {
 			}
 		})
 	}, 13, Pops},
+	{"D'Zmura 1991; Bauer, Jolicœur & Cowan 1996 (separability)", "target 40 ΔE along a* from distractors at b* = ±20", func() []Mark {
+		return twoHues(labColour(60, 40, 0))
+	}, 14, Pops},
+	{"Bauer, Jolicœur & Cowan 1996 (flanked; REFERENCES §5.7)", "target between distractors at b* = ±20", func() []Mark {
+		return twoHues(labColour(60, 0, 0))
+	}, 14, Blends},
+	{"Perceptual and Motor Skills 69(2), 1989, Gabor search; REFERENCES §5.2 DERIVED band (≥ 30°, homogeneous: pop-out-capable)", "line 30° from homogeneous vertical lines", func() []Mark {
+		return orientedDisplay(func(i int, m *Mark) {
+			if i == 13 {
+				m.Angle = 60
+			}
+		})
+	}, 13, Pops},
+	{"Perceptual and Motor Skills 69(2), 1989, Gabor search; REFERENCES §5.2 DERIVED band (< 15°: not pop-out)", "line 10° from homogeneous vertical lines", func() []Mark {
+		return orientedDisplay(func(i int, m *Mark) {
+			if i == 13 {
+				m.Angle = 80
+			}
+		})
+	}, 13, Blends},
+	{"Julesz 1981; Treisman 1982 (from memory; texture segregation)", "one of a set of 20 red marks among 80 grey", func() []Mark {
+		return gridDisplay(100, 13, func(i int, m *Mark) {
+			if i%5 == 0 {
+				m.Colour = colour.MustHex("#c2441f")
+			}
+		})
+	}, 15, Pops},
+	{"Nothdurft 1991 (REFERENCES §5.2, EXACT: texture segmentation from orientation contrast)", "one of a set of 20 lines at 45° among 80 vertical", func() []Mark {
+		return orientedDisplay(func(i int, m *Mark) {
+			if i%5 == 0 {
+				m.Angle = 45
+			}
+		})
+	}, 15, Pops},
+	{"no rest to stand out from (provisional: GroupShareMax)", "one of 50 red marks among 50 grey", func() []Mark {
+		return gridDisplay(100, 13, func(i int, m *Mark) {
+			if i%2 == 0 {
+				m.Colour = colour.MustHex("#c2441f")
+			}
+		})
+	}, 16, Blends},
+	{"Duncan & Humphreys 1989 (heterogeneity; the rule is provisional)", "one of three colours of three bars each", func() []Mark {
+		cols := []colour.SRGB{colour.MustHex("#2f5d8a"), colour.MustHex("#d9622b"), colour.MustHex("#e8a33d")}
+		return gridDisplay(9, 29, func(i int, m *Mark) { m.Colour = cols[i%3] })
+	}, 4, Blends},
+}
+
+// twoHues is half the marks at b* = −20 and half at b* = +20 (L* 60), with
+// mark 14 in the target colour.
+func twoHues(target colour.SRGB) []Mark {
+	d1, d2 := labColour(60, 0, -20), labColour(60, 0, 20)
+	return gridDisplay(30, 17, func(i int, m *Mark) {
+		m.Colour = d1
+		if i%2 == 1 {
+			m.Colour = d2
+		}
+		if i == 14 {
+			m.Colour = target
+		}
+	})
+}
+
+// orientedDisplay is 100 line segments, vertical unless set otherwise.
+func orientedDisplay(set func(i int, m *Mark)) []Mark {
+	return gridDisplay(100, 31, func(i int, m *Mark) {
+		m.Shape, m.Fold, m.Angle = "bar", 2, 90
+		set(i, m)
+	})
+}
+
+func labColour(l, a, b float64) colour.SRGB {
+	return colour.LabToSRGB(colour.Lab{L: l, A: a, B: b}).Clamped()
 }
 
 // halfAndHalf is Treisman & Gelade's two distractor types: brown triangles
