@@ -2,6 +2,9 @@ package perception
 
 import (
 	"fmt"
+	"math"
+	"math/rand"
+	"sort"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -123,5 +126,35 @@ func TestGroupsInOtherChannels(t *testing.T) {
 				assert.Equal(t, group, res.Emphasis)
 			})
 		}
+	}
+}
+
+// linearRestSpread reads the rest's spread from the sorted values without
+// copying them: it must equal spread1 over the rest built explicitly.
+func TestLinearRestSpreadMatchesSpread1(t *testing.T) {
+	rng := rand.New(rand.NewSource(5))
+	for trial := 0; trial < 200; trial++ {
+		n := 2 + rng.Intn(60)
+		vals := make([]float64, n)
+		for i := range vals {
+			vals[i] = math.Round(rng.NormFloat64()*3*4) / 4
+		}
+		sorted := append([]float64(nil), vals...)
+		sort.Float64s(sorted)
+		v := vals[rng.Intn(n)]
+		var rest []float64
+		for _, x := range vals {
+			if x < v-1+1e-9 || x > v+1-1e-9 {
+				rest = append(rest, x)
+			}
+		}
+		want := -1.0
+		if len(rest) > 0 {
+			want = spread1(rest, 0)
+			if len(rest) == 1 {
+				want = 0
+			}
+		}
+		require.Equal(t, want, linearRestSpread(sorted, v), "trial %d", trial)
 	}
 }

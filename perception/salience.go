@@ -449,7 +449,7 @@ func (d *display) scalarStats(vals []float64, period float64, st *channelStats) 
 		largest = max(largest, st.group[k])
 	}
 	st.largest = largest
-	uniform := d.uniformRest(vals, period, st.group)
+	uniform := d.uniformRest(vals, sorted, period, st.group)
 	var distractors []float64
 	for k, v := range vals {
 		g := st.group[k]
@@ -486,7 +486,7 @@ func (d *display) scalarStats(vals []float64, period float64, st *channelStats) 
 // Julesz 1981; Nothdurft 1991 for orientation; both from memory). The
 // rest's spread is computed once per distinct value, for at most 16 of
 // them: a display with more candidate values has no uniform rest.
-func (d *display) uniformRest(vals []float64, period float64, group []int) func(int) float64 {
+func (d *display) uniformRest(vals, sorted []float64, period float64, group []int) func(int) float64 {
 	memo := map[float64]float64{}
 	return func(k int) float64 {
 		g, v := group[k], vals[k]
@@ -499,22 +499,47 @@ func (d *display) uniformRest(vals []float64, period float64, group []int) func(
 		if len(memo) >= 16 {
 			return -1
 		}
-		var rest []float64
-		for _, x := range vals {
-			dx := math.Abs(x - v)
-			if period > 0 {
-				dx = min(math.Mod(dx, period), period-math.Mod(dx, period))
+		sp := -1.0
+		if period == 0 {
+			sp = linearRestSpread(sorted, v)
+		} else {
+			var rest []float64
+			for _, x := range vals {
+				dx := math.Mod(math.Abs(x-v), period)
+				if min(dx, period-dx) >= 1 {
+					rest = append(rest, x)
+				}
 			}
-			if dx >= 1 {
-				rest = append(rest, x)
+			if len(rest) > 0 {
+				sp = spread1(rest, period)
 			}
 		}
 		memo[v] = -1
-		if sp := spread1(rest, period); len(rest) > 0 && sp < 1 {
+		if sp >= 0 && sp < 1 {
 			memo[v] = sp
 		}
 		return memo[v]
 	}
+}
+
+// linearRestSpread is spread1 of the sorted values outside (v−1, v+1),
+// read from the two runs either side of the group without copying them;
+// −1 when there are none.
+func linearRestSpread(sorted []float64, v float64) float64 {
+	lo := sort.SearchFloat64s(sorted, v-1+1e-9)
+	hi := sort.SearchFloat64s(sorted, math.Nextafter(v+1-1e-9, math.Inf(1)))
+	m := lo + len(sorted) - hi
+	if m == 0 {
+		return -1
+	}
+	at := func(r int) float64 {
+		if r < lo {
+			return sorted[r]
+		}
+		return sorted[hi+r-lo]
+	}
+	q := func(p float64) float64 { return at(int(math.Round(p * float64(m-1)))) }
+	return (q(0.9) - q(0.1)) / 2
 }
 
 // spread1 is half the interdecile range of the distractor values (for a
