@@ -466,12 +466,9 @@ func (d *display) scalarStats(vals []float64, period float64, st *channelStats) 
 				st.rest[k] = restSpread
 			}
 		} else {
-			// Shares its value with many: its nearest other mark.
-			if g > 1 {
-				st.global[k] = 0
-			} else {
-				st.global[k] = nearest(v, 1e-12)
-			}
+			// Shares its value with many, or is one of equal groups: no
+			// contrast of its own (see colourStats).
+			st.global[k] = 0
 			distractors = append(distractors, v)
 		}
 	}
@@ -771,15 +768,10 @@ func (d *display) colourStats(c Channel, st *channelStats) {
 			candidate = g <= d.small || restOf[i] < 1
 		}
 		if !candidate {
-			restOf[i], global = -1, math.Inf(1)
-			if bi.count > 1 {
-				global = 0
-			}
-			for j := range list {
-				if i != j {
-					global = min(global, dm[i*B+j])
-				}
-			}
+			// A mark of a majority or of one of several equal categories
+			// has no contrast of its own to stand out by: distinct from its
+			// neighbours, it still only belongs to the display's variety.
+			restOf[i], global = -1, 0
 			distractorBins = append(distractorBins, bi)
 		}
 		if math.IsInf(global, 1) {
