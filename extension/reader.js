@@ -436,12 +436,13 @@
       return this.nameOf(this.parentOf[i]) + (k < 0 ? '>' + this.tagName[i] : '/' + this.tagName[i] + k);
     }
 
-    snapshot(source, title, box, bg) {
+    snapshot(source, title, anchor, box, bg) {
       const snap = {
         v: SNAPSHOT_VERSION, source, path: this.path, box, bg, problems: this.problems,
         tags: this.tags, paints: this.paints, strs: this.strs, nodes: this.nodes,
       };
       if (title) snap.title = title;
+      if (anchor) snap.anchor = anchor;
       if (this.sel.length) snap.sel = this.sel;
       return snap;
     }
@@ -663,12 +664,85 @@
   // stroke-width without a stroke, and a bounding box only for text and
   // paths, whose extent only the browser knows (the walk computes the
   // other shapes' boxes from their geometry, as the browser does).
-  function readChart(svg, path, root, off, emphasis, share, budget, heading, captions) {
+  function readChart(svg, path, root, off, emphasis, share, budget, heading, caches) {
     const box = svg.getBoundingClientRect();
     const walk = new ChartWalk(svg, path, root, off, emphasis, share, budget);
     walk.add(svg, -1, 0, null, null, 0);
-    const title = chartTitle(svg, heading, captions);
-    return walk.w.snapshot(svg.ownerDocument.location.href, title, [box.left + off[0], box.top + off[1], box.width, box.height], background(svg));
+    const title = chartTitle(svg, heading, caches.captions);
+    return walk.w.snapshot(svg.ownerDocument.location.href, title, anchorOf(svg, caches.anchors), [box.left + off[0], box.top + off[1], box.width, box.height], background(svg));
+  }
+
+  const PLAIN_IDENT = /^[A-Za-z_][A-Za-z0-9_-]*$/;
+
+  // AnchorCounts counts, once per document for a whole read pass, each id
+  // and each <svg>'s aria-label, and each element's place among its
+  // siblings, so that naming 25,000 icons costs no more than reading them.
+  class AnchorCounts {
+    constructor() {
+      this.docs = new Map();
+      this.places = new Map();
+    }
+
+    of(doc) {
+      let c = this.docs.get(doc);
+      if (!c) {
+        c = { ids: new Map(), labels: new Map() };
+        for (const el of doc.querySelectorAll('[id]')) c.ids.set(el.id, (c.ids.get(el.id) || 0) + 1);
+        for (const el of doc.querySelectorAll('svg[aria-label]')) {
+          const l = el.getAttribute('aria-label');
+          c.labels.set(l, (c.labels.get(l) || 0) + 1);
+        }
+        this.docs.set(doc, c);
+      }
+      return c;
+    }
+
+    // place is el's 1-based position among its parent's element children.
+    place(el) {
+      let k = this.places.get(el);
+      if (k === undefined) {
+        let i = 1;
+        for (let s = el.parentElement ? el.parentElement.firstElementChild : el; s; s = s.nextElementSibling) this.places.set(s, i++);
+        k = this.places.get(el) || 1;
+      }
+      return k;
+    }
+  }
+
+  // anchorOf is a CSS selector that matches the chart's <svg> and nothing
+  // else in its document, for fixes an author can paste: its id; else its
+  // aria-label; else :nth-child steps from the nearest ancestor with an
+  // id, or from body. The static reader builds the same one
+  // (static/anchor.go). Empty inside a shadow root, which no document
+  // selector reaches.
+  function anchorOf(svg, counts) {
+    const doc = svg.ownerDocument;
+    if (svg.getRootNode() !== doc) return '';
+    if (svg === doc.documentElement) return ':root'; // an SVG document's own root
+    const c = counts.of(doc);
+    const uniqueID = (el) => {
+      const id = el.getAttribute('id');
+      return id && PLAIN_IDENT.test(id) && c.ids.get(id) === 1 ? '#' + id : '';
+    };
+    if (uniqueID(svg)) return uniqueID(svg);
+    const label = svg.getAttribute('aria-label');
+    if (label && label.length <= 120 && c.labels.get(label) === 1) {
+      return 'svg[aria-label="' + label.replace(/\\/g, '\\\\').replace(/"/g, '\\"').replace(/\n/g, '\\a ') + '"]';
+    }
+    const steps = [];
+    for (let el = svg; el; el = el.parentElement) {
+      const tag = el.localName.toLowerCase();
+      if (tag === 'body' || tag === 'html') {
+        steps.unshift(tag);
+        break;
+      }
+      if (el !== svg && uniqueID(el)) {
+        steps.unshift(uniqueID(el));
+        break;
+      }
+      steps.unshift(`${tag}:nth-child(${counts.place(el)})`);
+    }
+    return steps.join(' > ');
   }
 
   // cleanTitle collapses white space and bounds a title to 120 code
@@ -813,7 +887,9 @@
     // Whether sibling style sharing is safe, per document or shadow root;
     // opts.noSharing turns it off (to measure what it saves).
     const shareable = new Map();
-    const captions = new Map(); // per <figure>, its caption: read once for all its charts
+    // Per <figure>, its caption, and per document, the counts that anchor
+    // selectors need: read once for all the charts.
+    const caches = { captions: new Map(), anchors: new AnchorCounts() };
     let shared = 0;
     let slice = performance.now();
     let yieldMs = 0;
@@ -830,7 +906,7 @@
         const share = shareable.get(c.root);
         const before = budget.nodes;
         try {
-          snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share, budget, c.heading, captions));
+          snapshots.push(readChart(c.svg, c.path, c.root, c.off, emphasis, share, budget, c.heading, caches));
         } catch (e) {
           if (!(e instanceof capError)) throw e;
           problems.push(e.message);

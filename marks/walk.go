@@ -87,6 +87,7 @@ type Mark struct {
 type Chart struct {
 	Path       string
 	Title      string // the chart's name for people (snapshot.Snapshot.Title)
+	Anchor     string // a selector for the root <svg> (snapshot.Snapshot.Anchor)
 	Source     string
 	Box        [4]float64
 	Background uint32
@@ -133,7 +134,7 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	if s.Version != snapshot.SnapshotVersion {
 		return nil, fmt.Errorf("marks: snapshot version %d, want %d", s.Version, snapshot.SnapshotVersion)
 	}
-	ch := &Chart{Path: s.Path, Title: s.Title, Source: s.Source, Box: s.Box, Background: s.Background,
+	ch := &Chart{Path: s.Path, Title: s.Title, Anchor: s.Anchor, Source: s.Source, Box: s.Box, Background: s.Background,
 		Furniture: map[Role]int{}, Problems: append([]string(nil), s.Problems...)}
 	n := len(s.Nodes)
 	if n == 0 {

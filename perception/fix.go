@@ -1,7 +1,9 @@
 package perception
 
 import (
+	"cmp"
 	"math"
+	"slices"
 
 	"standout/perception/colour"
 )
@@ -10,8 +12,15 @@ import (
 type Fix struct {
 	// Kind is "recolour-emphasis" or "mute-others".
 	Kind string
-	// CSS is a ready-to-paste declaration, e.g. "fill: #1a5fb4".
+	// CSS is a ready-to-paste declaration, e.g. "fill: #1a5fb4": fill for
+	// filled marks and text, stroke for lines, rules and unfilled points.
 	CSS string
+	// Marks are the marks the declaration is for.
+	Marks []int
+	// Alternative, when no colour makes the emphasis pop for every
+	// reader, is a second cue to add instead: words, not verified by the
+	// model, which judges colour, size, orientation and shape only.
+	Alternative string
 	// Colour is the suggested colour.
 	Colour colour.SRGB
 	// Margin is, per vision type, the smallest noticeable-difference
@@ -58,7 +67,18 @@ func suggestFix(in Input, p Params, em []int, res *Result) *Fix {
 			pick = f
 		}
 	}
+	if pick != nil && !pick.Verified {
+		pick.Alternative = "No colour found makes the emphasis stand out for every reader: add a second cue as well, such as a direct label beside it, a thick dark outline (stroke: #2b2b2b; stroke-width: 2px) or a different shape."
+	}
 	return pick
+}
+
+// property is the CSS property that paints a mark's colour.
+func property(m *Mark) string {
+	if m.Kind != "text" && (m.Kind == "line" || m.Kind == "rule" || m.Type == colour.Line) {
+		return "stroke"
+	}
+	return "fill"
 }
 
 // fixSearch holds what both fixes search over: the emphasis, the other
@@ -128,8 +148,13 @@ func (fs *fixSearch) worst(c colour.SRGB) (float64, map[string]float64) {
 // against the background, that is farthest from the other marks for the
 // worst-off vision type.
 func (fs *fixSearch) recolour(res *Result) *Fix {
-	var best colour.SRGB
-	bestW := -1.0
+	type cand struct {
+		c    colour.SRGB
+		w, d float64
+	}
+	var cands []cand
+	best := -1
+	own := colour.SRGBToLab(fs.target.Colour)
 	for L := 20.0; L <= 90; L += 5 {
 		for a := -96.0; a <= 96; a += 8 {
 			for b := -96.0; b <= 96; b += 8 {
@@ -141,18 +166,40 @@ func (fs *fixSearch) recolour(res *Result) *Fix {
 				if colour.ContrastRatio(c, fs.in.Background) < colour.NonTextContrast {
 					continue
 				}
-				if w, _ := fs.worst(c); w > bestW {
-					best, bestW = c, w
+				w, _ := fs.worst(c)
+				cands = append(cands, cand{c, w, colour.DeltaE2000(colour.SRGBToLab(c), own)})
+				if best < 0 || w > cands[best].w {
+					best = len(cands) - 1
 				}
 			}
 		}
 	}
-	if bestW <= 0 {
+	if best < 0 || cands[best].w <= 0 {
 		return nil
 	}
-	c := quantise(best)
+	// Nearest the author's own colour first, among those that leave every
+	// reader the colour margin: the highlight keeps its hue family where
+	// that can work. Else the colour that does best for the worst-off.
+	var near []cand
+	for _, c := range cands {
+		if c.w >= fs.p.ColourMargin {
+			near = append(near, c)
+		}
+	}
+	slices.SortFunc(near, func(a, b cand) int { return cmp.Compare(a.d, b.d) })
+	for _, c := range append(near[:min(len(near), 4)], cands[best]) {
+		if f := fs.recolourWith(res, quantise(c.c)); f.Verified || c == cands[best] {
+			return f
+		}
+	}
+	return nil
+}
+
+// recolourWith is the fix that paints the emphasis c, checked by
+// re-running the analysis.
+func (fs *fixSearch) recolourWith(res *Result, c colour.SRGB) *Fix {
 	_, m := fs.worst(c)
-	f := &Fix{Kind: "recolour-emphasis", CSS: "fill: " + c.Hex(), Colour: c, Margin: m}
+	f := &Fix{Kind: "recolour-emphasis", CSS: property(&fs.target) + ": " + c.Hex(), Colour: c, Margin: m, Marks: fs.em}
 	f.Verified = verify(fs.in, fs.p, fs.em, res, func(i int, mk *Mark) {
 		if fs.isEm[i] {
 			mk.Colour = c
@@ -193,7 +240,13 @@ func (fs *fixSearch) mute(res *Result) *Fix {
 	for _, v := range Visions {
 		m[v.String()] = colour.NDUnits(fs.sim(v, tc), fs.sim(v, g), fs.nd)
 	}
-	f := &Fix{Kind: "mute-others", CSS: "fill: " + g.Hex(), Colour: g, Margin: m}
+	var others []int
+	for i := range fs.in.Marks {
+		if !fs.isEm[i] && fs.in.Marks[i].Kind == fs.kind {
+			others = append(others, i)
+		}
+	}
+	f := &Fix{Kind: "mute-others", CSS: property(&fs.in.Marks[others[0]]) + ": " + g.Hex(), Colour: g, Margin: m, Marks: others}
 	f.Verified = verify(fs.in, fs.p, fs.em, res, func(i int, mk *Mark) {
 		if !fs.isEm[i] && mk.Kind == fs.kind {
 			mk.Colour = g

@@ -13,7 +13,7 @@ import (
 // read pass writes it with a few array pushes per element and the core
 // reads it without an object per element:
 //
-//	{"v": 2, "source": "…", "path": "svg0", "title": "…", "box": [x, y, w, h], "bg": rgba,
+//	{"v": 2, "source": "…", "path": "svg0", "title": "…", "anchor": "…", "box": [x, y, w, h], "bg": rgba,
 //	 "sel": [node, …], "problems": ["…", …],
 //	 "tags": ["svg", "g", "circle", …],
 //	 "paints": [kind, rgba, count, stop…, kind, rgba, count, stop…, …],
@@ -88,6 +88,7 @@ type snapshotWire struct {
 	Source   string    `json:"source"`
 	Path     string    `json:"path"`
 	Title    string    `json:"title"`
+	Anchor   string    `json:"anchor"`
 	Box      []float64 `json:"box"`
 	Bg       float64   `json:"bg"`
 	Sel      []float64 `json:"sel"`
@@ -98,7 +99,7 @@ type snapshotWire struct {
 	Nodes    []float64 `json:"nodes"`
 }
 
-var wireKeys = []string{"v", "source", "path", "title", "box", "bg", "sel", "problems", "tags", "paints", "strs", "nodes"}
+var wireKeys = []string{"v", "source", "path", "title", "anchor", "box", "bg", "sel", "problems", "tags", "paints", "strs", "nodes"}
 
 // UnmarshalJSON decodes a snapshot's columnar JSON form.
 func (s *Snapshot) UnmarshalJSON(b []byte) error {
@@ -132,6 +133,8 @@ func readWire(d *jsonio.Scanner, w *snapshotWire) error {
 			w.Path, err = d.Text()
 		case "title":
 			w.Title, err = d.Text()
+		case "anchor":
+			w.Anchor, err = d.Text()
 		case "box":
 			w.Box, err = d.Numbers(w.Box[:0])
 		case "bg":
@@ -231,7 +234,7 @@ func (w *snapshotWire) snapshot() (Snapshot, error) {
 	if w.Version != SnapshotVersion {
 		return Snapshot{}, fmt.Errorf("snapshot: version %v, want %d", w.Version, SnapshotVersion)
 	}
-	s := Snapshot{Version: SnapshotVersion, Source: w.Source, Path: w.Path, Title: w.Title, Problems: w.Problems}
+	s := Snapshot{Version: SnapshotVersion, Source: w.Source, Path: w.Path, Title: w.Title, Anchor: w.Anchor, Problems: w.Problems}
 	switch len(w.Box) {
 	case 0:
 	case 4:
@@ -520,6 +523,10 @@ func (s Snapshot) MarshalJSON() ([]byte, error) {
 	if s.Title != "" {
 		b = append(b, `,"title":`...)
 		b = jsonio.AppendString(b, s.Title)
+	}
+	if s.Anchor != "" {
+		b = append(b, `,"anchor":`...)
+		b = jsonio.AppendString(b, s.Anchor)
 	}
 	b = append(b, `,"box":`...)
 	b = jsonio.AppendFloats(b, s.Box[:])

@@ -28,6 +28,12 @@ type Snapshot struct {
 	// <title>, the caption of the <figure> that holds it, or the nearest
 	// heading before it; empty when it has none (then Path names it).
 	Title string
+	// Anchor is a CSS selector that matches the root <svg> and nothing
+	// else in its document (its id, its aria-label, or :nth-child steps
+	// from an ancestor with an id or from body), for fixes an author can
+	// paste; empty where no document-wide selector reaches it (a shadow
+	// root).
+	Anchor string
 	// Box is the root <svg>'s viewport in page CSS px: x, y, width, height.
 	Box [4]float64
 	// Background is the colour behind the chart (0xRRGGBBAA), from the

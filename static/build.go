@@ -89,7 +89,8 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 		return nil, fmt.Errorf("static: parsing %s: %w", opt.Source, err)
 	}
 	page := &Page{Source: opt.Source}
-	b := &builder{opt: opt, ids: map[string]*html.Node{}, page: page}
+	b := &builder{opt: opt, ids: map[string]*html.Node{}, idCount: map[string]int{}, labelCount: map[string]int{}, page: page,
+		standalone: standaloneSVG(data)}
 	if opt.Select == "" {
 		opt.Select = DefaultEmphasisSelector
 	}
@@ -115,6 +116,10 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 			if _, dup := b.ids[id]; !dup {
 				b.ids[id] = n
 			}
+			b.idCount[id]++
+		}
+		if n.Data == "svg" && n.Namespace == "svg" {
+			b.labelCount[attr(n, "aria-label")]++
 		}
 		switch {
 		case n.Data == "style":
@@ -153,11 +158,17 @@ type builder struct {
 	headingOf map[*html.Node]*html.Node
 	opt       Options
 	ids       map[string]*html.Node
-	casc      *cascader
-	page      *Page
-	html      map[*html.Node]*computed // computed styles of HTML ancestors
-	snap      *snapshot.Snapshot
-	sel       cascadia.SelectorGroup
+	// standalone: the file is an SVG document, whose root element is the
+	// <svg> (the HTML parser wraps it in a body).
+	standalone bool
+	// idCount and labelCount count each id in the document and each
+	// aria-label among its <svg> elements, for anchor selectors.
+	idCount, labelCount map[string]int
+	casc                *cascader
+	page                *Page
+	html                map[*html.Node]*computed // computed styles of HTML ancestors
+	snap                *snapshot.Snapshot
+	sel                 cascadia.SelectorGroup
 	// pageNodes counts the page's chart elements; useNodes those the
 	// current chart instantiates through <use>.
 	pageNodes, useNodes int
@@ -292,7 +303,7 @@ func (b *builder) styleOfHTML(n *html.Node) *computed {
 }
 
 func (b *builder) chart(svg *html.Node, path string) (*snapshot.Snapshot, error) {
-	snap := &snapshot.Snapshot{Version: snapshot.SnapshotVersion, Source: b.opt.Source, Path: path, Title: b.chartTitle(svg, b.headingOf[svg]), Background: 0xffffffff}
+	snap := &snapshot.Snapshot{Version: snapshot.SnapshotVersion, Source: b.opt.Source, Path: path, Title: b.chartTitle(svg, b.headingOf[svg]), Anchor: b.anchor(svg), Background: 0xffffffff}
 	b.snap = snap
 	b.useNodes = 0
 	var parentStyle *computed

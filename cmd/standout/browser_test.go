@@ -69,6 +69,7 @@ func TestBrowserPathMatchesStaticPath(t *testing.T) {
 		for c := range sp.Charts {
 			bc, sc := bp.Charts[c], sp.Charts[c]
 			require.Equal(t, sc.Path, bc.Path)
+			assert.Equal(t, sc.Anchor, bc.Anchor, "%s %s: anchor", pages[i], sc.Path)
 			require.Len(t, bc.Marks, len(sc.Marks), "%s %s", pages[i], sc.Path)
 			for k := range sc.Marks {
 				bm, sm := bc.Marks[k], sc.Marks[k]

@@ -92,8 +92,34 @@ func writeText(w io.Writer, p report.Page) {
 				if f.Fix.Kind == "mute-others" {
 					what = "mute the other marks"
 				}
-				fmt.Fprintf(w, "        fix: %s with `%s` (%s)\n", what, f.Fix.CSS, state)
+				fmt.Fprintf(w, "        fix: %s (%s):\n", what, state)
+				writeRule(w, f.Fix)
+				if f.Fix.Alternative != "" {
+					fmt.Fprintf(w, "        or: %s\n", f.Fix.Alternative)
+				}
 			}
 		}
 	}
+}
+
+// writeRule prints a fix's CSS rule, its selectors one per line; a long
+// list is cut after a few, the JSON and Markdown reports holding it whole.
+func writeRule(w io.Writer, f *report.Fix) {
+	if f.Rule == "" {
+		fmt.Fprintf(w, "            %s;\n", f.CSS)
+		return
+	}
+	const most = 4
+	lines := strings.Split(f.Rule, "\n")
+	if len(lines) <= most {
+		for _, l := range lines {
+			fmt.Fprintf(w, "            %s\n", l)
+		}
+		return
+	}
+	for _, l := range lines[:most-1] {
+		fmt.Fprintf(w, "            %s\n", l)
+	}
+	fmt.Fprintf(w, "            … %d more selectors (the JSON and Markdown reports hold the whole rule)\n", len(lines)-most)
+	fmt.Fprintf(w, "            %s\n", lines[len(lines)-1])
 }

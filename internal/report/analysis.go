@@ -110,10 +110,17 @@ type Result struct {
 // in noticeable differences, and whether the re-analysis with it applied
 // confirmed that the emphasis then pops out for every vision type.
 type Fix struct {
-	Kind     string             `json:"kind"`
-	CSS      string             `json:"css"`
+	Kind string `json:"kind"`
+	CSS  string `json:"css"`
+	// Rule is CSS to paste: the declaration with a selector that matches
+	// the marks it is for (minor 2); absent where no selector reaches the
+	// chart (a shadow root).
+	Rule     string             `json:"rule,omitempty"`
 	Margin   map[string]float64 `json:"marginND"`
 	Verified bool               `json:"verified"`
+	// Alternative, when no colour works for every reader, is a second cue
+	// to add (minor 2).
+	Alternative string `json:"alternative,omitempty"`
 }
 
 // Finding is one problem the analysis found: its id, severity, the marks
@@ -218,7 +225,8 @@ func Findings(ch *marks.Chart, res *perception.Result) []Finding {
 			for k, v := range f.Fix.Margin {
 				m[k] = math.Round(v*100) / 100
 			}
-			rf.Fix = &Fix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Margin: m, Verified: f.Fix.Verified}
+			rf.Fix = &Fix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Margin: m, Verified: f.Fix.Verified, Alternative: f.Fix.Alternative,
+				Rule: Rule(ch.Anchor, ch.Path, markIDs(ch, f.Fix.Marks), f.Fix.CSS)}
 		}
 		out = append(out, rf)
 	}

@@ -65,21 +65,7 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				fmt.Fprintf(w, "| %s | %s | %s | %s |\n", f.Severity, mdCell(f.Message), mdCode(f.ID), mdCell(f.Source))
 			}
 			fmt.Fprintln(w)
-			for _, f := range c.Findings {
-				if f.Fix == nil {
-					continue
-				}
-				what := "Recolour the emphasised marks"
-				if f.Fix.Kind == "mute-others" {
-					what = "Mute the other marks"
-				}
-				state := "re-checked: the emphasis then stands out for every vision type"
-				if !f.Fix.Verified {
-					state = "not enough on its own for every reader"
-				}
-				fmt.Fprintf(w, "Suggested fix for %s (%s):\n\n```css\n%s;\n```\n\n", mdCode(f.ID), state, strings.ReplaceAll(TerminalSafe(f.Fix.CSS), "`", "'"))
-				fmt.Fprintf(w, "%s. Smallest difference to any other mark, in noticeable-difference units: %s.\n\n", what, margins(f.Fix.Margin))
-			}
+			writeFixes(w, c.Findings)
 		}
 		if charts == 0 {
 			fmt.Fprintln(w, "No charts found.")
@@ -113,3 +99,31 @@ func mdCell(s string) string {
 
 // MarkdownEscape is the escaping WriteMarkdown applies to page-derived text.
 func MarkdownEscape(s string) string { return mdEscape(s) }
+
+// writeFixes writes each finding's fix: the rule to paste, whether the
+// re-check confirmed it, its margins and, where no colour works for every
+// reader, the second cue to add.
+func writeFixes(w io.Writer, findings []Finding) {
+	for _, f := range findings {
+		if f.Fix == nil {
+			continue
+		}
+		what := "Recolour the emphasised marks"
+		if f.Fix.Kind == "mute-others" {
+			what = "Mute the other marks"
+		}
+		state := "re-checked: the emphasis then stands out for every vision type"
+		if !f.Fix.Verified {
+			state = "not enough on its own for every reader"
+		}
+		css := f.Fix.Rule
+		if css == "" {
+			css = f.Fix.CSS + ";"
+		}
+		fmt.Fprintf(w, "Suggested fix for %s (%s):\n\n```css\n%s\n```\n\n", mdCode(f.ID), state, strings.ReplaceAll(TerminalSafe(css), "`", "'"))
+		fmt.Fprintf(w, "%s. Smallest difference to any other mark, in noticeable-difference units: %s.\n\n", what, margins(f.Fix.Margin))
+		if f.Fix.Alternative != "" {
+			fmt.Fprintf(w, "%s\n\n", mdCell(f.Fix.Alternative))
+		}
+	}
+}

@@ -60,7 +60,10 @@ type Chart struct {
 	Path string `json:"path"`
 	// Title is the chart's name for people: its aria-label, <title>,
 	// figure caption or nearest heading (minor 1); absent when it has none.
-	Title      string         `json:"title,omitempty"`
+	Title string `json:"title,omitempty"`
+	// Anchor is a CSS selector for the chart's <svg> in its document
+	// (minor 2); absent inside a shadow root.
+	Anchor     string         `json:"anchor,omitempty"`
 	IsChart    bool           `json:"isChart"`
 	Reason     string         `json:"reason,omitempty"`
 	Box        [4]float64     `json:"box"`
@@ -237,7 +240,7 @@ func PageOf(name string, problems []string, as []Analysed) Page {
 	rp := Page{Source: name, Problems: nonNil(problems), Charts: []Chart{}}
 	for _, a := range as {
 		ch := a.Chart
-		rc := Chart{Path: ch.Path, Title: ch.Title, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
+		rc := Chart{Path: ch.Path, Title: ch.Title, Anchor: ch.Anchor, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
 			Background: snapshot.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
 			Furniture: furniture(ch.Furniture), Problems: nonNil(ch.Problems)}
 		for _, m := range ch.Marks {

@@ -1,0 +1,99 @@
+package report
+
+import (
+	"slices"
+	"strconv"
+	"strings"
+)
+
+// Rule is a CSS rule that applies decl to the marks ids of a chart whose
+// root <svg> the selector anchor matches: each mark by :nth-child steps
+// from the root, as its id records them (svg0/g1/rect5 is the sixth child
+// of the second child of the root). Marks that are content a <use>
+// instantiates are reached through their <use>, from which the content
+// inherits. Runs of neighbouring siblings share one selector,
+// :nth-child(n+a):nth-child(-n+b). Empty without an anchor.
+func Rule(anchor, chartPath string, ids []string, decl string) string {
+	if anchor == "" || len(ids) == 0 {
+		return ""
+	}
+	type group struct {
+		parent, tag string
+		ks          []int
+	}
+	var groups []*group
+	at := map[string]*group{}
+	for _, id := range ids {
+		rest, ok := strings.CutPrefix(id, chartPath)
+		if !ok {
+			return ""
+		}
+		rest, _, _ = strings.Cut(rest, ">")
+		steps := strings.Split(strings.TrimPrefix(rest, "/"), "/")
+		if rest == "" {
+			continue // the root itself
+		}
+		sel := anchor
+		var tag string
+		var k int
+		for i, s := range steps {
+			t, n, ok := splitStep(s)
+			if !ok {
+				return ""
+			}
+			if i == len(steps)-1 {
+				tag, k = t, n
+				break
+			}
+			sel += " > " + t + ":nth-child(" + strconv.Itoa(n+1) + ")"
+		}
+		key := sel + " > " + tag
+		g := at[key]
+		if g == nil {
+			g = &group{parent: sel, tag: tag}
+			at[key] = g
+			groups = append(groups, g)
+		}
+		g.ks = append(g.ks, k+1)
+	}
+	var sels []string
+	for _, g := range groups {
+		slices.Sort(g.ks)
+		g.ks = slices.Compact(g.ks)
+		var parts []string
+		for i := 0; i < len(g.ks); {
+			j := i
+			for j+1 < len(g.ks) && g.ks[j+1] == g.ks[j]+1 {
+				j++
+			}
+			a, b := strconv.Itoa(g.ks[i]), strconv.Itoa(g.ks[j])
+			switch {
+			case i == j:
+				parts = append(parts, ":nth-child("+a+")")
+			default:
+				parts = append(parts, ":nth-child(n+"+a+"):nth-child(-n+"+b+")")
+			}
+			i = j + 1
+		}
+		for _, p := range parts {
+			sels = append(sels, g.parent+" > "+g.tag+p)
+		}
+	}
+	if len(sels) == 0 {
+		return ""
+	}
+	return strings.Join(sels, ",\n") + " { " + decl + "; }"
+}
+
+// splitStep splits a path step such as "rect5" into its tag and index.
+func splitStep(s string) (string, int, bool) {
+	i := len(s)
+	for i > 0 && s[i-1] >= '0' && s[i-1] <= '9' {
+		i--
+	}
+	if i == 0 || i == len(s) {
+		return "", 0, false
+	}
+	n, err := strconv.Atoi(s[i:])
+	return s[:i], n, err == nil
+}
