@@ -86,6 +86,12 @@ func Constants() []byte {
 	in := report.Ink
 	fmt.Fprintf(&b, "  INK: Object.freeze({ ink: %q, paper: %q, wash: %q, rule: %q, quiet: %q, focus: %q, highlight: %q, alert: %q }),\n",
 		in.Ink, in.Paper, in.Wash, in.Rule, in.Quiet, in.Focus, in.Highlight, in.Alert)
+	b.WriteString("  // The words the reports use (internal/report/glossary.go), for the panel.\n")
+	b.WriteString("  GLOSSARY: Object.freeze([\n")
+	for _, t := range report.Glossary {
+		fmt.Fprintf(&b, "    Object.freeze([%q, %q]),\n", t.Term, t.Means)
+	}
+	b.WriteString("  ]),\n")
 	b.WriteString("});\n")
 	return b.Bytes()
 }

@@ -49,4 +49,19 @@ globalThis.standoutConstants = Object.freeze({
   ]),
   // The panel's palette (internal/report/look.go).
   INK: Object.freeze({ ink: "#1d1b24", paper: "#ffffff", wash: "#f2f0ec", rule: "#d7d3cc", quiet: "#46424f", focus: "#2a58a6", highlight: "#23498b", alert: "#a32530" }),
+  // The words the reports use (internal/report/glossary.go), for the panel.
+  GLOSSARY: Object.freeze([
+    Object.freeze(["stands out at a glance (pops out)", "A reader's eye goes to the mark before they look for it: it differs enough from the marks around it in one feature (hue, lightness, size, orientation or shape), or in a few together. Finding it takes about as long with 10 marks as with 1,000."]),
+    Object.freeze(["found only by a slow search (conjunction)", "The mark differs from every other mark only in a combination of features that the others each have one of, so a reader has to check marks one by one. The time to find it grows with the number of marks."]),
+    Object.freeze(["blends in", "Nothing about the mark draws the eye; a reader finds it only by looking for it."]),
+    Object.freeze(["emphasis", "The marks the chart means the reader to see first: declared by the author (data-standout-emphasis, or --emphasis) or, when none is declared, inferred from the marks that stand out."]),
+    Object.freeze(["data extreme", "A mark that stands out only by the value it shows, such as the longest bar or a point far from all the others. That is the data speaking, not a highlight, and it is never taken for the emphasis."]),
+    Object.freeze(["protan, deutan, tritan", "Readers with the three kinds of colour-vision deficiency (CVD): red-weak or red-blind (protan), green-weak or green-blind (deutan, the most common: about 1 man in 16, from memory), blue-weak or blue-blind (tritan, rare). Standout simulates protan and deutan with Machado, Oliveira & Fernandes (2009) and tritan with Brettel, Viénot & Mollon's (1997) dichromat model; a simulation is a model, and readers vary."]),
+    Object.freeze(["achromat (greyscale)", "The chart with every colour replaced by the grey of its luminance: what survives without hue, as in a greyscale print. It is not a model of rod monochromacy."]),
+    Object.freeze(["CVD strength", "How strong the simulated deficiency is, from 0 (none) to 1 (full dichromacy): --cvd-severity on the command line, the slider in the panel."]),
+    Object.freeze(["noticeable difference", "The smallest colour difference that half of readers can see between two marks of a given size (Stone, Szafir & Setlur 2014; Szafir 2018). Small marks need bigger differences."]),
+    Object.freeze(["contrast ratio", "WCAG 2.x's measure of how far apart two colours are in luminance, from 1:1 (the same) to 21:1 (black on white). Graphics a reader needs and large text need 3:1 against what is next to them; other text needs 4.5:1."]),
+    Object.freeze(["finding levels: error, warning, info", "An error is a problem a reader will meet (a mark too faint to see against the page). A warning is a problem some readers will meet, or a risk (an emphasis lost for deutan readers). Info is worth knowing (what stands out, and through what)."]),
+    Object.freeze(["grouping cues", "What makes marks look like they belong together: nearness, common colour, common shape, lines joining them. When two cues divide the marks differently, readers see two competing structures; the adjusted Rand index measures how much two divisions agree (1 the same, 0 no more than chance)."]),
+  ]),
 });

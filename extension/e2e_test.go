@@ -641,6 +641,10 @@ func TestE2EPickingAndExport(t *testing.T) {
 	h.waitState("ready")
 	ov := h.overlayHTML()
 	assert.Contains(t, ov, "Declared emphasis (1 mark) stands out for normal: no")
+	// The fix is a rule to paste, its selectors reaching the bars from the
+	// chart's <svg>; the panel carries the reports' glossary.
+	assert.Regexp(t, `<pre class="rule">body &gt; svg:nth-child\(1\) &gt; g:nth-child\(1\) &gt; rect:nth-child\(\d\)[^<]*\{ fill: #[0-9a-f]{6}; \}</pre>`, ov)
+	assert.Contains(t, ov, "What these words mean")
 
 	// Export the JSON report: it decodes as the documented schema.
 	dl := t.TempDir()

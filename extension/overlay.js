@@ -47,6 +47,8 @@
   .finding[data-sev="info"] { border-left: 5px dotted ${INK.ink}; }
   code { font: 12px ui-monospace, monospace; background: ${INK.wash}; padding: 1px 3px; border-radius: 3px; }
   .key svg { vertical-align: middle; }
+  .rule { font: 11px/1.4 ui-monospace, monospace; white-space: pre-wrap; overflow-wrap: anywhere; max-height: 8em; overflow: auto; background: ${INK.wash}; border: 1px solid ${INK.rule}; padding: 4px 6px; margin: 4px 0; user-select: all; }
+  .glossary { font-size: 12px; margin-top: 8px; } .glossary dt { font-weight: 600; margin-top: 4px; } .glossary dd { margin: 0 0 0 8px; }
   .caution { font-size: 11px; color: ${INK.quiet}; border-top: 1px solid ${INK.rule}; margin-top: 8px; padding-top: 6px; }
   .catcher { position: fixed; inset: 0; pointer-events: auto; cursor: crosshair; background: transparent; }
   .error { border-color: ${INK.alert}; }
@@ -386,17 +388,14 @@
         on(b, 'mouseleave', hide);
         on(b, 'blur', hide);
         li.appendChild(b);
-        if (f.fix) {
-          const p = el('p');
-          p.append(document.createTextNode(f.fix.kind === 'mute-others' ? 'Fix: mute the other marks with ' : 'Fix: recolour the emphasis with '), el('code', {}, f.fix.css), document.createTextNode(f.fix.verified ? ' (re-checked for every vision type).' : ' (not enough on its own).'));
-          li.appendChild(p);
-        }
+        if (f.fix) li.append(...fixView(f.fix));
         ul.appendChild(li);
       }
       sec.appendChild(ul);
       panel.appendChild(sec);
     }
     if (n === 0) panel.appendChild(el('p', {}, 'No inline SVG charts were found on this page.'));
+    panel.appendChild(glossaryView());
     panel.appendChild(el('p', { class: 'caution' }, result.report.caution));
     return panel;
   }
@@ -487,6 +486,28 @@
     for (const o of state.observers) o.disconnect();
     state.observers = [];
     clearTimeout(state.rerunTimer);
+  }
+
+  // fixView is a finding's fix: what to do, the CSS rule to paste (its
+  // selector reaching exactly the marks), whether the re-check confirmed
+  // it, and the second cue to add where no colour works for every reader.
+  function fixView(fix) {
+    const p = el('p', {}, (fix.kind === 'mute-others' ? 'Fix: mute the other marks' : 'Fix: recolour the emphasis') +
+      (fix.verified ? ' (re-checked: it then stands out for every vision type). Paste into the page\u2019s style sheet:' : ' (not enough on its own for every reader):'));
+    const out = [p, el('pre', { class: 'rule' }, fix.rule || fix.css + ';')];
+    if (fix.alternative) out.push(el('p', {}, fix.alternative));
+    return out;
+  }
+
+  // glossaryView is the reports' vocabulary, folded away under the
+  // findings: the same words as docs/glossary.md.
+  function glossaryView() {
+    const d = el('details', { class: 'glossary' });
+    d.appendChild(el('summary', {}, 'What these words mean'));
+    const dl = el('dl');
+    for (const [term, means] of globalThis.standoutConstants.GLOSSARY) dl.append(el('dt', {}, term), el('dd', {}, means));
+    d.appendChild(dl);
+    return d;
   }
 
   // ---------- CVD preview ----------

@@ -149,7 +149,7 @@ func chartDigestMatches(t *testing.T, snap snapshot.Snapshot, fc report.Chart, l
 		assert.ElementsMatch(t, f.Marks, ids)
 		if f.Fix != nil {
 			require.NotNil(t, g.Fix)
-			assert.Equal(t, report.DigestFix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Verified: f.Fix.Verified}, *g.Fix)
+			assert.Equal(t, report.DigestFix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Rule: f.Fix.Rule, Verified: f.Fix.Verified, Alternative: f.Fix.Alternative}, *g.Fix)
 		}
 	}
 	if fc.Emphasis == nil {

@@ -54,9 +54,11 @@ type DigestFinding struct {
 
 // DigestFix is a finding's fix.
 type DigestFix struct {
-	Kind     string `json:"kind"`
-	CSS      string `json:"css"`
-	Verified bool   `json:"verified"`
+	Kind        string `json:"kind"`
+	CSS         string `json:"css"`
+	Rule        string `json:"rule,omitempty"`
+	Verified    bool   `json:"verified"`
+	Alternative string `json:"alternative,omitempty"`
 }
 
 // DigestEmphasis is the emphasis, by mark index, and whether it holds for
@@ -176,8 +178,16 @@ func appendDigestFindings(b []byte, a Analysed) []byte {
 				b = jsonio.AppendString(b, f.Fix.Kind)
 				b = append(b, `,"css":`...)
 				b = jsonio.AppendString(b, f.Fix.CSS)
+				if rule := Rule(ch.Anchor, ch.Path, markIDs(ch, f.Fix.Marks), f.Fix.CSS); rule != "" {
+					b = append(b, `,"rule":`...)
+					b = jsonio.AppendString(b, rule)
+				}
 				b = append(b, `,"verified":`...)
 				b = strconv.AppendBool(b, f.Fix.Verified)
+				if f.Fix.Alternative != "" {
+					b = append(b, `,"alternative":`...)
+					b = jsonio.AppendString(b, f.Fix.Alternative)
+				}
 				b = append(b, '}')
 			}
 			b = append(b, '}')
