@@ -47,6 +47,7 @@
   .finding[data-sev="info"] { border-left: 5px dotted ${INK.ink}; }
   code { font: 12px ui-monospace, monospace; background: ${INK.wash}; padding: 1px 3px; border-radius: 3px; }
   .key svg { vertical-align: middle; }
+  .evidence { display: block; font-size: 11px; color: ${INK.quiet}; margin-top: 2px; }
   .rule { font: 11px/1.4 ui-monospace, monospace; white-space: pre-wrap; overflow-wrap: anywhere; max-height: 8em; overflow: auto; background: ${INK.wash}; border: 1px solid ${INK.rule}; padding: 4px 6px; margin: 4px 0; user-select: all; }
   .glossary { font-size: 12px; margin-top: 8px; } .glossary dt { font-weight: 600; margin-top: 4px; } .glossary dd { margin: 0 0 0 8px; }
   .caution { font-size: 11px; color: ${INK.quiet}; border-top: 1px solid ${INK.rule}; margin-top: 8px; padding-top: 6px; }
@@ -381,6 +382,7 @@
         const li = el('li');
         const b = el('button', { type: 'button', class: 'finding', 'data-sev': f.severity, 'data-id': f.id });
         b.append(el('span', { class: 'sev' }, f.severity), document.createTextNode(f.message));
+        if (f.evidence) b.append(el('span', { class: 'evidence' }, f.evidence));
         const show = () => highlight(c.path, f.marks);
         const hide = () => highlight(c.path, []);
         on(b, 'mouseenter', show);

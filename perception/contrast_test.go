@@ -54,7 +54,7 @@ func TestLargeTextContrast(t *testing.T) {
 		require.Contains(t, findingIDs(fs), "text-contrast-low")
 		for _, f := range fs {
 			if f.ID == "text-contrast-low" {
-				assert.Contains(t, f.Message, "4.5:1")
+				assert.Contains(t, f.Evidence, "4.5:1")
 			}
 		}
 	})

@@ -38,7 +38,11 @@ type Finding struct {
 	ID       string
 	Severity Severity
 	Marks    []int
-	Message  string
+	// Message says, in plain words, what a reader experiences and then
+	// what to change.
+	Message string
+	// Evidence holds the numbers behind it, for those who want them.
+	Evidence string
 	// Source names the published finding or standard behind the rule.
 	Source string
 	Fix    *Fix
@@ -81,12 +85,47 @@ func visionNames(vs []colour.Deficiency) string {
 	return strings.Join(s, ", ")
 }
 
+// readers names, for people, the readers of some vision types: "readers
+// with protan or deutan colour vision", "readers who see the chart in
+// greyscale (achromat)", or both.
+func readers(vs ...colour.Deficiency) string {
+	var cvd []string
+	grey := false
+	for _, v := range vs {
+		if v == colour.Achromat {
+			grey = true
+		} else {
+			cvd = append(cvd, v.String())
+		}
+	}
+	var parts []string
+	if len(cvd) > 0 {
+		list := strings.Join(cvd, " or ")
+		if len(cvd) > 2 {
+			list = strings.Join(cvd[:len(cvd)-1], ", ") + " or " + cvd[len(cvd)-1]
+		}
+		parts = append(parts, "readers with "+list+" colour vision")
+	}
+	if grey {
+		parts = append(parts, "readers who see the chart in greyscale (achromat)")
+	}
+	return strings.Join(parts, ", and ")
+}
+
+// capital upper-cases a sentence's first letter.
+func capital(s string) string {
+	if s == "" {
+		return s
+	}
+	return strings.ToUpper(s[:1]) + s[1:]
+}
+
 func findings(in Input, p Params, res *Result) []Finding {
 	var out []Finding
 	out = append(out, emphasisFindings(in, p, res)...)
 	out = append(out, extremeFindings(in, res)...)
 	out = append(out, rivalFindings(in, res)...)
-	out = append(out, contrastFindings(in)...)
+	out = append(out, contrastFindings(in, res)...)
 	out = append(out, adjacentFindings(in)...)
 	out = append(out, categoryFindings(in, p, res)...)
 	out = append(out, groupingFindings(res)...)
@@ -99,7 +138,9 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 	em := res.Emphasis
 	if len(em) == 0 {
 		if res.Inferred && len(in.Marks) > 1 {
-			out = append(out, Finding{ID: "no-standout-mark", Severity: Info, Message: "No single mark or small group stands apart from the rest; if the chart means to emphasise something, nothing carries it at a glance.", Source: srcSearch})
+			out = append(out, Finding{ID: "no-standout-mark", Severity: Info,
+				Message:  "Nothing in this chart draws the eye before the reader looks for it. If it means to highlight something, give that a colour, size or shape no other mark shares.",
+				Evidence: "No mark or small group differs from the rest by the pop-out margin in any channel.", Source: srcSearch})
 		}
 		return out
 	}
@@ -116,8 +157,9 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 		}
 		slope := res.Marks[em[0]][0].SlopeMs
 		out = append(out, Finding{ID: "emphasis-pops", Severity: Info, Marks: em,
-			Message: who + " " + plural(len(em), "pops", "pop") + " out at a glance through " + strings.Join(cs, " and ") + " (estimated search slope " + fg(slope[0]) + "–" + fg(slope[1]) + " ms per mark).",
-			Source:  srcSearch})
+			Message:  who + " " + plural(len(em), "is", "are") + " what a reader sees first: " + plural(len(em), "it stands", "they stand") + " out at a glance through " + strings.Join(cs, " and ") + ".",
+			Evidence: "Estimated search slope " + fg(slope[0]) + "–" + fg(slope[1]) + " ms per mark.",
+			Source:   srcSearch})
 		var lost []colour.Deficiency
 		for vi, v := range Visions[1:] {
 			if !res.Holds[vi+1] {
@@ -126,8 +168,9 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 		}
 		if len(lost) > 0 {
 			f := Finding{ID: "emphasis-lost-cvd", Severity: Error, Marks: em,
-				Message: who + " no longer " + plural(len(em), "stands", "stand") + " out for " + visionNames(lost) + " readers (severity " + strconv.FormatFloat(p.Severity, 'g', 2, 64) + "): the difference that carries it is one they do not see.",
-				Source:  srcCVD + "; " + srcSearch}
+				Message:  capital(readers(lost...)) + " do not see " + strings.ToLower(who[:1]) + who[1:] + " stand out: to them " + plural(len(em), "it looks", "they look") + " like the other marks. Use the fix below, or add a second cue such as a direct label.",
+				Evidence: "The difference that carries it falls under the pop-out margin in the simulation of " + visionNames(lost) + " vision at CVD strength " + strconv.FormatFloat(p.Severity, 'g', 2, 64) + ".",
+				Source:   srcCVD + "; " + srcSearch}
 			f.Fix = suggestFix(in, p, em, res)
 			out = append(out, f)
 		}
@@ -140,17 +183,19 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 			best, bestS = Channels[ci], s
 		}
 	}
-	why := "no feature channel separates it from the other marks"
+	why := "No feature channel separates it from the other marks"
 	if best != "" && bestS > 0 {
-		why = "its strongest channel, " + string(best) + ", reaches only " + ff(100*bestS, 0) + "% of what pop-out needs, given how similar the nearest other mark is and how much the others vary"
+		why = "Its strongest channel, " + string(best) + ", reaches " + ff(100*bestS, 0) + "% of what pop-out needs, given how similar the nearest other mark is and how much the others vary"
 	}
-	id, sev, what := "emphasis-lost", Error, "does not stand out"
+	id, sev := "emphasis-lost", Error
+	what := who + " does not stand out: a reader has to search for " + plural(len(em), "it", "them") + " mark by mark. Make " + plural(len(em), "it", "them") + " differ more from the rest, as the fix below does."
 	if v.Verdict == Conjunction {
-		id, sev, what = "emphasis-by-conjunction", Warning, "can be found only as a combination of features the other marks each have, which takes a slow, serial search"
+		id = "emphasis-by-conjunction" // no less a miss than a highlight that blends
+		what = who + " can be found only by checking marks one by one: " + plural(len(em), "it shares", "they share") + " each of " + plural(len(em), "its", "their") + " features with some other marks. Give " + plural(len(em), "it", "them") + " a feature no other mark has, or mute the others, as the fix below does."
 	}
-	f := Finding{ID: id, Severity: sev, Marks: em,
-		Message: who + " " + what + ": " + why + " (estimated " + fg(v.SlopeMs[0]) + "–" + fg(v.SlopeMs[1]) + " ms per mark, " + ff(v.SearchMs[0]/1000, 1) + "–" + ff(v.SearchMs[1]/1000, 1) + " s for this chart).",
-		Source:  srcSearch}
+	f := Finding{ID: id, Severity: sev, Marks: em, Message: what,
+		Evidence: why + "; estimated " + fg(v.SlopeMs[0]) + "–" + fg(v.SlopeMs[1]) + " ms per mark, " + ff(v.SearchMs[0]/1000, 1) + "–" + ff(v.SearchMs[1]/1000, 1) + " s to find in this chart.",
+		Source:   srcSearch}
 	f.Fix = suggestFix(in, p, em, res)
 	out = append(out, f)
 	return out
@@ -161,11 +206,27 @@ func emphasisFindings(in Input, p Params, res *Result) []Finding {
 // bold. "Bold" is taken as a font weight of 700 or more (common practice).
 func largeText(m *Mark) bool { return m.Size >= 24 || m.Bold && m.Size >= 14*96/72.0-0.005 }
 
-func contrastFindings(in Input) []Finding {
+func contrastFindings(in Input, res *Result) []Finding {
 	low, keys := lowContrast(in)
+	isEm := map[int]bool{}
+	for _, i := range res.Emphasis {
+		isEm[i] = true
+	}
 	out := make([]Finding, 0, len(keys))
 	for _, k := range keys {
-		out = append(out, low[k].finding(k))
+		g := low[k]
+		if in.Labelled {
+			g.context = " The chart labels its marks directly, so it still reads; darken them if a reader needs to compare them by eye."
+		} else if len(res.Emphasis) > 0 && res.Holds[0] {
+			rest := true
+			for _, i := range g.marks {
+				rest = rest && !isEm[i]
+			}
+			if rest {
+				g.context = " They are the muted rest behind a highlight that stands out, so the chart's point still reads; darken them a little if a reader needs their values."
+			}
+		}
+		out = append(out, g.finding(k))
 	}
 	return out
 }
@@ -181,6 +242,10 @@ type lowGroup struct {
 	text  bool
 	large bool
 	shown string // the first mark's colour as authored
+	// context: the marks are labelled directly, or are the rest behind
+	// an emphasis that holds. A reader still gets the chart's point, so
+	// their low contrast is a warning, not an error.
+	context string
 }
 
 // lowContrast finds the marks below the contrast their kind needs against
@@ -260,15 +325,21 @@ func (a *lowGroup) finding(k contrastKey) Finding {
 	if a.text {
 		need := "text needs 4.5:1"
 		if a.large {
-			need = "large text (24 px and over) needs 3:1"
+			need = "large-scale text (24 px, or 18.67 px bold) needs 3:1"
 		}
 		return Finding{ID: "text-contrast-low", Severity: Warning, Marks: a.marks,
-			Message: itoa(n) + " text " + plural(n, "mark", "marks") + " in " + h + " " + plural(n, "has", "have") + " " + cr + ":1 against the background; " + need + ".",
-			Source:  srcText}
+			Message:  itoa(n) + " text " + plural(n, "label", "labels") + " in " + h + " " + plural(n, "is", "are") + " hard to read against the background for readers with low vision or on a bright screen. Darken " + plural(n, "it", "them") + ".",
+			Evidence: cr + ":1 against the background; " + need + ".",
+			Source:   srcText}
 	}
-	return Finding{ID: "mark-contrast-low", Severity: Error, Marks: a.marks,
-		Message: itoa(n) + " " + plural(n, "mark", "marks") + " in " + h + " " + plural(n, "has", "have") + " only " + cr + ":1 against the background; graphics needed to understand a chart need 3:1.",
-		Source:  srcContrast}
+	sev, why := Error, " Darken them, or label the marks directly."
+	if a.context != "" {
+		sev, why = Warning, a.context
+	}
+	return Finding{ID: "mark-contrast-low", Severity: sev, Marks: a.marks,
+		Message:  itoa(n) + " " + plural(n, "mark", "marks") + " in " + h + " " + plural(n, "is", "are") + " faint against the background: readers with low vision or on a bright screen may miss " + plural(n, "it", "them") + "." + why,
+		Evidence: cr + ":1 against the background; graphics needed to understand a chart need 3:1.",
+		Source:   srcContrast}
 }
 
 // categoryFindings checks the categorical colours: how many, whether they
@@ -294,8 +365,9 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 	}
 	if distinct > p.MaxHues {
 		out = append(out, Finding{ID: "too-many-hues", Severity: Warning,
-			Message: "The chart uses " + itoa(distinct) + " distinguishable colours as categories; beyond " + itoa(p.MaxHues) + " they are hard to tell apart and to match to a legend.",
-			Source:  srcHues})
+			Message:  "Readers will struggle to tell the categories apart and to match them to a legend: there are too many colours. Merge categories, or label them directly.",
+			Evidence: itoa(distinct) + " distinguishable colours as categories; beyond " + itoa(p.MaxHues) + " they are hard to tell apart.",
+			Source:   srcHues})
 	}
 	// Categories, not a highlight: at least two colours with two or more
 	// marks each.
@@ -308,8 +380,9 @@ func categoryFindings(in Input, p Params, res *Result) []Finding {
 	if distinct >= 2 && multi >= 2 && nShapes == 1 && !in.Labelled && !luminanceApart(cols) {
 		// SC 1.4.1: colour alone, unless the colours also differ by 3:1.
 		out = append(out, Finding{ID: "colour-only-categories", Severity: Warning,
-			Message: "Categories differ by colour alone: no shape, pattern or direct label repeats the distinction, and the colours do not differ by 3:1 in luminance.",
-			Source:  srcColour})
+			Message:  "Readers who cannot tell these colours apart lose the categories: colour is the only thing that tells them apart. Add shapes, patterns or direct labels.",
+			Evidence: "No shape, pattern or direct label repeats the distinction, and the colours do not differ by 3:1 in luminance.",
+			Source:   srcColour})
 	}
 	out = mergedForCVD(cols, p, out)
 	return legendFindings(in, p, out)
@@ -399,8 +472,9 @@ func mergedForCVD(cols []*category, p Params, out []Finding) []Finding {
 		}
 		if len(pairs) > 0 {
 			out = append(out, Finding{ID: "categories-merge-cvd", Severity: Warning, Marks: dedupe(marks),
-				Message: "For " + v.String() + " readers " + strings.Join(pairs, "; ") + " look the same at this mark size.",
-				Source:  srcCVD + "; " + srcND})
+				Message:  capital(readers(v)) + " see " + strings.Join(pairs, "; ") + " as the same colour, so they cannot tell those categories apart. Change one colour of each pair in lightness, or label the categories.",
+				Evidence: "Under one noticeable difference apart at this mark size in the simulation of " + v.String() + " vision.",
+				Source:   srcCVD + "; " + srcND})
 		}
 	}
 	return out
@@ -424,8 +498,9 @@ func legendFindings(in Input, p Params, out []Finding) []Finding {
 		}
 		if len(pairs) > 0 {
 			out = append(out, Finding{ID: "legend-entries-merge", Severity: Warning,
-				Message: "For " + v.String() + " readers the legend swatches " + strings.Join(pairs, "; ") + " cannot be told apart.",
-				Source:  srcCVD + "; " + srcND})
+				Message:  capital(readers(v)) + " cannot match the legend entries " + strings.Join(pairs, "; ") + " to the data: the swatches look alike to them. Change one colour of each pair in lightness, or label the data directly.",
+				Evidence: "Under one noticeable difference apart at the swatches' size in the simulation of " + v.String() + " vision.",
+				Source:   srcCVD + "; " + srcND})
 		}
 	}
 	return out
@@ -444,12 +519,14 @@ func groupingFindings(res *Result) []Finding {
 		switch a.Relation {
 		case "conflict":
 			out = append(out, Finding{ID: "grouping-conflict", Severity: Warning,
-				Message: "Grouping by " + string(a.A) + " and grouping by " + string(a.B) + " carve the marks differently (adjusted Rand index " + ff(a.ARI, 2) + "): readers see two competing structures.",
-				Source:  srcGroup})
+				Message:  "Readers see two competing structures: the marks that look alike by " + string(a.A) + " are not the ones that group by " + string(a.B) + ". Make the two cues tell the same story, or drop one.",
+				Evidence: "Adjusted Rand index " + ff(a.ARI, 2) + " between the two groupings (1 the same, 0 no more than chance).",
+				Source:   srcGroup})
 		case "agree":
 			out = append(out, Finding{ID: "grouping-agrees", Severity: Info,
-				Message: "Grouping by " + string(a.A) + " and by " + string(a.B) + " agree (adjusted Rand index " + ff(a.ARI, 2) + ").",
-				Source:  srcGroup})
+				Message:  "The groups that " + string(a.A) + " and " + string(a.B) + " make are the same: the two cues tell one story.",
+				Evidence: "Adjusted Rand index " + ff(a.ARI, 2) + " between the two groupings.",
+				Source:   srcGroup})
 		}
 	}
 	return out
@@ -509,8 +586,9 @@ func adjacentFindings(in Input) []Finding {
 	for _, k := range keys {
 		g := byColours[k]
 		out = append(out, Finding{ID: "adjacent-contrast-low", Severity: Warning, Marks: dedupe(g.marks),
-			Message: "Touching marks in " + g.a + " and " + g.b + " differ by only " + ff(math.Floor(g.cr*100)/100, 2) + ":1; where parts of a chart touch, they need 3:1 between them, or a separating line that contrasts with both.",
-			Source:  srcContrast + " (adjacent colours)"})
+			Message:  "Where marks in " + g.a + " and " + g.b + " touch, readers with low vision may not see where one ends and the other begins. Add a separating line (a white stroke), or make the colours differ more in lightness.",
+			Evidence: ff(math.Floor(g.cr*100)/100, 2) + ":1 between them; touching parts of a chart need 3:1, or a separating line that contrasts with both.",
+			Source:   srcContrast + " (adjacent colours)"})
 	}
 	return out
 }
@@ -598,8 +676,9 @@ func rivalFindings(in Input, res *Result) []Finding {
 		what = append(what, itoa(c)+" "+count.keys[k])
 	}
 	return []Finding{{ID: "emphasis-rivalled", Severity: Warning, Marks: res.Rivals,
-		Message: "The emphasis stands out, but " + plural(n, "another element", itoa(n)+" other elements") + " (" + strings.Join(what, ", ") + ", in " + strings.Join(shown, ", ") + ") " + plural(n, "catches", "catch") + " the eye by colour too, and a reader may look there first. Give " + plural(n, "it", "them") + " a quieter colour, or the emphasis's own colour if " + plural(n, "it belongs", "they belong") + " to it.",
-		Source:  srcScene}}
+		Message:  "A reader's eye may go first to " + plural(n, "another element", itoa(n)+" other elements") + " (" + strings.Join(what, ", ") + ", in " + strings.Join(shown, ", ") + ") rather than to the highlight: " + plural(n, "it catches", "they catch") + " the eye by colour too. Give " + plural(n, "it", "them") + " a quieter colour, or the highlight's own colour if " + plural(n, "it belongs", "they belong") + " to it.",
+		Evidence: "In the chart seen as one display, " + plural(n, "it pops", "they pop") + " by hue with at least half the highlight's strength.",
+		Source:   srcScene}}
 }
 
 // extremeFindings notes the data extremes: marks that stand out only by
@@ -612,6 +691,7 @@ func extremeFindings(in Input, res *Result) []Finding {
 	}
 	n := len(res.Extremes)
 	return []Finding{{ID: "data-extremes", Severity: Info, Marks: res.Extremes,
-		Message: itoa(n) + " " + plural(n, "mark stands", "marks stand") + " out only by the value " + plural(n, "it encodes", "they encode") + " (such as the longest or shortest bar, or a point far from the others): that is the data speaking, not a highlight, and is not counted as emphasis.",
-		Source:  srcExtremes}}
+		Message:  itoa(n) + " " + plural(n, "mark catches", "marks catch") + " the eye by the value " + plural(n, "it shows", "they show") + " (such as the longest or shortest bar, or a point far from the others): that is the data speaking, not a highlight. Nothing to change unless it competes with what the chart means to show.",
+		Evidence: plural(n, "It stands", "They stand") + " out only in the channel that encodes the data, and " + plural(n, "is", "are") + " not counted as emphasis.",
+		Source:   srcExtremes}}
 }

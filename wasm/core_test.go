@@ -141,7 +141,7 @@ func chartDigestMatches(t *testing.T, snap snapshot.Snapshot, fc report.Chart, l
 	require.Len(t, lc.Findings, len(fc.Findings))
 	for i, f := range fc.Findings {
 		g := lc.Findings[i]
-		assert.Equal(t, []any{f.ID, f.Severity, f.Message}, []any{g.ID, g.Severity, g.Message})
+		assert.Equal(t, []any{f.ID, f.Severity, f.Message, f.Evidence}, []any{g.ID, g.Severity, g.Message, g.Evidence})
 		var ids []string
 		for _, k := range g.Marks {
 			ids = append(ids, nodeName(k))

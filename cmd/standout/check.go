@@ -214,6 +214,9 @@ func writeCheck(cf *checkFlags, rep *report.Report, shots [][]byte, stdout, stde
 		for _, p := range rep.Pages {
 			writeText(stdout, p)
 		}
+		if len(rep.Pages) > 0 {
+			fmt.Fprintln(stdout, glossaryPointer)
+		}
 	}
 	// A summary of nothing checked says nothing the error does not.
 	if (len(cf.args) > 1 || len(rep.Errors) > 0) && len(rep.Pages) > 0 {

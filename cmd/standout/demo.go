@@ -54,6 +54,7 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 		return 2
 	}
 	if !*serve {
+		fmt.Fprintln(stdout, glossaryPointer)
 		fmt.Fprintln(stdout, "Caution:", report.Caution)
 	}
 	return 0

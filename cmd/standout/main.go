@@ -44,6 +44,9 @@ func run(args []string, stdout, stderr io.Writer) int {
 		return runDemo(args[1:], stdout, stderr)
 	case "extension":
 		return runExtension(args[1:], stdout, stderr)
+	case "glossary":
+		report.WriteGlossary(stdout)
+		return 0
 	case "help", "-h", "--help":
 		usage(stdout)
 		return 0
@@ -64,6 +67,7 @@ commands:
   palette COLOUR…     check a palette for every reader before a chart exists
   demo                run the whole check on the built-in example page
   extension DIR       write a ready-to-load browser extension folder
+  glossary            explain the words the reports use
 
 Run "standout COMMAND -h" for a command's flags and exit codes, and
 "standout --version" for the version.`)

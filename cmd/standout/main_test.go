@@ -121,18 +121,22 @@ func TestDemo(t *testing.T) {
 	code, out, errs := runCmd("demo", "--static")
 	require.Equal(t, 0, code, errs)
 	// The invented page holds a deutan collapse and a low-contrast series.
-	assert.Contains(t, out, "For deutan readers #b8432e and #3f9b3a look the same")
+	assert.Contains(t, out, "Readers with deutan colour vision see #b8432e and #3f9b3a as the same colour")
 	assert.Contains(t, out, "need 3:1")
-	assert.Contains(t, out, "pops out at a glance")
+	assert.Contains(t, out, "stands out at a glance")
 	// Every kind of finding the demo is built to show.
 	for _, want := range []string{
-		"The emphasised mark pops out",                                                 // an emphasis that works
-		"can be found only as a combination",                                           // only a conjunction carries it
-		"Grouping by colour and grouping by connectedness carve the marks differently", // colour fights position
-		"The emphasised mark does not stand out",                                       // a weak emphasis drowns in a crowd
+		"The emphasised mark is what a reader sees first",                                  // an emphasis that works
+		"can be found only by checking marks one by one",                                   // only a conjunction carries it
+		"the marks that look alike by colour are not the ones that group by connectedness", // colour fights position
+		"The emphasised mark does not stand out",                                           // a weak emphasis drowns in a crowd
 	} {
 		assert.Contains(t, out, want)
 	}
+	// Every finding says what a reader meets and what to change, then the
+	// evidence; no error stands for muted marks behind a working highlight.
+	assert.Contains(t, out, "evidence: 1.98:1 against the background")
+	assert.NotContains(t, out, "[error] 5 marks in #b8b8b8")
 	assert.True(t, strings.Contains(out, "Caution:"))
 }
 
@@ -141,8 +145,8 @@ func TestDemoInBrowser(t *testing.T) {
 	code, out, errs := runCmd("demo")
 	require.Equal(t, 0, code, errs)
 	assert.Contains(t, out, "read as rendered in headless Chromium")
-	assert.Contains(t, out, "For deutan readers #b8432e and #3f9b3a look the same")
-	assert.Contains(t, out, "can be found only as a combination")
+	assert.Contains(t, out, "Readers with deutan colour vision see #b8432e and #3f9b3a as the same colour")
+	assert.Contains(t, out, "can be found only by checking marks one by one")
 }
 
 func TestCheckAnalysis(t *testing.T) {

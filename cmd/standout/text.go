@@ -21,6 +21,9 @@ func (t terminalWriter) Write(p []byte) (int, error) {
 
 // writeText lists each chart with its marks grouped by kind, shape and
 // colour.
+// glossaryPointer ends a text report: where its words are explained.
+const glossaryPointer = "What these words mean: run standout glossary (the same text is docs/glossary.md)."
+
 func writeText(w io.Writer, p report.Page) {
 	w = terminalWriter{w} // page-derived text carries no escape sequences
 	fmt.Fprintf(w, "%s: %d drawing(s)\n", p.Source, len(p.Charts))
@@ -81,24 +84,7 @@ func writeText(w io.Writer, p report.Page) {
 		if sum := report.Summary(c); sum != "" {
 			fmt.Fprintf(w, "    at a glance: %s.\n", sum)
 		}
-		for _, f := range c.Findings {
-			fmt.Fprintf(w, "    [%s] %s\n", f.Severity, f.Message)
-			if f.Fix != nil {
-				state := "checked: the emphasis then pops out for every vision type"
-				if !f.Fix.Verified {
-					state = "not enough on its own: colour alone cannot make it pop for every reader"
-				}
-				what := "recolour the emphasis"
-				if f.Fix.Kind == "mute-others" {
-					what = "mute the other marks"
-				}
-				fmt.Fprintf(w, "        fix: %s (%s):\n", what, state)
-				writeRule(w, f.Fix)
-				if f.Fix.Alternative != "" {
-					fmt.Fprintf(w, "        or: %s\n", f.Fix.Alternative)
-				}
-			}
-		}
+		writeFindings(w, c.Findings)
 	}
 }
 
@@ -122,4 +108,30 @@ func writeRule(w io.Writer, f *report.Fix) {
 	}
 	fmt.Fprintf(w, "            … %d more selectors (the JSON and Markdown reports hold the whole rule)\n", len(lines)-most)
 	fmt.Fprintf(w, "            %s\n", lines[len(lines)-1])
+}
+
+// writeFindings prints each finding: what a reader meets and what to
+// change, the evidence with its source, and the fix to paste.
+func writeFindings(w io.Writer, findings []report.Finding) {
+	for _, f := range findings {
+		fmt.Fprintf(w, "    [%s] %s\n", f.Severity, f.Message)
+		if f.Evidence != "" {
+			fmt.Fprintf(w, "        evidence: %s (%s)\n", f.Evidence, f.Source)
+		}
+		if f.Fix != nil {
+			state := "checked: the emphasis then pops out for every vision type"
+			if !f.Fix.Verified {
+				state = "not enough on its own: colour alone cannot make it pop for every reader"
+			}
+			what := "recolour the emphasis"
+			if f.Fix.Kind == "mute-others" {
+				what = "mute the other marks"
+			}
+			fmt.Fprintf(w, "        fix: %s (%s):\n", what, state)
+			writeRule(w, f.Fix)
+			if f.Fix.Alternative != "" {
+				fmt.Fprintf(w, "        or: %s\n", f.Fix.Alternative)
+			}
+		}
+	}
 }

@@ -131,8 +131,10 @@ type Finding struct {
 	Severity string   `json:"severity"`
 	Marks    []string `json:"marks"`
 	Message  string   `json:"message"`
-	Source   string   `json:"source"`
-	Fix      *Fix     `json:"fix,omitempty"`
+	// Evidence holds the numbers behind the message (minor 2).
+	Evidence string `json:"evidence,omitempty"`
+	Source   string `json:"source"`
+	Fix      *Fix   `json:"fix,omitempty"`
 }
 
 // Partition is how many groups one cue (proximity, colour or shape)
@@ -219,7 +221,7 @@ func markIDs(ch *marks.Chart, idx []int) []string {
 func Findings(ch *marks.Chart, res *perception.Result) []Finding {
 	out := []Finding{}
 	for _, f := range res.Findings {
-		rf := Finding{ID: f.ID, Severity: string(f.Severity), Marks: markIDs(ch, f.Marks), Message: f.Message, Source: f.Source}
+		rf := Finding{ID: f.ID, Severity: string(f.Severity), Marks: markIDs(ch, f.Marks), Message: f.Message, Evidence: f.Evidence, Source: f.Source}
 		if f.Fix != nil {
 			m := map[string]float64{}
 			for k, v := range f.Fix.Margin {

@@ -48,6 +48,7 @@ type DigestFinding struct {
 	ID       string     `json:"id"`
 	Severity string     `json:"severity"`
 	Message  string     `json:"message"`
+	Evidence string     `json:"evidence,omitempty"`
 	Marks    []int      `json:"marks"`
 	Fix      *DigestFix `json:"fix,omitempty"`
 }
@@ -171,6 +172,10 @@ func appendDigestFindings(b []byte, a Analysed) []byte {
 			b = jsonio.AppendString(b, string(f.Severity))
 			b = append(b, `,"message":`...)
 			b = jsonio.AppendString(b, f.Message)
+			if f.Evidence != "" {
+				b = append(b, `,"evidence":`...)
+				b = jsonio.AppendString(b, f.Evidence)
+			}
 			b = append(b, `,"marks":`...)
 			b = appendInts(b, f.Marks, len(ch.Marks))
 			if f.Fix != nil {

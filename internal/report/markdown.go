@@ -59,10 +59,10 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				fmt.Fprintln(w)
 				continue
 			}
-			fmt.Fprintln(w, "| severity | finding | rule | source |")
-			fmt.Fprintln(w, "| --- | --- | --- | --- |")
+			fmt.Fprintln(w, "| level | what a reader meets, and what to change | evidence | rule | source |")
+			fmt.Fprintln(w, "| --- | --- | --- | --- | --- |")
 			for _, f := range c.Findings {
-				fmt.Fprintf(w, "| %s | %s | %s | %s |\n", f.Severity, mdCell(f.Message), mdCode(f.ID), mdCell(f.Source))
+				fmt.Fprintf(w, "| %s | %s | %s | %s | %s |\n", f.Severity, mdCell(f.Message), mdCell(f.Evidence), mdCode(f.ID), mdCell(f.Source))
 			}
 			fmt.Fprintln(w)
 			writeFixes(w, c.Findings)
