@@ -761,9 +761,23 @@ func TestE2EExportMarkdownAndPNG(t *testing.T) {
 	require.NotNil(t, shot, "no PNG export")
 	img, err := png.Decode(bytes.NewReader(shot))
 	require.NoError(t, err)
-	// The chart (240 × 120) with a 10 px margin, outlines included.
+	// The chart (240 × 120) with a 10 px margin, outlines included, and
+	// under it the key: a 16 px row per verdict style and 8 px of margin.
 	assert.InDelta(t, 260, img.Bounds().Dx(), 4)
-	assert.InDelta(t, 140, img.Bounds().Dy(), 4)
+	assert.InDelta(t, 140+16*len(report.VerdictStyles)+8, img.Bounds().Dy(), 4)
+	// The key's rows hold each style's sample in its colour.
+	for i, st := range report.VerdictStyles {
+		want := colour.MustHex(st.Colour)
+		wr, wg, wb := want.RGB8()
+		found := false
+		for y := 140 + 4 + 16*i; y < 140+4+16*(i+1) && !found; y++ {
+			for x := 0; x < 30 && !found; x++ {
+				r, g, b, _ := img.At(x, y).RGBA()
+				found = math.Abs(float64(int(r>>8)-int(wr))) <= 24 && math.Abs(float64(int(g>>8)-int(wg))) <= 24 && math.Abs(float64(int(b>>8)-int(wb))) <= 24
+			}
+		}
+		assert.True(t, found, "the key's sample for %s", st.Verdict)
+	}
 	// The popping bar's solid outline colour (report.VerdictStyles) is in
 	// the picture, within the anti-aliasing of the page's rendering.
 	pops := colour.MustHex(report.StyleOf("pops").Colour)

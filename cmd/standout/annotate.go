@@ -5,6 +5,11 @@ import (
 	"image/color"
 	"image/draw"
 	"math"
+
+	"golang.org/x/image/font"
+	"golang.org/x/image/font/basicfont"
+	"golang.org/x/image/math/fixed"
+
 	"standout/internal/report"
 	"standout/perception/colour"
 )
@@ -35,8 +40,14 @@ func inkOf(verdict string) ink {
 }
 
 // annotate crops a full-page screenshot (1 image px per CSS px) to a
-// chart with a 10 px margin and outlines each mark by its verdict.
+// chart with a 10 px margin, outlines each mark by its verdict (a line
+// along its path) and adds a key below: what each outline means.
 func annotate(page image.Image, c report.Chart) *image.RGBA {
+	return withKey(outlined(page, c), c)
+}
+
+// outlined is the chart's crop with its marks outlined.
+func outlined(page image.Image, c report.Chart) *image.RGBA {
 	const margin = 10
 	r := image.Rect(int(math.Floor(c.Box[0]))-margin, int(math.Floor(c.Box[1]))-margin,
 		int(math.Ceil(c.Box[0]+c.Box[2]))+margin, int(math.Ceil(c.Box[1]+c.Box[3]))+margin).Intersect(page.Bounds())
@@ -48,6 +59,10 @@ func annotate(page image.Image, c report.Chart) *image.RGBA {
 		ink := inkOf(v)
 		for _, m := range c.Marks {
 			if m.Verdict != v {
+				continue
+			}
+			if len(m.Points) >= 2 {
+				alongPath(out, m, r.Min, ink)
 				continue
 			}
 			x0 := int(math.Round(m.BBox[0]-1.5)) - r.Min.X
@@ -136,4 +151,95 @@ func rectOutline(img *image.RGBA, x0, y0, x1, y1, width int, dash []int, c color
 			}
 		}
 	}
+}
+
+// alongPath outlines a line along its path: a band of the verdict's ink,
+// on a white halo, a little outside the line on both sides, so the line
+// itself stays visible.
+func alongPath(out *image.RGBA, m report.Mark, origin image.Point, k ink) {
+	half := 1.0
+	if m.Kind == "line" {
+		half = max(m.Size/2, 0.5)
+	}
+	inner, outer := half+1.5, half+1.5+float64(k.width)
+	pts := make([][2]float64, len(m.Points))
+	lo, hi := [2]float64{math.Inf(1), math.Inf(1)}, [2]float64{math.Inf(-1), math.Inf(-1)}
+	for i, p := range m.Points {
+		pts[i] = [2]float64{p[0] - float64(origin.X), p[1] - float64(origin.Y)}
+		lo = [2]float64{min(lo[0], pts[i][0]), min(lo[1], pts[i][1])}
+		hi = [2]float64{max(hi[0], pts[i][0]), max(hi[1], pts[i][1])}
+	}
+	b := image.Rect(int(lo[0]-outer-2), int(lo[1]-outer-2), int(hi[0]+outer+3), int(hi[1]+outer+3)).Intersect(out.Bounds())
+	white := color.RGBA{0xff, 0xff, 0xff, 0xff}
+	for y := b.Min.Y; y < b.Max.Y; y++ {
+		for x := b.Min.X; x < b.Max.X; x++ {
+			d := distToPath(float64(x)+0.5, float64(y)+0.5, pts)
+			switch {
+			case d >= inner && d < outer:
+				out.SetRGBA(x, y, k.c)
+			case d >= inner-1 && d < inner || d >= outer && d < outer+1:
+				out.SetRGBA(x, y, white)
+			}
+		}
+	}
+}
+
+// distToPath is the distance from (x, y) to the polyline pts.
+func distToPath(x, y float64, pts [][2]float64) float64 {
+	best := math.Inf(1)
+	for i := 1; i < len(pts); i++ {
+		a, b := pts[i-1], pts[i]
+		dx, dy := b[0]-a[0], b[1]-a[1]
+		t := 0.0
+		if l2 := dx*dx + dy*dy; l2 > 0 {
+			t = max(0, min(1, ((x-a[0])*dx+(y-a[1])*dy)/l2))
+		}
+		best = min(best, math.Hypot(x-a[0]-t*dx, y-a[1]-t*dy))
+	}
+	return best
+}
+
+// withKey adds a key under the picture: a sample of each outline the
+// picture uses, with its words, and the frame of a failed declared
+// emphasis when it is drawn.
+func withKey(img *image.RGBA, c report.Chart) *image.RGBA {
+	type entry struct {
+		draw  func(out *image.RGBA, x, y int)
+		words string
+	}
+	var rows []entry
+	used := map[string]bool{}
+	for _, m := range c.Marks {
+		used[m.Verdict] = true
+	}
+	for _, st := range report.VerdictStyles {
+		if !used[st.Verdict] {
+			continue
+		}
+		k := inkOf(st.Verdict)
+		rows = append(rows, entry{func(out *image.RGBA, x, y int) {
+			rectOutline(out, x, y, x+18, y+9, k.width, k.dash, k.c)
+		}, st.Words})
+	}
+	if em := c.Emphasis; em != nil && !em.Inferred && !em.Holds["normal"] {
+		alert := opaque(report.Ink.Alert)
+		rows = append(rows, entry{func(out *image.RGBA, x, y int) {
+			rectOutline(out, x, y, x+18, y+9, 2, []int{4, 3}, alert)
+		}, "declared emphasis that does not stand out"})
+	}
+	const rowH = 16
+	b := img.Bounds()
+	width := max(b.Dx(), 320)
+	out := image.NewRGBA(image.Rect(0, 0, width, b.Dy()+len(rows)*rowH+8))
+	draw.Draw(out, out.Bounds(), image.NewUniform(color.RGBA{0xff, 0xff, 0xff, 0xff}), image.Point{}, draw.Src)
+	draw.Draw(out, b, img, b.Min, draw.Src)
+	ink := opaque(report.Ink.Ink)
+	for i, r := range rows {
+		y := b.Dy() + 4 + i*rowH
+		r.draw(out, 6, y+3)
+		d := font.Drawer{Dst: out, Src: image.NewUniform(ink), Face: basicfont.Face7x13,
+			Dot: fixed.P(32, y+12)}
+		d.DrawString(r.words)
+	}
+	return out
 }

@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/json"
 	"image"
+	"image/color"
 	"image/draw"
 	"os"
 	"path/filepath"
@@ -116,4 +117,46 @@ func TestAnnotateMarksFailedEmphasis(t *testing.T) {
 	assert.Equal(t, 0, count(annotate(page, c)), "one that holds is not")
 	c.Emphasis.Holds["normal"], c.Emphasis.Inferred = false, true
 	assert.Equal(t, 0, count(annotate(page, c)), "nor an inferred one")
+}
+
+// A line is outlined along its path, leaving the line itself in view, and
+// every picture carries a key under the chart: a sample of each outline it
+// uses, with its words.
+func TestAnnotateLinesAndKey(t *testing.T) {
+	page := image.NewRGBA(image.Rect(0, 0, 200, 100))
+	draw.Draw(page, page.Bounds(), image.White, image.Point{}, draw.Src)
+	black := color.RGBA{0, 0, 0, 0xff}
+	for x := 20; x <= 180; x++ {
+		for w := -1; w <= 1; w++ {
+			page.SetRGBA(x, 50+w, black) // a horizontal line, 3 px wide
+		}
+	}
+	c := report.Chart{Path: "svg0", IsChart: true, Box: [4]float64{10, 10, 180, 80},
+		Marks: []report.Mark{{ID: "l0", Kind: "line", Verdict: "pops", Size: 3, BBox: [4]float64{20, 48.5, 160, 3},
+			Points: [][2]float64{{20, 50.5}, {180, 50.5}}}}}
+	out := annotate(page, c)
+	pops := opaque(report.StyleOf("pops").Colour)
+	origin := image.Pt(0, 0) // the crop starts at the chart's box less its margin
+	at := func(x, y int) color.RGBA { return out.RGBAAt(x-origin.X, y-origin.Y) }
+	assert.Equal(t, black, at(100, 50), "the line itself stays in view")
+	assert.Equal(t, pops, at(100, 50-4), "the outline runs above the line")
+	assert.Equal(t, pops, at(100, 50+4), "and below it")
+	assert.NotEqual(t, pops, at(100, 20), "not as a box around its extent")
+	// The key: taller than the crop, with a sample in the verdict's ink
+	// and lettering in the panel's ink below the chart.
+	require.Greater(t, out.Bounds().Dy(), 100)
+	inkR, inkG, inkB := colour.MustHex(report.Ink.Ink).RGB8()
+	var sample, letters int
+	for y := 100; y < out.Bounds().Dy(); y++ {
+		for x := 0; x < out.Bounds().Dx(); x++ {
+			switch p := out.RGBAAt(x, y); {
+			case p == pops:
+				sample++
+			case p.R == inkR && p.G == inkG && p.B == inkB:
+				letters++
+			}
+		}
+	}
+	assert.Greater(t, sample, 20, "a sample of the outline")
+	assert.Greater(t, letters, 50, "its words")
 }

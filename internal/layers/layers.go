@@ -37,4 +37,7 @@ var Only = map[string]string{
 	"github.com/tdewolff/parse/v2":     "static",
 	"github.com/tdewolff/parse/v2/css": "static",
 	"github.com/chromedp/chromedp":     "internal/browser",
+	// The PNG key's lettering: the command line's pictures only, never
+	// the extension's core.
+	"golang.org/x/image/font/basicfont": "cmd/standout",
 }

@@ -42,6 +42,10 @@ type Mark struct {
 	Angle       float64    `json:"angle"`
 	Size        float64    `json:"size"`
 	Text        string     `json:"text,omitempty"`
+	// Points are a line's or rule's vertices in page CSS px (minor 2), at
+	// most MaxPoints of them, evenly chosen, so that pictures outline it
+	// along its path.
+	Points [][2]float64 `json:"points,omitempty"`
 	// Weight is a text mark's font weight, 1–1000 (minor 2).
 	Weight float64 `json:"weight,omitempty"`
 	Label  string  `json:"label,omitempty"`
@@ -143,8 +147,20 @@ func toMark(m marks.Mark) Mark {
 	for _, s := range m.FillStops {
 		rm.FillStops = append(rm.FillStops, snapshot.Hex(s))
 	}
+	if (m.Kind == marks.KindLine || m.Kind == marks.KindRule) && len(m.Vertices) >= 2 {
+		step := max(1, (len(m.Vertices)+MaxPoints-1)/MaxPoints)
+		for i := 0; i < len(m.Vertices); i += step {
+			rm.Points = append(rm.Points, [2]float64{r2(m.Vertices[i].X), r2(m.Vertices[i].Y)})
+		}
+		if last := m.Vertices[len(m.Vertices)-1]; (len(m.Vertices)-1)%step != 0 {
+			rm.Points = append(rm.Points, [2]float64{r2(last.X), r2(last.Y)})
+		}
+	}
 	return rm
 }
+
+// MaxPoints bounds the vertices a report keeps of one line.
+const MaxPoints = 1000
 
 // paintAlpha is the alpha of the paint that shows the mark: the fill's when
 // it has one, else the stroke's.
