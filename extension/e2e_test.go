@@ -645,6 +645,9 @@ func TestE2EPickingAndExport(t *testing.T) {
 	// chart's <svg>; the panel carries the reports' glossary.
 	assert.Regexp(t, `<pre class="rule">body &gt; svg:nth-child\(1\) &gt; g:nth-child\(1\) &gt; rect:nth-child\(\d\)[^<]*\{ fill: #[0-9a-f]{6}; \}</pre>`, ov)
 	assert.Contains(t, ov, "What these words mean")
+	// The plot of the time to find the emphasis, rising for a highlight
+	// that blends (the search is serial).
+	assert.Regexp(t, `<svg [^>]*class="search-plot"[^>]*aria-label="Estimated time to find the emphasis: up to [0-9.]+ s among these 5 marks`, ov)
 
 	// Export the JSON report: it decodes as the documented schema.
 	dl := t.TempDir()

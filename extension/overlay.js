@@ -376,6 +376,7 @@
       if (c.emphasis && c.emphasis.marks.length) {
         const holds = VISIONS.map((v) => `${v}: ${c.emphasis.holds[v] ? 'yes' : 'no'}`).join(', ');
         sec.appendChild(el('p', { 'data-role': 'emphasis' }, `${c.emphasis.inferred ? 'Inferred' : 'Declared'} emphasis (${c.emphasis.marks.length} ${c.emphasis.marks.length === 1 ? 'mark' : 'marks'}) stands out for ${holds}.`));
+        if (c.emphasis.marks.length > 0 && c.emphasis.searchMs > 0) sec.appendChild(searchPlotView(c.emphasis, c.verdicts.length));
       }
       const ul = el('ul', { class: 'findings' });
       for (const f of c.findings) {
@@ -499,6 +500,42 @@
     const out = [p, el('pre', { class: 'rule' }, fix.rule || fix.css + ';')];
     if (fix.alternative) out.push(el('p', {}, fix.alternative));
     return out;
+  }
+
+  // searchPlotView draws how long finding the emphasis takes as the
+  // number of marks grows, through this chart (marked): nearly flat when it
+  // pops out, rising when only a slow search finds it. The geometry is
+  // SearchPlotSVG's (internal/report/searchplot.go), which draws the same
+  // plot for the Markdown report.
+  function searchPlotView(em, n) {
+    const W = 260, H = 110, left = 40, right = 24, top = 10, bottom = 28;
+    const w = W - left - right, h = H - top - bottom;
+    const at = (k) => (n < 2 ? em.searchMs : em.serial ? em.searchMs * k / n : em.searchMs * Math.log(k) / Math.log(n));
+    const ymax = Math.max(1000, at(10000));
+    const x = (k) => left + w * (Math.log10(k) - 1) / 3;
+    const y = (ms) => top + h * (1 - Math.min(ms, ymax) / ymax);
+    const svg = svgEl('svg', { width: W, height: H, viewBox: `0 0 ${W} ${H}`, role: 'img', class: 'search-plot',
+      'aria-label': `Estimated time to find the emphasis: up to ${(at(Math.max(n, 1)) / 1000).toFixed(1)} s among these ${n} marks, ${(at(1000) / 1000).toFixed(1)} s among 1,000.` });
+    const text = (tx, ty, s, anchor) => {
+      const t = svgEl('text', { x: tx, y: ty, 'text-anchor': anchor, fill: INK.ink, 'font-size': 10 });
+      t.textContent = s;
+      svg.appendChild(t);
+    };
+    svg.appendChild(svgEl('path', { d: `M${left} ${top}V${top + h}H${left + w}`, fill: 'none', stroke: INK.quiet }));
+    for (const k of [10, 100, 1000, 10000]) text(x(k), top + h + 12, k.toLocaleString('en'), 'middle');
+    text(left + w / 2, H - 3, 'marks in the chart', 'middle');
+    text(left - 4, top + 4, `${+(ymax / 1000).toFixed(1)} s`, 'end');
+    text(left - 4, top + h, '0', 'end');
+    const pts = [];
+    for (let i = 0; i <= 40; i++) {
+      const k = 10 ** (1 + 3 * i / 40);
+      pts.push(`${x(k).toFixed(1)} ${y(at(k)).toFixed(1)}`);
+    }
+    const colour = globalThis.standoutConstants.VERDICTS.find((v) => v.verdict === (em.serial ? 'conjunction' : 'pops')).colour;
+    svg.appendChild(svgEl('path', { d: 'M' + pts.join('L'), fill: 'none', stroke: colour, 'stroke-width': 2 }));
+    const k = Math.max(n, 10);
+    if (k <= 10000) svg.appendChild(svgEl('circle', { cx: x(k), cy: y(at(k)), r: 3.5, fill: INK.alert }));
+    return svg;
   }
 
   // glossaryView is the reports' vocabulary, folded away under the

@@ -164,6 +164,11 @@ func chartDigestMatches(t *testing.T, snap snapshot.Snapshot, fc report.Chart, l
 	assert.Equal(t, fc.Emphasis.Marks, nonNilStrings(em))
 	assert.Equal(t, fc.Emphasis.Holds, lc.Emphasis.Holds)
 	assert.Equal(t, fc.Emphasis.Inferred, lc.Emphasis.Inferred)
+	// The panel's search plot follows the report's curve.
+	if curve, ok := report.CurveOf(fc); ok {
+		assert.InDelta(t, curve.Ms, lc.Emphasis.SearchMs, 0.05)
+		assert.Equal(t, curve.Serial, lc.Emphasis.Serial)
+	}
 }
 
 func nonNilStrings(s []string) []string {

@@ -154,6 +154,17 @@ func writeArtifactFiles(r *report.Report, shots [][]byte, pngDir, mdDir string, 
 			}
 		}
 		if mdDir != "" {
+			for _, c := range p.Charts {
+				curve, ok := report.CurveOf(c)
+				if !c.IsChart || !ok {
+					continue
+				}
+				name := stem + "-" + strings.ReplaceAll(c.Path, "/", "-") + "-search.svg"
+				if err := os.WriteFile(filepath.Join(mdDir, name), []byte(report.SearchPlotSVG(curve)), 0o644); err != nil {
+					return err
+				}
+				pngs[report.SearchPlotKey+p.Source+"#"+c.Path] = name
+			}
 			var b bytes.Buffer
 			one := report.Report{Schema: r.Schema, Version: r.Version, Minor: r.Minor, Pages: []report.Page{p}, Caution: r.Caution}
 			report.WriteMarkdown(&b, &one, pngs)

@@ -185,6 +185,10 @@ func TestMarkdownAndPNGGolden(t *testing.T) {
 		data, _ := os.ReadFile(shots[0])
 		require.NoError(t, os.WriteFile(goldenPNG, data, 0o644))
 	}
+	if os.Getenv("STANDOUT_UPDATE_DOCS") == "1" {
+		data, _ := os.ReadFile(shots[0])
+		require.NoError(t, os.WriteFile("../../docs/report-picture.png", data, 0o644))
+	}
 	ref := decodePNG(t, goldenPNG)
 	require.Equal(t, ref.Bounds(), img.Bounds())
 	// Sampled pixels on a 24 × 24 grid, within 24 levels per channel

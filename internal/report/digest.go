@@ -68,6 +68,10 @@ type DigestEmphasis struct {
 	Marks    []int           `json:"marks"`
 	Inferred bool            `json:"inferred"`
 	Holds    map[string]bool `json:"holds"`
+	// SearchMs and Serial are the emphasis's search curve (SearchCurve)
+	// at the chart's number of marks, for the panel's plot.
+	SearchMs float64 `json:"searchMs"`
+	Serial   bool    `json:"serial"`
 }
 
 // verdictLetter is each verdict's letter in the digest (VerdictStyles).
@@ -218,8 +222,27 @@ func appendDigestEmphasis(b []byte, a Analysed) []byte {
 		b = append(b, ':')
 		b = strconv.AppendBool(b, a.Result.Holds[vi])
 	}
-	b = append(b, "}}"...)
-	return b
+	curve := digestCurve(a)
+	b = append(b, `},"searchMs":`...)
+	b = strconv.AppendFloat(b, math.Round(curve.Ms*10)/10, 'f', -1, 64)
+	b = append(b, `,"serial":`...)
+	b = strconv.AppendBool(b, curve.Serial)
+	return append(b, '}')
+}
+
+// digestCurve is the emphasis's search curve, as CurveOf finds it in a
+// report chart: its slowest emphasised mark's.
+func digestCurve(a Analysed) SearchCurve {
+	c := SearchCurve{N: len(a.Chart.Marks)}
+	for _, i := range a.Result.Emphasis {
+		if i < 0 || i >= len(a.Result.Marks) {
+			continue
+		}
+		if r := a.Result.Marks[i][0]; r.SearchMs[1] >= c.Ms {
+			c.Ms, c.Serial = r.SearchMs[1], r.Verdict != perception.Pops
+		}
+	}
+	return c
 }
 
 // appendHundredths writes v rounded to hundredths: the same number as

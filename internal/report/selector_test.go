@@ -23,3 +23,18 @@ func TestRuleForms(t *testing.T) {
 	assert.Equal(t, "", Rule(a, "svg0", []string{"svg1/g1/rect5"}, "fill: #1f5585"))
 	assert.Equal(t, "", Rule(a, "svg0", []string{"svg0/g1/rect"}, "fill: #1f5585"))
 }
+
+// The search curve keeps the model's forms (perception.Params.LogSearchMs,
+// SerialSlope): through the chart's estimate, logarithmic in the number of
+// marks for a pop-out, linear for a slow search.
+func TestSearchCurve(t *testing.T) {
+	pop := SearchCurve{N: 100, Ms: 300}
+	assert.InDelta(t, 300, pop.At(100), 1e-9)
+	assert.InDelta(t, 450, pop.At(1000), 1e-9, "ln 1000 / ln 100 = 1.5")
+	serial := SearchCurve{N: 100, Ms: 5000, Serial: true}
+	assert.InDelta(t, 50000, serial.At(1000), 1e-9)
+	svg := SearchPlotSVG(serial)
+	assert.Contains(t, svg, "<title>Estimated time to find the emphasis")
+	assert.Contains(t, svg, StyleOf("conjunction").Colour)
+	assert.Contains(t, SearchPlotSVG(pop), StyleOf("pops").Colour)
+}
