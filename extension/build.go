@@ -42,7 +42,11 @@ func Build(dir string, firefox bool) error {
 			}
 			name = "manifest.json"
 		}
-		return os.WriteFile(filepath.Join(dir, name), b, 0o644)
+		out := filepath.Join(dir, filepath.FromSlash(name))
+		if err := os.MkdirAll(filepath.Dir(out), 0o755); err != nil {
+			return err
+		}
+		return os.WriteFile(out, b, 0o644)
 	})
 	if err != nil {
 		return err
