@@ -380,6 +380,11 @@ func layerRects(t testing.TB, overlay string) map[string]map[string][][4]float64
 					minY, maxY = math.Min(minY, p.Y), math.Max(maxY, p.Y)
 				}
 				v := attr("data-verdict")
+				if htmlHasAttr(n, "data-along") {
+					// A band along a line: its path is the line's own.
+					out[chart][v+"/along"] = append(out[chart][v+"/along"], [4]float64{ox + minX, oy + minY, maxX - minX, maxY - minY})
+					continue
+				}
 				out[chart][v] = append(out[chart][v], [4]float64{ox + minX + 1.5, oy + minY + 1.5, maxX - minX - 3, maxY - minY - 3})
 			}
 		}
@@ -389,6 +394,15 @@ func layerRects(t testing.TB, overlay string) map[string]map[string][][4]float64
 	}
 	walk(doc, "", 0, 0)
 	return out
+}
+
+func htmlHasAttr(n *html.Node, k string) bool {
+	for _, a := range n.Attr {
+		if a.Key == k {
+			return true
+		}
+	}
+	return false
 }
 
 // markRects resolves mark ids ("svg0/g1/rect3") to the elements' boxes in
@@ -482,8 +496,29 @@ func TestE2EOverlayMatchesStaticPath(t *testing.T) {
 			got, ok := layers[c.Path]
 			require.True(t, ok, "%s: no overlay layer for %s", pg.name, c.Path)
 			byVerdict := map[string][]string{}
+			along := map[string][][4]float64{}
 			for _, m := range c.Marks {
+				if len(m.Points) >= 2 {
+					// Lines and rules are outlined along their path: the
+					// band's extent is that of the line's points.
+					minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+					for _, p := range m.Points {
+						minX, maxX = math.Min(minX, p[0]), math.Max(maxX, p[0])
+						minY, maxY = math.Min(minY, p[1]), math.Max(maxY, p[1])
+					}
+					along[m.Verdict] = append(along[m.Verdict], [4]float64{0, 0, maxX - minX, maxY - minY})
+					continue
+				}
 				byVerdict[m.Verdict] = append(byVerdict[m.Verdict], m.ID)
+			}
+			for v, sizes := range along {
+				bands := got[v+"/along"]
+				require.Len(t, bands, len(sizes), "%s %s: %s bands", pg.name, c.Path, v)
+				for i := range sizes {
+					checked++
+					assert.InDelta(t, sizes[i][2], bands[i][2], 1, "%s %s: band %d width", pg.name, c.Path, i)
+					assert.InDelta(t, sizes[i][3], bands[i][3], 1, "%s %s: band %d height", pg.name, c.Path, i)
+				}
 			}
 			for v, ids := range byVerdict {
 				require.Len(t, got[v], len(ids), "%s %s: %s outlines", pg.name, c.Path, v)

@@ -203,6 +203,29 @@
   }
 
 
+  // bandAlong outlines a line or rule along its path (digest path: index,
+  // stroke width, then x y pairs), as the command line's pictures do: a
+  // band of the verdict's ink a little outside the line on both sides, on
+  // a halo, cut out by a mask so that the line itself stays in view.
+  function bandAlong(svg, path, readBox, st) {
+    let d = '';
+    for (let k = 2; k + 1 < path.length; k += 2) d += `${k === 2 ? 'M' : 'L'}${r2(path[k] - readBox[0])},${r2(path[k + 1] - readBox[1])}`;
+    const inner = path[1] + 3; // the line and a 1.5 px gap on each side
+    const outer = inner + 2 * st.width;
+    const id = 'standout-band-' + Math.random().toString(36).slice(2);
+    const line = (stroke, width) => svgEl('path', { d, fill: 'none', stroke, 'stroke-width': width, 'stroke-linejoin': 'round', 'stroke-linecap': 'round' });
+    const mask = svgEl('mask', { id, maskUnits: 'userSpaceOnUse', x: -1e4, y: -1e4, width: 2e4, height: 2e4 });
+    mask.append(line('white', outer + 2), line('black', inner)); // a mask's luminance: shown, cut
+    svg.appendChild(mask);
+    const halo = line(INK.paper, outer + 2);
+    const ink = line(st.colour, outer);
+    for (const p of [halo, ink]) p.setAttribute('mask', `url(#${id})`);
+    ink.setAttribute('data-verdict', st.verdict);
+    ink.setAttribute('data-along', '');
+    if (st.dash) ink.setAttribute('stroke-dasharray', st.dash);
+    svg.append(halo, ink);
+  }
+
   // byVerdict lists a chart's mark indices per verdict.
   function byVerdict(chart) {
     const out = { pops: [], conjunction: [], blends: [] };
@@ -231,7 +254,10 @@
       const svg = svgEl('svg', { class: 'layer', 'data-chart': c.path, 'aria-hidden': 'true' });
       const readBox = c.box;
       const groups = byVerdict(c);
+      const paths = new Map((c.paths || []).map((p) => [p[0], p]));
       for (const v of ['blends', 'conjunction', 'pops']) {
+        for (const i of groups[v]) if (paths.has(i)) bandAlong(svg, paths.get(i), readBox, STYLE[v]);
+        groups[v] = groups[v].filter((i) => !paths.has(i));
         if (!groups[v].length) continue;
         const st = STYLE[v];
         const d = rectPath(c, groups[v], readBox[0], readBox[1], 1.5);

@@ -138,6 +138,20 @@ func chartDigestMatches(t *testing.T, snap snapshot.Snapshot, fc report.Chart, l
 			assert.Equal(t, m.Verdict[:1], lc.Verdicts[i:i+1])
 		}
 	}
+	// Each line and rule has its path, from the same vertices as the
+	// report's points.
+	paths := 0
+	for i, m := range fc.Marks {
+		if len(m.Points) >= 2 {
+			require.Less(t, paths, len(lc.Paths))
+			p := lc.Paths[paths]
+			assert.Equal(t, float64(i), p[0])
+			assert.InDelta(t, m.Points[0][0], p[2], 0.01)
+			assert.InDelta(t, m.Points[0][1], p[3], 0.01)
+			paths++
+		}
+	}
+	assert.Len(t, lc.Paths, paths)
 	require.Len(t, lc.Findings, len(fc.Findings))
 	for i, f := range fc.Findings {
 		g := lc.Findings[i]

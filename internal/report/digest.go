@@ -5,6 +5,7 @@ import (
 	"strconv"
 
 	"standout/internal/jsonio"
+	"standout/marks"
 	"standout/perception"
 )
 
@@ -36,9 +37,13 @@ type DigestChart struct {
 	// mark's x y width height in page px, rounded to hundredths as in the
 	// report; Verdicts holds one letter per mark: p pops, c conjunction, b
 	// blends.
-	Nodes    []int           `json:"nodes"`
-	Boxes    []float64       `json:"boxes"`
-	Verdicts string          `json:"verdicts"`
+	Nodes    []int     `json:"nodes"`
+	Boxes    []float64 `json:"boxes"`
+	Verdicts string    `json:"verdicts"`
+	// Paths holds, for each line or rule, its mark index, its stroke
+	// width and its vertices (x y, page px, at most MaxDigestPoints),
+	// flat, so that the overlay outlines it along its path.
+	Paths    [][]float64     `json:"paths,omitempty"`
 	Findings []DigestFinding `json:"findings"`
 	Emphasis *DigestEmphasis `json:"emphasis,omitempty"`
 }
@@ -143,7 +148,9 @@ func appendDigestChart(b []byte, a Analysed) []byte {
 			b = appendHundredths(b, v)
 		}
 	}
-	b = append(b, `],"verdicts":"`...)
+	b = append(b, ']')
+	b = appendDigestPaths(b, ch)
+	b = append(b, `,"verdicts":"`...)
 	for i := range ch.Marks {
 		v := byte('b')
 		if a.Result != nil {
@@ -284,4 +291,46 @@ func appendInts(b []byte, v []int, n int) []byte {
 		b = strconv.AppendInt(b, int64(x), 10)
 	}
 	return append(b, ']')
+}
+
+// MaxDigestPoints bounds the vertices the overlay gets of one line.
+const MaxDigestPoints = 200
+
+// appendDigestPaths writes the lines' and rules' paths (DigestChart.Paths).
+func appendDigestPaths(b []byte, ch *marks.Chart) []byte {
+	first := true
+	for i, m := range ch.Marks {
+		if (m.Kind != marks.KindLine && m.Kind != marks.KindRule) || len(m.Vertices) < 2 {
+			continue
+		}
+		if first {
+			b = append(b, `,"paths":[`...)
+			first = false
+		} else {
+			b = append(b, ',')
+		}
+		b = append(b, '[')
+		b = strconv.AppendInt(b, int64(i), 10)
+		b = append(b, ',')
+		b = appendHundredths(b, max(m.StrokeWidth, 1))
+		step := max(1, (len(m.Vertices)+MaxDigestPoints-1)/MaxDigestPoints)
+		for k := 0; k < len(m.Vertices); k += step {
+			b = appendPoint(b, m.Vertices[k])
+		}
+		if (len(m.Vertices)-1)%step != 0 {
+			b = appendPoint(b, m.Vertices[len(m.Vertices)-1])
+		}
+		b = append(b, ']')
+	}
+	if !first {
+		b = append(b, ']')
+	}
+	return b
+}
+
+func appendPoint(b []byte, p marks.Point) []byte {
+	b = append(b, ',')
+	b = appendHundredths(b, p.X)
+	b = append(b, ',')
+	return appendHundredths(b, p.Y)
 }
