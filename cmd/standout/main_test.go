@@ -271,3 +271,50 @@ func TestLiteratureDisplaysThroughCheck(t *testing.T) {
 	assert.Equal(t, 1, c["target:conjunction"], "%v", c)
 	assert.Equal(t, 35, c["blends"], "%v", c)
 }
+
+// The demo's text report is a golden file: chart names from titles, the
+// authored colours, findings in plain words with their evidence, fixes as
+// rules with selectors. Regenerate with go test ./cmd/standout -run
+// DemoTextGolden -update, and review the diff.
+func TestDemoTextGolden(t *testing.T) {
+	code, out, errs := runCmd("demo", "--static")
+	require.Equal(t, 0, code, errs)
+	const golden = "testdata/demo-static.golden"
+	if *update {
+		require.NoError(t, os.WriteFile(golden, []byte(out), 0o644))
+	}
+	want, err := os.ReadFile(golden)
+	require.NoError(t, err, "run go test ./cmd/standout -run DemoTextGolden -update")
+	assert.Equal(t, string(want), out)
+}
+
+// No chart of the demo pages contradicts itself: a summary that has marks
+// pop out goes with an emphasis that stands out or a named reason none
+// does, and one with no mark popping never claims an emphasis that pops.
+func TestDemoSummariesAgreeWithFindings(t *testing.T) {
+	pages := parityPages(t)
+	code, out, errs := runCmd(append([]string{"check", "--json"}, pages...)...)
+	require.Equal(t, 0, code, errs)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	for _, p := range rep.Pages {
+		for _, c := range p.Charts {
+			if !c.IsChart {
+				continue
+			}
+			ids := map[string]bool{}
+			for _, f := range c.Findings {
+				ids[f.ID] = true
+			}
+			sum := report.Summary(c)
+			pops := strings.Contains(sum, "pop out") || strings.Contains(sum, "pops out")
+			where := p.Source + " " + c.Path + ": " + sum
+			if ids["no-standout-mark"] {
+				assert.False(t, pops, "%s: marks pop, yet no mark stands apart", where)
+			}
+			if ids["emphasis-pops"] {
+				assert.True(t, pops, "%s: the emphasis pops, yet no mark does", where)
+			}
+		}
+	}
+}

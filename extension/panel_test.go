@@ -1,0 +1,89 @@
+package extension
+
+import (
+	"flag"
+	"os"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+	"golang.org/x/net/html"
+
+	"standout/internal/demo"
+)
+
+var updatePanel = flag.Bool("update", false, "rewrite the panel's golden files")
+
+// panelText is the panel's text as a reader reads it: one line per block
+// (headings, paragraphs, findings, the rule to paste, glossary entries).
+func panelText(t *testing.T, overlay string) string {
+	doc, err := html.Parse(strings.NewReader(overlay))
+	require.NoError(t, err)
+	block := map[string]bool{"h2": true, "h3": true, "p": true, "li": true, "pre": true, "summary": true, "dt": true, "dd": true, "button": true, "div": true, "select": true}
+	var b strings.Builder
+	var walk func(n *html.Node, in bool)
+	walk = func(n *html.Node, in bool) {
+		if n.Type == html.ElementNode {
+			for _, a := range n.Attr {
+				if a.Key == "class" && strings.Contains(" "+a.Val+" ", " panel ") {
+					in = true
+				}
+			}
+			switch {
+			case n.Data == "style":
+				return
+			case n.Data == "svg":
+				// A picture reads as its label.
+				for _, a := range n.Attr {
+					if in && a.Key == "aria-label" {
+						b.WriteString("\n[" + a.Val + "]\n")
+					}
+				}
+				return
+			}
+		}
+		if in && n.Type == html.TextNode {
+			b.WriteString(n.Data)
+		}
+		for c := n.FirstChild; c != nil; c = c.NextSibling {
+			walk(c, in)
+		}
+		if in && n.Type == html.ElementNode && block[n.Data] {
+			b.WriteString("\n")
+		}
+	}
+	walk(doc, false)
+	var lines []string
+	for _, l := range strings.Split(b.String(), "\n") {
+		if l = strings.TrimSpace(l); l != "" {
+			lines = append(lines, l)
+		}
+	}
+	return strings.Join(lines, "\n") + "\n"
+}
+
+// The panel on each demo page is a golden file: chart names from titles,
+// findings in plain words with their evidence, fixes as rules to paste,
+// the search-time plot's words, the glossary. Regenerate with
+// go test ./extension -run PanelGolden -update, and review the diff.
+func TestE2EPanelGolden(t *testing.T) {
+	h := newHarness(t)
+	for _, name := range []string{"harbour-ferries", "gullsand-night-boats"} {
+		t.Run(name, func(t *testing.T) {
+			page, err := demo.Pages.ReadFile("pages/" + name + ".html")
+			require.NoError(t, err)
+			h.showPage(string(page))
+			got := panelText(t, h.overlayHTML())
+			golden := "testdata/panel-" + name + ".golden"
+			if *updatePanel {
+				require.NoError(t, os.WriteFile(golden, []byte(got), 0o644))
+			}
+			want, err := os.ReadFile(golden)
+			require.NoError(t, err, "run go test ./extension -run PanelGolden -update")
+			assert.Equal(t, string(want), got)
+			h.escape()
+			h.waitState("")
+		})
+	}
+}
