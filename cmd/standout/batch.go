@@ -166,7 +166,22 @@ func writeArtifactFiles(r *report.Report, shots [][]byte, pngDir, mdDir string, 
 				pngs[report.SearchPlotKey+p.Source+"#"+c.Path] = name
 			}
 			var b bytes.Buffer
-			one := report.Report{Schema: r.Schema, Version: r.Version, Minor: r.Minor, Pages: []report.Page{p}, Caution: r.Caution}
+			// A local page is named by its path from the report's folder.
+			shown := p
+			if rel := relativeTo(mdDir, p.Source); rel != "" {
+				shown.Source = rel
+				moved := map[string]string{}
+				for k, v := range pngs {
+					if rest, ok := strings.CutPrefix(k, p.Source+"#"); ok {
+						k = rel + "#" + rest
+					} else if rest, ok := strings.CutPrefix(k, report.SearchPlotKey+p.Source+"#"); ok {
+						k = report.SearchPlotKey + rel + "#" + rest
+					}
+					moved[k] = v
+				}
+				pngs = moved
+			}
+			one := report.Report{Schema: r.Schema, Version: r.Version, Minor: r.Minor, Pages: []report.Page{shown}, Caution: r.Caution}
 			report.WriteMarkdown(&b, &one, pngs)
 			if err := os.WriteFile(filepath.Join(mdDir, stem+".md"), b.Bytes(), 0o644); err != nil {
 				return err
@@ -219,4 +234,25 @@ func pageFromRead(name string, r browser.PageResult, opt report.Options) (report
 		return report.Page{}, fmt.Errorf("the read pass returned bad data: %w", err)
 	}
 	return report.FromSnapshots(name, pg.Snapshots, pg.Problems, opt)
+}
+
+// relativeTo is the path of a local page from dir, with forward slashes;
+// empty for an address or when no relative path exists.
+func relativeTo(dir, source string) string {
+	if strings.Contains(source, "://") {
+		return ""
+	}
+	abs, err := filepath.Abs(source)
+	if err != nil {
+		return ""
+	}
+	absDir, err := filepath.Abs(dir)
+	if err != nil {
+		return ""
+	}
+	rel, err := filepath.Rel(absDir, abs)
+	if err != nil {
+		return ""
+	}
+	return filepath.ToSlash(rel)
 }

@@ -165,7 +165,10 @@ func TestMarkdownAndPNGGolden(t *testing.T) {
 	assert.Contains(t, errs, "wrote 1 Markdown report(s) to "+md)
 	got, err := os.ReadFile(mds[0])
 	require.NoError(t, err)
-	// The page's path differs per run; the golden file has a placeholder.
+	// A local page is named by its path from the report's folder.
+	assert.Contains(t, string(got), "\n## ../harbour-ferries.html\n")
+	// Any absolute path would differ per run; the golden file has a
+	// placeholder for it.
 	gotS := strings.ReplaceAll(string(got), page, "PAGE")
 	gotS = strings.ReplaceAll(gotS, report.MarkdownEscape(page), "PAGE")
 	golden := "testdata/harbour-ferries.md.golden"
