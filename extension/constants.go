@@ -40,11 +40,12 @@ func Constants() []byte {
 	num("PAINT_SERVER", int(snapshot.PaintServer))
 	num("NAME_USE", snapshot.NameUse)
 	num("GEOM_AUTO", snapshot.GeomAuto)
+	num("MAX_CLASS_BYTES", snapshot.MaxClassBytes)
 	for _, f := range []struct {
 		name string
 		v    int
 	}{{"HAS_CTM", snapshot.FieldCTM}, {"HAS_GEOM", snapshot.FieldGeom}, {"HAS_BBOX", snapshot.FieldBBox}, {"HAS_D", snapshot.FieldD},
-		{"HAS_TEXT", snapshot.FieldText}, {"HAS_LABEL", snapshot.FieldLabel}, {"HAS_NAME", snapshot.FieldName}, {"HAS_SAME_STYLE", snapshot.FieldSameStyle}} {
+		{"HAS_TEXT", snapshot.FieldText}, {"HAS_LABEL", snapshot.FieldLabel}, {"HAS_NAME", snapshot.FieldName}, {"HAS_SAME_STYLE", snapshot.FieldSameStyle}, {"HAS_CLASS", snapshot.FieldClass}} {
 		num(f.name, f.v)
 	}
 	for _, f := range []struct {

@@ -316,7 +316,7 @@
   const IDENTITY = [1, 0, 0, 1, 0, 0];
   // The optional fields of a node record and the slots of its style
   // (snapshot/json.go).
-  const { HAS_CTM, HAS_GEOM, HAS_BBOX, HAS_D, HAS_TEXT, HAS_LABEL, HAS_NAME, HAS_SAME_STYLE } = C;
+  const { HAS_CTM, HAS_GEOM, HAS_BBOX, HAS_D, HAS_TEXT, HAS_LABEL, HAS_NAME, HAS_SAME_STYLE, HAS_CLASS } = C;
   const { STYLE_FILL, STYLE_STROKE, STYLE_FILL_OPACITY, STYLE_STROKE_OPACITY, STYLE_STROKE_WIDTH } = C;
 
   // capError is thrown when a chart passes a cap; its message is the note.
@@ -337,6 +337,7 @@
       this.paints = [0, 0, 0]; // entry 0: none
       this.nPaints = 1;
       this.paintIndex = new Map();
+      this.sharedIndex = new Map(); // strings many records repeat, by text
       this.strs = [];
       this.nodes = [];
       this.sel = [];
@@ -423,6 +424,19 @@
     text(s, bit) {
       this.nodes.push(this.strs.length);
       this.strs.push(s);
+      return bit;
+    }
+
+    // shared writes a string field that many records repeat (Class) once
+    // into strs, every record pointing at it.
+    shared(s, bit) {
+      let k = this.sharedIndex.get(s);
+      if (k === undefined) {
+        k = this.strs.length;
+        this.strs.push(s);
+        this.sharedIndex.set(s, k);
+      }
+      this.nodes.push(k);
       return bit;
     }
 
@@ -575,6 +589,8 @@
       if (t) has |= w.text(t, HAS_TEXT);
       const al = el.getAttribute('aria-label');
       if (al) has |= w.text(al, HAS_LABEL);
+      const cl = (el.getAttribute('class') || '').trim();
+      if (cl && cl.length <= C.MAX_CLASS_BYTES) has |= w.shared(cl, HAS_CLASS);
       w.end(has);
       if (el.hasAttribute('data-standout-emphasis') || (this.emphasis && el.matches(this.emphasis))) w.sel.push(idx);
       if (isText || notRendered.has(tag)) return;

@@ -76,6 +76,8 @@ type Mark struct {
 	Fold  int
 	// Text is the content of a text mark; Label the <title> or aria-label.
 	Text, Label string
+	// Class is the element's class attribute (snapshot.Node.Class).
+	Class string
 	// Weight is a text mark's font weight (1–1000; 400 is normal, 700
 	// bold), 0 for other marks.
 	Weight float64
@@ -950,7 +952,7 @@ func symbolStrokes(h *Heuristics, g *Geometry) bool {
 func makeMark(c *cand) Mark {
 	nd := c.n
 	m := Mark{ID: nd.Name, Node: c.node, Kind: c.kind, Shape: c.g.Shape, Opacity: c.opacity,
-		FillOpacity: c.fillA, StrokeOpacity: c.strokeA, StrokeWidth: c.strokeW, Label: c.label,
+		FillOpacity: c.fillA, StrokeOpacity: c.strokeA, StrokeWidth: c.strokeW, Label: c.label, Class: nd.Class,
 		BBox: c.g.BBox, Area: c.g.Area, Centroid: c.g.Centroid, Angle: c.g.Angle, Fold: c.g.Fold}
 	if nd.Fill.Kind != snapshot.PaintNone && (c.g.Area > 0 || nd.Tag == "text") {
 		v := nd.Fill.RGBA

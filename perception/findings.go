@@ -332,7 +332,7 @@ func (a *lowGroup) finding(k contrastKey) Finding {
 			Evidence: cr + ":1 against the background; " + need + ".",
 			Source:   srcText}
 	}
-	sev, why := Error, " Darken them, or label the marks directly."
+	sev, why := Error, " Darken "+plural(n, "it", "them")+", or label the marks directly."
 	if a.context != "" {
 		sev, why = Warning, a.context
 	}

@@ -42,6 +42,7 @@ import (
 //	16  Text: an index into "strs"
 //	32  Label: an index into "strs"
 //	64  Name: an index into "strs", replacing the derived name
+//	256 Class: an index into "strs" (records may share one)
 //
 // JavaScript writes NaN and the infinities as null; they read as 0, as
 // encoding/json reads null into a number.
@@ -56,7 +57,8 @@ const (
 	FieldLabel
 	FieldName
 	FieldSameStyle
-	fieldAll = FieldCTM | FieldGeom | FieldBBox | FieldD | FieldText | FieldLabel | FieldName | FieldSameStyle
+	FieldClass
+	fieldAll = FieldCTM | FieldGeom | FieldBBox | FieldD | FieldText | FieldLabel | FieldName | FieldSameStyle | FieldClass
 )
 
 // The slots of a node record's style, in order.
@@ -74,6 +76,8 @@ const (
 const (
 	// NameUse is the name field of content instantiated by <use>.
 	NameUse = -1
+	// MaxClassBytes bounds a node's class attribute as the readers keep it.
+	MaxClassBytes = 256
 	// maxGeom bounds a record's geometry count.
 	maxGeom = 16
 	// maxStops bounds the stops of one paint entry.
@@ -364,7 +368,20 @@ func (nr *nodeReader) next() error {
 	if err := nr.strings(nd, has); err != nil {
 		return err
 	}
-	return nr.name(nd, has, p, nk)
+	if err := nr.name(nd, has, p, nk); err != nil {
+		return err
+	}
+	if has&FieldClass != 0 {
+		c, err := nr.r.str(nr.w.Strs)
+		if err != nil {
+			return err
+		}
+		if len(c) > MaxClassBytes {
+			return fmt.Errorf("a class of %d bytes, more than %d", len(c), MaxClassBytes)
+		}
+		nd.Class = c
+	}
+	return nil
 }
 
 // style reads the record's style, or repeats the previous record's.
@@ -699,6 +716,9 @@ func presentFields(s *Snapshot, i int) int {
 	if nd.Label != "" {
 		has |= FieldLabel
 	}
+	if nd.Class != "" {
+		has |= FieldClass
+	}
 	return has
 }
 
@@ -725,6 +745,9 @@ func (e *wireEncoder) optional(out []float64, nd *Node, has int) []float64 {
 	}
 	if has&FieldName != 0 {
 		out = append(out, e.str(nd.Name))
+	}
+	if has&FieldClass != 0 {
+		out = append(out, e.str(nd.Class))
 	}
 	return out
 }

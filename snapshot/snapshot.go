@@ -98,6 +98,9 @@ type Node struct {
 	Text string
 	// Label is the element's aria-label, if any.
 	Label string
+	// Class is the element's class attribute, trimmed (at most
+	// MaxClassBytes), for fixes that name the author's own classes.
+	Class string
 }
 
 // Node flags.

@@ -465,6 +465,9 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 		node.Flags |= snapshot.Hidden
 	}
 	node.Label = attr(n, "aria-label")
+	if c := strings.TrimSpace(attr(n, "class")); len(c) <= snapshot.MaxClassBytes {
+		node.Class = c
+	}
 	b.geometry(n, &node, st)
 	switch tag {
 	case "path":

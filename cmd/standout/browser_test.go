@@ -71,6 +71,12 @@ func TestBrowserPathMatchesStaticPath(t *testing.T) {
 			require.Equal(t, sc.Path, bc.Path)
 			assert.Equal(t, sc.Anchor, bc.Anchor, "%s %s: anchor", pages[i], sc.Path)
 			require.Len(t, bc.Marks, len(sc.Marks), "%s %s", pages[i], sc.Path)
+			require.Len(t, bc.Findings, len(sc.Findings), "%s %s", pages[i], sc.Path)
+			for k, f := range sc.Findings {
+				if f.Fix != nil && bc.Findings[k].Fix != nil {
+					assert.Equal(t, f.Fix.Rule, bc.Findings[k].Fix.Rule, "%s %s: the fix's rule", pages[i], sc.Path)
+				}
+			}
 			for k := range sc.Marks {
 				bm, sm := bc.Marks[k], sc.Marks[k]
 				where := fmt.Sprintf("%s %s", filepath.Base(pages[i]), sm.ID)

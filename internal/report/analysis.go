@@ -228,7 +228,7 @@ func Findings(ch *marks.Chart, res *perception.Result) []Finding {
 				m[k] = math.Round(v*100) / 100
 			}
 			rf.Fix = &Fix{Kind: f.Fix.Kind, CSS: f.Fix.CSS, Margin: m, Verified: f.Fix.Verified, Alternative: f.Fix.Alternative,
-				Rule: Rule(ch.Anchor, ch.Path, markIDs(ch, f.Fix.Marks), f.Fix.CSS)}
+				Rule: RuleFor(ch, f.Fix.Marks, res.Emphasis, f.Fix.CSS)}
 		}
 		out = append(out, rf)
 	}

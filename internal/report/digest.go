@@ -194,7 +194,7 @@ func appendDigestFindings(b []byte, a Analysed) []byte {
 				b = jsonio.AppendString(b, f.Fix.Kind)
 				b = append(b, `,"css":`...)
 				b = jsonio.AppendString(b, f.Fix.CSS)
-				if rule := Rule(ch.Anchor, ch.Path, markIDs(ch, f.Fix.Marks), f.Fix.CSS); rule != "" {
+				if rule := RuleFor(ch, f.Fix.Marks, a.Result.Emphasis, f.Fix.CSS); rule != "" {
 					b = append(b, `,"rule":`...)
 					b = jsonio.AppendString(b, rule)
 				}

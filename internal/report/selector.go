@@ -1,9 +1,12 @@
 package report
 
 import (
+	"regexp"
 	"slices"
 	"strconv"
 	"strings"
+
+	"standout/marks"
 )
 
 // Rule is a CSS rule that applies decl to the marks ids of a chart whose
@@ -96,4 +99,87 @@ func splitStep(s string) (string, int, bool) {
 	}
 	n, err := strconv.Atoi(s[i:])
 	return s[:i], n, err == nil
+}
+
+// plainClass is a class usable in a selector as .name without escaping.
+var plainClass = regexp.MustCompile(`^-?[A-Za-z_][A-Za-z0-9_-]*$`)
+
+// RuleFor is the CSS rule for a fix: by the author's own classes where one
+// class picks exactly the fix's marks among the chart's marks and legend
+// swatches (for a mute fix, possibly with :not() of a class only the
+// emphasis has: .bar:not(.hero)), else by Rule's structural selectors. A
+// class the chart's furniture shares is restyled with the marks; the
+// author knows their classes, and the rule says which it uses.
+func RuleFor(ch *marks.Chart, fix, emphasis []int, decl string) string {
+	if ch.Anchor == "" || len(fix) == 0 {
+		return ""
+	}
+	if sel := classSelector(ch, fix, emphasis); sel != "" {
+		return ch.Anchor + " " + sel + " { " + decl + "; }"
+	}
+	return Rule(ch.Anchor, ch.Path, markIDs(ch, fix), decl)
+}
+
+// classSelector finds the class selector RuleFor prefers, or "".
+func classSelector(ch *marks.Chart, fix, emphasis []int) string {
+	inFix, inEm := map[int]bool{}, map[int]bool{}
+	for _, i := range fix {
+		inFix[i] = true
+	}
+	for _, i := range emphasis {
+		inEm[i] = true
+	}
+	all := append(append([]marks.Mark(nil), ch.Marks...), ch.Legend...)
+	shared := func(idx []int) []string {
+		var out []string
+		for k, i := range idx {
+			if i < 0 || i >= len(ch.Marks) {
+				return nil
+			}
+			cs := classesOf(ch.Marks[i])
+			if k == 0 {
+				out = cs
+				continue
+			}
+			out = slices.DeleteFunc(out, func(c string) bool { return !slices.Contains(cs, c) })
+		}
+		return out
+	}
+	// holders says whether every mark or swatch with class c is allowed.
+	holders := func(c string, allowed func(int) bool) bool {
+		for i, m := range all {
+			if slices.Contains(classesOf(m), c) && !allowed(i) {
+				return false
+			}
+		}
+		return true
+	}
+	for _, c := range shared(fix) {
+		if holders(c, func(i int) bool { return inFix[i] }) {
+			return "." + c
+		}
+	}
+	for _, c := range shared(fix) {
+		if !holders(c, func(i int) bool { return inFix[i] || inEm[i] }) {
+			continue
+		}
+		for _, h := range shared(emphasis) {
+			if holders(h, func(i int) bool { return inEm[i] }) {
+				return "." + c + ":not(." + h + ")"
+			}
+		}
+	}
+	return ""
+}
+
+// classesOf lists a mark's classes that a selector can name plainly, in
+// order.
+func classesOf(m marks.Mark) []string {
+	var out []string
+	for _, c := range strings.Fields(m.Class) {
+		if plainClass.MatchString(c) && !slices.Contains(out, c) {
+			out = append(out, c)
+		}
+	}
+	return out
 }
