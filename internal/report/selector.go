@@ -1,7 +1,6 @@
 package report
 
 import (
-	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -101,8 +100,20 @@ func splitStep(s string) (string, int, bool) {
 	return s[:i], n, err == nil
 }
 
-// plainClass is a class usable in a selector as .name without escaping.
-var plainClass = regexp.MustCompile(`^-?[A-Za-z_][A-Za-z0-9_-]*$`)
+// plainClass says whether a class is usable in a selector as .name
+// without escaping: an optional "-", a letter or "_", then letters,
+// digits, "_" and "-". (No regexp: the package would double the core's
+// share of the .wasm.)
+func plainClass(c string) bool {
+	c = strings.TrimPrefix(c, "-")
+	for i, r := range c {
+		letter := r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r == '_'
+		if !letter && (i == 0 || !(r >= '0' && r <= '9' || r == '-')) {
+			return false
+		}
+	}
+	return c != ""
+}
 
 // RuleFor is the CSS rule for a fix: by the author's own classes where one
 // class picks exactly the fix's marks among the chart's marks and legend
@@ -177,7 +188,7 @@ func classSelector(ch *marks.Chart, fix, emphasis []int) string {
 func classesOf(m marks.Mark) []string {
 	var out []string
 	for _, c := range strings.Fields(m.Class) {
-		if plainClass.MatchString(c) && !slices.Contains(out, c) {
+		if plainClass(c) && !slices.Contains(out, c) {
 			out = append(out, c)
 		}
 	}
