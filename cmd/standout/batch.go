@@ -121,6 +121,9 @@ func writeArtifactFiles(r *report.Report, shots [][]byte, pngDir, mdDir string, 
 	}
 	for i, p := range r.Pages {
 		stem := fmt.Sprintf("%02d-%s", i+1, fileStem(p.Source))
+		if p.View != nil {
+			stem += "-" + fileStem(p.View.String())
+		}
 		pngs := map[string]string{}
 		if pngDir != "" && i < len(shots) && shots[i] != nil {
 			img, err := png.Decode(bytes.NewReader(shots[i]))
@@ -154,36 +157,7 @@ func writeArtifactFiles(r *report.Report, shots [][]byte, pngDir, mdDir string, 
 			}
 		}
 		if mdDir != "" {
-			for _, c := range p.Charts {
-				curve, ok := report.CurveOf(c)
-				if !c.IsChart || !ok {
-					continue
-				}
-				name := stem + "-" + strings.ReplaceAll(c.Path, "/", "-") + "-search.svg"
-				if err := os.WriteFile(filepath.Join(mdDir, name), []byte(report.SearchPlotSVG(curve)), 0o644); err != nil {
-					return err
-				}
-				pngs[report.SearchPlotKey+p.Source+"#"+c.Path] = name
-			}
-			var b bytes.Buffer
-			// A local page is named by its path from the report's folder.
-			shown := p
-			if rel := relativeTo(mdDir, p.Source); rel != "" {
-				shown.Source = rel
-				moved := map[string]string{}
-				for k, v := range pngs {
-					if rest, ok := strings.CutPrefix(k, p.Source+"#"); ok {
-						k = rel + "#" + rest
-					} else if rest, ok := strings.CutPrefix(k, report.SearchPlotKey+p.Source+"#"); ok {
-						k = report.SearchPlotKey + rel + "#" + rest
-					}
-					moved[k] = v
-				}
-				pngs = moved
-			}
-			one := report.Report{Schema: r.Schema, Version: r.Version, Minor: r.Minor, Pages: []report.Page{shown}, Caution: r.Caution}
-			report.WriteMarkdown(&b, &one, pngs)
-			if err := os.WriteFile(filepath.Join(mdDir, stem+".md"), b.Bytes(), 0o644); err != nil {
+			if err := writePageMarkdown(r, p, stem, mdDir, pngs); err != nil {
 				return err
 			}
 			*nMD++
@@ -255,4 +229,43 @@ func relativeTo(dir, source string) string {
 		return ""
 	}
 	return filepath.ToSlash(rel)
+}
+
+// writePageMarkdown writes one page's Markdown report into mdDir, with the
+// search-time plots beside it; pngs maps the page's charts to their
+// pictures.
+func writePageMarkdown(r *report.Report, p report.Page, stem, mdDir string, pngs map[string]string) error {
+	for _, c := range p.Charts {
+		curve, ok := report.CurveOf(c)
+		if !c.IsChart || !ok {
+			continue
+		}
+		name := stem + "-" + strings.ReplaceAll(c.Path, "/", "-") + "-search.svg"
+		if err := os.WriteFile(filepath.Join(mdDir, name), []byte(report.SearchPlotSVG(curve)), 0o644); err != nil {
+			return err
+		}
+		pngs[report.SearchPlotKey+p.Source+"#"+c.Path] = name
+	}
+	var b bytes.Buffer
+	// A local page is named by its path from the report's folder.
+	shown := p
+	if rel := relativeTo(mdDir, p.Source); rel != "" {
+		shown.Source = rel
+		moved := map[string]string{}
+		for k, v := range pngs {
+			if rest, ok := strings.CutPrefix(k, p.Source+"#"); ok {
+				k = rel + "#" + rest
+			} else if rest, ok := strings.CutPrefix(k, report.SearchPlotKey+p.Source+"#"); ok {
+				k = report.SearchPlotKey + rel + "#" + rest
+			}
+			moved[k] = v
+		}
+		pngs = moved
+	}
+	one := report.Report{Schema: r.Schema, Version: r.Version, Minor: r.Minor, Pages: []report.Page{shown}, Caution: r.Caution}
+	report.WriteMarkdown(&b, &one, pngs)
+	if err := os.WriteFile(filepath.Join(mdDir, stem+".md"), b.Bytes(), 0o644); err != nil {
+		return err
+	}
+	return nil
 }

@@ -310,3 +310,55 @@ func TestBrowserEmphasisSelector(t *testing.T) {
 		assert.False(t, em.Holds["normal"], "a grey bar among grey bars does not stand out")
 	}
 }
+
+// One page read at two widths in two colour schemes: four views, each
+// with its view in the JSON. The berth the story is about stands out at
+// 1,280 px, where its dots are large, and blends at 360 px, where the
+// chart re-lays out with small dots: the size-dependent noticeable
+// difference (Szafir 2018; Stone, Szafir & Setlur 2014) grows as marks
+// shrink. The dark scheme swaps the ground, so its charts are read on it.
+func TestViewsAcrossWidthsAndSchemes(t *testing.T) {
+	needBrowser(t)
+	code, out, errs := runCmd("check", "--browser", "--json", "--widths", "360,1280", "--scheme", "light,dark", "testdata/views.html")
+	require.Equal(t, 0, code, errs)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	require.Len(t, rep.Pages, 4)
+	got := map[report.View]*report.Chart{}
+	for i := range rep.Pages {
+		p := &rep.Pages[i]
+		require.NotNil(t, p.View)
+		require.Len(t, p.Charts, 1)
+		got[*p.View] = &p.Charts[0]
+	}
+	wide, narrow := got[report.View{Width: 1280, Scheme: "light"}], got[report.View{Width: 360, Scheme: "light"}]
+	require.NotNil(t, wide)
+	require.NotNil(t, narrow)
+	assert.True(t, wide.Emphasis.Holds["normal"], "the highlight stands out on a desktop")
+	assert.False(t, narrow.Emphasis.Holds["normal"], "and blends on a phone")
+	assert.Less(t, narrow.Marks[0].BBox[2], wide.Marks[0].BBox[2]/3, "the phone's dots are small")
+	dark := got[report.View{Width: 1280, Scheme: "dark"}]
+	require.NotNil(t, dark)
+	assert.Equal(t, "#ffffff", wide.Background)
+	assert.Equal(t, "#17161b", dark.Background, "the dark scheme's ground")
+	var changes string
+	for _, l := range rep.ViewChanges {
+		changes += l + "\n"
+	}
+	assert.Contains(t, changes, "at 360 px, light the emphasis blends in for every reader")
+	assert.Contains(t, changes, "mark-contrast-low only at 360 px, dark; 1280 px, dark")
+}
+
+// --widths and --scheme need the browser and take only what they say.
+func TestViewFlagsRefuseBadInput(t *testing.T) {
+	for _, args := range [][]string{
+		{"check", "--widths", "360", "x.html"},
+		{"check", "--browser", "--widths", "phone", "x.html"},
+		{"check", "--browser", "--widths", "50", "x.html"},
+		{"check", "--browser", "--scheme", "blue", "x.html"},
+	} {
+		code, _, errs := runCmd(args...)
+		assert.Equal(t, 2, code, "%v", args)
+		assert.Contains(t, errs, "standout check: --", "%v", args)
+	}
+}

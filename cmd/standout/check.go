@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"strings"
 	"time"
 
@@ -29,6 +30,9 @@ type checkFlags struct {
 	timeout            time.Duration
 	failRank           int // -1: never fail on findings
 	opt                report.Options
+	// views are the widths and schemes each page is read in (--widths,
+	// --scheme); one zero view reads it as the browser is.
+	views []browser.View
 }
 
 // parseCheckFlags reads check's flags; an error has been written to
@@ -49,8 +53,15 @@ func parseCheckFlags(args []string, stdout, stderr io.Writer) (*checkFlags, int)
 	fs.StringVar(&cf.pngDir, "png", "", "with --browser, write an annotated PNG per chart into this folder")
 	fs.StringVar(&cf.mdDir, "md", "", "write a Markdown report per page into this folder")
 	fs.DurationVar(&cf.timeout, "timeout", 60*time.Second, "the longest one page may take to load and check")
+	widths := fs.String("widths", "", "with --browser, viewport widths in CSS px to read each page at, comma-separated (e.g. 360,768,1280)")
+	schemes := fs.String("scheme", "", "with --browser, colour schemes to read each page in: light, dark or light,dark")
 	if code, ok := fs.parse(args); !ok {
 		return nil, code
+	}
+	var err error
+	if cf.views, err = parseViews(*widths, *schemes); err != nil {
+		fmt.Fprintln(stderr, "standout check:", err)
+		return nil, 2
 	}
 	cf.args = fs.Args()
 	bad := func(msg string) (*checkFlags, int) {
@@ -63,6 +74,8 @@ func parseCheckFlags(args []string, stdout, stderr io.Writer) (*checkFlags, int)
 		return nil, 2
 	case cf.pngDir != "" && !cf.useBrowser:
 		return bad("--png needs --browser (the static reader has no rendering)")
+	case (*widths != "" || *schemes != "") && !cf.useBrowser:
+		return bad("--widths and --scheme need --browser (the static reader has no viewport or colour scheme)")
 	case cf.timeout <= 0:
 		return bad("--timeout must be positive, for example 30s or 2m")
 	case cf.tabs < 1 || cf.tabs > 32:
@@ -105,6 +118,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	}
 	progress.done()
 	rep.Errors = failed
+	rep.ViewChanges = report.ViewChanges(&rep)
 	if err := emphasisFound(cf, &rep); err != nil {
 		fmt.Fprintln(stderr, "standout check:", err)
 		return 2
@@ -149,21 +163,29 @@ func checkInBrowser(cf *checkFlags, rep *report.Report, progress *progress, stde
 		}
 		urls, names = append(urls, u), append(names, a)
 	}
-	o := browser.ReadOptions{Tabs: cf.tabs, Screenshot: cf.pngDir != "", Emphasis: cf.opt.Selector, Timeout: cf.timeout,
+	o := browser.ReadOptions{Tabs: cf.tabs, Screenshot: cf.pngDir != "", Emphasis: cf.opt.Selector, Timeout: cf.timeout, Views: cf.views,
 		Progress: func(done, total int, r *browser.PageResult) { progress.step(done, r.URL, r.Err) }}
 	results, err := readInBrowser(exe, urls, o, stderr)
 	if err != nil {
 		return nil, nil, err
 	}
-	for i, r := range results {
+	for j, r := range results {
+		name := names[j%len(names)]
+		if r.View != (browser.View{}) {
+			name += " (" + report.View(r.View).String() + ")"
+		}
 		if r.Err != nil {
-			failed = append(failed, fmt.Sprintf("%s: %v", names[i], r.Err))
+			failed = append(failed, fmt.Sprintf("%s: %v", name, r.Err))
 			continue
 		}
-		rp, err := pageFromRead(names[i], r, cf.opt)
+		rp, err := pageFromRead(names[j%len(names)], r, cf.opt)
 		if err != nil {
-			failed = append(failed, fmt.Sprintf("%s: %v", names[i], err))
+			failed = append(failed, fmt.Sprintf("%s: %v", name, err))
 			continue
+		}
+		if r.View != (browser.View{}) {
+			v := report.View(r.View)
+			rp.View = &v
 		}
 		rep.Pages = append(rep.Pages, rp)
 		shots = append(shots, r.Screenshot)
@@ -213,6 +235,12 @@ func writeCheck(cf *checkFlags, rep *report.Report, shots [][]byte, stdout, stde
 	} else {
 		for _, p := range rep.Pages {
 			writeText(stdout, p)
+		}
+		if len(rep.ViewChanges) > 0 {
+			fmt.Fprintln(stdout, "What changes from one view to another:")
+			for _, l := range rep.ViewChanges {
+				fmt.Fprintf(terminalWriter{stdout}, "  %s\n", l)
+			}
 		}
 		if len(rep.Pages) > 0 {
 			fmt.Fprintln(stdout, glossaryPointer)
@@ -311,4 +339,39 @@ func checkReader(name string, r io.Reader, sheets fs.FS, opt report.Options) (re
 		return report.Page{}, err
 	}
 	return report.FromSnapshots(name, page.Charts, page.Problems, opt)
+}
+
+// parseViews turns --widths and --scheme into the views to read each page
+// in: every width with every scheme, in the order given.
+func parseViews(widths, schemes string) ([]browser.View, error) {
+	ws := []int{0}
+	if widths != "" {
+		ws = ws[:0]
+		for _, f := range strings.Split(widths, ",") {
+			w, err := strconv.Atoi(strings.TrimSpace(f))
+			if err != nil || w < 200 || w > 4000 {
+				return nil, fmt.Errorf("--widths %q: want CSS px widths within 200–4000, comma-separated, such as 360,1280", widths)
+			}
+			ws = append(ws, w)
+		}
+	}
+	ss := []string{""}
+	if schemes != "" {
+		ss = ss[:0]
+		for _, f := range strings.Split(schemes, ",") {
+			switch s := strings.TrimSpace(f); s {
+			case "light", "dark":
+				ss = append(ss, s)
+			default:
+				return nil, fmt.Errorf("--scheme %q: want light, dark or light,dark", schemes)
+			}
+		}
+	}
+	var out []browser.View
+	for _, w := range ws {
+		for _, s := range ss {
+			out = append(out, browser.View{Width: w, Scheme: s})
+		}
+	}
+	return out, nil
 }

@@ -26,7 +26,11 @@ const glossaryPointer = "What these words mean: run standout glossary (the same 
 
 func writeText(w io.Writer, p report.Page) {
 	w = terminalWriter{w} // page-derived text carries no escape sequences
-	fmt.Fprintf(w, "%s: %d drawing(s)\n", p.Source, len(p.Charts))
+	if p.View != nil {
+		fmt.Fprintf(w, "%s (%s): %d drawing(s)\n", p.Source, p.View, len(p.Charts))
+	} else {
+		fmt.Fprintf(w, "%s: %d drawing(s)\n", p.Source, len(p.Charts))
+	}
 	for _, pr := range p.Problems {
 		fmt.Fprintf(w, "  note: %s\n", pr)
 	}

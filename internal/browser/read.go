@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/chromedp"
@@ -17,6 +18,8 @@ import (
 // PageResult is what the read pass found on one page.
 type PageResult struct {
 	URL string
+	// View is the width and scheme the page was read in.
+	View View
 	// JSON is the read pass's result: {source, snapshots, problems, readMs}.
 	JSON string
 	// Screenshot is a PNG of the page's full height when requested.
@@ -41,6 +44,47 @@ type ReadOptions struct {
 	Reader string
 	// Emphasis is a CSS selector naming the intended emphasis.
 	Emphasis string
+	// Views are the widths and colour schemes each page is read in, one
+	// result per page and view; none, or the zero View, leaves the
+	// browser's own.
+	Views []View
+}
+
+// View is how a reader gets the page: the viewport's width in CSS px (a
+// phone's is narrow) and the colour scheme its prefers-color-scheme
+// reports ("light" or "dark").
+type View struct {
+	Width  int    `json:"width,omitempty"`
+	Scheme string `json:"scheme,omitempty"`
+}
+
+// viewHeight is the viewport's height in a View: a tall phone or a
+// laptop's window, which charts below it are measured in regardless.
+const viewHeight = 900
+
+// emulate sets the tab's viewport and colour scheme before the page loads,
+// through CDP's device metrics and media emulation. Widths under 600 px
+// are a phone's: mobile layout (meta viewport honoured).
+func emulate(ctx context.Context, v View) error {
+	if v == (View{}) {
+		return nil
+	}
+	_, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		if v.Width > 0 {
+			if _, err := cdp.Call(ctx, tg, emulation.SetDeviceMetricsOverride, emulation.SetDeviceMetricsOverrideParams{
+				Width: int64(v.Width), Height: viewHeight, DeviceScaleFactor: 1, Mobile: v.Width < 600}); err != nil {
+				return chromedp.Void{}, err
+			}
+		}
+		if v.Scheme != "" {
+			if _, err := cdp.Call(ctx, tg, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{
+				Features: []*emulation.MediaFeature{{Name: "prefers-color-scheme", Value: v.Scheme}}}); err != nil {
+				return chromedp.Void{}, err
+			}
+		}
+		return chromedp.Void{}, nil
+	})
+	return err
 }
 
 // stableJS resolves once the document has loaded and its element count
@@ -62,9 +106,10 @@ const stableJS = `new Promise((resolve) => {
 var ErrStart = errors.New("starting the browser")
 
 // ReadPages loads each URL in a headless Chromium (browserCtx comes from
-// NewAllocator) and runs the extension's own read pass on it, with at most
-// o.Tabs pages open at once. Results are in the order of urls; a page that
-// cannot be loaded has Err set and does not stop the others.
+// NewAllocator) in each of o.Views and runs the extension's own read pass
+// on it, with at most o.Tabs pages open at once. Results are in the order
+// of the views, then of urls (view v, page i at v·len(urls)+i); a page
+// that cannot be loaded has Err set and does not stop the others.
 func ReadPages(browserCtx context.Context, urls []string, o ReadOptions) []PageResult {
 	if o.Tabs < 1 {
 		o.Tabs = 1
@@ -75,10 +120,14 @@ func ReadPages(browserCtx context.Context, urls []string, o ReadOptions) []PageR
 	// Start the browser once before the tabs fan out.
 	bctx, cancel := chromedp.NewContext(browserCtx)
 	defer cancel()
-	out := make([]PageResult, len(urls))
+	views := o.Views
+	if len(views) == 0 {
+		views = []View{{}}
+	}
+	out := make([]PageResult, len(urls)*len(views))
 	if err := chromedp.Do(bctx, chromedp.Navigate("about:blank")); err != nil {
-		for i := range out {
-			out[i] = PageResult{URL: urls[i], Err: fmt.Errorf("%w: %w", ErrStart, err)}
+		for j := range out {
+			out[j] = PageResult{URL: urls[j%len(urls)], View: views[j/len(urls)], Err: fmt.Errorf("%w: %w", ErrStart, err)}
 		}
 		return out
 	}
@@ -91,20 +140,22 @@ func ReadPages(browserCtx context.Context, urls []string, o ReadOptions) []PageR
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			for i := range jobs {
-				r := readOne(bctx, urls[i], reader, o)
-				out[i] = r
+			for j := range jobs {
+				v := views[j/len(urls)]
+				r := readOne(bctx, urls[j%len(urls)], reader, o, v)
+				r.View = v
+				out[j] = r
 				mu.Lock()
 				done++
 				if o.Progress != nil {
-					o.Progress(done, len(urls), &out[i])
+					o.Progress(done, len(out), &out[j])
 				}
 				mu.Unlock()
 			}
 		}()
 	}
-	for i := range urls {
-		jobs <- i
+	for j := range out {
+		jobs <- j
 	}
 	close(jobs)
 	wg.Wait()
@@ -128,12 +179,16 @@ func isolatedWorld(ctx context.Context) (chromedp.EvaluateOption, error) {
 	return func(p *runtime.EvaluateParams) { p.ContextID = id }, nil
 }
 
-func readOne(bctx context.Context, url, reader string, o ReadOptions) PageResult {
+func readOne(bctx context.Context, url, reader string, o ReadOptions, view View) PageResult {
 	r := PageResult{URL: url}
 	tctx, cancel := chromedp.NewContext(bctx)
 	defer cancel()
 	ctx, cancel2 := context.WithTimeout(tctx, o.Timeout)
 	defer cancel2()
+	if err := emulate(ctx, view); err != nil {
+		r.Err = fmt.Errorf("emulating %d px, %s scheme: %w", view.Width, view.Scheme, err)
+		return r
+	}
 	t0 := time.Now()
 	resp, err := chromedp.RunResponse(ctx, chromedp.Navigate(url))
 	if err != nil {

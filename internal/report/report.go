@@ -6,6 +6,8 @@ package report
 import (
 	"fmt"
 	"math"
+	"strconv"
+	"strings"
 	"time"
 
 	"standout/marks"
@@ -86,9 +88,31 @@ type Chart struct {
 
 // Page is one page or file: its charts and the problems met reading it.
 type Page struct {
-	Source   string   `json:"source"`
+	Source string `json:"source"`
+	// View is the width and colour scheme the page was read in (check
+	// --browser --widths/--scheme; minor 2); absent for the browser's own.
+	View     *View    `json:"view,omitempty"`
 	Charts   []Chart  `json:"charts"`
 	Problems []string `json:"problems"`
+}
+
+// View is how a reader got the page: the viewport's width in CSS px and
+// the colour scheme (light or dark) it preferred.
+type View struct {
+	Width  int    `json:"width,omitempty"`
+	Scheme string `json:"scheme,omitempty"`
+}
+
+// String names the view for people: "360 px, dark".
+func (v View) String() string {
+	var parts []string
+	if v.Width > 0 {
+		parts = append(parts, strconv.Itoa(v.Width)+" px")
+	}
+	if v.Scheme != "" {
+		parts = append(parts, v.Scheme)
+	}
+	return strings.Join(parts, ", ")
 }
 
 // CVDResults holds a mark's result for each simulated vision type. A
@@ -124,7 +148,10 @@ type Report struct {
 	Version int      `json:"version"`
 	Minor   int      `json:"minor"`
 	Pages   []Page   `json:"pages"`
-	Caution string   `json:"caution"`
+	// ViewChanges says, for pages read in several views, what changes
+	// from one to another, chart by chart (ViewChanges; minor 2).
+	ViewChanges []string `json:"viewChanges,omitempty"`
+	Caution     string   `json:"caution"`
 }
 
 func r2(v float64) float64 { return math.Round(v*100) / 100 }
