@@ -813,8 +813,14 @@
   // document order, descending into open shadow roots and same-origin
   // frames. Each entry: {svg, path, root, off}. Frames that cannot be read
   // are listed in problems.
-  function findCharts(doc, problems) {
+  // Elements that draw a chart as pixels, and the smallest box (CSS px)
+  // taken for a chart rather than an icon (snapshot.RasterMin).
+  const RASTER_TAGS = new Set(['canvas', 'img', 'object', 'embed']);
+  const RASTER_MIN = C.RASTER_MIN;
+
+  function findCharts(doc, problems, rasters) {
     const out = [];
+    const nRaster = {};
     let nTop = 0;
     let nShadow = 0;
     let nFrame = 0;
@@ -844,6 +850,17 @@
           while (!next && walker.parentNode()) next = walker.nextSibling();
           n = next;
           continue;
+        }
+        if (rasters && RASTER_TAGS.has(tag) && n.namespaceURI === XHTML_NS) {
+          // A chart drawn as pixels (a canvas, an image, an object): its
+          // marks cannot be read. Named, so that no check passes in
+          // silence where nothing was read.
+          const r = n.getBoundingClientRect();
+          if (r.width >= RASTER_MIN[0] && r.height >= RASTER_MIN[1]) {
+            const k = nRaster[tag] || 0;
+            nRaster[tag] = k + 1;
+            rasters.push({ tag, name: prefix + tag + k, box: [off[0] + r.left, off[1] + r.top, r.width, r.height] });
+          }
         }
         if (n.shadowRoot) {
           visit(n.shadowRoot, 'shadow' + nShadow++ + '/', off, false, frames, heading);
@@ -898,7 +915,8 @@
     const emphasis = (opts && opts.emphasis) || '';
     const t0 = performance.now();
     const problems = [];
-    const charts = findCharts(doc || document, problems);
+    const rasters = [];
+    const charts = findCharts(doc || document, problems, rasters);
     const snapshots = [];
     // Whether sibling style sharing is safe, per document or shadow root;
     // opts.noSharing turns it off (to measure what it saves).
@@ -935,7 +953,7 @@
         problems.push(`${c.path}: could not be read: ${e && e.message}`);
       }
     }
-    return { source: location.href, snapshots, problems, readMs: performance.now() - t0 - yieldMs, sharedStyles: shared };
+    return { source: location.href, snapshots, problems, rasters, readMs: performance.now() - t0 - yieldMs, sharedStyles: shared };
   }
 
   // The pure parts, which need no page, are exported too, for the unit

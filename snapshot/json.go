@@ -768,7 +768,28 @@ type PageJSON struct {
 	Source    string
 	Snapshots []Snapshot
 	Problems  []string
+	// Rasters are the page's charts drawn as pixels, which no reader can
+	// read marks from.
+	Rasters []Raster
 }
+
+// Raster is an element that draws pixels at a chart's size: a <canvas>,
+// an <img>, an <object> or an <embed> at least RasterMin in CSS px. Its
+// marks cannot be read; it is named so that no check passes in silence.
+type Raster struct {
+	Tag, Name string
+	// Box is its box in page CSS px; the static reader, which has no
+	// layout, knows only the size its attributes give (0 when none).
+	Box [4]float64
+}
+
+// RasterMin is the smallest box, width and height in CSS px, taken for a
+// chart rather than an icon. Provisional: a small chart or a sparkline
+// is smaller, an icon seldom this large.
+var RasterMin = [2]float64{100, 60}
+
+// MaxRasters bounds the rasters a page reports.
+const MaxRasters = 1000
 
 // DecodePage decodes the read pass's result,
 // {"source": …, "snapshots": […], "problems": […], …}, with the fast
@@ -784,6 +805,8 @@ func DecodePage(b []byte) (*PageJSON, error) {
 			p.Source, err = d.Text()
 		case "problems":
 			p.Problems, err = d.Strings(p.Problems[:0])
+		case "rasters":
+			p.Rasters, err = decodeRasters(d)
 		case "snapshots":
 			p.Snapshots = p.Snapshots[:0]
 			// One buffer for every snapshot's numbers: a snapshot keeps
@@ -818,4 +841,38 @@ func DecodePage(b []byte) (*PageJSON, error) {
 		return nil, fmt.Errorf("snapshot: page %w", err)
 	}
 	return &p, nil
+}
+
+// decodeRasters reads the read pass's rasters: [{tag, name, box}, …].
+func decodeRasters(d *jsonio.Scanner) ([]Raster, error) {
+	var out []Raster
+	err := d.Array(func() error {
+		if len(out) >= MaxRasters {
+			return fmt.Errorf("more than %d raster elements", MaxRasters)
+		}
+		var r Raster
+		err := d.Object(func(key string) error {
+			var err error
+			switch key {
+			case "tag":
+				r.Tag, err = d.Text()
+			case "name":
+				r.Name, err = d.Text()
+			case "box":
+				var box []float64
+				if box, err = d.Numbers(nil); err == nil {
+					if len(box) != 4 {
+						return fmt.Errorf("a raster box of %d numbers, want 4", len(box))
+					}
+					copy(r.Box[:], box)
+				}
+			default:
+				err = d.Skip()
+			}
+			return err
+		})
+		out = append(out, r)
+		return err
+	})
+	return out, err
 }

@@ -65,6 +65,10 @@ const DefaultEmphasisSelector = "[data-standout-emphasis]"
 type Page struct {
 	Source string
 	Charts []snapshot.Snapshot
+	// Rasters are the elements that draw a chart as pixels (canvas, img,
+	// object, embed), at least snapshot.RasterMin by their attributes,
+	// or of a size the attributes do not give.
+	Rasters []snapshot.Raster
 	// Problems are page-level notes: style sheet errors, external style
 	// sheets that were not loaded.
 	Problems []string
@@ -102,6 +106,7 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	}
 	b.sel = sel
 	order := 0
+	rasterCount := map[string]int{}
 	var svgs []*html.Node
 	var heading *html.Node // the last h1–h6 so far, in document order
 	b.headingOf = map[*html.Node]*html.Node{}
@@ -133,6 +138,10 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 		case n.Data == "svg" && n.Namespace == "svg" && !insideSVG(n):
 			svgs = append(svgs, n)
 			b.headingOf[n] = heading
+		case n.Namespace == "" && rasterTags[n.Data]:
+			if r, ok := rasterOf(n, &rasterCount); ok && len(page.Rasters) < snapshot.MaxRasters {
+				page.Rasters = append(page.Rasters, r)
+			}
 		}
 		return true
 	})
@@ -874,4 +883,31 @@ func stopAt(s []stop, t float64) snapshot.Colour {
 func overSRGB(c snapshot.Colour, dst struct{ R, G, B float64 }) struct{ R, G, B float64 } {
 	a := c.A
 	return struct{ R, G, B float64 }{a*c.R + (1-a)*dst.R, a*c.G + (1-a)*dst.G, a*c.B + (1-a)*dst.B}
+}
+
+// rasterTags are the elements that draw pixels a chart may be made of.
+var rasterTags = map[string]bool{"canvas": true, "img": true, "object": true, "embed": true}
+
+// rasterOf names a raster element of chart size: its width and height
+// attributes (a canvas is 300 × 150 without them, as HTML specifies) at
+// least snapshot.RasterMin, or not given, since without layout the static
+// reader cannot tell an image's size and a chart must not go unnamed.
+func rasterOf(n *html.Node, count *map[string]int) (snapshot.Raster, bool) {
+	size := func(key string, def float64) float64 {
+		if v, ok := length(attr(n, key), 0); ok && v >= 0 {
+			return v
+		}
+		return def
+	}
+	w, h := 0.0, 0.0
+	if n.Data == "canvas" {
+		w, h = 300, 150
+	}
+	w, h = size("width", w), size("height", h)
+	if w > 0 && w < snapshot.RasterMin[0] || h > 0 && h < snapshot.RasterMin[1] {
+		return snapshot.Raster{}, false
+	}
+	k := (*count)[n.Data]
+	(*count)[n.Data] = k + 1
+	return snapshot.Raster{Tag: n.Data, Name: n.Data + strconv.Itoa(k), Box: [4]float64{0, 0, w, h}}, true
 }

@@ -207,7 +207,9 @@ func pageFromRead(name string, r browser.PageResult, opt report.Options) (report
 	if err != nil {
 		return report.Page{}, fmt.Errorf("the read pass returned bad data: %w", err)
 	}
-	return report.FromSnapshots(name, pg.Snapshots, pg.Problems, opt)
+	rp, err := report.FromSnapshots(name, pg.Snapshots, pg.Problems, opt)
+	rp.Unchecked = report.UncheckedOf(pg.Rasters)
+	return rp, err
 }
 
 // relativeTo is the path of a local page from dir, with forward slashes;

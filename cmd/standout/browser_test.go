@@ -66,6 +66,17 @@ func TestBrowserPathMatchesStaticPath(t *testing.T) {
 	for i := range pages {
 		bp, sp := b.Pages[i], s.Pages[i]
 		require.Len(t, bp.Charts, len(sp.Charts), pages[i])
+		// Charts drawn as pixels are named alike; the static reader has
+		// no layout, so only the sizes the attributes give compare.
+		require.Len(t, bp.Unchecked, len(sp.Unchecked), pages[i])
+		for k, u := range sp.Unchecked {
+			assert.Equal(t, u.Name, bp.Unchecked[k].Name, pages[i])
+			assert.Equal(t, u.Kind, bp.Unchecked[k].Kind, pages[i])
+			if u.Box[2] > 0 {
+				assert.InDelta(t, u.Box[2], bp.Unchecked[k].Box[2], 1, pages[i])
+				assert.InDelta(t, u.Box[3], bp.Unchecked[k].Box[3], 1, pages[i])
+			}
+		}
 		for c := range sp.Charts {
 			bc, sc := bp.Charts[c], sp.Charts[c]
 			require.Equal(t, sc.Path, bc.Path)

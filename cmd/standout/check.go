@@ -130,9 +130,17 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	for _, f := range failed {
 		fmt.Fprintf(stderr, "standout check: %s\n", f)
 	}
+	unchecked := 0
+	for _, p := range rep.Pages {
+		unchecked += len(p.Unchecked)
+	}
 	switch {
 	case len(failed) > 0:
 		return 2
+	case cf.failRank >= 0 && unchecked > 0:
+		// Nothing read is no pass: a gate fails on charts it could not see.
+		fmt.Fprintf(stderr, "standout check: %d chart(s) drawn as pixels (canvas, image or object) were not checked; --fail-on counts them as failures\n", unchecked)
+		return 1
 	case cf.failRank >= 0 && reaches(&rep, cf.failRank):
 		return 1
 	}
@@ -338,7 +346,9 @@ func checkReader(name string, r io.Reader, sheets fs.FS, opt report.Options) (re
 	if err != nil {
 		return report.Page{}, err
 	}
-	return report.FromSnapshots(name, page.Charts, page.Problems, opt)
+	rp, err := report.FromSnapshots(name, page.Charts, page.Problems, opt)
+	rp.Unchecked = report.UncheckedOf(page.Rasters)
+	return rp, err
 }
 
 // parseViews turns --widths and --scheme into the views to read each page

@@ -160,3 +160,26 @@ func TestAnnotateLinesAndKey(t *testing.T) {
 	assert.Greater(t, sample, 20, "a sample of the outline")
 	assert.Greater(t, letters, 50, "its words")
 }
+
+// A page whose charts are drawn as pixels is never a silent pass: each is
+// named as not checked, and --fail-on fails the run, whatever its level,
+// since nothing was read there.
+func TestPixelChartsAreNamedAndFailTheGate(t *testing.T) {
+	code, out, errs := runCmd("check", "../../testdata/pixels.html")
+	require.Equal(t, 0, code, errs)
+	assert.Contains(t, out, "not checked: canvas0, a canvas 480×200 px")
+	assert.Contains(t, out, "not checked: img0, an image 420×180 px")
+	assert.NotContains(t, out, "img1", "an icon is no chart")
+	code, _, errs = runCmd("check", "--fail-on", "error", "../../testdata/pixels.html")
+	assert.Equal(t, 1, code)
+	assert.Contains(t, errs, "2 chart(s) drawn as pixels (canvas, image or object) were not checked")
+	code, out, _ = runCmd("check", "--json", "../../testdata/pixels.html")
+	require.Equal(t, 0, code)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	require.Len(t, rep.Pages, 1)
+	assert.Equal(t, []report.Unchecked{
+		{Kind: "canvas", Name: "canvas0", Box: [4]float64{0, 0, 480, 200}},
+		{Kind: "image", Name: "img0", Box: [4]float64{0, 0, 420, 180}},
+	}, rep.Pages[0].Unchecked)
+}

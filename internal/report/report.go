@@ -94,6 +94,33 @@ type Page struct {
 	View     *View    `json:"view,omitempty"`
 	Charts   []Chart  `json:"charts"`
 	Problems []string `json:"problems"`
+	// Unchecked are the page's charts drawn as pixels (canvas, image,
+	// object), whose marks no reader can read (minor 2): named so that a
+	// check never passes in silence where nothing was read.
+	Unchecked []Unchecked `json:"unchecked,omitempty"`
+}
+
+// Unchecked is one element of chart size drawn as pixels: its kind
+// ("canvas", "image" or "object"), its name within the page (canvas0,
+// frame1/img2) and its box in page CSS px (the static reader knows only
+// the size its attributes give, at 0, 0; 0 where it gives none).
+type Unchecked struct {
+	Kind string     `json:"kind"`
+	Name string     `json:"name"`
+	Box  [4]float64 `json:"box"`
+}
+
+// UncheckedOf names the rasters a reader found.
+func UncheckedOf(rs []snapshot.Raster) []Unchecked {
+	var out []Unchecked
+	for _, r := range rs {
+		kind := map[string]string{"canvas": "canvas", "img": "image", "object": "object", "embed": "object"}[r.Tag]
+		if kind == "" {
+			continue
+		}
+		out = append(out, Unchecked{Kind: kind, Name: r.Name, Box: [4]float64{r2(r.Box[0]), r2(r.Box[1]), r2(r.Box[2]), r2(r.Box[3])}})
+	}
+	return out
 }
 
 // View is how a reader got the page: the viewport's width in CSS px and
