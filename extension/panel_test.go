@@ -87,3 +87,13 @@ func TestE2EPanelGolden(t *testing.T) {
 		})
 	}
 }
+
+// A page whose only chart is a canvas is not a silent pass in the panel
+// either: it names the chart it could not check.
+func TestE2EPanelNamesPixelCharts(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(`<!doctype html><html><body><canvas width="480" height="200"></canvas><img alt="" width="16" height="16"></body></html>`)
+	ov := h.overlayHTML()
+	assert.Contains(t, ov, "Note: canvas0, a canvas 480×200 px, was not checked")
+	assert.NotContains(t, ov, "img0", "an icon is no chart")
+}

@@ -27,6 +27,8 @@ type Request struct {
 	// Problems are page-level notes from the read pass (frames that could
 	// not be read, …).
 	Problems []string `json:"problems"`
+	// Rasters are the page's charts drawn as pixels.
+	Rasters []snapshot.Raster `json:"rasters"`
 	// Emphasis names the intended emphasis by mark id; EmphasisNodes by
 	// chart path and snapshot node, as "path#node" (the overlay's picks,
 	// which it knows by the digest's node indices).
@@ -81,7 +83,7 @@ func HandlePage(options, page []byte) (out []byte) {
 	if err != nil {
 		return errorResponse("bad page: " + err.Error())
 	}
-	q.Source, q.Snapshots, q.Problems = p.Source, p.Snapshots, p.Problems
+	q.Source, q.Snapshots, q.Problems, q.Rasters = p.Source, p.Snapshots, p.Problems, p.Rasters
 	return handle(q, t0)
 }
 
@@ -161,13 +163,14 @@ func handle(q *Request, t0 time.Time) []byte {
 		// The overlay's digest, written by hand: encoding/json's
 		// reflection over thousands of marks is slow under WebAssembly.
 		b := append(make([]byte, 0, 64+80*report.CountMarks(as)), `{"ok":true,"overlay":`...)
-		b = report.AppendDigest(b, q.Source, q.Problems, as)
+		b = report.AppendDigest(b, q.Source, append(q.Problems, report.UncheckedNotes(report.UncheckedOf(q.Rasters))...), as)
 		timing["encodeMs"] = ms(t2)
 		b = append(b, `,"timing":`...)
 		b = appendTiming(b, timing)
 		return append(b, '}')
 	}
 	page := report.PageOf(q.Source, q.Problems, as)
+	page.Unchecked = report.UncheckedOf(q.Rasters)
 	rep := &report.Report{Schema: "standout-report", Version: report.Version, Minor: report.Minor, Pages: []report.Page{page}, Caution: report.Caution}
 	var md strings.Builder
 	report.WriteMarkdown(&md, rep, nil)

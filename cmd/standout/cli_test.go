@@ -167,8 +167,8 @@ func TestAnnotateLinesAndKey(t *testing.T) {
 func TestPixelChartsAreNamedAndFailTheGate(t *testing.T) {
 	code, out, errs := runCmd("check", "../../testdata/pixels.html")
 	require.Equal(t, 0, code, errs)
-	assert.Contains(t, out, "not checked: canvas0, a canvas 480×200 px")
-	assert.Contains(t, out, "not checked: img0, an image 420×180 px")
+	assert.Contains(t, out, "note: canvas0, a canvas 480×200 px, was not checked")
+	assert.Contains(t, out, "note: img0, an image 420×180 px, was not checked")
 	assert.NotContains(t, out, "img1", "an icon is no chart")
 	code, _, errs = runCmd("check", "--fail-on", "error", "../../testdata/pixels.html")
 	assert.Equal(t, 1, code)

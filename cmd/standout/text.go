@@ -34,12 +34,8 @@ func writeText(w io.Writer, p report.Page) {
 	for _, pr := range p.Problems {
 		fmt.Fprintf(w, "  note: %s\n", pr)
 	}
-	for _, u := range p.Unchecked {
-		size := "of a size the page does not give"
-		if u.Box[2] > 0 && u.Box[3] > 0 {
-			size = fmt.Sprintf("%.0f×%.0f px", u.Box[2], u.Box[3])
-		}
-		fmt.Fprintf(w, "  not checked: %s, %s %s: a chart drawn as pixels has no marks to read; check it by eye, or draw it as SVG\n", u.Name, article(u.Kind), size)
+	for _, n := range report.UncheckedNotes(p.Unchecked) {
+		fmt.Fprintf(w, "  note: %s\n", n)
 	}
 	for _, c := range p.Charts {
 		if !c.IsChart {
@@ -145,12 +141,4 @@ func writeFindings(w io.Writer, findings []report.Finding) {
 			}
 		}
 	}
-}
-
-// article is "a canvas", "an image", "an object".
-func article(kind string) string {
-	if strings.ContainsRune("aeiou", rune(kind[0])) {
-		return "an " + kind
-	}
-	return "a " + kind
 }

@@ -123,6 +123,24 @@ func UncheckedOf(rs []snapshot.Raster) []Unchecked {
 	return out
 }
 
+// UncheckedNotes says of each chart drawn as pixels, in a sentence, that
+// it was not checked and why: the text report's and the panel's words.
+func UncheckedNotes(us []Unchecked) []string {
+	var out []string
+	for _, u := range us {
+		size := "of a size the page does not give"
+		if u.Box[2] > 0 && u.Box[3] > 0 {
+			size = strconv.FormatFloat(math.Round(u.Box[2]), 'f', 0, 64) + "×" + strconv.FormatFloat(math.Round(u.Box[3]), 'f', 0, 64) + " px"
+		}
+		art := "a "
+		if strings.ContainsRune("aeiou", rune(u.Kind[0])) {
+			art = "an "
+		}
+		out = append(out, u.Name+", "+art+u.Kind+" "+size+", was not checked: a chart drawn as pixels has no marks to read; check it by eye, or draw it as SVG.")
+	}
+	return out
+}
+
 // View is how a reader got the page: the viewport's width in CSS px and
 // the colour scheme (light or dark) it preferred.
 type View struct {
