@@ -23,18 +23,7 @@ func lab(t *testing.T, l, a, b float64) colour.SRGB {
 // one outside them at the same nearest distance is easier. Half the
 // distractors are each colour; the nearest distance is 20 ΔE*ab in both.
 func TestFlankedTargetIsHarder(t *testing.T) {
-	d1, d2 := lab(t, 60, 0, -20), lab(t, 60, 0, 20)
-	target := func(c colour.SRGB) MarkResult {
-		return analyseTarget(t, gridDisplay(30, 17, func(i int, m *Mark) {
-			m.Colour = d1
-			if i%2 == 1 {
-				m.Colour = d2
-			}
-			if i == 14 {
-				m.Colour = c
-			}
-		}), 14)
-	}
+	target := func(c colour.SRGB) MarkResult { return analyseTarget(t, twoHues(c), 14) }
 	flanked := target(lab(t, 60, 0, 0))
 	separable := target(lab(t, 60, 0, 40))
 	// At the same nearest distance the distance model alone scores them
@@ -97,18 +86,7 @@ func TestLightnessAsymmetry(t *testing.T) {
 // differences of a* at 10 px, and the spread of the distractors along b*
 // does not take that away.
 func TestSeparableTargetAmongTwoHues(t *testing.T) {
-	d1, d2 := lab(t, 60, 0, -20), lab(t, 60, 0, 20)
-	target := func(c colour.SRGB) MarkResult {
-		return analyseTarget(t, gridDisplay(30, 17, func(i int, m *Mark) {
-			m.Colour = d1
-			if i%2 == 1 {
-				m.Colour = d2
-			}
-			if i == 14 {
-				m.Colour = c
-			}
-		}), 14)
-	}
+	target := func(c colour.SRGB) MarkResult { return analyseTarget(t, twoHues(c), 14) }
 	assert.Equal(t, Pops, target(lab(t, 60, 40, 0)).Verdict, "separable: pops")
 	assert.NotEqual(t, Pops, target(lab(t, 60, 0, 0)).Verdict, "flanked: does not")
 }
