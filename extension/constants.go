@@ -41,6 +41,7 @@ func Constants() []byte {
 	num("NAME_USE", snapshot.NameUse)
 	num("GEOM_AUTO", snapshot.GeomAuto)
 	num("MAX_CLASS_BYTES", snapshot.MaxClassBytes)
+	num("MAX_RASTERS", snapshot.MaxRasters)
 	fmt.Fprintf(&b, "  RASTER_MIN: Object.freeze([%s, %s]),\n", strconv.FormatFloat(snapshot.RasterMin[0], 'g', -1, 64), strconv.FormatFloat(snapshot.RasterMin[1], 'g', -1, 64))
 	for _, f := range []struct {
 		name string

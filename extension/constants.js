@@ -17,6 +17,7 @@ globalThis.standoutConstants = Object.freeze({
   NAME_USE: -1,
   GEOM_AUTO: -1,
   MAX_CLASS_BYTES: 256,
+  MAX_RASTERS: 1000,
   RASTER_MIN: Object.freeze([100, 60]),
   HAS_CTM: 1,
   HAS_GEOM: 2,

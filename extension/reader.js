@@ -856,7 +856,7 @@
           // marks cannot be read. Named, so that no check passes in
           // silence where nothing was read.
           const r = n.getBoundingClientRect();
-          if (r.width >= RASTER_MIN[0] && r.height >= RASTER_MIN[1]) {
+          if (r.width >= RASTER_MIN[0] && r.height >= RASTER_MIN[1] && rasters.length < C.MAX_RASTERS) {
             const k = nRaster[tag] || 0;
             nRaster[tag] = k + 1;
             rasters.push({ tag, name: prefix + tag + k, box: [off[0] + r.left, off[1] + r.top, r.width, r.height] });
