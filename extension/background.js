@@ -92,7 +92,7 @@ async function readPage(tabId, toggle) {
 // response (a JSON string: {ok, overlay} or {ok, report, markdown}, or
 // {ok: false, error}) with the timings of the steps and the check's
 // sequence number, or {closed: true} when toggle closed an open check.
-async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false } = {}) {
+async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false, phoneWidth = 0 } = {}) {
   const t0 = performance.now();
   const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore()]);
   if (read.closed) return read;
@@ -101,6 +101,7 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
   // the read pass wrote it, for the core's fast snapshot decoder.
   const options = { type: 'analyse', emphasisNodes, full };
   if (typeof severity === 'number') options.severity = severity;
+  if (phoneWidth) options.phoneWidth = phoneWidth;
   const response = await callCore(JSON.stringify(options), read.json);
   const t2 = performance.now();
   return {
@@ -186,7 +187,8 @@ function validMessage(msg, sender) {
     case 'standout/full-report':
       return !!sender.tab && d && typeof d === 'object' && Array.isArray(d.emphasisNodes) && d.emphasisNodes.length <= MAX_PICKS &&
         d.emphasisNodes.every((n) => typeof n === 'string' && n.length <= 4096 && /#\d+$/.test(n)) &&
-        typeof d.severity === 'number' && d.severity >= 0 && d.severity <= 1;
+        typeof d.severity === 'number' && d.severity >= 0 && d.severity <= 1 &&
+        (d.phoneWidth === undefined || d.phoneWidth === 0 || (Number.isInteger(d.phoneWidth) && d.phoneWidth >= 200 && d.phoneWidth <= 1000));
     case 'standout/capture':
       return !!sender.tab && d && typeof d === 'object' && Array.isArray(d.charts) && d.charts.length <= 1000 &&
         d.charts.every((c) => c && typeof c.name === 'string' && c.name.length <= 200 && Array.isArray(c.box) && c.box.length === 4 && c.box.every(Number.isFinite)) &&
@@ -213,7 +215,7 @@ chrome.runtime.onMessage.addListener((msg, sender, sendResponse) => {
   switch (msg.type) {
     case 'standout/reanalyse':
     case 'standout/full-report':
-      return reply(analyse(sender.tab.id, { emphasisNodes: msg.data.emphasisNodes, severity: msg.data.severity, full: msg.type === 'standout/full-report' }));
+      return reply(analyse(sender.tab.id, { emphasisNodes: msg.data.emphasisNodes, severity: msg.data.severity, phoneWidth: msg.data.phoneWidth || 0, full: msg.type === 'standout/full-report' }));
     case 'standout/capture':
       return reply(exportPNG(sender.tab, msg.data));
     case 'standout/take-export': {

@@ -64,7 +64,11 @@
   // The view model: what the reader chose (preview vision, severity in
   // tenths, scope; picking, and the picked marks as "chart path#snapshot
   // node"). Only teardown resets it.
-  const initialView = () => ({ vision: 'off', tenths: 10, scope: 'charts', picking: false, picked: new Set() });
+  const initialView = () => ({ vision: 'off', tenths: 10, scope: 'charts', picking: false, picked: new Set(), phone: false });
+
+  // PHONE_WIDTH is the phone the panel judges a chart on: a common narrow
+  // viewport in CSS px (common practice).
+  const PHONE_WIDTH = 360;
   const state = {
     machine: M.initial(),
     view: initialView(),
@@ -378,6 +382,7 @@
     on(scope, 'change', update);
     cvd.append(lab, sel, sevLab, sev, scopeLab, scope);
     panel.appendChild(cvd);
+    panel.appendChild(screenView());
 
     const exp = el('div', { class: 'row' });
     const bJSON = el('button', { type: 'button', 'data-action': 'export-json' }, 'Export JSON');
@@ -488,7 +493,7 @@
     const seq = state.machine.seq;
     let resp;
     try {
-      resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasisNodes: state.emphasis, severity: state.view.tenths / 10 } });
+      resp = await chrome.runtime.sendMessage({ type: 'standout/reanalyse', target: 'background', data: { emphasisNodes: state.emphasis, severity: state.view.tenths / 10, phoneWidth: state.view.phone ? PHONE_WIDTH : 0 } });
     } catch (e) {
       resp = { ok: false, error: `the extension stopped before the check finished (${(e && e.message) || e}); press the button again` };
     }
@@ -515,6 +520,31 @@
     for (const o of state.observers) o.disconnect();
     state.observers = [];
     clearTimeout(state.rerunTimer);
+  }
+
+  // screenView lets the reader judge the charts as on a phone, without
+  // touching their window: each chart wider than PHONE_WIDTH is judged as
+  // scaled down to it. A chart that re-lays out on phones, and the other
+  // colour scheme, an extension cannot see; the row says so and names the
+  // command that can.
+  function screenView() {
+    const row = el('div', { class: 'row' });
+    const lab = el('label', { for: 'standout-screen' }, 'Judge as on:');
+    const sel = el('select', { id: 'standout-screen', 'data-action': 'screen' });
+    for (const [v, t] of [['this', 'this screen'], ['phone', `a ${PHONE_WIDTH} px phone`]]) {
+      const phone = v === 'phone';
+      sel.appendChild(el('option', phone === state.view.phone ? { value: v, selected: '' } : { value: v }, t));
+    }
+    on(sel, 'change', () => {
+      setView({ phone: sel.value === 'phone' });
+      rerun({ type: 'recheck' });
+    });
+    row.append(lab, sel);
+    if (state.view.phone) {
+      row.appendChild(el('p', { 'data-role': 'phone' }, `Judged as on a ${PHONE_WIDTH} px phone: each chart wider than that is scaled down to it, and its marks with it. A chart that re-lays out on phones needs: standout check --browser --widths ${PHONE_WIDTH}.`));
+    }
+    row.appendChild(el('p', { class: 'evidence' }, 'The other colour scheme: an extension cannot switch a page\u2019s light or dark scheme. Switch your system\u2019s scheme and check again, or run standout check --browser --scheme light,dark.'));
+    return row;
   }
 
   // fixView is a finding's fix: what to do, the CSS rule to paste (its
@@ -684,7 +714,7 @@
   async function exportReport(kind) {
     let resp;
     try {
-      resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasisNodes: state.emphasis || [], severity: state.view.tenths / 10 } });
+      resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasisNodes: state.emphasis || [], severity: state.view.tenths / 10, phoneWidth: state.view.phone ? PHONE_WIDTH : 0 } });
     } catch (e) {
       resp = { ok: false, error: String((e && e.message) || e) };
     }

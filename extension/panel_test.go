@@ -2,6 +2,7 @@ package extension
 
 import (
 	"flag"
+	"fmt"
 	"os"
 	"strings"
 	"testing"
@@ -96,4 +97,33 @@ func TestE2EPanelNamesPixelCharts(t *testing.T) {
 	ov := h.overlayHTML()
 	assert.Contains(t, ov, "Note: canvas0, a canvas 480×200 px, was not checked")
 	assert.NotContains(t, ov, "img0", "an icon is no chart")
+}
+
+// The panel judges the charts as on a 360 px phone without touching the
+// reader's window: a muted highlight that stands out in a 1,200 px chart
+// blends once the chart is scaled to the phone's width (Szafir 2018: small
+// marks need bigger colour differences), and the panel says what it did
+// and what it cannot do (a re-layout, the other colour scheme).
+func TestE2EPanelJudgesAsOnAPhone(t *testing.T) {
+	h := newHarness(t)
+	var b strings.Builder
+	b.WriteString(`<!doctype html><html><body style="margin:0"><svg width="1200" height="400">`)
+	for i := 0; i < 48; i++ {
+		fill, em := "#8f8b97", ""
+		if i == 17 {
+			fill, em = "#5f7396", " data-standout-emphasis"
+		}
+		fmt.Fprintf(&b, `<circle cx="%d" cy="%d" r="20" fill="%s"%s/>`, 60+(i%12)*95, 60+(i/12)*90, fill, em)
+	}
+	b.WriteString(`</svg></body></html>`)
+	h.showPage(b.String())
+	ov := h.overlayHTML()
+	require.Contains(t, ov, "Declared emphasis (1 mark) stands out for normal: yes")
+	assert.Contains(t, ov, "an extension cannot switch a page’s light or dark scheme")
+	h.eval(`document.querySelector('` + hostSelector + `').removeAttribute('data-state'), ''`)
+	h.chooseInOverlay("screen", 1)
+	h.waitState("ready")
+	ov = h.overlayHTML()
+	assert.Contains(t, ov, "Judged as on a 360 px phone")
+	assert.Contains(t, ov, "Declared emphasis (1 mark) stands out for normal: no")
 }

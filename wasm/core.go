@@ -41,6 +41,9 @@ type Request struct {
 	Full       bool    `json:"full"`
 	DistanceCM float64 `json:"distanceCm"`
 	PxPerInch  float64 `json:"pxPerInch"`
+	// PhoneWidth, when set, judges the charts as scaled to a phone's
+	// width (report.Options.PhoneWidth).
+	PhoneWidth float64 `json:"phoneWidth"`
 }
 
 // Response is what the core answers: a report, or an error.
@@ -116,6 +119,8 @@ func parseOptions(b []byte) (*Request, error) {
 			q.DistanceCM, err = d.Number()
 		case "pxPerInch":
 			q.PxPerInch, err = d.Number()
+		case "phoneWidth":
+			q.PhoneWidth, err = d.Number()
 		default:
 			err = d.Skip()
 		}
@@ -143,7 +148,7 @@ func handle(q *Request, t0 time.Time) []byte {
 	if q.Severity != nil {
 		set.Severity = *q.Severity
 	}
-	set.DistanceCM, set.PxPerInch = q.DistanceCM, q.PxPerInch
+	set.DistanceCM, set.PxPerInch, set.PhoneWidth = q.DistanceCM, q.PxPerInch, q.PhoneWidth
 	set.EmphasisIDs, set.EmphasisNodes = q.Emphasis, q.EmphasisNodes
 	// The overlay's digest needs the CVD re-analysis of the emphasis only.
 	set.FindingsOnly = !q.Full

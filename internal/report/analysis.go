@@ -281,3 +281,29 @@ func plural(n int, one, many string) string {
 	}
 	return strconv.Itoa(n) + " " + many
 }
+
+// ScaleInput shrinks (or grows) a chart's marks by s, about the page's
+// origin, as a browser scaling the whole chart would: lengths, widths and
+// positions by s, areas by s².
+func ScaleInput(in *perception.Input, s float64) {
+	scale := func(m *perception.Mark) {
+		m.MinPx, m.MaxPx, m.X, m.Y = m.MinPx*s, m.MaxPx*s, m.X*s, m.Y*s
+		if m.Length || m.Kind == "line" || m.Kind == "text" {
+			m.Size *= s // a length, a stroke width, a font size
+		} else {
+			m.Size *= s * s // an area
+		}
+		for i := range m.Box {
+			m.Box[i] *= s
+		}
+		for i := range m.Vertices {
+			m.Vertices[i] = [2]float64{m.Vertices[i][0] * s, m.Vertices[i][1] * s}
+		}
+	}
+	for i := range in.Marks {
+		scale(&in.Marks[i])
+	}
+	for i := range in.Legend {
+		scale(&in.Legend[i])
+	}
+}

@@ -260,6 +260,12 @@ type Options struct {
 	// Deadline, when set, bounds a check: the static builder stops at
 	// it, and no further chart is analysed after it.
 	Deadline time.Time
+	// PhoneWidth, when set, judges each chart wider than it as if scaled
+	// down to it, as on a phone that shrinks a chart without re-laying it
+	// out: marks get smaller, and small marks need bigger colour
+	// differences (Szafir 2018). Charts that re-lay out need a reading at
+	// that width (check --browser --widths).
+	PhoneWidth float64
 }
 
 // DefaultOptions are the options of a check nobody tuned.
@@ -287,7 +293,11 @@ func AnalyseSnapshots(snaps []snapshot.Snapshot, opt Options) ([]Analysed, error
 		}
 		a := Analysed{Chart: ch}
 		if ch.IsChart {
-			a.Result = perception.Analyse(ToPerception(ch, emphasisIDs(ch, opt)), opt.Params)
+			in := ToPerception(ch, emphasisIDs(ch, opt))
+			if opt.PhoneWidth > 0 && ch.Box[2] > opt.PhoneWidth {
+				ScaleInput(&in, opt.PhoneWidth/ch.Box[2])
+			}
+			a.Result = perception.Analyse(in, opt.Params)
 		}
 		out = append(out, a)
 	}

@@ -27,6 +27,9 @@ type Settings struct {
 	// FindingsOnly asks for the findings and the emphasis's CVD
 	// re-analysis only (the overlay's digest), not every mark's.
 	FindingsOnly bool
+	// PhoneWidth, when set, judges the charts as scaled down to a phone's
+	// width in CSS px (Options.PhoneWidth), within 200–1000.
+	PhoneWidth float64
 }
 
 // DefaultSettings are the settings of a check nobody tuned.
@@ -71,6 +74,10 @@ func (s Settings) Options() (Options, error) {
 		}
 		opt.Nodes[pn[:i]][node] = true
 	}
+	if s.PhoneWidth != 0 && !(s.PhoneWidth >= 200 && s.PhoneWidth <= 1000) {
+		return opt, fmt.Errorf("phone width %v px is not within 200–1000", s.PhoneWidth)
+	}
+	opt.PhoneWidth = s.PhoneWidth
 	return opt, nil
 }
 
