@@ -6,6 +6,12 @@ import (
 	"strings"
 )
 
+// seen is one chart as one view got it.
+type seen struct {
+	view  string
+	chart *Chart
+}
+
 // ViewChanges says, for each page read in several views (widths and
 // colour schemes), what changes from one view to another, chart by
 // chart: charts drawn in some views only, a different number of marks,
@@ -13,10 +19,6 @@ import (
 // which readers), and findings met in some views only. Pages read in one
 // view say nothing.
 func ViewChanges(r *Report) []string {
-	type seen struct {
-		view  string
-		chart *Chart
-	}
 	var sources []string
 	views := map[string][]string{}
 	charts := map[string]map[string][]seen{} // source → chart path → per view
@@ -58,9 +60,9 @@ func ViewChanges(r *Report) []string {
 				}
 				lines = append(lines, "drawn only at "+strings.Join(in, "; "))
 			}
-			lines = append(lines, markCounts(per, func(s seen) (string, int) { return s.view, len(s.chart.Marks) })...)
-			lines = append(lines, emphasisAcross(per, func(s seen) (string, *Emphasis) { return s.view, s.chart.Emphasis })...)
-			lines = append(lines, findingsAcross(per, len(views[src]), func(s seen) (string, []Finding) { return s.view, s.chart.Findings })...)
+			lines = append(lines, markCounts(per)...)
+			lines = append(lines, emphasisAcross(per)...)
+			lines = append(lines, findingsAcross(per, len(views[src]))...)
 			if len(lines) == 0 {
 				continue
 			}
@@ -71,11 +73,11 @@ func ViewChanges(r *Report) []string {
 }
 
 // markCounts says how many marks each view has, when they differ.
-func markCounts[S any](per []S, of func(S) (string, int)) []string {
+func markCounts(per []seen) []string {
 	var parts []string
 	first, differ := -1, false
 	for _, s := range per {
-		v, n := of(s)
+		v, n := s.view, len(s.chart.Marks)
 		if first >= 0 && n != first {
 			differ = true
 		}
@@ -90,12 +92,12 @@ func markCounts[S any](per []S, of func(S) (string, int)) []string {
 
 // emphasisAcross says, when the emphasis fares differently across views,
 // for whom it is lost in each.
-func emphasisAcross[S any](per []S, of func(S) (string, *Emphasis)) []string {
+func emphasisAcross(per []seen) []string {
 	var parts []string
 	var last string
 	differ := false
 	for i, s := range per {
-		v, em := of(s)
+		v, em := s.view, s.chart.Emphasis
 		state := "no emphasis"
 		if em != nil && len(em.Marks) > 0 {
 			var lost []string
@@ -125,11 +127,11 @@ func emphasisAcross[S any](per []S, of func(S) (string, *Emphasis)) []string {
 }
 
 // findingsAcross lists the findings met in some of the views only.
-func findingsAcross[S any](per []S, nViews int, of func(S) (string, []Finding)) []string {
+func findingsAcross(per []seen, nViews int) []string {
 	in := map[string][]string{}
 	var ids []string
 	for _, s := range per {
-		v, fs := of(s)
+		v, fs := s.view, s.chart.Findings
 		for _, f := range fs {
 			if !slices.Contains(in[f.ID], v) {
 				if len(in[f.ID]) == 0 {
