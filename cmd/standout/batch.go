@@ -124,6 +124,12 @@ func writeArtifactFiles(r *report.Report, shots [][]byte, pngDir, mdDir string, 
 		if p.View != nil {
 			stem += "-" + fileStem(p.View.String())
 		}
+		// The Markdown names a local page by its path from the report's
+		// folder; its pictures are keyed by the same name.
+		shown := p
+		if rel := relativeTo(mdDir, p.Source); mdDir != "" && rel != "" {
+			shown.Source = rel
+		}
 		pngs := map[string]string{}
 		if pngDir != "" && i < len(shots) && shots[i] != nil {
 			img, err := png.Decode(bytes.NewReader(shots[i]))
@@ -153,11 +159,11 @@ func writeArtifactFiles(r *report.Report, shots [][]byte, pngDir, mdDir string, 
 						rel = r
 					}
 				}
-				pngs[p.Source+"#"+c.Path] = filepath.ToSlash(rel)
+				pngs[shown.Source+"#"+c.Path] = filepath.ToSlash(rel)
 			}
 		}
 		if mdDir != "" {
-			if err := writePageMarkdown(r, p, stem, mdDir, pngs); err != nil {
+			if err := writePageMarkdown(r, shown, stem, mdDir, pngs); err != nil {
 				return err
 			}
 			*nMD++
@@ -234,8 +240,8 @@ func relativeTo(dir, source string) string {
 }
 
 // writePageMarkdown writes one page's Markdown report into mdDir, with the
-// search-time plots beside it; pngs maps the page's charts to their
-// pictures.
+// search-time plots beside it; p is the page as the report names it, and
+// pngs maps its charts to their pictures.
 func writePageMarkdown(r *report.Report, p report.Page, stem, mdDir string, pngs map[string]string) error {
 	for _, c := range p.Charts {
 		curve, ok := report.CurveOf(c)
@@ -249,22 +255,7 @@ func writePageMarkdown(r *report.Report, p report.Page, stem, mdDir string, pngs
 		pngs[report.SearchPlotKey+p.Source+"#"+c.Path] = name
 	}
 	var b bytes.Buffer
-	// A local page is named by its path from the report's folder.
-	shown := p
-	if rel := relativeTo(mdDir, p.Source); rel != "" {
-		shown.Source = rel
-		moved := map[string]string{}
-		for k, v := range pngs {
-			if rest, ok := strings.CutPrefix(k, p.Source+"#"); ok {
-				k = rel + "#" + rest
-			} else if rest, ok := strings.CutPrefix(k, report.SearchPlotKey+p.Source+"#"); ok {
-				k = report.SearchPlotKey + rel + "#" + rest
-			}
-			moved[k] = v
-		}
-		pngs = moved
-	}
-	one := report.Report{Schema: r.Schema, Version: r.Version, Minor: r.Minor, Pages: []report.Page{shown}, Caution: r.Caution}
+	one := report.Report{Schema: r.Schema, Version: r.Version, Minor: r.Minor, Pages: []report.Page{p}, Caution: r.Caution}
 	report.WriteMarkdown(&b, &one, pngs)
 	if err := os.WriteFile(filepath.Join(mdDir, stem+".md"), b.Bytes(), 0o644); err != nil {
 		return err
