@@ -39,14 +39,20 @@ func TestFlankedTargetIsHarder(t *testing.T) {
 func TestSaturationAsymmetry(t *testing.T) {
 	pale, saturated := lab(t, 60, 10, 10), lab(t, 60, 40, 40)
 	target := func(tc, dc colour.SRGB) float64 {
-		return analyseTarget(t, gridDisplay(30, 19, func(i int, m *Mark) {
-			m.Colour = dc
-			if i == 14 {
-				m.Colour = tc
-			}
-		}), 14).Salience.Of(Hue)
+		return analyseTarget(t, singleton(19, tc, dc), 14).Salience.Of(Hue)
 	}
 	assert.Greater(t, target(saturated, pale), target(pale, saturated))
+}
+
+// singleton is 30 marks of the distractor colour with mark 14 in the
+// target colour (gridDisplay's layout, from seed).
+func singleton(seed int64, target, distractor colour.SRGB) []Mark {
+	return gridDisplay(30, seed, func(i int, m *Mark) {
+		m.Colour = distractor
+		if i == 14 {
+			m.Colour = target
+		}
+	})
 }
 
 func TestDistanceToHull(t *testing.T) {
@@ -65,12 +71,7 @@ func TestDistanceToHull(t *testing.T) {
 func TestLightnessAsymmetry(t *testing.T) {
 	dark, light := lab(t, 45, 0, 0), lab(t, 65, 0, 0)
 	target := func(tc, dc colour.SRGB) float64 {
-		return analyseTarget(t, gridDisplay(30, 23, func(i int, m *Mark) {
-			m.Colour = dc
-			if i == 14 {
-				m.Colour = tc
-			}
-		}), 14).Salience.Of(Lightness)
+		return analyseTarget(t, singleton(23, tc, dc), 14).Salience.Of(Lightness)
 	}
 	more, less := target(dark, light), target(light, dark)
 	assert.Greater(t, more, less)
