@@ -47,6 +47,7 @@ const (
 	RoleHelper      Role = "helper"       // a shape that paints nothing
 	RoleHidden      Role = "hidden"       // not rendered, invisible or fully transparent
 	RoleImage       Role = "image"        // a raster image
+	RoleGlyph       Role = "glyph"        // a letter's outline, part of a text drawn as outlines
 )
 
 // Mark is one data mark with its effective paint and geometry in page px.
@@ -147,6 +148,7 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	if err != nil {
 		return nil, err
 	}
+	texts = append(texts, glyphRuns(h, s, cands)...)
 	classifyFurniture(h, ch, cands)
 	classifyTexts(h, texts)
 	legendSwatches(h, cands, texts)
@@ -635,13 +637,19 @@ func baselines(h *Heuristics, cands []*cand, segs []seg) {
 }
 
 // classifyTexts sets aside labels and titles; what remains are text marks.
-// Texts that share a parent and line up along one axis are axis or legend
-// labels; a lone text is a title or annotation label.
+// Texts of one parent that line up evenly in a row or a column of at
+// least LabelGroupMin are axis or legend labels: one parent may hold both
+// axes' labels. Texts that share both a row and a column with others are
+// a table of values, and a group with LabelGroupMin of those is one. A
+// lone text is a title or annotation label; of the rest, groups of at
+// least LabelGroupMin are direct labels of data.
 func classifyTexts(h *Heuristics, texts []*cand) {
 	byParent := map[int32][]*cand{}
 	for _, t := range texts {
 		byParent[t.n.Parent] = append(byParent[t.n.Parent], t)
 	}
+	x := func(t *cand) float64 { return t.textPos.X }
+	y := func(t *cand) float64 { return t.textPos.Y }
 	for _, ts := range byParent {
 		if len(ts) < h.LabelGroupMin {
 			for _, t := range ts {
@@ -649,21 +657,87 @@ func classifyTexts(h *Heuristics, texts []*cand) {
 			}
 			continue
 		}
-		sameX, sameY := true, true
-		for _, t := range ts[1:] {
-			if math.Abs(t.textPos.X-ts[0].textPos.X) > 1 {
-				sameX = false
-			}
-			if math.Abs(t.textPos.Y-ts[0].textPos.Y) > 1 {
-				sameY = false
+		if lattice(ts) >= h.LabelGroupMin {
+			continue
+		}
+		inCol, inRow := inRuns(h, ts, x, y), inRuns(h, ts, y, x)
+		rest := 0
+		for i, t := range ts {
+			if inCol[i] || inRow[i] {
+				t.role = RoleLabel
+			} else {
+				rest++
 			}
 		}
-		if sameX || sameY {
+		if rest < h.LabelGroupMin {
 			for _, t := range ts {
 				t.role = RoleLabel
 			}
 		}
 	}
+}
+
+// lattice counts the texts that share their row with another text and
+// their column with another (within a pixel).
+func lattice(ts []*cand) int {
+	rows, cols := map[int64]int{}, map[int64]int{}
+	for _, t := range ts {
+		rows[int64(math.Round(t.textPos.Y))]++
+		cols[int64(math.Round(t.textPos.X))]++
+	}
+	n := 0
+	for _, t := range ts {
+		if rows[int64(math.Round(t.textPos.Y))] > 1 && cols[int64(math.Round(t.textPos.X))] > 1 {
+			n++
+		}
+	}
+	return n
+}
+
+// inRuns says which texts share a coordinate (within a pixel) with at
+// least LabelGroupMin-1 others, evenly spaced along the other coordinate
+// as an axis's ticks and a legend's rows are (labels placed by data, as
+// at the start of each line of a series, are not).
+func inRuns(h *Heuristics, ts []*cand, coord, along func(*cand) float64) []bool {
+	order := make([]int, len(ts))
+	for i := range order {
+		order[i] = i
+	}
+	slices.SortFunc(order, func(a, b int) int { return cmp.Compare(coord(ts[a]), coord(ts[b])) })
+	in := make([]bool, len(ts))
+	for i := 0; i < len(order); {
+		j := i + 1
+		for j < len(order) && coord(ts[order[j]])-coord(ts[order[j-1]]) <= 1 && coord(ts[order[j]])-coord(ts[order[i]]) <= 2 {
+			j++
+		}
+		if j-i >= h.LabelGroupMin && evenlySpaced(h, ts, order[i:j], along) {
+			for _, k := range order[i:j] {
+				in[k] = true
+			}
+		}
+		i = j
+	}
+	return in
+}
+
+// evenlySpaced: the texts' positions along the run are spaced alike,
+// within LabelSpacingTol of the median gap.
+func evenlySpaced(h *Heuristics, ts []*cand, run []int, along func(*cand) float64) bool {
+	if len(run) < 2 {
+		return false
+	}
+	pos := make([]float64, len(run))
+	for i, k := range run {
+		pos[i] = along(ts[k])
+	}
+	slices.Sort(pos)
+	gaps := make([]float64, len(pos)-1)
+	for i := range gaps {
+		gaps[i] = pos[i+1] - pos[i]
+	}
+	slices.Sort(gaps)
+	med := gaps[len(gaps)/2]
+	return med > 0 && gaps[len(gaps)-1]-gaps[0] <= h.LabelSpacingTol*med
 }
 
 // legendSwatches finds legend entries: small marks each with its own label
