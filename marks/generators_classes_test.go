@@ -100,3 +100,46 @@ func TestTextRunsInOneParent(t *testing.T) {
 	ch = walkPage(t, b.String())
 	assert.Equal(t, map[Kind]int{KindCell: 12, KindText: 12}, kinds(ch), "a table of values is text marks")
 }
+
+// Axis lines drawn as two <line> spines meeting at the origin, without
+// ticks, are furniture: in a scatter of 100 dots with 11 in red, they
+// were rules that "popped through orientation" as the inferred emphasis.
+// A lone line beyond the data (a target) stays a mark, and so does a rule
+// with data on both sides.
+func TestSpinesAreFurniture(t *testing.T) {
+	dots := func() string {
+		var b strings.Builder
+		for i := 0; i < 100; i++ {
+			fill := "#a7a9ac"
+			if i%9 == 4 {
+				fill = "#d1495b"
+			}
+			b.WriteString(`<circle cx="` + itoa(60+(i*37)%420) + `" cy="` + itoa(30+(i*53)%320) + `" r="4" fill="` + fill + `"/>`)
+		}
+		return b.String()
+	}
+	ch := walkPage(t, `<svg width="500" height="400"><g stroke="#333"><line x1="50" x2="490" y1="360" y2="360"/><line x1="50" x2="50" y1="360" y2="20"/></g>`+dots()+`</svg>`)
+	assert.Equal(t, map[Kind]int{KindPoint: 100}, kinds(ch))
+	assert.Equal(t, 2, ch.Furniture[RoleAxis])
+
+	ch = walkPage(t, `<svg width="500" height="400"><line x1="50" x2="490" y1="10" y2="10" stroke="#c23a2e"/><line x1="50" x2="490" y1="200" y2="200" stroke="#333"/>`+dots()+`</svg>`)
+	assert.Equal(t, map[Kind]int{KindPoint: 100, KindRule: 2}, kinds(ch), "a target beyond the data and a rule through it stay marks")
+}
+
+// A gridline that happens to cross the centres of scattered points is
+// still a gridline; a rule joining two dots at its ends connects them.
+func TestGridlineThroughPoints(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="500" height="400"><g stroke="#e0e6f1">`)
+	for y := 50; y <= 350; y += 60 {
+		b.WriteString(`<line x1="40" x2="480" y1="` + itoa(y) + `" y2="` + itoa(y) + `"/>`)
+	}
+	b.WriteString(`</g><g fill="#4f8a8b"><circle cx="100" cy="110" r="4"/><circle cx="300" cy="110" r="4"/>`)
+	for i := 0; i < 20; i++ {
+		b.WriteString(`<circle cx="` + itoa(70+i*19) + `" cy="` + itoa(75+(i*41)%260) + `" r="4"/>`)
+	}
+	b.WriteString(`</g></svg>`)
+	ch := walkPage(t, b.String())
+	assert.Equal(t, map[Kind]int{KindPoint: 22}, kinds(ch))
+	assert.Equal(t, 6, ch.Furniture[RoleGridline])
+}

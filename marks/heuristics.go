@@ -46,6 +46,11 @@ type Heuristics struct {
 	// stroke, is the value axis's baseline, not a data mark. Provisional:
 	// a bar chart's baseline is drawn as a rule by several generators.
 	BaselineBars int
+	// SpineMinSpan: a straight axis-aligned line with every data mark on
+	// one side is an axis line or a frame's side when it spans at least
+	// this share of the marks' extent along it. Provisional: spines span
+	// the plot, and a legend's line icons are a fraction of it.
+	SpineMinSpan float64
 
 	// LabelGroupMin: texts sharing a parent are marks (direct labels of
 	// data) only in groups of at least this many that do not line up.
@@ -120,6 +125,7 @@ var DefaultHeuristics = Heuristics{
 	TickMaxLen: 15, ThroughTol: 1.5,
 	AxisTickTouches: 2,
 	BaselineBars:    2,
+	SpineMinSpan:    0.5,
 
 	LabelGroupMin: 3, LabelSpacingTol: 0.25,
 

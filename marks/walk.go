@@ -389,6 +389,7 @@ func classifyFurniture(h *Heuristics, ch *Chart, cands []*cand) {
 	tickEnds := ticksAndGridlines(h, cands, segs, grid)
 	axisLines(h, segs, grid, tickEnds)
 	baselines(h, cands, segs)
+	spines(h, cands, segs)
 }
 
 // coverRole is the role of a rectangle that covers others: a background
@@ -547,8 +548,9 @@ func gridGroups(h *Heuristics, segs []seg) []bool {
 	return grid
 }
 
-// throughCentres counts (up to two) the closed shapes whose centres a
-// segment passes through.
+// throughCentres counts (up to two) the closed shapes centred on the
+// segment at one of its ends, as a connector joins two dots; a gridline
+// that happens to cross the centres of scattered points does not count.
 func throughCentres(h *Heuristics, s seg, cands []*cand) int {
 	n := 0
 	tol := s.c.strokeW/2 + h.ThroughTol
@@ -557,8 +559,10 @@ func throughCentres(h *Heuristics, s seg, cands []*cand) int {
 			continue
 		}
 		c := o.g.Centroid
-		if s.vert && math.Abs(c.X-s.a.X) <= tol && c.Y >= s.a.Y-tol && c.Y <= s.b.Y+tol ||
-			!s.vert && math.Abs(c.Y-s.a.Y) <= tol && c.X >= s.a.X-tol && c.X <= s.b.X+tol {
+		reach := tol + max(o.g.BBox[2], o.g.BBox[3])/2
+		onLine := s.vert && math.Abs(c.X-s.a.X) <= tol || !s.vert && math.Abs(c.Y-s.a.Y) <= tol
+		atEnd := math.Hypot(c.X-s.a.X, c.Y-s.a.Y) <= reach || math.Hypot(c.X-s.b.X, c.Y-s.b.Y) <= reach
+		if onLine && atEnd {
 			if n++; n >= 2 {
 				break
 			}
@@ -634,6 +638,89 @@ func baselines(h *Heuristics, cands []*cand, segs []seg) {
 			}
 		}
 	}
+}
+
+// spines: a long line along an edge of the data, with every data mark on
+// one side of it, that meets another such line or an axis line at a
+// corner is an axis line or a side of the plot's frame (a spine) drawn
+// without ticks. A rule among the data has marks on both sides, and a
+// lone line beyond them (a target, a threshold) meets no other. It must
+// span SpineMinSpan of the marks' extent along it.
+func spines(h *Heuristics, cands []*cand, segs []seg) {
+	isSeg := map[*cand]bool{}
+	for _, s := range segs {
+		isSeg[s.c] = true
+	}
+	var data []*cand
+	x0, y0, x1, y1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	for _, c := range cands {
+		if c.role != RoleMark || isSeg[c] {
+			continue
+		}
+		data = append(data, c)
+		b := c.g.BBox
+		x0, y0 = min(x0, b[0]), min(y0, b[1])
+		x1, y1 = max(x1, b[0]+b[2]), max(y1, b[1]+b[3])
+	}
+	if len(data) < 2 {
+		return
+	}
+	var edges, axes []seg
+	for _, s := range segs {
+		switch {
+		case s.c.role == RoleAxis || s.c.role == RoleFrame:
+			axes = append(axes, s)
+		case s.c.role == RoleMark && alongEdge(h, s, data, x0, y0, x1, y1):
+			edges = append(edges, s)
+		}
+	}
+	for _, s := range edges {
+		for _, o := range append(axes, edges...) {
+			if o.vert != s.vert && cornerMeet(h, s, o) {
+				s.c.role = RoleAxis
+				break
+			}
+		}
+	}
+}
+
+// alongEdge: s spans SpineMinSpan of the data's extent and has every
+// data mark's centre on one side.
+func alongEdge(h *Heuristics, s seg, data []*cand, x0, y0, x1, y1 float64) bool {
+	tol := h.AlignTol + s.c.strokeW/2
+	at, span := s.a.Y, x1-x0
+	if s.vert {
+		at, span = s.a.X, y1-y0
+	}
+	if s.L < h.SpineMinSpan*span {
+		return false
+	}
+	before, after := 0, 0
+	for _, c := range data {
+		v := c.g.Centroid.Y
+		if s.vert {
+			v = c.g.Centroid.X
+		}
+		if v < at-tol {
+			before++
+		} else if v > at+tol {
+			after++
+		}
+	}
+	return before == 0 || after == 0
+}
+
+// cornerMeet: an end of s touches an end of the perpendicular o.
+func cornerMeet(h *Heuristics, s, o seg) bool {
+	tol := h.AlignTol + max(s.c.strokeW, o.c.strokeW)
+	for _, p := range []Point{s.a, s.b} {
+		for _, q := range []Point{o.a, o.b} {
+			if math.Abs(p.X-q.X) <= tol && math.Abs(p.Y-q.Y) <= tol {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // classifyTexts sets aside labels and titles; what remains are text marks.
