@@ -1,6 +1,8 @@
 package marks
 
 import (
+	"fmt"
+	"math"
 	"strconv"
 	"strings"
 	"testing"
@@ -8,6 +10,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
+	"standout/snapshot"
 	"standout/static"
 )
 
@@ -142,4 +145,68 @@ func TestGridlineThroughPoints(t *testing.T) {
 	ch := walkPage(t, b.String())
 	assert.Equal(t, map[Kind]int{KindPoint: 22}, kinds(ch))
 	assert.Equal(t, 6, ch.Furniture[RoleGridline])
+}
+
+// Pie and ring wedges drawn with cubic Bézier curves back to the centre
+// (a plotting library's arcs) are arcs, like those drawn with elliptical
+// arc commands. The curves here are the standard four-segment circle
+// approximation (k = 0.5523) cut into quarters.
+func TestBezierWedgesAreArcs(t *testing.T) {
+	const k = 0.5523
+	quarter := func(cx, cy, r float64, q int, inner float64) string {
+		// The quarter from angle q·90° to (q+1)·90°, outer rim, then back
+		// along the inner rim (or to the centre when inner is 0).
+		pt := func(rr, deg float64) (float64, float64) {
+			s, c := math.Sincos(deg * math.Pi / 180)
+			return cx + rr*c, cy + rr*s
+		}
+		a0, a1 := float64(q*90), float64(q*90+90)
+		x0, y0 := pt(r, a0)
+		x1, y1 := pt(r, a1)
+		c1x, c1y := x0-k*r*math.Sin(a0*math.Pi/180), y0+k*r*math.Cos(a0*math.Pi/180)
+		c2x, c2y := x1+k*r*math.Sin(a1*math.Pi/180), y1-k*r*math.Cos(a1*math.Pi/180)
+		d := fmt.Sprintf("M %.3f %.3f C %.3f %.3f %.3f %.3f %.3f %.3f ", x0, y0, c1x, c1y, c2x, c2y, x1, y1)
+		if inner == 0 {
+			return d + fmt.Sprintf("L %.3f %.3f Z", cx, cy)
+		}
+		ix1, iy1 := pt(inner, a1)
+		ix0, iy0 := pt(inner, a0)
+		d += fmt.Sprintf("L %.3f %.3f ", ix1, iy1)
+		d += fmt.Sprintf("C %.3f %.3f %.3f %.3f %.3f %.3f ", ix1+k*inner*math.Sin(a1*math.Pi/180), iy1-k*inner*math.Cos(a1*math.Pi/180),
+			ix0-k*inner*math.Sin(a0*math.Pi/180), iy0+k*inner*math.Cos(a0*math.Pi/180), ix0, iy0)
+		return d + "Z"
+	}
+	for name, inner := range map[string]float64{"pie": 0, "ring": 60} {
+		t.Run(name, func(t *testing.T) {
+			var b strings.Builder
+			b.WriteString(`<svg width="300" height="300">`)
+			for q, fill := range []string{"#3b6e8f", "#c8553d", "#6a994e", "#e0a458"} {
+				b.WriteString(`<path d="` + quarter(150, 150, 100, q, inner) + `" fill="` + fill + `"/>`)
+			}
+			b.WriteString(`</svg>`)
+			ch := walkPage(t, b.String())
+			assert.Equal(t, map[Kind]int{KindArc: 4}, kinds(ch))
+		})
+	}
+	// A rounded rectangle (a legend's frame) is not a wedge.
+	g, ok, err := Measure(&snapshot.Node{Tag: "path", CTM: snapshot.IdentityMatrix,
+		D: "M 10 0 L 90 0 Q 100 0 100 10 L 100 50 Q 100 60 90 60 L 10 60 Q 0 60 0 50 L 0 10 Q 0 0 10 0 Z"})
+	require.True(t, ok)
+	require.NoError(t, err)
+	assert.NotEqual(t, ShapeWedge, g.Shape)
+}
+
+// A filled circle drawn as one open elliptical arc on a unit circle,
+// placed and scaled by matrix(...) (as some desktop tools export bubbles),
+// is a filled disc: a point, not a line.
+func TestOpenArcBubbleIsAPoint(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="400" height="300">`)
+	for i := 0; i < 8; i++ {
+		b.WriteString(`<path d="M1,0A1,1,0,1,1,0.99995,-0.01" fill="#a7a9ac" transform="matrix(` + itoa(8+i*2) + `,0,0,` + itoa(8+i*2) + `,` + itoa(40+i*45) + `,` + itoa(60+(i*71)%200) + `)"/>`)
+	}
+	b.WriteString(`<path d="M 20 280 C 100 200 200 250 380 120" fill="none" stroke="#333"/></svg>`)
+	ch := walkPage(t, b.String())
+	assert.Equal(t, map[Kind]int{KindPoint: 8, KindLine: 1}, kinds(ch), "the unfilled curve stays a line")
+	assert.Equal(t, ShapeCircle, ch.Marks[0].Shape)
 }

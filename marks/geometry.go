@@ -330,9 +330,68 @@ func (g *Geometry) classify() {
 	case curved && len(corners) >= 1 && len(corners) <= 4 && g.Info.Arcs > 0:
 		g.Shape, g.Fold = ShapeWedge, 1
 		g.Angle = mod(math.Atan2(g.Centroid.Y-cornerPts[0].Y, g.Centroid.X-cornerPts[0].X)*180/math.Pi, 360)
+	case curved && len(corners) >= 1 && len(corners) <= 4:
+		if c, ok := circularRim(pts, corners); ok {
+			// Drawn with Bézier curves rather than arcs: pointing from
+			// the circle's centre to the centroid.
+			g.Shape, g.Fold = ShapeWedge, 1
+			g.Angle = mod(math.Atan2(g.Centroid.Y-c.Y, g.Centroid.X-c.X)*180/math.Pi, 360)
+		} else {
+			g.Angle = principalAngle(g.Subpaths, g.Centroid)
+		}
 	default:
 		g.Angle = principalAngle(g.Subpaths, g.Centroid)
 	}
+}
+
+// circularRim finds the circle that the outline's longest curved stretch
+// follows, and says whether every vertex lies on it, on one other circle
+// about the same centre, or at the centre: a pie wedge or a ring segment,
+// however its curves are written. Vertices may stray by 3% of the radius
+// (flattening, and Bézier approximations of arcs stray by 0.03%).
+func circularRim(pts []Point, corners []int) (Point, bool) {
+	n := len(pts)
+	best, bestLen := 0, 0
+	for i, k := range corners {
+		next := corners[(i+1)%len(corners)]
+		if l := (next - k + n) % n; l > bestLen {
+			best, bestLen = k, l
+		}
+	}
+	if bestLen < 4 {
+		return Point{}, false
+	}
+	a, b, c := pts[best], pts[(best+bestLen/2)%n], pts[(best+bestLen)%n]
+	centre, r, ok := circumcircle(a, b, c)
+	if !ok {
+		return Point{}, false
+	}
+	tol := 0.03*r + 0.5
+	r2 := -1.0
+	for _, p := range pts {
+		d := math.Hypot(p.X-centre.X, p.Y-centre.Y)
+		switch {
+		case math.Abs(d-r) <= tol, d <= tol:
+		case r2 < 0:
+			r2 = d
+		case math.Abs(d-r2) > tol:
+			return Point{}, false
+		}
+	}
+	return centre, true
+}
+
+// circumcircle is the circle through three points; false when they are
+// (nearly) collinear.
+func circumcircle(a, b, c Point) (Point, float64, bool) {
+	d := 2 * (a.X*(b.Y-c.Y) + b.X*(c.Y-a.Y) + c.X*(a.Y-b.Y))
+	scale := max(math.Hypot(b.X-a.X, b.Y-a.Y), math.Hypot(c.X-a.X, c.Y-a.Y))
+	if math.Abs(d) <= 1e-9*scale*scale {
+		return Point{}, 0, false
+	}
+	a2, b2, c2 := a.X*a.X+a.Y*a.Y, b.X*b.X+b.Y*b.Y, c.X*c.X+c.Y*c.Y
+	o := Point{(a2*(b.Y-c.Y) + b2*(c.Y-a.Y) + c2*(a.Y-b.Y)) / d, (a2*(c.X-b.X) + b2*(a.X-c.X) + c2*(b.X-a.X)) / d}
+	return o, math.Hypot(a.X-o.X, a.Y-o.Y), true
 }
 
 func dedupe(pts []Point) []Point {

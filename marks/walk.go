@@ -325,6 +325,14 @@ func (ch *Chart) sortOut(c *cand) int {
 	if !ok {
 		return notDrawn
 	}
+	if c.fillA > 0 && !g.Closed && nearlyClosed(&g) {
+		// A fill closes every subpath (SVG 1.1 §11.3): a circle drawn as
+		// one open arc is a filled disc, not a line.
+		for i := range g.Subpaths {
+			g.Subpaths[i].Closed = true
+		}
+		g.measurePolys()
+	}
 	if len(nd.BBox) == 4 {
 		g.BBox = [4]float64{nd.BBox[0], nd.BBox[1], nd.BBox[2], nd.BBox[3]}
 	}
@@ -337,6 +345,25 @@ func (ch *Chart) sortOut(c *cand) int {
 		c.role = RoleHelper
 	}
 	return isShape
+}
+
+// nearlyClosed: every open subpath ends within 5% of its size of where it
+// started.
+func nearlyClosed(g *Geometry) bool {
+	for _, s := range g.Subpaths {
+		if s.Closed {
+			continue
+		}
+		x0, y0, x1, y1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+		for _, p := range s.Pts {
+			x0, y0, x1, y1 = min(x0, p.X), min(y0, p.Y), max(x1, p.X), max(y1, p.Y)
+		}
+		a, b := s.Pts[0], s.Pts[len(s.Pts)-1]
+		if len(s.Pts) < 3 || math.Hypot(b.X-a.X, b.Y-a.Y) > 0.05*max(x1-x0, y1-y0) {
+			return false
+		}
+	}
+	return true
 }
 
 func clamp01(v float64) float64 {
