@@ -210,3 +210,86 @@ func TestOpenArcBubbleIsAPoint(t *testing.T) {
 	assert.Equal(t, map[Kind]int{KindPoint: 8, KindLine: 1}, kinds(ch), "the unfilled curve stays a line")
 	assert.Equal(t, ShapeCircle, ch.Marks[0].Shape)
 }
+
+// A legend built from plain shapes: a rounded frame, and per entry a
+// series icon (a short line with a dot on it) and a label. The icons are
+// legend swatches, and the frame is set aside; the data
+// lines and dots stay marks.
+func TestPlainShapeLegend(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="640" height="400">`)
+	for s, colour := range []string{"#4f8a8b", "#c8553d", "#8e5572"} {
+		var d strings.Builder
+		for i := 0; i < 10; i++ {
+			x, y := 60+i*40, 100+s*80+(i*29)%50
+			if i == 0 {
+				d.WriteString("M")
+			} else {
+				d.WriteString("L")
+			}
+			d.WriteString(itoa(x) + "," + itoa(y))
+			b.WriteString(`<circle cx="` + itoa(x) + `" cy="` + itoa(y) + `" r="3" fill="` + colour + `"/>`)
+		}
+		b.WriteString(`<path d="` + d.String() + `" fill="none" stroke="` + colour + `" stroke-width="2"/>`)
+	}
+	b.WriteString(`<g transform="translate(510,20)"><rect width="110" height="72" rx="6" fill="#fff" stroke="#bbb"/>`)
+	for i, e := range [][2]string{{"upper ford", "#4f8a8b"}, {"mill weir", "#c8553d"}, {"sea lock", "#8e5572"}} {
+		b.WriteString(`<g transform="translate(10,` + itoa(16+i*20) + `)"><line x2="18" stroke="` + e[1] + `" stroke-width="2"/><circle cx="9" r="3.5" fill="` + e[1] + `"/><text x="26" y="4">` + e[0] + `</text></g>`)
+	}
+	b.WriteString(`</g></svg>`)
+	ch := walkPage(t, b.String())
+	assert.Equal(t, map[Kind]int{KindPoint: 30, KindLine: 3}, kinds(ch))
+	// Each icon's dot is a swatch, with its line when that was not already
+	// taken for a tick (three equal segments lined up).
+	assert.GreaterOrEqual(t, len(ch.Legend), 3)
+	assert.LessOrEqual(t, len(ch.Legend), 6)
+	assert.Equal(t, 1, ch.Furniture[RoleBackground], "the frame")
+	assert.Equal(t, 3, ch.Furniture[RoleLegendLabel])
+}
+
+// A row legend in a flat drawing (every shape a child of the root, as a
+// canvas-style renderer writes SVG) is found although the swatches have
+// hundreds of siblings: what counts is siblings of the same shape and
+// size.
+func TestFlatRowLegend(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="640" height="400">`)
+	for i, e := range [][2]string{{"east bakery", "#3b6e8f"}, {"west bakery", "#e0a458"}} {
+		x := 200 + i*130
+		b.WriteString(`<rect x="` + itoa(x) + `" y="5" width="25" height="14" fill="` + e[1] + `"/><text x="` + itoa(x+30) + `" y="16">` + e[0] + `</text>`)
+	}
+	for i := 0; i < 60; i++ {
+		h := 40 + (i*67)%200
+		b.WriteString(`<rect x="` + itoa(40+i*9) + `" y="` + itoa(350-h) + `" width="7" height="` + itoa(h) + `" fill="` + []string{"#3b6e8f", "#e0a458"}[i%2] + `"/>`)
+	}
+	b.WriteString(`</svg>`)
+	ch := walkPage(t, b.String())
+	assert.Equal(t, map[Kind]int{KindBar: 60}, kinds(ch))
+	assert.Len(t, ch.Legend, 2)
+}
+
+// Labels tied to pie wedges by leader lines are labels, and the lines
+// too: they are not five text marks and five line marks.
+func TestLeaderLinesTieLabels(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="400" height="400">`)
+	for i, fill := range []string{"#3b6e8f", "#c8553d", "#6a994e", "#e0a458", "#8e5572"} {
+		a0, a1 := float64(i)*72, float64(i+1)*72
+		s0, c0 := math.Sincos(a0 * math.Pi / 180)
+		s1, c1 := math.Sincos(a1 * math.Pi / 180)
+		b.WriteString(fmt.Sprintf(`<path d="M200,200L%.2f,%.2fA100,100,0,0,1,%.2f,%.2fZ" fill="%s"/>`, 200+100*c0, 200+100*s0, 200+100*c1, 200+100*s1, fill))
+		sm, cm := math.Sincos((a0 + a1) / 2 * math.Pi / 180)
+		ex, ey := 200+100*cm, 200+100*sm
+		kx, ky := 200+118*cm, 200+118*sm
+		dir := 1.0
+		if cm < 0 {
+			dir = -1
+		}
+		b.WriteString(fmt.Sprintf(`<polyline points="%.1f %.1f %.1f %.1f %.1f %.1f" fill="none" stroke="%s"/>`, ex, ey, kx, ky, kx+15*dir, ky, fill))
+		b.WriteString(fmt.Sprintf(`<text x="%.1f" y="%.1f">slice %d</text>`, kx+20*dir, ky+4, i))
+	}
+	b.WriteString(`</svg>`)
+	ch := walkPage(t, b.String())
+	assert.Equal(t, map[Kind]int{KindArc: 5}, kinds(ch))
+	assert.Equal(t, 10, ch.Furniture[RoleLabel])
+}

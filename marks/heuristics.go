@@ -69,6 +69,11 @@ type Heuristics struct {
 	SwatchMaxSiblings                      int
 	SwatchMaxSize                          float64
 	SwatchLabelGapMin, SwatchLabelGapExtra float64
+	// LegendFrameArea: a closed shape behind two or more legend entries,
+	// holding them and at most this many times the area of their box, is
+	// the legend's frame. Provisional: frames pad their entries by about
+	// an entry's height on each side.
+	LegendFrameArea float64
 	// RampMinAspect: a lone gradient-filled rectangle at least this many
 	// times longer than wide is a colour ramp in a legend. Evidence:
 	// vega-lite/rect_heatmap, vega-lite/layer_text_heatmap.
@@ -131,7 +136,8 @@ var DefaultHeuristics = Heuristics{
 
 	SwatchMaxSiblings: 20, SwatchMaxSize: 60,
 	SwatchLabelGapMin: 10, SwatchLabelGapExtra: 12,
-	RampMinAspect: 4,
+	LegendFrameArea: 4,
+	RampMinAspect:   4,
 
 	HomogeneousShare: 0.8, SymbolShare: 0.9, MaxSymbolKinds: 12,
 	MixedRectsMin:    4,

@@ -151,6 +151,7 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	texts = append(texts, glyphRuns(h, s, cands)...)
 	classifyFurniture(h, ch, cands)
 	classifyTexts(h, texts)
+	leaderLines(h, cands, texts)
 	legendSwatches(h, cands, texts)
 	assignKinds(h, cands)
 	ch.collect(cands, texts)
@@ -791,6 +792,61 @@ func classifyTexts(h *Heuristics, texts []*cand) {
 	}
 }
 
+// leaderLines: a short open line of two or three points that runs from a
+// closed data shape to within a font size of a text's anchor ties that
+// text to the shape as its label (a pie's outer labels, an annotation).
+// Line and text are both labels.
+func leaderLines(h *Heuristics, cands []*cand, texts []*cand) {
+	if len(texts) == 0 {
+		return
+	}
+	for _, c := range cands {
+		if c.role != RoleMark || c.g.Closed || len(c.g.Subpaths) != 1 || len(c.g.Subpaths[0].Pts) > 3 || c.g.Info.Curves > 0 {
+			continue
+		}
+		pts := c.g.Subpaths[0].Pts
+		ends := [2]Point{pts[0], pts[len(pts)-1]}
+		for k, end := range ends {
+			t := nearestText(texts, end)
+			if t == nil || !onClosedShape(h, cands, c, ends[1-k]) {
+				continue
+			}
+			c.role, t.role = RoleLabel, RoleLabel
+			break
+		}
+	}
+}
+
+// nearestText is the text whose anchor is within a font size (at least
+// 10 px) of p, if any.
+func nearestText(texts []*cand, p Point) *cand {
+	var best *cand
+	bestD := math.Inf(1)
+	for _, t := range texts {
+		fs := 10.0
+		if len(t.n.Geom) >= 3 {
+			fs = max(fs, t.n.Geom[2]*math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det())))
+		}
+		if d := math.Hypot(t.textPos.X-p.X, t.textPos.Y-p.Y); d <= fs && d < bestD {
+			best, bestD = t, d
+		}
+	}
+	return best
+}
+
+// onClosedShape: p lies within AlignTol of the box of a closed shape other
+// than self that is not set aside.
+func onClosedShape(h *Heuristics, cands []*cand, self *cand, p Point) bool {
+	tol := h.AlignTol + 1
+	for _, o := range cands {
+		b := o.g.BBox
+		if o != self && o.role == RoleMark && o.g.Closed && p.X >= b[0]-tol && p.X <= b[0]+b[2]+tol && p.Y >= b[1]-tol && p.Y <= b[1]+b[3]+tol {
+			return true
+		}
+	}
+	return false
+}
+
 // lattice counts the texts that share their row with another text and
 // their column with another (within a pixel).
 func lattice(ts []*cand) int {
@@ -856,64 +912,18 @@ func evenlySpaced(h *Heuristics, ts []*cand, run []int, along func(*cand) float6
 
 // legendSwatches finds legend entries: small marks each with its own label
 // text just to the right, at the same offset for every entry, lined up in
-// a column or a row.
+// a column or a row. A series icon drawn as a short line with a dot on it
+// is one swatch. Then the frame drawn behind the entries is set aside.
 func legendSwatches(h *Heuristics, cands []*cand, texts []*cand) {
-	type pair struct {
-		c      *cand
-		t      *cand
-		dx, dy float64
-	}
-	var pairs []pair
-	// Per parent node, its candidate children (parents are node indices).
-	top := int32(0)
-	for _, c := range cands {
-		top = max(top, c.n.Parent+1)
-	}
-	siblings := make([]int, top)
-	for _, c := range cands {
-		if c.n.Parent >= 0 {
-			siblings[c.n.Parent]++
-		}
-	}
-	for _, c := range cands {
-		// Legend entries come in small groups; a swatch is never one of
-		// dozens of siblings.
-		if c.role != RoleMark || c.n.Parent >= 0 && siblings[c.n.Parent] > h.SwatchMaxSiblings {
-			continue
-		}
-		b := c.g.BBox
-		size := max(b[2], b[3])
-		if size > h.SwatchMaxSize {
-			continue
-		}
-		cy := b[1] + b[3]/2
-		right := b[0] + b[2]
-		var best *cand
-		bestDx := math.Inf(1)
-		for _, t := range texts {
-			if t.role != RoleLabel {
-				continue
-			}
-			fs := 10.0
-			if len(t.n.Geom) >= 3 {
-				fs = t.n.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det()))
-			}
-			dx := t.textPos.X - right
-			dy := math.Abs(t.textPos.Y - fs*0.35 - cy)
-			if dx >= -1 && dx <= max(size, h.SwatchLabelGapMin)+h.SwatchLabelGapExtra && dy <= max(size, fs)*0.6 && dx < bestDx {
-				best, bestDx = t, dx
-			}
-		}
-		if best != nil {
-			pairs = append(pairs, pair{c, best, bestDx, best.textPos.Y - cy})
-		}
-	}
+	pairs := swatchPairs(h, cands, texts)
+	pairs, dots := seriesIcons(h, pairs)
 	// Group pairs by their label offset; an entry needs a second entry
 	// with the same offset lined up with it, and a label of its own.
 	used := map[*cand]int{}
 	for _, p := range pairs {
 		used[p.t]++
 	}
+	var entries []swatchPair
 	for i, a := range pairs {
 		if used[a.t] != 1 {
 			continue
@@ -928,11 +938,171 @@ func legendSwatches(h *Heuristics, cands []*cand, texts []*cand) {
 			if column || row {
 				a.c.role = RoleLegend
 				a.t.role = RoleLegendLabel
+				if d := dots[a.c]; d != nil {
+					d.role = RoleLegend
+				}
+				entries = append(entries, a)
 				break
 			}
 		}
 	}
+	legendFrames(h, cands, entries)
 	colourRamps(h, cands)
+}
+
+// swatchPair is a possible legend entry: a small shape and the label to
+// its right, at offset dx, dy.
+type swatchPair struct {
+	c, t   *cand
+	dx, dy float64
+}
+
+// swatchPairs pairs each small shape with the nearest text to its right.
+// Legend entries come in small groups: a swatch is never one of more than
+// SwatchMaxSiblings siblings of the same shape and size (all of a flat
+// drawing's shapes may share one parent).
+func swatchPairs(h *Heuristics, cands []*cand, texts []*cand) []swatchPair {
+	type sig struct {
+		parent int32
+		shape  Shape
+		w, h   int64
+	}
+	sigOf := func(c *cand) sig {
+		return sig{c.n.Parent, c.g.Shape, int64(math.Round(c.g.BBox[2])), int64(math.Round(c.g.BBox[3]))}
+	}
+	alike := map[sig]int{}
+	for _, c := range cands {
+		alike[sigOf(c)]++
+	}
+	var pairs []swatchPair
+	for _, c := range cands {
+		if c.role != RoleMark || alike[sigOf(c)] > h.SwatchMaxSiblings {
+			continue
+		}
+		b := c.g.BBox
+		size := max(b[2], b[3])
+		if size > h.SwatchMaxSize {
+			continue
+		}
+		cy := b[1] + b[3]/2
+		right := b[0] + b[2]
+		var best *cand
+		bestDx := math.Inf(1)
+		for _, t := range texts {
+			if t.role != RoleLabel && t.role != RoleMark {
+				continue
+			}
+			if t.role == RoleMark && overShape(t, cands) {
+				continue // a value written on a cell or a bar
+			}
+			fs := 10.0
+			if len(t.n.Geom) >= 3 {
+				fs = t.n.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det()))
+			}
+			dx := t.textPos.X - right
+			dy := math.Abs(t.textPos.Y - fs*0.35 - cy)
+			if dx >= -1 && dx <= max(size, h.SwatchLabelGapMin)+h.SwatchLabelGapExtra && dy <= max(size, fs)*0.6 && dx < bestDx {
+				best, bestDx = t, dx
+			}
+		}
+		if best != nil {
+			pairs = append(pairs, swatchPair{c, best, bestDx, best.textPos.Y - cy})
+		}
+	}
+	return pairs
+}
+
+// overShape: the text's anchor lies on a closed shape that is not set
+// aside.
+func overShape(t *cand, cands []*cand) bool {
+	p := t.textPos
+	for _, c := range cands {
+		b := c.g.BBox
+		if c.role == RoleMark && c.g.Closed && p.X >= b[0] && p.X <= b[0]+b[2] && p.Y >= b[1] && p.Y <= b[1]+b[3] {
+			return true
+		}
+	}
+	return false
+}
+
+// textBox is a text's box in page px: the reader's, or one estimated from
+// its anchor, font size and length.
+func textBox(t *cand) [4]float64 {
+	if len(t.n.BBox) == 4 {
+		return [4]float64{t.n.BBox[0], t.n.BBox[1], t.n.BBox[2], t.n.BBox[3]}
+	}
+	fs := 10.0
+	if len(t.n.Geom) >= 3 {
+		fs = t.n.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det()))
+	}
+	return [4]float64{t.textPos.X, t.textPos.Y - 0.8*fs, 0.55 * fs * float64(len([]rune(t.n.Text))), fs}
+}
+
+// seriesIcons merges a short straight line and a dot centred on it that
+// pair with the same label into one swatch, the line, returning the dot
+// kept with each line.
+func seriesIcons(h *Heuristics, pairs []swatchPair) ([]swatchPair, map[*cand]*cand) {
+	byLabel := map[*cand][]int{}
+	for i, p := range pairs {
+		byLabel[p.t] = append(byLabel[p.t], i)
+	}
+	dots := map[*cand]*cand{}
+	drop := map[int]bool{}
+	for _, idx := range byLabel {
+		if len(idx) != 2 {
+			continue
+		}
+		a, b := pairs[idx[0]], pairs[idx[1]]
+		if _, _, ok := straight(&b.c.g); ok {
+			a, b = b, a
+			idx[0], idx[1] = idx[1], idx[0]
+		}
+		p, q, ok := straight(&a.c.g)
+		if !ok || !b.c.g.Closed {
+			continue
+		}
+		mid, c := Point{(p.X + q.X) / 2, (p.Y + q.Y) / 2}, b.c.g.Centroid
+		if math.Hypot(c.X-mid.X, c.Y-mid.Y) <= h.AlignTol+0.25*a.c.g.Length {
+			dots[a.c] = b.c
+			drop[idx[1]] = true
+		}
+	}
+	out := pairs[:0:0]
+	for i, p := range pairs {
+		if !drop[i] {
+			out = append(out, p)
+		}
+	}
+	return out, dots
+}
+
+// legendFrames: a shape drawn before two or more legend entries that
+// holds them, swatches and labels' anchors, and is at most LegendFrameArea
+// times the size of their box, is the legend's frame or background.
+func legendFrames(h *Heuristics, cands []*cand, entries []swatchPair) {
+	if len(entries) < 2 {
+		return
+	}
+	x0, y0, x1, y1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	first := math.MaxInt
+	for _, e := range entries {
+		b, tb := e.c.g.BBox, textBox(e.t)
+		x0, y0 = min(x0, b[0], tb[0]), min(y0, b[1], tb[1])
+		x1, y1 = max(x1, b[0]+b[2], tb[0]+tb[2]), max(y1, b[1]+b[3], tb[1]+tb[3])
+		first = min(first, e.c.node)
+	}
+	area := max(x1-x0, 1) * max(y1-y0, 1)
+	for _, c := range cands {
+		if c.role != RoleMark || c.node > first || !c.g.Closed {
+			continue
+		}
+		b := c.g.BBox
+		// Labels' widths are estimates: they may overrun the frame a little.
+		slack := 0.25 * (x1 - x0)
+		if b[0] <= x0+0.5 && b[1] <= y0+0.5 && b[0]+b[2] >= x1-slack && b[1]+b[3] >= y1-0.5 && b[2]*b[3] <= h.LegendFrameArea*area {
+			c.role = coverRole(c)
+		}
+	}
 }
 
 // colourRamps: a gradient-filled rectangle whose paint no other shape
