@@ -327,21 +327,28 @@ func (g *Geometry) classify() {
 	case len(corners) == 12 && solidity < 0.9 && !curved:
 		g.Shape, g.Fold = ShapeCross, 4
 		g.Angle = foldAngle(cornerPts, g.Centroid, 4, 0)
-	case curved && len(corners) >= 1 && len(corners) <= 4 && g.Info.Arcs > 0:
-		g.Shape, g.Fold = ShapeWedge, 1
-		g.Angle = mod(math.Atan2(g.Centroid.Y-cornerPts[0].Y, g.Centroid.X-cornerPts[0].X)*180/math.Pi, 360)
-	case curved && len(corners) >= 1 && len(corners) <= 4:
-		if c, ok := circularRim(pts, corners); ok {
-			// Drawn with Bézier curves rather than arcs: pointing from
-			// the circle's centre to the centroid.
-			g.Shape, g.Fold = ShapeWedge, 1
-			g.Angle = mod(math.Atan2(g.Centroid.Y-c.Y, g.Centroid.X-c.X)*180/math.Pi, 360)
-		} else {
-			g.Angle = principalAngle(g.Subpaths, g.Centroid)
-		}
+	case curved && len(corners) >= 1 && len(corners) <= 4 && g.wedge(pts, corners):
 	default:
 		g.Angle = principalAngle(g.Subpaths, g.Centroid)
 	}
+}
+
+// wedge classifies a curved outline with one to four corners as a wedge
+// when its curves are arcs, or follow circles about one centre (Bézier
+// curves drawn for arcs), pointing from the apex or the centre to the
+// centroid.
+func (g *Geometry) wedge(pts []Point, corners []int) bool {
+	from := pts[corners[0]]
+	if g.Info.Arcs == 0 {
+		c, ok := circularRim(pts, corners)
+		if !ok {
+			return false
+		}
+		from = c
+	}
+	g.Shape, g.Fold = ShapeWedge, 1
+	g.Angle = mod(math.Atan2(g.Centroid.Y-from.Y, g.Centroid.X-from.X)*180/math.Pi, 360)
+	return true
 }
 
 // circularRim finds the circle that the outline's longest curved stretch
