@@ -293,3 +293,48 @@ func TestLeaderLinesTieLabels(t *testing.T) {
 	assert.Equal(t, map[Kind]int{KindArc: 5}, kinds(ch))
 	assert.Equal(t, 10, ch.Furniture[RoleLabel])
 }
+
+// A colour bar drawn as a strip of graded rectangles, with an outline and
+// two range handles, is a legend, not 24 bars; a heat map's cells beside
+// it stay cells. A ramp drawn as an image takes its outline with it.
+func TestSteppedColourBar(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="640" height="400"><g>`)
+	for r := 0; r < 6; r++ {
+		for c := 0; c < 10; c++ {
+			v := (r*7 + c*3) % 11
+			b.WriteString(fmt.Sprintf(`<rect x="%d" y="%d" width="35" height="35" fill="#%02x%02x%02x"/>`, 50+c*36, 20+r*36, 0xee-v*17, 0xf3-v*15, 0xe8-v*18))
+		}
+	}
+	b.WriteString(`</g><g transform="translate(530,20)">`)
+	for k := 0; k < 24; k++ {
+		v := 23 - k
+		b.WriteString(fmt.Sprintf(`<rect y="%d" width="16" height="9" fill="#%02x%02x%02x"/>`, k*9, 0x2f+v*8, 0x5d+v*6, 0x50+v*6))
+	}
+	b.WriteString(`<rect width="16" height="216" fill="none" stroke="#333"/><path d="M-6,-4L0,0L-6,4Z"/><path d="M-6,212L0,216L-6,220Z"/></g>`)
+	b.WriteString(`<image x="600" y="20" width="12" height="200" href="data:,"/><rect x="600" y="20" width="12" height="200" fill="none" stroke="#333"/></svg>`)
+	ch := walkPage(t, b.String())
+	assert.Equal(t, map[Kind]int{KindCell: 60}, kinds(ch))
+	assert.Len(t, ch.Legend, 24)
+	assert.Equal(t, 4, ch.Furniture[RoleFrame]+ch.Furniture[RoleBackground], "two outlines and two handles")
+}
+
+// A scatter of many points drawn as one compound path, a subpath per
+// point, is that many points, not one area; a letter's outline with its
+// hole is not a cloud.
+func TestCompoundPathScatter(t *testing.T) {
+	var d strings.Builder
+	for i := 0; i < 500; i++ {
+		x, y := 20+float64((i*37)%560), 20+float64((i*91)%360)
+		d.WriteString(fmt.Sprintf("M%.1f %.1fA2 2 0 1 1 %.1f %.1fA2 2 0 0 1 %.1f %.1f", x, y+2, x, y-2, x, y+2))
+	}
+	ch := walkPage(t, `<svg width="600" height="400"><path fill="#6a994e" d="`+d.String()+`"/></svg>`)
+	require.Equal(t, map[Kind]int{KindPoint: 500}, kinds(ch))
+	assert.InDelta(t, 4, ch.Marks[0].BBox[2], 0.2, "each point is measured on its own")
+
+	g, ok, err := Measure(&snapshot.Node{Tag: "path", CTM: snapshot.IdentityMatrix,
+		D: "M0 0H10V14H0Z M3 3H7V11H3Z M20 0H30V14H20Z"})
+	require.True(t, ok)
+	require.NoError(t, err)
+	assert.False(t, pointCloud(&DefaultHeuristics, &g))
+}

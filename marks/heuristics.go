@@ -78,6 +78,9 @@ type Heuristics struct {
 	// times longer than wide is a colour ramp in a legend. Evidence:
 	// vega-lite/rect_heatmap, vega-lite/layer_text_heatmap.
 	RampMinAspect float64
+	// RampMinCells: a colour ramp drawn in steps has at least this many
+	// rectangles. Provisional: stepped ramps use 5 to 256 steps.
+	RampMinCells int
 
 	// HomogeneousShare: a group of closed outlines is one series of glyphs
 	// when its commonest shape makes up this share, or when SymbolShare of
@@ -104,6 +107,11 @@ type Heuristics struct {
 	// vertices is a point symbol (a hexagon, an arrow glyph).
 	PointMaxVertices int
 	PointMaxSize     float64
+	// CloudMinPoints: a compound path of at least this many point-sized
+	// subpaths of one size is a scatter drawn in one path, a point per
+	// subpath. Provisional: renderers switch to one path for large
+	// scatters, of hundreds of points and more.
+	CloudMinPoints int
 	// SymbolStrokesMax and SymbolStrokesSize: two to this many short
 	// crossing strokes within this size are one symbol (a plus, an ×).
 	SymbolStrokesMax  int
@@ -145,6 +153,7 @@ var DefaultHeuristics = Heuristics{
 	SquarePointMax:   24,
 	LatticeAssumed:   2000,
 	PointMaxVertices: 48, PointMaxSize: 60,
+	CloudMinPoints:   3,
 	SymbolStrokesMax: 4, SymbolStrokesSize: 30,
 	GlyphMaxSize: 48, GlyphGap: 1.2,
 }

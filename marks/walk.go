@@ -6,6 +6,7 @@ import (
 	"math"
 	"slices"
 	"standout/snapshot"
+	"strconv"
 	"strings"
 )
 
@@ -107,6 +108,8 @@ type Chart struct {
 	// Selected lists the indices into Marks of the marks that matched the
 	// caller's selector, or sit inside an element that did.
 	Selected []int
+
+	images [][4]float64 // the boxes of raster images, while walking
 }
 
 type cand struct {
@@ -121,6 +124,7 @@ type cand struct {
 	role    Role
 	kind    Kind
 	textPos Point
+	cloud   bool // a compound path drawing one point per subpath
 }
 
 // Walk decides what every element of a chart is: a data mark (and of which
@@ -153,6 +157,7 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	classifyTexts(h, texts)
 	leaderLines(h, cands, texts)
 	legendSwatches(h, cands, texts)
+	colourBars(h, ch, cands)
 	assignKinds(h, cands)
 	ch.collect(cands, texts)
 	ch.selected(s)
@@ -231,6 +236,10 @@ func (ch *Chart) collect(cands, texts []*cand) {
 			if c.role != RoleLegend {
 				ch.Furniture[c.role]++
 			}
+			continue
+		}
+		if c.cloud {
+			ch.Marks = append(ch.Marks, cloudMarks(c)...)
 			continue
 		}
 		ch.Marks = append(ch.Marks, makeMark(c))
@@ -317,6 +326,9 @@ func (ch *Chart) sortOut(c *cand) int {
 	}
 	if nd.Tag == "image" {
 		ch.Furniture[RoleImage]++
+		if g, ok, _ := Measure(nd); ok && finiteBox(g.BBox) {
+			ch.images = append(ch.images, g.BBox)
+		}
 		return notDrawn
 	}
 	g, ok, err := Measure(nd)
@@ -561,16 +573,29 @@ func gridGroups(h *Heuristics, segs []seg) []bool {
 	for _, idx := range byParent {
 		lineUp(idx)
 	}
-	pooled := map[key][]int{}
-	for i, s := range segs {
-		if !grid[i] {
-			k := key{s.vert, -1, int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}
+	// Pooled across parents, by where they start and then by where they
+	// end: two axes' ticks of one length form two groups.
+	for _, end := range []bool{false, true} {
+		pooled := map[key][]int{}
+		for i, s := range segs {
+			if grid[i] {
+				continue
+			}
+			p := s.a
+			if end {
+				p = s.b
+			}
+			at := p.X
+			if s.vert {
+				at = p.Y
+			}
+			k := key{s.vert, int32(math.Round(at)), int64(math.Round(s.L * 2)), s.c.n.Stroke.RGBA}
 			pooled[k] = append(pooled[k], i)
 		}
-	}
-	for _, idx := range pooled {
-		if len(idx) >= h.PooledGroupMin && len(idx) <= h.PooledGroupMax {
-			lineUp(idx)
+		for _, idx := range pooled {
+			if len(idx) >= h.PooledGroupMin && len(idx) <= h.PooledGroupMax {
+				lineUp(idx)
+			}
 		}
 	}
 	return grid
@@ -947,7 +972,6 @@ func legendSwatches(h *Heuristics, cands []*cand, texts []*cand) {
 		}
 	}
 	legendFrames(h, cands, entries)
-	colourRamps(h, cands)
 }
 
 // swatchPair is a possible legend entry: a small shape and the label to
@@ -1105,26 +1129,6 @@ func legendFrames(h *Heuristics, cands []*cand, entries []swatchPair) {
 	}
 }
 
-// colourRamps: a gradient-filled rectangle whose paint no other shape
-// shares, much longer than wide, is a colour ramp in a legend.
-func colourRamps(h *Heuristics, cands []*cand) {
-	paintCount := map[uint32]int{}
-	for _, c := range cands {
-		if c.role == RoleMark && c.n.Fill.Kind == snapshot.PaintServer {
-			paintCount[c.n.Fill.RGBA]++
-		}
-	}
-	for _, c := range cands {
-		if c.role != RoleMark || c.n.Fill.Kind != snapshot.PaintServer || c.g.Shape != ShapeSquare || paintCount[c.n.Fill.RGBA] != 1 {
-			continue
-		}
-		b := c.g.BBox
-		if max(b[2], b[3]) >= h.RampMinAspect*min(b[2], b[3]) {
-			c.role = RoleLegend
-		}
-	}
-}
-
 // assignKinds gives each remaining shape its mark kind. Closed outlines
 // are judged per parent group, by repetition: a data series draws the same
 // kind of glyph many times, while regions (maps, areas) vary.
@@ -1154,6 +1158,8 @@ func assignKinds(h *Heuristics, cands []*cand) {
 				lastParent, last = c.n.Parent, groups[c.n.Parent]
 			}
 			last = append(last, c)
+		case g.Closed && pointCloud(h, g):
+			c.kind, c.cloud = KindPoint, true
 		case !g.Closed && symbolStrokes(h, g):
 			c.kind = KindPoint
 		case !g.Closed:
@@ -1291,6 +1297,45 @@ func pointLike(h *Heuristics, g *Geometry) bool {
 		n += len(s.Pts)
 	}
 	return n <= h.PointMaxVertices && max(g.BBox[2], g.BBox[3]) <= h.PointMaxSize
+}
+
+// pointCloud: a compound outline of at least CloudMinPoints subpaths, all
+// of one size (within a tenth) and point-sized, draws a scatter's points
+// in one path (one subpath per point); holes and letters come in sizes.
+func pointCloud(h *Heuristics, g *Geometry) bool {
+	if len(g.Subpaths) < h.CloudMinPoints {
+		return false
+	}
+	var w0, h0 float64
+	for i, s := range g.Subpaths {
+		x0, y0, x1, y1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+		for _, p := range s.Pts {
+			x0, y0, x1, y1 = min(x0, p.X), min(y0, p.Y), max(x1, p.X), max(y1, p.Y)
+		}
+		w, ht := x1-x0, y1-y0
+		if i == 0 {
+			w0, h0 = w, ht
+		}
+		if max(w, ht) > h.PointMaxSize || math.Abs(w-w0) > 0.1*w0+0.1 || math.Abs(ht-h0) > 0.1*h0+0.1 {
+			return false
+		}
+	}
+	return w0 > 0 && h0 > 0
+}
+
+// cloudMarks makes one point mark per subpath of a point cloud.
+func cloudMarks(c *cand) []Mark {
+	out := make([]Mark, 0, len(c.g.Subpaths))
+	one := *c
+	one.cloud = false
+	for i, s := range c.g.Subpaths {
+		one.g = Geometry{Subpaths: []Subpath{s}, Info: c.g.Info}
+		one.g.measurePolys()
+		m := makeMark(&one)
+		m.ID = c.n.Name + "#" + strconv.Itoa(i)
+		out = append(out, m)
+	}
+	return out
 }
 
 // symbolStrokes: a glyph drawn as a few short crossing strokes (a plus, an
