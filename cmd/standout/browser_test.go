@@ -32,7 +32,8 @@ var update = flag.Bool("update", false, "rewrite the golden files")
 
 func needBrowser(t testing.TB) { testkit.Chromium(t) }
 
-// parityPages are the demo pages and the testdata pages.
+// parityPages are the demo pages, the testdata pages and the generator
+// corpus (testdata/generators).
 func parityPages(t *testing.T) []string {
 	dir := t.TempDir()
 	var out []string
@@ -43,7 +44,7 @@ func parityPages(t *testing.T) []string {
 		require.NoError(t, os.WriteFile(p, b, 0o644))
 		out = append(out, p)
 	}
-	for _, pat := range []string{"../../testdata/*.html", "../../testdata/*.svg"} {
+	for _, pat := range []string{"../../testdata/*.html", "../../testdata/*.svg", "../../testdata/generators/*/*.svg"} {
 		m, _ := filepath.Glob(pat)
 		out = append(out, m...)
 	}
@@ -82,6 +83,8 @@ func TestBrowserPathMatchesStaticPath(t *testing.T) {
 			require.Equal(t, sc.Path, bc.Path)
 			assert.Equal(t, sc.Anchor, bc.Anchor, "%s %s: anchor", pages[i], sc.Path)
 			require.Len(t, bc.Marks, len(sc.Marks), "%s %s", pages[i], sc.Path)
+			assert.Len(t, bc.Legend, len(sc.Legend), "%s %s: legend", pages[i], sc.Path)
+			assert.Equal(t, sc.Furniture, bc.Furniture, "%s %s: furniture", pages[i], sc.Path)
 			require.Len(t, bc.Findings, len(sc.Findings), "%s %s", pages[i], sc.Path)
 			for k, f := range sc.Findings {
 				if f.Fix != nil && bc.Findings[k].Fix != nil {
