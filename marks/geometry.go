@@ -496,13 +496,25 @@ func outerPts(pts []Point, c Point) []Point {
 // principalAngle is the direction of the major axis of the outline's
 // vertex distribution (second moments, length-weighted), within [0, 180).
 func principalAngle(subs []Subpath, c Point) float64 {
+	// The angle does not depend on scale: measure in units of the
+	// outline's extent, so that moments of huge outlines stay finite.
+	k := 0.0
+	for _, s := range subs {
+		for _, p := range s.Pts {
+			k = max(k, math.Abs(p.X-c.X), math.Abs(p.Y-c.Y))
+		}
+	}
+	if !(k > 0) || math.IsInf(k, 0) {
+		return 0
+	}
+	k = 1 / k
 	var sxx, syy, sxy float64
 	for _, s := range subs {
 		for i := 0; i+1 < len(s.Pts)+boolInt(s.Closed); i++ {
 			p, q := s.Pts[i], s.Pts[(i+1)%len(s.Pts)]
-			w := math.Hypot(q.X-p.X, q.Y-p.Y)
-			mx, my := (p.X+q.X)/2-c.X, (p.Y+q.Y)/2-c.Y
-			dx, dy := q.X-p.X, q.Y-p.Y
+			mx, my := ((p.X+q.X)/2-c.X)*k, ((p.Y+q.Y)/2-c.Y)*k
+			dx, dy := (q.X-p.X)*k, (q.Y-p.Y)*k
+			w := math.Hypot(dx, dy)
 			// Second moment of a segment about c.
 			sxx += w * (mx*mx + dx*dx/12)
 			syy += w * (my*my + dy*dy/12)

@@ -167,6 +167,12 @@ func (p *pathParser) flag() (float64, bool) {
 // emit adds a flattened point to the current subpath, which starts at the
 // current point if the last command closed one.
 func (p *pathParser) emit(q Point) error {
+	if !finitePoint(q) {
+		// Sums of coordinates near the float64 limit overflow (a
+		// reflected control point, a curve through them): the outline
+		// stops where it can no longer be drawn.
+		return fmt.Errorf("marks: path data reaches coordinates past the float64 range")
+	}
 	if p.sub == nil {
 		p.subs = append(p.subs, Subpath{Pts: []Point{p.cur}})
 		p.sub = &p.subs[len(p.subs)-1]
@@ -341,6 +347,10 @@ func closeLoops(subs []Subpath) {
 // arcPoints flattens an elliptical arc from p0 to p1 (excluding p0) by the
 // endpoint-to-centre conversion of SVG 1.1 §F.6.5, with the out-of-range
 // radius corrections of §F.6.6.
+func finitePoint(p Point) bool {
+	return !math.IsNaN(p.X) && !math.IsNaN(p.Y) && !math.IsInf(p.X, 0) && !math.IsInf(p.Y, 0)
+}
+
 func arcPoints(p0 Point, rx, ry, phiDeg float64, large, sweep bool, p1 Point) []Point {
 	if p0 == p1 {
 		return nil // §F.6.2: identical endpoints omit the arc
@@ -348,6 +358,12 @@ func arcPoints(p0 Point, rx, ry, phiDeg float64, large, sweep bool, p1 Point) []
 	rx, ry = math.Abs(rx), math.Abs(ry)
 	if rx == 0 || ry == 0 {
 		return []Point{p1} // §F.6.2: a zero radius is a straight line
+	}
+	// The rotation is an angle: reduce it first, since a huge one would
+	// overflow to infinity in radians.
+	phiDeg = math.Mod(phiDeg, 360)
+	if math.IsNaN(phiDeg) {
+		phiDeg = 0
 	}
 	sinPhi, cosPhi := math.Sincos(phiDeg * math.Pi / 180)
 	// Step 1: (x1′, y1′).
@@ -373,6 +389,9 @@ func arcPoints(p0 Point, rx, ry, phiDeg float64, large, sweep bool, p1 Point) []
 	// Step 3: (cx, cy).
 	cx := cosPhi*cx1 - sinPhi*cy1 + (p0.X+p1.X)/2
 	cy := sinPhi*cx1 + cosPhi*cy1 + (p0.Y+p1.Y)/2
+	if !finitePoint(Point{cx, cy}) || !finitePoint(Point{rx, ry}) {
+		return []Point{p1} // magnitudes past float64: drawn as a chord
+	}
 	// Step 4: θ1 and Δθ.
 	ang := func(ux, uy, vx, vy float64) float64 {
 		return math.Atan2(ux*vy-uy*vx, ux*vx+uy*vy)

@@ -18,11 +18,15 @@ import (
 func seedFiles(f *testing.F) [][]byte {
 	var out [][]byte
 	files, _ := filepath.Glob("../testdata/*.*")
-	for _, p := range files {
+	// The generator corpus brings glyph references, Bézier wedges, open
+	// arcs under matrix(...) and compound paths; the smaller files keep
+	// fuzzing fast.
+	gen, _ := filepath.Glob("../testdata/generators/*/*.svg")
+	for _, p := range append(files, gen...) {
 		if strings.HasSuffix(p, ".golden") {
 			continue
 		}
-		if b, err := os.ReadFile(p); err == nil {
+		if b, err := os.ReadFile(p); err == nil && len(b) <= 32<<10 {
 			out = append(out, b)
 		}
 	}
@@ -107,6 +111,9 @@ func FuzzDocument(f *testing.F) {
 	f.Add([]byte(`<svg><g><circle r="NaN"/><rect width="Infinity" height="1"/><path d="M0,0L1e400,0"/>`))
 	f.Add([]byte(`<svg viewBox="0 0 0 0"><use href="#a" id="a"/></svg>`))
 	f.Add([]byte(`<svg><g transform="scale(1e300)"><g transform="scale(1e300)"><circle r="1"/></g></g></svg>`))
+	f.Add([]byte(`<svg xmlns:xlink="http://www.w3.org/1999/xlink"><defs><path id="g" d="M0 0L5 0L5 7Z"/></defs><g transform="translate(5 20) scale(1 -1)"><use xlink:href="#g"/><use xlink:href="#g" x="6"/></g><use xlink:href="#g" x="NaN"/></svg>`))
+	f.Add([]byte(`<svg><path d="M1,0A1,1,0,1,1,0.99995,-0.01" fill="red" transform="matrix(9,0,0,9,40,40)"/><path fill="#000" d="M0 0a2 2 0 1 1 0 .1M9 9a2 2 0 1 1 0 .1M20 5a2 2 0 1 1 0 .1"/></svg>`))
+	f.Add([]byte(`<svg><path d="M 50 50 L 150 50 C 150 105 105 150 50 150 Z" fill="#3b6e8f"/><path d="M 50 50 L 50 150 C -5 150 -50 105 -50 50 Z"/></svg>`))
 	f.Fuzz(func(t *testing.T, b []byte) {
 		if len(b) > 1<<18 {
 			return
