@@ -123,6 +123,16 @@ func newFixSearch(in Input, p Params, em []int) *fixSearch {
 	return fs
 }
 
+// shown is the colour a reader sees when the page paints c at alpha over
+// the background: a fix's rule changes the colour, not the opacity the
+// author gave the mark or its groups.
+func (fs *fixSearch) shown(c colour.SRGB, alpha float64) colour.SRGB {
+	if alpha > 0 && alpha < 0.995 {
+		return colour.Over(colour.RGBA{SRGB: c, A: 1}, alpha, fs.in.Background)
+	}
+	return c
+}
+
 func (fs *fixSearch) sim(v colour.Deficiency, c colour.SRGB) colour.Lab {
 	return colour.SRGBToLab(colour.Simulate(v, fs.p.Severity, c))
 }
@@ -163,11 +173,12 @@ func (fs *fixSearch) recolour(res *Result) *Fix {
 					continue
 				}
 				c = c.Clamped()
-				if colour.ContrastRatio(c, fs.in.Background) < colour.NonTextContrast {
+				seen := fs.shown(c, fs.target.Alpha)
+				if colour.ContrastRatio(seen, fs.in.Background) < colour.NonTextContrast {
 					continue
 				}
-				w, _ := fs.worst(c)
-				cands = append(cands, cand{c, w, colour.DeltaE2000(colour.SRGBToLab(c), own)})
+				w, _ := fs.worst(seen)
+				cands = append(cands, cand{c, w, colour.DeltaE2000(colour.SRGBToLab(seen), own)})
 				if best < 0 || w > cands[best].w {
 					best = len(cands) - 1
 				}
@@ -198,11 +209,11 @@ func (fs *fixSearch) recolour(res *Result) *Fix {
 // recolourWith is the fix that paints the emphasis c, checked by
 // re-running the analysis.
 func (fs *fixSearch) recolourWith(res *Result, c colour.SRGB) *Fix {
-	_, m := fs.worst(c)
+	_, m := fs.worst(fs.shown(c, fs.target.Alpha))
 	f := &Fix{Kind: "recolour-emphasis", CSS: property(&fs.target) + ": " + c.Hex(), Colour: c, Margin: m, Marks: fs.em}
 	f.Verified = verify(fs.in, fs.p, fs.em, res, func(i int, mk *Mark) {
 		if fs.isEm[i] {
-			mk.Colour = c
+			mk.Colour = fs.shown(c, mk.Alpha)
 		}
 	})
 	return f
@@ -217,16 +228,26 @@ const muteMinLightness = 40
 // the one farthest from the emphasis for the worst-off vision type.
 func (fs *fixSearch) mute(res *Result) *Fix {
 	tc := fs.target.Colour
+	// The others keep their opacity: judge each grey as it shows through
+	// the first other mark's.
+	oa := 1.0
+	for i, m := range fs.in.Marks {
+		if !fs.isEm[i] && m.Kind == fs.kind {
+			oa = m.Alpha
+			break
+		}
+	}
 	var bestG colour.SRGB
 	bestGW := -1.0
 	for L := float64(muteMinLightness); L <= 95; L += 2.5 {
 		g := colour.LabToSRGB(colour.Lab{L: L}).Clamped()
-		if colour.ContrastRatio(g, fs.in.Background) < colour.NonTextContrast {
+		seen := fs.shown(g, oa)
+		if colour.ContrastRatio(seen, fs.in.Background) < colour.NonTextContrast {
 			continue
 		}
 		w := math.Inf(1)
 		for _, v := range Visions {
-			w = min(w, colour.NDUnits(fs.sim(v, tc), fs.sim(v, g), fs.nd))
+			w = min(w, colour.NDUnits(fs.sim(v, tc), fs.sim(v, seen), fs.nd))
 		}
 		if w > bestGW {
 			bestG, bestGW = g, w
@@ -238,7 +259,7 @@ func (fs *fixSearch) mute(res *Result) *Fix {
 	g := quantise(bestG)
 	m := map[string]float64{}
 	for _, v := range Visions {
-		m[v.String()] = colour.NDUnits(fs.sim(v, tc), fs.sim(v, g), fs.nd)
+		m[v.String()] = colour.NDUnits(fs.sim(v, tc), fs.sim(v, fs.shown(g, oa)), fs.nd)
 	}
 	var others []int
 	for i := range fs.in.Marks {
@@ -249,7 +270,7 @@ func (fs *fixSearch) mute(res *Result) *Fix {
 	f := &Fix{Kind: "mute-others", CSS: property(&fs.in.Marks[others[0]]) + ": " + g.Hex(), Colour: g, Margin: m, Marks: others}
 	f.Verified = verify(fs.in, fs.p, fs.em, res, func(i int, mk *Mark) {
 		if !fs.isEm[i] && mk.Kind == fs.kind {
-			mk.Colour = g
+			mk.Colour = fs.shown(g, mk.Alpha)
 		}
 	})
 	return f
