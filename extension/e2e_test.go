@@ -678,7 +678,7 @@ func TestE2EPickingAndExport(t *testing.T) {
 	assert.Contains(t, ov, "Declared emphasis (1 mark) stands out for normal: no")
 	// The fix is a rule to paste, its selectors reaching the bars from the
 	// chart's <svg>; the panel carries the reports' glossary.
-	assert.Regexp(t, `<pre class="rule">body &gt; svg:nth-child\(1\) &gt; g:nth-child\(1\) &gt; rect:nth-child\(\d\)[^<]*\{ fill: #[0-9a-f]{6}; \}</pre>`, ov)
+	assert.Regexp(t, `<pre class="rule">body &gt; svg:nth-child\(1\) &gt; g:nth-child\(1\) &gt; rect:nth-child\(\d\)[^<]*\{ fill: #[0-9a-f]{6} !important; \}</pre>`, ov)
 	assert.Contains(t, ov, "What these words mean")
 	// The plot of the time to find the emphasis, rising for a highlight
 	// that blends (the search is serial).

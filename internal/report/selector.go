@@ -121,10 +121,14 @@ func plainClass(c string) bool {
 // emphasis has: .bar:not(.hero)), else by Rule's structural selectors. A
 // class the chart's furniture shares is restyled with the marks; the
 // author knows their classes, and the rule says which it uses.
+//
+// The declaration is !important: charts often paint marks in inline style
+// attributes, which a rule in a style sheet must outweigh to apply.
 func RuleFor(ch *marks.Chart, fix, emphasis []int, decl string) string {
 	if ch.Anchor == "" || len(fix) == 0 {
 		return ""
 	}
+	decl += " !important"
 	if sel := classSelector(ch, fix, emphasis); sel != "" {
 		return ch.Anchor + " " + sel + " { " + decl + "; }"
 	}

@@ -48,13 +48,13 @@ func TestRuleForPrefersClasses(t *testing.T) {
 	ch := &marks.Chart{Path: "svg0", Anchor: "#quays", Marks: []marks.Mark{
 		{ID: "svg0/g0/rect0", Class: "bar"}, {ID: "svg0/g0/rect1", Class: "bar pick"}, {ID: "svg0/g0/rect2", Class: "bar"},
 	}}
-	assert.Equal(t, "#quays .pick { fill: #5c799f; }", RuleFor(ch, []int{1}, []int{1}, "fill: #5c799f"))
-	assert.Equal(t, "#quays .bar:not(.pick) { fill: #5e5e5e; }", RuleFor(ch, []int{0, 2}, []int{1}, "fill: #5e5e5e"))
+	assert.Equal(t, "#quays .pick { fill: #5c799f !important; }", RuleFor(ch, []int{1}, []int{1}, "fill: #5c799f"))
+	assert.Equal(t, "#quays .bar:not(.pick) { fill: #5e5e5e !important; }", RuleFor(ch, []int{0, 2}, []int{1}, "fill: #5e5e5e"))
 	ch.Legend = []marks.Mark{{ID: "svg0/g1/rect0", Class: "pick"}}
-	assert.Equal(t, "#quays > g:nth-child(1) > rect:nth-child(2) { fill: #5c799f; }", RuleFor(ch, []int{1}, []int{1}, "fill: #5c799f"),
+	assert.Equal(t, "#quays > g:nth-child(1) > rect:nth-child(2) { fill: #5c799f !important; }", RuleFor(ch, []int{1}, []int{1}, "fill: #5c799f"),
 		"the legend swatch shares .pick: a path instead")
 	ch.Marks[0].Class, ch.Marks[1].Class = "2x", "2x"
 	ch.Legend = nil
-	assert.Equal(t, "#quays > g:nth-child(1) > rect:nth-child(n+1):nth-child(-n+2) { fill: #5e5e5e; }", RuleFor(ch, []int{0, 1}, nil, "fill: #5e5e5e"),
+	assert.Equal(t, "#quays > g:nth-child(1) > rect:nth-child(n+1):nth-child(-n+2) { fill: #5e5e5e !important; }", RuleFor(ch, []int{0, 1}, nil, "fill: #5e5e5e"),
 		"a class no selector can name plainly (2x) is passed over")
 }
