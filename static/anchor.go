@@ -17,7 +17,7 @@ var plainIdent = regexp.MustCompile(`^[A-Za-z_][A-Za-z0-9_-]*$`)
 // with an id, or from body. The extension's read pass builds the same one
 // (reader.js anchorOf).
 func (b *builder) anchor(svg *html.Node) string {
-	if b.standalone && svg.Parent != nil && svg.Parent.Data == "body" && svg.PrevSibling == nil {
+	if b.standalone && svg.Parent != nil && svg.Parent.Type == html.DocumentNode {
 		return ":root" // an SVG document's own root
 	}
 	if id := attr(svg, "id"); plainIdent.MatchString(id) && b.idCount[id] == 1 {

@@ -95,6 +95,9 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	page := &Page{Source: opt.Source}
 	b := &builder{opt: opt, ids: map[string]*html.Node{}, idCount: map[string]int{}, labelCount: map[string]int{}, page: page,
 		standalone: standaloneSVG(data)}
+	if b.standalone {
+		rootSVG(doc)
+	}
 	if opt.Select == "" {
 		opt.Select = DefaultEmphasisSelector
 	}
@@ -226,6 +229,32 @@ func (b *builder) linkedSheet(href string, order *int) ([]rule, []string) {
 // walkNodes visits n and its descendants in document order without
 // recursion, so deep nesting cannot exhaust the stack. f returns false to
 // skip a node's children.
+// rootSVG makes an SVG document's <svg> the document's root element, as a
+// browser has it, in place of the <html> and <body> the HTML parser wraps
+// it in: so :root, and the :nth-child steps from it, match as they do in
+// the browser.
+func rootSVG(doc *html.Node) {
+	var svg *html.Node
+	walkNodes(doc, func(n *html.Node) bool {
+		if svg == nil && n.Type == html.ElementNode && n.Data == "svg" && n.Namespace == "svg" {
+			svg = n
+		}
+		return svg == nil
+	})
+	if svg == nil {
+		return
+	}
+	svg.Parent.RemoveChild(svg)
+	for c := doc.FirstChild; c != nil; {
+		next := c.NextSibling
+		if c.Type == html.ElementNode {
+			doc.RemoveChild(c)
+		}
+		c = next
+	}
+	doc.AppendChild(svg)
+}
+
 func walkNodes(root *html.Node, f func(*html.Node) bool) {
 	n := root
 	for n != nil {

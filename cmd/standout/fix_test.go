@@ -15,14 +15,19 @@ import (
 
 // withStyle is a copy of the page with css in a <style> at the end of its
 // head, where it moves no element of the body (the fixes' selectors count
-// children).
+// children); in an SVG document, last in the root, after every element
+// the selectors count.
 func withStyle(t *testing.T, page, css string) string {
 	t.Helper()
 	b, err := os.ReadFile(page)
 	require.NoError(t, err)
 	src := string(b)
 	tag := "<style>" + css + "</style>"
-	if i := strings.Index(strings.ToLower(src), "</head>"); i >= 0 {
+	if strings.HasSuffix(page, ".svg") {
+		i := strings.LastIndex(src, "</svg>")
+		require.GreaterOrEqual(t, i, 0, page)
+		src = src[:i] + "<style><![CDATA[" + css + "]]></style>" + src[i:]
+	} else if i := strings.Index(strings.ToLower(src), "</head>"); i >= 0 {
 		src = src[:i] + tag + src[i:]
 	} else {
 		src = "<!doctype html><html><head>" + tag + "</head>" + strings.TrimPrefix(src, "<!doctype html>")

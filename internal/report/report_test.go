@@ -121,3 +121,23 @@ func TestGlossaryFileIsCurrent(t *testing.T) {
 	require.NoError(t, err)
 	assert.Equal(t, b.String(), string(got), "docs/glossary.md is stale: go test ./internal/report -run Glossary -update")
 }
+
+// Mark ids as the report writes them are ids, whatever their steps; the
+// rest is a selector.
+func TestSplitEmphasis(t *testing.T) {
+	for text, ids := range map[string][]string{
+		"svg0/g1/rect2,svg0/g1/rect3":            {"svg0/g1/rect2", "svg0/g1/rect3"},
+		"svg0/g2/use0>path, svg0/g2/use1>path":   {"svg0/g2/use0>path", "svg0/g2/use1>path"},
+		"svg1/path4#17":                          {"svg1/path4#17"},
+		"frame1/svg0/circle3,shadow0/svg2/rect0": {"frame1/svg0/circle3", "shadow0/svg2/rect0"},
+	} {
+		got, sel := SplitEmphasis(text)
+		assert.Equal(t, ids, got, text)
+		assert.Empty(t, sel, text)
+	}
+	for _, sel := range []string{".pick", "svg > circle", "#sales rect:nth-child(3)", "svg0", "circle[data-x='1']"} {
+		got, s := SplitEmphasis(sel)
+		assert.Nil(t, got, sel)
+		assert.Equal(t, sel, s)
+	}
+}

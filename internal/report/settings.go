@@ -2,6 +2,7 @@ package report
 
 import (
 	"fmt"
+	"regexp"
 	"strconv"
 	"strings"
 
@@ -81,13 +82,25 @@ func (s Settings) Options() (Options, error) {
 	return opt, nil
 }
 
+// markID is the grammar of a mark id: the chart's path (within a
+// frame or shadow root: after its "frame1/" or "shadow0/"), then element
+// steps joined by "/" (children) and ">" (content a <use> instantiates),
+// and "#k" for the k-th point of a scatter drawn as one path.
+var markID = regexp.MustCompile(`^(?:(?:shadow|frame)\d+/)*svg\d+(?:[/>][a-zA-Z][a-zA-Z0-9_-]*)+(?:#\d+)?$`)
+
 // SplitEmphasis reads an emphasis as a person types it: mark ids
-// ("svg0/g1/rect2,svg0/g1/rect3": paths with slashes and no selector
-// punctuation) or else a CSS selector.
+// ("svg0/g1/rect2,svg0/g1/rect3", each as the report gives it) or else a
+// CSS selector.
 func SplitEmphasis(text string) (ids []string, selector string) {
 	text = strings.TrimSpace(text)
-	if strings.Contains(text, "/") && !strings.ContainsAny(text, "#.[]:> ") {
-		return strings.Split(text, ","), ""
+	items := strings.Split(text, ",")
+	for _, it := range items {
+		if !markID.MatchString(strings.TrimSpace(it)) {
+			return nil, text
+		}
 	}
-	return nil, text
+	for i := range items {
+		items[i] = strings.TrimSpace(items[i])
+	}
+	return items, ""
 }
