@@ -999,6 +999,7 @@ func swatchPairs(h *Heuristics, cands []*cand, texts []*cand) []swatchPair {
 		alike[sigOf(c)]++
 	}
 	var pairs []swatchPair
+	on := overShapes{}
 	for _, c := range cands {
 		if c.role != RoleMark || alike[sigOf(c)] > h.SwatchMaxSiblings {
 			continue
@@ -1016,9 +1017,6 @@ func swatchPairs(h *Heuristics, cands []*cand, texts []*cand) []swatchPair {
 			if t.role != RoleLabel && t.role != RoleMark {
 				continue
 			}
-			if t.role == RoleMark && overShape(t, cands) {
-				continue // a value written on a cell or a bar
-			}
 			fs := 10.0
 			if len(t.n.Geom) >= 3 {
 				fs = t.n.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det()))
@@ -1026,6 +1024,9 @@ func swatchPairs(h *Heuristics, cands []*cand, texts []*cand) []swatchPair {
 			dx := t.textPos.X - right
 			dy := math.Abs(t.textPos.Y - fs*0.35 - cy)
 			if dx >= -1 && dx <= max(size, h.SwatchLabelGapMin)+h.SwatchLabelGapExtra && dy <= max(size, fs)*0.6 && dx < bestDx {
+				if t.role == RoleMark && on.over(t, cands) {
+					continue // a value written on a cell or a bar
+				}
 				best, bestDx = t, dx
 			}
 		}
@@ -1036,8 +1037,19 @@ func swatchPairs(h *Heuristics, cands []*cand, texts []*cand) []swatchPair {
 	return pairs
 }
 
-// overShape: the text's anchor lies on a closed shape that is not set
-// aside.
+// overShapes remembers, per text, whether its anchor lies on a closed
+// shape that is not set aside: a value written on a cell or a bar.
+type overShapes map[*cand]bool
+
+func (o overShapes) over(t *cand, cands []*cand) bool {
+	v, ok := o[t]
+	if !ok {
+		v = overShape(t, cands)
+		o[t] = v
+	}
+	return v
+}
+
 func overShape(t *cand, cands []*cand) bool {
 	p := t.textPos
 	for _, c := range cands {
