@@ -376,3 +376,40 @@ func TestViewFlagsRefuseBadInput(t *testing.T) {
 		assert.Contains(t, errs, "standout check: --", "%v", args)
 	}
 }
+
+// Charts drawn as pixels, a canvas and an <img>, each with one bar of
+// twelve highlighted (testdata/rasters.html): check --browser captures
+// their pixels and the strongest region of their saliency map (Itti, Koch
+// & Niebur 1998) covers the highlighted bar, for normal vision; each
+// vision type has its own regions. The static reader, which has no
+// pixels, names them only.
+func TestRasterChartsSalientRegions(t *testing.T) {
+	needBrowser(t)
+	page := filepath.Join("testdata", "rasters.html")
+	code, out, errs := runCmd("check", "--browser", "--json", page)
+	require.Equal(t, 0, code, errs)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	us := rep.Pages[0].Unchecked
+	require.Len(t, us, 2)
+	for _, u := range us {
+		require.NotEmpty(t, u.Regions, u.Name)
+		// The highlighted bar, pier 6, in the chart's own pixels.
+		bar := [4]float64{u.Box[0] + 210, u.Box[1] + 155, 26, 125}
+		cx, cy := bar[0]+bar[2]/2, bar[1]+bar[3]/2
+		r := u.Regions[0]
+		assert.True(t, cx >= r.Box[0] && cx <= r.Box[0]+r.Box[2] && cy >= r.Box[1] && cy <= r.Box[1]+r.Box[3],
+			"%s: strongest region %v, highlighted bar %v", u.Name, r.Box, bar)
+		assert.Equal(t, 1.0, r.Salience)
+		for k := 1; k < len(u.Regions); k++ {
+			assert.LessOrEqual(t, u.Regions[k].Salience, u.Regions[k-1].Salience, "strongest first")
+		}
+		assert.Len(t, u.CVD, 4, "protan, deutan, tritan, achromat")
+	}
+	code, out, errs = runCmd("check", "--json", page)
+	require.Equal(t, 0, code, errs)
+	var static report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &static))
+	require.Len(t, static.Pages[0].Unchecked, 2)
+	assert.Empty(t, static.Pages[0].Unchecked[0].Regions)
+}

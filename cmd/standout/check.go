@@ -171,7 +171,7 @@ func checkInBrowser(cf *checkFlags, rep *report.Report, progress *progress, stde
 		}
 		urls, names = append(urls, u), append(names, a)
 	}
-	o := browser.ReadOptions{Tabs: cf.tabs, Screenshot: cf.pngDir != "", Emphasis: cf.opt.Selector, Timeout: cf.timeout, Views: cf.views,
+	o := browser.ReadOptions{Tabs: cf.tabs, Screenshot: cf.pngDir != "", Rasters: true, Emphasis: cf.opt.Selector, Timeout: cf.timeout, Views: cf.views,
 		Progress: func(done, total int, r *browser.PageResult) { progress.step(done, r.URL, r.Err) }}
 	results, err := readInBrowser(exe, urls, o, stderr)
 	if err != nil {

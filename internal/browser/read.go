@@ -24,6 +24,9 @@ type PageResult struct {
 	JSON string
 	// Screenshot is a PNG of the page's full height when requested.
 	Screenshot []byte
+	// Rasters are PNGs of the page's charts drawn as pixels, by the name
+	// the read pass gave each (canvas0, img1), when requested.
+	Rasters map[string][]byte
 	// LoadMs and ReadMs time the page load (until the DOM is stable) and
 	// the read pass.
 	LoadMs, ReadMs float64
@@ -36,6 +39,9 @@ type ReadOptions struct {
 	Tabs int
 	// Screenshot asks for a full-page PNG of each page.
 	Screenshot bool
+	// Rasters asks for a PNG of each chart drawn as pixels (up to
+	// MaxRasterShots a page), cut from the rendered page by its box.
+	Rasters bool
 	// Timeout bounds each page.
 	Timeout time.Duration
 	// Progress, if set, is called after each page.
@@ -226,6 +232,12 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 	}
 	r.JSON = js
 	r.ReadMs = float64(time.Since(t1).Microseconds()) / 1000
+	if o.Rasters {
+		if r.Rasters, err = rasterShots(ctx, js); err != nil {
+			r.Err = fmt.Errorf("capturing the charts drawn as pixels on %s: %w", url, err)
+			return r
+		}
+	}
 	if o.Screenshot {
 		shot, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
 			beyond := true
@@ -239,4 +251,44 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 		r.Screenshot = shot
 	}
 	return r
+}
+
+// MaxRasterShots bounds the charts drawn as pixels captured on one page.
+const MaxRasterShots = 16
+
+// rasterShots captures each chart drawn as pixels that the read pass
+// named (its result's rasters: name and box in page CSS px), as a PNG at
+// one image pixel per CSS px, from beyond the viewport where it lies
+// there.
+func rasterShots(ctx context.Context, readJSON string) (map[string][]byte, error) {
+	var res struct {
+		Rasters []struct {
+			Name string     `json:"name"`
+			Box  [4]float64 `json:"box"`
+		} `json:"rasters"`
+	}
+	if err := json.Unmarshal([]byte(readJSON), &res); err != nil {
+		return nil, err
+	}
+	out := map[string][]byte{}
+	for _, rr := range res.Rasters {
+		if len(out) >= MaxRasterShots {
+			break
+		}
+		b := rr.Box
+		if !(b[2] >= 1 && b[3] >= 1) || b[2] > 8192 || b[3] > 8192 {
+			continue
+		}
+		shot, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
+			beyond := true
+			clip := &page.Viewport{X: b[0], Y: b[1], Width: b[2], Height: b[3], Scale: 1}
+			res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng, Clip: clip, CaptureBeyondViewport: &beyond})
+			return res.Data, err
+		})
+		if err != nil {
+			return nil, err
+		}
+		out[rr.Name] = shot
+	}
+	return out, nil
 }

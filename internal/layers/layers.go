@@ -14,8 +14,9 @@ var Layer = map[string]int{
 	"internal/browser":  0, // headless Chromium through chromedp
 	"internal/layers":   0, // this table
 
-	"snapshot":   1, // a chart as rendered and its JSON form
-	"perception": 1, // the perception model
+	"snapshot":            1, // a chart as rendered and its JSON form
+	"perception":          1, // the perception model
+	"perception/saliency": 1, // the saliency map of charts drawn as pixels
 
 	"static": 2, // markup and CSS into snapshots
 	"marks":  2, // snapshots into marks: the walk

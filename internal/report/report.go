@@ -108,6 +108,19 @@ type Unchecked struct {
 	Kind string     `json:"kind"`
 	Name string     `json:"name"`
 	Box  [4]float64 `json:"box"`
+	// Regions are the most salient regions of its pixels, strongest
+	// first, from the saliency map of Itti, Koch & Niebur (1998), when
+	// the browser could capture them (minor 3); CVD holds the same for
+	// each vision type, the map re-run on the simulated pixels.
+	Regions []Region            `json:"regions,omitempty"`
+	CVD     map[string][]Region `json:"cvd,omitempty"`
+}
+
+// Region is a salient region of a chart drawn as pixels: its box in page
+// CSS px and its salience relative to the strongest region's (1).
+type Region struct {
+	Box      [4]float64 `json:"box"`
+	Salience float64    `json:"salience"`
 }
 
 // UncheckedOf names the rasters a reader found.
@@ -136,7 +149,14 @@ func UncheckedNotes(us []Unchecked) []string {
 		if strings.ContainsRune("aeiou", rune(u.Kind[0])) {
 			art = "an "
 		}
-		out = append(out, u.Name+", "+art+u.Kind+" "+size+", was not checked: a chart drawn as pixels has no marks to read; check it by eye, or draw it as SVG.")
+		note := u.Name + ", " + art + u.Kind + " " + size + ", was not checked: a chart drawn as pixels has no marks to read; check it by eye, or draw it as SVG."
+		if len(u.Regions) > 0 {
+			b := u.Regions[0].Box
+			note += " Its pixels' most salient region (a prediction of where the eye goes first) is the " +
+				strconv.FormatFloat(math.Round(b[2]), 'f', 0, 64) + "×" + strconv.FormatFloat(math.Round(b[3]), 'f', 0, 64) + " px at " +
+				strconv.FormatFloat(math.Round(b[0]), 'f', 0, 64) + ", " + strconv.FormatFloat(math.Round(b[1]), 'f', 0, 64) + "."
+		}
+		out = append(out, note)
 	}
 	return out
 }

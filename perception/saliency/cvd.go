@@ -1,0 +1,40 @@
+package saliency
+
+import "standout/perception/colour"
+
+// Simulated is img as a reader with deficiency d at severity sees it
+// (colour.Simulate per pixel; charts have few colours, so each distinct
+// 8-bit colour is simulated once).
+func Simulated(img *Image, d colour.Deficiency, severity float64) *Image {
+	out := NewImage(img.W, img.H)
+	cache := map[uint32][3]float32{}
+	for i := range img.R {
+		r8, g8, b8 := to8(img.R[i]), to8(img.G[i]), to8(img.B[i])
+		k := uint32(r8)<<16 | uint32(g8)<<8 | uint32(b8)
+		v, ok := cache[k]
+		if !ok {
+			s := colour.Simulate(d, severity, colour.SRGB8(r8, g8, b8))
+			v = [3]float32{float32(s.R), float32(s.G), float32(s.B)}
+			cache[k] = v
+		}
+		out.R[i], out.G[i], out.B[i] = v[0], v[1], v[2]
+	}
+	return out
+}
+
+func to8(v float32) uint8 {
+	switch {
+	case !(v > 0):
+		return 0
+	case v >= 1:
+		return 255
+	}
+	return uint8(v*255 + 0.5)
+}
+
+// Covers says whether the region's box holds the centre of box b (both
+// in the same pixels).
+func (r Region) Covers(b [4]float64) bool {
+	cx, cy := b[0]+b[2]/2, b[1]+b[3]/2
+	return cx >= r.Box[0] && cx <= r.Box[0]+r.Box[2] && cy >= r.Box[1] && cy <= r.Box[1]+r.Box[3]
+}
