@@ -213,6 +213,9 @@ func pageFromRead(name string, r browser.PageResult, opt report.Options) (report
 	if err != nil {
 		return report.Page{}, fmt.Errorf("the read pass returned bad data: %w", err)
 	}
+	if err := mergeFrames(pg, r.Frames); err != nil {
+		return report.Page{}, err
+	}
 	rp, err := report.FromSnapshots(name, pg.Snapshots, pg.Problems, opt)
 	rp.Unchecked = report.UncheckedOf(pg.Rasters)
 	rasterRegions(rp.Unchecked, r.Rasters, opt.Params.Severity)

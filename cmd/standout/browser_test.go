@@ -413,3 +413,58 @@ func TestRasterChartsSalientRegions(t *testing.T) {
 	require.Len(t, static.Pages[0].Unchecked, 2)
 	assert.Empty(t, static.Pages[0].Unchecked[0].Regions)
 }
+
+// A page on one loopback origin embeds a chart page served from another
+// (a different port is a different origin), beside a canvas chart and an
+// <img> chart: the read pass cannot enter the frame, but check --browser
+// reads it through CDP, with its chart's marks in page coordinates under
+// the frame's name, and judges the two raster charts by their pixels.
+func TestCrossOriginFrameAndRasters(t *testing.T) {
+	needBrowser(t)
+	var bars strings.Builder
+	bars.WriteString(`<!doctype html><html><body style="margin:0"><svg width="300" height="200" aria-label="Ferry crossings by quay">`)
+	for k := 0; k < 8; k++ {
+		fill := "#7d8a99"
+		if k == 3 {
+			fill = "#d1495b"
+		}
+		fmt.Fprintf(&bars, `<rect x="%d" y="%d" width="24" height="%d" fill="%s"/>`, 20+k*34, 180-(40+k*17%120), 40+k*17%120, fill)
+	}
+	bars.WriteString(`</svg></body></html>`)
+	framed := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprint(w, bars.String())
+	}))
+	defer framed.Close()
+	rasters, err := os.ReadFile(filepath.Join("testdata", "rasters.html"))
+	require.NoError(t, err)
+	frame := `<iframe src="` + framed.URL + `/quays.html" width="320" height="220" style="border:4px solid #ccc;margin:30px 0 0 50px;display:block"></iframe>`
+	host := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprint(w, strings.Replace(string(rasters), "<body>", "<body>"+frame, 1))
+	}))
+	defer host.Close()
+
+	code, out, errs := runCmd("check", "--browser", "--json", host.URL+"/page.html")
+	require.Equal(t, 0, code, errs)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	p := rep.Pages[0]
+	require.Len(t, p.Charts, 1, "the framed chart: %v", p.Problems)
+	c := p.Charts[0]
+	assert.Equal(t, "frame0/svg0", c.Path)
+	require.Len(t, c.Marks, 8)
+	// The frame's content starts past its 50 px margin and 4 px border.
+	assert.InDelta(t, 54, c.Box[0], 1)
+	assert.InDelta(t, 54+20, c.Marks[0].BBox[0], 1, "a mark's box is in page px")
+	for _, pr := range p.Problems {
+		assert.NotContains(t, pr, "not readable", "the frame was read")
+	}
+	require.Len(t, p.Unchecked, 2)
+	for _, u := range p.Unchecked {
+		require.NotEmpty(t, u.Regions, u.Name)
+		bar := [4]float64{u.Box[0] + 210, u.Box[1] + 155, 26, 125}
+		r := u.Regions[0].Box
+		assert.True(t, bar[0]+13 >= r[0] && bar[0]+13 <= r[0]+r[2] && bar[1]+62 >= r[1] && bar[1]+62 <= r[1]+r[3], "%s: %v", u.Name, r)
+	}
+}

@@ -27,6 +27,8 @@ type PageResult struct {
 	// Rasters are PNGs of the page's charts drawn as pixels, by the name
 	// the read pass gave each (canvas0, img1), when requested.
 	Rasters map[string][]byte
+	// Frames are the read pass's results in frames of other origins.
+	Frames []FrameRead
 	// LoadMs and ReadMs time the page load (until the DOM is stable) and
 	// the read pass.
 	LoadMs, ReadMs float64
@@ -170,7 +172,7 @@ func ReadPages(browserCtx context.Context, urls []string, o ReadOptions) []PageR
 
 // isolatedWorld creates an isolated world in the page's main frame and
 // returns the option that evaluates there.
-func isolatedWorld(ctx context.Context) (chromedp.EvaluateOption, error) {
+func isolatedWorld(ctx context.Context) (chromedp.EvaluateOption, runtime.ExecutionContextID, error) {
 	id, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (runtime.ExecutionContextID, error) {
 		tree, err := cdp.Call(ctx, tg, page.GetFrameTree, cdp.Empty{})
 		if err != nil {
@@ -180,9 +182,9 @@ func isolatedWorld(ctx context.Context) (chromedp.EvaluateOption, error) {
 		return w.ExecutionContextID, err
 	})
 	if err != nil {
-		return nil, fmt.Errorf("creating an isolated world: %w", err)
+		return nil, 0, fmt.Errorf("creating an isolated world: %w", err)
 	}
-	return func(p *runtime.EvaluateParams) { p.ContextID = id }, nil
+	return func(p *runtime.EvaluateParams) { p.ContextID = id }, id, nil
 }
 
 func readOne(bctx context.Context, url, reader string, o ReadOptions, view View) PageResult {
@@ -209,7 +211,7 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 	// scripts can neither see nor replace the read pass's globals (a page
 	// that predefined standoutReader could otherwise forge its result) nor
 	// the built-ins the read pass calls.
-	world, err := isolatedWorld(ctx)
+	world, worldID, err := isolatedWorld(ctx)
 	if err != nil {
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r
@@ -230,10 +232,15 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r
 	}
+	// Frames of other origins, which the read pass cannot enter, CDP can.
+	if r.Frames, js, err = readOtherOrigins(ctx, js, reader, string(opts), worldID); err != nil {
+		r.Err = fmt.Errorf("reading the frames of %s: %w", url, err)
+		return r
+	}
 	r.JSON = js
 	r.ReadMs = float64(time.Since(t1).Microseconds()) / 1000
 	if o.Rasters {
-		if r.Rasters, err = rasterShots(ctx, js); err != nil {
+		if r.Rasters, err = rasterShots(ctx, js, r.Frames); err != nil {
 			r.Err = fmt.Errorf("capturing the charts drawn as pixels on %s: %w", url, err)
 			return r
 		}
@@ -257,21 +264,33 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 const MaxRasterShots = 16
 
 // rasterShots captures each chart drawn as pixels that the read pass
-// named (its result's rasters: name and box in page CSS px), as a PNG at
+// named, in the page or in a frame of another origin (its result's
+// rasters: name and box in page CSS px), as a PNG at
 // one image pixel per CSS px, from beyond the viewport where it lies
 // there.
-func rasterShots(ctx context.Context, readJSON string) (map[string][]byte, error) {
-	var res struct {
-		Rasters []struct {
-			Name string     `json:"name"`
-			Box  [4]float64 `json:"box"`
-		} `json:"rasters"`
+func rasterShots(ctx context.Context, readJSON string, frames []FrameRead) (map[string][]byte, error) {
+	type raster struct {
+		Name string     `json:"name"`
+		Box  [4]float64 `json:"box"`
 	}
-	if err := json.Unmarshal([]byte(readJSON), &res); err != nil {
-		return nil, err
+	var all []raster
+	for k := -1; k < len(frames); k++ {
+		var res struct {
+			Rasters []raster `json:"rasters"`
+		}
+		src, prefix, dx, dy := readJSON, "", 0.0, 0.0
+		if k >= 0 {
+			src, prefix, dx, dy = frames[k].JSON, frames[k].Prefix, frames[k].Dx, frames[k].Dy
+		}
+		if err := json.Unmarshal([]byte(src), &res); err != nil {
+			return nil, err
+		}
+		for _, r := range res.Rasters {
+			all = append(all, raster{prefix + r.Name, [4]float64{r.Box[0] + dx, r.Box[1] + dy, r.Box[2], r.Box[3]}})
+		}
 	}
 	out := map[string][]byte{}
-	for _, rr := range res.Rasters {
+	for _, rr := range all {
 		if len(out) >= MaxRasterShots {
 			break
 		}

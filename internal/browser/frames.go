@@ -1,0 +1,141 @@
+package browser
+
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+	"regexp"
+	"strings"
+
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/dom"
+	"github.com/chromedp/cdproto/page"
+	"github.com/chromedp/cdproto/runtime"
+	"github.com/chromedp/chromedp"
+)
+
+// FrameRead is the read pass's result in a frame of another origin, which
+// the read pass in the top document cannot enter but CDP can: its JSON,
+// the prefix its charts' paths take in the page (the top reader's name
+// for the frame, "frame2/"), and the offset of its content box in page
+// CSS px, which its boxes are shifted by.
+type FrameRead struct {
+	Prefix string
+	Dx, Dy float64
+	JSON   string
+}
+
+// unreadFrame matches the top reader's note on a frame it could not
+// enter: its name and its src attribute.
+var unreadFrame = regexp.MustCompile(`^(frame\d+) \((.*)\): not readable \(a cross-origin frame\)`)
+
+// readOtherOrigins runs the read pass in each child frame of the top
+// document whose origin differs from the page's, in an isolated world of
+// its own, and returns what it read, and the top reader's JSON without the
+// notes on the frames that were read. Frames of another site, which a
+// browser with site isolation runs in a process of their own, are not
+// reached here and keep their note.
+func readOtherOrigins(ctx context.Context, topJSON, reader, opts string, top runtime.ExecutionContextID) ([]FrameRead, string, error) {
+	tree, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (*page.FrameTree, error) {
+		t, err := cdp.Call(ctx, tg, page.GetFrameTree, cdp.Empty{})
+		return t.FrameTree, err
+	})
+	if err != nil || tree == nil || tree.Frame == nil {
+		return nil, topJSON, err
+	}
+	var res map[string]json.RawMessage
+	if err := json.Unmarshal([]byte(topJSON), &res); err != nil {
+		return nil, topJSON, err
+	}
+	var problems []string
+	_ = json.Unmarshal(res["problems"], &problems)
+	var out []FrameRead
+	for _, child := range tree.ChildFrames {
+		f := child.Frame
+		if f == nil || f.SecurityOrigin == tree.Frame.SecurityOrigin || f.SecurityOrigin == "" || f.SecurityOrigin == "null" {
+			continue
+		}
+		fr, src, err := readFrame(ctx, f.ID, reader, opts, top)
+		if err != nil {
+			return nil, topJSON, fmt.Errorf("frame %s: %w", f.URL, err)
+		}
+		// The top reader's name for the frame, found by its note.
+		for k, p := range problems {
+			if m := unreadFrame.FindStringSubmatch(p); m != nil && m[2] == src {
+				fr.Prefix = m[1] + "/"
+				problems = append(problems[:k], problems[k+1:]...)
+				break
+			}
+		}
+		if fr.Prefix == "" {
+			fr.Prefix = fmt.Sprintf("xframe%d/", len(out))
+		}
+		out = append(out, fr)
+	}
+	if len(out) == 0 {
+		return nil, topJSON, nil
+	}
+	if res["problems"], err = json.Marshal(problems); err != nil {
+		return nil, topJSON, err
+	}
+	merged, err := json.Marshal(res)
+	return out, string(merged), err
+}
+
+// readFrame reads one frame: the read pass in an isolated world of the
+// frame, and the frame element's content box, from the top document's
+// world.
+func readFrame(ctx context.Context, id cdp.FrameID, reader, opts string, top runtime.ExecutionContextID) (FrameRead, string, error) {
+	var fr FrameRead
+	var src string
+	_, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (struct{}, error) {
+		w, err := cdp.Call(ctx, tg, page.CreateIsolatedWorld, page.CreateIsolatedWorldParams{FrameID: id, WorldName: "standout"})
+		if err != nil {
+			return struct{}{}, err
+		}
+		in := func(p *runtime.EvaluateParams) { p.ContextID = w.ExecutionContextID }
+		if _, err := chromedp.Evaluate[chromedp.Void](reader, in)(ctx, tg); err != nil {
+			return struct{}{}, err
+		}
+		if fr.JSON, err = chromedp.Evaluate[string](`globalThis.standoutReader.readPage(document, `+opts+`).then((p) => JSON.stringify(p))`, chromedp.EvalAwaitPromise, in)(ctx, tg); err != nil {
+			return struct{}{}, err
+		}
+		owner, err := cdp.Call(ctx, tg, dom.GetFrameOwner, dom.GetFrameOwnerParams{FrameID: id})
+		if err != nil {
+			return struct{}{}, err
+		}
+		node, err := cdp.Call(ctx, tg, dom.ResolveNode, dom.ResolveNodeParams{BackendNodeID: owner.BackendNodeID, ExecutionContextID: top})
+		if err != nil || node.Object == nil {
+			return struct{}{}, fmt.Errorf("finding the frame's element: %v", err)
+		}
+		byValue := true
+		got, err := cdp.Call(ctx, tg, runtime.CallFunctionOn, runtime.CallFunctionOnParams{ObjectID: node.Object.ObjectID, ReturnByValue: &byValue,
+			FunctionDeclaration: frameBoxJS})
+		if err != nil || got.Result == nil {
+			return struct{}{}, fmt.Errorf("measuring the frame: %v", err)
+		}
+		var box struct {
+			X, Y float64
+			Src  string
+		}
+		if err := json.Unmarshal(got.Result.Value, &box); err != nil {
+			return struct{}{}, err
+		}
+		fr.Dx, fr.Dy, src = box.X, box.Y, box.Src
+		return struct{}{}, nil
+	})
+	return fr, strings.TrimSpace(src), err
+}
+
+// frameBoxJS gives a frame element's content box origin in page CSS px
+// (past its border and padding, as the read pass measures same-origin
+// frames) and its src attribute as the read pass quotes it.
+const frameBoxJS = `function () {
+  const r = this.getBoundingClientRect();
+  const cs = getComputedStyle(this);
+  return {
+    x: window.scrollX + r.left + (parseFloat(cs.borderLeftWidth) || 0) + (parseFloat(cs.paddingLeft) || 0),
+    y: window.scrollY + r.top + (parseFloat(cs.borderTopWidth) || 0) + (parseFloat(cs.paddingTop) || 0),
+    src: (this.getAttribute('src') || '').slice(0, 120),
+  };
+}`
