@@ -303,6 +303,11 @@ func emphasisFound(cf *checkFlags, rep *report.Report) error {
 // reaches says whether a finding of the report reaches the rank.
 func reaches(rep *report.Report, rank int) bool {
 	for _, p := range rep.Pages {
+		for _, f := range p.Findings {
+			if perception.Severity(f.Severity).Rank() >= rank {
+				return true
+			}
+		}
 		for _, c := range p.Charts {
 			for _, f := range c.Findings {
 				if perception.Severity(f.Severity).Rank() >= rank {
@@ -348,6 +353,7 @@ func checkReader(name string, r io.Reader, sheets fs.FS, opt report.Options) (re
 	}
 	rp, err := report.FromSnapshots(name, page.Charts, page.Problems, opt)
 	rp.Unchecked = report.UncheckedOf(page.Rasters)
+	report.PageFindings(&rp)
 	return rp, err
 }
 

@@ -183,3 +183,44 @@ func TestPixelChartsAreNamedAndFailTheGate(t *testing.T) {
 		{Kind: "image", Name: "img0", Box: [4]float64{0, 0, 420, 180}},
 	}, rep.Pages[0].Unchecked)
 }
+
+// What a check could not read is a warning on the page, naming what to do,
+// and --fail-on warning fails on it: a page with no chart at all, a chart
+// drawn as pixels whose pixels the static reader cannot judge, and a style
+// sheet it did not load. A page with a readable chart and none of these
+// has no page finding.
+func TestUnreadIsAWarning(t *testing.T) {
+	dir := t.TempDir()
+	for name, c := range map[string]struct {
+		body string
+		ids  []string
+	}{
+		"empty.html":  {`<!doctype html><p>Ferry news, in words only.</p>`, []string{"no-chart-found"}},
+		"canvas.html": {`<!doctype html><canvas width="480" height="200"></canvas>`, []string{"pixels-unread"}},
+		"sheet.html": {`<!doctype html><link rel="stylesheet" href="https://cdn.example/quays.css">` + lostEmphasis,
+			[]string{"style-sheet-unread"}},
+	} {
+		t.Run(name, func(t *testing.T) {
+			page := writePage(t, dir, name, c.body)
+			code, out, _ := runCmd("check", "--json", page)
+			require.Equal(t, 0, code)
+			var rep report.Report
+			require.NoError(t, json.Unmarshal([]byte(out), &rep))
+			var ids []string
+			for _, f := range rep.Pages[0].Findings {
+				ids = append(ids, f.ID)
+				assert.Equal(t, "warning", f.Severity)
+				assert.NotEmpty(t, f.Message)
+			}
+			assert.Equal(t, c.ids, ids)
+			code, _, _ = runCmd("check", "--fail-on", "warning", page)
+			assert.Equal(t, 1, code, "--fail-on warning")
+		})
+	}
+	page := writePage(t, dir, "plain.html", `<!doctype html><svg width="200" height="100"><rect x="10" y="40" width="20" height="60" fill="#777"/><rect x="40" y="20" width="20" height="80" fill="#777"/></svg>`)
+	code, out, _ := runCmd("check", "--json", page)
+	require.Equal(t, 0, code)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	assert.Empty(t, rep.Pages[0].Findings)
+}

@@ -37,6 +37,9 @@ func writeText(w io.Writer, p report.Page) {
 	for _, n := range report.UncheckedNotes(p.Unchecked) {
 		fmt.Fprintf(w, "  note: %s\n", n)
 	}
+	for _, f := range p.Findings {
+		fmt.Fprintf(w, "  [%s] %s\n", f.Severity, f.Message)
+	}
 	for _, c := range p.Charts {
 		if !c.IsChart {
 			fmt.Fprintf(w, "  %s: not a chart (%s)\n", c.Path, c.Reason)

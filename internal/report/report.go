@@ -98,6 +98,10 @@ type Page struct {
 	// object), whose marks no reader can read (minor 2): named so that a
 	// check never passes in silence where nothing was read.
 	Unchecked []Unchecked `json:"unchecked,omitempty"`
+	// Findings are about the page rather than one chart (minor 3): what
+	// could not be read, and a page with no chart at all, each a warning
+	// that says what to do, so that --fail-on warning fails on them.
+	Findings []Finding `json:"findings,omitempty"`
 }
 
 // Unchecked is one element of chart size drawn as pixels: its kind

@@ -1,0 +1,47 @@
+package report
+
+import (
+	"regexp"
+	"strings"
+)
+
+// Page-level findings: what a check could not read. None is a verdict on
+// a chart; each says what to do so that the chart can be checked.
+var (
+	unreadFrameNote = regexp.MustCompile(`^(\S+) \((.*)\): not readable \(a cross-origin frame\)`)
+	unloadedSheet   = regexp.MustCompile(`^external style sheet "([^"]*)" was not loaded`)
+)
+
+// PageFindings fills in p.Findings from its charts, its charts drawn as
+// pixels and its problems: a warning for each chart drawn as pixels whose
+// pixels were not judged (the static reader has none), each frame that
+// could not be read, each style sheet that was not loaded, and for a page
+// with no chart at all.
+func PageFindings(p *Page) {
+	p.Findings = nil
+	warn := func(id, msg string, marks ...string) {
+		p.Findings = append(p.Findings, Finding{ID: id, Severity: "warning", Marks: marks, Message: msg, Source: "common practice: a check must say what it did not read"})
+	}
+	for _, u := range p.Unchecked {
+		if len(u.Regions) == 0 {
+			warn("pixels-unread", u.Name+" is a chart drawn as pixels ("+u.Kind+"), and its pixels were not judged: run check --browser, which judges where the eye goes first in them, or draw it as SVG.", u.Name)
+		}
+	}
+	for _, pr := range p.Problems {
+		if m := unreadFrameNote.FindStringSubmatch(pr); m != nil {
+			warn("frame-unread", "The frame "+m[1]+" ("+m[2]+") could not be read, so its charts were not checked: check the framed page itself, or run check --browser, which reads frames of other origins of the same site.", m[1])
+		}
+		if m := unloadedSheet.FindStringSubmatch(pr); m != nil {
+			warn("style-sheet-unread", "The style sheet "+m[1]+" was not loaded, so the charts may have been read in default colours: run check --browser to read them as a browser styles them.")
+		}
+	}
+	charts := len(p.Unchecked)
+	for _, c := range p.Charts {
+		if c.IsChart {
+			charts++
+		}
+	}
+	if charts == 0 && !strings.Contains(strings.Join(p.Problems, "\n"), "not readable") {
+		warn("no-chart-found", "No chart was found on this page, so nothing was checked: if it has charts, they are not inline SVG, canvas or images of chart size, or they had not been drawn yet when it was read.")
+	}
+}
