@@ -406,6 +406,24 @@ func TestRasterChartsSalientRegions(t *testing.T) {
 		}
 		assert.Len(t, u.CVD, 4, "protan, deutan, tritan, achromat")
 	}
+	// A declared emphasis: the highlighted bar of the canvas holds for
+	// every reader; a box on a grey bar does not, and is an error.
+	for box, holds := range map[string]bool{"box:230,214,26,125": true, "box:30,150,20,20": false} {
+		code, out, errs = runCmd("check", "--browser", "--json", "--emphasis", box, page)
+		require.Equal(t, 0, code, errs)
+		var got report.Report
+		require.NoError(t, json.Unmarshal([]byte(out), &got))
+		e := got.Pages[0].Unchecked[0].Emphasis
+		require.NotNil(t, e, box)
+		assert.Equal(t, holds, e.Holds["normal"], box)
+		assert.Len(t, e.Holds, 5, box)
+		assert.Nil(t, got.Pages[0].Unchecked[1].Emphasis, "the box lies in the canvas only")
+		lost := false
+		for _, f := range got.Pages[0].Findings {
+			lost = lost || f.ID == "pixels-emphasis-lost" && f.Severity == "error"
+		}
+		assert.Equal(t, !holds, lost, box)
+	}
 	code, out, errs = runCmd("check", "--json", page)
 	require.Equal(t, 0, code, errs)
 	var static report.Report

@@ -42,7 +42,7 @@ func parseCheckFlags(args []string, stdout, stderr io.Writer) (*checkFlags, int)
 		"0 every page was checked and no finding reached --fail-on; 1 a finding reached --fail-on; 2 bad usage, or a page that could not be read or checked", stdout, stderr)
 	cf := &checkFlags{failRank: -1}
 	fs.BoolVar(&cf.asJSON, "json", false, "write the versioned JSON report")
-	emphasis := fs.String("emphasis", "", "the intended emphasis: mark ids (comma-separated) or a CSS selector")
+	emphasis := fs.String("emphasis", "", "the intended emphasis: mark ids (comma-separated), a CSS selector, or box:x,y,w,h in page px (the marks it holds; in a chart drawn as pixels, where the eye should go first)")
 	severity := fs.Float64("cvd-severity", 1, "CVD severity within [0, 1] for the re-analysis")
 	distance := fs.Float64("distance-cm", colour.DefaultViewing.DistanceCM, "viewing distance in cm")
 	ppi := fs.Float64("px-per-inch", colour.DefaultViewing.CSSPxPerInch, "CSS px per physical inch")
@@ -89,7 +89,14 @@ func parseCheckFlags(args []string, stdout, stderr io.Writer) (*checkFlags, int)
 		return bad(fmt.Sprintf("--fail-on %q: want info, warning or error", *failOn))
 	}
 	set := report.Settings{Severity: *severity, DistanceCM: *distance, PxPerInch: *ppi}
-	set.EmphasisIDs, set.EmphasisSelector = report.SplitEmphasis(*emphasis)
+	if b, isBox, err := report.ParseBox(*emphasis); isBox {
+		if err != nil {
+			return bad(err.Error())
+		}
+		set.EmphasisBox = &b
+	} else {
+		set.EmphasisIDs, set.EmphasisSelector = report.SplitEmphasis(*emphasis)
+	}
 	opt, err := set.Options()
 	if err != nil {
 		return bad(err.Error())
@@ -268,6 +275,21 @@ func writeCheck(cf *checkFlags, rep *report.Report, shots [][]byte, stdout, stde
 func emphasisFound(cf *checkFlags, rep *report.Report) error {
 	if len(rep.Pages) == 0 {
 		return nil // the pages' own errors say why
+	}
+	if cf.opt.Box != nil {
+		for _, p := range rep.Pages {
+			for _, c := range p.Charts {
+				if c.Emphasis != nil && !c.Emphasis.Inferred {
+					return nil
+				}
+			}
+			for _, u := range p.Unchecked {
+				if u.Emphasis != nil {
+					return nil
+				}
+			}
+		}
+		return fmt.Errorf("--emphasis box %v holds no mark's centre and lies in no chart drawn as pixels", *cf.opt.Box)
 	}
 	if cf.opt.Selector != "" {
 		for _, p := range rep.Pages {

@@ -18,7 +18,7 @@ const maxRegions = 5
 // pixels that the browser captured (shots, by name): the saliency map of
 // its pixels for normal vision and again on the pixels as each CVD type
 // sees them at severity, boxes in page CSS px.
-func rasterRegions(us []report.Unchecked, shots map[string][]byte, severity float64) {
+func rasterRegions(us []report.Unchecked, shots map[string][]byte, severity float64, box *[4]float64) {
 	for i := range us {
 		u := &us[i]
 		shot, ok := shots[u.Name]
@@ -38,7 +38,26 @@ func rasterRegions(us []report.Unchecked, shots map[string][]byte, severity floa
 		for _, v := range perception.Visions[1:] {
 			u.CVD[v.String()] = pageRegions(saliency.Simulated(px, v, severity), u.Box)
 		}
+		if box != nil {
+			u.Emphasis = emphasisIn(u, *box)
+		}
 	}
+}
+
+// emphasisIn checks a declared emphasis box that lies in a chart drawn as
+// pixels: for each vision type, whether the strongest region covers the
+// box's centre.
+func emphasisIn(u *report.Unchecked, box [4]float64) *report.RasterEmphasis {
+	cx, cy := box[0]+box[2]/2, box[1]+box[3]/2
+	if !report.InBox(u.Box, cx, cy) {
+		return nil
+	}
+	first := func(rs []report.Region) bool { return len(rs) > 0 && report.InBox(rs[0].Box, cx, cy) }
+	e := &report.RasterEmphasis{Box: box, Holds: map[string]bool{perception.Visions[0].String(): first(u.Regions)}}
+	for v, rs := range u.CVD {
+		e.Holds[v] = first(rs)
+	}
+	return e
 }
 
 // pageRegions computes the map of px and maps its strongest regions into

@@ -118,6 +118,16 @@ type Unchecked struct {
 	// each vision type, the map re-run on the simulated pixels.
 	Regions []Region            `json:"regions,omitempty"`
 	CVD     map[string][]Region `json:"cvd,omitempty"`
+	// Emphasis is a declared emphasis box within it (--emphasis
+	// box:x,y,w,h) and, per vision type, whether the strongest region
+	// covers its centre: whether the eye goes there first (minor 3).
+	Emphasis *RasterEmphasis `json:"emphasis,omitempty"`
+}
+
+// RasterEmphasis is a declared emphasis in a chart drawn as pixels.
+type RasterEmphasis struct {
+	Box   [4]float64      `json:"box"`
+	Holds map[string]bool `json:"holds"`
 }
 
 // Region is a salient region of a chart drawn as pixels: its box in page
@@ -276,6 +286,9 @@ type Options struct {
 	Selector string
 	// IDs names the intended emphasis by mark id.
 	IDs map[string]bool
+	// Box names it by a box in page CSS px: the marks whose centres it
+	// holds.
+	Box *[4]float64
 	// Nodes names it by snapshot node: per chart path, the node indices
 	// (the overlay's picks).
 	Nodes map[string]map[int]bool
@@ -332,7 +345,7 @@ func AnalyseSnapshots(snaps []snapshot.Snapshot, opt Options) ([]Analysed, error
 // and the marks of the nodes opt.Nodes names in this chart.
 func emphasisIDs(ch *marks.Chart, opt Options) map[string]bool {
 	nodes := opt.Nodes[ch.Path]
-	if len(nodes) == 0 {
+	if len(nodes) == 0 && opt.Box == nil {
 		return opt.IDs
 	}
 	ids := map[string]bool{}
@@ -340,11 +353,16 @@ func emphasisIDs(ch *marks.Chart, opt Options) map[string]bool {
 		ids[id] = true
 	}
 	for _, m := range ch.Marks {
-		if nodes[m.Node] {
+		if nodes[m.Node] || opt.Box != nil && InBox(*opt.Box, m.Centroid.X, m.Centroid.Y) {
 			ids[m.ID] = true
 		}
 	}
 	return ids
+}
+
+// InBox says whether (x, y) lies in box b (x, y, width, height).
+func InBox(b [4]float64, x, y float64) bool {
+	return x >= b[0] && x <= b[0]+b[2] && y >= b[1] && y <= b[1]+b[3]
 }
 
 // FromSnapshots walks and analyses snapshots, from the static builder or

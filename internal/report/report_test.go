@@ -141,3 +141,22 @@ func TestSplitEmphasis(t *testing.T) {
 		assert.Equal(t, sel, s)
 	}
 }
+
+// An emphasis box is typed box:x,y,w,h; other text is not a box, and a
+// malformed box is an error that says what is wanted.
+func TestParseBox(t *testing.T) {
+	b, ok, err := ParseBox(" box:230, 214,26,125.5")
+	require.NoError(t, err)
+	assert.True(t, ok)
+	assert.Equal(t, [4]float64{230, 214, 26, 125.5}, b)
+	_, ok, err = ParseBox("svg0/rect1")
+	assert.False(t, ok)
+	assert.NoError(t, err)
+	for _, bad := range []string{"box:1,2,3", "box:1,2,x,4"} {
+		_, ok, err = ParseBox(bad)
+		assert.True(t, ok, bad)
+		assert.Error(t, err, bad)
+	}
+	_, err = Settings{EmphasisBox: &[4]float64{0, 0, 0, 5}}.Options()
+	assert.Error(t, err, "a box with no width")
+}

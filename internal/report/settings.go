@@ -2,6 +2,7 @@ package report
 
 import (
 	"fmt"
+	"math"
 	"regexp"
 	"strconv"
 	"strings"
@@ -25,6 +26,10 @@ type Settings struct {
 	EmphasisIDs      []string
 	EmphasisSelector string
 	EmphasisNodes    []string
+	// EmphasisBox names it by a box in page CSS px (x, y, width, height):
+	// the marks whose centres it holds, and, in a chart drawn as pixels,
+	// the place the eye should go first.
+	EmphasisBox *[4]float64
 	// FindingsOnly asks for the findings and the emphasis's CVD
 	// re-analysis only (the overlay's digest), not every mark's.
 	FindingsOnly bool
@@ -75,6 +80,12 @@ func (s Settings) Options() (Options, error) {
 		}
 		opt.Nodes[pn[:i]][node] = true
 	}
+	if b := s.EmphasisBox; b != nil {
+		if !(b[2] > 0 && b[3] > 0) || !finite4(*b) {
+			return opt, fmt.Errorf("emphasis box %v: want a finite x, y and a positive width and height", *b)
+		}
+		opt.Box = b
+	}
 	if s.PhoneWidth != 0 && !(s.PhoneWidth >= 200 && s.PhoneWidth <= 1000) {
 		return opt, fmt.Errorf("phone width %v px is not within 200–1000", s.PhoneWidth)
 	}
@@ -87,6 +98,34 @@ func (s Settings) Options() (Options, error) {
 // steps joined by "/" (children) and ">" (content a <use> instantiates),
 // and "#k" for the k-th point of a scatter drawn as one path.
 var markID = regexp.MustCompile(`^(?:(?:shadow|frame)\d+/)*svg\d+(?:[/>][a-zA-Z][a-zA-Z0-9_-]*)+(?:#\d+)?$`)
+
+func finite4(b [4]float64) bool {
+	for _, v := range b {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return false
+		}
+	}
+	return true
+}
+
+// ParseBox reads an emphasis box as typed: "box:x,y,w,h" in page CSS px;
+// ok is false for any other text.
+func ParseBox(text string) (b [4]float64, ok bool, err error) {
+	rest, found := strings.CutPrefix(strings.TrimSpace(text), "box:")
+	if !found {
+		return b, false, nil
+	}
+	parts := strings.Split(rest, ",")
+	if len(parts) != 4 {
+		return b, true, fmt.Errorf("emphasis box %q: want box:x,y,width,height", text)
+	}
+	for i, p := range parts {
+		if b[i], err = strconv.ParseFloat(strings.TrimSpace(p), 64); err != nil {
+			return b, true, fmt.Errorf("emphasis box %q: %v", text, err)
+		}
+	}
+	return b, true, nil
+}
 
 // SplitEmphasis reads an emphasis as a person types it: mark ids
 // ("svg0/g1/rect2,svg0/g1/rect3", each as the report gives it) or else a

@@ -26,6 +26,9 @@ func PageFindings(p *Page) {
 		if len(u.Regions) == 0 {
 			warn("pixels-unread", u.Name+" is a chart drawn as pixels ("+u.Kind+"), and its pixels were not judged: run check --browser, which judges where the eye goes first in them, or draw it as SVG.", u.Name)
 		}
+		if f := pixelsEmphasis(u); f != nil {
+			p.Findings = append(p.Findings, *f)
+		}
 	}
 	for _, pr := range p.Problems {
 		if m := unreadFrameNote.FindStringSubmatch(pr); m != nil {
@@ -44,4 +47,29 @@ func PageFindings(p *Page) {
 	if charts == 0 && !strings.Contains(strings.Join(p.Problems, "\n"), "not readable") {
 		warn("no-chart-found", "No chart was found on this page, so nothing was checked: if it has charts, they are not inline SVG, canvas or images of chart size, or they had not been drawn yet when it was read.")
 	}
+}
+
+// pixelsEmphasis is the finding on a declared emphasis in a chart drawn as
+// pixels that the eye does not reach first for some reader: an error when
+// not even for normal vision, else a warning naming the vision types.
+func pixelsEmphasis(u Unchecked) *Finding {
+	e := u.Emphasis
+	if e == nil {
+		return nil
+	}
+	var lost []string
+	for _, v := range []string{"normal", "protan", "deutan", "tritan", "achromat"} {
+		if held, ok := e.Holds[v]; ok && !held {
+			lost = append(lost, v)
+		}
+	}
+	if len(lost) == 0 {
+		return nil
+	}
+	f := &Finding{ID: "pixels-emphasis-lost", Severity: "warning", Marks: []string{u.Name}, Source: "Itti, Koch & Niebur 1998 (a prediction)",
+		Message: "In " + u.Name + ", the strongest region of the saliency map is not the declared emphasis for: " + strings.Join(lost, ", ") + "; the eye is predicted to go elsewhere first."}
+	if lost[0] == "normal" {
+		f.Severity = "error"
+	}
+	return f
 }
