@@ -3,7 +3,6 @@ package report
 import (
 	"fmt"
 	"math"
-	"regexp"
 	"strconv"
 	"strings"
 
@@ -97,7 +96,50 @@ func (s Settings) Options() (Options, error) {
 // frame or shadow root: after its "frame1/" or "shadow0/"), then element
 // steps joined by "/" (children) and ">" (content a <use> instantiates),
 // and "#k" for the k-th point of a scatter drawn as one path.
-var markID = regexp.MustCompile(`^(?:(?:shadow|frame)\d+/)*svg\d+(?:[/>][a-zA-Z][a-zA-Z0-9_-]*)+(?:#\d+)?$`)
+// (No regexp: the package would double the core's share of the .wasm.)
+func markID(s string) bool {
+	for {
+		rest, ok := cutNumbered(s, "shadow")
+		if !ok {
+			rest, ok = cutNumbered(s, "frame")
+		}
+		if !ok || !strings.HasPrefix(rest, "/") {
+			break
+		}
+		s = rest[1:]
+	}
+	s, ok := cutNumbered(s, "svg")
+	if !ok || s == "" {
+		return false
+	}
+	for s != "" && (s[0] == '/' || s[0] == '>') {
+		i := 1
+		for i < len(s) && (isLetter(s[i]) || i > 1 && (s[i] >= '0' && s[i] <= '9' || s[i] == '_' || s[i] == '-')) {
+			i++
+		}
+		if i == 1 || !isLetter(s[1]) {
+			return false
+		}
+		s = s[i:]
+	}
+	if s == "" {
+		return true
+	}
+	_, ok = cutNumbered(s, "#")
+	return ok && len(s) > 1 && strings.Trim(s[1:], "0123456789") == ""
+}
+
+func isLetter(c byte) bool { return c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' }
+
+// cutNumbered cuts prefix and the digits after it (at least one) from s.
+func cutNumbered(s, prefix string) (string, bool) {
+	rest, ok := strings.CutPrefix(s, prefix)
+	i := 0
+	for i < len(rest) && rest[i] >= '0' && rest[i] <= '9' {
+		i++
+	}
+	return rest[i:], ok && i > 0
+}
 
 func finite4(b [4]float64) bool {
 	for _, v := range b {
@@ -134,7 +176,7 @@ func SplitEmphasis(text string) (ids []string, selector string) {
 	text = strings.TrimSpace(text)
 	items := strings.Split(text, ",")
 	for _, it := range items {
-		if !markID.MatchString(strings.TrimSpace(it)) {
+		if !markID(strings.TrimSpace(it)) {
 			return nil, text
 		}
 	}

@@ -14,8 +14,9 @@
 package saliency
 
 import (
+	"cmp"
 	"math"
-	"sort"
+	"slices"
 )
 
 // Image is an RGB image, each channel in [0, 1], row by row.
@@ -399,6 +400,6 @@ func Regions(m Map, w, h int) []Region {
 		bx1, by1 := min(float64(x1+1)*m.Scale, float64(w)), min(float64(y1+1)*m.Scale, float64(h))
 		out = append(out, Region{Box: [4]float64{bx0, by0, bx1 - bx0, by1 - by0}, Salience: float64(top / peak)})
 	}
-	sort.SliceStable(out, func(i, j int) bool { return out[i].Salience > out[j].Salience })
+	slices.SortStableFunc(out, func(a, b Region) int { return cmp.Compare(b.Salience, a.Salience) })
 	return out
 }
