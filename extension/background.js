@@ -104,8 +104,12 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
   if (phoneWidth) options.phoneWidth = phoneWidth;
   const response = await callCore(JSON.stringify(options), read.json);
   const t2 = performance.now();
+  // A press judges the charts drawn as pixels; a re-check would capture
+  // the overlay's own outlines over them.
+  const pixels = toggle ? await judgePixels(tabId, read, severity) : undefined;
   return {
     response,
+    pixels,
     seq: read.seq,
     timing: {
       readMs: read.readMs,
@@ -117,6 +121,43 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
       responseBytes: response.length,
     },
   };
+}
+
+// judgePixels captures the visible tab (granted by activeTab) and asks the
+// core where the eye goes first in each chart drawn as pixels that is
+// wholly in view, for every vision type; the others are named as unseen.
+// The capture never leaves the extension.
+async function judgePixels(tabId, read, severity) {
+  const rasters = Array.isArray(read.rasters) ? read.rasters.slice(0, 16) : [];
+  const v = read.view;
+  if (!rasters.length || !v || !(v.w > 0 && v.h > 0)) return [];
+  let bitmap;
+  try {
+    const tab = await chrome.tabs.get(tabId);
+    const url = await chrome.tabs.captureVisibleTab(tab.windowId, { format: 'png' });
+    bitmap = await createImageBitmap(await (await fetch(url)).blob());
+  } catch (e) {
+    console.warn('Standout could not capture the tab for its charts drawn as pixels:', e);
+    return [];
+  }
+  const k = bitmap.width / v.w;
+  const out = [];
+  for (const r of rasters) {
+    const x = r.box[0] - v.x;
+    const y = r.box[1] - v.y;
+    const w = Math.round(r.box[2]);
+    const h = Math.round(r.box[3]);
+    if (x < -0.5 || y < -0.5 || x + w > v.w + 0.5 || y + h > v.h + 0.5 || w < 32 || h < 32 || w * h > 4 << 20) {
+      out.push({ name: r.name, box: r.box, unseen: true });
+      continue;
+    }
+    const c = new OffscreenCanvas(w, h);
+    const g = c.getContext('2d');
+    g.drawImage(bitmap, x * k, y * k, w * k, h * k, 0, 0, w, h);
+    const res = JSON.parse(globalThis.standoutSaliency(g.getImageData(0, 0, w, h).data, w, h, typeof severity === 'number' ? severity : -1));
+    if (res.ok) out.push({ name: r.name, box: r.box, regions: res.regions });
+  }
+  return out;
 }
 
 // show hands the result to the overlay in the page.

@@ -916,3 +916,30 @@ func TestE2ESiblingStyleSharing(t *testing.T) {
 		t.Logf("%s: %d of %d charts read with sibling style sharing", pg.name, r.Shared, r.Charts)
 	}
 }
+
+// A chart drawn on a canvas, twelve bars with one highlighted: the press
+// captures the visible tab (activeTab grants it), the core judges the
+// canvas's pixels, and the overlay outlines the most salient region over
+// the highlighted bar and names, in the panel, where the eye goes first
+// for each vision type. The capture is taken before the overlay is drawn.
+func TestE2EChartDrawnAsPixels(t *testing.T) {
+	page, err := os.ReadFile(filepath.Join("..", "cmd", "standout", "testdata", "rasters.html"))
+	require.NoError(t, err)
+	h := newHarness(t)
+	h.showPage(string(page))
+	ov := h.overlayHTML()
+	assert.Contains(t, ov, `data-role="pixels"`)
+	assert.Regexp(t, `canvas0: the eye is predicted to go first to the outlined region .*For other readers: protan: (the same|elsewhere)`, ov)
+	// The region ranked first, in the canvas's own pixels, holds the
+	// highlighted bar's centre: the bar is 26 × 125 px at 210, 155 in the
+	// canvas.
+	m := regexp.MustCompile(`<svg class="layer pixels" data-raster="canvas0"[^>]*>.*?<path d="M([\d.]+) ([\d.]+)h([\d.]+)v([\d.]+)[^"]*"[^>]*data-rank="1"`).FindStringSubmatch(ov)
+	require.NotNil(t, m, "the canvas's first region: %s", ov)
+	var b [4]float64
+	for i := range b {
+		b[i], err = strconv.ParseFloat(m[i+1], 64)
+		require.NoError(t, err)
+	}
+	cx, cy := 210+13.0, 155+62.0
+	assert.True(t, cx >= b[0] && cx <= b[0]+b[2] && cy >= b[1] && cy <= b[1]+b[3], "first region %v", b)
+}

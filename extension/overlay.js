@@ -428,10 +428,68 @@
       sec.appendChild(ul);
       panel.appendChild(sec);
     }
+    if (result.pixels && result.pixels.length) panel.appendChild(pixelsView(result.pixels));
     if (n === 0) panel.appendChild(el('p', {}, 'No inline SVG charts were found on this page.'));
     panel.appendChild(glossaryView());
     panel.appendChild(el('p', { class: 'caution' }, result.report.caution));
     return panel;
+  }
+
+  // ---------- charts drawn as pixels ----------
+
+  // drawPixels outlines, on each chart drawn as pixels that was judged, the
+  // most salient region of its pixels for normal vision (where the eye is
+  // predicted to go first) and, dashed, the next two.
+  function drawPixels(pixels) {
+    for (const l of state.root.querySelectorAll('svg.pixels')) l.remove();
+    for (const p of pixels) {
+      const rs = (p.regions && p.regions.normal) || [];
+      if (!rs.length) continue;
+      const svg = svgEl('svg', { class: 'layer pixels', 'data-raster': p.name, 'aria-hidden': 'true' });
+      svg.style.left = `${p.box[0]}px`;
+      svg.style.top = `${p.box[1]}px`;
+      for (const a of ['width', 'height']) svg.setAttribute(a, String(Math.max(1, Math.round(a === 'width' ? p.box[2] : p.box[3]))));
+      svg.style.width = `${Math.max(1, p.box[2])}px`;
+      svg.style.height = `${Math.max(1, p.box[3])}px`;
+      rs.slice(0, 3).forEach((r, k) => {
+        const st = STYLE[k === 0 ? 'pops' : 'conjunction'];
+        const b = r.box;
+        const d = `M${r2(b[0])} ${r2(b[1])}h${r2(b[2])}v${r2(b[3])}h${r2(-b[2])}Z`;
+        if (k === 0 && st.halo) svg.appendChild(svgEl('path', { d, fill: 'none', stroke: INK.paper, 'stroke-width': st.width + 2.5 }));
+        const path = svgEl('path', { d, fill: 'none', stroke: st.colour, 'stroke-width': k === 0 ? st.width : 1.5, 'data-rank': String(k + 1) });
+        if (k > 0) path.setAttribute('stroke-dasharray', '6 3');
+        svg.appendChild(path);
+      });
+      state.root.insertBefore(svg, state.panel);
+    }
+  }
+
+  // pixelsView is the panel's section on the charts drawn as pixels: where
+  // the eye goes first for each vision type, or why a chart was not judged.
+  function pixelsView(pixels) {
+    const sec = el('section', { 'aria-label': 'Charts drawn as pixels', 'data-role': 'pixels' });
+    sec.appendChild(el('h2', {}, 'Charts drawn as pixels'));
+    for (const p of pixels) {
+      if (p.unseen) {
+        sec.appendChild(el('p', {}, `${p.name} is not wholly in view: scroll it into view and press again to judge its pixels.`));
+        continue;
+      }
+      const rs = p.regions || {};
+      const top = (rs.normal || [])[0];
+      if (!top) {
+        sec.appendChild(el('p', {}, `${p.name}: no region of its pixels stands out.`));
+        continue;
+      }
+      const cx = top.box[0] + top.box[2] / 2;
+      const cy = top.box[1] + top.box[3] / 2;
+      const same = VISIONS.slice(1).map((v) => {
+        const t = (rs[v] || [])[0];
+        const here = t && cx >= t.box[0] && cx <= t.box[0] + t.box[2] && cy >= t.box[1] && cy <= t.box[1] + t.box[3];
+        return `${v}: ${here ? 'the same' : 'elsewhere'}`;
+      });
+      sec.appendChild(el('p', {}, `${p.name}: the eye is predicted to go first to the outlined region (a saliency map of its pixels, Itti, Koch & Niebur 1998; a prediction). For other readers: ${same.join(', ')}.`));
+    }
+    return sec;
   }
 
   // ---------- picking ----------
@@ -823,7 +881,7 @@
     if (!r.ok) throw new Error(r.error);
     // The core sends the overlay's digest of the report; the whole report
     // is made when it is exported.
-    return { report: r.overlay, timing: Object.assign({}, data.timing, { core: r.timing }) };
+    return { report: r.overlay, pixels: data.pixels, timing: Object.assign({}, data.timing, { core: r.timing }) };
   }
 
   // render shows a check's answer, if it is the one awaited (seq): a
@@ -847,6 +905,9 @@
     state.panel.replaceWith(panel);
     state.panel = panel;
     drawLayers(result.report.pages[0]);
+    // A press judges the charts drawn as pixels; a re-check keeps that.
+    if (result.pixels) state.pixels = result.pixels;
+    drawPixels(state.pixels || []);
     // The view, the preview included, over the charts as they now are.
     renderView(true);
     result.timing.renderMs = performance.now() - t0;
@@ -896,7 +957,11 @@
     const page = await globalThis.standoutReader.readPage(document);
     const t1 = performance.now();
     const json = JSON.stringify(page);
-    return { json, seq, readMs: page.readMs, stringifyMs: performance.now() - t1 };
+    // The charts drawn as pixels and the viewport, for the background to
+    // cut them from a capture of the visible tab.
+    const de = document.documentElement;
+    const view = { x: window.scrollX, y: window.scrollY, w: de.clientWidth || window.innerWidth, h: de.clientHeight || window.innerHeight };
+    return { json, seq, readMs: page.readMs, stringifyMs: performance.now() - t1, rasters: page.rasters, view };
   }
 
   // press is the toolbar action: it closes an open check (or one being

@@ -56,6 +56,28 @@ func main() {
 		return string(errorResponse("standoutHandle takes (request) or (options, page)"))
 	})
 	defer handle.Release()
+	// standoutSaliency(rgba Uint8Array | Uint8ClampedArray, w, h,
+	// severity) judges a chart drawn as pixels (pixels.go).
+	pixels := js.FuncOf(func(this js.Value, args []js.Value) any {
+		if len(args) != 4 || args[0].Type() != js.TypeObject || args[1].Type() != js.TypeNumber || args[2].Type() != js.TypeNumber || args[3].Type() != js.TypeNumber {
+			return string(errorResponse("standoutSaliency takes (rgba, width, height, severity)"))
+		}
+		w, h := args[1].Int(), args[2].Int()
+		n := args[0].Get("length").Int()
+		if w <= 0 || h <= 0 || w*h > MaxPixels || n != 4*w*h {
+			return string(errorResponse("standoutSaliency: the pixels do not match the size"))
+		}
+		defer collectLater()
+		rgba := make([]byte, n)
+		src := args[0]
+		if src.Get("constructor").Get("name").String() != "Uint8Array" {
+			src = js.Global().Get("Uint8Array").New(src.Get("buffer"), src.Get("byteOffset"), n)
+		}
+		js.CopyBytesToGo(rgba, src)
+		return string(Saliency(rgba, w, h, args[3].Float()))
+	})
+	defer pixels.Release()
+	js.Global().Set("standoutSaliency", pixels)
 	js.Global().Set("standoutHandle", handle)
 	js.Global().Set("standoutReady", true)
 	select {}

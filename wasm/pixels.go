@@ -1,0 +1,68 @@
+package main
+
+import (
+	"strconv"
+
+	"standout/perception"
+	"standout/perception/saliency"
+)
+
+// MaxPixels bounds a chart drawn as pixels that the core judges: 4 Mpx
+// (2,000 × 2,000).
+const MaxPixels = 4 << 20
+
+// maxRegions is how many regions a vision type's answer lists.
+const maxRegions = 5
+
+// Saliency judges a chart drawn as pixels: rgba holds w×h pixels, 8 bits a
+// channel, row by row, as a canvas's ImageData has them. The answer is a
+// JSON object keyed by vision type ("normal", then each CVD type at
+// severity), each the most salient regions, strongest first, with their
+// boxes in the image's pixels: {"ok":true,"regions":{"normal":[{"box":
+// [x,y,w,h],"salience":1},…],…}}.
+func Saliency(rgba []byte, w, h int, severity float64) []byte {
+	if w <= 0 || h <= 0 || w*h > MaxPixels || len(rgba) != 4*w*h {
+		return errorResponse("saliency: want w×h RGBA pixels, at most " + strconv.Itoa(MaxPixels) + " of them")
+	}
+	if !(severity >= 0 && severity <= 1) {
+		severity = perception.DefaultParams.Severity
+	}
+	img := saliency.NewImage(w, h)
+	for i := 0; i < w*h; i++ {
+		// Transparent pixels show the page behind them, taken as white.
+		a := float32(rgba[4*i+3]) / 255
+		img.R[i] = float32(rgba[4*i])/255*a + 1 - a
+		img.G[i] = float32(rgba[4*i+1])/255*a + 1 - a
+		img.B[i] = float32(rgba[4*i+2])/255*a + 1 - a
+	}
+	b := []byte(`{"ok":true,"regions":{`)
+	for k, v := range perception.Visions {
+		if k > 0 {
+			b = append(b, ',')
+		}
+		px := img
+		if k > 0 {
+			px = saliency.Simulated(img, v, severity)
+		}
+		b = strconv.AppendQuote(b, v.String())
+		b = append(b, ":["...)
+		rs := saliency.Regions(saliency.Compute(px), w, h)
+		for j, r := range rs[:min(len(rs), maxRegions)] {
+			if j > 0 {
+				b = append(b, ',')
+			}
+			b = append(b, `{"box":[`...)
+			for q, x := range r.Box {
+				if q > 0 {
+					b = append(b, ',')
+				}
+				b = strconv.AppendFloat(b, float64(int64(x*100+0.5))/100, 'f', -1, 64)
+			}
+			b = append(b, `],"salience":`...)
+			b = strconv.AppendFloat(b, float64(int64(r.Salience*100+0.5))/100, 'f', -1, 64)
+			b = append(b, '}')
+		}
+		b = append(b, ']')
+	}
+	return append(b, "}}"...)
+}
