@@ -67,28 +67,17 @@ function legend(svg, entries, icon) {
   });
 }
 
-// 100 invented wells by depth and yield; 11 flagged in red.
-function scatterSpines() {
+// Invented wells by depth and yield on L-shaped axes, some flagged in red:
+// 100 with 11 flagged, and 120 with one.
+function wellScatter(name, n, flagged) {
   const svg = svgRoot();
   const x = d3.scaleLinear([0, 100], [margin.left, W - margin.right]);
   const y = d3.scaleLinear([0, 50], [H - margin.bottom, margin.top]);
   lAxes(svg, x, y);
-  const colours = d3.range(100).map((i) => (i % 9 === 4 ? FLARE : ASH));
-  svg.append("g").selectAll("circle").data(d3.range(100)).join("circle")
+  const colours = d3.range(n).map((i) => (flagged(i) ? FLARE : ASH));
+  svg.append("g").selectAll("circle").data(d3.range(n)).join("circle")
     .attr("cx", () => x(between(2, 98))).attr("cy", () => y(between(2, 48))).attr("r", 4).attr("fill", (i) => colours[i]);
-  save("scatter-spines.svg", svg, { dot: 100 }, colours, 0, FLARE);
-}
-
-// A single flagged well among 120, the same L-shaped axes.
-function scatterOne() {
-  const svg = svgRoot();
-  const x = d3.scaleLinear([0, 100], [margin.left, W - margin.right]);
-  const y = d3.scaleLinear([0, 50], [H - margin.bottom, margin.top]);
-  lAxes(svg, x, y);
-  const colours = d3.range(120).map((i) => (i === 57 ? FLARE : ASH));
-  svg.append("g").selectAll("circle").data(d3.range(120)).join("circle")
-    .attr("cx", () => x(between(2, 98))).attr("cy", () => y(between(2, 48))).attr("r", 4).attr("fill", (i) => colours[i]);
-  save("scatter-one.svg", svg, { dot: 120 }, colours, 0, FLARE);
+  save(name, svg, { dot: n }, colours, 0, FLARE);
 }
 
 // Three invented river gauges, lines with dots, and a legend of
@@ -182,8 +171,8 @@ function donutLegend() {
   save("donut-legend.svg", svg, { arc: parts.length }, parts.map((p) => p[1]), parts.length);
 }
 
-scatterSpines();
-scatterOne();
+wellScatter("scatter-spines.svg", 100, (i) => i % 9 === 4);
+wellScatter("scatter-one.svg", 120, (i) => i === 57);
 linesLegend();
 barsLegend();
 bubbles();
