@@ -260,8 +260,13 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 	return r
 }
 
-// MaxRasterShots bounds the charts drawn as pixels captured on one page.
-const MaxRasterShots = 16
+// MaxRasterShots bounds the charts drawn as pixels captured on one page,
+// and MaxRasterPixels the size of each (4 Mpx: the saliency map holds a
+// few float planes of it).
+const (
+	MaxRasterShots  = 16
+	MaxRasterPixels = 4 << 20
+)
 
 // rasterShots captures each chart drawn as pixels that the read pass
 // named, in the page or in a frame of another origin (its result's
@@ -295,7 +300,7 @@ func rasterShots(ctx context.Context, readJSON string, frames []FrameRead) (map[
 			break
 		}
 		b := rr.Box
-		if !(b[2] >= 1 && b[3] >= 1) || b[2] > 8192 || b[3] > 8192 {
+		if !(b[2] >= 1 && b[3] >= 1) || b[2] > 8192 || b[3] > 8192 || b[2]*b[3] > MaxRasterPixels {
 			continue
 		}
 		shot, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {

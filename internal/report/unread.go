@@ -43,7 +43,7 @@ func PageFindings(p *Page) {
 	}
 	for _, u := range p.Unchecked {
 		if len(u.Regions) == 0 {
-			warn("pixels-unread", u.Name+" is a chart drawn as pixels ("+u.Kind+"), and its pixels were not judged: run check --browser, which judges where the eye goes first in them, or draw it as SVG.", u.Name)
+			warn("pixels-unread", u.Name+" is a chart drawn as pixels ("+u.Kind+"), and its pixels were not judged: run check --browser, which judges where the eye goes first in those of up to 4 megapixels, or draw it as SVG.", u.Name)
 		}
 		if f := pixelsEmphasis(u); f != nil {
 			p.Findings = append(p.Findings, *f)
