@@ -1,0 +1,37 @@
+package snapshot
+
+// MergeFrame adds to p what a read pass read in one of its frames, f: the
+// frame's charts and charts drawn as pixels, their paths and element names
+// under prefix (the page's name for the frame, "frame2/"), their boxes
+// moved by (dx, dy), the frame's content box origin in p's page px; and
+// its problems, prefixed. A chart's anchor is a selector in the frame's
+// document, not p's, and is dropped.
+func (p *PageJSON) MergeFrame(f *PageJSON, prefix string, dx, dy float64) {
+	for i := range f.Snapshots {
+		s := &f.Snapshots[i]
+		s.Path = prefix + s.Path
+		s.Anchor = ""
+		s.Box[0] += dx
+		s.Box[1] += dy
+		for k := range s.Nodes {
+			n := &s.Nodes[k]
+			n.Name = prefix + n.Name
+			n.CTM[4] += dx
+			n.CTM[5] += dy
+			if len(n.BBox) == 4 {
+				n.BBox[0] += dx
+				n.BBox[1] += dy
+			}
+		}
+		p.Snapshots = append(p.Snapshots, *s)
+	}
+	for _, r := range f.Rasters {
+		r.Name = prefix + r.Name
+		r.Box[0] += dx
+		r.Box[1] += dy
+		p.Rasters = append(p.Rasters, r)
+	}
+	for _, pr := range f.Problems {
+		p.Problems = append(p.Problems, prefix+": "+pr)
+	}
+}
