@@ -9,6 +9,7 @@ import (
 	"fmt"
 	"runtime/debug"
 	"sort"
+	"strconv"
 	"strings"
 	"time"
 
@@ -44,6 +45,17 @@ type Request struct {
 	// PhoneWidth, when set, judges the charts as scaled to a phone's
 	// width (report.Options.PhoneWidth).
 	PhoneWidth float64 `json:"phoneWidth"`
+	// Frames place the readings of frames of other origins, which come
+	// after the page (HandlePage): each one's name in the page and the
+	// offset of its content box in page px.
+	Frames []FramePlace `json:"frames"`
+}
+
+// FramePlace is where a frame's reading goes in its page.
+type FramePlace struct {
+	Prefix string  `json:"prefix"`
+	Dx     float64 `json:"dx"`
+	Dy     float64 `json:"dy"`
 }
 
 // Response is what the core answers: a report, or an error.
@@ -75,7 +87,9 @@ func Handle(req []byte) (out []byte) {
 // HandlePage answers a request whose page (the read pass's JSON, with
 // source, snapshots and problems) comes apart from its options: the page
 // is decoded by the fast snapshot decoder, the options by encoding/json.
-func HandlePage(options, page []byte) (out []byte) {
+// The readings of frames of other origins follow the page, one for each
+// of the options' frames.
+func HandlePage(options, page []byte, frames ...[]byte) (out []byte) {
 	defer recoverTo(&out)
 	t0 := time.Now()
 	q, err := parseOptions(options)
@@ -86,8 +100,43 @@ func HandlePage(options, page []byte) (out []byte) {
 	if err != nil {
 		return errorResponse("bad page: " + err.Error())
 	}
+	if len(frames) != len(q.Frames) {
+		return errorResponse("bad request: " + strconv.Itoa(len(frames)) + " frame readings for " + strconv.Itoa(len(q.Frames)) + " frames")
+	}
+	for i, f := range frames {
+		fp, err := snapshot.DecodePage(f)
+		if err != nil {
+			return errorResponse("bad frame " + q.Frames[i].Prefix + ": " + err.Error())
+		}
+		p.MergeFrame(fp, q.Frames[i].Prefix, q.Frames[i].Dx, q.Frames[i].Dy)
+	}
 	q.Source, q.Snapshots, q.Problems, q.Rasters = p.Source, p.Snapshots, p.Problems, p.Rasters
 	return handle(q, t0)
+}
+
+// parseFrames reads the options' frames: [{prefix, dx, dy}, …].
+func parseFrames(d *jsonio.Scanner) ([]FramePlace, error) {
+	var out []FramePlace
+	err := d.Array(func() error {
+		var f FramePlace
+		err := d.Object(func(key string) error {
+			var err error
+			switch key {
+			case "prefix":
+				f.Prefix, err = d.Text()
+			case "dx":
+				f.Dx, err = d.Number()
+			case "dy":
+				f.Dy, err = d.Number()
+			default:
+				err = d.Skip()
+			}
+			return err
+		})
+		out = append(out, f)
+		return err
+	})
+	return out, err
 }
 
 // parseOptions reads a request's options (every field but the page's)
@@ -121,6 +170,8 @@ func parseOptions(b []byte) (*Request, error) {
 			q.PxPerInch, err = d.Number()
 		case "phoneWidth":
 			q.PhoneWidth, err = d.Number()
+		case "frames":
+			q.Frames, err = parseFrames(d)
 		default:
 			err = d.Skip()
 		}

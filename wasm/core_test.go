@@ -258,3 +258,32 @@ func TestEmphasisByNode(t *testing.T) {
 	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse","emphasisNodes":["svg0"]}`), page), &bad))
 	assert.False(t, bad.OK)
 }
+
+// A frame's reading, sent after the page with its place in the options,
+// joins the page's charts under the frame's name, its marks moved into
+// page px; a reading without a place, or a bad one, is an error.
+func TestHandlePageWithFrames(t *testing.T) {
+	doc := `<svg width="200" height="100"><g><rect x="10" y="40" width="20" height="60" fill="#999"/><rect x="40" y="20" width="20" height="80" fill="#c2410c"/></g></svg>`
+	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t"})
+	require.NoError(t, err)
+	frame, err := json.Marshal(map[string]any{"source": "f", "snapshots": p.Charts, "problems": []string{}})
+	require.NoError(t, err)
+	page, err := json.Marshal(map[string]any{"source": "t", "snapshots": []any{}, "problems": []string{}})
+	require.NoError(t, err)
+	var r Response
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse","full":true,"frames":[{"prefix":"frame0/","dx":54,"dy":34}]}`), page, frame), &r))
+	require.True(t, r.OK, r.Error)
+	require.Len(t, r.Report.Pages[0].Charts, 1)
+	c := r.Report.Pages[0].Charts[0]
+	assert.Equal(t, "frame0/svg0", c.Path)
+	require.Len(t, c.Marks, 2)
+	assert.Equal(t, "frame0/svg0/g0/rect0", c.Marks[0].ID)
+	assert.InDelta(t, 64, c.Marks[0].BBox[0], 1e-9)
+	assert.InDelta(t, 74, c.Marks[0].BBox[1], 1e-9)
+
+	for _, bad := range [][2]string{{`{"type":"analyse"}`, string(frame)}, {`{"type":"analyse","frames":[{"prefix":"frame0/"}]}`, `{"snapshots":[`}} {
+		var r Response
+		require.NoError(t, json.Unmarshal(HandlePage([]byte(bad[0]), page, []byte(bad[1])), &r))
+		assert.False(t, r.OK, bad[0])
+	}
+}

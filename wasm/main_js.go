@@ -48,12 +48,18 @@ func main() {
 		}
 		defer collectLater()
 		switch len(args) {
+		case 0:
 		case 1:
 			return string(Handle([]byte(args[0].String())))
-		case 2:
-			return string(HandlePage([]byte(args[0].String()), []byte(args[1].String())))
+		default:
+			// (options, page, frame readings…)
+			frames := make([][]byte, len(args)-2)
+			for i := range frames {
+				frames[i] = []byte(args[i+2].String())
+			}
+			return string(HandlePage([]byte(args[0].String()), []byte(args[1].String()), frames...))
 		}
-		return string(errorResponse("standoutHandle takes (request) or (options, page)"))
+		return string(errorResponse("standoutHandle takes (request) or (options, page, frame readings…)"))
 	})
 	defer handle.Release()
 	// standoutSaliency(rgba Uint8Array | Uint8ClampedArray, w, h,
