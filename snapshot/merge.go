@@ -1,12 +1,25 @@
 package snapshot
 
+import "strings"
+
 // MergeFrame adds to p what a read pass read in one of its frames, f: the
 // frame's charts and charts drawn as pixels, their paths and element names
 // under prefix (the page's name for the frame, "frame2/"), their boxes
 // moved by (dx, dy), the frame's content box origin in p's page px; and
 // its problems, prefixed. A chart's anchor is a selector in the frame's
 // document, not p's, and is dropped.
+//
+// The page's note that the frame could not be read ("frame2 (…): not
+// readable …") goes: it now is.
 func (p *PageJSON) MergeFrame(f *PageJSON, prefix string, dx, dy float64) {
+	name := strings.TrimSuffix(prefix, "/")
+	kept := p.Problems[:0]
+	for _, pr := range p.Problems {
+		if !(strings.HasPrefix(pr, name+" (") && strings.Contains(pr, "): not readable")) {
+			kept = append(kept, pr)
+		}
+	}
+	p.Problems = kept
 	for i := range f.Snapshots {
 		s := &f.Snapshots[i]
 		s.Path = prefix + s.Path

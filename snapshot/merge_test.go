@@ -10,7 +10,9 @@ import (
 // transform moved by the frame's offset; its anchor, a selector in the
 // frame's document, is dropped.
 func TestMergeFrame(t *testing.T) {
-	page := &PageJSON{Snapshots: []Snapshot{{Path: "svg0"}}}
+	page := &PageJSON{Snapshots: []Snapshot{{Path: "svg0"}}, Problems: []string{
+		"frame1 (https://desk.example/quays.html): not readable (a cross-origin frame); its charts were not checked",
+		"frame10 (https://desk.example/tides.html): not readable (a cross-origin frame); its charts were not checked"}}
 	frame := &PageJSON{
 		Snapshots: []Snapshot{{Path: "svg0", Anchor: "#quays", Box: [4]float64{0, 0, 300, 200},
 			Nodes: []Node{{Name: "svg0", CTM: IdentityMatrix}, {Name: "svg0/rect0", CTM: Matrix{1, 0, 0, 1, 20, 40}, BBox: []float64{20, 40, 24, 60}}}}},
@@ -28,5 +30,6 @@ func TestMergeFrame(t *testing.T) {
 	assert.Equal(t, []float64{74, 74, 24, 60}, s.Nodes[1].BBox)
 	assert.Equal(t, [4]float64{54, 244, 300, 150}, page.Rasters[0].Box)
 	assert.Equal(t, "frame1/canvas0", page.Rasters[0].Name)
-	assert.Equal(t, []string{"frame1/: svg1: empty"}, page.Problems)
+	assert.Equal(t, []string{"frame10 (https://desk.example/tides.html): not readable (a cross-origin frame); its charts were not checked",
+		"frame1/: svg1: empty"}, page.Problems, "the note on frame1 goes, frame10's stays")
 }
