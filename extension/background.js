@@ -39,13 +39,14 @@ function dropCore() {
   corePromise = null;
 }
 
-// callCore runs one request in the core. A core that has exited is
-// reloaded once and the request run again.
-async function callCore(options, page) {
+// callCore runs one request in the core, the readings of frames of other
+// origins after the page. A core that has exited is reloaded once and the
+// request run again.
+async function callCore(options, page, frames = []) {
   for (let attempt = 0; ; attempt++) {
     await loadCore();
     try {
-      return globalThis.standoutHandle(options, page);
+      return globalThis.standoutHandle(options, page, ...frames);
     } catch (e) {
       if (attempt > 0 || !/exited|not a function|standoutHandle/i.test(String((e && e.message) || e))) throw e;
       dropCore();
@@ -99,10 +100,11 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as
   // the read pass wrote it, for the core's fast snapshot decoder.
-  const options = { type: 'analyse', emphasisNodes, full };
+  const frames = await readFrames(tabId, read.frames);
+  const options = { type: 'analyse', emphasisNodes, full, frames: frames.places };
   if (typeof severity === 'number') options.severity = severity;
   if (phoneWidth) options.phoneWidth = phoneWidth;
-  const response = await callCore(JSON.stringify(options), read.json);
+  const response = await callCore(JSON.stringify(options), read.json, frames.pages);
   const t2 = performance.now();
   // A press judges the charts drawn as pixels; a re-check would capture
   // the overlay's own outlines over them.
@@ -110,6 +112,7 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
   return {
     response,
     pixels,
+    frameOrigins: frames.missing,
     seq: read.seq,
     timing: {
       readMs: read.readMs,
@@ -121,6 +124,47 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
       responseBytes: response.length,
     },
   };
+}
+
+// readFrames reads the frames of other origins that the read pass could
+// not enter (unread: {name, url, origin, box}) from the origins the reader
+// has allowed the extension (optional_host_permissions): the read pass is
+// injected into the tab's frames and read where a frame's origin is one of
+// those. It returns each reading with its place in the page (the frame's
+// name and content box), and the origins still to be allowed.
+async function readFrames(tabId, unread) {
+  const list = Array.isArray(unread) ? unread.slice(0, 16) : [];
+  const out = { places: [], pages: [], missing: [] };
+  if (!list.length) return out;
+  const origins = [...new Set(list.map((f) => f.origin).filter((o) => typeof o === 'string' && /^https?:\/\/[^/]+$/.test(o)))];
+  const granted = [];
+  for (const o of origins) {
+    if (await chrome.permissions.contains({ origins: [o + '/*'] })) granted.push(o);
+    else out.missing.push(o);
+  }
+  if (!granted.length) return out;
+  let results;
+  try {
+    await chrome.scripting.executeScript({ target: { tabId, allFrames: true }, files: ['constants.js', 'reader.js'] });
+    results = await chrome.scripting.executeScript({ target: { tabId, allFrames: true }, func: readThisFrame, args: [granted] });
+  } catch (e) {
+    console.warn('Standout could not read the frames of other origins:', e);
+    return out;
+  }
+  for (const f of list) {
+    const r = results.find((x) => x && x.result && x.result.url === f.url);
+    if (!r) continue;
+    out.places.push({ prefix: f.name + '/', dx: f.box[0], dy: f.box[1] });
+    out.pages.push(r.result.json);
+  }
+  return out;
+}
+
+// readThisFrame runs in each frame of the tab: a frame (not the top
+// document) of one of the allowed origins reads itself.
+function readThisFrame(origins) {
+  if (window === window.top || !origins.includes(location.origin) || !globalThis.standoutReader) return null;
+  return globalThis.standoutReader.readPage(document).then((p) => ({ url: location.href, json: JSON.stringify(p) }));
 }
 
 // judgePixels captures the visible tab (granted by activeTab) and asks the
@@ -213,6 +257,38 @@ async function exportPNG(tab, data) {
   await chrome.tabs.create({ url: chrome.runtime.getURL('export.html#' + key), index: tab.index + 1, openerTabId: tab.id });
 }
 
+// ---------- frames of other origins ----------
+
+// Requests to read frames of other origins wait here, by a random key,
+// until the page that asks the reader for the permission takes them.
+const pendingGrants = new Map();
+
+// askFrames opens the page that asks for the origins: a permission can be
+// requested only in a click in an extension page, not in the checked page.
+async function askFrames(tab, origins) {
+  const key = crypto.randomUUID();
+  pendingGrants.set(key, { tabId: tab.id, origins });
+  setTimeout(() => pendingGrants.delete(key), 300000);
+  await chrome.tabs.create({ url: chrome.runtime.getURL('grant.html#' + key), index: tab.index + 1, openerTabId: tab.id });
+}
+
+// recheckWithFrames runs the check again in the tab once its frames'
+// origins are allowed, and brings the tab back.
+async function recheckWithFrames(key) {
+  const g = pendingGrants.get(key);
+  pendingGrants.delete(key);
+  if (!g) throw new Error('this request has expired; press Standout again on the page');
+  await chrome.tabs.update(g.tabId, { active: true });
+  let seq;
+  try {
+    const r = await analyse(g.tabId, {});
+    seq = r.seq;
+    await show(g.tabId, r);
+  } catch (e) {
+    await showError(g.tabId, e, seq);
+  }
+}
+
 // ---------- messages ----------
 
 const MAX_PICKS = 100000;
@@ -236,6 +312,11 @@ function validMessage(msg, sender) {
         Array.isArray(d.viewport) && d.viewport.length === 2 && d.viewport.every((v) => Number.isFinite(v) && v > 0);
     case 'standout/take-export':
       return typeof d === 'string' && d.length <= 64 && typeof sender.url === 'string' && sender.url.startsWith(chrome.runtime.getURL('export.html'));
+    case 'standout/ask-frames':
+      return !!sender.tab && Array.isArray(d) && d.length >= 1 && d.length <= 16 && d.every((o) => typeof o === 'string' && o.length <= 300 && /^https?:\/\/[^/]+$/.test(o));
+    case 'standout/take-grant':
+    case 'standout/granted':
+      return typeof d === 'string' && d.length <= 64 && typeof sender.url === 'string' && sender.url.startsWith(chrome.runtime.getURL('grant.html'));
   }
   return false;
 }
@@ -264,6 +345,14 @@ chrome.runtime.onMessage.addListener((msg, sender, sendResponse) => {
       pendingExports.delete(msg.data);
       return reply(e ? Promise.resolve(e) : Promise.reject(new Error('this export has expired; export again from the panel')));
     }
+    case 'standout/ask-frames':
+      return reply(askFrames(sender.tab, msg.data));
+    case 'standout/take-grant': {
+      const g = pendingGrants.get(msg.data);
+      return reply(g ? Promise.resolve(g.origins) : Promise.reject(new Error('this request has expired; press Standout again on the page')));
+    }
+    case 'standout/granted':
+      return reply(recheckWithFrames(msg.data));
   }
   return false;
 });

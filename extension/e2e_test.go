@@ -77,9 +77,11 @@ type harness struct {
 
 func chromium(t testing.TB) string { return testkit.Chromium(t) }
 
-func newHarness(t testing.TB) *harness {
+func newHarness(t testing.TB) *harness { return newHarnessOf(t, built(t)) }
+
+// newHarnessOf starts Chromium with the extension built in dir.
+func newHarnessOf(t testing.TB, dir string) *harness {
 	exe := chromium(t)
-	dir := built(t)
 	actx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, Extension: dir, UserDataDir: t.TempDir(), NoSandbox: browser.SandboxNote() != ""})
 	t.Cleanup(cancel)
 	ctx, cancel2 := chromedp.NewContext(actx)
@@ -732,11 +734,15 @@ func TestE2EShortcutDeclared(t *testing.T) {
 			} `json:"commands"`
 			Permissions []string `json:"permissions"`
 			HostPerms   []string `json:"host_permissions"`
+			Optional    []string `json:"optional_host_permissions"`
 		}
 		require.NoError(t, json.Unmarshal(b, &m), f)
 		assert.Equal(t, "Alt+Shift+S", m.Commands["_execute_action"].SuggestedKey["default"], f)
 		assert.ElementsMatch(t, []string{"activeTab", "scripting"}, m.Permissions, f)
 		assert.Empty(t, m.HostPerms, f)
+		// Frames of other origins are read only once the reader allows
+		// their origin, one by one, when a check finds them.
+		assert.ElementsMatch(t, []string{"http://*/*", "https://*/*"}, m.Optional, f)
 	}
 }
 
@@ -942,4 +948,96 @@ func TestE2EChartDrawnAsPixels(t *testing.T) {
 	}
 	cx, cy := 210+13.0, 155+62.0
 	assert.True(t, cx >= b[0] && cx <= b[0]+b[2] && cy >= b[1] && cy <= b[1]+b[3], "first region %v", b)
+}
+
+// builtWithHosts is the extension as built, with host_permissions for
+// loopback pages declared in its manifest: a test build standing for a
+// reader who allowed those origins through optional_host_permissions (the
+// browser's prompt is a window no test can press).
+func builtWithHosts(t *testing.T) string {
+	dir := t.TempDir()
+	require.NoError(t, os.CopyFS(dir, os.DirFS(built(t))))
+	p := filepath.Join(dir, "manifest.json")
+	b, err := os.ReadFile(p)
+	require.NoError(t, err)
+	var m map[string]any
+	require.NoError(t, json.Unmarshal(b, &m))
+	m["host_permissions"] = []string{"http://127.0.0.1/*"}
+	b, err = json.Marshal(m)
+	require.NoError(t, err)
+	require.NoError(t, os.WriteFile(p, b, 0o644))
+	return dir
+}
+
+// framedCharts serves a chart page on one loopback origin and a page that
+// frames it on another (a different port is a different origin), and
+// returns the framing page's address.
+func framedCharts(t *testing.T) string {
+	var bars strings.Builder
+	bars.WriteString(`<!doctype html><html><body style="margin:0"><svg width="300" height="200" aria-label="Ferry crossings by quay">`)
+	for k := 0; k < 8; k++ {
+		fill := "#7d8a99"
+		if k == 3 {
+			fill = "#d1495b"
+		}
+		fmt.Fprintf(&bars, `<rect x="%d" y="%d" width="24" height="%d" fill="%s"/>`, 20+k*34, 180-(40+k*17%120), 40+k*17%120, fill)
+	}
+	bars.WriteString(`</svg></body></html>`)
+	framed := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprint(w, bars.String())
+	})
+	host := serve(t, func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprint(w, `<!doctype html><html><body><h1>Harbour report</h1><iframe src="`+framed.URL+`/quays.html" width="320" height="220" style="border:4px solid #ccc;margin:30px 0 0 50px;display:block"></iframe></body></html>`)
+	})
+	return host.URL + "/"
+}
+
+// A chart in a frame of another origin: with that origin allowed (a test
+// build declaring it), a press reads the frame too and outlines its chart
+// where it stands in the page, with no request left; without it, the panel
+// names the origin and offers to ask, and the button opens the extension's
+// page that asks (the browser's prompt itself no test can press).
+func TestE2EFrameOfAnotherOrigin(t *testing.T) {
+	t.Run("allowed", func(t *testing.T) {
+		h := newHarnessOf(t, builtWithHosts(t))
+		h.open(framedCharts(t))
+		h.trigger()
+		h.waitState("ready")
+		ov := h.overlayHTML()
+		assert.Contains(t, ov, `data-chart="frame0/svg0"`, "the framed chart is outlined")
+		assert.NotContains(t, ov, `data-role="frames"`)
+		assert.NotContains(t, ov, "not readable", "the note on the frame goes once it is read")
+		rects := layerRects(t, ov)["frame0/svg0"]
+		require.NotEmpty(t, rects)
+		require.Len(t, rects["pops"], 1, "the highlighted bar pops")
+		// In page px: the frame's content starts past its 50 px margin
+		// and 4 px border (and the body's 8 px margin); the bar stands
+		// at x 122 in the frame.
+		assert.InDelta(t, 8+54+122, rects["pops"][0][0], 3, "%v", rects["pops"][0])
+	})
+	t.Run("not yet allowed", func(t *testing.T) {
+		h := newHarness(t)
+		page := framedCharts(t)
+		h.open(page)
+		h.trigger()
+		h.waitState("ready")
+		ov := h.overlayHTML()
+		assert.Contains(t, ov, `data-role="frames"`)
+		assert.Regexp(t, `Frames from http://127\.0\.0\.1:\d+ were not read`, ov)
+		assert.NotContains(t, ov, `data-chart="frame0/svg0"`)
+		h.clickInOverlay("ask-frames")
+		deadline := time.Now().Add(10 * time.Second)
+		opened := false
+		for !opened && time.Now().Before(deadline) {
+			ts, err := chromedp.Targets(h.ctx)
+			require.NoError(t, err)
+			for _, ti := range ts {
+				opened = opened || strings.HasPrefix(ti.URL, "chrome-extension://"+h.extID+"/grant.html#")
+			}
+			time.Sleep(100 * time.Millisecond)
+		}
+		assert.True(t, opened, "the page that asks for the origin opened")
+	})
 }

@@ -247,13 +247,22 @@
     return map;
   }
 
+  // boxOf is a chart's current box in page px: followed through the
+  // document, or, for a chart in a frame of another origin, which the page
+  // cannot measure, where it was read.
+  function boxOf(entry) {
+    return entry.fixed || globalThis.standoutReader.pageBox(entry);
+  }
+
   function drawLayers(page) {
     for (const l of state.layers.values()) l.svg.remove();
     state.layers.clear();
     const entries = chartEntries();
     for (const c of page.charts) {
       if (!c.isChart) continue;
-      const entry = entries.get(c.path);
+      // A chart of a frame the read pass could not enter was read by the
+      // background: it stays where it was read.
+      const entry = entries.get(c.path) || (/^frame\d+\//.test(c.path) ? { fixed: c.box } : null);
       if (!entry) continue;
       const svg = svgEl('svg', { class: 'layer', 'data-chart': c.path, 'aria-hidden': 'true' });
       const readBox = c.box;
@@ -290,7 +299,7 @@
     for (const l of state.layers.values()) {
       let b;
       try {
-        b = globalThis.standoutReader.pageBox(l.entry);
+        b = boxOf(l.entry);
       } catch {
         continue;
       }
@@ -429,6 +438,7 @@
       panel.appendChild(sec);
     }
     if (result.pixels && result.pixels.length) panel.appendChild(pixelsView(result.pixels));
+    if (result.frameOrigins.length) panel.appendChild(framesView(result.frameOrigins));
     if (n === 0) panel.appendChild(el('p', {}, 'No inline SVG charts were found on this page.'));
     panel.appendChild(glossaryView());
     panel.appendChild(el('p', { class: 'caution' }, result.report.caution));
@@ -492,6 +502,26 @@
     return sec;
   }
 
+  // framesView names the origins whose frames hold charts the check could
+  // not read, and offers to read them: the button opens an extension page
+  // that asks the reader for those origins.
+  function framesView(origins) {
+    const sec = el('section', { 'aria-label': 'Frames from other origins', 'data-role': 'frames' });
+    sec.appendChild(el('h2', {}, 'Frames from other origins'));
+    sec.appendChild(el('p', {}, `Frames from ${origins.join(', ')} were not read: Standout needs your leave to read them.`));
+    const b = el('button', { type: 'button', 'data-action': 'ask-frames' }, 'Read these frames…');
+    on(b, 'click', async () => {
+      try {
+        const r = await chrome.runtime.sendMessage({ type: 'standout/ask-frames', target: 'background', data: origins });
+        if (!r || !r.ok) throw new Error((r && r.error) || 'no answer');
+      } catch (e) {
+        b.textContent = `Could not ask: ${String((e && e.message) || e)}`;
+      }
+    });
+    sec.appendChild(b);
+    return sec;
+  }
+
   // ---------- picking ----------
 
   // showCatcher puts the layer that takes the picking clicks over the
@@ -516,7 +546,7 @@
     let best = null;
     let bestArea = Infinity;
     for (const [path, l] of state.layers) {
-      const pb = globalThis.standoutReader.pageBox(l.entry);
+      const pb = boxOf(l.entry);
       const dx = pb[0] - l.readBox[0];
       const dy = pb[1] - l.readBox[1];
       const b = l.chart.boxes;
@@ -569,6 +599,7 @@
         clearTimeout(state.rerunTimer);
         state.rerunTimer = setTimeout(() => rerun({ type: 'change' }), 600);
       });
+      if (!l.entry.svg) continue;
       o.observe(l.entry.svg, { subtree: true, childList: true, attributes: true, characterData: true });
       state.observers.push(o);
     }
@@ -686,7 +717,7 @@
     filter.setAttribute('color-interpolation-filters', 'linearRGB');
     filterPrimitives(filter, entry);
     svg.appendChild(filter);
-    const targets = scope === 'page' ? [document.body || document.documentElement] : [...state.layers.values()].map((l) => l.entry.svg).filter((t) => t.ownerDocument === document);
+    const targets = scope === 'page' ? [document.body || document.documentElement] : [...state.layers.values()].map((l) => l.entry.svg).filter((t) => t && t.ownerDocument === document);
     const watching = state.observers.length > 0;
     stopObserving();
     (document.body || document.documentElement).appendChild(svg);
@@ -799,7 +830,7 @@
     await new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r)));
     const charts = [];
     for (const [path, l] of state.layers) {
-      const b = globalThis.standoutReader.pageBox(l.entry);
+      const b = boxOf(l.entry);
       const x = Math.max(0, b[0] - window.scrollX - 10);
       const y = Math.max(0, b[1] - window.scrollY - 10);
       const w = Math.min(window.innerWidth - x, b[2] + 20);
@@ -881,7 +912,7 @@
     if (!r.ok) throw new Error(r.error);
     // The core sends the overlay's digest of the report; the whole report
     // is made when it is exported.
-    return { report: r.overlay, pixels: data.pixels, timing: Object.assign({}, data.timing, { core: r.timing }) };
+    return { report: r.overlay, pixels: data.pixels, frameOrigins: data.frameOrigins || [], timing: Object.assign({}, data.timing, { core: r.timing }) };
   }
 
   // render shows a check's answer, if it is the one awaited (seq): a
@@ -961,7 +992,7 @@
     // cut them from a capture of the visible tab.
     const de = document.documentElement;
     const view = { x: window.scrollX, y: window.scrollY, w: de.clientWidth || window.innerWidth, h: de.clientHeight || window.innerHeight };
-    return { json, seq, readMs: page.readMs, stringifyMs: performance.now() - t1, rasters: page.rasters, view };
+    return { json, seq, readMs: page.readMs, stringifyMs: performance.now() - t1, rasters: page.rasters, frames: page.unreadFrames, view };
   }
 
   // press is the toolbar action: it closes an open check (or one being
