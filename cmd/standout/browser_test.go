@@ -433,12 +433,20 @@ func TestRasterChartsSalientRegions(t *testing.T) {
 }
 
 // A page on one loopback origin embeds a chart page served from another
-// (a different port is a different origin), beside a canvas chart and an
-// <img> chart: the read pass cannot enter the frame, but check --browser
-// reads it through CDP, with its chart's marks in page coordinates under
-// the frame's name, and judges the two raster charts by their pixels.
+// (a different port is a different origin; "localhost" for 127.0.0.1 is
+// another site, which the browser runs in a process of its own), beside
+// a canvas chart and an <img> chart: the read pass cannot enter the frame,
+// but check --browser reads it through CDP, with its chart's marks in page
+// coordinates under the frame's name, and judges the two raster charts by
+// their pixels.
 func TestCrossOriginFrameAndRasters(t *testing.T) {
 	needBrowser(t)
+	for name, host := range map[string]string{"same site": "127.0.0.1", "another site": "localhost"} {
+		t.Run(name, func(t *testing.T) { crossOriginFrame(t, host) })
+	}
+}
+
+func crossOriginFrame(t *testing.T, framedHost string) {
 	var bars strings.Builder
 	bars.WriteString(`<!doctype html><html><body style="margin:0"><svg width="300" height="200" aria-label="Ferry crossings by quay">`)
 	for k := 0; k < 8; k++ {
@@ -456,7 +464,7 @@ func TestCrossOriginFrameAndRasters(t *testing.T) {
 	defer framed.Close()
 	rasters, err := os.ReadFile(filepath.Join("testdata", "rasters.html"))
 	require.NoError(t, err)
-	frame := `<iframe src="` + framed.URL + `/quays.html" width="320" height="220" style="border:4px solid #ccc;margin:30px 0 0 50px;display:block"></iframe>`
+	frame := `<iframe src="` + strings.Replace(framed.URL, "127.0.0.1", framedHost, 1) + `/quays.html" width="320" height="220" style="border:4px solid #ccc;margin:30px 0 0 50px;display:block"></iframe>`
 	host := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		w.Header().Set("Content-Type", "text/html; charset=utf-8")
 		fmt.Fprint(w, strings.Replace(string(rasters), "<body>", "<body>"+frame, 1))

@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
+	"net/url"
 	"regexp"
 	"strings"
 
@@ -11,6 +12,7 @@ import (
 	"github.com/chromedp/cdproto/dom"
 	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/cdproto/runtime"
+	"github.com/chromedp/cdproto/target"
 	"github.com/chromedp/chromedp"
 )
 
@@ -36,8 +38,8 @@ var unreadFrame = regexp.MustCompile(`^(frame\d+) \((.*)\): not readable \(a cro
 // document whose origin differs from the page's, in an isolated world of
 // its own, and returns what it read, and the top reader's JSON without the
 // notes on the frames that were read. Frames of another site, which a
-// browser with site isolation runs in a process of their own, are not
-// reached here and keep their note.
+// browser with site isolation runs in a process of their own, are read
+// through their own targets; site isolation stays on.
 func readOtherOrigins(ctx context.Context, topJSON, reader, opts string, top runtime.ExecutionContextID) ([]FrameRead, string, error) {
 	tree, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (*page.FrameTree, error) {
 		t, err := cdp.Call(ctx, tg, page.GetFrameTree, cdp.Empty{})
@@ -52,9 +54,21 @@ func readOtherOrigins(ctx context.Context, topJSON, reader, opts string, top run
 	}
 	var problems []string
 	_ = json.Unmarshal(res["problems"], &problems)
+	// Frames of the page's process, and those of other sites, which the
+	// browser runs in processes of their own and lists as targets.
+	children := make([]*cdp.Frame, 0, len(tree.ChildFrames))
+	for _, c := range tree.ChildFrames {
+		children = append(children, c.Frame)
+	}
+	if ts, err := chromedp.Targets(ctx); err == nil {
+		for _, ti := range ts {
+			if ti.Type == "iframe" && ti.ParentFrameID == tree.Frame.ID {
+				children = append(children, &cdp.Frame{ID: cdp.FrameID(ti.TargetID), URL: ti.URL, SecurityOrigin: originOf(ti.URL)})
+			}
+		}
+	}
 	var out []FrameRead
-	for _, child := range tree.ChildFrames {
-		f := child.Frame
+	for _, f := range children {
 		if f == nil || f.SecurityOrigin == tree.Frame.SecurityOrigin || f.SecurityOrigin == "" || f.SecurityOrigin == "null" {
 			continue
 		}
@@ -90,24 +104,39 @@ func readOtherOrigins(ctx context.Context, topJSON, reader, opts string, top run
 	return out, string(merged), err
 }
 
+// originOf is the origin of an http(s) address, "" for any other.
+func originOf(u string) string {
+	p, err := url.Parse(u)
+	if err != nil || (p.Scheme != "http" && p.Scheme != "https") || p.Host == "" {
+		return ""
+	}
+	return p.Scheme + "://" + p.Host
+}
+
 // readFrame reads one frame: the read pass in an isolated world of the
-// frame, and the frame element's content box, from the top document's
-// world.
+// frame, in the page's process or, for a frame of another site, which the
+// browser runs in a process of its own, in the frame's own target; and the
+// frame element's content box, from the top document's world.
 func readFrame(ctx context.Context, id cdp.FrameID, reader, opts string, top runtime.ExecutionContextID) (FrameRead, string, error) {
 	var fr FrameRead
 	var src string
-	_, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (struct{}, error) {
-		w, err := cdp.Call(ctx, tg, page.CreateIsolatedWorld, page.CreateIsolatedWorldParams{FrameID: id, WorldName: "standout"})
-		if err != nil {
-			return struct{}{}, err
+	var err error
+	if fr.JSON, err = readIn(ctx, id, reader, opts); err != nil {
+		// Detach when done: closing the target would close the frame.
+		fctx, cancel := chromedp.NewContext(ctx, chromedp.WithTargetID(target.ID(id)), chromedp.WithDetachOnCancel())
+		defer cancel()
+		tree, terr := chromedp.Run(fctx, func(ctx context.Context, tg *chromedp.Target) (*page.FrameTree, error) {
+			t, err := cdp.Call(ctx, tg, page.GetFrameTree, cdp.Empty{})
+			return t.FrameTree, err
+		})
+		if terr != nil || tree == nil || tree.Frame == nil {
+			return fr, "", fmt.Errorf("%w (and as a frame of another process: %v)", err, terr)
 		}
-		in := func(p *runtime.EvaluateParams) { p.ContextID = w.ExecutionContextID }
-		if _, err := chromedp.Evaluate[chromedp.Void](reader, in)(ctx, tg); err != nil {
-			return struct{}{}, err
+		if fr.JSON, err = readIn(fctx, tree.Frame.ID, reader, opts); err != nil {
+			return fr, "", err
 		}
-		if fr.JSON, err = chromedp.Evaluate[string](`globalThis.standoutReader.readPage(document, `+opts+`).then((p) => JSON.stringify(p))`, chromedp.EvalAwaitPromise, in)(ctx, tg); err != nil {
-			return struct{}{}, err
-		}
+	}
+	_, err = chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (struct{}, error) {
 		owner, err := cdp.Call(ctx, tg, dom.GetFrameOwner, dom.GetFrameOwnerParams{FrameID: id})
 		if err != nil {
 			return struct{}{}, err
@@ -133,6 +162,22 @@ func readFrame(ctx context.Context, id cdp.FrameID, reader, opts string, top run
 		return struct{}{}, nil
 	})
 	return fr, strings.TrimSpace(src), err
+}
+
+// readIn runs the read pass in an isolated world of frame id of ctx's
+// target and returns its JSON.
+func readIn(ctx context.Context, id cdp.FrameID, reader, opts string) (string, error) {
+	return chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (string, error) {
+		w, err := cdp.Call(ctx, tg, page.CreateIsolatedWorld, page.CreateIsolatedWorldParams{FrameID: id, WorldName: "standout"})
+		if err != nil {
+			return "", err
+		}
+		in := func(p *runtime.EvaluateParams) { p.ContextID = w.ExecutionContextID }
+		if _, err := chromedp.Evaluate[chromedp.Void](reader, in)(ctx, tg); err != nil {
+			return "", err
+		}
+		return chromedp.Evaluate[string](`globalThis.standoutReader.readPage(document, `+opts+`).then((p) => JSON.stringify(p))`, chromedp.EvalAwaitPromise, in)(ctx, tg)
+	})
 }
 
 // frameBoxJS gives a frame element's content box origin in page CSS px

@@ -51,7 +51,7 @@ func PageFindings(p *Page) {
 	}
 	for _, pr := range p.Problems {
 		if name, src, ok := unreadFrameNote(pr); ok {
-			warn("frame-unread", "The frame "+name+" ("+src+") could not be read, so its charts were not checked: check the framed page itself, or run check --browser, which reads frames of other origins of the same site.", name)
+			warn("frame-unread", "The frame "+name+" ("+src+") could not be read, so its charts were not checked: check the framed page itself, or run check --browser, which reads frames of other origins.", name)
 		}
 		if href, ok := unloadedSheet(pr); ok {
 			warn("style-sheet-unread", "The style sheet "+href+" was not loaded, so the charts may have been read in default colours: run check --browser to read them as a browser styles them.")
