@@ -447,19 +447,9 @@ func TestCrossOriginFrameAndRasters(t *testing.T) {
 }
 
 func crossOriginFrame(t *testing.T, framedHost string) {
-	var bars strings.Builder
-	bars.WriteString(`<!doctype html><html><body style="margin:0"><svg width="300" height="200" aria-label="Ferry crossings by quay">`)
-	for k := 0; k < 8; k++ {
-		fill := "#7d8a99"
-		if k == 3 {
-			fill = "#d1495b"
-		}
-		fmt.Fprintf(&bars, `<rect x="%d" y="%d" width="24" height="%d" fill="%s"/>`, 20+k*34, 180-(40+k*17%120), 40+k*17%120, fill)
-	}
-	bars.WriteString(`</svg></body></html>`)
 	framed := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		fmt.Fprint(w, bars.String())
+		fmt.Fprint(w, testkit.QuayBars())
 	}))
 	defer framed.Close()
 	rasters, err := os.ReadFile(filepath.Join("testdata", "rasters.html"))

@@ -92,3 +92,22 @@ func ManyCircles(n int) string {
 	b.WriteString(`</g></svg></body></html>`)
 	return b.String()
 }
+
+// QuayBars is an HTML page to be framed by another origin: one bar chart
+// of 8 bars at x = 20 + 34k (24 px wide), the fourth highlighted in its
+// own colour, with no margin, so that the chart's box is the frame's
+// content box.
+func QuayBars() string {
+	var b strings.Builder
+	b.WriteString(`<!doctype html><html><body style="margin:0"><svg width="300" height="200" aria-label="Ferry crossings by quay">`)
+	for k := 0; k < 8; k++ {
+		fill := "#7d8a99"
+		if k == 3 {
+			fill = "#d1495b"
+		}
+		h := 40 + k*17%120
+		fmt.Fprintf(&b, `<rect x="%d" y="%d" width="24" height="%d" fill="%s"/>`, 20+k*34, 180-h, h, fill)
+	}
+	b.WriteString(`</svg></body></html>`)
+	return b.String()
+}
