@@ -110,6 +110,15 @@ func HandlePage(options, page []byte, frames ...[]byte) (out []byte) {
 		}
 		p.MergeFrame(fp, q.Frames[i].Prefix, q.Frames[i].Dx, q.Frames[i].Dy)
 	}
+	if len(frames) > 0 {
+		total := 0
+		for _, s := range p.Snapshots {
+			total += len(s.Nodes)
+		}
+		if total > snapshot.MaxPageNodes {
+			return errorResponse("the page's charts and its frames' have more than " + strconv.Itoa(snapshot.MaxPageNodes) + " elements, more than one check takes")
+		}
+	}
 	q.Source, q.Snapshots, q.Problems, q.Rasters = p.Source, p.Snapshots, p.Problems, p.Rasters
 	return handle(q, t0)
 }
