@@ -131,7 +131,7 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 		}
 		switch {
 		case n.Data == "style":
-			rules, probs := parseSheet(textContent(n), &order, fmt.Sprintf("<style> #%d", order), &b.casc.budget)
+			rules, probs := parseSheet(textContent(n), &order, fmt.Sprintf("<style> #%d", order), &b.casc.budget, opt.Dark)
 			b.casc.rules = append(b.casc.rules, rules...)
 			page.Problems = append(page.Problems, probs...)
 		case n.Data == "link" && strings.Contains(strings.ToLower(attr(n, "rel")), "stylesheet"):
@@ -223,7 +223,7 @@ func (b *builder) linkedSheet(href string, order *int) ([]rule, []string) {
 	if b.sheetBytes += len(data); b.sheetBytes > MaxPageSheetBytes {
 		return notLoaded(fmt.Sprintf("the page's linked style sheets pass %d MiB", MaxPageSheetBytes>>20))
 	}
-	return parseSheet(string(data), order, "style sheet "+name, &b.casc.budget)
+	return parseSheet(string(data), order, "style sheet "+name, &b.casc.budget, b.opt.Dark)
 }
 
 // walkNodes visits n and its descendants in document order without

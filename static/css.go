@@ -25,12 +25,13 @@ type rule struct {
 }
 
 // parseSheet parses a style sheet with tdewolff/parse's CSS parser. Rules
-// inside @media are kept unless the media query mentions only print
-// (there is no layout to test other queries against); other at-rules
-// (@font-face, @keyframes, …) are skipped. Selectors cascadia cannot
-// compile, and parse errors, are returned as problems; the rules that did
-// parse are kept.
-func parseSheet(text string, order *int, where string, budget *matchBudget) ([]rule, []string) {
+// inside @media are kept unless the media query mentions only print, or
+// asks for the other colour scheme (prefers-color-scheme; dark is the
+// scheme read in); there is no layout to test other queries against.
+// Other at-rules (@font-face, @keyframes, …) are skipped. Selectors
+// cascadia cannot compile, and parse errors, are returned as problems; the
+// rules that did parse are kept.
+func parseSheet(text string, order *int, where string, budget *matchBudget, dark bool) ([]rule, []string) {
 	sp := sheetParser{p: css.NewParser(parse.NewInputString(text), false), order: order, where: where, budget: budget}
 	for {
 		gt, _, data := sp.p.Next()
@@ -44,8 +45,7 @@ func parseSheet(text string, order *int, where string, budget *matchBudget) ([]r
 			name := strings.ToLower(string(data))
 			ok := false
 			if name == "@media" || name == "@supports" || name == "@layer" || name == "@container" {
-				q := strings.ToLower(joinTokens(sp.p.Values()))
-				ok = !(name == "@media" && strings.Contains(q, "print") && !strings.Contains(q, "screen") && !strings.Contains(q, "all"))
+				ok = name != "@media" || mediaMatches(strings.ToLower(joinTokens(sp.p.Values())), dark)
 			}
 			sp.stack = append(sp.stack, ok)
 		case css.EndAtRuleGrammar:
@@ -65,6 +65,37 @@ func parseSheet(text string, order *int, where string, budget *matchBudget) ([]r
 			sp.endRule()
 		}
 	}
+}
+
+// mediaMatches says whether a media query list holds on a screen in the
+// colour scheme: some query of the comma-separated list does. A query for
+// print only does not; one that tests the colour scheme (Media Queries 5
+// §11.5, prefers-color-scheme) holds for the scheme it names, or, after
+// "not", for the other; any other holds (there is no layout to test
+// widths against).
+func mediaMatches(list string, dark bool) bool {
+	for _, q := range strings.Split(list, ",") {
+		q = strings.TrimSpace(q)
+		if strings.Contains(q, "print") && !strings.Contains(q, "screen") && !strings.Contains(q, "all") {
+			continue
+		}
+		i := strings.Index(q, "prefers-color-scheme")
+		if i < 0 {
+			return true
+		}
+		rest := strings.TrimLeft(q[i+len("prefers-color-scheme"):], " :")
+		wantDark := strings.HasPrefix(rest, "dark")
+		if !wantDark && !strings.HasPrefix(rest, "light") {
+			return true // a value we do not know: keep the rules
+		}
+		if strings.HasPrefix(q, "not ") {
+			wantDark = !wantDark
+		}
+		if wantDark == dark {
+			return true
+		}
+	}
+	return false
 }
 
 // sheetParser is the state of one parseSheet: the rules so far, the open
