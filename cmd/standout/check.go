@@ -54,7 +54,7 @@ func parseCheckFlags(args []string, stdout, stderr io.Writer) (*checkFlags, int)
 	fs.StringVar(&cf.mdDir, "md", "", "write a Markdown report per page into this folder")
 	fs.DurationVar(&cf.timeout, "timeout", 60*time.Second, "the longest one page may take to load and check")
 	widths := fs.String("widths", "", "with --browser, viewport widths in CSS px to read each page at, comma-separated (e.g. 360,768,1280)")
-	schemes := fs.String("scheme", "", "with --browser, colour schemes to read each page in: light, dark or light,dark")
+	schemes := fs.String("scheme", "", "colour schemes to read each page in: light, dark or light,dark (the static reader resolves light-dark(), custom properties and prefers-color-scheme rules for each; --browser emulates the scheme)")
 	if code, ok := fs.parse(args); !ok {
 		return nil, code
 	}
@@ -74,8 +74,8 @@ func parseCheckFlags(args []string, stdout, stderr io.Writer) (*checkFlags, int)
 		return nil, 2
 	case cf.pngDir != "" && !cf.useBrowser:
 		return bad("--png needs --browser (the static reader has no rendering)")
-	case (*widths != "" || *schemes != "") && !cf.useBrowser:
-		return bad("--widths and --scheme need --browser (the static reader has no viewport or colour scheme)")
+	case *widths != "" && !cf.useBrowser:
+		return bad("--widths needs --browser (the static reader has no viewport)")
 	case cf.timeout <= 0:
 		return bad("--timeout must be positive, for example 30s or 2m")
 	case cf.tabs < 1 || cf.tabs > 32:
@@ -209,16 +209,31 @@ func checkInBrowser(cf *checkFlags, rep *report.Report, progress *progress, stde
 }
 
 // checkStatic reads every file with the static reader.
+// With --scheme, each file is read once per colour scheme: light-dark(),
+// custom properties and @media (prefers-color-scheme) rules resolve for
+// it.
 func checkStatic(cf *checkFlags, rep *report.Report, progress *progress) (shots [][]byte, failed []string) {
+	views := cf.views
+	if len(views) == 0 {
+		views = []browser.View{{}}
+	}
 	for i, name := range cf.args {
-		rp, err := checkOneFile(name, cf.opt, cf.timeout)
-		progress.step(i+1, name, err)
-		if err != nil {
-			failed = append(failed, fmt.Sprintf("%s: %v", name, err))
-			continue
+		var err error
+		for _, v := range views {
+			opt := cf.opt
+			opt.Dark = v.Scheme == "dark"
+			var rp report.Page
+			if rp, err = checkOneFile(name, opt, cf.timeout); err != nil {
+				failed = append(failed, fmt.Sprintf("%s: %v", name, err))
+				break
+			}
+			if v.Scheme != "" {
+				rp.View = &report.View{Scheme: v.Scheme}
+			}
+			rep.Pages = append(rep.Pages, rp)
+			shots = append(shots, nil)
 		}
-		rep.Pages = append(rep.Pages, rp)
-		shots = append(shots, nil)
+		progress.step(i+1, name, err)
 	}
 	return shots, failed
 }
@@ -369,7 +384,7 @@ func checkOneFile(name string, opt report.Options, timeout time.Duration) (repor
 // static reader; sheets holds the files beside it, for linked style
 // sheets.
 func checkReader(name string, r io.Reader, sheets fs.FS, opt report.Options) (report.Page, error) {
-	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline, Sheets: sheets})
+	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline, Sheets: sheets, Dark: opt.Dark})
 	if err != nil {
 		return report.Page{}, err
 	}

@@ -224,3 +224,35 @@ func TestUnreadIsAWarning(t *testing.T) {
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
 	assert.Empty(t, rep.Pages[0].Findings)
 }
+
+// The static reader reads a page in each colour scheme --scheme names: its
+// light-dark() colours, custom properties and @media (prefers-color-scheme)
+// rules resolve for the scheme, each page carries its view, and the report
+// says what changes between them. Widths still need the browser.
+func TestStaticColourSchemes(t *testing.T) {
+	page := writePage(t, t.TempDir(), "tides.html", `<!doctype html><html><head><style>
+	:root { --bar: light-dark(#3b6e8f, #9cc3dc); --bg: light-dark(#ffffff, #14161a); }
+	body { background: var(--bg); }
+	@media (prefers-color-scheme: dark) { .hi { fill: #ffb86b; } }
+	</style></head><body><svg width="200" height="100">
+	<rect x="10" y="40" width="20" height="60" style="fill: var(--bar)"/><rect class="hi" x="40" y="20" width="20" height="80" fill="#c8553d"/>
+	<rect x="70" y="50" width="20" height="50" style="fill: var(--bar)"/></svg></body></html>`)
+	code, out, errs := runCmd("check", "--json", "--scheme", "light,dark", page)
+	require.Equal(t, 0, code, errs)
+	var rep report.Report
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	require.Len(t, rep.Pages, 2)
+	for i, want := range []struct{ scheme, bg, bar, hi string }{{"light", "#ffffff", "#3b6e8f", "#c8553d"}, {"dark", "#14161a", "#9cc3dc", "#ffb86b"}} {
+		p := rep.Pages[i]
+		require.NotNil(t, p.View)
+		assert.Equal(t, want.scheme, p.View.Scheme)
+		c := p.Charts[0]
+		assert.Equal(t, want.bg, c.Background, want.scheme)
+		require.Len(t, c.Marks, 3)
+		assert.Equal(t, want.bar, *c.Marks[0].Fill, want.scheme)
+		assert.Equal(t, want.hi, *c.Marks[1].Fill, want.scheme)
+	}
+	code, _, errs = runCmd("check", "--widths", "360", page)
+	assert.Equal(t, 2, code)
+	assert.Contains(t, errs, "--widths needs --browser")
+}

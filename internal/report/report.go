@@ -286,6 +286,10 @@ type Options struct {
 	Selector string
 	// IDs names the intended emphasis by mark id.
 	IDs map[string]bool
+	// Dark asks the static reader for the dark colour scheme: light-dark(),
+	// custom properties and @media (prefers-color-scheme) rules resolve
+	// for it (check --scheme dark without --browser).
+	Dark bool
 	// Box names it by a box in page CSS px: the marks whose centres it
 	// holds.
 	Box *[4]float64
