@@ -1,6 +1,7 @@
 package marks
 
 import (
+	"cmp"
 	"math"
 	"slices"
 	"standout/snapshot"
@@ -108,7 +109,7 @@ func strip(h *Heuristics, grp []*cand) ([4]float64, bool) {
 		at, step, thick = func(c *cand) float64 { return c.g.BBox[0] }, b0[2], b0[3]
 	}
 	order := slices.Clone(grp)
-	slices.SortFunc(order, func(a, b *cand) int { return cmpFloat(at(a), at(b)) })
+	slices.SortFunc(order, func(a, b *cand) int { return cmp.Compare(at(a), at(b)) })
 	for i := 1; i < len(order); i++ {
 		if gap := at(order[i]) - at(order[i-1]) - step; math.Abs(gap) > 1 {
 			return [4]float64{}, false
@@ -135,16 +136,6 @@ func graded(order []*cand) bool {
 		down = down && d <= 2
 	}
 	return (up || down) && luma(order[0]) != luma(order[len(order)-1])
-}
-
-func cmpFloat(a, b float64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 // rampParts: a closed shape on the ramp's box (its outline or background)

@@ -848,10 +848,7 @@ func nearestText(texts []*cand, p Point) *cand {
 	var best *cand
 	bestD := math.Inf(1)
 	for _, t := range texts {
-		fs := 10.0
-		if len(t.n.Geom) >= 3 {
-			fs = max(fs, t.n.Geom[2]*math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det())))
-		}
+		fs := max(10, fontSize(t.n, 10))
 		if d := math.Hypot(t.textPos.X-p.X, t.textPos.Y-p.Y); d <= fs && d < bestD {
 			best, bestD = t, d
 		}
@@ -1017,10 +1014,7 @@ func swatchPairs(h *Heuristics, cands []*cand, texts []*cand) []swatchPair {
 			if t.role != RoleLabel && t.role != RoleMark {
 				continue
 			}
-			fs := 10.0
-			if len(t.n.Geom) >= 3 {
-				fs = t.n.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det()))
-			}
+			fs := fontSize(t.n, 10)
 			dx := t.textPos.X - right
 			dy := math.Abs(t.textPos.Y - fs*0.35 - cy)
 			if dx >= -1 && dx <= max(size, h.SwatchLabelGapMin)+h.SwatchLabelGapExtra && dy <= max(size, fs)*0.6 && dx < bestDx {
@@ -1063,15 +1057,25 @@ func overShape(t *cand, cands []*cand) bool {
 
 // textBox is a text's box in page px: the reader's, or one estimated from
 // its anchor, font size and length.
-func textBox(t *cand) [4]float64 {
+func textBox(t *cand) [4]float64 { return textBoxAt(t, fontSize(t.n, 10)) }
+
+// textBoxAt is a text's box in page px at font size fs: the reader's, or
+// one estimated from its anchor and its length (an advance of 0.55 em a
+// character).
+func textBoxAt(t *cand, fs float64) [4]float64 {
 	if len(t.n.BBox) == 4 {
 		return [4]float64{t.n.BBox[0], t.n.BBox[1], t.n.BBox[2], t.n.BBox[3]}
 	}
-	fs := 10.0
-	if len(t.n.Geom) >= 3 {
-		fs = t.n.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(t.n.CTM).Det()))
-	}
 	return [4]float64{t.textPos.X, t.textPos.Y - 0.8*fs, 0.55 * fs * float64(len([]rune(t.n.Text))), fs}
+}
+
+// fontSize is a text node's font size in page px, or def when the reader
+// gave none.
+func fontSize(n *snapshot.Node, def float64) float64 {
+	if len(n.Geom) >= 3 {
+		return n.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(n.CTM).Det()))
+	}
+	return def
 }
 
 // seriesIcons merges a short straight line and a dot centred on it that
@@ -1380,19 +1384,12 @@ func makeMark(c *cand) Mark {
 	}
 	if nd.Tag == "text" {
 		m.Kind, m.Shape, m.Text = KindText, ShapeOther, nd.Text
-		fs := 16.0
-		if len(nd.Geom) >= 3 {
-			fs = nd.Geom[2] * math.Sqrt(math.Abs(snapshot.Matrix(nd.CTM).Det()))
-		}
+		fs := fontSize(nd, 16)
 		m.Size, m.Weight = fs, 400
 		if len(nd.Geom) >= 4 && nd.Geom[3] >= 1 && nd.Geom[3] <= 1000 {
 			m.Weight = nd.Geom[3]
 		}
-		w := 0.55 * fs * float64(len([]rune(nd.Text))) // estimated advance width
-		m.BBox = [4]float64{c.textPos.X, c.textPos.Y - 0.8*fs, w, fs}
-		if len(nd.BBox) == 4 {
-			m.BBox = [4]float64{nd.BBox[0], nd.BBox[1], nd.BBox[2], nd.BBox[3]}
-		}
+		m.BBox = textBoxAt(c, fs)
 		m.Centroid = Point{m.BBox[0] + m.BBox[2]/2, m.BBox[1] + m.BBox[3]/2}
 		m.Area = m.BBox[2] * m.BBox[3]
 		m.Fold = 2
