@@ -11,9 +11,6 @@ import (
 // (2,000 × 2,000).
 const MaxPixels = 4 << 20
 
-// maxRegions is how many regions a vision type's answer lists.
-const maxRegions = 5
-
 // Saliency judges a chart drawn as pixels: rgba holds w×h pixels, 8 bits a
 // channel, row by row, as a canvas's ImageData has them. The answer is a
 // JSON object keyed by vision type ("normal", then each CVD type at
@@ -27,27 +24,15 @@ func Saliency(rgba []byte, w, h int, severity float64) []byte {
 	if !(severity >= 0 && severity <= 1) {
 		severity = perception.DefaultParams.Severity
 	}
-	img := saliency.NewImage(w, h)
-	for i := 0; i < w*h; i++ {
-		// Transparent pixels show the page behind them, taken as white.
-		a := float32(rgba[4*i+3]) / 255
-		img.R[i] = float32(rgba[4*i])/255*a + 1 - a
-		img.G[i] = float32(rgba[4*i+1])/255*a + 1 - a
-		img.B[i] = float32(rgba[4*i+2])/255*a + 1 - a
-	}
+	perVision := saliency.PerVision(saliency.FromRGBA(rgba, w, h), perception.Visions, severity, saliency.Reported)
 	b := []byte(`{"ok":true,"regions":{`)
 	for k, v := range perception.Visions {
 		if k > 0 {
 			b = append(b, ',')
 		}
-		px := img
-		if k > 0 {
-			px = saliency.Simulated(img, v, severity)
-		}
 		b = strconv.AppendQuote(b, v.String())
 		b = append(b, ":["...)
-		rs := saliency.Regions(saliency.Compute(px), w, h)
-		for j, r := range rs[:min(len(rs), maxRegions)] {
+		for j, r := range perVision[k] {
 			if j > 0 {
 				b = append(b, ',')
 			}

@@ -3,16 +3,13 @@ package main
 import (
 	"bytes"
 	"image"
+	"image/draw"
 	"image/png"
 
 	"standout/internal/report"
 	"standout/perception"
 	"standout/perception/saliency"
 )
-
-// maxRegions is how many salient regions a chart drawn as pixels reports
-// per vision type.
-const maxRegions = 5
 
 // rasterRegions fills in the salient regions of each chart drawn as
 // pixels that the browser captured (shots, by name): the saliency map of
@@ -30,13 +27,13 @@ func rasterRegions(us []report.Unchecked, shots map[string][]byte, severity floa
 			continue
 		}
 		px := toSaliency(img)
-		u.Regions = pageRegions(px, u.Box)
-		if len(u.Regions) == 0 {
+		perVision := saliency.PerVision(px, perception.Visions, severity, saliency.Reported)
+		if u.Regions = pageRegions(perVision[0], px.W, px.H, u.Box); len(u.Regions) == 0 {
 			continue
 		}
 		u.CVD = map[string][]report.Region{}
-		for _, v := range perception.Visions[1:] {
-			u.CVD[v.String()] = pageRegions(saliency.Simulated(px, v, severity), u.Box)
+		for k, v := range perception.Visions[1:] {
+			u.CVD[v.String()] = pageRegions(perVision[k+1], px.W, px.H, u.Box)
 		}
 		if box != nil {
 			u.Emphasis = emphasisIn(u, *box)
@@ -60,13 +57,12 @@ func emphasisIn(u *report.Unchecked, box [4]float64) *report.RasterEmphasis {
 	return e
 }
 
-// pageRegions computes the map of px and maps its strongest regions into
-// the chart's box in the page.
-func pageRegions(px *saliency.Image, box [4]float64) []report.Region {
-	rs := saliency.Regions(saliency.Compute(px), px.W, px.H)
-	sx, sy := box[2]/float64(px.W), box[3]/float64(px.H)
+// pageRegions maps regions of a chart's w×h pixels into its box in the
+// page.
+func pageRegions(rs []saliency.Region, w, h int, box [4]float64) []report.Region {
+	sx, sy := box[2]/float64(w), box[3]/float64(h)
 	var out []report.Region
-	for _, r := range rs[:min(len(rs), maxRegions)] {
+	for _, r := range rs {
 		b := r.Box
 		out = append(out, report.Region{Box: [4]float64{round2(box[0] + b[0]*sx), round2(box[1] + b[1]*sy), round2(b[2] * sx), round2(b[3] * sy)},
 			Salience: round2(r.Salience)})
@@ -76,21 +72,10 @@ func pageRegions(px *saliency.Image, box [4]float64) []report.Region {
 
 func round2(v float64) float64 { return float64(int64(v*100+0.5)) / 100 }
 
-// toSaliency converts a decoded image to the model's RGB planes, its
-// alpha composited over white (a transparent canvas shows the page,
-// usually white, behind it).
+// toSaliency converts a decoded image to the model's RGB planes.
 func toSaliency(img image.Image) *saliency.Image {
 	b := img.Bounds()
-	out := saliency.NewImage(b.Dx(), b.Dy())
-	for y := b.Min.Y; y < b.Max.Y; y++ {
-		for x := b.Min.X; x < b.Max.X; x++ {
-			r, g, bl, a := img.At(x, y).RGBA()
-			k := (y-b.Min.Y)*out.W + (x - b.Min.X)
-			white := float32(0xffff-a) / 0xffff
-			out.R[k] = float32(r)/0xffff + white
-			out.G[k] = float32(g)/0xffff + white
-			out.B[k] = float32(bl)/0xffff + white
-		}
-	}
-	return out
+	n := image.NewNRGBA(image.Rect(0, 0, b.Dx(), b.Dy()))
+	draw.Draw(n, n.Bounds(), img, b.Min, draw.Src)
+	return saliency.FromRGBA(n.Pix, b.Dx(), b.Dy())
 }

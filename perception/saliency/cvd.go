@@ -38,3 +38,34 @@ func (r Region) Covers(b [4]float64) bool {
 	cx, cy := b[0]+b[2]/2, b[1]+b[3]/2
 	return cx >= r.Box[0] && cx <= r.Box[0]+r.Box[2] && cy >= r.Box[1] && cy <= r.Box[1]+r.Box[3]
 }
+
+// FromRGBA is the image of w×h pixels given as 8-bit RGBA, not
+// premultiplied, row by row (a canvas's ImageData, image.NRGBA's Pix),
+// each composited over white: a transparent pixel shows the page behind
+// it, taken as white. rgba must hold 4·w·h bytes.
+func FromRGBA(rgba []byte, w, h int) *Image {
+	img := NewImage(w, h)
+	for i := 0; i < w*h; i++ {
+		a := float32(rgba[4*i+3]) / 255
+		img.R[i] = float32(rgba[4*i])/255*a + 1 - a
+		img.G[i] = float32(rgba[4*i+1])/255*a + 1 - a
+		img.B[i] = float32(rgba[4*i+2])/255*a + 1 - a
+	}
+	return img
+}
+
+// PerVision lists, for each vision type, the strongest n regions of img as
+// a reader with it sees the image (Simulated at severity; colour.Normal
+// is img as it is), in the order of visions.
+func PerVision(img *Image, visions []colour.Deficiency, severity float64, n int) [][]Region {
+	out := make([][]Region, len(visions))
+	for k, v := range visions {
+		px := img
+		if v != colour.Normal {
+			px = Simulated(img, v, severity)
+		}
+		rs := Regions(Compute(px), img.W, img.H)
+		out[k] = rs[:min(len(rs), n)]
+	}
+	return out
+}

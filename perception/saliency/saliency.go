@@ -354,6 +354,10 @@ type Region struct {
 	Salience float64
 }
 
+// Reported is how many regions, strongest first, a report lists for each
+// vision type.
+const Reported = 5
+
 // RegionShare: a region is a connected area of the map at or above this
 // share of its peak. Provisional: half the peak keeps the winning
 // location and those that compete with it.
