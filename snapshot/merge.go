@@ -15,7 +15,7 @@ func (p *PageJSON) MergeFrame(f *PageJSON, prefix string, dx, dy float64) {
 	name := strings.TrimSuffix(prefix, "/")
 	kept := p.Problems[:0]
 	for _, pr := range p.Problems {
-		if !(strings.HasPrefix(pr, name+" (") && strings.Contains(pr, "): not readable")) {
+		if n, _, ok := UnreadFrame(pr); !ok || n != name {
 			kept = append(kept, pr)
 		}
 	}
@@ -47,4 +47,17 @@ func (p *PageJSON) MergeFrame(f *PageJSON, prefix string, dx, dy float64) {
 	for _, pr := range f.Problems {
 		p.Problems = append(p.Problems, prefix+": "+pr)
 	}
+}
+
+// UnreadFrame reads a read pass's note on a frame it could not enter,
+// "frame2 (src): not readable (a cross-origin frame)…": the frame's name
+// and its src attribute. (No regexp: the package would double the core's
+// share of the .wasm.)
+func UnreadFrame(note string) (name, src string, ok bool) {
+	end := strings.Index(note, "): not readable (a cross-origin frame)")
+	i := strings.Index(note, " (")
+	if end < 0 || i <= 0 || i > end || strings.ContainsAny(note[:i], " \t") {
+		return "", "", false
+	}
+	return note[:i], note[i+2 : end], true
 }

@@ -31,29 +31,35 @@ type FrameRead struct {
 const MaxFrameReads = 16
 
 // unreadFrame matches the top reader's note on a frame it could not
-// enter: its name and its src attribute.
+// enter: its name and its src attribute. (snapshot.UnreadFrame reads the
+// same note; this package sits below snapshot.)
 var unreadFrame = regexp.MustCompile(`^(frame\d+) \((.*)\): not readable \(a cross-origin frame\)`)
 
 // readOtherOrigins runs the read pass in each child frame of the top
 // document whose origin differs from the page's, in an isolated world of
-// its own, and returns what it read, and the top reader's JSON without the
-// notes on the frames that were read. Frames of another site, which a
-// browser with site isolation runs in a process of their own, are read
-// through their own targets; site isolation stays on.
-func readOtherOrigins(ctx context.Context, topJSON, reader, opts string, top runtime.ExecutionContextID) ([]FrameRead, string, error) {
+// its own, and returns what it read, each under the name the top reader's
+// note on it gives (problems: the top reading's notes; the merge drops
+// the notes, snapshot.PageJSON.MergeFrame). Frames of another site, which
+// a browser with site isolation runs in a process of their own, are read
+// through their own targets; site isolation stays on. Without such a note
+// there is nothing to read, and the frames are not looked up.
+func readOtherOrigins(ctx context.Context, problems []string, reader, opts string, top runtime.ExecutionContextID) ([]FrameRead, error) {
+	noted := map[int]bool{}
+	for k, p := range problems {
+		if unreadFrame.MatchString(p) {
+			noted[k] = true
+		}
+	}
+	if len(noted) == 0 {
+		return nil, nil
+	}
 	tree, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) (*page.FrameTree, error) {
 		t, err := cdp.Call(ctx, tg, page.GetFrameTree, cdp.Empty{})
 		return t.FrameTree, err
 	})
 	if err != nil || tree == nil || tree.Frame == nil {
-		return nil, topJSON, err
+		return nil, err
 	}
-	var res map[string]json.RawMessage
-	if err := json.Unmarshal([]byte(topJSON), &res); err != nil {
-		return nil, topJSON, err
-	}
-	var problems []string
-	_ = json.Unmarshal(res["problems"], &problems)
 	// Frames of the page's process, and those of other sites, which the
 	// browser runs in processes of their own and lists as targets.
 	children := make([]*cdp.Frame, 0, len(tree.ChildFrames))
@@ -79,13 +85,17 @@ func readOtherOrigins(ctx context.Context, topJSON, reader, opts string, top run
 		}
 		fr, src, err := readFrame(ctx, f.ID, reader, opts, top)
 		if err != nil {
-			return nil, topJSON, fmt.Errorf("frame %s: %w", f.URL, err)
+			return nil, fmt.Errorf("frame %s: %w", f.URL, err)
 		}
-		// The top reader's name for the frame, found by its note.
-		for k, p := range problems {
-			if m := unreadFrame.FindStringSubmatch(p); m != nil && m[2] == src {
+		// The top reader's name for the frame, found by its note (each
+		// note names one frame).
+		for k := range problems {
+			if !noted[k] {
+				continue
+			}
+			if m := unreadFrame.FindStringSubmatch(problems[k]); m[2] == src {
 				fr.Prefix = m[1] + "/"
-				problems = append(problems[:k], problems[k+1:]...)
+				delete(noted, k)
 				break
 			}
 		}
@@ -94,14 +104,7 @@ func readOtherOrigins(ctx context.Context, topJSON, reader, opts string, top run
 		}
 		out = append(out, fr)
 	}
-	if len(out) == 0 {
-		return nil, topJSON, nil
-	}
-	if res["problems"], err = json.Marshal(problems); err != nil {
-		return nil, topJSON, err
-	}
-	merged, err := json.Marshal(res)
-	return out, string(merged), err
+	return out, nil
 }
 
 // originOf is the origin of an http(s) address, "" for any other.

@@ -232,15 +232,20 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 		r.Err = fmt.Errorf("reading %s: %w", url, err)
 		return r
 	}
+	head, err := headOf(js)
+	if err != nil {
+		r.Err = fmt.Errorf("reading %s: %w", url, err)
+		return r
+	}
 	// Frames of other origins, which the read pass cannot enter, CDP can.
-	if r.Frames, js, err = readOtherOrigins(ctx, js, reader, string(opts), worldID); err != nil {
+	if r.Frames, err = readOtherOrigins(ctx, head.Problems, reader, string(opts), worldID); err != nil {
 		r.Err = fmt.Errorf("reading the frames of %s: %w", url, err)
 		return r
 	}
 	r.JSON = js
 	r.ReadMs = float64(time.Since(t1).Microseconds()) / 1000
 	if o.Rasters {
-		if r.Rasters, err = rasterShots(ctx, js, r.Frames); err != nil {
+		if r.Rasters, err = rasterShots(ctx, head, r.Frames); err != nil {
 			r.Err = fmt.Errorf("capturing the charts drawn as pixels on %s: %w", url, err)
 			return r
 		}
@@ -273,25 +278,15 @@ const (
 // rasters: name and box in page CSS px), as a PNG at
 // one image pixel per CSS px, from beyond the viewport where it lies
 // there.
-func rasterShots(ctx context.Context, readJSON string, frames []FrameRead) (map[string][]byte, error) {
-	type raster struct {
-		Name string     `json:"name"`
-		Box  [4]float64 `json:"box"`
-	}
-	var all []raster
-	for k := -1; k < len(frames); k++ {
-		var res struct {
-			Rasters []raster `json:"rasters"`
-		}
-		src, prefix, dx, dy := readJSON, "", 0.0, 0.0
-		if k >= 0 {
-			src, prefix, dx, dy = frames[k].JSON, frames[k].Prefix, frames[k].Dx, frames[k].Dy
-		}
-		if err := json.Unmarshal([]byte(src), &res); err != nil {
+func rasterShots(ctx context.Context, top readHead, frames []FrameRead) (map[string][]byte, error) {
+	all := top.Rasters
+	for _, f := range frames {
+		fh, err := headOf(f.JSON)
+		if err != nil {
 			return nil, err
 		}
-		for _, r := range res.Rasters {
-			all = append(all, raster{prefix + r.Name, [4]float64{r.Box[0] + dx, r.Box[1] + dy, r.Box[2], r.Box[3]}})
+		for _, r := range fh.Rasters {
+			all = append(all, raster{f.Prefix + r.Name, [4]float64{r.Box[0] + f.Dx, r.Box[1] + f.Dy, r.Box[2], r.Box[3]}})
 		}
 	}
 	out := map[string][]byte{}
@@ -315,4 +310,22 @@ func rasterShots(ctx context.Context, readJSON string, frames []FrameRead) (map[
 		out[rr.Name] = shot
 	}
 	return out, nil
+}
+
+// readHead is what the browser reader itself needs of a reading: its notes
+// (for the frames it could not enter) and its charts drawn as pixels.
+type readHead struct {
+	Problems []string `json:"problems"`
+	Rasters  []raster `json:"rasters"`
+}
+
+type raster struct {
+	Name string     `json:"name"`
+	Box  [4]float64 `json:"box"`
+}
+
+func headOf(readJSON string) (readHead, error) {
+	var h readHead
+	err := json.Unmarshal([]byte(readJSON), &h)
+	return h, err
 }

@@ -2,23 +2,14 @@ package report
 
 import (
 	"strings"
+
+	"standout/snapshot"
 )
 
 // Page-level findings: what a check could not read. None is a verdict on
 // a chart; each says what to do so that the chart can be checked. The
 // readers' notes are matched without regexp, which would double the
 // core's share of the .wasm.
-
-// unreadFrameNote reads a reader's note on a frame it could not enter:
-// "frame2 (src): not readable (a cross-origin frame)…".
-func unreadFrameNote(p string) (name, src string, ok bool) {
-	end := strings.Index(p, "): not readable (a cross-origin frame)")
-	i := strings.Index(p, " (")
-	if end < 0 || i <= 0 || i > end || strings.ContainsAny(p[:i], " \t") {
-		return "", "", false
-	}
-	return p[:i], p[i+2 : end], true
-}
 
 // unloadedSheet reads the static reader's note on a style sheet it did not
 // load: `external style sheet "href" was not loaded…`.
@@ -50,7 +41,7 @@ func PageFindings(p *Page) {
 		}
 	}
 	for _, pr := range p.Problems {
-		if name, src, ok := unreadFrameNote(pr); ok {
+		if name, src, ok := snapshot.UnreadFrame(pr); ok {
 			warn("frame-unread", "The frame "+name+" ("+src+") could not be read, so its charts were not checked: check the framed page itself, or run check --browser, which reads frames of other origins.", name)
 		}
 		if href, ok := unloadedSheet(pr); ok {
