@@ -705,25 +705,21 @@ func spines(h *Heuristics, cands []*cand, segs []seg) {
 		isSeg[s.c] = true
 	}
 	var data []*cand
-	x0, y0, x1, y1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
 	for _, c := range cands {
-		if c.role != RoleMark || isSeg[c] {
-			continue
+		if c.role == RoleMark && !isSeg[c] {
+			data = append(data, c)
 		}
-		data = append(data, c)
-		b := c.g.BBox
-		x0, y0 = min(x0, b[0]), min(y0, b[1])
-		x1, y1 = max(x1, b[0]+b[2]), max(y1, b[1]+b[3])
 	}
 	if len(data) < 2 {
 		return
 	}
+	extent := unionBox(data)
 	var edges, axes []seg
 	for _, s := range segs {
 		switch {
 		case s.c.role == RoleAxis || s.c.role == RoleFrame:
 			axes = append(axes, s)
-		case s.c.role == RoleMark && alongEdge(h, s, data, x0, y0, x1, y1):
+		case s.c.role == RoleMark && alongEdge(h, s, data, extent):
 			edges = append(edges, s)
 		}
 	}
@@ -739,11 +735,11 @@ func spines(h *Heuristics, cands []*cand, segs []seg) {
 
 // alongEdge: s spans SpineMinSpan of the data's extent and has every
 // data mark's centre on one side.
-func alongEdge(h *Heuristics, s seg, data []*cand, x0, y0, x1, y1 float64) bool {
+func alongEdge(h *Heuristics, s seg, data []*cand, extent [4]float64) bool {
 	tol := h.AlignTol + s.c.strokeW/2
-	at, span := s.a.Y, x1-x0
+	at, span := s.a.Y, extent[2]
 	if s.vert {
-		at, span = s.a.X, y1-y0
+		at, span = s.a.X, extent[3]
 	}
 	if s.L < h.SpineMinSpan*span {
 		return false
