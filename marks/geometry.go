@@ -140,11 +140,16 @@ func measureEllipse(n *snapshot.Node, m snapshot.Matrix) (g Geometry, ok bool, e
 		return g, false, nil
 	}
 	px, py := m.Apply(cx, cy)
-	g.BBox = boundsOf(m, cx-rx, cy-ry, cx+rx, cy+ry)
+	// The ellipse maps to the points (px, py) + A·(cos t, sin t) with
+	// A = [a c; b d]; x peaks at √(a² + c²), y at √(b² + d²): the box of
+	// the shape itself, not of its transformed box, which is looser once
+	// rotated.
+	a, b, c, d := m[0]*rx, m[1]*rx, m[2]*ry, m[3]*ry
+	hx, hy := math.Hypot(a, c), math.Hypot(b, d)
+	g.BBox = [4]float64{px - hx, py - hy, 2 * hx, 2 * hy}
 	g.Area = math.Pi * rx * ry * math.Abs(m.Det())
 	g.Centroid = Point{px, py}
-	// Semi-axes after the transform: singular values of [a c; b d]·diag(rx, ry).
-	a, b, c, d := m[0]*rx, m[1]*rx, m[2]*ry, m[3]*ry
+	// Semi-axes after the transform: singular values of A.
 	s1, s2, ang := svd2(a, b, c, d)
 	g.Length = math.Pi * (3*(s1+s2) - math.Sqrt((3*s1+s2)*(s1+3*s2))) // Ramanujan
 	g.Closed = true

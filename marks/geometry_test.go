@@ -122,3 +122,34 @@ func TestShapeClasses(t *testing.T) {
 	g, _, _ := Measure(node("path", nil, "M0,-10L8.66,5L-8.66,5Z", snapshot.Matrix{math.Cos(0.5), math.Sin(0.5), -math.Sin(0.5), math.Cos(0.5), 0, 0}))
 	assert.InDelta(t, 0.5*180/math.Pi, g.Angle, 0.5)
 }
+
+// A circle or an ellipse in a rotated or skewed space has the box of the
+// shape itself (SVG 2 §8.9 asks for "the tightest fitting rectangle"), not
+// the looser box of its transformed box: checked against 3,600 points of
+// the transformed ellipse.
+func TestEllipseBoxIsTheShapes(t *testing.T) {
+	c, s := math.Cos(math.Pi/4), math.Sin(math.Pi/4)
+	for _, m := range []snapshot.Matrix{
+		{c, s, -s, c, 190, 0},      // rotate(45 …)
+		{0.5, 0.2, 0.7, 1.5, 3, 4}, // skew and scale
+		{0.25 * c, 0.25 * s, -0.25 * s, 0.25 * c, 50, 50},
+	} {
+		g, ok, err := Measure(node("ellipse", []float64{1, 2, 10, 4}, "", m))
+		require.NoError(t, err)
+		require.True(t, ok)
+		minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+		for i := 0; i < 3600; i++ {
+			a := float64(i) * math.Pi / 1800
+			x, y := m.Apply(1+10*math.Cos(a), 2+4*math.Sin(a))
+			minX, maxX, minY, maxY = min(minX, x), max(maxX, x), min(minY, y), max(maxY, y)
+		}
+		want := [4]float64{minX, minY, maxX - minX, maxY - minY}
+		for i := range want {
+			assert.InDelta(t, want[i], g.BBox[i], 1e-4*max(want[2], want[3]), "matrix %v, box %d: %v against %v", m, i, g.BBox, want)
+		}
+	}
+	// Rotated by 45°, the width is 2√((10 cos 45°)² + (4 sin 45°)²) = 2√58
+	// (analytic).
+	g, _, _ := Measure(node("ellipse", []float64{0, 0, 10, 4}, "", snapshot.Matrix{c, s, -s, c, 0, 0}))
+	assert.InDelta(t, 2*math.Sqrt(58), g.BBox[2], 1e-9)
+}
