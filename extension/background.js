@@ -1,9 +1,11 @@
 // The extension's background: it runs the Go core (WebAssembly) under the
 // extension's own CSP, so pages with strict CSPs are checked too. Nothing
-// here is needed between events: if the service worker is stopped, the
+// here is needed between events: if the browser stops the background (a
+// service worker in Chromium, an event page in Firefox: platform.js), the
 // next event loads the core again. The only state kept between events is
 // a screenshot waiting for its export page, for a few seconds.
 import './wasm_exec.js';
+import { captureTab, ext } from './platform.js';
 
 let corePromise = null;
 
@@ -18,7 +20,7 @@ function loadCore() {
     const t0 = performance.now();
     corePromise = (async () => {
       const go = new Go();
-      const url = chrome.runtime.getURL('standout.wasm');
+      const url = ext.runtime.getURL('standout.wasm');
       const { instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
       go.run(instance).finally(dropCore); // settles only when Go exits
       for (let i = 0; i < 200 && !globalThis.standoutHandle; i++) {
@@ -63,7 +65,7 @@ const SCRIPTS = ['constants.js', 'cvd-filters.js', 'reader.js', 'machine.js', 'o
 async function run(tabId, injection) {
   for (let attempt = 0; ; attempt++) {
     try {
-      const [res] = await chrome.scripting.executeScript({ target: { tabId }, ...injection });
+      const [res] = await ext.scripting.executeScript({ target: { tabId }, ...injection });
       return res && res.result;
     } catch (e) {
       if (attempt >= 4 || !/Cannot access|permission/i.test(String(e && e.message))) throw e;
@@ -139,14 +141,14 @@ async function readFrames(tabId, unread) {
   const origins = [...new Set(list.map((f) => f.origin).filter((o) => typeof o === 'string' && /^https?:\/\/[^/]+$/.test(o)))];
   const granted = [];
   for (const o of origins) {
-    if (await chrome.permissions.contains({ origins: [o + '/*'] })) granted.push(o);
+    if (await ext.permissions.contains({ origins: [o + '/*'] })) granted.push(o);
     else out.missing.push(o);
   }
   if (!granted.length) return out;
   let results;
   try {
-    await chrome.scripting.executeScript({ target: { tabId, allFrames: true }, files: ['constants.js', 'reader.js'] });
-    results = await chrome.scripting.executeScript({ target: { tabId, allFrames: true }, func: readThisFrame, args: [granted] });
+    await ext.scripting.executeScript({ target: { tabId, allFrames: true }, files: ['constants.js', 'reader.js'] });
+    results = await ext.scripting.executeScript({ target: { tabId, allFrames: true }, func: readThisFrame, args: [granted] });
   } catch (e) {
     console.warn('Standout could not read the frames of other origins:', e);
     return out;
@@ -177,8 +179,8 @@ async function judgePixels(tabId, read, severity) {
   if (!rasters.length || !v || !(v.w > 0 && v.h > 0)) return [];
   let bitmap;
   try {
-    const tab = await chrome.tabs.get(tabId);
-    const url = await chrome.tabs.captureVisibleTab(tab.windowId, { format: 'png' });
+    const tab = await ext.tabs.get(tabId);
+    const url = await captureTab(tab.windowId);
     bitmap = await createImageBitmap(await (await fetch(url)).blob());
   } catch (e) {
     console.warn('Standout could not capture the tab for its charts drawn as pixels:', e);
@@ -207,7 +209,7 @@ async function judgePixels(tabId, read, severity) {
 // show hands the result to the overlay in the page.
 async function show(tabId, result) {
   try {
-    await chrome.scripting.executeScript({
+    await ext.scripting.executeScript({
       target: { tabId },
       func: (r) => globalThis.standoutOverlay.show(r),
       args: [result],
@@ -217,8 +219,9 @@ async function show(tabId, result) {
   }
 }
 
-// toggle closes an open check, or runs one.
-async function toggle(tab) {
+// toggle closes an open check, or runs one: the toolbar action's handler
+// (exported for Firefox's test build, platform.js).
+export async function toggle(tab) {
   if (!tab || tab.id === undefined) return;
   let seq;
   try {
@@ -233,8 +236,8 @@ async function toggle(tab) {
 async function showError(tabId, e, seq) {
   const msg = String((e && e.message) || e);
   try {
-    await chrome.scripting.executeScript({ target: { tabId }, files: SCRIPTS });
-    await chrome.scripting.executeScript({ target: { tabId }, func: (m, s) => globalThis.standoutOverlay.showError(m, s === null ? undefined : s), args: [msg, seq === undefined ? null : seq] });
+    await ext.scripting.executeScript({ target: { tabId }, files: SCRIPTS });
+    await ext.scripting.executeScript({ target: { tabId }, func: (m, s) => globalThis.standoutOverlay.showError(m, s === null ? undefined : s), args: [msg, seq === undefined ? null : seq] });
   } catch (e2) {
     console.warn('Standout could not run on this page:', msg, e2);
   }
@@ -250,11 +253,11 @@ const pendingExports = new Map();
 // cuts the capture to the charts and offers the files. The capture stays
 // in extension pages: the tab may show frames of other origins.
 async function exportPNG(tab, data) {
-  const url = await chrome.tabs.captureVisibleTab(tab.windowId, { format: 'png' });
+  const url = await captureTab(tab.windowId);
   const key = crypto.randomUUID();
   pendingExports.set(key, { url, charts: data.charts, viewport: data.viewport });
   setTimeout(() => pendingExports.delete(key), 60000);
-  await chrome.tabs.create({ url: chrome.runtime.getURL('export.html#' + key), index: tab.index + 1, openerTabId: tab.id });
+  await ext.tabs.create({ url: ext.runtime.getURL('export.html#' + key), index: tab.index + 1, openerTabId: tab.id });
 }
 
 // ---------- frames of other origins ----------
@@ -269,7 +272,7 @@ async function askFrames(tab, origins) {
   const key = crypto.randomUUID();
   pendingGrants.set(key, { tabId: tab.id, origins });
   setTimeout(() => pendingGrants.delete(key), 300000);
-  await chrome.tabs.create({ url: chrome.runtime.getURL('grant.html#' + key), index: tab.index + 1, openerTabId: tab.id });
+  await ext.tabs.create({ url: ext.runtime.getURL('grant.html#' + key), index: tab.index + 1, openerTabId: tab.id });
 }
 
 // recheckWithFrames runs the check again in the tab once its frames'
@@ -278,7 +281,7 @@ async function recheckWithFrames(key) {
   const g = pendingGrants.get(key);
   pendingGrants.delete(key);
   if (!g) throw new Error('this request has expired; press Standout again on the page');
-  await chrome.tabs.update(g.tabId, { active: true });
+  await ext.tabs.update(g.tabId, { active: true });
   let seq;
   try {
     const r = await analyse(g.tabId, {});
@@ -297,7 +300,7 @@ const MAX_PICKS = 100000;
 // own scripts in a tab (or, for the export page, from an extension page),
 // and its data are what that type carries. Anything else is refused.
 function validMessage(msg, sender) {
-  if (!msg || typeof msg !== 'object' || sender.id !== chrome.runtime.id) return false;
+  if (!msg || typeof msg !== 'object' || sender.id !== ext.runtime.id) return false;
   const d = msg.data;
   switch (msg.type) {
     case 'standout/reanalyse':
@@ -311,21 +314,21 @@ function validMessage(msg, sender) {
         d.charts.every((c) => c && typeof c.name === 'string' && c.name.length <= 200 && Array.isArray(c.box) && c.box.length === 4 && c.box.every(Number.isFinite)) &&
         Array.isArray(d.viewport) && d.viewport.length === 2 && d.viewport.every((v) => Number.isFinite(v) && v > 0);
     case 'standout/take-export':
-      return typeof d === 'string' && d.length <= 64 && typeof sender.url === 'string' && sender.url.startsWith(chrome.runtime.getURL('export.html'));
+      return typeof d === 'string' && d.length <= 64 && typeof sender.url === 'string' && sender.url.startsWith(ext.runtime.getURL('export.html'));
     case 'standout/ask-frames':
       return !!sender.tab && Array.isArray(d) && d.length >= 1 && d.length <= 16 && d.every((o) => typeof o === 'string' && o.length <= 300 && /^https?:\/\/[^/]+$/.test(o));
     case 'standout/take-grant':
     case 'standout/granted':
-      return typeof d === 'string' && d.length <= 64 && typeof sender.url === 'string' && sender.url.startsWith(chrome.runtime.getURL('grant.html'));
+      return typeof d === 'string' && d.length <= 64 && typeof sender.url === 'string' && sender.url.startsWith(ext.runtime.getURL('grant.html'));
   }
   return false;
 }
 
-chrome.action.onClicked.addListener((tab) => {
+ext.action.onClicked.addListener((tab) => {
   toggle(tab);
 });
 
-chrome.runtime.onMessage.addListener((msg, sender, sendResponse) => {
+ext.runtime.onMessage.addListener((msg, sender, sendResponse) => {
   if (!validMessage(msg, sender)) {
     console.warn('Standout: refused a message', msg && msg.type);
     return false;

@@ -73,6 +73,8 @@ type harness struct {
 	// worker is the service worker's context, once a test reached into it.
 	worker context.Context
 	url    string
+	// dl is the downloads folder, once a test asked for one.
+	dl string
 }
 
 func chromium(t testing.TB) string { return testkit.Chromium(t) }
@@ -107,23 +109,9 @@ func (h *harness) open(url string) {
 	require.NoError(h.t, chromedp.Do(h.ctx, chromedp.Navigate(url)))
 }
 
-// trigger presses the toolbar action. If the page has no overlay a few
-// seconds later (the press can race the tab's first paint under load), it
-// presses once more.
-func (h *harness) trigger() {
-	had := h.state() != ""
-	h.press()
-	if had {
-		return
-	}
-	for i := 0; i < 100; i++ {
-		if h.state() != "" {
-			return
-		}
-		time.Sleep(100 * time.Millisecond)
-	}
-	h.press()
-}
+func (h *harness) tb() testing.TB { return h.t }
+
+func (h *harness) trigger() { trigger(h) }
 
 func (h *harness) press() {
 	res, err := chromedp.CallBrowser(h.ctx, target.GetTargets, target.GetTargetsParams{Filter: target.Filter{{Type: "tab"}}})
@@ -162,28 +150,9 @@ func (h *harness) eval(expr string) string {
 	return v
 }
 
-// state is the overlay host's data-state ("" when there is none).
-func (h *harness) state() string {
-	return h.eval(`(() => { const e = document.querySelector('` + hostSelector + `'); return e ? (e.getAttribute('data-state') || 'open') : ''; })()`)
-}
+func (h *harness) state() string { return state(h) }
 
-func (h *harness) waitState(want string) {
-	// Generous: CI runs other test packages on the same two cores, and the
-	// first check compiles the WebAssembly core.
-	deadline := time.Now().Add(45 * time.Second)
-	got := ""
-	for time.Now().Before(deadline) {
-		if got = h.state(); got == want {
-			return
-		}
-		time.Sleep(50 * time.Millisecond)
-	}
-	msg := ""
-	if got == "error" {
-		msg = h.overlayHTML()
-	}
-	h.t.Fatalf("overlay state %q, want %q %s", got, want, msg)
-}
+func (h *harness) waitState(want string) { waitState(h, want) }
 
 // overlayHTML serialises the overlay host with its closed shadow root.
 func (h *harness) overlayHTML() string {
@@ -282,6 +251,29 @@ func (h *harness) clickInOverlay(action string) {
 	require.NoError(h.t, err)
 }
 
+func (h *harness) clickAt(x, y float64) {
+	require.NoError(h.t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		return chromedp.Void{}, mouseClick(ctx, tg, x, y)
+	}))
+}
+
+func (h *harness) pressKey(key string) {
+	require.NoError(h.t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		return chromedp.Void{}, pressKey(ctx, tg, key)
+	}))
+}
+
+// downloads lets the browser save downloads, without asking, to a folder
+// of the test's.
+func (h *harness) downloads() string {
+	if h.dl == "" {
+		h.dl = h.t.TempDir()
+		_, err := chromedp.CallBrowser(h.ctx, cdpbrowser.SetDownloadBehavior, cdpbrowser.SetDownloadBehaviorParams{Behavior: cdpbrowser.SetDownloadBehaviorBehaviorAllow, DownloadPath: h.dl})
+		require.NoError(h.t, err)
+	}
+	return h.dl
+}
+
 func mouseClick(ctx context.Context, tg *chromedp.Target, x, y float64) error {
 	for _, typ := range []input.DispatchMouseEventType{input.DispatchMouseEventTypeMousePressed, input.DispatchMouseEventTypeMouseReleased} {
 		if _, err := cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: typ, X: x, Y: y, Button: input.MouseButtonLeft, ClickCount: 1}); err != nil {
@@ -291,15 +283,7 @@ func mouseClick(ctx context.Context, tg *chromedp.Target, x, y float64) error {
 	return nil
 }
 
-// chooseInOverlay picks the option at index of a <select> of the overlay
-// with the keyboard, as a person does: Home, then ArrowDown.
-func (h *harness) chooseInOverlay(action string, index int) {
-	keys := []string{"Home"}
-	for i := 0; i < index; i++ {
-		keys = append(keys, "ArrowDown")
-	}
-	h.typeInOverlay(action, keys...)
-}
+func (h *harness) chooseInOverlay(action string, index int) { chooseInOverlay(h, action, index) }
 
 // typeInOverlay focuses a control of the overlay and types keys into it
 // as a person does (trusted key events): a letter picks the option of a
@@ -407,24 +391,7 @@ func htmlHasAttr(n *html.Node, k string) bool {
 	return false
 }
 
-// markRects resolves mark ids ("svg0/g1/rect3") to the elements' boxes in
-// page px, from getBoundingClientRect.
-func (h *harness) markRects(ids []string) [][4]float64 {
-	b, _ := json.Marshal(ids)
-	js := `(() => {
-	  const tops = [...document.querySelectorAll('svg')].filter((s) => !s.parentElement.closest('svg'));
-	  const find = (id) => {
-	    const parts = id.split('/');
-	    let el = tops[Number(parts[0].slice(3))];
-	    for (const p of parts.slice(1)) { el = el.children[Number(/\d+$/.exec(p)[0])]; }
-	    return el;
-	  };
-	  return JSON.stringify(` + string(b) + `.map((id) => { const r = find(id).getBoundingClientRect(); return [r.left + scrollX, r.top + scrollY, r.width, r.height]; }));
-	})()`
-	var out [][4]float64
-	require.NoError(h.t, json.Unmarshal([]byte(h.eval(js)), &out))
-	return out
-}
+func (h *harness) markRects(ids []string) [][4]float64 { return markRects(h, ids) }
 
 func serve(t testing.TB, handler http.HandlerFunc) *httptest.Server {
 	s := httptest.NewServer(handler)
@@ -432,17 +399,7 @@ func serve(t testing.TB, handler http.HandlerFunc) *httptest.Server {
 	return s
 }
 
-// showPage serves body as a page, opens it, presses the action and waits
-// for the overlay.
-func (h *harness) showPage(body string) {
-	srv := serve(h.t, func(w http.ResponseWriter, r *http.Request) {
-		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		fmt.Fprint(w, body)
-	})
-	h.open(srv.URL + "/")
-	h.trigger()
-	h.waitState("ready")
-}
+func (h *harness) showPage(body string) { showPage(h, body) }
 
 // screenshot captures the viewport.
 func (h *harness) screenshot() ([]byte, image.Image) {
@@ -465,7 +422,9 @@ func demoPage(t testing.TB) []byte {
 	return b
 }
 
-func TestE2EOverlayMatchesStaticPath(t *testing.T) {
+func TestE2EOverlayMatchesStaticPath(t *testing.T) { suiteOverlayMatchesStaticPath(t, newHarness(t)) }
+
+func suiteOverlayMatchesStaticPath(t *testing.T, h e2eBrowser) {
 	// On the demo page and on a fixture of rotated, skewed, nested and
 	// <use>-instantiated shapes: every outline sits on its mark's
 	// getBoundingClientRect within 1 px (the read pass measures only text
@@ -481,9 +440,8 @@ func TestE2EOverlayMatchesStaticPath(t *testing.T) {
 		{"demo", demoPage(t), 3},
 		{"transforms", []byte(`<!doctype html><html><body style="margin:0">` + string(transforms) + `</body></html>`), 1},
 	}
-	h := newHarness(t)
 	for _, pg := range pages {
-		h.showPage(string(pg.body))
+		showPage(h, string(pg.body))
 		layers := layerRects(t, h.overlayHTML())
 		built, err := static.Build(bytes.NewReader(pg.body), static.Options{Source: pg.name})
 		require.NoError(t, err)
@@ -532,7 +490,7 @@ func TestE2EOverlayMatchesStaticPath(t *testing.T) {
 						own = append(own, id)
 					}
 				}
-				for i, want := range h.markRects(own) {
+				for i, want := range markRects(h, own) {
 					checked++
 					match := false
 					for _, r := range got[v] {
@@ -546,8 +504,8 @@ func TestE2EOverlayMatchesStaticPath(t *testing.T) {
 		}
 		require.Equal(t, pg.charts, charts, pg.name)
 		require.Greater(t, checked, 5, pg.name)
-		h.trigger() // close
-		h.waitState("")
+		trigger(h) // close
+		waitState(h, "")
 	}
 }
 
@@ -558,7 +516,10 @@ const chartSVG = `<svg width="240" height="120"><g>
 <rect x="170" y="60" width="30" height="60" fill="#8a8a8a"/></g></svg>`
 
 func TestE2EStrictCSPFrameAndShadowRoot(t *testing.T) {
-	h := newHarness(t)
+	suiteStrictCSPFrameAndShadowRoot(t, newHarness(t))
+}
+
+func suiteStrictCSPFrameAndShadowRoot(t *testing.T, h e2eBrowser) {
 	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
 		w.Header().Set("Content-Type", "text/html; charset=utf-8")
 		switch r.URL.Path {
@@ -577,50 +538,46 @@ func TestE2EStrictCSPFrameAndShadowRoot(t *testing.T) {
 		}
 	})
 	for _, c := range []struct{ path, chart string }{{"/csp", "svg0"}, {"/frames", "frame0/svg0"}, {"/shadow", "shadow0/svg0"}} {
-		t.Run(c.path, func(t *testing.T) {
-			t.Run(c.path, func(t *testing.T) {
-				h.t = t
-				h.open(srv.URL + c.path)
-				h.trigger()
-				h.waitState("ready")
-				layers := layerRects(t, h.overlayHTML())
-				require.Contains(t, layers, c.chart)
-				assert.Len(t, layers[c.chart]["pops"], 1, "the orange bar pops")
-				assert.Len(t, layers[c.chart]["blends"], 4)
-				// The outline sits on the bar as the page shows it.
-				pos := h.eval(`(() => {
-				  let doc = document, ox = scrollX, oy = scrollY;
-				  const f = document.querySelector('iframe');
-				  if (f) { const r = f.getBoundingClientRect(); ox += r.left + 3; oy += r.top + 3; doc = f.contentDocument; }
-				  const host = document.querySelector('bar-card');
-				  const root = host ? host.shadowRoot : doc;
-				  const r = root.querySelectorAll('rect')[2].getBoundingClientRect();
-				  return JSON.stringify([r.left + ox, r.top + oy, r.width, r.height]);
-				})()`)
-				var want [4]float64
-				require.NoError(t, json.Unmarshal([]byte(pos), &want))
-				got := layers[c.chart]["pops"][0]
-				for i := range want {
-					assert.InDelta(t, want[i], got[i], 1, "%s box %d", c.path, i)
-				}
-				h.trigger() // pressing the action again closes the check
-				h.waitState("")
-			})
-		})
+		h.open(srv.URL + c.path)
+		trigger(h)
+		waitState(h, "ready")
+		layers := layerRects(t, h.overlayHTML())
+		require.Contains(t, layers, c.chart)
+		assert.Len(t, layers[c.chart]["pops"], 1, "the orange bar pops")
+		assert.Len(t, layers[c.chart]["blends"], 4)
+		// The outline sits on the bar as the page shows it.
+		pos := h.eval(`(() => {
+		  let doc = document, ox = scrollX, oy = scrollY;
+		  const f = document.querySelector('iframe');
+		  if (f) { const r = f.getBoundingClientRect(); ox += r.left + 3; oy += r.top + 3; doc = f.contentDocument; }
+		  const host = document.querySelector('bar-card');
+		  const root = host ? host.shadowRoot : doc;
+		  const r = root.querySelectorAll('rect')[2].getBoundingClientRect();
+		  return JSON.stringify([r.left + ox, r.top + oy, r.width, r.height]);
+		})()`)
+		var want [4]float64
+		require.NoError(t, json.Unmarshal([]byte(pos), &want))
+		got := layers[c.chart]["pops"][0]
+		for i := range want {
+			assert.InDelta(t, want[i], got[i], 1, "%s box %d", c.path, i)
+		}
+		trigger(h) // pressing the action again closes the check
+		waitState(h, "")
 	}
 }
 
-func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
-	h := newHarness(t)
+func TestE2ECVDPreviewAndPageRestored(t *testing.T) { suiteCVDPreviewAndPageRestored(t, newHarness(t)) }
+
+func suiteCVDPreviewAndPageRestored(t *testing.T, h e2eBrowser) {
 	srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
 		w.Header().Set("Content-Type", "text/html; charset=utf-8")
 		fmt.Fprint(w, `<!doctype html><html><body style="margin:0;background:#fff"><svg width="400" height="300" style="display:block"><rect x="0" y="0" width="300" height="200" fill="#c23a2e"/><rect x="320" y="10" width="20" height="20" fill="#2a6fa8"/><rect x="350" y="10" width="20" height="20" fill="#3b9a3f"/></svg></body></html>`)
 	})
 	h.open(srv.URL + "/")
 	before := h.eval(`document.documentElement.outerHTML`)
-	h.trigger()
-	h.waitState("ready")
-	h.chooseInOverlay("cvd", 2)
+	trigger(h)
+	waitState(h, "ready")
+	chooseInOverlay(h, "cvd", 2)
 	time.Sleep(300 * time.Millisecond)
 	_, img := h.screenshot()
 	r, g, b, _ := img.At(100, 150).RGBA()
@@ -635,7 +592,7 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	assert.InDelta(t, want.B, got.B, tol, "B: got %s want %s", got.Hex(), want.Hex())
 	// Tritan is two half-planes: the red and the blue lie on different
 	// wings, and the filter's mask must pick each one's.
-	h.chooseInOverlay("cvd", 3)
+	chooseInOverlay(h, "cvd", 3)
 	time.Sleep(300 * time.Millisecond)
 	_, img = h.screenshot()
 	for _, px := range []struct {
@@ -657,25 +614,22 @@ func TestE2ECVDPreviewAndPageRestored(t *testing.T) {
 	}
 	// Switching the preview off, then closing with Escape, leaves the page
 	// exactly as it was.
-	h.chooseInOverlay("cvd", 0)
-	require.NoError(t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
-		return chromedp.Void{}, pressKey(ctx, tg, "Escape")
-	}))
-	h.waitState("")
+	chooseInOverlay(h, "cvd", 0)
+	h.pressKey("Escape")
+	waitState(h, "")
 	assert.Equal(t, before, h.eval(`document.documentElement.outerHTML`))
 }
 
-func TestE2EPickingAndExport(t *testing.T) {
-	h := newHarness(t)
-	h.showPage(chartPage)
+func TestE2EPickingAndExport(t *testing.T) { suitePickingAndExport(t, newHarness(t)) }
+
+func suitePickingAndExport(t *testing.T, h e2eBrowser) {
+	showPage(h, chartPage)
 	// Pick the second (grey) bar: the check then says whether it stands out.
 	h.clickInOverlay("pick")
-	require.NoError(t, chromedp.Do(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
-		return chromedp.Void{}, mouseClick(ctx, tg, 65, 80)
-	}))
+	h.clickAt(65, 80)
 	h.eval(`document.querySelector('` + hostSelector + `').removeAttribute('data-state'), ''`)
 	h.clickInOverlay("check-emphasis")
-	h.waitState("ready")
+	waitState(h, "ready")
 	ov := h.overlayHTML()
 	assert.Contains(t, ov, "Declared emphasis (1 mark) stands out for normal: no")
 	// The fix is a rule to paste, its selectors reaching the bars from the
@@ -687,9 +641,7 @@ func TestE2EPickingAndExport(t *testing.T) {
 	assert.Regexp(t, `<svg [^>]*class="search-plot"[^>]*aria-label="Estimated time to find the emphasis: up to [0-9.]+ s among these 5 marks`, ov)
 
 	// Export the JSON report: it decodes as the documented schema.
-	dl := t.TempDir()
-	_, err := chromedp.CallBrowser(h.ctx, cdpbrowser.SetDownloadBehavior, cdpbrowser.SetDownloadBehaviorParams{Behavior: cdpbrowser.SetDownloadBehaviorBehaviorAllow, DownloadPath: dl})
-	require.NoError(t, err)
+	dl := h.downloads()
 	h.clickInOverlay("export-json")
 	var data []byte
 	for i := 0; i < 100 && data == nil; i++ {
@@ -746,14 +698,15 @@ func TestE2EShortcutDeclared(t *testing.T) {
 	}
 }
 
-func TestE2EReRunsWhenTheChartChanges(t *testing.T) {
-	h := newHarness(t)
-	h.showPage(chartPage)
+func TestE2EReRunsWhenTheChartChanges(t *testing.T) { suiteReRunsWhenTheChartChanges(t, newHarness(t)) }
+
+func suiteReRunsWhenTheChartChanges(t *testing.T, h e2eBrowser) {
+	showPage(h, chartPage)
 	require.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
 	// The page recolours the emphasis to the others' grey and gives it a
 	// neighbour's height: the overlay re-runs (debounced) and nothing pops.
 	h.eval(`document.querySelector('` + hostSelector + `').removeAttribute('data-state'), document.querySelectorAll('rect')[2].setAttribute('fill', '#8a8a8a'), document.querySelectorAll('rect')[2].setAttribute('y', '30'), document.querySelectorAll('rect')[2].setAttribute('height', '90'), ''`)
-	h.waitState("ready")
+	waitState(h, "ready")
 	l := layerRects(t, h.overlayHTML())["svg0"]
 	assert.Empty(t, l["pops"])
 	assert.Len(t, l["blends"], 5)
@@ -785,12 +738,11 @@ func TestE2ESurvivesServiceWorkerStop(t *testing.T) {
 	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
 }
 
-func TestE2EExportMarkdownAndPNG(t *testing.T) {
-	h := newHarness(t)
-	h.showPage(chartPage)
-	dl := t.TempDir()
-	_, err := chromedp.CallBrowser(h.ctx, cdpbrowser.SetDownloadBehavior, cdpbrowser.SetDownloadBehaviorParams{Behavior: cdpbrowser.SetDownloadBehaviorBehaviorAllow, DownloadPath: dl})
-	require.NoError(t, err)
+func TestE2EExportMarkdownAndPNG(t *testing.T) { suiteExportMarkdownAndPNG(t, newHarness(t)) }
+
+func suiteExportMarkdownAndPNG(t *testing.T, h e2eBrowser) {
+	showPage(h, chartPage)
+	dl := h.downloads()
 	h.clickInOverlay("export-md")
 	h.clickInOverlay("export-png")
 	var md, shot []byte
@@ -928,11 +880,12 @@ func TestE2ESiblingStyleSharing(t *testing.T) {
 // canvas's pixels, and the overlay outlines the most salient region over
 // the highlighted bar and names, in the panel, where the eye goes first
 // for each vision type. The capture is taken before the overlay is drawn.
-func TestE2EChartDrawnAsPixels(t *testing.T) {
+func TestE2EChartDrawnAsPixels(t *testing.T) { suiteChartDrawnAsPixels(t, newHarness(t)) }
+
+func suiteChartDrawnAsPixels(t *testing.T, h e2eBrowser) {
 	page, err := os.ReadFile(filepath.Join("..", "cmd", "standout", "testdata", "rasters.html"))
 	require.NoError(t, err)
-	h := newHarness(t)
-	h.showPage(string(page))
+	showPage(h, string(page))
 	ov := h.overlayHTML()
 	assert.Contains(t, ov, `data-role="pixels"`)
 	assert.Regexp(t, `canvas0: the eye is predicted to go first to the outlined region .*For other readers: protan: (the same|elsewhere)`, ov)

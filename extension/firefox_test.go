@@ -1,0 +1,25 @@
+package extension
+
+import "testing"
+
+// TestFirefoxE2E runs the end-to-end suite in Firefox (Debian's
+// firefox-esr) through WebDriver BiDi, a fresh browser for each part, as
+// the Chromium tests do. Firefox gives automation no toolbar button to
+// press, so the test build's own entry (testdata/firefox) runs the
+// action's handler; everything after the press is the shipped code.
+func TestFirefoxE2E(t *testing.T) {
+	for _, s := range []struct {
+		name string
+		run  func(*testing.T, e2eBrowser)
+	}{
+		{"OverlayMatchesStaticPath", suiteOverlayMatchesStaticPath},
+		{"StrictCSPFrameAndShadowRoot", suiteStrictCSPFrameAndShadowRoot},
+		{"CVDPreviewAndPageRestored", suiteCVDPreviewAndPageRestored},
+		{"PickingAndExport", suitePickingAndExport},
+		{"ExportMarkdownAndPNG", suiteExportMarkdownAndPNG},
+		{"ReRunsWhenTheChartChanges", suiteReRunsWhenTheChartChanges},
+		{"ChartDrawnAsPixels", suiteChartDrawnAsPixels},
+	} {
+		t.Run(s.name, func(t *testing.T) { s.run(t, newFox(t)) })
+	}
+}
