@@ -391,8 +391,6 @@ func htmlHasAttr(n *html.Node, k string) bool {
 	return false
 }
 
-func (h *harness) markRects(ids []string) [][4]float64 { return markRects(h, ids) }
-
 func serve(t testing.TB, handler http.HandlerFunc) *httptest.Server {
 	s := httptest.NewServer(handler)
 	t.Cleanup(s.Close)
