@@ -101,7 +101,7 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	if opt.Select == "" {
 		opt.Select = DefaultEmphasisSelector
 	}
-	b.casc = &cascader{problems: &page.Problems, dark: opt.Dark}
+	b.casc = &cascader{problems: &page.Problems, dark: opt.Dark, meta: colourSchemeMeta(doc)}
 	b.casc.budget.deadline = opt.Deadline
 	sel, err := compileGroup(opt.Select, &b.casc.budget)
 	if err != nil {
@@ -361,14 +361,23 @@ func (b *builder) chart(svg *html.Node, path string) (*snapshot.Snapshot, error)
 	return snap, nil
 }
 
+// darkCanvas is the Canvas system colour (CSS Color 4 §6.2) Chromium, the
+// browser of the command line's browser mode, paints under a page whose
+// root is drawn dark: measured from its screenshots (the extension's
+// end-to-end suite checks it, beside Firefox's).
+var darkCanvas = snapshot.Unpack(0x121212ff).SRGB
+
 // background composites the background colours of the HTML ancestors over
-// white, nearest last.
+// the page's canvas, nearest last.
 func (b *builder) background(n *html.Node) uint32 {
 	var chain []*html.Node
 	for p := n; p != nil && p.Type == html.ElementNode; p = p.Parent {
 		chain = append(chain, p)
 	}
 	out := snapshot.Colour{SRGB: white, A: 1}
+	if len(chain) > 0 && b.casc.usedDark(b.styleOfHTML(chain[len(chain)-1]).v[pColorScheme]) {
+		out.SRGB = darkCanvas
+	}
 	for i := len(chain) - 1; i >= 0; i-- {
 		st := b.styleOfHTML(chain[i])
 		v := st.v[pBackgroundColor]
@@ -380,6 +389,19 @@ func (b *builder) background(n *html.Node) uint32 {
 		}
 	}
 	return snapshot.RGBA(out)
+}
+
+// colourSchemeMeta is the content of the page's first <meta
+// name="color-scheme"> in its head, or "".
+func colourSchemeMeta(doc *html.Node) string {
+	out := ""
+	walkNodes(doc, func(n *html.Node) bool {
+		if out == "" && n.Type == html.ElementNode && n.Data == "meta" && strings.EqualFold(attr(n, "name"), "color-scheme") {
+			out = attr(n, "content")
+		}
+		return out == "" && n.Data != "body"
+	})
+	return out
 }
 
 func backgroundShorthandColour(v string) string {

@@ -114,6 +114,9 @@ func FuzzDocument(f *testing.F) {
 	f.Add([]byte(`<svg xmlns:xlink="http://www.w3.org/1999/xlink"><defs><path id="g" d="M0 0L5 0L5 7Z"/></defs><g transform="translate(5 20) scale(1 -1)"><use xlink:href="#g"/><use xlink:href="#g" x="6"/></g><use xlink:href="#g" x="NaN"/></svg>`))
 	f.Add([]byte(`<svg><path d="M1,0A1,1,0,1,1,0.99995,-0.01" fill="red" transform="matrix(9,0,0,9,40,40)"/><path fill="#000" d="M0 0a2 2 0 1 1 0 .1M9 9a2 2 0 1 1 0 .1M20 5a2 2 0 1 1 0 .1"/></svg>`))
 	f.Add([]byte(`<svg><path d="M 50 50 L 150 50 C 150 105 105 150 50 150 Z" fill="#3b6e8f"/><path d="M 50 50 L 50 150 C -5 150 -50 105 -50 50 Z"/></svg>`))
+	// Colour schemes: a light-dark() kept in a custom property, nested
+	// color-scheme, the page's meta, and broken forms of each.
+	f.Add([]byte(`<html style="color-scheme: light dark"><head><meta name="color-scheme" content="dark only"><style>:root{--a:light-dark(var(--b,#123),light-dark(#fff,));--b:var(--a)}</style></head><body><figure style="color-scheme:dark"><svg><rect width="9" height="9" style="fill:var(--a)"/><rect width="9" height="9" style="fill:light-dark(#000)"/></svg></figure></body></html>`))
 	f.Fuzz(func(t *testing.T, b []byte) {
 		if len(b) > 1<<18 {
 			return

@@ -26,6 +26,7 @@ const (
 	pStopOpacity
 	pBackgroundColor
 	pBackground
+	pColorScheme
 	nProps
 )
 
@@ -35,6 +36,7 @@ var propIndex = map[string]int{
 	"color": pColor, "font-size": pFontSize, "font-weight": pFontWeight,
 	"stop-color": pStopColor, "stop-opacity": pStopOpacity,
 	"background-color": pBackgroundColor, "background": pBackground,
+	"color-scheme": pColorScheme,
 }
 
 // inherited marks the properties that inherit by default (SVG 2 property
@@ -42,6 +44,7 @@ var propIndex = map[string]int{
 var inherited = [nProps]bool{
 	pFill: true, pStroke: true, pFillOpacity: true, pStrokeOpacity: true, pStrokeWidth: true,
 	pVisibility: true, pColor: true, pFontSize: true, pFontWeight: true,
+	pColorScheme: true,
 }
 
 // initial values (SVG 2, CSS 2; color's initial value is CanvasText, black
@@ -50,7 +53,7 @@ var initial = [nProps]string{
 	pFill: "black", pStroke: "none", pFillOpacity: "1", pStrokeOpacity: "1", pOpacity: "1",
 	pStrokeWidth: "1", pDisplay: "inline", pVisibility: "visible", pColor: "black",
 	pFontSize: "16px", pFontWeight: "400", pStopColor: "black", pStopOpacity: "1",
-	pBackgroundColor: "transparent", pBackground: "",
+	pBackgroundColor: "transparent", pBackground: "", pColorScheme: "normal",
 }
 
 // computed is the computed style of one element: for each property its
@@ -65,7 +68,11 @@ type computed struct {
 type cascader struct {
 	rules    []rule
 	problems *[]string
-	dark     bool
+	// dark is the reader's preference (prefers-color-scheme).
+	dark bool
+	// meta is the page's <meta name="color-scheme"> content, the schemes
+	// an element of color-scheme normal is drawn in.
+	meta string
 	// budget bounds the selector tests of the whole build.
 	budget matchBudget
 }
@@ -107,6 +114,10 @@ func (c *cascader) compute(n *html.Node, parent *computed, name string) *compute
 	if parent != nil {
 		out.custom = parent.custom
 	}
+	// light-dark() takes the element's used colour scheme (CSS Color 5
+	// §7), so color-scheme (never itself a light-dark()) comes first.
+	out.v[pColorScheme] = c.value(&d, pColorScheme, parent, out.custom, false)
+	dark := c.usedDark(out.v[pColorScheme])
 	if d.customs != nil {
 		m := make(map[string]string, len(d.customs)+len(out.custom))
 		for k, v := range out.custom {
@@ -118,13 +129,15 @@ func (c *cascader) compute(n *html.Node, parent *computed, name string) *compute
 		// Custom properties may refer to each other; resolve now.
 		for k, v := range m {
 			if strings.Contains(v, "(") {
-				m[k] = substitute(v, m, c.dark, 0)
+				m[k] = substitute(v, m, keepScheme, 0)
 			}
 		}
 		out.custom = m
 	}
 	for i := 0; i < nProps; i++ {
-		out.v[i] = c.value(&d, i, parent, out.custom)
+		if i != pColorScheme {
+			out.v[i] = c.value(&d, i, parent, out.custom, dark)
+		}
 	}
 	if d.set[pFontSize] {
 		base := 16.0
@@ -215,10 +228,10 @@ func (c *cascader) declare(d *declared, n *html.Node, name string) {
 // value is property i's computed value: the declared one with var() and
 // light-dark() substituted, or the inherited or initial one (CSS
 // Cascading 4 §7: unset, inherit, initial, revert).
-func (c *cascader) value(d *declared, i int, parent *computed, custom map[string]string) string {
+func (c *cascader) value(d *declared, i int, parent *computed, custom map[string]string, dark bool) string {
 	v := d.value[i]
 	if d.set[i] && strings.Contains(v, "(") {
-		v = substitute(v, custom, c.dark, 0)
+		v = substitute(v, custom, schemeOf(dark), 0)
 	}
 	lv := strings.ToLower(v)
 	switch {
@@ -238,10 +251,48 @@ func (c *cascader) value(d *declared, i int, parent *computed, custom map[string
 	return v
 }
 
+// scheme is how substitute treats light-dark().
+type scheme int8
+
+const (
+	lightScheme scheme = iota
+	darkScheme
+	keepScheme
+)
+
+func schemeOf(dark bool) scheme {
+	if dark {
+		return darkScheme
+	}
+	return lightScheme
+}
+
+// usedDark says whether an element of that color-scheme is drawn dark
+// (CSS Color Adjustment 1 §2): when its schemes (the page's <meta
+// name="color-scheme"> for normal) include dark and either leave out
+// light or the reader prefers dark.
+func (c *cascader) usedDark(scheme string) bool {
+	s := strings.ToLower(strings.TrimSpace(scheme))
+	if s == "normal" || s == "" {
+		s = c.meta
+	}
+	light, dark := false, false
+	for _, w := range strings.Fields(s) {
+		light = light || w == "light"
+		dark = dark || w == "dark"
+	}
+	return dark && (!light || c.dark)
+}
+
 // substitute replaces var(--x, fallback) and light-dark(a, b) in a value.
 // References to undefined properties without a fallback make the value
 // invalid at computed-value time, which is returned as "" (unset).
-func substitute(v string, custom map[string]string, dark bool, depth int) string {
+//
+// In a custom property's own value (keepScheme) light-dark() stays, its
+// arguments substituted: it is resolved where the property is used, in
+// that element's colour scheme (CSS Color 5 §7; a custom property's
+// computed value is its tokens, CSS Variables 1 §2).
+func substitute(v string, custom map[string]string, sc scheme, depth int) string {
 	if depth > 16 {
 		return ""
 	}
@@ -258,52 +309,25 @@ func substitute(v string, custom map[string]string, dark bool, depth int) string
 			b.WriteString(t.s)
 			continue
 		}
-		// Collect the arguments up to the matching parenthesis.
-		depthP := 1
-		var args [][]token
-		var curArg []token
-		j := i + 1
-		for ; j < len(toks) && depthP > 0; j++ {
-			switch toks[j].tt {
-			case css.FunctionToken, css.LeftParenthesisToken:
-				depthP++
-			case css.RightParenthesisToken:
-				depthP--
-				if depthP == 0 {
-					continue
-				}
-			case css.CommaToken:
-				if depthP == 1 {
-					args = append(args, curArg)
-					curArg = nil
-					continue
-				}
-			}
-			curArg = append(curArg, toks[j])
-		}
-		args = append(args, curArg)
-		i = j - 1
-		str := func(ts []token) string {
-			var s strings.Builder
-			for _, t := range ts {
-				s.WriteString(t.s)
-			}
-			return strings.TrimSpace(s.String())
-		}
+		args, next := callArgs(toks, i+1)
+		i = next - 1
 		if fn == "light-dark(" {
 			if len(args) != 2 {
 				return ""
 			}
-			pick := args[0]
-			if dark {
-				pick = args[1]
+			switch sc {
+			case keepScheme:
+				b.WriteString("light-dark(" + substitute(str(args[0]), custom, sc, depth+1) + ", " + substitute(str(args[1]), custom, sc, depth+1) + ")")
+			case darkScheme:
+				b.WriteString(substitute(str(args[1]), custom, sc, depth+1))
+			default:
+				b.WriteString(substitute(str(args[0]), custom, sc, depth+1))
 			}
-			b.WriteString(substitute(str(pick), custom, dark, depth+1))
 			continue
 		}
 		name := str(args[0])
 		if val, ok := custom[name]; ok && val != "" {
-			b.WriteString(substitute(val, custom, dark, depth+1))
+			b.WriteString(substitute(val, custom, sc, depth+1))
 			continue
 		}
 		if len(args) >= 2 {
@@ -314,12 +338,50 @@ func substitute(v string, custom map[string]string, dark bool, depth int) string
 				}
 				fb = append(fb, a...)
 			}
-			b.WriteString(substitute(str(fb), custom, dark, depth+1))
+			b.WriteString(substitute(str(fb), custom, sc, depth+1))
 			continue
 		}
 		return ""
 	}
 	return b.String()
+}
+
+// callArgs collects a function's arguments from toks[from:] up to its
+// closing parenthesis, split at its own commas, and returns them with the
+// index past that parenthesis.
+func callArgs(toks []token, from int) ([][]token, int) {
+	depth := 1
+	var args [][]token
+	var cur []token
+	j := from
+	for ; j < len(toks) && depth > 0; j++ {
+		switch toks[j].tt {
+		case css.FunctionToken, css.LeftParenthesisToken:
+			depth++
+		case css.RightParenthesisToken:
+			depth--
+			if depth == 0 {
+				continue
+			}
+		case css.CommaToken:
+			if depth == 1 {
+				args = append(args, cur)
+				cur = nil
+				continue
+			}
+		}
+		cur = append(cur, toks[j])
+	}
+	return append(args, cur), j
+}
+
+// str joins tokens, trimmed.
+func str(ts []token) string {
+	var s strings.Builder
+	for _, t := range ts {
+		s.WriteString(t.s)
+	}
+	return strings.TrimSpace(s.String())
 }
 
 // fontSize resolves a font-size value in px against the parent's size.

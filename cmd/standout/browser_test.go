@@ -13,6 +13,7 @@ import (
 	"net/http/httptest"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -256,8 +257,9 @@ func decodePNG(t *testing.T, p string) image.Image {
 }
 
 // BenchmarkBatch reports pages per minute for a batch of 24 demo-like pages
-// with 1, 2 and 4 tabs, and the shares of time in page load, read pass and
-// analysis. Run with:
+// with 1, 2 and 4 tabs, and with 4 tabs and four views of each page (360
+// and 1,280 px, light and dark: --widths 360,1280 --scheme light,dark),
+// and the shares of time in page load, read pass and analysis. Run with:
 //
 //	go test ./cmd/standout -run '^$' -bench Batch -benchtime 1x
 func BenchmarkBatch(b *testing.B) {
@@ -274,13 +276,23 @@ func BenchmarkBatch(b *testing.B) {
 		urls = append(urls, fmt.Sprintf("%s/p%d", srv.URL, i))
 	}
 	exe := testkit.Chromium(b)
-	for _, tabs := range []int{1, 2, 4} {
-		b.Run(fmt.Sprintf("tabs=%d", tabs), func(b *testing.B) {
+	fourViews := []browser.View{{Width: 360, Scheme: "light"}, {Width: 360, Scheme: "dark"}, {Width: 1280, Scheme: "light"}, {Width: 1280, Scheme: "dark"}}
+	for _, run := range []struct {
+		tabs  int
+		views []browser.View
+	}{{1, nil}, {2, nil}, {4, nil}, {4, fourViews}} {
+		name := fmt.Sprintf("tabs=%d", run.tabs)
+		if run.views != nil {
+			name += fmt.Sprintf("/views=%d", len(run.views))
+		}
+		b.Run(name, func(b *testing.B) {
 			var load, read, analyse, wall float64
+			views := 0
 			for i := 0; i < b.N; i++ {
 				ctx, cancel := browser.NewAllocator(b.Context(), browser.Options{Exec: exe, UserDataDir: b.TempDir(), NoSandbox: browser.SandboxNote() != ""})
 				t0 := time.Now()
-				res := browser.ReadPages(ctx, urls, browser.ReadOptions{Tabs: tabs, Reader: extension.Reader()})
+				res := browser.ReadPages(ctx, urls, browser.ReadOptions{Tabs: run.tabs, Reader: extension.Reader(), Views: run.views})
+				views += len(res)
 				for _, r := range res {
 					require.NoError(b, r.Err)
 					load += r.LoadMs
@@ -295,6 +307,7 @@ func BenchmarkBatch(b *testing.B) {
 			}
 			total := load + read + analyse
 			b.ReportMetric(float64(len(urls)*b.N)/wall*60, "pages/min")
+			b.ReportMetric(float64(views)/wall*60, "views/min")
 			b.ReportMetric(100*load/total, "%load")
 			b.ReportMetric(100*read/total, "%read")
 			b.ReportMetric(100*analyse/total, "%analyse")
@@ -483,4 +496,66 @@ func crossOriginFrame(t *testing.T, framedHost string) {
 		r := u.Regions[0].Box
 		assert.True(t, bar[0]+13 >= r[0] && bar[0]+13 <= r[0]+r[2] && bar[1]+62 >= r[1] && bar[1]+62 <= r[1]+r[3], "%s: %v", u.Name, r)
 	}
+}
+
+// What colour scheme a chart is drawn in is the element's used scheme
+// (CSS Color Adjustment 1 §2; light-dark(), CSS Color 5 §7): its
+// color-scheme, or the page's <meta name="color-scheme"> for normal, with
+// the reader's preference choosing only where both are offered; the
+// canvas under a page drawn dark is dark. The static reader must read what
+// Chromium draws, in both preferences: fills and the colour behind each
+// chart.
+func TestColourSchemesMatchTheBrowser(t *testing.T) {
+	needBrowser(t)
+	const bars = `<svg width="160" height="80"><rect x="10" y="20" width="20" height="60" style="fill: light-dark(#3b6e8f, #9cc3dc)"/>
+	<rect x="40" y="30" width="20" height="50" class="b"/><rect x="70" y="40" width="20" height="40" class="b"/></svg>`
+	const style = `<style>.b { fill: var(--b); } :root { --b: light-dark(#b5651d, #f2b880); }</style>`
+	dir := t.TempDir()
+	var pages []string
+	for name, page := range map[string]string{
+		"normal":      `<!doctype html><html><head>` + style + `</head><body>` + bars + `</body></html>`,
+		"dark-only":   `<!doctype html><html style="color-scheme: dark"><head>` + style + `</head><body>` + bars + `</body></html>`,
+		"light-dark":  `<!doctype html><html style="color-scheme: light dark"><head>` + style + `</head><body>` + bars + `</body></html>`,
+		"meta":        `<!doctype html><html><head><meta name="color-scheme" content="light dark">` + style + `</head><body>` + bars + `</body></html>`,
+		"nested-dark": `<!doctype html><html><head>` + style + `</head><body><figure style="color-scheme: dark">` + bars + `</figure></body></html>`,
+	} {
+		p := filepath.Join(dir, name+".html")
+		require.NoError(t, os.WriteFile(p, []byte(page), 0o644))
+		pages = append(pages, p)
+	}
+	slices.Sort(pages)
+	read := func(args ...string) report.Report {
+		code, out, errs := runCmd(append(append([]string{"check", "--json", "--scheme", "light,dark"}, args...), pages...)...)
+		require.Equal(t, 0, code, errs)
+		var rep report.Report
+		require.NoError(t, json.Unmarshal([]byte(out), &rep))
+		return rep
+	}
+	b, s := read("--browser"), read()
+	require.Len(t, b.Pages, 2*len(pages))
+	require.Len(t, s.Pages, len(b.Pages))
+	static := map[string]report.Page{}
+	for _, p := range s.Pages {
+		static[p.Source+" "+p.View.Scheme] = p
+	}
+	dark := 0
+	for _, bp := range b.Pages {
+		where := fmt.Sprintf("%s (%s)", filepath.Base(bp.Source), bp.View.Scheme)
+		sp, ok := static[bp.Source+" "+bp.View.Scheme]
+		require.True(t, ok, where)
+		require.Len(t, bp.Charts, 1, where)
+		require.Len(t, sp.Charts, 1, where)
+		assert.Equal(t, bp.Charts[0].Background, sp.Charts[0].Background, "%s: the colour behind the chart", where)
+		if bp.Charts[0].Background != "#ffffff" {
+			dark++
+		}
+		require.Len(t, sp.Charts[0].Marks, len(bp.Charts[0].Marks), where)
+		for k, m := range bp.Charts[0].Marks {
+			require.NotNil(t, m.Fill, where)
+			require.NotNil(t, sp.Charts[0].Marks[k].Fill, where)
+			assert.Equal(t, *m.Fill, *sp.Charts[0].Marks[k].Fill, "%s: %s", where, m.ID)
+		}
+	}
+	// dark-only in both preferences, light-dark and meta in the dark one.
+	assert.Equal(t, 4, dark, "charts on a dark canvas")
 }

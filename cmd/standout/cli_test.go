@@ -231,7 +231,7 @@ func TestUnreadIsAWarning(t *testing.T) {
 // says what changes between them. Widths still need the browser.
 func TestStaticColourSchemes(t *testing.T) {
 	page := writePage(t, t.TempDir(), "tides.html", `<!doctype html><html><head><style>
-	:root { --bar: light-dark(#3b6e8f, #9cc3dc); --bg: light-dark(#ffffff, #14161a); }
+	:root { color-scheme: light dark; --bar: light-dark(#3b6e8f, #9cc3dc); --bg: light-dark(#ffffff, #14161a); }
 	body { background: var(--bg); }
 	@media (prefers-color-scheme: dark) { .hi { fill: #ffb86b; } }
 	</style></head><body><svg width="200" height="100">
