@@ -95,12 +95,13 @@ user_pref("datareporting.policy.dataSubmissionEnabled", false);
 user_pref("toolkit.telemetry.reportingpolicy.firstRun", false);
 `
 
-// startFirefox starts a headless Firefox with a fresh profile, opens a
-// BiDi session and finds its tab.
-func startFirefox(t testing.TB) *bidi {
+// startFirefox starts a headless Firefox with a fresh profile (with more
+// user_pref lines, if any), opens a BiDi session and finds its tab.
+func startFirefox(t testing.TB, prefs ...string) *bidi {
 	exe := firefox(t)
 	profile, downloads := t.TempDir(), t.TempDir()
-	require.NoError(t, os.WriteFile(filepath.Join(profile, "user.js"), []byte(fmt.Sprintf(profilePrefs, downloads)), 0o644))
+	userJS := fmt.Sprintf(profilePrefs, downloads) + strings.Join(prefs, "\n")
+	require.NoError(t, os.WriteFile(filepath.Join(profile, "user.js"), []byte(userJS), 0o644))
 	ctx, cancel := context.WithCancel(context.Background())
 	cmd := exec.CommandContext(ctx, exe, "--headless", "--no-remote", "--profile", profile, "--remote-debugging-port=0", "--remote-allow-origins=http://127.0.0.1", "about:blank")
 	cmd.Env = append(os.Environ(), "MOZ_CRASHREPORTER_DISABLE=1")
@@ -436,9 +437,9 @@ func foxTestManifest(p string) error {
 
 // newFox starts Firefox with the test build installed (as a temporary
 // add-on, through BiDi's webExtension.install).
-func newFox(t testing.TB) *foxHarness {
+func newFox(t testing.TB, prefs ...string) *foxHarness {
 	dir := builtForFirefoxTest(t)
-	b := startFirefox(t)
+	b := startFirefox(t, prefs...)
 	b.call("webExtension.install", map[string]any{"extensionData": map[string]any{"type": "path", "path": dir}}, nil)
 	return &foxHarness{bidi: b}
 }

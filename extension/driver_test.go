@@ -9,6 +9,8 @@ import (
 	"fmt"
 	"image"
 	"net/http"
+	"os"
+	"path/filepath"
 	"testing"
 	"time"
 
@@ -137,4 +139,31 @@ func markRects(b e2eBrowser, ids []string) [][4]float64 {
 	var out [][4]float64
 	require.NoError(b.tb(), json.Unmarshal([]byte(b.eval(expr)), &out))
 	return out
+}
+
+// downloaded waits up to 10 s for a finished download in dir and returns
+// its bytes, or nil. A download is finished when it is not empty, no
+// partial file (Firefox's name.part) is beside it, and its size held for
+// one poll.
+func downloaded(dir, name string) []byte {
+	p := filepath.Join(dir, name)
+	last := int64(-1)
+	for i := 0; i < 100; i++ {
+		time.Sleep(100 * time.Millisecond)
+		fi, err := os.Stat(p)
+		if err != nil || fi.Size() == 0 {
+			continue
+		}
+		if _, err := os.Stat(p + ".part"); err == nil {
+			continue
+		}
+		if fi.Size() == last {
+			b, err := os.ReadFile(p)
+			if err == nil {
+				return b
+			}
+		}
+		last = fi.Size()
+	}
+	return nil
 }

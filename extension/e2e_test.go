@@ -641,11 +641,7 @@ func suitePickingAndExport(t *testing.T, h e2eBrowser) {
 	// Export the JSON report: it decodes as the documented schema.
 	dl := h.downloads()
 	h.clickInOverlay("export-json")
-	var data []byte
-	for i := 0; i < 100 && data == nil; i++ {
-		time.Sleep(100 * time.Millisecond)
-		data, _ = os.ReadFile(filepath.Join(dl, "standout-report.json"))
-	}
+	data := downloaded(dl, "standout-report.json")
 	require.NotNil(t, data, "no exported report")
 	dec := json.NewDecoder(bytes.NewReader(data))
 	dec.DisallowUnknownFields()
@@ -743,12 +739,7 @@ func suiteExportMarkdownAndPNG(t *testing.T, h e2eBrowser) {
 	dl := h.downloads()
 	h.clickInOverlay("export-md")
 	h.clickInOverlay("export-png")
-	var md, shot []byte
-	for i := 0; i < 100 && (md == nil || shot == nil); i++ {
-		time.Sleep(100 * time.Millisecond)
-		md, _ = os.ReadFile(filepath.Join(dl, "standout-report.md"))
-		shot, _ = os.ReadFile(filepath.Join(dl, "standout-svg0.png"))
-	}
+	md, shot := downloaded(dl, "standout-report.md"), downloaded(dl, "standout-svg0.png")
 	require.NotNil(t, md, "no Markdown export")
 	assert.Contains(t, string(md), "# Standout report")
 	assert.Contains(t, string(md), "### Chart `svg0`")
@@ -981,4 +972,34 @@ func TestE2EFrameOfAnotherOrigin(t *testing.T) {
 		}
 		assert.True(t, opened, "the page that asks for the origin opened")
 	})
+}
+
+func TestE2EDarkCanvasUnderTheChart(t *testing.T) { suiteDarkCanvasUnderTheChart(t, newHarness(t)) }
+
+// The colour behind a chart on a page without backgrounds is the canvas
+// the browser paints: dark when the root's used colour scheme is (its
+// color-scheme, or the page's <meta name="color-scheme">), white when the
+// page offers both and the reader prefers light (the browsers' default).
+// The reading must be the colour the screenshot shows beside the marks.
+func suiteDarkCanvasUnderTheChart(t *testing.T, h e2eBrowser) {
+	svg := `<svg width="200" height="100" style="display:block"><rect x="120" y="20" width="20" height="60" fill="#e0a458"/><rect x="160" y="40" width="20" height="40" fill="#8fb8de"/></svg>`
+	for _, pg := range []struct{ name, head, root string }{
+		{"color-scheme dark", "", ` style="color-scheme: dark"`},
+		{"meta color-scheme dark", `<meta name="color-scheme" content="dark">`, ""},
+		{"light dark, light preferred", "", ` style="color-scheme: light dark"`},
+	} {
+		srv := serve(t, func(w http.ResponseWriter, r *http.Request) {
+			w.Header().Set("Content-Type", "text/html; charset=utf-8")
+			fmt.Fprintf(w, `<!doctype html><html%s><head>%s</head><body style="margin:0">%s</body></html>`, pg.root, pg.head, svg)
+		})
+		h.open(srv.URL + "/")
+		h.eval(Reader() + `; ''`)
+		bg := h.eval(`globalThis.standoutReader.readPage(document, {}).then((p) => String(JSON.parse(JSON.stringify(p)).snapshots[0].bg))`)
+		v, err := strconv.ParseUint(bg, 10, 32)
+		require.NoError(t, err, pg.name)
+		_, img := h.screenshot()
+		r, g, b, _ := img.At(40, 50).RGBA()
+		got := [3]uint32{uint32(v >> 24), uint32(v>>16) & 0xff, uint32(v>>8) & 0xff}
+		assert.Equal(t, [3]uint32{r >> 8, g >> 8, b >> 8}, got, "%s: the reading against the screenshot", pg.name)
+	}
 }

@@ -19,6 +19,7 @@ func TestFirefoxE2E(t *testing.T) {
 		{"ExportMarkdownAndPNG", suiteExportMarkdownAndPNG},
 		{"ReRunsWhenTheChartChanges", suiteReRunsWhenTheChartChanges},
 		{"ChartDrawnAsPixels", suiteChartDrawnAsPixels},
+		{"DarkCanvasUnderTheChart", suiteDarkCanvasUnderTheChart},
 	} {
 		t.Run(s.name, func(t *testing.T) { s.run(t, newFox(t)) })
 	}

@@ -685,7 +685,7 @@
     const walk = new ChartWalk(svg, path, root, off, emphasis, share, budget);
     walk.add(svg, -1, 0, null, null, 0);
     const title = chartTitle(svg, heading, caches.captions);
-    return walk.w.snapshot(svg.ownerDocument.location.href, title, anchorOf(svg, caches.anchors), [box.left + off[0], box.top + off[1], box.width, box.height], background(svg));
+    return walk.w.snapshot(svg.ownerDocument.location.href, title, anchorOf(svg, caches.anchors), [box.left + off[0], box.top + off[1], box.width, box.height], background(svg, caches.canvas));
   }
 
   const PLAIN_IDENT = /^[A-Za-z_][A-Za-z0-9_-]*$/;
@@ -792,11 +792,16 @@
   }
 
   // The colour behind an element: ancestors' backgrounds composited over
-  // white, nearest last.
-  function background(el) {
+  // the canvas the browser paints under the page, nearest last. canvases
+  // keeps each document's canvas for one read (a page may hold thousands
+  // of charts).
+  function background(el, canvases) {
     const chain = [];
     for (let p = el.parentElement; p; p = p.parentElement) chain.push(p);
-    let r = 255, g = 255, b = 255;
+    const doc = el.ownerDocument;
+    if (!canvases.has(doc)) canvases.set(doc, canvasColour(doc));
+    const base = canvases.get(doc);
+    let r = base >>> 24, g = (base >>> 16) & 0xff, b = (base >>> 8) & 0xff;
     for (let i = chain.length - 1; i >= 0; i--) {
       const c = packColour(getComputedStyle(chain[i]).backgroundColor);
       if (c === null) continue;
@@ -807,6 +812,29 @@
       b = a * ((c >>> 8) & 0xff) + (1 - a) * b;
     }
     return ((Math.round(r) << 24) | (Math.round(g) << 16) | (Math.round(b) << 8) | 255) >>> 0;
+  }
+
+  // The Canvas system colour under a document (CSS Color 4 §6.2): white,
+  // or, when the root's used colour scheme is dark (CSS Color Adjustment 1
+  // §2: its color-scheme, or the page's <meta name="color-scheme"> when
+  // that is normal, with the reader's preference deciding between light
+  // and dark), the engine's dark canvas. No page can read a system colour
+  // without adding an element, so the two engines' values are kept here;
+  // the end-to-end suite checks them against screenshots of each.
+  const DARK_CANVAS = { gecko: 0x1c1b22ff, blink: 0x121212ff };
+  function canvasColour(doc) {
+    const root = doc.documentElement;
+    const win = doc.defaultView;
+    if (!root || !win) return 0xffffffff;
+    let cs = String(win.getComputedStyle(root).colorScheme || 'normal').toLowerCase();
+    if (cs === 'normal') {
+      const meta = doc.querySelector('meta[name="color-scheme" i]');
+      if (meta) cs = String(meta.getAttribute('content') || '').toLowerCase();
+    }
+    const words = cs.split(/\s+/);
+    if (!words.includes('dark')) return 0xffffffff;
+    if (words.includes('light') && !win.matchMedia('(prefers-color-scheme: dark)').matches) return 0xffffffff;
+    return /\bGecko\/\d/.test(navigator.userAgent) ? DARK_CANVAS.gecko : DARK_CANVAS.blink;
   }
 
   // Finds the outermost <svg> elements of a document or shadow root in
@@ -935,7 +963,7 @@
     const shareable = new Map();
     // Per <figure>, its caption, and per document, the counts that anchor
     // selectors need: read once for all the charts.
-    const caches = { captions: new Map(), anchors: new AnchorCounts() };
+    const caches = { captions: new Map(), anchors: new AnchorCounts(), canvas: new Map() };
     let shared = 0;
     let slice = performance.now();
     let yieldMs = 0;
