@@ -41,9 +41,30 @@ func AppendStrings(b []byte, v []string) []byte {
 
 const hexDigits = "0123456789abcdef"
 
-// AppendString writes s as a JSON string (RFC 8259 §7): quotes,
-// backslashes and control characters escaped, invalid UTF-8 replaced by
-// U+FFFD as encoding/json does.
+// AppendNumber writes a number as encoding/json does: shortest form,
+// exponent only below 1e-6 or from 1e21, and "e-7" not "e-07". JSON has
+// no NaN or infinity; they are written as null.
+func AppendNumber(b []byte, f float64) []byte {
+	if math.IsNaN(f) || math.IsInf(f, 0) {
+		return append(b, "null"...)
+	}
+	abs := math.Abs(f)
+	format := byte('f')
+	if abs != 0 && (abs < 1e-6 || abs >= 1e21) {
+		format = 'e'
+	}
+	b = strconv.AppendFloat(b, f, format, -1, 64)
+	if n := len(b); format == 'e' && n >= 4 && b[n-4] == 'e' && b[n-3] == '-' && b[n-2] == '0' {
+		b[n-2] = b[n-1]
+		b = b[:n-1]
+	}
+	return b
+}
+
+// AppendString writes s as a JSON string (RFC 8259 §7) byte for byte as
+// encoding/json does with HTML escaping off: quotes, backslashes and
+// control characters escaped, U+2028 and U+2029 escaped (JavaScript
+// before ES2019 ends a line at them), invalid UTF-8 replaced by U+FFFD.
 func AppendString(b []byte, s string) []byte {
 	b = append(b, '"')
 	start := 0
@@ -64,6 +85,10 @@ func AppendString(b []byte, s string) []byte {
 				b = append(b, '\\', 'r')
 			case '\t':
 				b = append(b, '\\', 't')
+			case '\b':
+				b = append(b, '\\', 'b')
+			case '\f':
+				b = append(b, '\\', 'f')
 			default:
 				b = append(b, '\\', 'u', '0', '0', hexDigits[c>>4], hexDigits[c&0xf])
 			}
@@ -75,6 +100,13 @@ func AppendString(b []byte, s string) []byte {
 		if r == utf8.RuneError && size == 1 {
 			b = append(b, s[start:i]...)
 			b = append(b, `\ufffd`...)
+			i += size
+			start = i
+			continue
+		}
+		if r == '\u2028' || r == '\u2029' {
+			b = append(b, s[start:i]...)
+			b = append(b, '\\', 'u', '2', '0', '2', hexDigits[r&0xf])
 			i += size
 			start = i
 			continue
