@@ -5,8 +5,6 @@
 package main
 
 import (
-	"encoding/json"
-	"fmt"
 	"runtime/debug"
 	"sort"
 	"strconv"
@@ -77,16 +75,23 @@ type Response struct {
 func Handle(req []byte) (out []byte) {
 	defer recoverTo(&out)
 	t0 := time.Now()
-	var q Request
-	if err := json.Unmarshal(req, &q); err != nil {
+	// The options' decoder skips the page's fields and the page's decoder
+	// the options'.
+	q, err := parseOptions(req)
+	if err != nil {
 		return errorResponse("bad request: " + err.Error())
 	}
-	return handle(&q, t0)
+	p, err := snapshot.DecodePage(req)
+	if err != nil {
+		return errorResponse("bad request: " + err.Error())
+	}
+	q.Source, q.Snapshots, q.Problems, q.Rasters = p.Source, p.Snapshots, p.Problems, p.Rasters
+	return handle(q, t0)
 }
 
 // HandlePage answers a request whose page (the read pass's JSON, with
 // source, snapshots and problems) comes apart from its options: the page
-// is decoded by the fast snapshot decoder, the options by encoding/json.
+// is decoded by the fast snapshot decoder.
 // The readings of frames of other origins follow the page, one for each
 // of the options' frames.
 func HandlePage(options, page []byte, frames ...[]byte) (out []byte) {
@@ -194,7 +199,14 @@ func parseOptions(b []byte) (*Request, error) {
 
 func recoverTo(out *[]byte) {
 	if r := recover(); r != nil {
-		*out = errorResponse(fmt.Sprintf("internal error: %v\n%s", r, debug.Stack()))
+		msg := "a panic of an unexpected kind"
+		switch v := r.(type) {
+		case error:
+			msg = v.Error()
+		case string:
+			msg = v
+		}
+		*out = errorResponse("internal error: " + msg + "\n" + string(debug.Stack()))
 	}
 }
 
@@ -202,7 +214,7 @@ func handle(q *Request, t0 time.Time) []byte {
 	ms := func(t time.Time) float64 { return float64(time.Since(t).Microseconds()) / 1000 }
 	timing := map[string]float64{}
 	if q.Type != "analyse" {
-		return errorResponse(fmt.Sprintf("unknown request type %q", q.Type))
+		return errorResponse("unknown request type " + strconv.Quote(q.Type))
 	}
 	set := report.DefaultSettings
 	if q.Severity != nil {
@@ -240,16 +252,21 @@ func handle(q *Request, t0 time.Time) []byte {
 	var md strings.Builder
 	report.WriteMarkdown(&md, rep, nil)
 	timing["encodeMs"] = ms(t2)
-	b, err := json.Marshal(Response{OK: true, Report: rep, Markdown: md.String(), Timing: timing})
-	if err != nil {
-		return errorResponse(err.Error())
-	}
-	return b
+	// The response as encoding/json would write Response, by hand (the
+	// core does not link encoding/json: report.AppendJSON).
+	b := append(make([]byte, 0, 1<<16), `{"ok":true,"report":`...)
+	b = report.AppendJSON(b, rep)
+	b = append(b, `,"markdown":`...)
+	b = jsonio.AppendString(b, md.String())
+	b = append(b, `,"timing":`...)
+	b = appendTiming(b, timing)
+	return append(b, '}')
 }
 
 func errorResponse(msg string) []byte {
-	b, _ := json.Marshal(Response{OK: false, Error: msg})
-	return b
+	b := append(make([]byte, 0, len(msg)+32), `{"ok":false,"error":`...)
+	b = jsonio.AppendString(b, msg)
+	return append(b, '}')
 }
 
 // appendTiming writes a map of timings with its keys in order.
@@ -266,7 +283,7 @@ func appendTiming(b []byte, t map[string]float64) []byte {
 		}
 		b = jsonio.AppendString(b, k)
 		b = append(b, ':')
-		b = jsonio.AppendFloat(b, t[k])
+		b = jsonio.AppendNumber(b, t[k])
 	}
 	return append(b, '}')
 }

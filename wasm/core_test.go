@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"encoding/json"
 	"fmt"
 	"os"
@@ -28,9 +29,19 @@ func TestHandleStaticSnapshot(t *testing.T) {
 	require.NoError(t, err)
 	req, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Emphasis: []string{"svg0/g0/rect2"}, Full: true})
 	require.NoError(t, err, "snapshots must be JSON-safe")
+	out := Handle(req)
 	var resp Response
-	require.NoError(t, json.Unmarshal(Handle(req), &resp))
+	dec := json.NewDecoder(bytes.NewReader(out))
+	dec.DisallowUnknownFields()
+	require.NoError(t, dec.Decode(&resp))
 	require.True(t, resp.OK, resp.Error)
+	// Written by hand, the response is what encoding/json writes for it
+	// (with HTML escaping off).
+	var want bytes.Buffer
+	enc := json.NewEncoder(&want)
+	enc.SetEscapeHTML(false)
+	require.NoError(t, enc.Encode(resp))
+	assert.Equal(t, strings.TrimSuffix(want.String(), "\n"), string(out))
 	c := resp.Report.Pages[0].Charts[0]
 	require.Len(t, c.Marks, 4)
 	assert.Equal(t, "pops", c.Marks[2].Verdict)
