@@ -1,9 +1,9 @@
 package marks
 
 import (
-	"cmp"
 	"math"
 	"slices"
+	"sort"
 	"standout/snapshot"
 )
 
@@ -109,7 +109,7 @@ func strip(h *Heuristics, grp []*cand) ([4]float64, bool) {
 		at, step, thick = func(c *cand) float64 { return c.g.BBox[0] }, b0[2], b0[3]
 	}
 	order := slices.Clone(grp)
-	slices.SortFunc(order, func(a, b *cand) int { return cmp.Compare(at(a), at(b)) })
+	sort.Slice(order, func(i, j int) bool { return at(order[i]) < at(order[j]) })
 	for i := 1; i < len(order); i++ {
 		if gap := at(order[i]) - at(order[i-1]) - step; math.Abs(gap) > 1 {
 			return [4]float64{}, false

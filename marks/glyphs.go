@@ -2,7 +2,7 @@ package marks
 
 import (
 	"math"
-	"slices"
+	"sort"
 	"standout/snapshot"
 )
 
@@ -122,7 +122,7 @@ func glyphRuns(h *Heuristics, s *snapshot.Snapshot, cands []*cand) []*cand {
 		}
 	}
 	// Runs form per container, in document order (uses keep it).
-	slices.SortStableFunc(glyphs, func(a, b *instance) int { return int(a.container) - int(b.container) })
+	sort.SliceStable(glyphs, func(i, j int) bool { return glyphs[i].container < glyphs[j].container })
 	var texts []*cand
 	for i := 0; i < len(glyphs); {
 		j := i + 1

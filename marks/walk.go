@@ -1,10 +1,10 @@
 package marks
 
 import (
-	"cmp"
 	"fmt"
 	"math"
 	"slices"
+	"sort"
 	"standout/snapshot"
 	"strconv"
 	"strings"
@@ -257,9 +257,9 @@ func (ch *Chart) collect(cands, texts []*cand) {
 		ch.Marks = append(ch.Marks, makeMark(t))
 	}
 	// Usually in order already; a Mark is large to move.
-	byNode := func(a, b Mark) int { return cmp.Compare(a.Node, b.Node) }
-	if !slices.IsSortedFunc(ch.Marks, byNode) {
-		slices.SortStableFunc(ch.Marks, byNode)
+	byNode := func(i, j int) bool { return ch.Marks[i].Node < ch.Marks[j].Node }
+	if !sort.SliceIsSorted(ch.Marks, byNode) {
+		sort.SliceStable(ch.Marks, byNode)
 	}
 }
 
@@ -891,7 +891,7 @@ func inRuns(h *Heuristics, ts []*cand, coord, along func(*cand) float64) []bool 
 	for i := range order {
 		order[i] = i
 	}
-	slices.SortFunc(order, func(a, b int) int { return cmp.Compare(coord(ts[a]), coord(ts[b])) })
+	sort.Slice(order, func(i, j int) bool { return coord(ts[order[i]]) < coord(ts[order[j]]) })
 	in := make([]bool, len(ts))
 	for i := 0; i < len(order); {
 		j := i + 1

@@ -1,7 +1,6 @@
 package perception
 
 import (
-	"cmp"
 	"math"
 	"slices"
 	"sort"
@@ -129,7 +128,7 @@ func findings(in Input, p Params, res *Result) []Finding {
 	out = append(out, adjacentFindings(in)...)
 	out = append(out, categoryFindings(in, p, res)...)
 	out = append(out, groupingFindings(res)...)
-	slices.SortStableFunc(out, func(a, b Finding) int { return cmp.Compare(b.Severity.Rank(), a.Severity.Rank()) })
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Severity.Rank() > out[j].Severity.Rank() })
 	return out
 }
 
@@ -647,7 +646,7 @@ func touchingBars(marks []Mark) [][2]int {
 	}
 	match(rights, lefts)
 	match(bottoms, tops)
-	slices.SortFunc(out, func(a, b [2]int) int { return cmp.Or(cmp.Compare(a[0], b[0]), cmp.Compare(a[1], b[1])) })
+	sort.Slice(out, func(i, j int) bool { return out[i][0] < out[j][0] || out[i][0] == out[j][0] && out[i][1] < out[j][1] })
 	return out
 }
 

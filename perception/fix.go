@@ -1,9 +1,8 @@
 package perception
 
 import (
-	"cmp"
 	"math"
-	"slices"
+	"sort"
 
 	"standout/perception/colour"
 )
@@ -197,7 +196,7 @@ func (fs *fixSearch) recolour(res *Result) *Fix {
 			near = append(near, c)
 		}
 	}
-	slices.SortFunc(near, func(a, b cand) int { return cmp.Compare(a.d, b.d) })
+	sort.Slice(near, func(i, j int) bool { return near[i].d < near[j].d })
 	for _, c := range append(near[:min(len(near), 4)], cands[best]) {
 		if f := fs.recolourWith(res, quantise(c.c)); f.Verified || c == cands[best] {
 			return f

@@ -245,6 +245,9 @@ func alignedGroups(coord []float64) unionFind {
 	for k, v := range coord {
 		sorted[k] = keyed{v, k}
 	}
+	// A generic sort: this one runs on every mark, where sort.Slice's
+	// reflection costs (the others, on few elements, use sort.Slice, one
+	// body for every type in the WebAssembly module).
 	slices.SortFunc(sorted, func(a, b keyed) int {
 		if c := cmp.Compare(a.v, b.v); c != 0 {
 			return c

@@ -1,7 +1,6 @@
 package perception
 
 import (
-	"cmp"
 	"math"
 	"slices"
 	"sort"
@@ -661,7 +660,7 @@ func segmentDistance(p, a, b [2]float64) float64 {
 // chain); collinear points collapse to a segment's two ends.
 func convexHull(pts [][2]float64) [][2]float64 {
 	ps := append([][2]float64(nil), pts...)
-	slices.SortFunc(ps, func(a, b [2]float64) int { return cmp.Or(cmp.Compare(a[0], b[0]), cmp.Compare(a[1], b[1])) })
+	sort.Slice(ps, func(i, j int) bool { return ps[i][0] < ps[j][0] || ps[i][0] == ps[j][0] && ps[i][1] < ps[j][1] })
 	if len(ps) < 3 {
 		return ps
 	}
@@ -849,7 +848,7 @@ func (d *display) colourSpread(c Channel, distractorBins []colourBin) float64 {
 		}
 		ds = append(ds, wd{v, float64(b.count)})
 	}
-	slices.SortFunc(ds, func(a, b wd) int { return cmp.Compare(a.v, b.v) })
+	sort.Slice(ds, func(i, j int) bool { return ds[i].v < ds[j].v })
 	// The value at rank round(0.9·(f−1)) of the expanded list.
 	target := math.Round(0.9 * (f - 1))
 	acc := 0.0

@@ -1,9 +1,7 @@
 package perception
 
 import (
-	"cmp"
 	"math"
-	"slices"
 	"sort"
 	"standout/perception/colour"
 )
@@ -113,7 +111,7 @@ func (j *judging) one(k int) MarkResult {
 		r.Channels = j.chBuf[start:len(j.chBuf):len(j.chBuf)]
 	}
 	if len(r.Channels) > 1 {
-		slices.SortStableFunc(r.Channels, func(a, b Channel) int { return cmp.Compare(r.Salience.Of(b), r.Salience.Of(a)) })
+		sort.SliceStable(r.Channels, func(i, j int) bool { return r.Salience.Of(r.Channels[i]) > r.Salience.Of(r.Channels[j]) })
 	}
 	if len(r.Channels) > 0 {
 		r.Verdict = Pops
@@ -268,7 +266,7 @@ func weightedMedian(d *display, f func(colour.Lab) float64) float64 {
 	for i, l := range d.clab {
 		cs[i] = cw{f(l), d.cols.count[i]}
 	}
-	slices.SortFunc(cs, func(a, b cw) int { return cmp.Compare(a.c, b.c) })
+	sort.Slice(cs, func(i, j int) bool { return cs[i].c < cs[j].c })
 	half, acc := (len(d.idx)+1)/2, 0
 	for _, x := range cs {
 		if acc += x.n; acc >= half {

@@ -14,9 +14,8 @@
 package saliency
 
 import (
-	"cmp"
 	"math"
-	"slices"
+	"sort"
 )
 
 // Image is an RGB image, each channel in [0, 1], row by row.
@@ -404,6 +403,6 @@ func Regions(m Map, w, h int) []Region {
 		bx1, by1 := min(float64(x1+1)*m.Scale, float64(w)), min(float64(y1+1)*m.Scale, float64(h))
 		out = append(out, Region{Box: [4]float64{bx0, by0, bx1 - bx0, by1 - by0}, Salience: float64(top / peak)})
 	}
-	slices.SortStableFunc(out, func(a, b Region) int { return cmp.Compare(b.Salience, a.Salience) })
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Salience > out[j].Salience })
 	return out
 }
