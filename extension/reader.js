@@ -846,6 +846,16 @@
   const RASTER_TAGS = new Set(['canvas', 'img', 'object', 'embed']);
   const RASTER_MIN = C.RASTER_MIN;
 
+  // rasterKind is the kind of pixels an HTML element draws a chart in: its
+  // tag for a canvas, an image, an object or an embed; 'background' for an
+  // element with no element inside whose CSS background is an image (a
+  // gradient is not one); '' for the others.
+  function rasterKind(n, tag) {
+    if (RASTER_TAGS.has(tag)) return tag;
+    if (n.firstElementChild || tag === 'html' || tag === 'body' || tag === 'iframe' || tag === 'frame') return '';
+    return /\burl\(/.test(getComputedStyle(n).backgroundImage) ? 'background' : '';
+  }
+
   function findCharts(doc, problems, rasters, unread) {
     const out = [];
     const nRaster = {};
@@ -879,15 +889,17 @@
           n = next;
           continue;
         }
-        if (rasters && RASTER_TAGS.has(tag) && n.namespaceURI === XHTML_NS) {
-          // A chart drawn as pixels (a canvas, an image, an object): its
-          // marks cannot be read. Named, so that no check passes in
-          // silence where nothing was read.
+        // A chart drawn as pixels (a canvas, an image, an object, or a
+        // CSS background image on an element that holds nothing else): its
+        // marks cannot be read. Named, so that no check passes in silence
+        // where nothing was read.
+        const raster = rasters && n.namespaceURI === XHTML_NS && rasterKind(n, tag);
+        if (raster) {
           const r = n.getBoundingClientRect();
           if (r.width >= RASTER_MIN[0] && r.height >= RASTER_MIN[1] && rasters.length < C.MAX_RASTERS) {
-            const k = nRaster[tag] || 0;
-            nRaster[tag] = k + 1;
-            rasters.push({ tag, name: prefix + tag + k, box: [off[0] + r.left, off[1] + r.top, r.width, r.height] });
+            const k = nRaster[raster] || 0;
+            nRaster[raster] = k + 1;
+            rasters.push({ tag: raster, name: prefix + raster + k, box: [off[0] + r.left, off[1] + r.top, r.width, r.height] });
           }
         }
         if (n.shadowRoot) {

@@ -110,6 +110,7 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	b.sel = sel
 	order := 0
 	rasterCount := map[string]int{}
+	var rasterCands []*html.Node
 	var svgs []*html.Node
 	var heading *html.Node // the last h1–h6 so far, in document order
 	b.headingOf = map[*html.Node]*html.Node{}
@@ -141,13 +142,25 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 		case n.Data == "svg" && n.Namespace == "svg" && !insideSVG(n):
 			svgs = append(svgs, n)
 			b.headingOf[n] = heading
-		case n.Namespace == "" && rasterTags[n.Data]:
-			if r, ok := rasterOf(n, &rasterCount); ok && len(page.Rasters) < snapshot.MaxRasters {
-				page.Rasters = append(page.Rasters, r)
-			}
+		case n.Namespace == "" && (rasterTags[n.Data] || mayHoldBackground(n)):
+			// Named after the walk, once every style sheet is known, in
+			// document order as the read pass names them.
+			rasterCands = append(rasterCands, n)
 		}
 		return true
 	})
+	b.casc.backgroundURLs = b.casc.declaresBackgroundURL()
+	for _, n := range rasterCands {
+		r, ok := snapshot.Raster{}, false
+		if rasterTags[n.Data] {
+			r, ok = rasterOf(n, &rasterCount)
+		} else {
+			r, ok = b.backgroundRaster(n, &rasterCount)
+		}
+		if ok && len(page.Rasters) < snapshot.MaxRasters {
+			page.Rasters = append(page.Rasters, r)
+		}
+	}
 	for i, s := range svgs {
 		snap, err := b.chart(s, fmt.Sprintf("svg%d", i))
 		if err == nil && b.casc.budget.err != nil {
@@ -938,6 +951,45 @@ func overSRGB(c snapshot.Colour, dst struct{ R, G, B float64 }) struct{ R, G, B 
 
 // rasterTags are the elements that draw pixels a chart may be made of.
 var rasterTags = map[string]bool{"canvas": true, "img": true, "object": true, "embed": true}
+
+// mayHoldBackground says whether an HTML element may draw a chart as its
+// CSS background image, as the read pass takes one: an element with no
+// element inside (a page's or a section's background is decoration).
+func mayHoldBackground(n *html.Node) bool {
+	switch n.Data {
+	case "html", "body", "iframe", "frame", "head", "title", "meta", "link", "style", "script", "noscript", "template", "br", "hr", "wbr", "input", "option":
+		return false
+	}
+	for c := n.FirstChild; c != nil; c = c.NextSibling {
+		if c.Type == html.ElementNode {
+			return false
+		}
+	}
+	return true
+}
+
+// backgroundRaster names an element whose CSS background is an image (a
+// url(), not a gradient) at chart size: its CSS width and height in px at
+// least snapshot.RasterMin. Without layout, other sizes are unknown, and
+// such an element is left unnamed rather than taken for a chart: icons
+// are drawn this way too.
+func (b *builder) backgroundRaster(n *html.Node, count *map[string]int) (snapshot.Raster, bool) {
+	if !b.casc.backgroundURLs && !strings.Contains(attr(n, "style"), "url(") {
+		return snapshot.Raster{}, false
+	}
+	st := b.styleOfHTML(n)
+	if st.v[pDisplay] == "none" || !strings.Contains(st.v[pBackgroundImage], "url(") && !strings.Contains(st.v[pBackground], "url(") {
+		return snapshot.Raster{}, false
+	}
+	w, okW := length(st.v[pWidth], 0)
+	h, okH := length(st.v[pHeight], 0)
+	if !okW || !okH || w < snapshot.RasterMin[0] || h < snapshot.RasterMin[1] {
+		return snapshot.Raster{}, false
+	}
+	k := (*count)["background"]
+	(*count)["background"] = k + 1
+	return snapshot.Raster{Tag: "background", Name: "background" + strconv.Itoa(k), Box: [4]float64{0, 0, w, h}}, true
+}
 
 // rasterOf names a raster element of chart size: its width and height
 // attributes (a canvas is 300 × 150 without them, as HTML specifies) at

@@ -1,6 +1,8 @@
 package static
 
 import (
+	"bytes"
+	"os"
 	"strings"
 	"testing"
 
@@ -31,5 +33,22 @@ func TestRasters(t *testing.T) {
 		{Tag: "img", Name: "img0", Box: [4]float64{0, 0, 400, 200}},
 		{Tag: "img", Name: "img1", Box: [4]float64{0, 0, 0, 0}},
 		{Tag: "object", Name: "object0", Box: [4]float64{0, 0, 320, 160}},
+	}, p.Rasters)
+}
+
+// A chart drawn as a CSS background image is named as the read pass names
+// it: an element with no element inside, whose background is a url()
+// image, of chart size by its CSS width and height (testdata/
+// backgrounds.html, which the browser parity test reads in Chromium too).
+// The page's own background, an icon, a gradient, a card with text over a
+// picture and a hidden element are not charts.
+func TestBackgroundRasters(t *testing.T) {
+	b, err := os.ReadFile("../testdata/backgrounds.html")
+	require.NoError(t, err)
+	p, err := Build(bytes.NewReader(b), Options{Source: "t"})
+	require.NoError(t, err)
+	assert.Equal(t, []snapshot.Raster{
+		{Tag: "background", Name: "background0", Box: [4]float64{0, 0, 400, 200}},
+		{Tag: "background", Name: "background1", Box: [4]float64{0, 0, 400, 200}},
 	}, p.Rasters)
 }

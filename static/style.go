@@ -26,6 +26,9 @@ const (
 	pStopOpacity
 	pBackgroundColor
 	pBackground
+	pBackgroundImage
+	pWidth
+	pHeight
 	pColorScheme
 	nProps
 )
@@ -36,7 +39,7 @@ var propIndex = map[string]int{
 	"color": pColor, "font-size": pFontSize, "font-weight": pFontWeight,
 	"stop-color": pStopColor, "stop-opacity": pStopOpacity,
 	"background-color": pBackgroundColor, "background": pBackground,
-	"color-scheme": pColorScheme,
+	"color-scheme": pColorScheme, "background-image": pBackgroundImage, "width": pWidth, "height": pHeight,
 }
 
 // inherited marks the properties that inherit by default (SVG 2 property
@@ -54,6 +57,7 @@ var initial = [nProps]string{
 	pStrokeWidth: "1", pDisplay: "inline", pVisibility: "visible", pColor: "black",
 	pFontSize: "16px", pFontWeight: "400", pStopColor: "black", pStopOpacity: "1",
 	pBackgroundColor: "transparent", pBackground: "", pColorScheme: "normal",
+	pBackgroundImage: "none", pWidth: "auto", pHeight: "auto",
 }
 
 // computed is the computed style of one element: for each property its
@@ -73,6 +77,10 @@ type cascader struct {
 	// meta is the page's <meta name="color-scheme"> content, the schemes
 	// an element of color-scheme normal is drawn in.
 	meta string
+	// backgroundURLs is whether a rule sets a background image by url():
+	// without one, no element's style need be computed to find charts
+	// drawn as CSS background images.
+	backgroundURLs bool
 	// budget bounds the selector tests of the whole build.
 	budget matchBudget
 }
@@ -249,6 +257,19 @@ func (c *cascader) value(d *declared, i int, parent *computed, custom map[string
 		return initial[i]
 	}
 	return v
+}
+
+// declaresBackgroundURL says whether a rule's background or
+// background-image holds a url() (or a var(), which may).
+func (c *cascader) declaresBackgroundURL() bool {
+	for _, r := range c.rules {
+		for _, d := range r.decls {
+			if (d.prop == "background" || d.prop == "background-image") && (strings.Contains(d.value, "url(") || strings.Contains(d.value, "var(")) {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // scheme is how substitute treats light-dark().

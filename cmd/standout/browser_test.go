@@ -390,8 +390,8 @@ func TestViewFlagsRefuseBadInput(t *testing.T) {
 	}
 }
 
-// Charts drawn as pixels, a canvas and an <img>, each with one bar of
-// twelve highlighted (testdata/rasters.html): check --browser captures
+// Charts drawn as pixels, a canvas, an <img> and a CSS background image,
+// each with one bar of twelve highlighted (testdata/rasters.html): check --browser captures
 // their pixels and the strongest region of their saliency map (Itti, Koch
 // & Niebur 1998) covers the highlighted bar, for normal vision; each
 // vision type has its own regions. The static reader, which has no
@@ -404,7 +404,9 @@ func TestRasterChartsSalientRegions(t *testing.T) {
 	var rep report.Report
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
 	us := rep.Pages[0].Unchecked
-	require.Len(t, us, 2)
+	require.Len(t, us, 3)
+	assert.Equal(t, []string{"canvas0", "img0", "background0"}, []string{us[0].Name, us[1].Name, us[2].Name})
+	assert.Equal(t, []string{"canvas", "image", "image"}, []string{us[0].Kind, us[1].Kind, us[2].Kind})
 	for _, u := range us {
 		require.NotEmpty(t, u.Regions, u.Name)
 		// The highlighted bar, pier 6, in the chart's own pixels.
@@ -431,6 +433,7 @@ func TestRasterChartsSalientRegions(t *testing.T) {
 		assert.Equal(t, holds, e.Holds["normal"], box)
 		assert.Len(t, e.Holds, 5, box)
 		assert.Nil(t, got.Pages[0].Unchecked[1].Emphasis, "the box lies in the canvas only")
+		assert.Nil(t, got.Pages[0].Unchecked[2].Emphasis, "the box lies in the canvas only")
 		lost := false
 		for _, f := range got.Pages[0].Findings {
 			lost = lost || f.ID == "pixels-emphasis-lost" && f.Severity == "error"
@@ -441,8 +444,11 @@ func TestRasterChartsSalientRegions(t *testing.T) {
 	require.Equal(t, 0, code, errs)
 	var static report.Report
 	require.NoError(t, json.Unmarshal([]byte(out), &static))
-	require.Len(t, static.Pages[0].Unchecked, 2)
+	require.Len(t, static.Pages[0].Unchecked, 3)
 	assert.Empty(t, static.Pages[0].Unchecked[0].Regions)
+	// The background image's size comes from its style sheet.
+	assert.Equal(t, "background0", static.Pages[0].Unchecked[2].Name)
+	assert.Equal(t, [4]float64{0, 0, 480, 300}, static.Pages[0].Unchecked[2].Box)
 }
 
 // A page on one loopback origin embeds a chart page served from another
@@ -489,7 +495,7 @@ func crossOriginFrame(t *testing.T, framedHost string) {
 	for _, pr := range p.Problems {
 		assert.NotContains(t, pr, "not readable", "the frame was read")
 	}
-	require.Len(t, p.Unchecked, 2)
+	require.Len(t, p.Unchecked, 3, "the canvas, the <img> and the CSS background image")
 	for _, u := range p.Unchecked {
 		require.NotEmpty(t, u.Regions, u.Name)
 		bar := [4]float64{u.Box[0] + 210, u.Box[1] + 155, 26, 125}

@@ -105,7 +105,8 @@ type Page struct {
 }
 
 // Unchecked is one element of chart size drawn as pixels: its kind
-// ("canvas", "image" or "object"), its name within the page (canvas0,
+// ("canvas", "image", a CSS background image included, or "object"), its
+// name within the page (canvas0, background1,
 // frame1/img2) and its box in page CSS px (the static reader knows only
 // the size its attributes give, at 0, 0; 0 where it gives none).
 type Unchecked struct {
@@ -141,7 +142,7 @@ type Region struct {
 func UncheckedOf(rs []snapshot.Raster) []Unchecked {
 	var out []Unchecked
 	for _, r := range rs {
-		kind := map[string]string{"canvas": "canvas", "img": "image", "object": "object", "embed": "object"}[r.Tag]
+		kind := map[string]string{"canvas": "canvas", "img": "image", "background": "image", "object": "object", "embed": "object"}[r.Tag]
 		if kind == "" {
 			continue
 		}
