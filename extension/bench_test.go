@@ -190,7 +190,9 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 					fmt.Fprint(w, body)
 				})
 				h.open(srv.URL + "/")
-				cold += h.clickToOverlay(b).Ready
+				p := h.clickToOverlay(b)
+				cold += p.Ready
+				b.Logf("%d marks, cold press: %.0f ms to ready; %+v", n, p.Ready, p.Timing)
 				h.trigger() // close
 				h.waitState("")
 				var ws, ps, rs, ts, cs, ds []float64
@@ -209,7 +211,9 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 				fc, fw := h.floor(b)
 				floor, floorWarm = floor+fc, floorWarm+fw
 				h.stopWorker(b)
-				restart += h.clickToOverlay(b).Ready
+				p = h.clickToOverlay(b)
+				restart += p.Ready
+				b.Logf("%d marks, press after the worker stopped: %.0f ms to ready; %+v", n, p.Ready, p.Timing)
 			}
 			k := float64(b.N)
 			b.ReportMetric(cold/k, "cold-ms")
