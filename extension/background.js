@@ -169,41 +169,118 @@ function readThisFrame(origins) {
   return globalThis.standoutReader.readPage(document).then((p) => ({ url: location.href, json: JSON.stringify(p) }));
 }
 
+// At most this many charts drawn as pixels are scrolled into view for a
+// capture in one press (each capture waits CAPTURE_GAP_MS after the last:
+// Chromium allows two captures a second).
+const MAX_SCROLLED = 4;
+const CAPTURE_GAP_MS = 550;
+
 // judgePixels captures the visible tab (granted by activeTab) and asks the
-// core where the eye goes first in each chart drawn as pixels that is
-// wholly in view, for every vision type; the others are named as unseen.
-// The capture never leaves the extension.
+// core where the eye goes first in each chart drawn as pixels, for every
+// vision type. A chart wholly in view is judged from one capture; one
+// that would fit in the window is scrolled into view for a capture of its
+// own (up to MAX_SCROLLED), and the page is scrolled back to where the
+// reader had it; the others are named as unseen. Captures never leave the
+// extension.
 async function judgePixels(tabId, read, severity) {
   const rasters = Array.isArray(read.rasters) ? read.rasters.slice(0, 16) : [];
   const v = read.view;
   if (!rasters.length || !v || !(v.w > 0 && v.h > 0)) return [];
-  let bitmap;
+  const sev = typeof severity === 'number' ? severity : -1;
+  // Unseen until judged; large when it cannot fit in the window.
+  const out = rasters.map((r) => ({ name: r.name, box: r.box, unseen: true, large: r.box[2] > v.w + 0.5 || r.box[3] > v.h + 0.5 }));
+  let shots;
   try {
-    const tab = await ext.tabs.get(tabId);
-    const url = await captureTab(tab.windowId);
-    bitmap = await createImageBitmap(await (await fetch(url)).blob());
+    shots = new TabShots(tabId, (await ext.tabs.get(tabId)).windowId);
+    let shot = null;
+    const later = [];
+    for (const [i, r] of rasters.entries()) {
+      const w = Math.round(r.box[2]);
+      const h = Math.round(r.box[3]);
+      if (w < 32 || h < 32 || w * h > 4 << 20 || out[i].large) continue;
+      if (!inView(r.box, v)) {
+        later.push(i);
+        continue;
+      }
+      shot = shot || (await shots.take(v));
+      out[i] = judgeRaster(shot, r, sev);
+    }
+    for (const i of later.slice(0, MAX_SCROLLED)) {
+      const r = rasters[i];
+      const at = await shots.scrollTo(r.box[0] - (v.w - r.box[2]) / 2, r.box[1] - (v.h - r.box[3]) / 2, v);
+      if (inView(r.box, at)) out[i] = judgeRaster(await shots.take(at), r, sev);
+    }
   } catch (e) {
     console.warn('Standout could not capture the tab for its charts drawn as pixels:', e);
-    return [];
-  }
-  const k = bitmap.width / v.w;
-  const out = [];
-  for (const r of rasters) {
-    const x = r.box[0] - v.x;
-    const y = r.box[1] - v.y;
-    const w = Math.round(r.box[2]);
-    const h = Math.round(r.box[3]);
-    if (x < -0.5 || y < -0.5 || x + w > v.w + 0.5 || y + h > v.h + 0.5 || w < 32 || h < 32 || w * h > 4 << 20) {
-      out.push({ name: r.name, box: r.box, unseen: true });
-      continue;
-    }
-    const c = new OffscreenCanvas(w, h);
-    const g = c.getContext('2d');
-    g.drawImage(bitmap, x * k, y * k, w * k, h * k, 0, 0, w, h);
-    const res = JSON.parse(globalThis.standoutSaliency(g.getImageData(0, 0, w, h).data, w, h, typeof severity === 'number' ? severity : -1));
-    if (res.ok) out.push({ name: r.name, box: r.box, regions: res.regions });
+  } finally {
+    if (shots) await shots.scrollBack(v);
   }
   return out;
+}
+
+function inView(box, v) {
+  const x = box[0] - v.x;
+  const y = box[1] - v.y;
+  return x >= -0.5 && y >= -0.5 && x + Math.round(box[2]) <= v.w + 0.5 && y + Math.round(box[3]) <= v.h + 0.5;
+}
+
+// TabShots captures one tab, spacing its captures, and scrolls it.
+class TabShots {
+  constructor(tabId, windowId) {
+    this.tabId = tabId;
+    this.windowId = windowId;
+    this.last = 0;
+    this.scrolls = 0;
+  }
+
+  // take captures what the tab shows, with the view it shows.
+  async take(view) {
+    const wait = this.last + CAPTURE_GAP_MS - performance.now();
+    if (this.last && wait > 0) await new Promise((ok) => setTimeout(ok, wait));
+    const url = await captureTab(this.windowId);
+    this.last = performance.now();
+    return { bitmap: await createImageBitmap(await (await fetch(url)).blob()), view };
+  }
+
+  // scrollTo scrolls the page (instantly, after two frames are drawn)
+  // and returns the view it then shows.
+  async scrollTo(x, y, v) {
+    this.scrolls++;
+    const [sx, sy] = await run(this.tabId, { func: scrollPage, args: [Math.max(0, x), Math.max(0, y)] });
+    return { x: sx, y: sy, w: v.w, h: v.h };
+  }
+
+  // scrollBack returns the page to the reader's view, if it was moved.
+  async scrollBack(v) {
+    if (!this.scrolls) return;
+    try {
+      await run(this.tabId, { func: scrollPage, args: [v.x, v.y] });
+    } catch (e) {
+      console.warn('Standout could not scroll the page back:', e);
+    }
+  }
+}
+
+// scrollPage runs in the page.
+function scrollPage(x, y) {
+  return new Promise((done) => {
+    window.scrollTo({ left: x, top: y, behavior: 'instant' });
+    requestAnimationFrame(() => requestAnimationFrame(() => done([window.scrollX, window.scrollY])));
+  });
+}
+
+// judgeRaster cuts one chart out of a capture and asks the core where the
+// eye goes first, for every vision type.
+function judgeRaster(shot, r, sev) {
+  const v = shot.view;
+  const k = shot.bitmap.width / v.w;
+  const w = Math.round(r.box[2]);
+  const h = Math.round(r.box[3]);
+  const c = new OffscreenCanvas(w, h);
+  const g = c.getContext('2d');
+  g.drawImage(shot.bitmap, (r.box[0] - v.x) * k, (r.box[1] - v.y) * k, w * k, h * k, 0, 0, w, h);
+  const res = JSON.parse(globalThis.standoutSaliency(g.getImageData(0, 0, w, h).data, w, h, sev));
+  return res.ok ? { name: r.name, box: r.box, regions: res.regions } : { name: r.name, box: r.box, unseen: true };
 }
 
 // show hands the result to the overlay in the page.

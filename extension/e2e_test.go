@@ -1003,3 +1003,32 @@ func suiteDarkCanvasUnderTheChart(t *testing.T, h e2eBrowser) {
 		assert.Equal(t, [3]uint32{r >> 8, g >> 8, b >> 8}, got, "%s: the reading against the screenshot", pg.name)
 	}
 }
+
+func TestE2EChartsBelowTheFold(t *testing.T) { suiteChartsBelowTheFold(t, newHarness(t)) }
+
+// Charts drawn as pixels below the fold (testdata/rasters.html after a
+// screen of text): the press scrolls each into view for a capture of its
+// own, judges its pixels, and leaves the page scrolled where the reader
+// had it.
+func suiteChartsBelowTheFold(t *testing.T, h e2eBrowser) {
+	page, err := os.ReadFile(filepath.Join("..", "cmd", "standout", "testdata", "rasters.html"))
+	require.NoError(t, err)
+	body := strings.Replace(string(page), "<body>", `<body><div style="height: 1400px">A long story before the charts.</div>`, 1)
+	showPage(h, body)
+	ov := h.overlayHTML()
+	for _, name := range []string{"canvas0", "img0", "background0"} {
+		assert.Regexp(t, name+`: the eye is predicted to go first to the outlined region`, ov, "%s was judged", name)
+		// Its first region, in its own pixels, holds the highlighted bar's
+		// centre (26 × 125 px at 210, 155).
+		m := regexp.MustCompile(`<svg class="layer pixels" data-raster="` + name + `"[^>]*>.*?<path d="M([\d.]+) ([\d.]+)h([\d.]+)v([\d.]+)[^"]*"[^>]*data-rank="1"`).FindStringSubmatch(ov)
+		require.NotNil(t, m, "%s's first region", name)
+		var b [4]float64
+		for i := range b {
+			b[i], err = strconv.ParseFloat(m[i+1], 64)
+			require.NoError(t, err)
+		}
+		assert.True(t, 223 >= b[0] && 223 <= b[0]+b[2] && 217 >= b[1] && 217 <= b[1]+b[3], "%s: first region %v", name, b)
+	}
+	assert.NotContains(t, ov, "could not be captured in view")
+	assert.Equal(t, "0,0", h.eval(`scrollX + ',' + scrollY`), "the page is scrolled back")
+}

@@ -20,6 +20,7 @@ func TestFirefoxE2E(t *testing.T) {
 		{"ReRunsWhenTheChartChanges", suiteReRunsWhenTheChartChanges},
 		{"ChartDrawnAsPixels", suiteChartDrawnAsPixels},
 		{"DarkCanvasUnderTheChart", suiteDarkCanvasUnderTheChart},
+		{"ChartsBelowTheFold", suiteChartsBelowTheFold},
 	} {
 		t.Run(s.name, func(t *testing.T) { s.run(t, newFox(t)) })
 	}

@@ -481,7 +481,9 @@
     sec.appendChild(el('h2', {}, 'Charts drawn as pixels'));
     for (const p of pixels) {
       if (p.unseen) {
-        sec.appendChild(el('p', {}, `${p.name} is not wholly in view: scroll it into view and press again to judge its pixels.`));
+        sec.appendChild(el('p', {}, p.large
+          ? `${p.name} is larger than the window: its pixels were not judged; check it by eye.`
+          : `${p.name} could not be captured in view: scroll it into view and press again to judge its pixels.`));
         continue;
       }
       const rs = p.regions || {};
