@@ -109,9 +109,7 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 	}
 	b.sel = sel
 	order := 0
-	rasterCount := map[string]int{}
-	var rasterCands []*html.Node
-	var svgs []*html.Node
+	var svgs, rasterCands []*html.Node
 	var heading *html.Node // the last h1–h6 so far, in document order
 	b.headingOf = map[*html.Node]*html.Node{}
 	walkNodes(doc, func(n *html.Node) bool {
@@ -143,24 +141,11 @@ func Build(r io.Reader, opt Options) (*Page, error) {
 			svgs = append(svgs, n)
 			b.headingOf[n] = heading
 		case n.Namespace == "" && (rasterTags[n.Data] || mayHoldBackground(n)):
-			// Named after the walk, once every style sheet is known, in
-			// document order as the read pass names them.
-			rasterCands = append(rasterCands, n)
+			rasterCands = append(rasterCands, n) // named once every sheet is known
 		}
 		return true
 	})
-	b.casc.backgroundURLs = b.casc.declaresBackgroundURL()
-	for _, n := range rasterCands {
-		r, ok := snapshot.Raster{}, false
-		if rasterTags[n.Data] {
-			r, ok = rasterOf(n, &rasterCount)
-		} else {
-			r, ok = b.backgroundRaster(n, &rasterCount)
-		}
-		if ok && len(page.Rasters) < snapshot.MaxRasters {
-			page.Rasters = append(page.Rasters, r)
-		}
-	}
+	page.Rasters = b.rasters(rasterCands)
 	for i, s := range svgs {
 		snap, err := b.chart(s, fmt.Sprintf("svg%d", i))
 		if err == nil && b.casc.budget.err != nil {
@@ -951,6 +936,26 @@ func overSRGB(c snapshot.Colour, dst struct{ R, G, B float64 }) struct{ R, G, B 
 
 // rasterTags are the elements that draw pixels a chart may be made of.
 var rasterTags = map[string]bool{"canvas": true, "img": true, "object": true, "embed": true}
+
+// rasters names the charts drawn as pixels among the candidates, in
+// document order, once every style sheet is known.
+func (b *builder) rasters(cands []*html.Node) []snapshot.Raster {
+	b.casc.backgroundURLs = b.casc.declaresBackgroundURL()
+	count := map[string]int{}
+	var out []snapshot.Raster
+	for _, n := range cands {
+		r, ok := snapshot.Raster{}, false
+		if rasterTags[n.Data] {
+			r, ok = rasterOf(n, &count)
+		} else {
+			r, ok = b.backgroundRaster(n, &count)
+		}
+		if ok && len(out) < snapshot.MaxRasters {
+			out = append(out, r)
+		}
+	}
+	return out
+}
 
 // mayHoldBackground says whether an HTML element may draw a chart as its
 // CSS background image, as the read pass takes one: an element with no
