@@ -174,6 +174,10 @@ function readThisFrame(origins) {
 // Chromium allows two captures a second).
 const MAX_SCROLLED = 4;
 const CAPTURE_GAP_MS = 550;
+// A capture right after a scroll can show a frame from before it, even
+// after two animation frames (seen under load): a scrolled capture waits
+// this long after the scroll too.
+const SCROLL_SETTLE_MS = 200;
 
 // judgePixels captures the visible tab (granted by activeTab) and asks the
 // core where the eye goes first in each chart drawn as pixels, for every
@@ -231,12 +235,13 @@ class TabShots {
     this.windowId = windowId;
     this.last = 0;
     this.scrolls = 0;
+    this.settled = 0;
   }
 
   // take captures what the tab shows, with the view it shows.
   async take(view) {
-    const wait = this.last + CAPTURE_GAP_MS - performance.now();
-    if (this.last && wait > 0) await new Promise((ok) => setTimeout(ok, wait));
+    const wait = Math.max(this.last ? this.last + CAPTURE_GAP_MS : 0, this.settled) - performance.now();
+    if (wait > 0) await new Promise((ok) => setTimeout(ok, wait));
     const url = await captureTab(this.windowId);
     this.last = performance.now();
     return { bitmap: await createImageBitmap(await (await fetch(url)).blob()), view };
@@ -247,6 +252,7 @@ class TabShots {
   async scrollTo(x, y, v) {
     this.scrolls++;
     const [sx, sy] = await run(this.tabId, { func: scrollPage, args: [Math.max(0, x), Math.max(0, y)] });
+    this.settled = performance.now() + SCROLL_SETTLE_MS;
     return { x: sx, y: sy, w: v.w, h: v.h };
   }
 
