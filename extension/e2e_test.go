@@ -1032,3 +1032,33 @@ func suiteChartsBelowTheFold(t *testing.T, h e2eBrowser) {
 	assert.NotContains(t, ov, "could not be captured in view")
 	assert.Equal(t, "0,0", h.eval(`scrollX + ',' + scrollY`), "the page is scrolled back")
 }
+
+func TestE2EPickOnAChartDrawnAsPixels(t *testing.T) { suitePickOnPixels(t, newHarness(t)) }
+
+// A point picked on a chart drawn as pixels is answered in the panel,
+// for every vision type: whether the eye goes there first. On
+// testdata/rasters.html's canvas, the highlighted bar is where it goes;
+// the first grey bar is not.
+func suitePickOnPixels(t *testing.T, h e2eBrowser) {
+	page, err := os.ReadFile(filepath.Join("..", "cmd", "standout", "testdata", "rasters.html"))
+	require.NoError(t, err)
+	showPage(h, string(page))
+	var box [2]float64
+	require.NoError(t, json.Unmarshal([]byte(h.eval(`(() => { const r = document.querySelector('canvas').getBoundingClientRect(); return JSON.stringify([r.left, r.top]); })()`)), &box))
+	for _, c := range []struct {
+		x, y float64
+		want string
+	}{{223, 217, "normal: yes"}, {33, 250, "normal: no"}} {
+		h.clickInOverlay("pick")
+		h.clickAt(box[0]+c.x, box[1]+c.y)
+		re := regexp.MustCompile(`data-role="pixel-pick">The point you picked in canvas0 \(\d+, \d+ px in it\): does the eye go there first\? ([^<]*)\.<`)
+		var got []string
+		for i := 0; i < 50 && got == nil; i++ {
+			got = re.FindStringSubmatch(h.overlayHTML())
+			time.Sleep(100 * time.Millisecond)
+		}
+		require.NotNil(t, got, "no answer for the pick at %v, %v", c.x, c.y)
+		assert.Contains(t, got[1], c.want)
+		assert.Regexp(t, `^normal: (yes|no), protan: (yes|no), deutan: (yes|no), tritan: (yes|no), achromat: (yes|no)$`, got[1])
+	}
+}

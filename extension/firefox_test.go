@@ -21,6 +21,7 @@ func TestFirefoxE2E(t *testing.T) {
 		{"ChartDrawnAsPixels", suiteChartDrawnAsPixels},
 		{"DarkCanvasUnderTheChart", suiteDarkCanvasUnderTheChart},
 		{"ChartsBelowTheFold", suiteChartsBelowTheFold},
+		{"PickOnPixels", suitePickOnPixels},
 	} {
 		t.Run(s.name, func(t *testing.T) { s.run(t, newFox(t)) })
 	}

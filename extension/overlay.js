@@ -84,6 +84,8 @@
     emphasis: [], // the picks the shown check ran with
     rerunTimer: 0,
     frame: 0,
+    pixels: null, // the press's judgements of the charts drawn as pixels
+    pixelPick: null, // {name, x, y}: a point picked on one of them, in its px
   };
 
   const isOpen = () => M.isOpen(state.machine);
@@ -437,7 +439,8 @@
       sec.appendChild(ul);
       panel.appendChild(sec);
     }
-    if (result.pixels && result.pixels.length) panel.appendChild(pixelsView(result.pixels));
+    const pixels = result.pixels || state.pixels;
+    if (pixels && pixels.length) panel.appendChild(pixelsView(pixels));
     if (result.frameOrigins.length) panel.appendChild(framesView(result.frameOrigins));
     if (n === 0) panel.appendChild(el('p', {}, 'No inline SVG charts were found on this page.'));
     panel.appendChild(glossaryView());
@@ -474,6 +477,30 @@
     }
   }
 
+  // pickAnswer says, for a point picked on a chart drawn as pixels (in its
+  // own px), whether its most salient region covers it for each vision
+  // type: whether the eye goes there first.
+  function pickAnswer(p, x, y) {
+    const rs = p.regions || {};
+    const answers = VISIONS.map((v) => {
+      const t = (rs[v] || [])[0];
+      const yes = t && x >= t.box[0] && x <= t.box[0] + t.box[2] && y >= t.box[1] && y <= t.box[1] + t.box[3];
+      return `${v}: ${yes ? 'yes' : 'no'}`;
+    });
+    return `The point you picked in ${p.name} (${Math.round(x)}, ${Math.round(y)} px in it): does the eye go there first? ${answers.join(', ')}.`;
+  }
+
+  // pickPixels takes a pick (page px) on a chart drawn as pixels that was
+  // judged, and answers it in the panel.
+  function pickPixels(px, py) {
+    const p = (state.pixels || []).find((q) => q.regions && px >= q.box[0] && px <= q.box[0] + q.box[2] && py >= q.box[1] && py <= q.box[1] + q.box[3]);
+    if (!p) return;
+    state.pixelPick = { name: p.name, x: px - p.box[0], y: py - p.box[1] };
+    setView({ picking: false });
+    const old = state.panel.querySelector('[data-role="pixels"]');
+    if (old) old.replaceWith(pixelsView(state.pixels));
+  }
+
   // pixelsView is the panel's section on the charts drawn as pixels: where
   // the eye goes first for each vision type, or why a chart was not judged.
   function pixelsView(pixels) {
@@ -500,6 +527,8 @@
         return `${v}: ${here ? 'the same' : 'elsewhere'}`;
       });
       sec.appendChild(el('p', {}, `${p.name}: the eye is predicted to go first to the outlined region (a saliency map of its pixels, Itti, Koch & Niebur 1998; a prediction). For other readers: ${same.join(', ')}.`));
+      const pick = state.pixelPick;
+      if (pick && pick.name === p.name) sec.appendChild(el('p', { 'data-role': 'pixel-pick' }, pickAnswer(p, pick.x, pick.y)));
     }
     return sec;
   }
@@ -564,7 +593,10 @@
         }
       }
     }
-    if (best === null) return;
+    if (best === null) {
+      pickPixels(px, py);
+      return;
+    }
     const picked = new Set(state.view.picked);
     if (picked.has(best)) picked.delete(best);
     else picked.add(best);
@@ -934,12 +966,15 @@
   function renderAnswer(result) {
     const t0 = performance.now();
     ensureHost();
+    // A press judges the charts drawn as pixels; a re-check keeps that.
+    if (result.pixels) {
+      state.pixels = result.pixels;
+      state.pixelPick = null;
+    }
     const panel = buildPanel(result);
     state.panel.replaceWith(panel);
     state.panel = panel;
     drawLayers(result.report.pages[0]);
-    // A press judges the charts drawn as pixels; a re-check keeps that.
-    if (result.pixels) state.pixels = result.pixels;
     drawPixels(state.pixels || []);
     // The view, the preview included, over the charts as they now are.
     renderView(true);
@@ -980,6 +1015,8 @@
     state.layers.clear();
     state.emphasis = [];
     state.catcher = null;
+    state.pixels = null;
+    state.pixelPick = null;
     state.view = initialView();
   }
 
