@@ -137,3 +137,44 @@ func rivals(rs []Region, target [4]int) int {
 	}
 	return n
 }
+
+// Search displays of several sizes (Itti & Koch 2000, Vision Research 40,
+// §3.2, from memory: the model finds a feature singleton first whatever
+// the number of distractors, while a conjunction target, which differs
+// from each distractor in one feature only, is found after a search
+// whose length grows with their number). A red vertical bar among green
+// vertical bars is found first on grids of 9 to 42 items; a red vertical
+// bar among red horizontal and green vertical bars is not.
+func TestFeatureAndConjunctionSearch(t *testing.T) {
+	vertical, horizontal := [4]int{0, 0, 4, 24}, [4]int{-10, 10, 24, 4}
+	const red, green = "#c8553d", "#3f8f5a"
+	for _, grid := range [][2]int{{3, 3}, {5, 4}, {7, 6}} {
+		for _, conjunction := range []bool{false, true} {
+			img := field(480, 400, "#ffffff")
+			var target [4]int
+			k := 0
+			for gy := 0; gy < grid[1]; gy++ {
+				for gx := 0; gx < grid[0]; gx++ {
+					x, y := 40+gx*60, 40+gy*60
+					shape, col := vertical, green
+					switch {
+					case gx == grid[0]/2 && gy == grid[1]/2:
+						target = [4]int{x + vertical[0], y + vertical[1], vertical[2], vertical[3]}
+						fill(img, target, red)
+						continue
+					case conjunction && k%2 == 0:
+						shape, col = horizontal, red
+					}
+					k++
+					fill(img, [4]int{x + shape[0], y + shape[1], shape[2], shape[3]}, col)
+				}
+			}
+			rs := Regions(Compute(img), img.W, img.H)
+			require.NotEmpty(t, rs)
+			cx, cy := float64(target[0])+2, float64(target[1])+12
+			b := rs[0].Box
+			first := cx >= b[0] && cx <= b[0]+b[2] && cy >= b[1] && cy <= b[1]+b[3]
+			assert.Equal(t, !conjunction, first, "%d×%d grid, conjunction %v: first region %v, target %v", grid[0], grid[1], conjunction, b, target)
+		}
+	}
+}
