@@ -55,7 +55,11 @@ func Build(dir string, firefox bool) error {
 	if err != nil {
 		return err
 	}
-	cmd := exec.Command("go", "build", "-trimpath", "-o", abs, "./wasm")
+	// -s drops the module's name section (about 75 KB): the engine then
+	// names the core's functions by index in its own traces, while Go's
+	// stack traces, which the core's error answers carry, read Go's own
+	// tables and keep their names.
+	cmd := exec.Command("go", "build", "-trimpath", "-ldflags=-s", "-o", abs, "./wasm")
 	cmd.Dir = root
 	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
 	if out, err := cmd.CombinedOutput(); err != nil {
