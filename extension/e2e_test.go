@@ -914,7 +914,7 @@ func builtWithHosts(t *testing.T) string {
 // framedCharts serves a chart page on one loopback origin and a page that
 // frames it on another (a different port is a different origin), and
 // returns the framing page's address.
-func framedCharts(t *testing.T) string {
+func framedCharts(t testing.TB) string {
 	framed := serve(t, func(w http.ResponseWriter, r *http.Request) {
 		w.Header().Set("Content-Type", "text/html; charset=utf-8")
 		fmt.Fprint(w, testkit.QuayBars())
@@ -931,24 +931,26 @@ func framedCharts(t *testing.T) string {
 // where it stands in the page, with no request left; without it, the panel
 // names the origin and offers to ask, and the button opens the extension's
 // page that asks (the browser's prompt itself no test can press).
+// suiteFrameOfAllowedOrigin needs a build that may read loopback pages.
+func suiteFrameOfAllowedOrigin(t *testing.T, h e2eBrowser) {
+	h.open(framedCharts(t))
+	trigger(h)
+	waitState(h, "ready")
+	ov := h.overlayHTML()
+	assert.Contains(t, ov, `data-chart="frame0/svg0"`, "the framed chart is outlined")
+	assert.NotContains(t, ov, `data-role="frames"`)
+	assert.NotContains(t, ov, "not readable", "the note on the frame goes once it is read")
+	rects := layerRects(t, ov)["frame0/svg0"]
+	require.NotEmpty(t, rects)
+	require.Len(t, rects["pops"], 1, "the highlighted bar pops")
+	// In page px: the frame's content starts past its 50 px margin and 4
+	// px border (and the body's 8 px margin); the bar stands at x 122 in
+	// the frame.
+	assert.InDelta(t, 8+54+122, rects["pops"][0][0], 3, "%v", rects["pops"][0])
+}
+
 func TestE2EFrameOfAnotherOrigin(t *testing.T) {
-	t.Run("allowed", func(t *testing.T) {
-		h := newHarnessOf(t, builtWithHosts(t))
-		h.open(framedCharts(t))
-		h.trigger()
-		h.waitState("ready")
-		ov := h.overlayHTML()
-		assert.Contains(t, ov, `data-chart="frame0/svg0"`, "the framed chart is outlined")
-		assert.NotContains(t, ov, `data-role="frames"`)
-		assert.NotContains(t, ov, "not readable", "the note on the frame goes once it is read")
-		rects := layerRects(t, ov)["frame0/svg0"]
-		require.NotEmpty(t, rects)
-		require.Len(t, rects["pops"], 1, "the highlighted bar pops")
-		// In page px: the frame's content starts past its 50 px margin
-		// and 4 px border (and the body's 8 px margin); the bar stands
-		// at x 122 in the frame.
-		assert.InDelta(t, 8+54+122, rects["pops"][0][0], 3, "%v", rects["pops"][0])
-	})
+	t.Run("allowed", func(t *testing.T) { suiteFrameOfAllowedOrigin(t, newHarnessOf(t, builtWithHosts(t))) })
 	t.Run("not yet allowed", func(t *testing.T) {
 		h := newHarness(t)
 		page := framedCharts(t)

@@ -22,6 +22,9 @@ func TestFirefoxE2E(t *testing.T) {
 		{"DarkCanvasUnderTheChart", suiteDarkCanvasUnderTheChart},
 		{"ChartsBelowTheFold", suiteChartsBelowTheFold},
 		{"PickOnPixels", suitePickOnPixels},
+		// The test build may read loopback pages (builtForFirefoxTest), as
+		// a reader who allowed the framed chart's origin.
+		{"FrameOfAllowedOrigin", suiteFrameOfAllowedOrigin},
 	} {
 		t.Run(s.name, func(t *testing.T) { s.run(t, newFox(t)) })
 	}
