@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -84,4 +85,32 @@ func encodingJSON(t *testing.T, v any) string {
 	enc.SetEscapeHTML(false)
 	require.NoError(t, enc.Encode(v))
 	return strings.TrimSuffix(buf.String(), "\n")
+}
+
+// Every field of every type the report holds is written by AppendJSON: a
+// field added to a type but not to the encoder would pass the comparison
+// above while it is unset, so each JSON name must appear in json.go.
+func TestAppendJSONKnowsEveryField(t *testing.T) {
+	src, err := os.ReadFile("json.go")
+	require.NoError(t, err)
+	seen := map[reflect.Type]bool{}
+	var visit func(reflect.Type)
+	visit = func(ty reflect.Type) {
+		for ty.Kind() == reflect.Pointer || ty.Kind() == reflect.Slice || ty.Kind() == reflect.Array || ty.Kind() == reflect.Map {
+			ty = ty.Elem()
+		}
+		if ty.Kind() != reflect.Struct || seen[ty] {
+			return
+		}
+		seen[ty] = true
+		for i := 0; i < ty.NumField(); i++ {
+			f := ty.Field(i)
+			name, _, _ := strings.Cut(f.Tag.Get("json"), ",")
+			require.NotEmpty(t, name, "%s.%s has no JSON name", ty.Name(), f.Name)
+			assert.Contains(t, string(src), `"`+name+`"`, "%s.%s (%q) is not written by AppendJSON", ty.Name(), f.Name, name)
+			visit(f.Type)
+		}
+	}
+	visit(reflect.TypeFor[Report]())
+	assert.Greater(t, len(seen), 12)
 }
