@@ -136,3 +136,32 @@ func TestIssue10PageNodeCap(t *testing.T) {
 	require.Error(t, err)
 	assert.Contains(t, err.Error(), fmt.Sprint(snapshot.MaxPageNodes))
 }
+
+// A chain of custom properties that each reference the next twice
+// (--v0: var(--v1) var(--v1); …) doubles at every step: 20 steps would
+// build a million copies, and read them again at each of 2,000 elements
+// that use it, which stalled the reader for minutes. A value longer than
+// maxSubstituted after substitution is invalid at computed-value time
+// (CSS Variables 1 §3), so fill falls back to its initial black; a short
+// chain still resolves.
+func TestHostileCustomPropertyDoubling(t *testing.T) {
+	var css strings.Builder
+	css.WriteString(":root{")
+	for i := 0; i < 20; i++ {
+		fmt.Fprintf(&css, "--v%d: var(--v%d) var(--v%d);", i, i+1, i+1)
+	}
+	css.WriteString("--v20: #123; --s: var(--t); --t: #3b6e8f; }")
+	page := `<style>` + css.String() + ` rect { fill: var(--v0) } rect.s { fill: var(--s) }</style><svg>` +
+		strings.Repeat(`<rect width="5" height="5"/>`, 2000) + `<rect class="s" width="5" height="5"/></svg>`
+	p, err := Build(strings.NewReader(page), Options{Source: "doubling"})
+	require.NoError(t, err)
+	var fills []string
+	for _, n := range p.Charts[0].Nodes {
+		if n.Tag == "rect" {
+			fills = append(fills, snapshot.Hex(n.Fill.RGBA))
+		}
+	}
+	require.Len(t, fills, 2001)
+	assert.Equal(t, "#000000", fills[0], "the doubled value is invalid: fill's initial value")
+	assert.Equal(t, "#3b6e8f", fills[2000], "a short chain resolves")
+}

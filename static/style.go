@@ -272,6 +272,14 @@ func (c *cascader) declaresBackgroundURL() bool {
 	return false
 }
 
+// maxSubstituted bounds a value with its var() references substituted:
+// longer, it is invalid at computed-value time. Each reference may double
+// a value (--a: var(--b) var(--b)), so a chain of 16 would otherwise
+// build 65,536 copies and read them again at every element that uses it,
+// which a hostile page could use to stall the reader. Real custom
+// properties, data: URLs included, are far shorter.
+const maxSubstituted = 64 << 10
+
 // scheme is how substitute treats light-dark().
 type scheme int8
 
@@ -314,12 +322,15 @@ func (c *cascader) usedDark(scheme string) bool {
 // that element's colour scheme (CSS Color 5 §7; a custom property's
 // computed value is its tokens, CSS Variables 1 §2).
 func substitute(v string, custom map[string]string, sc scheme, depth int) string {
-	if depth > 16 {
+	if depth > 16 || len(v) > maxSubstituted {
 		return ""
 	}
 	toks := tokens(v)
 	var b strings.Builder
 	for i := 0; i < len(toks); i++ {
+		if b.Len() > maxSubstituted {
+			return ""
+		}
 		t := toks[i]
 		if t.tt != css.FunctionToken {
 			b.WriteString(t.s)
