@@ -6,7 +6,6 @@ package main
 
 import (
 	"runtime/debug"
-	"sort"
 	"strconv"
 	"strings"
 	"time"
@@ -243,7 +242,7 @@ func handle(q *Request, t0 time.Time) []byte {
 		b = report.AppendDigest(b, q.Source, append(q.Problems, report.UncheckedNotes(report.UncheckedOf(q.Rasters))...), as)
 		timing["encodeMs"] = ms(t2)
 		b = append(b, `,"timing":`...)
-		b = appendTiming(b, timing)
+		b = jsonio.AppendMap(b, timing, jsonio.AppendNumber)
 		return append(b, '}')
 	}
 	page := report.PageOf(q.Source, q.Problems, as)
@@ -259,31 +258,12 @@ func handle(q *Request, t0 time.Time) []byte {
 	b = append(b, `,"markdown":`...)
 	b = jsonio.AppendString(b, md.String())
 	b = append(b, `,"timing":`...)
-	b = appendTiming(b, timing)
+	b = jsonio.AppendMap(b, timing, jsonio.AppendNumber)
 	return append(b, '}')
 }
 
 func errorResponse(msg string) []byte {
 	b := append(make([]byte, 0, len(msg)+32), `{"ok":false,"error":`...)
 	b = jsonio.AppendString(b, msg)
-	return append(b, '}')
-}
-
-// appendTiming writes a map of timings with its keys in order.
-func appendTiming(b []byte, t map[string]float64) []byte {
-	keys := make([]string, 0, len(t))
-	for k := range t {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	b = append(b, '{')
-	for i, k := range keys {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = jsonio.AppendString(b, k)
-		b = append(b, ':')
-		b = jsonio.AppendNumber(b, t[k])
-	}
 	return append(b, '}')
 }

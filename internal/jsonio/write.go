@@ -2,6 +2,7 @@ package jsonio
 
 import (
 	"math"
+	"slices"
 	"strconv"
 	"unicode/utf8"
 )
@@ -25,6 +26,29 @@ func AppendFloats(b []byte, v []float64) []byte {
 		b = AppendFloat(b, f)
 	}
 	return append(b, ']')
+}
+
+// AppendMap writes a map as an object with its keys sorted, as
+// encoding/json does, each value by each; nil is null.
+func AppendMap[V any](b []byte, m map[string]V, each func([]byte, V) []byte) []byte {
+	if m == nil {
+		return append(b, "null"...)
+	}
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	b = append(b, '{')
+	for i, k := range keys {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = AppendString(b, k)
+		b = append(b, ':')
+		b = each(b, m[k])
+	}
+	return append(b, '}')
 }
 
 // AppendStrings writes strings as an array.

@@ -7,11 +7,7 @@ package report
 // EncodingJSON holds it to that): fields in declaration order, omitempty
 // as the tags say, nil slices and maps as null, map keys sorted.
 
-import (
-	"slices"
-
-	"standout/internal/jsonio"
-)
+import "standout/internal/jsonio"
 
 // AppendJSON writes the report as JSON.
 func AppendJSON(b []byte, r *Report) []byte {
@@ -51,28 +47,6 @@ func appendList[T any](b []byte, v []T, each func([]byte, *T) []byte) []byte {
 		b = each(b, &v[i])
 	}
 	return append(b, ']')
-}
-
-// appendMap writes a map with its keys sorted; nil is null.
-func appendMap[V any](b []byte, m map[string]V, each func([]byte, V) []byte) []byte {
-	if m == nil {
-		return append(b, "null"...)
-	}
-	keys := make([]string, 0, len(m))
-	for k := range m {
-		keys = append(keys, k)
-	}
-	slices.Sort(keys)
-	b = append(b, '{')
-	for i, k := range keys {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = jsonio.AppendString(b, k)
-		b = append(b, ':')
-		b = each(b, m[k])
-	}
-	return append(b, '}')
 }
 
 func appendStrings(b []byte, v []string) []byte {
@@ -144,7 +118,7 @@ func appendChart(b []byte, c *Chart) []byte {
 	b = append(b, `,"legend":`...)
 	b = appendList(b, c.Legend, appendMark)
 	b = append(b, `,"furniture":`...)
-	b = appendMap(b, c.Furniture, func(b []byte, n int) []byte { return jsonio.AppendNumber(b, float64(n)) })
+	b = jsonio.AppendMap(b, c.Furniture, func(b []byte, n int) []byte { return jsonio.AppendNumber(b, float64(n)) })
 	b = append(b, `,"problems":`...)
 	b = appendStrings(b, c.Problems)
 	b = append(b, `,"findings":`...)
@@ -182,7 +156,7 @@ func appendChart(b []byte, c *Chart) []byte {
 		b = append(b, `,"inferred":`...)
 		b = appendBool(b, c.Emphasis.Inferred)
 		b = append(b, `,"holds":`...)
-		b = appendMap(b, c.Emphasis.Holds, appendBool)
+		b = jsonio.AppendMap(b, c.Emphasis.Holds, appendBool)
 		b = append(b, '}')
 	}
 	return append(b, '}')
@@ -305,7 +279,7 @@ func appendFinding(b []byte, f *Finding) []byte {
 		b = jsonio.AppendString(b, x.CSS)
 		b = appendOptString(b, "rule", x.Rule)
 		b = append(b, `,"marginND":`...)
-		b = appendMap(b, x.Margin, jsonio.AppendNumber)
+		b = jsonio.AppendMap(b, x.Margin, jsonio.AppendNumber)
 		b = append(b, `,"verified":`...)
 		b = appendBool(b, x.Verified)
 		b = appendOptString(b, "alternative", x.Alternative)
@@ -335,13 +309,13 @@ func appendUnchecked(b []byte, u *Unchecked) []byte {
 	}
 	if len(u.CVD) > 0 {
 		b = append(b, `,"cvd":`...)
-		b = appendMap(b, u.CVD, func(b []byte, rs []Region) []byte { return appendList(b, rs, appendRegion) })
+		b = jsonio.AppendMap(b, u.CVD, func(b []byte, rs []Region) []byte { return appendList(b, rs, appendRegion) })
 	}
 	if u.Emphasis != nil {
 		b = append(b, `,"emphasis":{"box":`...)
 		b = appendBox(b, u.Emphasis.Box)
 		b = append(b, `,"holds":`...)
-		b = appendMap(b, u.Emphasis.Holds, appendBool)
+		b = jsonio.AppendMap(b, u.Emphasis.Holds, appendBool)
 		b = append(b, '}')
 	}
 	return append(b, '}')
