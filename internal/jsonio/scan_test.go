@@ -1,15 +1,15 @@
 package jsonio
 
 import (
-	"bytes"
 	"encoding/json"
 	"math"
 	"strconv"
-	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"standout/internal/testkit"
 )
 
 func TestFastFloatMatchesParseFloat(t *testing.T) {
@@ -109,21 +109,13 @@ func FuzzScannerMatchesEncodingJSON(f *testing.F) {
 // encoders are held to.
 func TestAppendStringMatchesEncodingJSON(t *testing.T) {
 	for _, s := range []string{"", "plain", `q"b\s`, "\x00\x1f\n\r\t\b\f", "é😀", "\xff\xfe", "a\u2028b\u2029", "<&>", "\x7f"} {
-		assert.Equal(t, encodingJSON(t, s), string(AppendString(nil, s)), "%q", s)
+		assert.Equal(t, testkit.EncodingJSON(t, s), string(AppendString(nil, s)), "%q", s)
 	}
 }
 
 func TestAppendNumberMatchesEncodingJSON(t *testing.T) {
 	for _, f := range []float64{0, math.Copysign(0, -1), 1, -1, 0.1, 1.0 / 3, 1e-6, 9.99e-7, 1e-7, 1.5e-10, 1e20, 1e21, 123456789012345680000, 1e300, -2.5e-300, 5e-324, math.MaxFloat64, 42.125} {
-		assert.Equal(t, encodingJSON(t, f), string(AppendNumber(nil, f)), "%v", f)
+		assert.Equal(t, testkit.EncodingJSON(t, f), string(AppendNumber(nil, f)), "%v", f)
 	}
 	assert.Equal(t, "null", string(AppendNumber(nil, math.NaN())))
-}
-
-func encodingJSON(t *testing.T, v any) string {
-	var buf bytes.Buffer
-	enc := json.NewEncoder(&buf)
-	enc.SetEscapeHTML(false)
-	require.NoError(t, enc.Encode(v))
-	return strings.TrimSuffix(buf.String(), "\n")
 }

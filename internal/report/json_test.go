@@ -2,7 +2,6 @@ package report
 
 import (
 	"bytes"
-	"encoding/json"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -58,7 +57,7 @@ func TestAppendJSONMatchesEncodingJSON(t *testing.T) {
 			Groups:   &Groups{Partitions: []Partition{{Cue: "colour", Groups: 3}}},
 			Extremes: []string{"m"}, Emphasis: &Emphasis{Marks: []string{"m"}, Inferred: true}}}},
 	)
-	assert.Equal(t, encodingJSON(t, rep), string(AppendJSON(nil, rep)))
+	assert.Equal(t, testkit.EncodingJSON(t, rep), string(AppendJSON(nil, rep)))
 }
 
 // sameAsEncodingJSON reads each file with the static reader and checks
@@ -74,17 +73,9 @@ func sameAsEncodingJSON(t *testing.T, files []string) []Page {
 		require.NoError(t, err, f)
 		out = append(out, page)
 		one := &Report{Schema: "standout-report", Version: Version, Minor: Minor, Pages: []Page{page}, Caution: Caution}
-		assert.Equal(t, encodingJSON(t, one), string(AppendJSON(nil, one)), f)
+		assert.Equal(t, testkit.EncodingJSON(t, one), string(AppendJSON(nil, one)), f)
 	}
 	return out
-}
-
-func encodingJSON(t *testing.T, v any) string {
-	var buf bytes.Buffer
-	enc := json.NewEncoder(&buf)
-	enc.SetEscapeHTML(false)
-	require.NoError(t, enc.Encode(v))
-	return strings.TrimSuffix(buf.String(), "\n")
 }
 
 // Every field of every type the report holds is written by AppendJSON: a

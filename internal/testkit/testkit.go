@@ -4,6 +4,8 @@
 package testkit
 
 import (
+	"bytes"
+	"encoding/json"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -110,4 +112,18 @@ func QuayBars() string {
 	}
 	b.WriteString(`</svg></body></html>`)
 	return b.String()
+}
+
+// EncodingJSON is v as the standard library's encoding/json writes it
+// with HTML escaping off, without the trailing newline: the reference the
+// hand-written JSON writers are held to.
+func EncodingJSON(t testing.TB, v any) string {
+	t.Helper()
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetEscapeHTML(false)
+	if err := enc.Encode(v); err != nil {
+		t.Fatalf("testkit: encoding/json: %v", err)
+	}
+	return strings.TrimSuffix(buf.String(), "\n")
 }
