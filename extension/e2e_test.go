@@ -878,18 +878,23 @@ func suiteChartDrawnAsPixels(t *testing.T, h e2eBrowser) {
 	ov := h.overlayHTML()
 	assert.Contains(t, ov, `data-role="pixels"`)
 	assert.Regexp(t, `canvas0: the eye is predicted to go first to the outlined region .*For other readers: protan: (the same|elsewhere)`, ov)
-	// The region ranked first, in the canvas's own pixels, holds the
-	// highlighted bar's centre: the bar is 26 × 125 px at 210, 155 in the
-	// canvas.
-	m := regexp.MustCompile(`<svg class="layer pixels" data-raster="canvas0"[^>]*>.*?<path d="M([\d.]+) ([\d.]+)h([\d.]+)v([\d.]+)[^"]*"[^>]*data-rank="1"`).FindStringSubmatch(ov)
-	require.NotNil(t, m, "the canvas's first region: %s", ov)
+	firstRegionHoldsTheBar(t, ov, "canvas0")
+}
+
+// firstRegionHoldsTheBar checks that the region the overlay ranks first on
+// a chart of testdata/rasters.html, in the chart's own pixels, holds the
+// highlighted bar's centre: the bar is 26 × 125 px at 210, 155.
+func firstRegionHoldsTheBar(t *testing.T, ov, name string) {
+	m := regexp.MustCompile(`<svg class="layer pixels" data-raster="` + name + `"[^>]*>.*?<path d="M([\d.]+) ([\d.]+)h([\d.]+)v([\d.]+)[^"]*"[^>]*data-rank="1"`).FindStringSubmatch(ov)
+	require.NotNil(t, m, "%s's first region: %s", name, ov)
 	var b [4]float64
 	for i := range b {
+		var err error
 		b[i], err = strconv.ParseFloat(m[i+1], 64)
 		require.NoError(t, err)
 	}
 	cx, cy := 210+13.0, 155+62.0
-	assert.True(t, cx >= b[0] && cx <= b[0]+b[2] && cy >= b[1] && cy <= b[1]+b[3], "first region %v", b)
+	assert.True(t, cx >= b[0] && cx <= b[0]+b[2] && cy >= b[1] && cy <= b[1]+b[3], "%s: first region %v", name, b)
 }
 
 // builtWithHosts is the extension as built, with host_permissions for
@@ -1020,16 +1025,7 @@ func suiteChartsBelowTheFold(t *testing.T, h e2eBrowser) {
 	ov := h.overlayHTML()
 	for _, name := range []string{"canvas0", "img0", "background0"} {
 		assert.Regexp(t, name+`: the eye is predicted to go first to the outlined region`, ov, "%s was judged", name)
-		// Its first region, in its own pixels, holds the highlighted bar's
-		// centre (26 × 125 px at 210, 155).
-		m := regexp.MustCompile(`<svg class="layer pixels" data-raster="` + name + `"[^>]*>.*?<path d="M([\d.]+) ([\d.]+)h([\d.]+)v([\d.]+)[^"]*"[^>]*data-rank="1"`).FindStringSubmatch(ov)
-		require.NotNil(t, m, "%s's first region", name)
-		var b [4]float64
-		for i := range b {
-			b[i], err = strconv.ParseFloat(m[i+1], 64)
-			require.NoError(t, err)
-		}
-		assert.True(t, 223 >= b[0] && 223 <= b[0]+b[2] && 217 >= b[1] && 217 <= b[1]+b[3], "%s: first region %v", name, b)
+		firstRegionHoldsTheBar(t, ov, name)
 	}
 	assert.NotContains(t, ov, "could not be captured in view")
 	assert.Equal(t, "0,0", h.eval(`scrollX + ',' + scrollY`), "the page is scrolled back")
