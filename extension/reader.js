@@ -848,11 +848,16 @@
 
   // rasterKind is the kind of pixels an HTML element draws a chart in: its
   // tag for a canvas, an image, an object or an embed; 'background' for an
-  // element with no element inside whose CSS background is an image (a
-  // gradient is not one); '' for the others.
+  // element that holds nothing (no element, no text) whose CSS background
+  // is an image (a gradient is not one); '' for the others. Elements with
+  // text are ruled out before their style is read: a page of text has
+  // thousands.
   function rasterKind(n, tag) {
     if (RASTER_TAGS.has(tag)) return tag;
     if (n.firstElementChild || tag === 'html' || tag === 'body' || tag === 'iframe' || tag === 'frame') return '';
+    for (let c = n.firstChild; c; c = c.nextSibling) {
+      if (c.nodeType === 3 && /\S/.test(c.data)) return '';
+    }
     return /\burl\(/.test(getComputedStyle(n).backgroundImage) ? 'background' : '';
   }
 

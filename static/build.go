@@ -958,15 +958,16 @@ func (b *builder) rasters(cands []*html.Node) []snapshot.Raster {
 }
 
 // mayHoldBackground says whether an HTML element may draw a chart as its
-// CSS background image, as the read pass takes one: an element with no
-// element inside (a page's or a section's background is decoration).
+// CSS background image, as the read pass takes one: an element that holds
+// nothing, no element and no text (a page's or a section's background,
+// or a card's behind its text, is decoration).
 func mayHoldBackground(n *html.Node) bool {
 	switch n.Data {
 	case "html", "body", "iframe", "frame", "head", "title", "meta", "link", "style", "script", "noscript", "template", "br", "hr", "wbr", "input", "option":
 		return false
 	}
 	for c := n.FirstChild; c != nil; c = c.NextSibling {
-		if c.Type == html.ElementNode {
+		if c.Type == html.ElementNode || c.Type == html.TextNode && strings.TrimSpace(c.Data) != "" {
 			return false
 		}
 	}
