@@ -403,7 +403,7 @@ func builtForFirefoxTest(t testing.TB) string {
 			}
 		}
 		if err == nil {
-			err = foxTestManifest(filepath.Join(d, "manifest.json"))
+			err = editManifest(d, foxTestManifest)
 		}
 		foxDir, foxErr = d, err
 	})
@@ -417,22 +417,12 @@ var (
 	foxErr  error
 )
 
-func foxTestManifest(p string) error {
-	b, err := os.ReadFile(p)
-	if err != nil {
-		return err
-	}
-	var m map[string]any
-	if err := json.Unmarshal(b, &m); err != nil {
-		return err
-	}
+// foxTestManifest points the build's background at the test entry, adds
+// its content script and allows every page.
+func foxTestManifest(m map[string]any) {
 	m["background"] = map[string]any{"scripts": []string{"test-entry.js"}, "type": "module"}
 	m["host_permissions"] = []string{"<all_urls>"}
 	m["content_scripts"] = []any{map[string]any{"matches": []string{"http://127.0.0.1/*"}, "js": []string{"test-press.js"}, "run_at": "document_start"}}
-	if b, err = json.Marshal(m); err != nil {
-		return err
-	}
-	return os.WriteFile(p, b, 0o644)
 }
 
 // newFox starts Firefox with the test build installed (as a temporary

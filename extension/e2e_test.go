@@ -904,16 +904,29 @@ func firstRegionHoldsTheBar(t *testing.T, ov, name string) {
 func builtWithHosts(t *testing.T) string {
 	dir := t.TempDir()
 	require.NoError(t, os.CopyFS(dir, os.DirFS(built(t))))
+	require.NoError(t, editManifest(dir, func(m map[string]any) {
+		m["host_permissions"] = []string{"http://127.0.0.1/*"}
+	}))
+	return dir
+}
+
+// editManifest rewrites the manifest of the build in dir, for a test
+// build.
+func editManifest(dir string, edit func(m map[string]any)) error {
 	p := filepath.Join(dir, "manifest.json")
 	b, err := os.ReadFile(p)
-	require.NoError(t, err)
+	if err != nil {
+		return err
+	}
 	var m map[string]any
-	require.NoError(t, json.Unmarshal(b, &m))
-	m["host_permissions"] = []string{"http://127.0.0.1/*"}
-	b, err = json.Marshal(m)
-	require.NoError(t, err)
-	require.NoError(t, os.WriteFile(p, b, 0o644))
-	return dir
+	if err := json.Unmarshal(b, &m); err != nil {
+		return err
+	}
+	edit(m)
+	if b, err = json.Marshal(m); err != nil {
+		return err
+	}
+	return os.WriteFile(p, b, 0o644)
 }
 
 // framedCharts serves a chart page on one loopback origin and a page that
