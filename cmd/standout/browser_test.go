@@ -67,7 +67,26 @@ func TestBrowserPathMatchesStaticPath(t *testing.T) {
 	require.Len(t, s.Pages, len(pages))
 	for i := range pages {
 		bp, sp := b.Pages[i], s.Pages[i]
+		// The browser also lists the charts drawn as pixels whose pixels
+		// it judged (minor 4), after the SVG charts; the static reader
+		// judges none.
+		var svg []report.Chart
+		judged := 0
+		for _, c := range bp.Charts {
+			if !c.DrawnAsPixels() {
+				require.Zero(t, judged, "%s: the charts drawn as pixels come after the SVG charts", pages[i])
+				svg = append(svg, c)
+				continue
+			}
+			judged++
+			assert.NotEmpty(t, c.Regions, "%s %s", pages[i], c.Path)
+		}
+		assert.Equal(t, len(bp.Unchecked)-len(report.Unjudged(bp.Unchecked)), judged, pages[i])
+		bp.Charts = svg
 		require.Len(t, bp.Charts, len(sp.Charts), pages[i])
+		for _, c := range sp.Charts {
+			assert.Equal(t, "svg", c.Source, "%s %s", pages[i], c.Path)
+		}
 		// Charts drawn as pixels are named alike; the static reader has
 		// no layout, so only the sizes the attributes give compare.
 		require.Len(t, bp.Unchecked, len(sp.Unchecked), pages[i])
@@ -485,9 +504,10 @@ func crossOriginFrame(t *testing.T, framedHost string) {
 	var rep report.Report
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
 	p := rep.Pages[0]
-	require.Len(t, p.Charts, 1, "the framed chart: %v", p.Problems)
+	require.Len(t, p.Charts, 4, "the framed chart and three charts drawn as pixels: %v", p.Problems)
 	c := p.Charts[0]
 	assert.Equal(t, "frame0/svg0", c.Path)
+	assert.Equal(t, "svg", c.Source)
 	require.Len(t, c.Marks, 8)
 	// The frame's content starts past its 50 px margin and 4 px border.
 	assert.InDelta(t, 54, c.Box[0], 1)
@@ -501,6 +521,18 @@ func crossOriginFrame(t *testing.T, framedHost string) {
 		bar := [4]float64{u.Box[0] + 210, u.Box[1] + 155, 26, 125}
 		r := u.Regions[0].Box
 		assert.True(t, bar[0]+13 >= r[0] && bar[0]+13 <= r[0]+r[2] && bar[1]+62 >= r[1] && bar[1]+62 <= r[1]+r[3], "%s: %v", u.Name, r)
+	}
+	// Each judged one is a chart of the page too (minor 4), with its
+	// source and the same regions.
+	for k, want := range []string{"canvas", "image", "image"} {
+		pc, u := p.Charts[1+k], p.Unchecked[k]
+		assert.Equal(t, u.Name, pc.Path)
+		assert.Equal(t, want, pc.Source, pc.Path)
+		assert.True(t, pc.DrawnAsPixels())
+		assert.Equal(t, u.Box, pc.Box, pc.Path)
+		assert.Equal(t, u.Regions, pc.Regions, pc.Path)
+		assert.Equal(t, u.CVD, pc.CVD, pc.Path)
+		assert.Empty(t, pc.Marks, pc.Path)
 	}
 }
 

@@ -139,7 +139,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	}
 	unchecked := 0
 	for _, p := range rep.Pages {
-		unchecked += len(p.Unchecked)
+		unchecked += len(report.Unjudged(p.Unchecked))
 	}
 	switch {
 	case len(failed) > 0:

@@ -34,7 +34,7 @@ func writeText(w io.Writer, p report.Page) {
 	for _, pr := range p.Problems {
 		fmt.Fprintf(w, "  note: %s\n", pr)
 	}
-	for _, n := range report.UncheckedNotes(p.Unchecked) {
+	for _, n := range report.UncheckedNotes(report.Unjudged(p.Unchecked)) {
 		fmt.Fprintf(w, "  note: %s\n", n)
 	}
 	for _, f := range p.Findings {
@@ -43,6 +43,13 @@ func writeText(w io.Writer, p report.Page) {
 	for _, c := range p.Charts {
 		if !c.IsChart {
 			fmt.Fprintf(w, "  %s: not a chart (%s)\n", c.Path, c.Reason)
+			continue
+		}
+		if c.DrawnAsPixels() {
+			fmt.Fprintf(w, "  %s: a chart drawn as pixels (%s), %.0f×%.0f px, judged by its pixels\n", c.Name(), c.Source, c.Box[2], c.Box[3])
+			for _, l := range report.PixelLines(c) {
+				fmt.Fprintf(w, "    %s\n", l)
+			}
 			continue
 		}
 		fmt.Fprintf(w, "  %s: %d data marks, %.0f×%.0f px on %s\n", c.Name(), len(c.Marks), c.Box[2], c.Box[3], c.Background)

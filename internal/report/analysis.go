@@ -165,6 +165,9 @@ type Emphasis struct {
 	Marks    []string        `json:"marks"`
 	Inferred bool            `json:"inferred"`
 	Holds    map[string]bool `json:"holds"`
+	// Box is, in a chart drawn as pixels (minor 4), the declared emphasis
+	// box; Holds then says whether the strongest region covers its centre.
+	Box *[4]float64 `json:"box,omitempty"`
 }
 
 func channelNames(cs []perception.Channel) []string {

@@ -104,6 +104,8 @@ func appendPage(b []byte, p *Page) []byte {
 func appendChart(b []byte, c *Chart) []byte {
 	b = append(b, `{"path":`...)
 	b = jsonio.AppendString(b, c.Path)
+	b = append(b, `,"source":`...)
+	b = jsonio.AppendString(b, c.Source)
 	b = appendOptString(b, "title", c.Title)
 	b = appendOptString(b, "anchor", c.Anchor)
 	b = append(b, `,"isChart":`...)
@@ -111,8 +113,7 @@ func appendChart(b []byte, c *Chart) []byte {
 	b = appendOptString(b, "reason", c.Reason)
 	b = append(b, `,"box":`...)
 	b = appendBox(b, c.Box)
-	b = append(b, `,"background":`...)
-	b = jsonio.AppendString(b, c.Background)
+	b = appendOptString(b, "background", c.Background)
 	b = append(b, `,"marks":`...)
 	b = appendList(b, c.Marks, appendMark)
 	b = append(b, `,"legend":`...)
@@ -157,7 +158,25 @@ func appendChart(b []byte, c *Chart) []byte {
 		b = appendBool(b, c.Emphasis.Inferred)
 		b = append(b, `,"holds":`...)
 		b = jsonio.AppendMap(b, c.Emphasis.Holds, appendBool)
+		if c.Emphasis.Box != nil {
+			b = append(b, `,"box":`...)
+			b = appendBox(b, *c.Emphasis.Box)
+		}
 		b = append(b, '}')
+	}
+	return appendRegions(b, c.Regions, c.CVD)
+}
+
+// appendRegions writes the salient regions of a chart drawn as pixels and
+// their CVD re-runs, when there are any, and closes the object.
+func appendRegions(b []byte, regions []Region, cvd map[string][]Region) []byte {
+	if len(regions) > 0 {
+		b = append(b, `,"regions":`...)
+		b = appendList(b, regions, appendRegion)
+	}
+	if len(cvd) > 0 {
+		b = append(b, `,"cvd":`...)
+		b = jsonio.AppendMap(b, cvd, func(b []byte, rs []Region) []byte { return appendList(b, rs, appendRegion) })
 	}
 	return append(b, '}')
 }

@@ -57,6 +57,10 @@ func TestAppendJSONMatchesEncodingJSON(t *testing.T) {
 			Groups:   &Groups{Partitions: []Partition{{Cue: "colour", Groups: 3}}},
 			Extremes: []string{"m"}, Emphasis: &Emphasis{Marks: []string{"m"}, Inferred: true}}}},
 	)
+	// A chart drawn as pixels among the charts (minor 4), from the
+	// unchecked entry above: source, regions, CVD and an emphasis box.
+	PixelCharts(&rep.Pages[len(rep.Pages)-3])
+	require.Len(t, rep.Pages[len(rep.Pages)-3].Charts, 1)
 	assert.Equal(t, testkit.EncodingJSON(t, rep), string(AppendJSON(nil, rep)))
 }
 

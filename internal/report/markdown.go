@@ -17,7 +17,10 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 		for _, pr := range p.Problems {
 			fmt.Fprintf(w, "- Note: %s\n", mdEscape(pr))
 		}
-		if len(p.Problems) > 0 {
+		for _, f := range p.Findings {
+			fmt.Fprintf(w, "- %s: %s (%s)\n", f.Severity, mdEscape(f.Message), mdCode(f.ID))
+		}
+		if len(p.Problems)+len(p.Findings) > 0 {
 			fmt.Fprintln(w)
 		}
 		charts := 0
@@ -26,6 +29,10 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				continue
 			}
 			charts++
+			if c.DrawnAsPixels() {
+				writePixelChart(w, c)
+				continue
+			}
 			if c.Title != "" {
 				fmt.Fprintf(w, "### %s (%s)\n\n", mdEscape(c.Title), mdCode(c.Path))
 			} else {
@@ -75,6 +82,15 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 	}
 	writeKey(w)
 	fmt.Fprintf(w, "> %s\n", r.Caution)
+}
+
+// writePixelChart writes a chart drawn as pixels: where the eye is
+// predicted to go first, for each vision type.
+func writePixelChart(w io.Writer, c Chart) {
+	fmt.Fprintf(w, "### Chart %s (%s, judged by its pixels)\n\n", mdCode(c.Path), c.Source)
+	for _, l := range PixelLines(c) {
+		fmt.Fprintf(w, "%s\n\n", l)
+	}
 }
 
 func margins(m map[string]float64) string {

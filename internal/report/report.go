@@ -23,7 +23,7 @@ const Caution = "CVD simulation is a model of average readers and real readers v
 // docs/report.md); Minor counts the fields added within it.
 const (
 	Version = 1
-	Minor   = 3
+	Minor   = 4
 )
 
 // Mark is one mark of a chart as the report states it: what it is, its
@@ -64,6 +64,11 @@ type Mark struct {
 // reading it, and the analysis's findings, grouping and emphasis.
 type Chart struct {
 	Path string `json:"path"`
+	// Source is what the chart is drawn with (minor 4): "svg" for an
+	// inline SVG chart, whose marks are read; "canvas", "image" or
+	// "object" for a chart drawn as pixels whose pixels were judged, with
+	// Regions in place of marks.
+	Source string `json:"source"`
 	// Title is the chart's name for people: its aria-label, <title>,
 	// figure caption or nearest heading (minor 1); absent when it has none.
 	Title string `json:"title,omitempty"`
@@ -73,7 +78,7 @@ type Chart struct {
 	IsChart    bool           `json:"isChart"`
 	Reason     string         `json:"reason,omitempty"`
 	Box        [4]float64     `json:"box"`
-	Background string         `json:"background"`
+	Background string         `json:"background,omitempty"`
 	Marks      []Mark         `json:"marks"`
 	Legend     []Mark         `json:"legend"`
 	Furniture  map[string]int `json:"furniture"`
@@ -84,6 +89,11 @@ type Chart struct {
 	// the value they encode (added in version 1, minor 1).
 	Extremes []string  `json:"extremes,omitempty"`
 	Emphasis *Emphasis `json:"emphasis,omitempty"`
+	// Regions and CVD are, for a chart drawn as pixels (minor 4), its
+	// pixels' most salient regions, strongest first, and the same for each
+	// vision type: as in the page's Unchecked entry for it.
+	Regions []Region            `json:"regions,omitempty"`
+	CVD     map[string][]Region `json:"cvd,omitempty"`
 }
 
 // Page is one page or file: its charts and the problems met reading it.
@@ -385,7 +395,7 @@ func PageOf(name string, problems []string, as []Analysed) Page {
 	rp := Page{Source: name, Problems: nonNil(problems), Charts: []Chart{}}
 	for _, a := range as {
 		ch := a.Chart
-		rc := Chart{Path: ch.Path, Title: ch.Title, Anchor: ch.Anchor, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
+		rc := Chart{Path: ch.Path, Source: "svg", Title: ch.Title, Anchor: ch.Anchor, IsChart: ch.IsChart, Reason: ch.Reason, Box: ch.Box,
 			Background: snapshot.Hex(ch.Background), Marks: make([]Mark, 0, len(ch.Marks)), Legend: []Mark{},
 			Furniture: furniture(ch.Furniture), Problems: nonNil(ch.Problems)}
 		for _, m := range ch.Marks {

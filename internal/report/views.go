@@ -99,7 +99,7 @@ func emphasisAcross(per []seen) []string {
 	for i, s := range per {
 		v, em := s.view, s.chart.Emphasis
 		state := "no emphasis"
-		if em != nil && len(em.Marks) > 0 {
+		if em != nil && (len(em.Marks) > 0 || em.Box != nil) {
 			var lost []string
 			for _, vt := range []string{"normal", "protan", "deutan", "tritan", "achromat"} {
 				if !em.Holds[vt] {
