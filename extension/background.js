@@ -95,7 +95,10 @@ async function readPage(tabId, toggle) {
 // response (a JSON string: {ok, overlay} or {ok, report, markdown}, or
 // {ok: false, error}) with the timings of the steps and the check's
 // sequence number, or {closed: true} when toggle closed an open check.
-async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false, phoneWidth = 0 } = {}) {
+// A request for the whole report passes on the press's judgements of the
+// charts drawn as pixels (judged) and a point picked on one (pick), which
+// the overlay keeps, so that the report holds them.
+async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false, phoneWidth = 0, judged, pick } = {}) {
   const t0 = performance.now();
   const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore()]);
   if (read.closed) return read;
@@ -106,6 +109,8 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
   const options = { type: 'analyse', emphasisNodes, full, frames: frames.places };
   if (typeof severity === 'number') options.severity = severity;
   if (phoneWidth) options.phoneWidth = phoneWidth;
+  if (full && judged) options.pixels = judged;
+  if (full && pick) options.pick = pick;
   const response = await callCore(JSON.stringify(options), read.json, frames.pages);
   const t2 = performance.now();
   // A press judges the charts drawn as pixels; a re-check would capture
@@ -379,6 +384,24 @@ async function recheckWithFrames(key) {
 
 const MAX_PICKS = 100000;
 
+const VISION_KEYS = ['normal', 'protan', 'deutan', 'tritan', 'achromat'];
+
+// validPixels checks the press's judgements of the charts drawn as pixels
+// that the overlay sends back with a request for the whole report: at
+// most 16 charts, each with a few regions per vision type.
+function validPixels(ps) {
+  if (ps === undefined) return true;
+  const region = (r) => r && typeof r === 'object' && Array.isArray(r.box) && r.box.length === 4 && r.box.every(Number.isFinite) && Number.isFinite(r.salience);
+  return Array.isArray(ps) && ps.length <= 16 && ps.every((p) => p && typeof p === 'object' && typeof p.name === 'string' && p.name.length <= 200 &&
+    p.regions && typeof p.regions === 'object' && !Array.isArray(p.regions) &&
+    Object.entries(p.regions).every(([k, rs]) => VISION_KEYS.includes(k) && Array.isArray(rs) && rs.length <= 16 && rs.every(region)));
+}
+
+// validPick checks a point picked on a chart drawn as pixels.
+function validPick(p) {
+  return p === undefined || (p && typeof p === 'object' && typeof p.name === 'string' && p.name.length <= 200 && Number.isFinite(p.x) && Number.isFinite(p.y));
+}
+
 // validMessage checks a message's shape: it comes from this extension's
 // own scripts in a tab (or, for the export page, from an extension page),
 // and its data are what that type carries. Anything else is refused.
@@ -391,7 +414,8 @@ function validMessage(msg, sender) {
       return !!sender.tab && d && typeof d === 'object' && Array.isArray(d.emphasisNodes) && d.emphasisNodes.length <= MAX_PICKS &&
         d.emphasisNodes.every((n) => typeof n === 'string' && n.length <= 4096 && /#\d+$/.test(n)) &&
         typeof d.severity === 'number' && d.severity >= 0 && d.severity <= 1 &&
-        (d.phoneWidth === undefined || d.phoneWidth === 0 || (Number.isInteger(d.phoneWidth) && d.phoneWidth >= 200 && d.phoneWidth <= 1000));
+        (d.phoneWidth === undefined || d.phoneWidth === 0 || (Number.isInteger(d.phoneWidth) && d.phoneWidth >= 200 && d.phoneWidth <= 1000)) &&
+        validPixels(d.pixels) && validPick(d.pick);
     case 'standout/capture':
       return !!sender.tab && d && typeof d === 'object' && Array.isArray(d.charts) && d.charts.length <= 1000 &&
         d.charts.every((c) => c && typeof c.name === 'string' && c.name.length <= 200 && Array.isArray(c.box) && c.box.length === 4 && c.box.every(Number.isFinite)) &&
@@ -423,7 +447,7 @@ ext.runtime.onMessage.addListener((msg, sender, sendResponse) => {
   switch (msg.type) {
     case 'standout/reanalyse':
     case 'standout/full-report':
-      return reply(analyse(sender.tab.id, { emphasisNodes: msg.data.emphasisNodes, severity: msg.data.severity, phoneWidth: msg.data.phoneWidth || 0, full: msg.type === 'standout/full-report' }));
+      return reply(analyse(sender.tab.id, { emphasisNodes: msg.data.emphasisNodes, severity: msg.data.severity, phoneWidth: msg.data.phoneWidth || 0, full: msg.type === 'standout/full-report', judged: msg.data.pixels, pick: msg.data.pick }));
     case 'standout/capture':
       return reply(exportPNG(sender.tab, msg.data));
     case 'standout/take-export': {

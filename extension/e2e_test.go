@@ -1071,5 +1071,38 @@ func suitePickOnPixels(t *testing.T, h e2eBrowser) {
 		require.NotNil(t, got, "no answer for the pick at %v, %v", c.x, c.y)
 		assert.Contains(t, got[1], c.want)
 		assert.Regexp(t, `^normal: (yes|no), protan: (yes|no), deutan: (yes|no), tritan: (yes|no), achromat: (yes|no)$`, got[1])
+
+		// The exported report holds the judged charts drawn as pixels as
+		// charts (minor 4), the pick as the canvas's emphasis.
+		dl := h.downloads()
+		h.clickInOverlay("export-json")
+		data := downloaded(dl, "standout-report.json")
+		require.NotNil(t, data, "no exported report")
+		require.NoError(t, os.Remove(filepath.Join(dl, "standout-report.json")))
+		var rep report.Report
+		require.NoError(t, json.Unmarshal(data, &rep))
+		require.Len(t, rep.Pages, 1)
+		judged := map[string]report.Chart{}
+		for _, ch := range rep.Pages[0].Charts {
+			judged[ch.Path] = ch
+		}
+		cv, ok := judged["canvas0"]
+		require.True(t, ok, "canvas0 among the charts: %s", data)
+		assert.Equal(t, "canvas", cv.Source)
+		require.NotEmpty(t, cv.Regions)
+		require.NotNil(t, cv.Emphasis)
+		require.NotNil(t, cv.Emphasis.Box)
+		assert.InDelta(t, box[0]+c.x+window(h)[0], cv.Emphasis.Box[0], 1.5, "the pick in page px")
+		assert.Equal(t, c.want == "normal: yes", cv.Emphasis.Holds["normal"])
+		assert.Equal(t, "image", judged["img0"].Source)
 	}
+}
+
+// window is the page's scroll offset, [scrollX, scrollY].
+func window(h e2eBrowser) [2]float64 {
+	var v [2]float64
+	if err := json.Unmarshal([]byte(h.eval(`JSON.stringify([window.scrollX, window.scrollY])`)), &v); err != nil {
+		h.tb().Fatal(err)
+	}
+	return v
 }

@@ -837,7 +837,12 @@
   async function exportReport(kind) {
     let resp;
     try {
-      resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data: { emphasisNodes: state.emphasis || [], severity: state.view.tenths / 10, phoneWidth: state.view.phone ? PHONE_WIDTH : 0 } });
+      // The press's judgements of the charts drawn as pixels, and a point
+      // picked on one, go into the report as they were made.
+      const pixels = (state.pixels || []).filter((p) => p.regions).map((p) => ({ name: p.name, regions: p.regions }));
+      const data = { emphasisNodes: state.emphasis || [], severity: state.view.tenths / 10, phoneWidth: state.view.phone ? PHONE_WIDTH : 0, pixels };
+      if (state.pixelPick) data.pick = state.pixelPick;
+      resp = await chrome.runtime.sendMessage({ type: 'standout/full-report', target: 'background', data });
     } catch (e) {
       resp = { ok: false, error: String((e && e.message) || e) };
     }

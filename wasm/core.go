@@ -46,6 +46,25 @@ type Request struct {
 	// after the page (HandlePage): each one's name in the page and the
 	// offset of its content box in page px.
 	Frames []FramePlace `json:"frames"`
+	// Pixels are the press's judgements of the charts drawn as pixels,
+	// which the overlay keeps and sends with a request for the whole
+	// report; Pick is a point the reader picked on one of them.
+	Pixels []PixelJudgement `json:"pixels"`
+	Pick   *PixelPick       `json:"pick"`
+}
+
+// PixelJudgement is one chart drawn as pixels as the press judged it: its
+// salient regions per vision type, boxes in the chart's own px (Saliency).
+type PixelJudgement struct {
+	Name    string                     `json:"name"`
+	Regions map[string][]report.Region `json:"regions"`
+}
+
+// PixelPick is a point picked on a chart drawn as pixels, in its own px.
+type PixelPick struct {
+	Name string  `json:"name"`
+	X    float64 `json:"x"`
+	Y    float64 `json:"y"`
 }
 
 // FramePlace is where a frame's reading goes in its page.
@@ -185,6 +204,10 @@ func parseOptions(b []byte) (*Request, error) {
 			q.PhoneWidth, err = d.Number()
 		case "frames":
 			q.Frames, err = parseFrames(d)
+		case "pixels":
+			q.Pixels, err = parsePixels(d)
+		case "pick":
+			q.Pick, err = parsePick(d)
 		default:
 			err = d.Skip()
 		}
@@ -247,6 +270,9 @@ func handle(q *Request, t0 time.Time) []byte {
 	}
 	page := report.PageOf(q.Source, q.Problems, as)
 	page.Unchecked = report.UncheckedOf(q.Rasters)
+	judged(page.Unchecked, q.Pixels, q.Pick)
+	report.PixelCharts(&page)
+	report.PageFindings(&page)
 	rep := &report.Report{Schema: "standout-report", Version: report.Version, Minor: report.Minor, Pages: []report.Page{page}, Caution: report.Caution}
 	var md strings.Builder
 	report.WriteMarkdown(&md, rep, nil)

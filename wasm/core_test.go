@@ -230,14 +230,16 @@ func TestDigestMatchesReportOnEveryChart(t *testing.T) {
 func TestParseOptionsMatchesEncodingJSON(t *testing.T) {
 	// The options scanner reads what encoding/json reads into a Request.
 	for _, in := range []string{`{"type":"analyse"}`, `{"type":"analyse","emphasis":["svg0/g0/rect2","a\"b"],"severity":0.4,"full":true,"distanceCm":60,"pxPerInch":96}`,
-		`{"type":"analyse","severity":null,"emphasis":null,"extra":{"x":[1]}}`, `{}`} {
+		`{"type":"analyse","severity":null,"emphasis":null,"extra":{"x":[1]}}`, `{}`,
+		`{"pixels":[{"name":"canvas0","regions":{"normal":[{"box":[1,2,3,4],"salience":1,"x":0}],"deutan":[]},"more":1}],"pick":{"name":"canvas0","x":5,"y":6.5}}`,
+		`{"pixels":[],"pick":null}`, `{"pixels":null}`} {
 		var want Request
 		require.NoError(t, json.Unmarshal([]byte(in), &want), in)
 		got, err := parseOptions([]byte(in))
 		require.NoError(t, err, in)
 		assert.Equal(t, want, *got, in)
 	}
-	for _, bad := range []string{`{`, `{"full":1}`, `{"severity":"x"}`, `[]`, `{} x`} {
+	for _, bad := range []string{`{`, `{"full":1}`, `{"severity":"x"}`, `[]`, `{} x`, `{"pixels":[{"regions":{"normal":[{"box":[1,2,3]}]}}]}`, `{"pick":{"x":"1"}}`} {
 		_, err := parseOptions([]byte(bad))
 		assert.Error(t, err, bad)
 	}
@@ -297,4 +299,41 @@ func TestHandlePageWithFrames(t *testing.T) {
 		require.NoError(t, json.Unmarshal(HandlePage([]byte(bad[0]), page, []byte(bad[1])), &r))
 		assert.False(t, r.OK, bad[0])
 	}
+}
+
+// The whole report (the panel's export) carries the press's judgements of
+// the charts drawn as pixels: each judged one is a chart with its regions
+// in page px, a point picked on it is checked as its emphasis, and a chart
+// drawn as pixels that was not judged is named in the page's findings.
+func TestFullReportCarriesJudgedPixels(t *testing.T) {
+	page := `{"source":"t","snapshots":[],"problems":[],"rasters":[{"tag":"canvas","name":"canvas0","box":[20,300,480,300]},{"tag":"img","name":"img0","box":[20,700,480,300]}]}`
+	opts := `{"type":"analyse","full":true,"pixels":[{"name":"canvas0","regions":{"normal":[{"box":[208,160,32,128],"salience":1},{"box":[144,80,16,32],"salience":0.51}],
+		"deutan":[{"box":[208,160,32,128],"salience":1}],"achromat":[{"box":[64,64,176,224],"salience":1}]}}],"pick":{"name":"canvas0","x":223,"y":217}}`
+	var r Response
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(opts), []byte(page)), &r))
+	require.True(t, r.OK, r.Error)
+	p := r.Report.Pages[0]
+	require.Len(t, p.Unchecked, 2)
+	require.Len(t, p.Charts, 1, "the judged canvas only")
+	c := p.Charts[0]
+	assert.Equal(t, "canvas0", c.Path)
+	assert.Equal(t, "canvas", c.Source)
+	assert.Equal(t, []report.Region{{Box: [4]float64{228, 460, 32, 128}, Salience: 1}, {Box: [4]float64{164, 380, 16, 32}, Salience: 0.51}}, c.Regions)
+	assert.Equal(t, [4]float64{84, 364, 176, 224}, c.CVD["achromat"][0].Box)
+	require.NotNil(t, c.Emphasis)
+	assert.Equal(t, [4]float64{243, 517, 0, 0}, *c.Emphasis.Box)
+	assert.Equal(t, map[string]bool{"normal": true, "deutan": true, "achromat": true}, c.Emphasis.Holds)
+	var ids []string
+	for _, f := range p.Findings {
+		ids = append(ids, f.ID+" "+strings.Join(f.Marks, ","))
+	}
+	assert.Equal(t, []string{"pixels-unread img0"}, ids)
+	assert.Contains(t, r.Markdown, "### Chart `canvas0` (canvas, judged by its pixels)")
+	assert.Contains(t, r.Markdown, "pixels-unread")
+
+	// A pick outside the strongest region is no emphasis that holds.
+	opts = strings.Replace(opts, `"x":223,"y":217`, `"x":30,"y":250`, 1)
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(opts), []byte(page)), &r))
+	require.True(t, r.OK, r.Error)
+	assert.Equal(t, map[string]bool{"normal": false, "deutan": false, "achromat": false}, r.Report.Pages[0].Charts[0].Emphasis.Holds)
 }

@@ -1,8 +1,11 @@
 package main
 
 import (
+	"math"
 	"strconv"
 
+	"standout/internal/jsonio"
+	"standout/internal/report"
 	"standout/perception"
 	"standout/perception/saliency"
 )
@@ -50,4 +53,113 @@ func Saliency(rgba []byte, w, h int, severity float64) []byte {
 		b = append(b, ']')
 	}
 	return append(b, "}}"...)
+}
+
+// judged puts the press's judgements of the charts drawn as pixels into
+// their unchecked entries, boxes mapped into page px by each chart's box
+// as the read pass measured it (the capture was cut to that box, at one
+// pixel per CSS px rounded), and checks a point picked on one of them as
+// a declared emphasis.
+func judged(us []report.Unchecked, pixels []PixelJudgement, pick *PixelPick) {
+	for i := range us {
+		u := &us[i]
+		for _, p := range pixels {
+			if p.Name != u.Name || len(p.Regions["normal"]) == 0 {
+				continue
+			}
+			w, h := max(math.Round(u.Box[2]), 1), max(math.Round(u.Box[3]), 1)
+			u.Regions = report.PlaceRegions(p.Regions["normal"], w, h, u.Box)
+			u.CVD = map[string][]report.Region{}
+			for v, rs := range p.Regions {
+				if v != "normal" {
+					u.CVD[v] = report.PlaceRegions(rs, w, h, u.Box)
+				}
+			}
+			if pick != nil && pick.Name == u.Name {
+				u.Emphasis = report.EmphasisAt(u, [4]float64{u.Box[0] + pick.X, u.Box[1] + pick.Y, 0, 0})
+			}
+			break
+		}
+	}
+}
+
+// parsePixels reads the options' pixels: [{name, regions: {vision:
+// [{box, salience}, …], …}}, …].
+func parsePixels(d *jsonio.Scanner) ([]PixelJudgement, error) {
+	if d.Null() {
+		return nil, nil
+	}
+	out := []PixelJudgement{}
+	err := d.Array(func() error {
+		p := PixelJudgement{Regions: map[string][]report.Region{}}
+		err := d.Object(func(key string) error {
+			switch key {
+			case "name":
+				var err error
+				p.Name, err = d.Text()
+				return err
+			case "regions":
+				return d.Object(func(vision string) error {
+					rs, err := parseRegions(d)
+					p.Regions[vision] = rs
+					return err
+				})
+			}
+			return d.Skip()
+		})
+		out = append(out, p)
+		return err
+	})
+	return out, err
+}
+
+func parseRegions(d *jsonio.Scanner) ([]report.Region, error) {
+	rs := []report.Region{}
+	err := d.Array(func() error {
+		var r report.Region
+		err := d.Object(func(key string) error {
+			switch key {
+			case "box":
+				b, err := d.Numbers(nil)
+				if err == nil && len(b) != 4 {
+					err = d.Errorf("a region's box has %d numbers, not 4", len(b))
+				}
+				if err == nil {
+					r.Box = [4]float64(b)
+				}
+				return err
+			case "salience":
+				var err error
+				r.Salience, err = d.Number()
+				return err
+			}
+			return d.Skip()
+		})
+		rs = append(rs, r)
+		return err
+	})
+	return rs, err
+}
+
+// parsePick reads the options' pick: {name, x, y}, or null.
+func parsePick(d *jsonio.Scanner) (*PixelPick, error) {
+	if d.Null() {
+		return nil, nil
+	}
+	p := &PixelPick{}
+	err := d.Object(func(key string) error {
+		var err error
+		switch key {
+		case "name":
+			p.Name, err = d.Text()
+		case "x":
+			p.X, err = d.Number()
+		case "y":
+			p.Y, err = d.Number()
+		default:
+			err = d.Skip()
+		}
+		return err
+	})
+	return p, err
 }

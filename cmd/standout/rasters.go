@@ -36,41 +36,20 @@ func rasterRegions(us []report.Unchecked, shots map[string][]byte, severity floa
 			u.CVD[v.String()] = pageRegions(perVision[k+1], px.W, px.H, u.Box)
 		}
 		if box != nil {
-			u.Emphasis = emphasisIn(u, *box)
+			u.Emphasis = report.EmphasisAt(u, *box)
 		}
 	}
-}
-
-// emphasisIn checks a declared emphasis box that lies in a chart drawn as
-// pixels: for each vision type, whether the strongest region covers the
-// box's centre.
-func emphasisIn(u *report.Unchecked, box [4]float64) *report.RasterEmphasis {
-	cx, cy := box[0]+box[2]/2, box[1]+box[3]/2
-	if !report.InBox(u.Box, cx, cy) {
-		return nil
-	}
-	first := func(rs []report.Region) bool { return len(rs) > 0 && report.InBox(rs[0].Box, cx, cy) }
-	e := &report.RasterEmphasis{Box: box, Holds: map[string]bool{perception.Visions[0].String(): first(u.Regions)}}
-	for v, rs := range u.CVD {
-		e.Holds[v] = first(rs)
-	}
-	return e
 }
 
 // pageRegions maps regions of a chart's w×h pixels into its box in the
 // page.
 func pageRegions(rs []saliency.Region, w, h int, box [4]float64) []report.Region {
-	sx, sy := box[2]/float64(w), box[3]/float64(h)
-	var out []report.Region
-	for _, r := range rs {
-		b := r.Box
-		out = append(out, report.Region{Box: [4]float64{round2(box[0] + b[0]*sx), round2(box[1] + b[1]*sy), round2(b[2] * sx), round2(b[3] * sy)},
-			Salience: round2(r.Salience)})
+	out := make([]report.Region, len(rs))
+	for i, r := range rs {
+		out[i] = report.Region{Box: r.Box, Salience: r.Salience}
 	}
-	return out
+	return report.PlaceRegions(out, float64(w), float64(h), box)
 }
-
-func round2(v float64) float64 { return float64(int64(v*100+0.5)) / 100 }
 
 // toSaliency converts a decoded image to the model's RGB planes.
 func toSaliency(img image.Image) *saliency.Image {

@@ -29,6 +29,35 @@ func PixelCharts(p *Page) {
 	}
 }
 
+// PlaceRegions maps regions found in a chart's w×h pixels into its box
+// in the page, in CSS px to the hundredth.
+func PlaceRegions(rs []Region, w, h float64, box [4]float64) []Region {
+	sx, sy := box[2]/w, box[3]/h
+	out := make([]Region, 0, len(rs))
+	for _, r := range rs {
+		b := r.Box
+		out = append(out, Region{Box: [4]float64{r2(box[0] + b[0]*sx), r2(box[1] + b[1]*sy), r2(b[2] * sx), r2(b[3] * sy)}, Salience: r2(r.Salience)})
+	}
+	return out
+}
+
+// EmphasisAt checks a declared emphasis box (page px) that lies in a
+// chart drawn as pixels whose pixels were judged: for each vision type,
+// whether the strongest region covers the box's centre. It is nil when
+// the centre lies outside the chart.
+func EmphasisAt(u *Unchecked, box [4]float64) *RasterEmphasis {
+	cx, cy := box[0]+box[2]/2, box[1]+box[3]/2
+	if len(u.Regions) == 0 || !InBox(u.Box, cx, cy) {
+		return nil
+	}
+	first := func(rs []Region) bool { return len(rs) > 0 && InBox(rs[0].Box, cx, cy) }
+	e := &RasterEmphasis{Box: box, Holds: map[string]bool{"normal": first(u.Regions)}}
+	for v, rs := range u.CVD {
+		e.Holds[v] = first(rs)
+	}
+	return e
+}
+
 // DrawnAsPixels says whether the chart is one drawn as pixels, judged by
 // its pixels rather than its marks.
 func (c *Chart) DrawnAsPixels() bool { return c.Source != "" && c.Source != "svg" }
