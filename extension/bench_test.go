@@ -22,7 +22,7 @@ import (
 // emphasised mark. css goes into the page's style sheet.
 func scatterPage(n int, css string) string {
 	rng := rand.New(rand.NewSource(int64(n)))
-	cols := []string{"#4c78a8", "#f58518", "#54a24b", "#b279a2"}
+	cols := []string{"#3b6e8f", "#d0842c", "#5a9a4e", "#9a6aa6"}
 	var b strings.Builder
 	b.WriteString(`<!doctype html><html><head><style>` + css + `</style></head><body style="margin:0"><svg width="1000" height="800"><g>`)
 	for i := 0; i < n; i++ {

@@ -510,7 +510,7 @@ func suiteOverlayMatchesStaticPath(t *testing.T, h e2eBrowser) {
 // chartPage is a small bar chart with an emphasis.
 const chartSVG = `<svg width="240" height="120"><g>
 <rect x="10" y="40" width="30" height="80" fill="#8a8a8a"/><rect x="50" y="30" width="30" height="90" fill="#8a8a8a"/>
-<rect x="90" y="10" width="30" height="110" fill="#c2410c"/><rect x="130" y="50" width="30" height="70" fill="#8a8a8a"/>
+<rect x="90" y="10" width="30" height="110" fill="#c4521a"/><rect x="130" y="50" width="30" height="70" fill="#8a8a8a"/>
 <rect x="170" y="60" width="30" height="60" fill="#8a8a8a"/></g></svg>`
 
 func TestE2EStrictCSPFrameAndShadowRoot(t *testing.T) {

@@ -11,7 +11,7 @@ import (
 // sizes, with one emphasised mark.
 func benchMarks(n int) Input {
 	rng := rand.New(rand.NewSource(1))
-	pal := []colour.SRGB{colour.MustHex("#4c78a8"), colour.MustHex("#f58518"), colour.MustHex("#54a24b"), colour.MustHex("#b279a2")}
+	pal := []colour.SRGB{colour.MustHex("#3b6e8f"), colour.MustHex("#d0842c"), colour.MustHex("#5a9a4e"), colour.MustHex("#9a6aa6")}
 	marks := make([]Mark, n)
 	for i := range marks {
 		marks[i] = Mark{Kind: "point", Type: colour.Point, Colour: pal[rng.Intn(len(pal))], Size: 20 + rng.Float64()*60,
@@ -35,7 +35,7 @@ func benchMarks(n int) Input {
 // CVD readers, so the gamut search and its verification run too.
 func BenchmarkFix10k(b *testing.B) {
 	in := benchMarks(10000)
-	in.Marks[5000].Colour = colour.MustHex("#e41a1c")
+	in.Marks[5000].Colour = colour.MustHex("#d8322a")
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {

@@ -13,7 +13,7 @@ func ExampleAnalyse() {
 	for i := 0; i < 10; i++ {
 		c := colour.MustHex("#8a8a8a")
 		if i == 4 {
-			c = colour.MustHex("#c2410c")
+			c = colour.MustHex("#c4521a")
 		}
 		marks = append(marks, perception.Mark{Kind: "point", Type: colour.Point, Colour: c, Size: 78.5,
 			MinPx: 10, MaxPx: 10, Shape: "circle", X: float64(i) * 20, Y: 10})

@@ -297,7 +297,7 @@ func TestFixVerificationMatchesFreshAnalysis(t *testing.T) {
 	marks := gridDisplay(2000, 5, func(i int, m *Mark) {
 		m.Colour = g1
 		if i%3 == 0 {
-			m.Colour = colour.MustHex("#4c78a8")
+			m.Colour = colour.MustHex("#3b6e8f")
 		}
 		if i == target {
 			m.Colour = g2

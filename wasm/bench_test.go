@@ -12,7 +12,7 @@ import (
 // benchRequest is a request with one scatter chart of n circles.
 func benchRequest(b *testing.B, n int) []byte {
 	rng := rand.New(rand.NewSource(1))
-	cols := []string{"#4c78a8", "#f58518", "#54a24b", "#b279a2"}
+	cols := []string{"#3b6e8f", "#d0842c", "#5a9a4e", "#9a6aa6"}
 	var s strings.Builder
 	s.WriteString(`<svg width="1000" height="800"><g>`)
 	for i := 0; i < n; i++ {

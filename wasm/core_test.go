@@ -77,7 +77,7 @@ func TestJSOnlyFilesHaveConstraint(t *testing.T) {
 }
 
 func TestHandlePageMatchesHandle(t *testing.T) {
-	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30" cy="10" r="4" fill="#999"/><circle cx="50" cy="10" r="4" fill="#c2410c"/></g></svg>`
+	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30" cy="10" r="4" fill="#999"/><circle cx="50" cy="10" r="4" fill="#c4521a"/></g></svg>`
 	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t"})
 	require.NoError(t, err)
 	whole, err := json.Marshal(Request{Type: "analyse", Source: "t", Snapshots: p.Charts, Full: true})
@@ -100,7 +100,7 @@ func TestDigestMatchesReport(t *testing.T) {
 	// The overlay's digest says what the full report says of every mark
 	// and finding, and is valid JSON for any text a page may hold.
 	doc := `<svg width="200" height="100"><g><circle cx="10" cy="10" r="4" fill="#999"/><circle cx="30.333" cy="10" r="4" fill="#999"/>
-	<circle cx="50" cy="10" r="4" fill="#999"/><circle cx="70" cy="10" r="4" fill="#c2410c" aria-label="a &quot;quoted&quot; \ label &#1;"/></g></svg>`
+	<circle cx="50" cy="10" r="4" fill="#999"/><circle cx="70" cy="10" r="4" fill="#c4521a" aria-label="a &quot;quoted&quot; \ label &#1;"/></g></svg>`
 	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t\u2028\"x"})
 	require.NoError(t, err)
 	page, _ := json.Marshal(map[string]any{"source": "t\x00\xff\"", "snapshots": p.Charts, "problems": []string{"a\tb"}})
@@ -276,7 +276,7 @@ func TestEmphasisByNode(t *testing.T) {
 // joins the page's charts under the frame's name, its marks moved into
 // page px; a reading without a place, or a bad one, is an error.
 func TestHandlePageWithFrames(t *testing.T) {
-	doc := `<svg width="200" height="100"><g><rect x="10" y="40" width="20" height="60" fill="#999"/><rect x="40" y="20" width="20" height="80" fill="#c2410c"/></g></svg>`
+	doc := `<svg width="200" height="100"><g><rect x="10" y="40" width="20" height="60" fill="#999"/><rect x="40" y="20" width="20" height="80" fill="#c4521a"/></g></svg>`
 	p, err := static.Build(strings.NewReader(doc), static.Options{Source: "t"})
 	require.NoError(t, err)
 	frame, err := json.Marshal(map[string]any{"source": "f", "snapshots": p.Charts, "problems": []string{}})
