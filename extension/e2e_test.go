@@ -877,7 +877,7 @@ func suiteChartDrawnAsPixels(t *testing.T, h e2eBrowser) {
 	showPage(h, string(page))
 	ov := h.overlayHTML()
 	assert.Contains(t, ov, `data-role="pixels"`)
-	assert.Regexp(t, `canvas0: the eye is predicted to go first to the outlined region .*For other readers: protan: (the same|elsewhere)`, ov)
+	assert.Regexp(t, `canvas0: the eye is predicted to go first to the outlined region .*For other readers: protan: (the same|spread wider|elsewhere)`, ov)
 	firstRegionHoldsTheBar(t, ov, "canvas0")
 }
 

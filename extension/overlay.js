@@ -501,6 +501,14 @@
     if (old) old.replaceWith(pixelsView(state.pixels));
   }
 
+  // overlap is the intersection over union of two boxes [x, y, w, h].
+  function overlap(a, b) {
+    const w = Math.min(a[0] + a[2], b[0] + b[2]) - Math.max(a[0], b[0]);
+    const h = Math.min(a[1] + a[3], b[1] + b[3]) - Math.max(a[1], b[1]);
+    if (w <= 0 || h <= 0) return 0;
+    return (w * h) / (a[2] * a[3] + b[2] * b[3] - w * h);
+  }
+
   // pixelsView is the panel's section on the charts drawn as pixels: where
   // the eye goes first for each vision type, or why a chart was not judged.
   function pixelsView(pixels) {
@@ -521,10 +529,14 @@
       }
       const cx = top.box[0] + top.box[2] / 2;
       const cy = top.box[1] + top.box[3] / 2;
+      // As the reports word it (report.PixelLines): the same region when
+      // the two overlap by half (intersection over union), wider when the
+      // other covers this one's centre only, else elsewhere.
       const same = VISIONS.slice(1).map((v) => {
         const t = (rs[v] || [])[0];
         const here = t && cx >= t.box[0] && cx <= t.box[0] + t.box[2] && cy >= t.box[1] && cy <= t.box[1] + t.box[3];
-        return `${v}: ${here ? 'the same' : 'elsewhere'}`;
+        const where = !here ? 'elsewhere' : overlap(t.box, top.box) >= 0.5 ? 'the same' : 'spread wider';
+        return `${v}: ${where}`;
       });
       sec.appendChild(el('p', {}, `${p.name}: the eye is predicted to go first to the outlined region (a saliency map of its pixels, Itti, Koch & Niebur 1998; a prediction). For other readers: ${same.join(', ')}.`));
       const pick = state.pixelPick;
