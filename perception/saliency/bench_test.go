@@ -1,6 +1,10 @@
 package saliency
 
-import "testing"
+import (
+	"testing"
+
+	"standout/perception/colour"
+)
 
 // A 600 × 400 chart: a grid of bars, one highlighted.
 func chart600x400() *Image {
@@ -21,5 +25,15 @@ func BenchmarkMap600x400(b *testing.B) {
 	b.ResetTimer()
 	for b.Loop() {
 		Regions(Compute(img), img.W, img.H)
+	}
+}
+
+// BenchmarkPerVision600x400 is what a press does for one chart drawn as
+// pixels: the map for normal vision and for each CVD type's simulation.
+func BenchmarkPerVision600x400(b *testing.B) {
+	img := chart600x400()
+	visions := []colour.Deficiency{colour.Normal, colour.Protan, colour.Deutan, colour.Tritan, colour.Achromat}
+	for b.Loop() {
+		PerVision(img, visions, 1, Reported)
 	}
 }

@@ -8,14 +8,20 @@ import "standout/perception/colour"
 func Simulated(img *Image, d colour.Deficiency, severity float64) *Image {
 	out := NewImage(img.W, img.H)
 	cache := map[uint32][3]float32{}
+	// A chart's pixels come in runs of one colour: the last one is kept
+	// at hand rather than looked up again.
+	last, v := uint32(1<<24), [3]float32{}
 	for i := range img.R {
 		r8, g8, b8 := to8(img.R[i]), to8(img.G[i]), to8(img.B[i])
 		k := uint32(r8)<<16 | uint32(g8)<<8 | uint32(b8)
-		v, ok := cache[k]
-		if !ok {
-			s := colour.Simulate(d, severity, colour.SRGB8(r8, g8, b8))
-			v = [3]float32{float32(s.R), float32(s.G), float32(s.B)}
-			cache[k] = v
+		if k != last {
+			var ok bool
+			if v, ok = cache[k]; !ok {
+				s := colour.Simulate(d, severity, colour.SRGB8(r8, g8, b8))
+				v = [3]float32{float32(s.R), float32(s.G), float32(s.B)}
+				cache[k] = v
+			}
+			last = k
 		}
 		out.R[i], out.G[i], out.B[i] = v[0], v[1], v[2]
 	}
