@@ -231,3 +231,49 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 		})
 	}
 }
+
+// saliencyJS draws, in the service worker, the saliency benchmark's
+// chart (perception/saliency: 20 grey bars on white, one of them red) as
+// 600 × 400 RGBA pixels and times the core's judgement of it (the map
+// for normal vision and each CVD type's simulation) once cold, then five
+// times more, in ms.
+const saliencyJS = `(() => {
+  const w = 600, h = 400, px = new Uint8ClampedArray(4 * w * h).fill(255);
+  for (let k = 0; k < 20; k++) {
+    const bh = 60 + (k * 53) % 280, c = k === 13 ? [0xd1, 0x49, 0x5b] : [0x7d, 0x8a, 0x99];
+    for (let y = 380 - bh; y < 380; y++) for (let x = 20 + k * 28; x < 40 + k * 28; x++) px.set(c, 4 * (y * w + x));
+  }
+  const times = [];
+  for (let i = 0; i < 6; i++) {
+    const t0 = performance.now();
+    const r = JSON.parse(globalThis.standoutSaliency(px, w, h, 1));
+    if (!r.ok) throw new Error(r.error);
+    times.push(performance.now() - t0);
+  }
+  return JSON.stringify(times);
+})()`
+
+// BenchmarkBrowserSaliency600x400 reports how long the core in the
+// extension's service worker takes to judge a 600 × 400 chart drawn as
+// pixels, as a press does for each one: first-ms on the core's first
+// such call, ms the median of five more.
+//
+//	go test ./extension -run '^$' -bench BrowserSaliency -benchtime 1x
+func BenchmarkBrowserSaliency600x400(b *testing.B) {
+	var first, warm float64
+	for i := 0; i < b.N; i++ {
+		h := newHarness(b)
+		srv := serve(b, func(w http.ResponseWriter, r *http.Request) {
+			w.Header().Set("Content-Type", "text/html; charset=utf-8")
+			fmt.Fprint(w, scatterPage(10, ""))
+		})
+		h.open(srv.URL + "/")
+		h.clickToOverlay(b) // loads the core
+		var times []float64
+		require.NoError(b, json.Unmarshal([]byte(h.workerValue(saliencyJS)), &times))
+		b.Logf("saliency of 600×400 px, 5 vision types: %.0f ms first, then %v", times[0], times[1:])
+		first, warm = first+times[0], warm+median(times[1:])
+	}
+	b.ReportMetric(first/float64(b.N), "first-ms")
+	b.ReportMetric(warm/float64(b.N), "ms")
+}
