@@ -218,7 +218,7 @@ func pageFromRead(name string, r browser.PageResult, opt report.Options) (report
 	}
 	rp, err := report.FromSnapshots(name, pg.Snapshots, pg.Problems, opt)
 	rp.Unchecked = report.UncheckedOf(pg.Rasters)
-	rasterRegions(rp.Unchecked, r.Rasters, opt.Params.Severity, opt.Box)
+	rasterRegions(rp.Unchecked, r.Rasters, opt.Params.Severity, opt.Box, r.EmphasisBoxes)
 	report.PixelCharts(&rp)
 	report.PageFindings(&rp)
 	return rp, err

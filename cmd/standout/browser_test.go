@@ -470,6 +470,55 @@ func TestRasterChartsSalientRegions(t *testing.T) {
 	assert.Equal(t, [4]float64{0, 0, 480, 300}, static.Pages[0].Unchecked[2].Box)
 }
 
+// --emphasis with a selector reaches a chart drawn as pixels through an
+// element laid over it, such as a callout's frame: its box is the place
+// the eye should reach first, checked as a box would be.
+func TestSelectorEmphasisOnPixels(t *testing.T) {
+	needBrowser(t)
+	rasters, err := os.ReadFile(filepath.Join("testdata", "rasters.html"))
+	require.NoError(t, err)
+	dir := t.TempDir()
+	page := filepath.Join(dir, "callouts.html")
+	// Over the canvas (20 px from the left, 10 px below the first
+	// heading): one frame on the highlighted bar, one on a grey bar.
+	callouts := `<script>addEventListener('load', () => { const c = document.getElementById('piers').getBoundingClientRect();
+	for (const [cls, x, y] of [['on-highlight', 210, 155], ['on-grey', 10, 200]]) { const d = document.createElement('div'); d.className = cls;
+	Object.assign(d.style, {position: 'absolute', left: (c.left + scrollX + x) + 'px', top: (c.top + scrollY + y) + 'px', width: '26px', height: '60px', outline: '1px dashed #555'}); document.body.append(d); } });</script>`
+	require.NoError(t, os.WriteFile(page, []byte(strings.Replace(string(rasters), "</body>", callouts+"</body>", 1)), 0o644))
+	for sel, c := range map[string]struct {
+		x     float64
+		holds bool
+	}{".on-highlight": {210, true}, ".on-grey": {10, false}} {
+		holds := c.holds
+		code, out, errs := runCmd("check", "--browser", "--json", "--emphasis", sel, page)
+		require.Equal(t, 0, code, errs)
+		var got report.Report
+		require.NoError(t, json.Unmarshal([]byte(out), &got))
+		p := got.Pages[0]
+		require.NotEmpty(t, p.Unchecked)
+		u := p.Unchecked[0]
+		require.Equal(t, "canvas0", u.Name)
+		require.NotNil(t, u.Emphasis, sel)
+		assert.InDelta(t, u.Box[0]+c.x, u.Emphasis.Box[0], 1, sel)
+		assert.InDelta(t, 26, u.Emphasis.Box[2], 1, sel)
+		assert.Equal(t, holds, u.Emphasis.Holds["normal"], sel)
+		var charts []string
+		for _, ch := range p.Charts {
+			if ch.Emphasis != nil && ch.Emphasis.Box != nil {
+				charts = append(charts, ch.Path)
+			}
+		}
+		assert.Equal(t, []string{"canvas0"}, charts, "only the chart under the callout has it")
+		lost := false
+		for _, f := range p.Findings {
+			lost = lost || f.ID == "pixels-emphasis-lost" && f.Severity == "error"
+		}
+		assert.Equal(t, !holds, lost, sel)
+	}
+	code, _, errs := runCmd("check", "--browser", "--json", "--emphasis", ".nowhere", page)
+	assert.Equal(t, 2, code, "a selector that matches nothing is an error: %s", errs)
+}
+
 // A page on one loopback origin embeds a chart page served from another
 // (a different port is a different origin; "localhost" for 127.0.0.1 is
 // another site, which the browser runs in a process of its own), beside

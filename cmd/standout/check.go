@@ -42,7 +42,7 @@ func parseCheckFlags(args []string, stdout, stderr io.Writer) (*checkFlags, int)
 		"0 every page was checked and no finding reached --fail-on; 1 a finding reached --fail-on; 2 bad usage, or a page that could not be read or checked", stdout, stderr)
 	cf := &checkFlags{failRank: -1}
 	fs.BoolVar(&cf.asJSON, "json", false, "write the versioned JSON report")
-	emphasis := fs.String("emphasis", "", "the intended emphasis: mark ids (comma-separated), a CSS selector, or box:x,y,w,h in page px (the marks it holds; in a chart drawn as pixels, where the eye should go first)")
+	emphasis := fs.String("emphasis", "", "the intended emphasis: mark ids (comma-separated), a CSS selector, or box:x,y,w,h in page px (the marks it holds; in a chart drawn as pixels, where the eye should go first, or with --browser an element laid over it that the selector matches)")
 	severity := fs.Float64("cvd-severity", 1, "CVD severity within [0, 1] for the re-analysis")
 	distance := fs.Float64("distance-cm", colour.DefaultViewing.DistanceCM, "viewing distance in cm")
 	ppi := fs.Float64("px-per-inch", colour.DefaultViewing.CSSPxPerInch, "CSS px per physical inch")

@@ -14,8 +14,10 @@ import (
 // rasterRegions fills in the salient regions of each chart drawn as
 // pixels that the browser captured (shots, by name): the saliency map of
 // its pixels for normal vision and again on the pixels as each CVD type
-// sees them at severity, boxes in page CSS px.
-func rasterRegions(us []report.Unchecked, shots map[string][]byte, severity float64, box *[4]float64) {
+// sees them at severity, boxes in page CSS px. A declared emphasis in it,
+// --emphasis box:… or the box of an element the emphasis selector
+// matches (selected), is checked.
+func rasterRegions(us []report.Unchecked, shots map[string][]byte, severity float64, box *[4]float64, selected [][4]float64) {
 	for i := range us {
 		u := &us[i]
 		shot, ok := shots[u.Name]
@@ -37,6 +39,14 @@ func rasterRegions(us []report.Unchecked, shots map[string][]byte, severity floa
 		}
 		if box != nil {
 			u.Emphasis = report.EmphasisAt(u, *box)
+		}
+		// An element the emphasis selector matches, laid over the chart:
+		// the first one whose centre lies in it.
+		for _, b := range selected {
+			if u.Emphasis != nil {
+				break
+			}
+			u.Emphasis = report.EmphasisAt(u, b)
 		}
 	}
 }

@@ -29,6 +29,11 @@ type PageResult struct {
 	Rasters map[string][]byte
 	// Frames are the read pass's results in frames of other origins.
 	Frames []FrameRead
+	// EmphasisBoxes are the boxes, in page CSS px, of the elements outside
+	// any SVG that the emphasis selector matches in the page: a place in
+	// a chart drawn as pixels (an annotation laid over it, an image map's
+	// area), when rasters and an emphasis selector are asked for.
+	EmphasisBoxes [][4]float64
 	// LoadMs and ReadMs time the page load (until the DOM is stable) and
 	// the read pass.
 	LoadMs, ReadMs float64
@@ -244,6 +249,17 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 	}
 	r.JSON = js
 	r.ReadMs = float64(time.Since(t1).Microseconds()) / 1000
+	if o.Rasters && o.Emphasis != "" {
+		boxes, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(Array.from(document.querySelectorAll(`+string(quote(o.Emphasis))+`)).slice(0, 1000)
+			.filter((e) => !(e instanceof SVGElement)).map((e) => { const r = e.getBoundingClientRect(); return [r.left + scrollX, r.top + scrollY, r.width, r.height]; }))`, world))
+		if err == nil {
+			err = json.Unmarshal([]byte(boxes), &r.EmphasisBoxes)
+		}
+		if err != nil {
+			r.Err = fmt.Errorf("finding the emphasis %q on %s: %w", o.Emphasis, url, err)
+			return r
+		}
+	}
 	if o.Rasters {
 		if r.Rasters, err = rasterShots(ctx, head, r.Frames); err != nil {
 			r.Err = fmt.Errorf("capturing the charts drawn as pixels on %s: %w", url, err)
@@ -328,4 +344,10 @@ func headOf(readJSON string) (readHead, error) {
 	var h readHead
 	err := json.Unmarshal([]byte(readJSON), &h)
 	return h, err
+}
+
+// quote is s as a JSON (and so JavaScript) string literal.
+func quote(s string) []byte {
+	b, _ := json.Marshal(s)
+	return b
 }
