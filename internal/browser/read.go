@@ -250,12 +250,7 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 	r.JSON = js
 	r.ReadMs = float64(time.Since(t1).Microseconds()) / 1000
 	if o.Rasters && o.Emphasis != "" {
-		boxes, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(Array.from(document.querySelectorAll(`+string(quote(o.Emphasis))+`)).slice(0, 1000)
-			.filter((e) => !(e instanceof SVGElement)).map((e) => { const r = e.getBoundingClientRect(); return [r.left + scrollX, r.top + scrollY, r.width, r.height]; }))`, world))
-		if err == nil {
-			err = json.Unmarshal([]byte(boxes), &r.EmphasisBoxes)
-		}
-		if err != nil {
+		if r.EmphasisBoxes, err = emphasisBoxes(ctx, o.Emphasis, world); err != nil {
 			r.Err = fmt.Errorf("finding the emphasis %q on %s: %w", o.Emphasis, url, err)
 			return r
 		}
@@ -267,18 +262,20 @@ func readOne(bctx context.Context, url, reader string, o ReadOptions, view View)
 		}
 	}
 	if o.Screenshot {
-		shot, err := chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
-			beyond := true
-			res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng, CaptureBeyondViewport: &beyond})
-			return res.Data, err
-		})
-		if err != nil {
+		if r.Screenshot, err = fullPage(ctx); err != nil {
 			r.Err = fmt.Errorf("screenshot of %s: %w", url, err)
-			return r
 		}
-		r.Screenshot = shot
 	}
 	return r
+}
+
+// fullPage is a PNG of the page's full height.
+func fullPage(ctx context.Context) ([]byte, error) {
+	return chromedp.Run(ctx, func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
+		beyond := true
+		res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{Format: page.CaptureScreenshotFormatPng, CaptureBeyondViewport: &beyond})
+		return res.Data, err
+	})
 }
 
 // MaxRasterShots bounds the charts drawn as pixels captured on one page,
@@ -344,6 +341,19 @@ func headOf(readJSON string) (readHead, error) {
 	var h readHead
 	err := json.Unmarshal([]byte(readJSON), &h)
 	return h, err
+}
+
+// emphasisBoxes finds the boxes, in page CSS px, of the first 1,000
+// elements outside any SVG that the selector matches, in the read pass's
+// isolated world.
+func emphasisBoxes(ctx context.Context, selector string, world chromedp.EvaluateOption) ([][4]float64, error) {
+	js, err := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify(Array.from(document.querySelectorAll(`+string(quote(selector))+`)).slice(0, 1000)
+		.filter((e) => !(e instanceof SVGElement)).map((e) => { const r = e.getBoundingClientRect(); return [r.left + scrollX, r.top + scrollY, r.width, r.height]; }))`, world))
+	if err != nil {
+		return nil, err
+	}
+	var out [][4]float64
+	return out, json.Unmarshal([]byte(js), &out)
 }
 
 // quote is s as a JSON (and so JavaScript) string literal.
