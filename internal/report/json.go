@@ -164,11 +164,11 @@ func appendChart(b []byte, c *Chart) []byte {
 		}
 		b = append(b, '}')
 	}
-	return appendRegions(b, c.Regions, c.CVD)
+	return append(appendRegions(b, c.Regions, c.CVD), '}')
 }
 
-// appendRegions writes the salient regions of a chart drawn as pixels and
-// their CVD re-runs, when there are any, and closes the object.
+// appendRegions writes the fields of the salient regions of a chart drawn
+// as pixels and of their CVD re-runs, when there are any.
 func appendRegions(b []byte, regions []Region, cvd map[string][]Region) []byte {
 	if len(regions) > 0 {
 		b = append(b, `,"regions":`...)
@@ -178,7 +178,7 @@ func appendRegions(b []byte, regions []Region, cvd map[string][]Region) []byte {
 		b = append(b, `,"cvd":`...)
 		b = jsonio.AppendMap(b, cvd, func(b []byte, rs []Region) []byte { return appendList(b, rs, appendRegion) })
 	}
-	return append(b, '}')
+	return b
 }
 
 // appendOptString writes ,"key":"value" unless the value is empty.
@@ -321,15 +321,7 @@ func appendUnchecked(b []byte, u *Unchecked) []byte {
 	b = append(b, `,"name":`...)
 	b = jsonio.AppendString(b, u.Name)
 	b = append(b, `,"box":`...)
-	b = appendBox(b, u.Box)
-	if len(u.Regions) > 0 {
-		b = append(b, `,"regions":`...)
-		b = appendList(b, u.Regions, appendRegion)
-	}
-	if len(u.CVD) > 0 {
-		b = append(b, `,"cvd":`...)
-		b = jsonio.AppendMap(b, u.CVD, func(b []byte, rs []Region) []byte { return appendList(b, rs, appendRegion) })
-	}
+	b = appendRegions(appendBox(b, u.Box), u.Regions, u.CVD)
 	if u.Emphasis != nil {
 		b = append(b, `,"emphasis":{"box":`...)
 		b = appendBox(b, u.Emphasis.Box)
