@@ -881,6 +881,58 @@ func suiteChartDrawnAsPixels(t *testing.T, h e2eBrowser) {
 	firstRegionHoldsTheBar(t, ov, "canvas0")
 }
 
+func TestE2EBusyWhileChecking(t *testing.T) { suiteBusyWhileChecking(t, newHarness(t)) }
+
+// suiteBusyWhileChecking: between a press's read and its answer the host
+// shows that the check is on its way (state "reading", a status panel),
+// so the reader sees the press was taken. On a page with a chart drawn as
+// pixels the busy panel is laid out but hidden while the tab is captured,
+// and the chart's regions are still found on its own pixels.
+func suiteBusyWhileChecking(t *testing.T, h e2eBrowser) {
+	srv := serve(h.tb(), func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		fmt.Fprint(w, `<!doctype html><html><body style="margin:0">`+chartSVG+`</body></html>`)
+	})
+	h.open(srv.URL + "/")
+	h.eval(`(() => { window.__states = [];
+	  new MutationObserver(() => {
+	    const e = document.querySelector('` + hostSelector + `'), s = e && e.getAttribute('data-state');
+	    if (s && window.__states[window.__states.length - 1] !== s) window.__states.push(s);
+	  }).observe(document.documentElement, { subtree: true, childList: true, attributes: true });
+	  return ''; })()`)
+	trigger(h)
+	waitState(h, "ready")
+	assert.Equal(t, `["reading","ready"]`, h.eval(`JSON.stringify(window.__states)`), "the host's states from the press to the answer")
+	trigger(h) // close
+	waitState(h, "")
+
+	page, err := os.ReadFile(filepath.Join("..", "cmd", "standout", "testdata", "rasters.html"))
+	require.NoError(t, err)
+	srv2 := serve(h.tb(), func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/html; charset=utf-8")
+		w.Write(page)
+	})
+	h.open(srv2.URL + "/")
+	trigger(h)
+	// The capture of the tab, and the five maps of each chart, keep the
+	// press in its reading state for hundreds of ms.
+	busy := ""
+	for deadline := time.Now().Add(45 * time.Second); time.Now().Before(deadline) && busy == ""; {
+		switch state(h) {
+		case "reading":
+			if ov := h.overlayHTML(); strings.Contains(ov, `class="panel busy"`) {
+				busy = ov
+			}
+		case "ready", "error":
+			deadline = time.Now()
+		}
+	}
+	require.NotEmpty(t, busy, "the busy panel was not seen while the charts drawn as pixels were judged")
+	assert.Regexp(t, `class="panel busy" role="status" style="visibility: hidden;"`, busy)
+	waitState(h, "ready")
+	firstRegionHoldsTheBar(t, h.overlayHTML(), "canvas0")
+}
+
 // firstRegionHoldsTheBar checks that the region the overlay ranks first on
 // a chart of testdata/rasters.html, in the chart's own pixels, holds the
 // highlighted bar's centre: the bar is 26 × 125 px at 210, 155.

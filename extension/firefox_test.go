@@ -19,6 +19,7 @@ func TestFirefoxE2E(t *testing.T) {
 		{"ExportMarkdownAndPNG", suiteExportMarkdownAndPNG},
 		{"ReRunsWhenTheChartChanges", suiteReRunsWhenTheChartChanges},
 		{"ChartDrawnAsPixels", suiteChartDrawnAsPixels},
+		{"BusyWhileChecking", suiteBusyWhileChecking},
 		{"DarkCanvasUnderTheChart", suiteDarkCanvasUnderTheChart},
 		{"ChartsBelowTheFold", suiteChartsBelowTheFold},
 		{"PickOnPixels", suitePickOnPixels},

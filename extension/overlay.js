@@ -30,6 +30,7 @@
   .panel { position: fixed; top: 12px; right: 12px; width: 360px; max-height: calc(100vh - 24px); overflow: auto;
     background: ${INK.paper}; color: ${INK.ink}; font: 13px/1.45 system-ui, sans-serif; border: 2px solid ${INK.ink};
     border-radius: 6px; box-shadow: 0 4px 18px rgba(0,0,0,.25); pointer-events: auto; padding: 10px 12px; }
+  .panel.busy { width: auto; }
   .panel h1 { font-size: 15px; margin: 0 0 6px; }
   .panel h2 { font-size: 13px; margin: 10px 0 4px; }
   .panel p { margin: 4px 0; }
@@ -713,7 +714,7 @@
       svg.appendChild(t);
     };
     svg.appendChild(svgEl('path', { d: `M${left} ${top}V${top + h}H${left + w}`, fill: 'none', stroke: INK.quiet }));
-    for (const k of [10, 100, 1000, 10000]) text(x(k), top + h + 12, k.toLocaleString('en'), 'middle');
+    for (const [k, s] of [[10, '10'], [100, '100'], [1000, '1,000'], [10000, '10,000']]) text(x(k), top + h + 12, s, 'middle');
     text(left + w / 2, H - 3, 'marks in the chart', 'middle');
     text(left - 4, top + 4, `${+(ymax / 1000).toFixed(1)} s`, 'end');
     text(left - 4, top + h, '0', 'end');
@@ -949,7 +950,8 @@
     listen(window, 'scroll', schedulePosition, { capture: true, passive: true });
     listen(window, 'resize', schedulePosition, { passive: true });
     listen(window, 'keydown', (ev) => {
-      if (ev.key === 'Escape' && isOpen()) {
+      // Escape closes a check that is shown, or one on its way.
+      if (ev.key === 'Escape' && state.machine.phase !== 'closed') {
         ev.preventDefault();
         dispatch({ type: 'close' });
       }
@@ -1048,7 +1050,26 @@
     // cut them from a capture of the visible tab.
     const de = document.documentElement;
     const view = { x: window.scrollX, y: window.scrollY, w: de.clientWidth || window.innerWidth, h: de.clientHeight || window.innerHeight };
-    return { json, seq, readMs: page.readMs, stringifyMs: performance.now() - t1, rasters: page.rasters, frames: page.unreadFrames, view };
+    const stringifyMs = performance.now() - t1;
+    if (state.machine.phase === 'reading' && !state.host) busy(page.rasters.length > 0);
+    return { json, seq, readMs: page.readMs, stringifyMs, rasters: page.rasters, frames: page.unreadFrames, view };
+  }
+
+  // busy shows, once a press has read the page, that its check is on the
+  // way: the reader sees at once that the press was taken, and the page
+  // lays out the host (its style sheet, fonts and first layout) while the
+  // core works in the background rather than after it. When charts drawn
+  // as pixels wait to be captured the panel is laid out but not shown, so
+  // that no capture holds it.
+  function busy(hidden) {
+    ensureHost();
+    const panel = el('div', { class: 'panel busy', role: 'status' });
+    panel.appendChild(el('h1', {}, 'Standout'));
+    panel.appendChild(el('p', {}, 'Checking the page\u2019s charts\u2026'));
+    if (hidden) panel.style.setProperty('visibility', 'hidden');
+    state.panel.replaceWith(panel);
+    state.panel = panel;
+    state.host.setAttribute('data-state', 'reading');
   }
 
   // press is the toolbar action: it closes an open check (or one being
