@@ -884,8 +884,9 @@ func suiteChartDrawnAsPixels(t *testing.T, h e2eBrowser) {
 func TestE2EBusyWhileChecking(t *testing.T) { suiteBusyWhileChecking(t, newHarness(t)) }
 
 // suiteBusyWhileChecking: between a press's read and its answer the host
-// shows that the check is on its way (state "reading", a status panel),
-// so the reader sees the press was taken. On a page with a chart drawn as
+// shows that the check is on its way (state "reading"; the panel's head,
+// whose controls but Close wait, and a status line), so the reader sees
+// the press was taken. On a page with a chart drawn as
 // pixels the busy panel is laid out but hidden while the tab is captured,
 // and the chart's regions are still found on its own pixels.
 func suiteBusyWhileChecking(t *testing.T, h e2eBrowser) {
@@ -928,9 +929,25 @@ func suiteBusyWhileChecking(t *testing.T, h e2eBrowser) {
 		}
 	}
 	require.NotEmpty(t, busy, "the busy panel was not seen while the charts drawn as pixels were judged")
-	assert.Regexp(t, `class="panel busy" role="status" style="visibility: hidden;"`, busy)
+	assert.Regexp(t, `<div class="panel busy" [^>]*aria-busy="true" style="visibility: hidden;">`, busy)
+	assert.Contains(t, busy, `<p role="status">Checking the page’s charts…</p>`)
+	// Until the answer only Close works.
+	assert.Contains(t, busy, `data-action="pick" disabled="">`)
+	assert.Contains(t, busy, `data-action="cvd" disabled="">`)
+	assert.Contains(t, busy, `data-action="close">Close</button>`)
 	waitState(h, "ready")
 	firstRegionHoldsTheBar(t, h.overlayHTML(), "canvas0")
+
+	// Escape closes a check on its way, and its answer, when it comes, is
+	// dropped: the page stays as it was.
+	trigger(h) // close
+	waitState(h, "")
+	trigger(h)
+	waitState(h, "reading")
+	h.pressKey("Escape")
+	waitState(h, "")
+	time.Sleep(3 * time.Second) // the capture and the maps take about a second
+	assert.Equal(t, "", state(h), "a check closed on its way came back")
 }
 
 // firstRegionHoldsTheBar checks that the region the overlay ranks first on

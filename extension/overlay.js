@@ -30,7 +30,6 @@
   .panel { position: fixed; top: 12px; right: 12px; width: 360px; max-height: calc(100vh - 24px); overflow: auto;
     background: ${INK.paper}; color: ${INK.ink}; font: 13px/1.45 system-ui, sans-serif; border: 2px solid ${INK.ink};
     border-radius: 6px; box-shadow: 0 4px 18px rgba(0,0,0,.25); pointer-events: auto; padding: 10px 12px; }
-  .panel.busy { width: auto; }
   .panel h1 { font-size: 15px; margin: 0 0 6px; }
   .panel h2 { font-size: 13px; margin: 10px 0 4px; }
   .panel p { margin: 4px 0; }
@@ -352,18 +351,18 @@
     return s;
   }
 
-  function buildPanel(result) {
-    const page = result.report.pages[0];
-    const panel = el('div', { class: 'panel', role: 'dialog', 'aria-labelledby': 'standout-title', 'aria-modal': 'false' });
-    panel.appendChild(el('h1', { id: 'standout-title' }, 'Standout'));
-
+  // panelHead is the top of the panel, the same for every answer: the
+  // title, the outline key and the controls. While the check is on its way
+  // (waiting) only Close works.
+  function panelHead(waiting) {
+    const out = [el('h1', { id: 'standout-title' }, 'Standout')];
     const key = el('div', { class: 'row key', 'aria-label': 'Outline key' });
     for (const v of ['pops', 'conjunction', 'blends']) {
       const item = el('span');
       item.append(keySample(v), document.createTextNode(' ' + WORDS[v]));
       key.appendChild(item);
     }
-    panel.appendChild(key);
+    out.push(key);
 
     const controls = el('div', { class: 'row' });
     const pick = el('button', { type: 'button', 'aria-pressed': String(state.view.picking), 'data-action': 'pick' }, 'Pick the point of the chart');
@@ -373,7 +372,7 @@
     const close = el('button', { type: 'button', 'data-action': 'close' }, 'Close');
     on(close, 'click', () => dispatch({ type: 'close' }));
     controls.append(pick, apply, close);
-    panel.appendChild(controls);
+    out.push(controls);
 
     const cvd = el('div', { class: 'row' });
     const lab = el('label', { for: 'standout-cvd' }, 'Preview as:');
@@ -393,8 +392,7 @@
     on(sev, 'input', update);
     on(scope, 'change', update);
     cvd.append(lab, sel, sevLab, sev, scopeLab, scope);
-    panel.appendChild(cvd);
-    panel.appendChild(screenView());
+    out.push(cvd, screenView());
 
     const exp = el('div', { class: 'row' });
     const bJSON = el('button', { type: 'button', 'data-action': 'export-json' }, 'Export JSON');
@@ -404,7 +402,19 @@
     const bPNG = el('button', { type: 'button', 'data-action': 'export-png' }, 'Export PNG');
     on(bPNG, 'click', () => exportPNG());
     exp.append(bJSON, bMD, bPNG);
-    panel.appendChild(exp);
+    out.push(exp);
+    if (waiting) {
+      for (const e of out) {
+        for (const c of e.querySelectorAll('button, select, input')) if (c.getAttribute('data-action') !== 'close') c.disabled = true;
+      }
+    }
+    return out;
+  }
+
+  function buildPanel(result) {
+    const page = result.report.pages[0];
+    const panel = el('div', { class: 'panel', role: 'dialog', 'aria-labelledby': 'standout-title', 'aria-modal': 'false' });
+    panel.append(...panelHead(false));
 
     for (const pr of page.problems || []) panel.appendChild(el('p', {}, 'Note: ' + pr));
     let n = 0;
@@ -1051,21 +1061,28 @@
     const de = document.documentElement;
     const view = { x: window.scrollX, y: window.scrollY, w: de.clientWidth || window.innerWidth, h: de.clientHeight || window.innerHeight };
     const stringifyMs = performance.now() - t1;
-    if (state.machine.phase === 'reading' && !state.host) busy(page.rasters.length > 0);
+    if (state.machine.phase === 'reading' && !state.host) {
+      // After the reading has gone to the background, not before.
+      const hidden = page.rasters.length > 0;
+      setTimeout(() => {
+        if (state.machine.phase === 'reading' && state.machine.seq === seq && !state.host) busy(hidden);
+      });
+    }
     return { json, seq, readMs: page.readMs, stringifyMs, rasters: page.rasters, frames: page.unreadFrames, view };
   }
 
   // busy shows, once a press has read the page, that its check is on the
-  // way: the reader sees at once that the press was taken, and the page
-  // lays out the host (its style sheet, fonts and first layout) while the
-  // core works in the background rather than after it. When charts drawn
-  // as pixels wait to be captured the panel is laid out but not shown, so
-  // that no capture holds it.
+  // way: the panel's head, whose controls wait for the answer, and a
+  // status line. The reader sees at once that the press was taken, and the
+  // page lays out the overlay (its style sheet, fonts, form controls)
+  // while the core works in the background, rather than after it. When
+  // charts drawn as pixels wait to be captured the panel is laid out but
+  // not shown, so that no capture holds it.
   function busy(hidden) {
     ensureHost();
-    const panel = el('div', { class: 'panel busy', role: 'status' });
-    panel.appendChild(el('h1', {}, 'Standout'));
-    panel.appendChild(el('p', {}, 'Checking the page\u2019s charts\u2026'));
+    const panel = el('div', { class: 'panel busy', role: 'dialog', 'aria-labelledby': 'standout-title', 'aria-modal': 'false', 'aria-busy': 'true' });
+    panel.append(...panelHead(true));
+    panel.appendChild(el('p', { role: 'status' }, 'Checking the page\u2019s charts\u2026'));
     if (hidden) panel.style.setProperty('visibility', 'hidden');
     state.panel.replaceWith(panel);
     state.panel = panel;
