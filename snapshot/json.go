@@ -791,6 +791,13 @@ var RasterMin = [2]float64{100, 60}
 // MaxRasters bounds the rasters a page reports.
 const MaxRasters = 1000
 
+// pageKeys and rasterKeys are the fields of PageJSON and Raster, whose
+// keys the decoder folds as encoding/json does (fold).
+var (
+	pageKeys   = []string{"source", "snapshots", "problems", "rasters"}
+	rasterKeys = []string{"tag", "name", "box"}
+)
+
 // DecodePage decodes the read pass's result,
 // {"source": …, "snapshots": […], "problems": […], …}, with the fast
 // scanner throughout (encoding/json would first scan the whole input to
@@ -800,7 +807,7 @@ func DecodePage(b []byte) (*PageJSON, error) {
 	var p PageJSON
 	err := d.Object(func(key string) error {
 		var err error
-		switch key {
+		switch fold(key, pageKeys) {
 		case "source":
 			p.Source, err = d.Text()
 		case "problems":
@@ -853,7 +860,7 @@ func decodeRasters(d *jsonio.Scanner) ([]Raster, error) {
 		var r Raster
 		err := d.Object(func(key string) error {
 			var err error
-			switch key {
+			switch fold(key, rasterKeys) {
 			case "tag":
 				r.Tag, err = d.Text()
 			case "name":
