@@ -192,7 +192,7 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 				h.open(srv.URL + "/")
 				p := h.clickToOverlay(b)
 				cold += p.Ready
-				b.Logf("%d marks, cold press: %.0f ms to ready; %+v", n, p.Ready, p.Timing)
+				b.Logf("%d marks, cold press: %.0f ms to ready, %.0f ms to the frame; %+v", n, p.Ready, p.Painted, p.Timing)
 				h.trigger() // close
 				h.waitState("")
 				var ws, ps, rs, ts, cs, ds []float64

@@ -1000,11 +1000,14 @@
       state.pixels = result.pixels;
       state.pixelPick = null;
     }
+    // The outlines first: placing them reads the charts' boxes, which
+    // forces a layout, and the panel already shown (the busy one) is laid
+    // out by now; the new panel is laid out once, with the frame.
+    drawLayers(result.report.pages[0]);
+    drawPixels(state.pixels || []);
     const panel = buildPanel(result);
     state.panel.replaceWith(panel);
     state.panel = panel;
-    drawLayers(result.report.pages[0]);
-    drawPixels(state.pixels || []);
     // The view, the preview included, over the charts as they now are.
     renderView(true);
     result.timing.renderMs = performance.now() - t0;
