@@ -211,16 +211,7 @@ json.dump(out, sys.stdout)
 `
 
 func TestSimulateAgainstColorspacious(t *testing.T) {
-	py := "/usr/bin/python3"
-	if _, err := os.Stat(py); err != nil {
-		py = "python3"
-	}
-	if err := exec.Command(py, "-c", "import colorspacious").Run(); err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatalf("python3-colorspacious is required under CI=true (apt-get install python3-colorspacious): %v", err)
-		}
-		t.Skip("python3-colorspacious not installed")
-	}
+	py := testkit.Python(t, "import colorspacious", "python3-colorspacious")
 	type req struct {
 		Type     string      `json:"type"`
 		Severity float64     `json:"severity"`

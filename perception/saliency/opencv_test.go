@@ -16,6 +16,8 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"standout/internal/testkit"
 )
 
 // python3 with Debian's python3-opencv (4.6, its contrib saliency module):
@@ -44,16 +46,7 @@ json.dump(out, sys.stdout)
 // map for map: without N(·) the fine-grained map keeps every repeated
 // edge, and on a smooth field it peaks at the image's border.)
 func TestIntensitySingletonsAgreeWithOpenCV(t *testing.T) {
-	py := "/usr/bin/python3"
-	if _, err := os.Stat(py); err != nil {
-		py = "python3"
-	}
-	if err := exec.Command(py, "-c", "import cv2; cv2.saliency.StaticSaliencyFineGrained_create()").Run(); err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatalf("python3-opencv is required under CI=true (apt-get install python3-opencv): %v", err)
-		}
-		t.Skip("python3-opencv not installed")
-	}
+	py := testkit.Python(t, "import cv2; cv2.saliency.StaticSaliencyFineGrained_create()", "python3-opencv")
 	type display struct {
 		name   string
 		img    *Image
