@@ -137,9 +137,7 @@ func (res *Result) positionExtremes(in Input, p Params) {
 			nn[j] = math.Hypot(a.X-b.X, a.Y-b.Y)
 		}
 	}
-	sorted := slices.Clone(nn)
-	slices.Sort(sorted)
-	median := sorted[len(sorted)/2]
+	median := upperMedian(slices.Clone(nn))
 	if median <= 0 {
 		return
 	}

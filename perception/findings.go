@@ -452,7 +452,7 @@ func luminanceApart(cols []*category) bool {
 func mergedForCVD(cols []*category, p Params, out []Finding) []Finding {
 	for _, v := range Visions[1:] {
 		var pairs []string
-		var marks []int
+		merged := make([]bool, len(cols))
 		for a := range cols {
 			for b := a + 1; b < len(cols); b++ {
 				la, lb := colour.SRGBToLab(cols[a].c), colour.SRGBToLab(cols[b].c)
@@ -464,13 +464,12 @@ func mergedForCVD(cols []*category, p Params, out []Finding) []Finding {
 				sb := colour.SRGBToLab(colour.Simulate(v, p.Severity, cols[b].c))
 				if !colour.Noticeable(sa, sb, nd) {
 					pairs = append(pairs, cols[a].shown+" and "+cols[b].shown)
-					marks = append(marks, cols[a].marks...)
-					marks = append(marks, cols[b].marks...)
+					merged[a], merged[b] = true, true
 				}
 			}
 		}
 		if len(pairs) > 0 {
-			out = append(out, Finding{ID: "categories-merge-cvd", Severity: Warning, Marks: dedupe(marks),
+			out = append(out, Finding{ID: "categories-merge-cvd", Severity: Warning, Marks: categoryMarks(cols, merged),
 				Message:  capital(readers(v)) + " see " + strings.Join(pairs, "; ") + " as the same colour, so they cannot tell those categories apart. Change one colour of each pair in lightness, or label the categories.",
 				Evidence: "Under one noticeable difference apart at this mark size in the simulation of " + v.String() + " vision.",
 				Source:   srcCVD + "; " + srcND})
@@ -526,6 +525,33 @@ func groupingFindings(res *Result) []Finding {
 				Message:  "The groups that " + string(a.A) + " and " + string(a.B) + " make are the same: the two cues tell one story.",
 				Evidence: "Adjusted Rand index " + ff(a.ARI, 2) + " between the two groupings.",
 				Source:   srcGroup})
+		}
+	}
+	return out
+}
+
+// categoryMarks lists, ascending, the marks of the categories flagged in
+// which (the categories' lists are ascending and share no mark): a pass
+// over a bitmap rather than a sort of every pair's marks.
+func categoryMarks(cols []*category, which []bool) []int {
+	end, n := 0, 0
+	for c, ok := range which {
+		if m := cols[c].marks; ok && len(m) > 0 {
+			end, n = max(end, m[len(m)-1]+1), n+len(m)
+		}
+	}
+	in := make([]bool, end)
+	for c, ok := range which {
+		if ok {
+			for _, i := range cols[c].marks {
+				in[i] = true
+			}
+		}
+	}
+	out := make([]int, 0, n)
+	for i, ok := range in {
+		if ok {
+			out = append(out, i)
 		}
 	}
 	return out

@@ -142,8 +142,7 @@ func proximityGroups(xs, ys []float64, nb [][]int, ratio float64) unionFind {
 			nn[k] = math.Hypot(xs[j]-xs[k], ys[j]-ys[k])
 		}
 	}
-	slices.Sort(nn)
-	thr := ratio * nn[n/2]
+	thr := ratio * upperMedian(nn)
 	uf := newUF(n)
 	if thr > 0 {
 		thr2 := thr * thr

@@ -1,7 +1,10 @@
 package perception
 
 import (
+	"cmp"
 	"math"
+	"math/bits"
+	"slices"
 )
 
 // grid is a uniform spatial index of points (a dense bucket grid in
@@ -154,4 +157,57 @@ func (g *grid) within(x, y, r float64) []int {
 		}
 	}
 	return out
+}
+
+// upperMedian is the element at position len(v)/2 of v in ascending order
+// (slices.Sort's order: NaN first), found by selection in expected linear
+// time rather than by a sort; it reorders v, which must not be empty.
+// Middle-of-three pivots, and a sort once the selection has taken too
+// many rounds, keep crafted input from making it quadratic.
+func upperMedian(v []float64) float64 {
+	want := len(v) / 2
+	lo, hi := 0, len(v)-1
+	for rounds := 2 * bits.Len(uint(len(v))); lo < hi; rounds-- {
+		if rounds == 0 {
+			slices.Sort(v[lo : hi+1])
+			break
+		}
+		mid := lo + (hi-lo)/2
+		// Order v[lo], v[mid], v[hi]: the middle one is the pivot, and the
+		// outer two stop the scans below.
+		if cmp.Less(v[mid], v[lo]) {
+			v[mid], v[lo] = v[lo], v[mid]
+		}
+		if cmp.Less(v[hi], v[lo]) {
+			v[hi], v[lo] = v[lo], v[hi]
+		}
+		if cmp.Less(v[hi], v[mid]) {
+			v[hi], v[mid] = v[mid], v[hi]
+		}
+		pivot := v[mid]
+		i, j := lo, hi
+		for i <= j {
+			for cmp.Less(v[i], pivot) {
+				i++
+			}
+			for cmp.Less(pivot, v[j]) {
+				j--
+			}
+			if i <= j {
+				v[i], v[j] = v[j], v[i]
+				i++
+				j--
+			}
+		}
+		// Now v[lo..j] ≤ pivot ≤ v[i..hi], and v[j+1..i-1] equal it.
+		switch {
+		case want <= j:
+			hi = j
+		case want >= i:
+			lo = i
+		default:
+			return v[want]
+		}
+	}
+	return v[want]
 }

@@ -3,6 +3,7 @@ package perception
 import (
 	"math"
 	"math/rand"
+	"slices"
 	"sort"
 	"testing"
 
@@ -71,6 +72,42 @@ func TestKNNTiesOnALattice(t *testing.T) {
 			for _, k := range []int{3, 6, 8} {
 				assert.Equal(t, ref.knn(i, k), g.knn(i, k), "i=%d k=%d perCell=%v", i, k, perCell)
 			}
+		}
+	}
+}
+
+// upperMedian picks what sorting with the standard library picks, on
+// random values with many ties, NaNs and infinities, and on the orders
+// that defeat naive pivots (sorted, reversed, organ pipe, all equal).
+func TestUpperMedianMatchesSort(t *testing.T) {
+	rng := rand.New(rand.NewSource(7))
+	pools := [][]float64{{0, 1, 2}, {math.NaN(), math.Inf(-1), math.Inf(1), 0, math.Copysign(0, -1), 3}, nil}
+	for trial := 0; trial < 4000; trial++ {
+		n := 1 + rng.Intn(300)
+		v := make([]float64, n)
+		pool := pools[trial%len(pools)]
+		for i := range v {
+			switch {
+			case trial%7 == 1:
+				v[i] = float64(i)
+			case trial%7 == 2:
+				v[i] = float64(n - i)
+			case trial%7 == 3:
+				v[i] = float64(min(i, n-i))
+			case trial%7 == 4:
+				v[i] = 5
+			case pool != nil:
+				v[i] = pool[rng.Intn(len(pool))]
+			default:
+				v[i] = rng.NormFloat64()
+			}
+		}
+		want := slices.Clone(v)
+		slices.Sort(want)
+		got, w := upperMedian(slices.Clone(v)), want[n/2]
+		// 0 and -0 are equal to both, so either may stand there.
+		if got != w && !(math.IsNaN(got) && math.IsNaN(w)) {
+			t.Fatalf("trial %d: upperMedian(%v) = %v, slices.Sort gives %v", trial, v, got, w)
 		}
 	}
 }
