@@ -1005,8 +1005,9 @@
       state.pixelPick = null;
     }
     // The outlines first: placing them reads the charts' boxes, which
-    // forces a layout, and the panel already shown (the busy one) is laid
-    // out by now; the new panel is laid out once, with the frame.
+    // forces a layout, and the panel already shown, if any (the busy one,
+    // or a re-check's last answer), is laid out by now; the new panel is
+    // laid out once, with the frame.
     drawLayers(result.report.pages[0]);
     drawPixels(state.pixels || []);
     const panel = buildPanel(result);
