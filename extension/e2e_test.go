@@ -937,12 +937,10 @@ func suiteBusyWhileChecking(t *testing.T, h e2eBrowser) {
 	// Charts drawn as pixels below the fold: each is scrolled into view
 	// and captured, the captures spaced by CAPTURE_GAP_MS (background.js),
 	// which keeps a press in its reading state for over a second.
-	page, err := os.ReadFile(filepath.Join("..", "cmd", "standout", "testdata", "rasters.html"))
-	require.NoError(t, err)
-	page = []byte(strings.Replace(string(page), "<body>", `<body><div style="height: 1400px">A long story before the charts.</div>`, 1))
+	page := rastersBelowTheFold(t)
 	srv2 := serve(h.tb(), func(w http.ResponseWriter, r *http.Request) {
 		w.Header().Set("Content-Type", "text/html; charset=utf-8")
-		w.Write(page)
+		fmt.Fprint(w, page)
 	})
 	h.open(srv2.URL + "/")
 	trigger(h)
@@ -1125,15 +1123,18 @@ func suiteDarkCanvasUnderTheChart(t *testing.T, h e2eBrowser) {
 
 func TestE2EChartsBelowTheFold(t *testing.T) { suiteChartsBelowTheFold(t, newHarness(t)) }
 
-// Charts drawn as pixels below the fold (testdata/rasters.html after a
-// screen of text): the press scrolls each into view for a capture of its
-// own, judges its pixels, and leaves the page scrolled where the reader
-// had it.
-func suiteChartsBelowTheFold(t *testing.T, h e2eBrowser) {
+// rastersBelowTheFold is testdata/rasters.html after a screen of text.
+func rastersBelowTheFold(t *testing.T) string {
 	page, err := os.ReadFile(filepath.Join("..", "cmd", "standout", "testdata", "rasters.html"))
 	require.NoError(t, err)
-	body := strings.Replace(string(page), "<body>", `<body><div style="height: 1400px">A long story before the charts.</div>`, 1)
-	showPage(h, body)
+	return strings.Replace(string(page), "<body>", `<body><div style="height: 1400px">A long story before the charts.</div>`, 1)
+}
+
+// Charts drawn as pixels below the fold (rastersBelowTheFold): the press
+// scrolls each into view for a capture of its own, judges its pixels, and
+// leaves the page scrolled where the reader had it.
+func suiteChartsBelowTheFold(t *testing.T, h e2eBrowser) {
+	showPage(h, rastersBelowTheFold(t))
 	ov := h.overlayHTML()
 	for _, name := range []string{"canvas0", "img0", "background0"} {
 		assert.Regexp(t, name+`: the eye is predicted to go first to the outlined region`, ov, "%s was judged", name)
