@@ -52,6 +52,16 @@ var (
 	buildErr  error
 )
 
+// TestMain removes the extension that built made, once every test of the
+// binary is done with it.
+func TestMain(m *testing.M) {
+	code := m.Run()
+	if builtDir != "" {
+		os.RemoveAll(builtDir)
+	}
+	os.Exit(code)
+}
+
 // built builds the extension once per test binary.
 func built(t testing.TB) string {
 	buildOnce.Do(func() {
