@@ -7,7 +7,7 @@ package layers
 // Layer is each package's layer, counted from the bottom. Packages of one
 // layer do not import each other.
 var Layer = map[string]int{
-	"perception/colour": 0, // colour science; imports go-colorful only
+	"perception/colour": 0, // colour science
 	"internal/jsonio":   0, // JSON read and written in place
 	"internal/svgnum":   0, // the SVG number grammar
 	"internal/demo":     0, // the demo pages

@@ -16,11 +16,37 @@ type LCh struct{ L, C, H float64 }
 //	L* = 116 f(Y/Yn) − 16,  a* = 500 (f(X/Xn) − f(Y/Yn)),  b* = 200 (f(Y/Yn) − f(Z/Zn))
 //	f(t) = t^(1/3) if t > ε, else (κ t + 16)/116,  ε = 216/24389, κ = 24389/27
 //
-// The arithmetic is go-colorful's (see colorful.go).
-func XYZToLab(c XYZ) Lab { return xyzToLab(c) }
+// Written here rather than taken from a colour library, so that the core
+// in the extension links no library it would carry for three formulas;
+// lab_test.go holds it to go-colorful's conversion.
+func XYZToLab(c XYZ) Lab {
+	fy := labF(c.Y / D65.Y)
+	return Lab{116*fy - 16, 500 * (labF(c.X/D65.X) - fy), 200 * (fy - labF(c.Z/D65.Z))}
+}
 
-// LabToXYZ is the inverse of XYZToLab.
-func LabToXYZ(c Lab) XYZ { return labToXYZ(c) }
+// LabToXYZ is the inverse of XYZToLab (CIE 15:2004 §8.2.1.2).
+func LabToXYZ(c Lab) XYZ {
+	fy := (c.L + 16) / 116
+	return XYZ{D65.X * labFInv(fy+c.A/500), D65.Y * labFInv(fy), D65.Z * labFInv(fy-c.B/200)}
+}
+
+// Lab's companding function f and its inverse, with δ = 6/29: ε = δ³, and
+// (κ t + 16)/116 = t/(3δ²) + 4/29.
+const labDelta = 6.0 / 29.0
+
+func labF(t float64) float64 {
+	if t > labDelta*labDelta*labDelta {
+		return math.Cbrt(t)
+	}
+	return t/(3*labDelta*labDelta) + 4.0/29.0
+}
+
+func labFInv(t float64) float64 {
+	if t > labDelta {
+		return t * t * t
+	}
+	return 3 * labDelta * labDelta * (t - 4.0/29.0)
+}
 
 // SRGBToLab converts gamma-encoded sRGB to CIELAB (D65).
 func SRGBToLab(c SRGB) Lab { return XYZToLab(LinearRGBToXYZ(SRGBToLinear(c))) }

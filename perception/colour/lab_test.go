@@ -5,6 +5,7 @@ import (
 	"math"
 	"testing"
 
+	colorful "github.com/lucasb-eyer/go-colorful"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
@@ -141,4 +142,44 @@ func TestHSL(t *testing.T) {
 	assert.Equal(t, "#008000", HSLToSRGB(120, 1, 0.25).Hex())
 	assert.Equal(t, "#ff0000", HSLToSRGB(360, 1, 0.5).Hex())
 	assert.Equal(t, "#0000ff", HSLToSRGB(-120, 1, 0.5).Hex())
+}
+
+func TestLabAndHSLMatchColorful(t *testing.T) {
+	// go-colorful v1.4.1 (a general-purpose colour library on the Go
+	// module proxy) converts XYZ to Lab on a /100 scale with a white given
+	// as XYZ, and CSS hsl() to sRGB by the CSS 2 algorithm; this package
+	// writes the same formulas itself (CIE 15:2004; CSS Color 4's sample
+	// code), so the two agree to rounding over the sRGB cube, beyond it,
+	// and around the turn of Lab's companding function.
+	white := [3]float64{D65.X, D65.Y, D65.Z}
+	const tol = 1e-9
+	steps := []float64{-0.2, 0, 1e-4, 0.008856, 0.0089, 0.05, 0.2, 0.5, 0.8, 1, 1.3}
+	for _, x := range steps {
+		for _, y := range steps {
+			for _, z := range steps {
+				in := XYZ{x, y, z}
+				got := XYZToLab(in)
+				l, a, b := colorful.XyzToLabWhiteRef(x, y, z, white)
+				require.InDelta(t, l*100, got.L, tol, "L of %v", in)
+				require.InDelta(t, a*100, got.A, tol, "a of %v", in)
+				require.InDelta(t, b*100, got.B, tol, "b of %v", in)
+				back := LabToXYZ(got)
+				bx, by, bz := colorful.LabToXyzWhiteRef(l, a, b, white)
+				require.InDelta(t, bx, back.X, tol, "X of %v", got)
+				require.InDelta(t, by, back.Y, tol, "Y of %v", got)
+				require.InDelta(t, bz, back.Z, tol, "Z of %v", got)
+			}
+		}
+	}
+	for h := -360.0; h <= 720; h += 7.5 {
+		for _, s := range []float64{0, 0.1, 0.5, 0.9, 1} {
+			for _, l := range []float64{0, 0.05, 0.25, 0.5, 0.75, 1} {
+				got := HSLToSRGB(h, s, l)
+				want := colorful.Hsl(math.Mod(math.Mod(h, 360)+360, 360), s, l)
+				require.InDelta(t, want.R, got.R, tol, "R of hsl(%v %v %v)", h, s, l)
+				require.InDelta(t, want.G, got.G, tol, "G of hsl(%v %v %v)", h, s, l)
+				require.InDelta(t, want.B, got.B, tol, "B of hsl(%v %v %v)", h, s, l)
+			}
+		}
+	}
 }

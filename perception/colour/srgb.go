@@ -151,3 +151,20 @@ func MustHex(s string) SRGB {
 	}
 	return c
 }
+
+// HSLToSRGB converts CSS hsl() coordinates (hue in degrees, saturation and
+// lightness within [0, 1]) to sRGB, by the sample code of CSS Color 4 §7.1
+// (hslToRgb). Hue wraps; saturation and lightness are clamped.
+func HSLToSRGB(h, s, l float64) SRGB {
+	h = math.Mod(h, 360)
+	if h < 0 {
+		h += 360
+	}
+	s, l = clamp01(s), clamp01(l)
+	a := s * min(l, 1-l)
+	f := func(n float64) float64 {
+		k := math.Mod(n+h/30, 12)
+		return l - a*max(-1, min(k-3, 9-k, 1))
+	}
+	return SRGB{f(0), f(8), f(4)}
+}
