@@ -7,51 +7,57 @@
 import './wasm_exec.js';
 import { captureTab, ext } from './platform.js';
 
-let corePromise = null;
+// The two builds of the Go core (extension/build.go): the overlay core
+// answers every press and re-check; the report core, which adds the
+// report's formats, is loaded for the first export only.
+const CORES = {
+  overlay: { file: 'standout.wasm', handle: 'standoutHandle', promise: null },
+  report: { file: 'standout-report.wasm', handle: 'standoutReport', promise: null },
+};
 
-// loadCore instantiates standout.wasm once per service-worker lifetime
-// and resolves to how long that took (0 when it was already running).
-// When the Go program exits (it never should; a wasm memory that cannot
-// grow ends it), its handle is dropped so that the next check loads a
-// fresh core instead of failing in every tab.
-function loadCore() {
-  if (globalThis.standoutHandle) return Promise.resolve(0);
-  if (!corePromise) {
+// loadCore instantiates a core once per service-worker lifetime and
+// resolves to how long that took (0 when it was already running). When
+// the Go program exits (it never should; a wasm memory that cannot grow
+// ends it), its handle is dropped so that the next check loads a fresh
+// core instead of failing in every tab.
+function loadCore(core = CORES.overlay) {
+  if (globalThis[core.handle]) return Promise.resolve(0);
+  if (!core.promise) {
     const t0 = performance.now();
-    corePromise = (async () => {
+    core.promise = (async () => {
       const go = new Go();
-      const url = ext.runtime.getURL('standout.wasm');
+      const url = ext.runtime.getURL(core.file);
       const { instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
-      go.run(instance).finally(dropCore); // settles only when Go exits
-      for (let i = 0; i < 200 && !globalThis.standoutHandle; i++) {
+      go.run(instance).finally(() => dropCore(core)); // settles only when Go exits
+      for (let i = 0; i < 200 && !globalThis[core.handle]; i++) {
         await new Promise((r) => setTimeout(r, 5));
       }
-      if (!globalThis.standoutHandle) throw new Error('the Standout core did not start');
+      if (!globalThis[core.handle]) throw new Error('the Standout core did not start');
       return performance.now() - t0;
     })().catch((e) => {
-      corePromise = null;
+      core.promise = null;
       throw e;
     });
   }
-  return corePromise;
+  return core.promise;
 }
 
-function dropCore() {
-  globalThis.standoutHandle = undefined;
-  corePromise = null;
+function dropCore(core) {
+  globalThis[core.handle] = undefined;
+  core.promise = null;
 }
 
-// callCore runs one request in the core, the readings of frames of other
+// callCore runs one request in a core, the readings of frames of other
 // origins after the page. A core that has exited is reloaded once and the
 // request run again.
-async function callCore(options, page, frames = []) {
+async function callCore(core, options, page, frames = []) {
   for (let attempt = 0; ; attempt++) {
-    await loadCore();
+    await loadCore(core);
     try {
-      return globalThis.standoutHandle(options, page, ...frames);
+      return globalThis[core.handle](options, page, ...frames);
     } catch (e) {
-      if (attempt > 0 || !/exited|not a function|standoutHandle/i.test(String((e && e.message) || e))) throw e;
-      dropCore();
+      if (attempt > 0 || !/exited|not a function|standoutHandle|standoutReport/i.test(String((e && e.message) || e))) throw e;
+      dropCore(core);
     }
   }
 }
@@ -100,7 +106,8 @@ async function readPage(tabId, toggle) {
 // the overlay keeps, so that the report holds them.
 async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false, phoneWidth = 0, judged, pick } = {}) {
   const t0 = performance.now();
-  const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore()]);
+  const core = full ? CORES.report : CORES.overlay;
+  const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore(core)]);
   if (read.closed) return read;
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as
@@ -111,7 +118,7 @@ async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, fu
   if (phoneWidth) options.phoneWidth = phoneWidth;
   if (full && judged) options.pixels = judged;
   if (full && pick) options.pick = pick;
-  const response = await callCore(JSON.stringify(options), read.json, frames.pages);
+  const response = await callCore(core, JSON.stringify(options), read.json, frames.pages);
   const t2 = performance.now();
   // A press judges the charts drawn as pixels; a re-check would capture
   // the overlay's own outlines over them.

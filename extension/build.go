@@ -11,7 +11,7 @@ import (
 )
 
 // Build writes a ready-to-load extension into dir: the embedded files, the
-// Go core built for WebAssembly (GOOS=js GOARCH=wasm) and the wasm_exec.js
+// Go core built for WebAssembly (GOOS=js GOARCH=wasm; Cores) and the wasm_exec.js
 // of the very toolchain that built it, never a hand-kept copy. It needs
 // the go tool and the Standout source, found from the working directory up.
 func Build(dir string, firefox bool) error {
@@ -51,19 +51,11 @@ func Build(dir string, firefox bool) error {
 	if err != nil {
 		return err
 	}
-	abs, err := filepath.Abs(filepath.Join(dir, "standout.wasm"))
-	if err != nil {
-		return err
-	}
-	// -s drops the module's name section (about 75 KB): the engine then
-	// names the core's functions by index in its own traces, while Go's
-	// stack traces, which the core's error answers carry, read Go's own
-	// tables and keep their names.
-	cmd := exec.Command("go", "build", "-trimpath", "-ldflags=-s", "-o", abs, "./wasm")
-	cmd.Dir = root
-	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
-	if out, err := cmd.CombinedOutput(); err != nil {
-		return fmt.Errorf("building the WebAssembly core: %v\n%s", err, out)
+	// Two cores: what every press loads, and what an export loads.
+	for _, c := range Cores {
+		if err := buildCore(root, filepath.Join(dir, c.File), c.Args...); err != nil {
+			return err
+		}
 	}
 	goroot, err := exec.Command("go", "env", "GOROOT").Output()
 	if err != nil {
@@ -76,6 +68,42 @@ func Build(dir string, firefox bool) error {
 		}
 	}
 	return errors.New("wasm_exec.js not found in the Go toolchain at " + gr)
+}
+
+// Core is one WebAssembly build of ./wasm the extension carries.
+type Core struct {
+	File string
+	// Args are the go build arguments that make it.
+	Args []string
+}
+
+// Cores are the extension's two builds of the core. The overlay core
+// answers a press: the overlay's digest and the saliency of charts drawn
+// as pixels; it leaves out the report's formats, and with them fmt and
+// reflect, so a press downloads and compiles less. The report core is the
+// whole core, registered as standoutReport; the background loads it for
+// an export only. -s drops a module's name section (about 75 KB): the
+// engine then names the core's functions by index in its own traces,
+// while Go's stack traces, which the core's error answers carry, read
+// Go's own tables and keep their names.
+var Cores = []Core{
+	{"standout.wasm", []string{"-tags=overlaycore", "-ldflags=-s"}},
+	{"standout-report.wasm", []string{"-ldflags=-s -X main.handleGlobal=standoutReport"}},
+}
+
+// buildCore builds ./wasm for WebAssembly into out.
+func buildCore(root, out string, args ...string) error {
+	abs, err := filepath.Abs(out)
+	if err != nil {
+		return err
+	}
+	cmd := exec.Command("go", append(append([]string{"build", "-trimpath"}, args...), "-o", abs, "./wasm")...)
+	cmd.Dir = root
+	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		return fmt.Errorf("building the WebAssembly core %s: %v\n%s", filepath.Base(abs), err, out)
+	}
+	return nil
 }
 
 // moduleRoot finds the Standout module from the working directory up.

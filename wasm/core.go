@@ -7,7 +7,6 @@ package main
 import (
 	"runtime/debug"
 	"strconv"
-	"strings"
 	"time"
 
 	"standout/internal/jsonio"
@@ -268,24 +267,7 @@ func handle(q *Request, t0 time.Time) []byte {
 		b = jsonio.AppendMap(b, timing, jsonio.AppendNumber)
 		return append(b, '}')
 	}
-	page := report.PageOf(q.Source, q.Problems, as)
-	page.Unchecked = report.UncheckedOf(q.Rasters)
-	judged(page.Unchecked, q.Pixels, q.Pick)
-	report.PixelCharts(&page)
-	report.PageFindings(&page)
-	rep := &report.Report{Schema: "standout-report", Version: report.Version, Minor: report.Minor, Pages: []report.Page{page}, Caution: report.Caution}
-	var md strings.Builder
-	report.WriteMarkdown(&md, rep, nil)
-	timing["encodeMs"] = ms(t2)
-	// The response as encoding/json would write Response, by hand (the
-	// core does not link encoding/json: report.AppendJSON).
-	b := append(make([]byte, 0, 1<<16), `{"ok":true,"report":`...)
-	b = report.AppendJSON(b, rep)
-	b = append(b, `,"markdown":`...)
-	b = jsonio.AppendString(b, md.String())
-	b = append(b, `,"timing":`...)
-	b = jsonio.AppendMap(b, timing, jsonio.AppendNumber)
-	return append(b, '}')
+	return fullReport(q, as, timing, t2)
 }
 
 func errorResponse(msg string) []byte {

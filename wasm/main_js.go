@@ -15,10 +15,17 @@ import (
 // reaches the limit and collects as it goes.
 const memoryLimit = 256 << 20
 
+// handleGlobal is the global the handler is registered as. The extension
+// loads two cores into one background: the overlay core (built with the
+// overlaycore tag) as standoutHandle, and for an export the report core,
+// linked with -X main.handleGlobal=standoutReport.
+var handleGlobal = "standoutHandle"
+
 // main registers globalThis.standoutHandle(requestJSON) → responseJSON
 // (or standoutHandle(optionsJSON, pageJSON), the extension's form) and
 // keeps the instance alive. The handler computes and returns; it never
-// waits on JavaScript, so calling it synchronously cannot deadlock.
+// waits on JavaScript, so calling it synchronously cannot deadlock. The
+// core under its usual name also registers standoutSaliency.
 func main() {
 	// WebAssembly has one thread: the collector cannot run beside the
 	// analysis, and while it marks, every pointer write pays a barrier (a
@@ -43,7 +50,7 @@ func main() {
 	handle := js.FuncOf(func(this js.Value, args []js.Value) any {
 		for _, a := range args {
 			if a.Type() != js.TypeString {
-				return string(errorResponse("standoutHandle takes JSON strings"))
+				return string(errorResponse(handleGlobal + " takes JSON strings"))
 			}
 		}
 		defer collectLater()
@@ -59,7 +66,7 @@ func main() {
 			}
 			return string(HandlePage([]byte(args[0].String()), []byte(args[1].String()), frames...))
 		}
-		return string(errorResponse("standoutHandle takes (request) or (options, page, frame readings…)"))
+		return string(errorResponse(handleGlobal + " takes (request) or (options, page, frame readings…)"))
 	})
 	defer handle.Release()
 	// standoutSaliency(rgba Uint8Array | Uint8ClampedArray, w, h,
@@ -83,8 +90,9 @@ func main() {
 		return string(Saliency(rgba, w, h, args[3].Float()))
 	})
 	defer pixels.Release()
-	js.Global().Set("standoutSaliency", pixels)
-	js.Global().Set("standoutHandle", handle)
-	js.Global().Set("standoutReady", true)
+	if handleGlobal == "standoutHandle" {
+		js.Global().Set("standoutSaliency", pixels)
+	}
+	js.Global().Set(handleGlobal, handle)
 	select {}
 }

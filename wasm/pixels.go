@@ -1,7 +1,6 @@
 package main
 
 import (
-	"math"
 	"strconv"
 
 	"standout/internal/jsonio"
@@ -53,34 +52,6 @@ func Saliency(rgba []byte, w, h int, severity float64) []byte {
 		b = append(b, ']')
 	}
 	return append(b, "}}"...)
-}
-
-// judged puts the press's judgements of the charts drawn as pixels into
-// their unchecked entries, boxes mapped into page px by each chart's box
-// as the read pass measured it (the capture was cut to that box, at one
-// pixel per CSS px rounded), and checks a point picked on one of them as
-// a declared emphasis.
-func judged(us []report.Unchecked, pixels []PixelJudgement, pick *PixelPick) {
-	for i := range us {
-		u := &us[i]
-		for _, p := range pixels {
-			if p.Name != u.Name || len(p.Regions["normal"]) == 0 {
-				continue
-			}
-			w, h := max(math.Round(u.Box[2]), 1), max(math.Round(u.Box[3]), 1)
-			u.Regions = report.PlaceRegions(p.Regions["normal"], w, h, u.Box)
-			u.CVD = map[string][]report.Region{}
-			for v, rs := range p.Regions {
-				if v != "normal" {
-					u.CVD[v] = report.PlaceRegions(rs, w, h, u.Box)
-				}
-			}
-			if pick != nil && pick.Name == u.Name {
-				u.Emphasis = report.EmphasisAt(u, [4]float64{u.Box[0] + pick.X, u.Box[1] + pick.Y, 0, 0})
-			}
-			break
-		}
-	}
 }
 
 // parsePixels reads the options' pixels: [{name, regions: {vision:

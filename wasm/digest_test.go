@@ -1,0 +1,55 @@
+package main
+
+import (
+	"encoding/json"
+	"flag"
+	"os"
+	"path/filepath"
+	"testing"
+
+	"github.com/stretchr/testify/require"
+
+	"standout/internal/testkit"
+	"standout/static"
+)
+
+var update = flag.Bool("update", false, "rewrite testdata/digests.golden.json")
+
+// goldenDigests are the overlay's digests of the repository's test pages,
+// from whichever build of the core runs the test, with the core's timings
+// left out. The whole core (go test ./wasm) and the overlay core (go test
+// -tags overlaycore ./wasm) are held to the same file, so the extension's
+// overlay core answers a press as the whole core does.
+func goldenDigests(t *testing.T) []byte {
+	t.Helper()
+	all := map[string]any{}
+	for _, file := range testkit.Pages(t) {
+		f, err := os.Open(file)
+		require.NoError(t, err)
+		p, err := static.Build(f, static.Options{Source: filepath.Base(file)})
+		f.Close()
+		require.NoError(t, err)
+		page, err := json.Marshal(map[string]any{"source": p.Source, "snapshots": p.Charts, "problems": p.Problems})
+		require.NoError(t, err)
+		var r map[string]any
+		require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), page), &r))
+		require.Equal(t, true, r["ok"], "%s: %v", file, r["error"])
+		delete(r, "timing")
+		all[filepath.Base(file)] = r
+	}
+	out, err := json.MarshalIndent(all, "", " ")
+	require.NoError(t, err)
+	return append(out, '\n')
+}
+
+func TestDigestGolden(t *testing.T) {
+	got := goldenDigests(t)
+	path := filepath.Join("testdata", "digests.golden.json")
+	if *update {
+		require.NoError(t, os.MkdirAll("testdata", 0o755))
+		require.NoError(t, os.WriteFile(path, got, 0o644))
+	}
+	want, err := os.ReadFile(path)
+	require.NoError(t, err, "run go test ./wasm -run DigestGolden -update")
+	require.JSONEq(t, string(want), string(got))
+}

@@ -1,0 +1,14 @@
+//go:build overlaycore
+
+package main
+
+import (
+	"time"
+
+	"standout/internal/report"
+)
+
+// fullReport is left out of the overlay core (report_full.go).
+func fullReport(*Request, []report.Analysed, map[string]float64, time.Time) []byte {
+	return errorResponse("this core answers the overlay's checks only; the whole report comes from the report core (standout-report.wasm)")
+}
