@@ -1,8 +1,10 @@
 package marks
 
 import (
-	"fmt"
+	"errors"
 	"math"
+	"strconv"
+
 	"standout/internal/svgnum"
 )
 
@@ -69,7 +71,7 @@ var commandNames = map[byte]string{'L': "lineto", 'H': "horizontal lineto", 'V':
 	'C': "curveto", 'S': "smooth curveto", 'Q': "quadratic curveto", 'T': "smooth quadratic curveto"}
 
 func (p *pathParser) errAt(what string) error {
-	return fmt.Errorf("marks: path data: %s at offset %d", what, p.sc.I)
+	return errors.New("marks: path data: " + what + " at offset " + strconv.Itoa(p.sc.I))
 }
 
 // run reads commands until the end of the data or the first error.
@@ -99,7 +101,7 @@ func (p *pathParser) run() error {
 		case 'Z':
 			p.closePath()
 		default:
-			err = p.errAt(fmt.Sprintf("unknown command %q", cmd))
+			err = p.errAt("unknown command " + strconv.QuoteRune(rune(cmd)))
 		}
 		if err != nil {
 			return err
@@ -117,7 +119,7 @@ func (p *pathParser) command() (byte, error) {
 		p.sc.I++
 	} else {
 		if p.lastCmd == 0 || p.lastCmd == 'Z' || p.lastCmd == 'z' {
-			return 0, p.errAt(fmt.Sprintf("expected a command, found %q", c))
+			return 0, p.errAt("expected a command, found " + strconv.QuoteRune(rune(c)))
 		}
 		cmd = p.lastCmd
 		switch cmd {
@@ -171,7 +173,7 @@ func (p *pathParser) emit(q Point) error {
 		// Sums of coordinates near the float64 limit overflow (a
 		// reflected control point, a curve through them): the outline
 		// stops where it can no longer be drawn.
-		return fmt.Errorf("marks: path data reaches coordinates past the float64 range")
+		return errors.New("marks: path data reaches coordinates past the float64 range")
 	}
 	if p.sub == nil {
 		p.subs = append(p.subs, Subpath{Pts: []Point{p.cur}})
@@ -180,7 +182,7 @@ func (p *pathParser) emit(q Point) error {
 	p.sub.Pts = append(p.sub.Pts, q)
 	p.total++
 	if p.total > maxPathPoints {
-		return fmt.Errorf("marks: path data flattens to more than %d points", maxPathPoints)
+		return errors.New("marks: path data flattens to more than " + strconv.Itoa(maxPathPoints) + " points")
 	}
 	return nil
 }
@@ -432,16 +434,16 @@ func ParsePoints(s string) ([]Point, error) {
 		}
 		x, ok := sc.Number()
 		if !ok {
-			return pts, fmt.Errorf("marks: points: bad number at offset %d", sc.I)
+			return pts, errors.New("marks: points: bad number at offset " + strconv.Itoa(sc.I))
 		}
 		sc.SkipSep()
 		y, ok := sc.Number()
 		if !ok {
-			return pts, fmt.Errorf("marks: points: odd number of coordinates or bad number at offset %d", sc.I)
+			return pts, errors.New("marks: points: odd number of coordinates or bad number at offset " + strconv.Itoa(sc.I))
 		}
 		pts = append(pts, Point{x, y})
 		if len(pts) > maxPathPoints {
-			return pts, fmt.Errorf("marks: points: more than %d points", maxPathPoints)
+			return pts, errors.New("marks: points: more than " + strconv.Itoa(maxPathPoints) + " points")
 		}
 	}
 }

@@ -1,7 +1,7 @@
 package marks
 
 import (
-	"fmt"
+	"errors"
 	"math"
 	"slices"
 	"sort"
@@ -139,7 +139,7 @@ func Walk(s *snapshot.Snapshot) (*Chart, error) {
 // WalkWith is Walk with other thresholds.
 func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	if s.Version != snapshot.SnapshotVersion {
-		return nil, fmt.Errorf("marks: snapshot version %d, want %d", s.Version, snapshot.SnapshotVersion)
+		return nil, errors.New("marks: snapshot version " + strconv.Itoa(s.Version) + ", want " + strconv.Itoa(snapshot.SnapshotVersion))
 	}
 	ch := &Chart{Path: s.Path, Title: s.Title, Anchor: s.Anchor, Source: s.Source, Box: s.Box, Background: s.Background,
 		Furniture: map[Role]int{}, Problems: append([]string(nil), s.Problems...)}
@@ -164,7 +164,7 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	w, ht := s.Box[2], s.Box[3]
 	switch {
 	case w > 0 && ht > 0 && w <= h.IconMax && ht <= h.IconMax:
-		ch.Reason = fmt.Sprintf("icon-sized drawing (%.0f×%.0f px)", w, ht)
+		ch.Reason = "icon-sized drawing (" + strconv.FormatFloat(w, 'f', 0, 64) + "×" + strconv.FormatFloat(ht, 'f', 0, 64) + " px)"
 	case len(ch.Marks) == 0:
 		ch.Reason = "no data marks"
 	default:
@@ -183,7 +183,7 @@ func (ch *Chart) candidates(s *snapshot.Snapshot) (cands, texts []*cand, err err
 		nd := &s.Nodes[i]
 		p := int(nd.Parent)
 		if p >= i || p < -1 {
-			return nil, nil, fmt.Errorf("marks: snapshot %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+			return nil, nil, errors.New("marks: snapshot " + s.Path + ": node " + strconv.Itoa(i) + " has parent " + strconv.Itoa(p) + ", which does not precede it")
 		}
 		hidden[i] = nd.Flags&snapshot.Hidden != 0
 		opac[i] = clamp01(nd.Opacity)
@@ -333,7 +333,7 @@ func (ch *Chart) sortOut(c *cand) int {
 	}
 	g, ok, err := Measure(nd)
 	if err != nil {
-		ch.Problems = append(ch.Problems, fmt.Sprintf("%s: %v; drawn up to the error", nd.Name, err))
+		ch.Problems = append(ch.Problems, nd.Name+": "+err.Error()+"; drawn up to the error")
 	}
 	if !ok {
 		return notDrawn
@@ -351,7 +351,7 @@ func (ch *Chart) sortOut(c *cand) int {
 	}
 	c.g = g
 	if !finiteBox(g.BBox) || !finiteBox([4]float64{g.Area, g.Angle, g.Centroid.X, g.Centroid.Y}) || math.IsInf(nd.StrokeWidth*scale, 0) {
-		ch.Problems = append(ch.Problems, fmt.Sprintf("%s: geometry is not finite; skipped", nd.Name))
+		ch.Problems = append(ch.Problems, nd.Name+": geometry is not finite; skipped")
 		return notDrawn
 	}
 	if !(c.fillA > 0 && g.Area > 0) && !(c.strokeA > 0) {

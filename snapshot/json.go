@@ -1,7 +1,7 @@
 package snapshot
 
 import (
-	"fmt"
+	"errors"
 	"math"
 	"strconv"
 	"strings"
@@ -110,10 +110,10 @@ func (s *Snapshot) UnmarshalJSON(b []byte) error {
 	d := jsonio.New(b)
 	var w snapshotWire
 	if err := readWire(d, &w); err != nil {
-		return fmt.Errorf("snapshot: %w", err)
+		return wrap("snapshot: ", err)
 	}
 	if err := d.End(); err != nil {
-		return fmt.Errorf("snapshot: %w", err)
+		return wrap("snapshot: ", err)
 	}
 	out, err := w.snapshot()
 	if err != nil {
@@ -193,13 +193,13 @@ type record struct {
 	node int
 }
 
-func (r *record) errorf(format string, a ...any) error {
-	return fmt.Errorf("snapshot: node %d: %s", r.node, fmt.Sprintf(format, a...))
+func (r *record) error(msg string) error {
+	return errors.New("snapshot: node " + strconv.Itoa(r.node) + ": " + msg)
 }
 
 func (r *record) num() (float64, error) {
 	if r.i >= len(r.v) {
-		return 0, r.errorf("the record is cut short")
+		return 0, r.error("the record is cut short")
 	}
 	r.i++
 	return r.v[r.i-1], nil
@@ -212,7 +212,7 @@ func (r *record) int(what string, lo, hi int) (int, error) {
 		return 0, err
 	}
 	if f != math.Trunc(f) || f < float64(lo) || f >= float64(hi) {
-		return 0, r.errorf("%s %v is not an integer within [%d, %d)", what, f, lo, hi)
+		return 0, r.error(what + " " + num(f) + " is not an integer within [" + strconv.Itoa(lo) + ", " + strconv.Itoa(hi) + ")")
 	}
 	return int(f), nil
 }
@@ -236,7 +236,7 @@ func packed(f float64) (uint32, bool) {
 // snapshot interprets the document: the tables and every record.
 func (w *snapshotWire) snapshot() (Snapshot, error) {
 	if w.Version != SnapshotVersion {
-		return Snapshot{}, fmt.Errorf("snapshot: version %v, want %d", w.Version, SnapshotVersion)
+		return Snapshot{}, errors.New("snapshot: version " + num(w.Version) + ", want " + strconv.Itoa(SnapshotVersion))
 	}
 	s := Snapshot{Version: SnapshotVersion, Source: w.Source, Path: w.Path, Title: w.Title, Anchor: w.Anchor, Problems: w.Problems}
 	switch len(w.Box) {
@@ -244,11 +244,11 @@ func (w *snapshotWire) snapshot() (Snapshot, error) {
 	case 4:
 		copy(s.Box[:], w.Box)
 	default:
-		return Snapshot{}, fmt.Errorf("snapshot: box has %d numbers, want 4", len(w.Box))
+		return Snapshot{}, errors.New("snapshot: box has " + strconv.Itoa(len(w.Box)) + " numbers, want 4")
 	}
 	bg, ok := packed(w.Bg)
 	if !ok {
-		return Snapshot{}, fmt.Errorf("snapshot: background %v is not a packed colour", w.Bg)
+		return Snapshot{}, errors.New("snapshot: background " + num(w.Bg) + " is not a packed colour")
 	}
 	s.Background = bg
 	paints, err := paintTable(w.Paints)
@@ -260,7 +260,7 @@ func (w *snapshotWire) snapshot() (Snapshot, error) {
 	}
 	for _, f := range w.Sel {
 		if f != math.Trunc(f) || f < 0 || f >= float64(len(s.Nodes)) {
-			return Snapshot{}, fmt.Errorf("snapshot: selects node %v of %d", f, len(s.Nodes))
+			return Snapshot{}, errors.New("snapshot: selects node " + num(f) + " of " + strconv.Itoa(len(s.Nodes)))
 		}
 		s.Selected = append(s.Selected, int32(f))
 	}
@@ -271,12 +271,12 @@ func paintTable(v []float64) ([]Paint, error) {
 	var out []Paint
 	for i := 0; i < len(v); {
 		if len(v)-i < 3 {
-			return nil, fmt.Errorf("snapshot: paint %d is cut short", len(out))
+			return nil, errors.New("snapshot: paint " + strconv.Itoa(len(out)) + " is cut short")
 		}
 		k, c, n := v[i], v[i+1], v[i+2]
 		rgba, ok := packed(c)
 		if !ok || (k != float64(PaintNone) && k != float64(PaintColour) && k != float64(PaintServer)) || n != math.Trunc(n) || n < 0 || n > maxStops || float64(len(v)-i-3) < n {
-			return nil, fmt.Errorf("snapshot: paint %d (%v, %v, %v) is not a paint", len(out), k, c, n)
+			return nil, errors.New("snapshot: paint " + strconv.Itoa(len(out)) + " (" + num(k) + ", " + num(c) + ", " + num(n) + ") is not a paint")
 		}
 		p := Paint{Kind: uint8(k), RGBA: rgba}
 		i += 3
@@ -284,7 +284,7 @@ func paintTable(v []float64) ([]Paint, error) {
 			p.Stops = make([]uint32, int(n))
 			for j := range p.Stops {
 				if p.Stops[j], ok = packed(v[i+j]); !ok {
-					return nil, fmt.Errorf("snapshot: paint %d: stop %v is not a packed colour", len(out), v[i+j])
+					return nil, errors.New("snapshot: paint " + strconv.Itoa(len(out)) + ": stop " + num(v[i+j]) + " is not a packed colour")
 				}
 			}
 			i += int(n)
@@ -333,7 +333,7 @@ func (nr *nodeReader) next() error {
 	r, s := &nr.r, nr.s
 	r.node = len(s.Nodes)
 	if r.node >= MaxNodes {
-		return fmt.Errorf("snapshot: chart %s has more than %d elements", s.Path, MaxNodes)
+		return errors.New("snapshot: chart " + s.Path + " has more than " + strconv.Itoa(MaxNodes) + " elements")
 	}
 	p, err := r.int("parent", -1, r.node)
 	if err != nil {
@@ -377,7 +377,7 @@ func (nr *nodeReader) next() error {
 			return err
 		}
 		if len(c) > MaxClassBytes {
-			return fmt.Errorf("a class of %d bytes, more than %d", len(c), MaxClassBytes)
+			return errors.New("a class of " + strconv.Itoa(len(c)) + " bytes, more than " + strconv.Itoa(MaxClassBytes))
 		}
 		nd.Class = c
 	}
@@ -389,7 +389,7 @@ func (nr *nodeReader) style(nd *Node, has int) error {
 	r, v := &nr.r, nr.r.v
 	if has&FieldSameStyle != 0 {
 		if r.node == 0 {
-			return r.errorf("the first record cannot repeat a style")
+			return r.error("the first record cannot repeat a style")
 		}
 		prev := &nr.s.Nodes[r.node-1]
 		nd.Flags, nd.Fill, nd.Stroke = prev.Flags, prev.Fill, prev.Stroke
@@ -409,7 +409,7 @@ func (nr *nodeReader) style(nd *Node, has int) error {
 		return err
 	}
 	if len(v)-r.i < 4 {
-		return r.errorf("the record is cut short")
+		return r.error("the record is cut short")
 	}
 	nd.Flags, nd.Fill, nd.Stroke = uint8(flags), nr.paints[fill], nr.paints[stroke]
 	nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]
@@ -445,7 +445,7 @@ func (nr *nodeReader) numbers(has int) error {
 			return err
 		}
 		if len(v)-r.i < n {
-			return r.errorf("the record is cut short")
+			return r.error("the record is cut short")
 		}
 		nr.spans = append(nr.spans, span{int32(r.node), int32(len(nr.slab)), int32(n)})
 		nr.slab = append(nr.slab, v[r.i:r.i+n]...)
@@ -453,7 +453,7 @@ func (nr *nodeReader) numbers(has int) error {
 	}
 	if has&FieldBBox != 0 {
 		if len(v)-r.i < 4 {
-			return r.errorf("the record is cut short")
+			return r.error("the record is cut short")
 		}
 		nr.spans = append(nr.spans, span{-int32(r.node) - 1, int32(len(nr.slab)), 4})
 		nr.slab = append(nr.slab, v[r.i:r.i+4]...)
@@ -609,7 +609,7 @@ func (e *wireEncoder) paint(p Paint) float64 {
 	if e.paintI == nil {
 		e.paintI = map[paintKey]int{}
 	}
-	k := paintKey{p.Kind, p.RGBA, fmt.Sprint(p.Stops)}
+	k := paintKey{p.Kind, p.RGBA, stopsKey(p.Stops)}
 	i, ok := e.paintI[k]
 	if !ok {
 		i = len(e.paintI)
@@ -664,11 +664,11 @@ func checkNode(s *Snapshot, i int) error {
 	p := int(nd.Parent)
 	switch {
 	case p >= i || p < -1:
-		return fmt.Errorf("snapshot: chart %s: node %d has parent %d, which does not precede it", s.Path, i, p)
+		return errors.New("snapshot: chart " + s.Path + ": node " + strconv.Itoa(i) + " has parent " + strconv.Itoa(int(p)) + ", which does not precede it")
 	case len(nd.Geom) > maxGeom:
-		return fmt.Errorf("snapshot: chart %s: node %d has %d geometry values, more than %d", s.Path, i, len(nd.Geom), maxGeom)
+		return errors.New("snapshot: chart " + s.Path + ": node " + strconv.Itoa(i) + " has " + strconv.Itoa(len(nd.Geom)) + " geometry values, more than " + strconv.Itoa(maxGeom))
 	case len(nd.BBox) != 0 && len(nd.BBox) != 4:
-		return fmt.Errorf("snapshot: chart %s: node %d has a box of %d numbers", s.Path, i, len(nd.BBox))
+		return errors.New("snapshot: chart " + s.Path + ": node " + strconv.Itoa(i) + " has a box of " + strconv.Itoa(len(nd.BBox)) + " numbers")
 	}
 	return nil
 }
@@ -828,10 +828,10 @@ func DecodePage(b []byte) (*PageJSON, error) {
 				numbers = w.Nodes[:0]
 				s, err := w.snapshot()
 				if err != nil {
-					return fmt.Errorf("snapshot %d: %w", len(p.Snapshots), err)
+					return wrap("snapshot "+strconv.Itoa(len(p.Snapshots))+": ", err)
 				}
 				if total += len(s.Nodes); total > MaxPageNodes {
-					return fmt.Errorf("the page's charts have more than %d elements, more than one check takes", MaxPageNodes)
+					return errors.New("the page's charts have more than " + strconv.Itoa(MaxPageNodes) + " elements, more than one check takes")
 				}
 				p.Snapshots = append(p.Snapshots, s)
 				return nil
@@ -845,7 +845,7 @@ func DecodePage(b []byte) (*PageJSON, error) {
 		err = d.End()
 	}
 	if err != nil {
-		return nil, fmt.Errorf("snapshot: page %w", err)
+		return nil, wrap("snapshot: page ", err)
 	}
 	return &p, nil
 }
@@ -855,7 +855,7 @@ func decodeRasters(d *jsonio.Scanner) ([]Raster, error) {
 	var out []Raster
 	err := d.Array(func() error {
 		if len(out) >= MaxRasters {
-			return fmt.Errorf("more than %d raster elements", MaxRasters)
+			return errors.New("more than " + strconv.Itoa(MaxRasters) + " raster elements")
 		}
 		var r Raster
 		err := d.Object(func(key string) error {
@@ -869,7 +869,7 @@ func decodeRasters(d *jsonio.Scanner) ([]Raster, error) {
 				var box []float64
 				if box, err = d.Numbers(nil); err == nil {
 					if len(box) != 4 {
-						return fmt.Errorf("a raster box of %d numbers, want 4", len(box))
+						return errors.New("a raster box of " + strconv.Itoa(len(box)) + " numbers, want 4")
 					}
 					copy(r.Box[:], box)
 				}
@@ -882,4 +882,31 @@ func decodeRasters(d *jsonio.Scanner) ([]Raster, error) {
 		return err
 	})
 	return out, err
+}
+
+// Messages are put together without fmt, which the extension's overlay
+// core does not link.
+
+// num writes a number as fmt's %v does.
+func num(f float64) string { return strconv.FormatFloat(f, 'g', -1, 64) }
+
+// wrapped is an error with its context before it, as fmt.Errorf's %w
+// makes one.
+type wrapped struct {
+	prefix string
+	err    error
+}
+
+func (w *wrapped) Error() string { return w.prefix + w.err.Error() }
+func (w *wrapped) Unwrap() error { return w.err }
+
+func wrap(prefix string, err error) error { return &wrapped{prefix, err} }
+
+// stopsKey is a gradient's stops as a map key.
+func stopsKey(stops []uint32) string {
+	b := make([]byte, 0, 9*len(stops))
+	for _, s := range stops {
+		b = strconv.AppendUint(append(b, ' '), uint64(s), 16)
+	}
+	return string(b)
 }

@@ -93,7 +93,7 @@ func parseRegions(d *jsonio.Scanner) ([]report.Region, error) {
 			case "box":
 				b, err := d.Numbers(nil)
 				if err == nil && len(b) != 4 {
-					err = d.Errorf("a region's box has %d numbers, not 4", len(b))
+					err = d.Error("a region's box has " + strconv.Itoa(len(b)) + " numbers, not 4")
 				}
 				if err == nil {
 					r.Box = [4]float64(b)

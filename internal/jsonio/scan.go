@@ -7,7 +7,6 @@ package jsonio
 
 import (
 	"errors"
-	"fmt"
 	"strconv"
 	"unicode/utf16"
 	"unicode/utf8"
@@ -30,16 +29,17 @@ func (d *Scanner) Remaining() int { return len(d.b) - d.i }
 // End reports an error unless only whitespace is left.
 func (d *Scanner) End() error {
 	if d.ws(); d.i != len(d.b) {
-		return d.Errorf("trailing data")
+		return d.Error("trailing data")
 	}
 	return nil
 }
 
 var errDepth = errors.New("JSON nested too deeply")
 
-// Errorf is an error at the scanner's offset.
-func (d *Scanner) Errorf(format string, a ...any) error {
-	return fmt.Errorf("JSON at offset %d: %s", d.i, fmt.Sprintf(format, a...))
+// Error is an error at the scanner's offset. (Messages are put together
+// without fmt, which the extension's overlay core does not link.)
+func (d *Scanner) Error(msg string) error {
+	return errors.New("JSON at offset " + strconv.Itoa(d.i) + ": " + msg)
 }
 
 func (d *Scanner) ws() {
@@ -75,7 +75,7 @@ func (d *Scanner) Object(f func(key string) error) error {
 		return nil
 	}
 	if d.peek() != '{' {
-		return d.Errorf("expected an object")
+		return d.Error("expected an object")
 	}
 	d.i++
 	if d.peek() == '}' {
@@ -84,14 +84,14 @@ func (d *Scanner) Object(f func(key string) error) error {
 	}
 	for {
 		if d.peek() != '"' {
-			return d.Errorf("expected a key")
+			return d.Error("expected a key")
 		}
 		k, err := d.str()
 		if err != nil {
 			return err
 		}
 		if d.peek() != ':' {
-			return d.Errorf("expected ':'")
+			return d.Error("expected ':'")
 		}
 		d.i++
 		if err := f(k); err != nil {
@@ -104,7 +104,7 @@ func (d *Scanner) Object(f func(key string) error) error {
 			d.i++
 			return nil
 		default:
-			return d.Errorf("expected ',' or '}'")
+			return d.Error("expected ',' or '}'")
 		}
 	}
 }
@@ -115,7 +115,7 @@ func (d *Scanner) Array(f func() error) error {
 		return nil
 	}
 	if d.peek() != '[' {
-		return d.Errorf("expected an array")
+		return d.Error("expected an array")
 	}
 	d.i++
 	if d.peek() == ']' {
@@ -133,7 +133,7 @@ func (d *Scanner) Array(f func() error) error {
 			d.i++
 			return nil
 		default:
-			return d.Errorf("expected ',' or ']'")
+			return d.Error("expected ',' or ']'")
 		}
 	}
 }
@@ -154,10 +154,10 @@ func (d *Scanner) Number() (float64, error) {
 		digits++
 	}
 	if digits == 0 {
-		return 0, d.Errorf("expected a number")
+		return 0, d.Error("expected a number")
 	}
 	if digits > 1 && d.b[d.i-digits] == '0' {
-		return 0, d.Errorf("bad number: leading zero")
+		return 0, d.Error("bad number: leading zero")
 	}
 	if d.i < len(d.b) && d.b[d.i] == '.' {
 		d.i++
@@ -167,7 +167,7 @@ func (d *Scanner) Number() (float64, error) {
 			n++
 		}
 		if n == 0 {
-			return 0, d.Errorf("bad number")
+			return 0, d.Error("bad number")
 		}
 	}
 	if d.i < len(d.b) && (d.b[d.i] == 'e' || d.b[d.i] == 'E') {
@@ -181,7 +181,7 @@ func (d *Scanner) Number() (float64, error) {
 			n++
 		}
 		if n == 0 {
-			return 0, d.Errorf("bad number")
+			return 0, d.Error("bad number")
 		}
 	}
 	if f, ok := fastFloat(d.b[start:d.i]); ok {
@@ -189,7 +189,7 @@ func (d *Scanner) Number() (float64, error) {
 	}
 	f, err := strconv.ParseFloat(string(d.b[start:d.i]), 64)
 	if err != nil {
-		return 0, d.Errorf("bad number: %v", err)
+		return 0, d.Error("bad number: " + err.Error())
 	}
 	return f, nil
 }
@@ -298,7 +298,7 @@ func (d *Scanner) Numbers(dst []float64) ([]float64, error) {
 		return dst, nil
 	}
 	if d.peek() != '[' {
-		return dst, d.Errorf("expected an array")
+		return dst, d.Error("expected an array")
 	}
 	d.i++
 	if d.peek() == ']' {
@@ -322,7 +322,7 @@ func (d *Scanner) Numbers(dst []float64) ([]float64, error) {
 			d.i++
 			return dst, nil
 		default:
-			return dst, d.Errorf("expected ',' or ']'")
+			return dst, d.Error("expected ',' or ']'")
 		}
 	}
 }
@@ -343,7 +343,7 @@ func (d *Scanner) Text() (string, error) {
 		return "", nil
 	}
 	if d.peek() != '"' {
-		return "", d.Errorf("expected a string")
+		return "", d.Error("expected a string")
 	}
 	return d.str()
 }
@@ -379,7 +379,7 @@ func (d *Scanner) str() (string, error) {
 			}
 			return string(buf), nil
 		case c < 0x20:
-			return "", d.Errorf("control character in string")
+			return "", d.Error("control character in string")
 		case c != '\\':
 			buf = append(buf, c)
 			d.i++
@@ -394,7 +394,7 @@ func (d *Scanner) str() (string, error) {
 			return "", err
 		}
 	}
-	return "", d.Errorf("unterminated string")
+	return "", d.Error("unterminated string")
 }
 
 // escape appends what the escape after a backslash stands for.
@@ -417,7 +417,7 @@ func (d *Scanner) escape(buf []byte) ([]byte, error) {
 	case 'u':
 		r, ok := d.hex4()
 		if !ok {
-			return buf, d.Errorf("bad \\u escape")
+			return buf, d.Error("bad \\u escape")
 		}
 		if utf16.IsSurrogate(r) {
 			// A pair when the next escape completes it; alone it is
@@ -436,7 +436,7 @@ func (d *Scanner) escape(buf []byte) ([]byte, error) {
 		}
 		return utf8.AppendRune(buf, r), nil
 	}
-	return buf, d.Errorf("bad escape")
+	return buf, d.Error("bad escape")
 }
 
 func (d *Scanner) hex4() (rune, bool) {
@@ -464,7 +464,7 @@ func (d *Scanner) Bool() (bool, error) {
 	case c == 'f' && d.literal("false"), c == 'n' && d.literal("null"):
 		return false, nil
 	}
-	return false, d.Errorf("expected true or false")
+	return false, d.Error("expected true or false")
 }
 
 // Skip consumes any value, to a bounded depth.

@@ -4,7 +4,7 @@
 package report
 
 import (
-	"fmt"
+	"errors"
 	"math"
 	"strconv"
 	"strings"
@@ -337,7 +337,7 @@ func AnalyseSnapshots(snaps []snapshot.Snapshot, opt Options) ([]Analysed, error
 	out := make([]Analysed, 0, len(snaps))
 	for i := range snaps {
 		if !opt.Deadline.IsZero() && time.Now().After(opt.Deadline) {
-			return nil, fmt.Errorf("the check ran past its time limit at chart %s (see --timeout)", snaps[i].Path)
+			return nil, errors.New("the check ran past its time limit at chart " + snaps[i].Path + " (see --timeout)")
 		}
 		ch, err := marks.Walk(&snaps[i])
 		if err != nil {

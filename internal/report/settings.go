@@ -1,7 +1,7 @@
 package report
 
 import (
-	"fmt"
+	"errors"
 	"math"
 	"strconv"
 	"strings"
@@ -45,12 +45,12 @@ var DefaultSettings = Settings{Severity: perception.DefaultParams.Severity}
 func (s Settings) Options() (Options, error) {
 	opt := DefaultOptions
 	if !(s.Severity >= 0 && s.Severity <= 1) {
-		return opt, fmt.Errorf("CVD severity %v is not within [0, 1]", s.Severity)
+		return opt, errors.New("CVD severity " + num(s.Severity) + " is not within [0, 1]")
 	}
 	opt.Params.Severity = s.Severity
 	if s.DistanceCM != 0 || s.PxPerInch != 0 {
 		if !(s.DistanceCM > 0) || !(s.PxPerInch > 0) {
-			return opt, fmt.Errorf("viewing distance %v cm and %v px per inch: both must be positive", s.DistanceCM, s.PxPerInch)
+			return opt, errors.New("viewing distance " + num(s.DistanceCM) + " cm and " + num(s.PxPerInch) + " px per inch: both must be positive")
 		}
 		opt.Params.ND.Viewing = colour.Viewing{DistanceCM: s.DistanceCM, CSSPxPerInch: s.PxPerInch}
 	}
@@ -69,7 +69,7 @@ func (s Settings) Options() (Options, error) {
 		i := strings.LastIndexByte(pn, '#')
 		node, err := strconv.Atoi(pn[i+1:])
 		if i < 0 || err != nil || node < 0 {
-			return opt, fmt.Errorf("emphasis node %q is not path#node", pn)
+			return opt, errors.New("emphasis node " + strconv.Quote(pn) + " is not path#node")
 		}
 		if opt.Nodes == nil {
 			opt.Nodes = map[string]map[int]bool{}
@@ -81,12 +81,12 @@ func (s Settings) Options() (Options, error) {
 	}
 	if b := s.EmphasisBox; b != nil {
 		if !(b[2] > 0 && b[3] > 0) || !finite4(*b) {
-			return opt, fmt.Errorf("emphasis box %v: want a finite x, y and a positive width and height", *b)
+			return opt, errors.New("emphasis box [" + num(b[0]) + " " + num(b[1]) + " " + num(b[2]) + " " + num(b[3]) + "]: want a finite x, y and a positive width and height")
 		}
 		opt.Box = b
 	}
 	if s.PhoneWidth != 0 && !(s.PhoneWidth >= 200 && s.PhoneWidth <= 1000) {
-		return opt, fmt.Errorf("phone width %v px is not within 200–1000", s.PhoneWidth)
+		return opt, errors.New("phone width " + num(s.PhoneWidth) + " px is not within 200–1000")
 	}
 	opt.PhoneWidth = s.PhoneWidth
 	return opt, nil
@@ -159,11 +159,11 @@ func ParseBox(text string) (b [4]float64, ok bool, err error) {
 	}
 	parts := strings.Split(rest, ",")
 	if len(parts) != 4 {
-		return b, true, fmt.Errorf("emphasis box %q: want box:x,y,width,height", text)
+		return b, true, errors.New("emphasis box " + strconv.Quote(text) + ": want box:x,y,width,height")
 	}
 	for i, p := range parts {
 		if b[i], err = strconv.ParseFloat(strings.TrimSpace(p), 64); err != nil {
-			return b, true, fmt.Errorf("emphasis box %q: %v", text, err)
+			return b, true, errors.New("emphasis box " + strconv.Quote(text) + ": " + err.Error())
 		}
 	}
 	return b, true, nil
@@ -185,3 +185,7 @@ func SplitEmphasis(text string) (ids []string, selector string) {
 	}
 	return items, ""
 }
+
+// num writes a number as fmt's %v does (the messages here are put
+// together without fmt, which the extension's overlay core does not link).
+func num(f float64) string { return strconv.FormatFloat(f, 'g', -1, 64) }

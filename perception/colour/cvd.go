@@ -1,8 +1,9 @@
 package colour
 
 import (
-	"fmt"
+	"errors"
 	"math"
+	"strconv"
 )
 
 // Deficiency names a type of colour-vision deficiency.
@@ -33,7 +34,7 @@ var deficiencyNames = [...]string{"normal", "protan", "deutan", "tritan", "achro
 // "achromat".
 func (d Deficiency) String() string {
 	if d < 0 || int(d) >= len(deficiencyNames) {
-		return fmt.Sprintf("Deficiency(%d)", int(d))
+		return "Deficiency(" + strconv.Itoa(int(d)) + ")"
 	}
 	return deficiencyNames[d]
 }
@@ -45,7 +46,7 @@ func ParseDeficiency(s string) (Deficiency, error) {
 			return Deficiency(i), nil
 		}
 	}
-	return 0, fmt.Errorf("colour: unknown vision type %q (want normal, protan, deutan, tritan or achromat)", s)
+	return 0, errors.New("colour: unknown vision type " + strconv.Quote(s) + " (want normal, protan, deutan, tritan or achromat)")
 }
 
 // Matrix is a row-major 3×3 matrix acting on linear RGB column vectors.

@@ -1,8 +1,9 @@
 package colour
 
 import (
-	"fmt"
+	"errors"
 	"math"
+	"strconv"
 )
 
 // SRGB is a gamma-encoded sRGB colour (IEC 61966-2-1:1999). Each channel is
@@ -96,8 +97,9 @@ func (c SRGB) RGB8() (r, g, b uint8) {
 
 // Hex returns the colour as lowercase "#rrggbb", clamped and rounded to 8 bits.
 func (c SRGB) Hex() string {
+	const digits = "0123456789abcdef"
 	r, g, b := c.RGB8()
-	return fmt.Sprintf("#%02x%02x%02x", r, g, b)
+	return string([]byte{'#', digits[r>>4], digits[r&15], digits[g>>4], digits[g&15], digits[b>>4], digits[b&15]})
 }
 
 // SRGB8 builds an SRGB from 8-bit channels.
@@ -129,12 +131,12 @@ func ParseHex(s string) (SRGB, error) {
 		for i := 0; i < len(h); i++ {
 			n, ok := nib(h[i])
 			if !ok {
-				return SRGB{}, fmt.Errorf("colour: %q is not a hex colour", s)
+				return SRGB{}, errors.New("colour: " + strconv.Quote(s) + " is not a hex colour")
 			}
 			v[i] = n
 		}
 	default:
-		return SRGB{}, fmt.Errorf("colour: %q is not a hex colour", s)
+		return SRGB{}, errors.New("colour: " + strconv.Quote(s) + " is not a hex colour")
 	}
 	if len(h) == 3 {
 		return SRGB8(v[0]*17, v[1]*17, v[2]*17), nil
