@@ -26,6 +26,9 @@ function loadCore(core = CORES.overlay) {
     const t0 = performance.now();
     core.promise = (async () => {
       const go = new Go();
+      // The collector runs between requests only, or within one when the
+      // heap reaches 256 MiB (wasm/main_js.go).
+      go.env = { GOGC: 'off', GOMEMLIMIT: '256MiB' };
       const url = ext.runtime.getURL(core.file);
       const { instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
       go.run(instance).finally(() => dropCore(core)); // settles only when Go exits

@@ -5,7 +5,7 @@
 package main
 
 import (
-	"runtime/debug"
+	"runtime"
 	"strconv"
 	"time"
 
@@ -227,7 +227,20 @@ func recoverTo(out *[]byte) {
 		case string:
 			msg = v
 		}
-		*out = errorResponse("internal error: " + msg + "\n" + string(debug.Stack()))
+		*out = errorResponse("internal error: " + msg + "\n" + string(stack()))
+	}
+}
+
+// stack is runtime/debug.Stack, written here because runtime/debug
+// brings fmt and os into the module.
+func stack() []byte {
+	buf := make([]byte, 1024)
+	for {
+		n := runtime.Stack(buf, false)
+		if n < len(buf) {
+			return buf[:n]
+		}
+		buf = make([]byte, 2*len(buf))
 	}
 }
 

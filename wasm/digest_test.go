@@ -4,13 +4,11 @@ import (
 	"encoding/json"
 	"flag"
 	"os"
-	"path/filepath"
 	"testing"
 
 	"github.com/stretchr/testify/require"
 
-	"standout/internal/testkit"
-	"standout/static"
+	"standout/internal/testpages"
 )
 
 var update = flag.Bool("update", false, "rewrite testdata/digests.golden.json")
@@ -19,23 +17,17 @@ var update = flag.Bool("update", false, "rewrite testdata/digests.golden.json")
 // from whichever build of the core runs the test, with the core's timings
 // left out. The whole core (go test ./wasm) and the overlay core (go test
 // -tags overlaycore ./wasm) are held to the same file, so the extension's
-// overlay core answers a press as the whole core does.
+// overlay core answers a press as the whole core does; the extension's
+// tests hold the shipped module to it as well.
 func goldenDigests(t *testing.T) []byte {
 	t.Helper()
 	all := map[string]any{}
-	for _, file := range testkit.Pages(t) {
-		f, err := os.Open(file)
-		require.NoError(t, err)
-		p, err := static.Build(f, static.Options{Source: filepath.Base(file)})
-		f.Close()
-		require.NoError(t, err)
-		page, err := json.Marshal(map[string]any{"source": p.Source, "snapshots": p.Charts, "problems": p.Problems})
-		require.NoError(t, err)
+	for name, page := range testpages.Requests(t) {
 		var r map[string]any
 		require.NoError(t, json.Unmarshal(HandlePage([]byte(`{"type":"analyse"}`), page), &r))
-		require.Equal(t, true, r["ok"], "%s: %v", file, r["error"])
+		require.Equal(t, true, r["ok"], "%s: %v", name, r["error"])
 		delete(r, "timing")
-		all[filepath.Base(file)] = r
+		all[name] = r
 	}
 	out, err := json.MarshalIndent(all, "", " ")
 	require.NoError(t, err)
@@ -44,9 +36,8 @@ func goldenDigests(t *testing.T) []byte {
 
 func TestDigestGolden(t *testing.T) {
 	got := goldenDigests(t)
-	path := filepath.Join("testdata", "digests.golden.json")
+	path := testpages.DigestsGolden(t)
 	if *update {
-		require.NoError(t, os.MkdirAll("testdata", 0o755))
 		require.NoError(t, os.WriteFile(path, got, 0o644))
 	}
 	want, err := os.ReadFile(path)

@@ -4,16 +4,12 @@ package main
 
 import (
 	"runtime"
-	"runtime/debug"
+	"strconv"
 	"sync"
+	"syscall"
 	"syscall/js"
 	"time"
 )
-
-// memoryLimit is the heap size at which the collector runs within a
-// request. A 5,000-mark check allocates about 20 MB; a 100,000-mark one
-// reaches the limit and collects as it goes.
-const memoryLimit = 256 << 20
 
 // handleGlobal is the global the handler is registered as. The extension
 // loads two cores into one background: the overlay core (built with the
@@ -32,8 +28,14 @@ func main() {
 	// tenth of a warm request's time, more on the first, unoptimised one).
 	// So it runs only between requests, once the answer is on its way, or
 	// when the heap nears the memory limit within one (a very large chart).
-	debug.SetGCPercent(-1)
-	debug.SetMemoryLimit(memoryLimit)
+	// The loader sets that through the environment, GOGC=off and
+	// GOMEMLIMIT=256MiB (CORES in background.js; a 5,000-mark check
+	// allocates about 20 MB, a 100,000-mark one reaches the limit and
+	// collects as it goes): runtime/debug, which could set it here,
+	// brings fmt and os into the module with it.
+	if v, _ := syscall.Getenv("GOGC"); v != "off" {
+		js.Global().Get("console").Call("warn", "Standout core: GOGC is "+strconv.Quote(v)+", not off; the collector will run within requests")
+	}
 	var collect sync.Mutex
 	collectLater := func() {
 		if !collect.TryLock() {

@@ -26,6 +26,8 @@ var Layer = map[string]int{
 	"extension":        4, // the extension's files and its generated constants
 	"internal/testkit": 4, // what tests share
 
+	"internal/testpages": 5, // the test pages as the core receives them
+
 	"wasm":         5, // the core in the extension
 	"cmd/standout": 5, // the command line
 }

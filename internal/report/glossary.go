@@ -1,7 +1,6 @@
 package report
 
 import (
-	"fmt"
 	"io"
 	"strings"
 )
@@ -33,12 +32,9 @@ var Glossary = []Term{
 
 // WriteGlossary writes the glossary as Markdown.
 func WriteGlossary(w io.Writer) {
-	fmt.Fprintln(w, "# Glossary")
-	fmt.Fprintln(w)
-	fmt.Fprintln(w, "The words Standout's reports use. Generated from internal/report/glossary.go.")
-	fmt.Fprintln(w)
+	put(w, "# Glossary\n\nThe words Standout's reports use. Generated from internal/report/glossary.go.\n\n")
 	for _, t := range Glossary {
-		fmt.Fprintf(w, "**%s**: %s\n\n", t.Term, t.Means)
+		put(w, "**", t.Term, "**: ", t.Means, "\n\n")
 	}
 }
 
@@ -46,8 +42,7 @@ func WriteGlossary(w io.Writer) {
 // pictures mean (the overlay and the PNGs draw the same styles) and the
 // terms the report uses.
 func writeKey(w io.Writer) {
-	fmt.Fprintln(w, "## How to read this report")
-	fmt.Fprintln(w)
+	put(w, "## How to read this report\n\n")
 	for _, s := range VerdictStyles {
 		line := "a thin solid outline"
 		switch {
@@ -63,12 +58,11 @@ func writeKey(w io.Writer) {
 		case "ring":
 			corner = " with a ring at its top right"
 		}
-		fmt.Fprintf(w, "- %s%s (%s): %s.\n", strings.ToUpper(line[:1])+line[1:], corner, s.Colour, s.Words)
+		put(w, "- ", strings.ToUpper(line[:1]), line[1:], corner, " (", s.Colour, "): ", s.Words, ".\n")
 	}
-	fmt.Fprintln(w, "- A red dashed frame in a picture marks a declared emphasis that does not stand out.")
-	fmt.Fprintln(w)
+	put(w, "- A red dashed frame in a picture marks a declared emphasis that does not stand out.\n\n")
 	for _, t := range Glossary {
-		fmt.Fprintf(w, "- **%s**: %s\n", t.Term, t.Means)
+		put(w, "- **", t.Term, "**: ", t.Means, "\n")
 	}
-	fmt.Fprintln(w)
+	put(w, "\n")
 }

@@ -1,27 +1,36 @@
 package report
 
 import (
-	"fmt"
 	"io"
+	"strconv"
 	"strings"
 )
+
+// put writes parts to w one after the other. The report's formats are
+// written without fmt: the overlay core links this package, and fmt's
+// printing would add to what every press downloads and compiles. As with
+// fmt.Fprintf, a failing writer is the caller's to notice.
+func put(w io.Writer, parts ...string) {
+	for _, p := range parts {
+		_, _ = io.WriteString(w, p)
+	}
+}
 
 // WriteMarkdown writes a report for a ticket: per chart, what stands out,
 // the findings in sentences, suggested fixes as CSS, and the cautions.
 // pngs optionally maps a chart ("source#path") to an image file to embed.
 func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
-	fmt.Fprintln(w, "# Standout report")
-	fmt.Fprintln(w)
+	put(w, "# Standout report\n\n")
 	for _, p := range r.Pages {
-		fmt.Fprintf(w, "## %s\n\n", mdEscape(p.Source))
+		put(w, "## ", mdEscape(p.Source), "\n\n")
 		for _, pr := range p.Problems {
-			fmt.Fprintf(w, "- Note: %s\n", mdEscape(pr))
+			put(w, "- Note: ", mdEscape(pr), "\n")
 		}
 		for _, f := range p.Findings {
-			fmt.Fprintf(w, "- %s: %s (%s)\n", f.Severity, mdEscape(f.Message), mdCode(f.ID))
+			put(w, "- ", string(f.Severity), ": ", mdEscape(f.Message), " (", mdCode(f.ID), ")\n")
 		}
 		if len(p.Problems)+len(p.Findings) > 0 {
-			fmt.Fprintln(w)
+			put(w, "\n")
 		}
 		charts := 0
 		for _, c := range p.Charts {
@@ -34,14 +43,14 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				continue
 			}
 			if c.Title != "" {
-				fmt.Fprintf(w, "### %s (%s)\n\n", mdEscape(c.Title), mdCode(c.Path))
+				put(w, "### ", mdEscape(c.Title), " (", mdCode(c.Path), ")\n\n")
 			} else {
-				fmt.Fprintf(w, "### Chart %s\n\n", mdCode(c.Path))
+				put(w, "### Chart ", mdCode(c.Path), "\n\n")
 			}
 			if img, ok := pngs[p.Source+"#"+c.Path]; ok {
-				fmt.Fprintf(w, "![Chart %s with Standout's outlines](%s)\n\n", mdEscape(c.Path), img)
+				put(w, "![Chart ", mdEscape(c.Path), " with Standout's outlines](", img, ")\n\n")
 			}
-			fmt.Fprintf(w, "%d data marks. At a glance: %s.\n\n", len(c.Marks), orNone(Summary(c)))
+			put(w, strconv.Itoa(len(c.Marks)), " data marks. At a glance: ", orNone(Summary(c)), ".\n\n")
 			writeSearchPlot(w, c, pngs[SearchPlotKey+p.Source+"#"+c.Path])
 			if c.Emphasis != nil && len(c.Emphasis.Marks) > 0 {
 				var ok, lost []string
@@ -60,36 +69,33 @@ func WriteMarkdown(w io.Writer, r *Report, pngs map[string]string) {
 				for i, m := range c.Emphasis.Marks {
 					marks[i] = mdCode(m)
 				}
-				fmt.Fprintf(w, "%s: %s. Stands out for: %s. Lost for: %s.\n\n", how, strings.Join(marks, ", "), orNone(strings.Join(ok, ", ")), orNone(strings.Join(lost, ", ")))
+				put(w, how, ": ", strings.Join(marks, ", "), ". Stands out for: ", orNone(strings.Join(ok, ", ")), ". Lost for: ", orNone(strings.Join(lost, ", ")), ".\n\n")
 			}
 			if len(c.Findings) == 0 {
-				fmt.Fprintln(w, "No findings.")
-				fmt.Fprintln(w)
+				put(w, "No findings.\n\n")
 				continue
 			}
-			fmt.Fprintln(w, "| level | what a reader meets, and what to change | evidence | rule | source |")
-			fmt.Fprintln(w, "| --- | --- | --- | --- | --- |")
+			put(w, "| level | what a reader meets, and what to change | evidence | rule | source |\n| --- | --- | --- | --- | --- |\n")
 			for _, f := range c.Findings {
-				fmt.Fprintf(w, "| %s | %s | %s | %s | %s |\n", f.Severity, mdCell(f.Message), mdCell(f.Evidence), mdCode(f.ID), mdCell(f.Source))
+				put(w, "| ", string(f.Severity), " | ", mdCell(f.Message), " | ", mdCell(f.Evidence), " | ", mdCode(f.ID), " | ", mdCell(f.Source), " |\n")
 			}
-			fmt.Fprintln(w)
+			put(w, "\n")
 			writeFixes(w, c.Findings)
 		}
 		if charts == 0 {
-			fmt.Fprintln(w, "No charts found.")
-			fmt.Fprintln(w)
+			put(w, "No charts found.\n\n")
 		}
 	}
 	writeKey(w)
-	fmt.Fprintf(w, "> %s\n", r.Caution)
+	put(w, "> ", r.Caution, "\n")
 }
 
 // writePixelChart writes a chart drawn as pixels: where the eye is
 // predicted to go first, for each vision type.
 func writePixelChart(w io.Writer, c Chart) {
-	fmt.Fprintf(w, "### Chart %s (%s, judged by its pixels)\n\n", mdCode(c.Path), c.Source)
+	put(w, "### Chart ", mdCode(c.Path), " (", string(c.Source), ", judged by its pixels)\n\n")
 	for _, l := range PixelLines(c) {
-		fmt.Fprintf(w, "%s\n\n", l)
+		put(w, l, "\n\n")
 	}
 }
 
@@ -97,7 +103,7 @@ func margins(m map[string]float64) string {
 	var s []string
 	for _, v := range []string{"normal", "protan", "deutan", "tritan", "achromat"} {
 		if x, ok := m[v]; ok {
-			s = append(s, fmt.Sprintf("%s %.1f", v, x))
+			s = append(s, v+" "+strconv.FormatFloat(x, 'f', 1, 64))
 		}
 	}
 	return strings.Join(s, ", ")
@@ -137,10 +143,10 @@ func writeFixes(w io.Writer, findings []Finding) {
 		if css == "" {
 			css = f.Fix.CSS + ";"
 		}
-		fmt.Fprintf(w, "Suggested fix for %s (%s):\n\n```css\n%s\n```\n\n", mdCode(f.ID), state, strings.ReplaceAll(TerminalSafe(css), "`", "'"))
-		fmt.Fprintf(w, "%s. Smallest difference to any other mark, in noticeable-difference units: %s.\n\n", what, margins(f.Fix.Margin))
+		put(w, "Suggested fix for ", mdCode(f.ID), " (", state, "):\n\n```css\n", strings.ReplaceAll(TerminalSafe(css), "`", "'"), "\n```\n\n")
+		put(w, what, ". Smallest difference to any other mark, in noticeable-difference units: ", margins(f.Fix.Margin), ".\n\n")
 		if f.Fix.Alternative != "" {
-			fmt.Fprintf(w, "%s\n\n", mdCell(f.Fix.Alternative))
+			put(w, mdCell(f.Fix.Alternative), "\n\n")
 		}
 	}
 }
@@ -160,9 +166,9 @@ func writeSearchPlot(w io.Writer, c Chart, plot string) {
 	if curve.Serial {
 		how = "a reader checks marks one by one, so the time grows with every mark added"
 	}
-	fmt.Fprintf(w, "Finding the emphasis takes up to about %s s among these %d marks, and would take %s s among 1,000: %s (an estimate from published search times, not a measurement).\n\n",
-		trimFloat(curve.At(float64(max(curve.N, 1)))/1000), curve.N, trimFloat(curve.At(1000)/1000), how)
+	put(w, "Finding the emphasis takes up to about ", trimFloat(curve.At(float64(max(curve.N, 1)))/1000), " s among these ", strconv.Itoa(curve.N),
+		" marks, and would take ", trimFloat(curve.At(1000)/1000), " s among 1,000: ", how, " (an estimate from published search times, not a measurement).\n\n")
 	if plot != "" {
-		fmt.Fprintf(w, "![Estimated time to find the emphasis as the number of marks grows](%s)\n\n", plot)
+		put(w, "![Estimated time to find the emphasis as the number of marks grows](", plot, ")\n\n")
 	}
 }

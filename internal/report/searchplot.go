@@ -1,8 +1,8 @@
 package report
 
 import (
-	"fmt"
 	"math"
+	"strconv"
 	"strings"
 )
 
@@ -61,34 +61,35 @@ func SearchPlotSVG(c SearchCurve) string {
 	x := func(n float64) float64 { return left + w*(math.Log10(n)-1)/3 }
 	y := func(ms float64) float64 { return top + h*(1-ms/ymax) }
 	var b strings.Builder
-	fmt.Fprintf(&b, `<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%d" viewBox="0 0 %d %d" font-family="sans-serif" font-size="10">`, PlotWidth, PlotHeight, PlotWidth, PlotHeight)
-	fmt.Fprintf(&b, `<title>Estimated time to find the emphasis as the number of marks grows</title><rect width="100%%" height="100%%" fill="%s"/>`, Ink.Paper)
-	fmt.Fprintf(&b, `<path d="M%.1f %.1fV%.1fH%.1f" fill="none" stroke="%s"/>`, float64(left), float64(top), top+h, left+w, Ink.Quiet)
+	pw, ph := strconv.Itoa(PlotWidth), strconv.Itoa(PlotHeight)
+	put(&b, `<svg xmlns="http://www.w3.org/2000/svg" width="`, pw, `" height="`, ph, `" viewBox="0 0 `, pw, ` `, ph, `" font-family="sans-serif" font-size="10">`)
+	put(&b, `<title>Estimated time to find the emphasis as the number of marks grows</title><rect width="100%" height="100%" fill="`, Ink.Paper, `"/>`)
+	put(&b, `<path d="M`, f1(left), ` `, f1(top), `V`, f1(top+h), `H`, f1(left+w), `" fill="none" stroke="`, Ink.Quiet, `"/>`)
 	for _, n := range []float64{10, 100, 1000, 10000} {
-		fmt.Fprintf(&b, `<text x="%.1f" y="%.1f" text-anchor="middle" fill="%s">%s</text>`, x(n), top+h+12, Ink.Ink, thousands(int(n)))
+		put(&b, `<text x="`, f1(x(n)), `" y="`, f1(top+h+12), `" text-anchor="middle" fill="`, Ink.Ink, `">`, thousands(int(n)), `</text>`)
 	}
-	fmt.Fprintf(&b, `<text x="%.1f" y="%d" text-anchor="middle" fill="%s">marks in the chart</text>`, left+w/2, PlotHeight-3, Ink.Ink)
-	fmt.Fprintf(&b, `<text x="%d" y="%.1f" text-anchor="end" fill="%s">%s s</text><text x="%d" y="%.1f" text-anchor="end" fill="%s">0</text>`,
-		left-4, float64(top)+4, Ink.Ink, trimFloat(ymax/1000), left-4, top+h, Ink.Ink)
+	put(&b, `<text x="`, f1(left+w/2), `" y="`, strconv.Itoa(PlotHeight-3), `" text-anchor="middle" fill="`, Ink.Ink, `">marks in the chart</text>`)
+	put(&b, `<text x="`, strconv.Itoa(left-4), `" y="`, f1(top+4), `" text-anchor="end" fill="`, Ink.Ink, `">`, trimFloat(ymax/1000), ` s</text><text x="`,
+		strconv.Itoa(left-4), `" y="`, f1(top+h), `" text-anchor="end" fill="`, Ink.Ink, `">0</text>`)
 	var pts []string
 	for i := 0; i <= 40; i++ {
 		n := math.Pow(10, 1+3*float64(i)/40)
-		pts = append(pts, fmt.Sprintf("%.1f %.1f", x(n), y(min(c.At(n), ymax))))
+		pts = append(pts, f1(x(n))+" "+f1(y(min(c.At(n), ymax))))
 	}
 	colour := StyleOf("pops").Colour
 	if c.Serial {
 		colour = StyleOf("conjunction").Colour
 	}
-	fmt.Fprintf(&b, `<path d="M%s" fill="none" stroke="%s" stroke-width="2"/>`, strings.Join(pts, "L"), colour)
+	put(&b, `<path d="M`, strings.Join(pts, "L"), `" fill="none" stroke="`, colour, `" stroke-width="2"/>`)
 	if n := float64(max(c.N, 10)); n <= 10000 {
-		fmt.Fprintf(&b, `<circle cx="%.1f" cy="%.1f" r="3.5" fill="%s"/>`, x(n), y(min(c.At(n), ymax)), Ink.Alert)
+		put(&b, `<circle cx="`, f1(x(n)), `" cy="`, f1(y(min(c.At(n), ymax))), `" r="3.5" fill="`, Ink.Alert, `"/>`)
 	}
 	b.WriteString(`</svg>`)
 	return b.String()
 }
 
 func thousands(n int) string {
-	s := fmt.Sprint(n)
+	s := strconv.Itoa(n)
 	for i := len(s) - 3; i > 0; i -= 3 {
 		s = s[:i] + "," + s[i:]
 	}
@@ -96,5 +97,8 @@ func thousands(n int) string {
 }
 
 func trimFloat(v float64) string {
-	return strings.TrimRight(strings.TrimRight(fmt.Sprintf("%.1f", v), "0"), ".")
+	return strings.TrimRight(strings.TrimRight(f1(v), "0"), ".")
 }
+
+// f1 writes a number with one decimal, as fmt's %.1f does.
+func f1(v float64) string { return strconv.FormatFloat(v, 'f', 1, 64) }

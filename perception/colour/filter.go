@@ -2,7 +2,6 @@ package colour
 
 import (
 	"bytes"
-	"fmt"
 	"strconv"
 )
 
@@ -15,8 +14,8 @@ import (
 // the browser applies m in linear light exactly as Simulate does.
 func FeColorMatrix(m Matrix) string {
 	f := func(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) }
-	return fmt.Sprintf("%s %s %s 0 0 %s %s %s 0 0 %s %s %s 0 0 0 0 0 1 0",
-		f(m[0]), f(m[1]), f(m[2]), f(m[3]), f(m[4]), f(m[5]), f(m[6]), f(m[7]), f(m[8]))
+	return f(m[0]) + " " + f(m[1]) + " " + f(m[2]) + " 0 0 " + f(m[3]) + " " + f(m[4]) + " " + f(m[5]) + " 0 0 " +
+		f(m[6]) + " " + f(m[7]) + " " + f(m[8]) + " 0 0 0 0 0 1 0"
 }
 
 // FeSideMatrix formats the 20 values of an feColorMatrix whose alpha is
@@ -27,7 +26,7 @@ func FeColorMatrix(m Matrix) string {
 func FeSideMatrix(side [3]float64) string {
 	const k = 1e4 // steep enough that 8-bit buffers keep the sign
 	f := func(v float64) string { return strconv.FormatFloat(v, 'g', 7, 64) }
-	return fmt.Sprintf("0 0 0 0 0 0 0 0 0 0 0 0 0 0 0 %s %s %s 0 0.5", f(k*side[0]), f(k*side[1]), f(k*side[2]))
+	return "0 0 0 0 0 0 0 0 0 0 0 0 0 0 0 " + f(k*side[0]) + " " + f(k*side[1]) + " " + f(k*side[2]) + " 0 0.5"
 }
 
 // FilterModule renders the extension's table of CVD preview filters, a
@@ -50,11 +49,11 @@ func FilterModule() []byte {
 	b.WriteString("globalThis.standoutCVDFilters = Object.freeze({\n")
 	wings, side := TritanWings()
 	for _, d := range Deficiencies {
-		fmt.Fprintf(&b, "  %s: [\n", d)
+		b.WriteString("  " + d.String() + ": [\n")
 		for i := 0; i <= 10; i++ {
 			s := float64(i) / 10
 			if d != Tritan {
-				fmt.Fprintf(&b, "    %q,\n", FeColorMatrix(MachadoMatrix(d, s)))
+				b.WriteString("    " + strconv.Quote(FeColorMatrix(MachadoMatrix(d, s))) + ",\n")
 				continue
 			}
 			var w [2]string
@@ -65,7 +64,7 @@ func FilterModule() []byte {
 				}
 				w[k] = FeColorMatrix(m)
 			}
-			fmt.Fprintf(&b, "    { wings: [%q, %q], side: %q },\n", w[0], w[1], FeSideMatrix(side))
+			b.WriteString("    { wings: [" + strconv.Quote(w[0]) + ", " + strconv.Quote(w[1]) + "], side: " + strconv.Quote(FeSideMatrix(side)) + " },\n")
 		}
 		b.WriteString("  ],\n")
 	}
