@@ -6,6 +6,7 @@
 // a screenshot waiting for its export page, for a few seconds.
 import './wasm_exec.js';
 import { captureTab, ext } from './platform.js';
+import { restoreFindFuncTable } from './findfunc.js';
 
 // The two builds of the Go core (extension/build.go): the overlay core
 // answers every press and re-check; the report core, which adds the
@@ -30,7 +31,8 @@ function loadCore(core = CORES.overlay) {
       // heap reaches 256 MiB (wasm/main_js.go).
       go.env = { GOGC: 'off', GOMEMLIMIT: '256MiB' };
       const url = ext.runtime.getURL(core.file);
-      const { instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
+      const { module, instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
+      restoreFindFuncTable(module, instance);
       go.run(instance).finally(() => dropCore(core)); // settles only when Go exits
       for (let i = 0; i < 200 && !globalThis[core.handle]; i++) {
         await new Promise((r) => setTimeout(r, 5));
