@@ -1063,7 +1063,11 @@
   async function read(seq) {
     const page = await globalThis.standoutReader.readPage(document);
     const t1 = performance.now();
-    const json = JSON.stringify(page);
+    // The read's own time stays out of what goes to the core, so that an
+    // unchanged page reads as the same string (the background then reuses
+    // its last answer).
+    const { readMs, ...content } = page;
+    const json = JSON.stringify(content);
     // The charts drawn as pixels and the viewport, for the background to
     // cut them from a capture of the visible tab.
     const de = document.documentElement;
@@ -1077,7 +1081,7 @@
         if (state.machine.phase === 'reading' && state.machine.seq === seq && !state.host) busy(hidden);
       }, BUSY_AFTER_MS);
     }
-    return { json, seq, readMs: page.readMs, stringifyMs, rasters: page.rasters, frames: page.unreadFrames, view };
+    return { json, seq, readMs, stringifyMs, rasters: page.rasters, frames: page.unreadFrames, view };
   }
 
   // busy shows, when a press's check is still on its way a moment after the

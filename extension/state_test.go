@@ -1,6 +1,7 @@
 package extension
 
 import (
+	"regexp"
 	"strconv"
 	"testing"
 	"time"
@@ -34,4 +35,43 @@ func TestIssue11NoWatchAfterError(t *testing.T) {
 	assert.Equal(t, "error", h.state())
 	h.escape()
 	h.waitState("")
+}
+
+// A press on a page that has not changed since the last check is answered
+// with that check's answer, without the core; a changed page, or the
+// same page with other options, runs the core again.
+func TestPressOnUnchangedPageReusesTheAnswer(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(chartPage)
+	first := h.overlayHTML()
+	h.trigger()
+	h.waitState("")
+	h.inWorker(`globalThis.testCalls = 0; globalThis.testReal = globalThis.standoutHandle; globalThis.standoutHandle = (...a) => { globalThis.testCalls++; return globalThis.testReal(...a); }; 0`)
+	calls := func() int {
+		n, err := strconv.Atoi(h.workerValue(`String(globalThis.testCalls)`))
+		require.NoError(t, err)
+		return n
+	}
+	h.trigger()
+	h.waitState("ready")
+	assert.Equal(t, 0, calls(), "the unchanged page ran the core again")
+	assert.Equal(t, withoutHostState(first), withoutHostState(h.overlayHTML()), "the reused answer shows as the first did")
+	h.trigger()
+	h.waitState("")
+	h.eval(`document.querySelectorAll('rect')[1].setAttribute('fill', '#3f5a8c'), ''`)
+	h.trigger()
+	h.waitState("ready")
+	assert.Equal(t, 1, calls(), "the changed page reused an answer")
+	assert.NotEqual(t, withoutHostState(first), withoutHostState(h.overlayHTML()), "the changed page shows its own answer")
+	// A phone's width is another request: the re-check runs the core.
+	chooseInOverlay(h, "screen", 1)
+	require.Eventually(t, func() bool { return calls() == 2 }, 10*time.Second, 20*time.Millisecond)
+	h.escape()
+	h.waitState("")
+}
+
+// withoutHostState leaves out of the overlay's markup the host's state and
+// its record of the steps' timings, which differ from press to press.
+func withoutHostState(html string) string {
+	return regexp.MustCompile(` data-(timing|state)="[^"]*"`).ReplaceAllString(html, "")
 }
