@@ -192,7 +192,9 @@ func findLayout(img []byte) (goLayout, error) {
 // addresses reach it, each bucket that of its first subbucket and each
 // subbucket its difference from it. On WebAssembly a function's first
 // code address is its ftab entry shifted left by 16, plus the text base;
-// the last function runs to maxpc. findfunc.js is the same loop.
+// the last function runs to maxpc. findfunc.js computes the same table
+// for functions that each begin a bucket, as on WebAssembly, which this
+// function requires (TestFindFuncTableRebuilt).
 func buildFindFuncTable(l goLayout, img []byte) ([]byte, error) {
 	const none = int64(1) << 40
 	lo, hi := uint64(l.minpc), uint64(l.maxpc)
@@ -211,6 +213,10 @@ func buildFindFuncTable(l goLayout, img []byte) ([]byte, error) {
 		}
 		if p < lo || q > hi || q <= p {
 			return nil, errors.New("the ftab's functions are not in order within minpc and maxpc")
+		}
+		if (p-lo)%bucketSize != 0 {
+			// findfunc.js writes only the buckets functions begin.
+			return nil, errors.New("a function that does not begin a bucket")
 		}
 		for ; p < q; p += subBucketSize {
 			idx[(p-lo)/subBucketSize] = min(idx[(p-lo)/subBucketSize], int64(k))

@@ -141,6 +141,9 @@ func TestIssue10CoreReloadedAfterExit(t *testing.T) {
 	h.waitState("")
 	// What a worker holds after the Go program exits: a handle that throws.
 	h.inWorker(`globalThis.testThrew = false; globalThis.standoutHandle = () => { globalThis.testThrew = true; throw new Error('Go program has already exited'); }; 0`)
+	// A label makes the page another request: a press on the unchanged
+	// page would reuse the last answer and never reach the core.
+	h.eval(`document.querySelector('rect').setAttribute('aria-label', 'first'), ''`)
 	h.trigger()
 	h.waitState("ready")
 	assert.Equal(t, "true", h.workerValue(`String(globalThis.testThrew)`), "the press never reached the exited core")
