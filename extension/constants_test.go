@@ -9,6 +9,8 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"standout/internal/testkit"
 )
 
 func TestConstantsFileIsCurrent(t *testing.T) {
@@ -42,14 +44,7 @@ func TestNoHandCopyOfTheWireFormat(t *testing.T) {
 // the test skips on a developer machine and fails under CI=true.
 func runNode(t *testing.T, script string) string {
 	t.Helper()
-	node, err := exec.LookPath("node")
-	if err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatalf("Node is required under CI=true: %v", err)
-		}
-		t.Skip(err)
-	}
-	cmd := exec.Command(node, "--input-type=commonjs", "-")
+	cmd := exec.Command(testkit.Node(t), "--input-type=commonjs", "-")
 	cmd.Stdin = strings.NewReader(script)
 	out, err := cmd.CombinedOutput()
 	require.NoError(t, err, "%s", out)

@@ -63,7 +63,7 @@ rebuildFindFuncTable(layout.buffer.slice(layout.byteOffset, layout.byteOffset + 
 writeFileSync(dir + '/image', new Uint8Array(buffer));
 `
 	require.NoError(t, os.WriteFile(filepath.Join(dir, "rebuild.mjs"), []byte(script), 0o644))
-	node := nodeOrSkip(t)
+	node := testkit.Node(t)
 	js, err := filepath.Abs("findfunc.js")
 	require.NoError(t, err)
 	b, err := exec.Command(node, filepath.Join(dir, "rebuild.mjs"), js, dir).CombinedOutput()
@@ -138,16 +138,4 @@ func TestShippedCoreSize(t *testing.T) {
 	require.Len(t, layout, 28, "the findfunctab was taken out")
 	t.Logf("overlay core: %d bytes; its findfunctab, rebuilt on load: %d bytes", len(mod), binary.LittleEndian.Uint32(layout[4:]))
 	assert.LessOrEqual(t, len(mod), 3<<20)
-}
-
-func nodeOrSkip(t *testing.T) string {
-	t.Helper()
-	node, err := exec.LookPath("node")
-	if err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatalf("Node is required under CI=true: %v", err)
-		}
-		t.Skip(err)
-	}
-	return node
 }

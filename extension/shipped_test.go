@@ -11,6 +11,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
+	"standout/internal/testkit"
 	"standout/internal/testpages"
 )
 
@@ -44,7 +45,7 @@ func TestShippedCoreAnswersAsBuilt(t *testing.T) {
 	if testing.Short() {
 		t.Skip("builds the extension")
 	}
-	node := nodeOrSkip(t)
+	node := testkit.Node(t)
 	dir := built(t)
 	script := filepath.Join(t.TempDir(), "core.mjs")
 	require.NoError(t, os.WriteFile(script, []byte(coreUnderNode), 0o644))

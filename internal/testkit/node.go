@@ -1,0 +1,24 @@
+//go:build !(js && wasm)
+
+package testkit
+
+import (
+	"os"
+	"os/exec"
+	"testing"
+)
+
+// Node finds Node.js for a test that runs the extension's scripts or its
+// core under it. A developer machine without it skips the test; under
+// CI=true its absence fails the test.
+func Node(t testing.TB) string {
+	t.Helper()
+	node, err := exec.LookPath("node")
+	if err != nil {
+		if os.Getenv("CI") == "true" {
+			t.Fatalf("testkit: Node is required under CI=true: %v", err)
+		}
+		t.Skip(err)
+	}
+	return node
+}
