@@ -53,6 +53,10 @@ const (
 	subBucketSize = bucketSize / subBuckets
 )
 
+// maxImage bounds the memory a module's data may lay out: Go's data is a
+// few megabytes, and the image is held whole while the table is found.
+const maxImage = 64 << 20
+
 // dataSegment is one active data segment: its memory offset and bytes.
 type dataSegment struct {
 	off  uint32
@@ -90,6 +94,9 @@ func readData(body []byte) ([]dataSegment, error) {
 		return nil, errors.New("bad data section")
 	}
 	p := body[n:]
+	if count > uint64(len(p)/4) { // a segment takes at least 4 bytes
+		return nil, errors.New("more data segments than the section holds")
+	}
 	segs := make([]dataSegment, 0, count)
 	for range count {
 		if len(p) < 2 || p[0] != 0 || p[1] != 0x41 {
@@ -103,6 +110,9 @@ func readData(body []byte) ([]dataSegment, error) {
 		l, m := binary.Uvarint(p)
 		if m <= 0 || uint64(len(p)-m) < l {
 			return nil, errors.New("a data segment runs past its section")
+		}
+		if uint64(off)+l > maxImage {
+			return nil, errors.New("a data segment beyond the first 64 MiB of memory")
 		}
 		segs = append(segs, dataSegment{uint32(off), p[m : m+int(l)]})
 		p = p[m+int(l):]

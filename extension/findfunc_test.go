@@ -139,3 +139,53 @@ func TestShippedCoreSize(t *testing.T) {
 	t.Logf("overlay core: %d bytes; its findfunctab, rebuilt on load: %d bytes", len(mod), binary.LittleEndian.Uint32(layout[4:]))
 	assert.LessOrEqual(t, len(mod), 3<<20)
 }
+
+// FuzzDataSection reads a data section as the build does and checks what
+// the build relies on: nothing panics, and the image cut into segments
+// again (segmentsOf, appendData) reads back as the same memory.
+func FuzzDataSection(f *testing.F) {
+	f.Add(appendData(nil, []dataSegment{{8, []byte{1, 2, 3}}, {100, []byte{0, 0, 7}}}))
+	f.Add(appendData(nil, []dataSegment{{0, bytes.Repeat([]byte{0, 0, 0, 9}, 40)}, {1 << 20, []byte{255}}}))
+	f.Add([]byte{1, 0, 0x41, 0x80, 0x80, 0x80, 0x80, 0x08, 0x0b, 1, 1})
+	f.Add([]byte{0xff, 0xff, 0xff, 0xff, 0x0f})
+	f.Fuzz(func(t *testing.T, body []byte) {
+		segs, err := readData(body)
+		if err != nil {
+			return
+		}
+		img := memoryImage(segs)
+		again, err := readData(appendData(nil, segmentsOf(img)))
+		require.NoError(t, err)
+		got := memoryImage(again)
+		require.True(t, bytes.Equal(bytes.TrimRight(img, "\x00"), bytes.TrimRight(got, "\x00")), "the image changed when cut again")
+		// Whatever the section holds, the strip refuses or succeeds
+		// without a panic.
+		mod := appendSection(append([]byte{}, "\x00asm\x01\x00\x00\x00"...), 11, body)
+		withoutFindFuncTab(mod)
+	})
+}
+
+// FuzzStripModule hands the strip any bytes as a module: it refuses them
+// or strips them, never panics, and what it strips reads back as a module
+// that carries FindFuncSection once.
+func FuzzStripModule(f *testing.F) {
+	f.Add([]byte("\x00asm\x01\x00\x00\x00"))
+	f.Add(appendSection([]byte("\x00asm\x01\x00\x00\x00"), 11, appendData(nil, []dataSegment{{16, []byte{0xf1, 0xff, 0xff, 0xff, 0, 0, 1, 8}}})))
+	f.Add(appendSection([]byte("\x00asm\x01\x00\x00\x00"), 0, []byte{3, 'a', 'b', 'c'}))
+	f.Fuzz(func(t *testing.T, mod []byte) {
+		out, why := withoutFindFuncTab(mod)
+		if why != "" {
+			return
+		}
+		secs, err := readSections(out)
+		require.NoError(t, err)
+		name := append([]byte{byte(len(FindFuncSection))}, FindFuncSection...)
+		n := 0
+		for _, s := range secs {
+			if s.id == 0 && bytes.HasPrefix(s.body, name) {
+				n++
+			}
+		}
+		require.Equal(t, 1, n)
+	})
+}
