@@ -5,6 +5,8 @@ import (
 	"encoding/binary"
 	"errors"
 	"os"
+
+	"standout/internal/wasmmod"
 )
 
 // Go's linker writes into every WebAssembly module a lookup table from
@@ -61,29 +63,6 @@ const maxImage = 64 << 20
 type dataSegment struct {
 	off  uint32
 	data []byte
-}
-
-// wasmSection is one section of a module, its body as it is.
-type wasmSection struct {
-	id   byte
-	body []byte
-}
-
-func readSections(mod []byte) ([]wasmSection, error) {
-	if len(mod) < 8 || !bytes.Equal(mod[:8], []byte("\x00asm\x01\x00\x00\x00")) {
-		return nil, errors.New("not a WebAssembly 1.0 module")
-	}
-	var out []wasmSection
-	for i := 8; i < len(mod); {
-		id := mod[i]
-		size, n := binary.Uvarint(mod[i+1:])
-		if n <= 0 || uint64(len(mod)-i-1-n) < size {
-			return nil, errors.New("a section runs past the module")
-		}
-		out = append(out, wasmSection{id, mod[i+1+n : i+1+n+int(size)]})
-		i += 1 + n + int(size)
-	}
-	return out, nil
 }
 
 // readData reads a data section of active segments placed by i32.const,
@@ -321,24 +300,23 @@ func stripFindFuncTab(path string) (string, error) {
 }
 
 func withoutFindFuncTab(mod []byte) ([]byte, string) {
-	secs, err := readSections(mod)
+	secs, err := wasmmod.Sections(mod)
 	if err != nil {
 		return nil, err.Error()
 	}
-	name := append([]byte{byte(len(FindFuncSection))}, FindFuncSection...)
+	if _, ok := wasmmod.Custom(secs, FindFuncSection); ok {
+		return nil, "the table was taken out already"
+	}
 	data := -1
 	for i, s := range secs {
-		if s.id == 11 {
+		if s.ID == 11 {
 			data = i
-		}
-		if s.id == 0 && bytes.HasPrefix(s.body, name) {
-			return nil, "the table was taken out already"
 		}
 	}
 	if data < 0 {
 		return nil, "no data section"
 	}
-	segs, err := readData(secs[data].body)
+	segs, err := readData(secs[data].Body)
 	if err != nil {
 		return nil, err.Error()
 	}
@@ -356,16 +334,17 @@ func withoutFindFuncTab(mod []byte) ([]byte, string) {
 	}
 	clear(img[l.table : l.table+l.size])
 	segs = segmentsOf(img)
-	out := append([]byte{}, mod[:8]...)
+	out := []byte(wasmmod.Magic)
 	for i, s := range secs {
 		switch {
 		case i == data:
 			out = appendSection(out, 11, appendData(nil, segs))
-		case s.id == 12: // the data count (bulk memory)
+		case s.ID == 12: // the data count (bulk memory)
 			out = appendSection(out, 12, binary.AppendUvarint(nil, uint64(len(segs))))
 		default:
-			out = appendSection(out, s.id, s.body)
+			out = appendSection(out, s.ID, s.Body)
 		}
 	}
+	name := append([]byte{byte(len(FindFuncSection))}, FindFuncSection...)
 	return appendSection(out, 0, append(name, l.section()...)), ""
 }

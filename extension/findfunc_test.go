@@ -12,6 +12,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"standout/internal/testkit"
+	"standout/internal/wasmmod"
 )
 
 // linkedCore builds the overlay core as Go's linker writes it, before any
@@ -33,12 +34,12 @@ func linkedCore(t *testing.T) []byte {
 // wrote (cmd/link/internal/ld/pcln.go, findfunctab), byte for byte.
 func TestFindFuncTableRebuilt(t *testing.T) {
 	mod := linkedCore(t)
-	secs, err := readSections(mod)
+	secs, err := wasmmod.Sections(mod)
 	require.NoError(t, err)
 	var segs []dataSegment
 	for _, s := range secs {
-		if s.id == 11 {
-			segs, err = readData(s.body)
+		if s.ID == 11 {
+			segs, err = readData(s.Body)
 			require.NoError(t, err)
 		}
 	}
@@ -89,13 +90,13 @@ func TestFindFuncStripRefuses(t *testing.T) {
 	assert.NotEmpty(t, why, "a cut module")
 	// One bucket of the linker's table changed: the rebuilt table no
 	// longer matches, so the module is left as it is.
-	secs, err := readSections(mod)
+	secs, err := wasmmod.Sections(mod)
 	require.NoError(t, err)
 	for _, s := range secs {
-		if s.id != 11 {
+		if s.ID != 11 {
 			continue
 		}
-		segs, err := readData(s.body)
+		segs, err := readData(s.Body)
 		require.NoError(t, err)
 		l, err := findLayout(memoryImage(segs))
 		require.NoError(t, err)
@@ -119,22 +120,13 @@ func TestShippedCoreSize(t *testing.T) {
 	if testing.Short() {
 		t.Skip("builds the extension")
 	}
-	if WasmOpt() == "" {
-		if os.Getenv("CI") == "true" {
-			t.Fatal("wasm-opt is required under CI=true (apt-get install binaryen)")
-		}
-		t.Skip("no wasm-opt (Debian's binaryen): the overlay core ships unshrunk")
-	}
+	_, err := exec.LookPath("wasm-opt")
+	testkit.Needs(t, "wasm-opt (apt-get install binaryen; without it the overlay core ships unshrunk)", err)
 	mod, err := os.ReadFile(filepath.Join(built(t), "standout.wasm"))
 	require.NoError(t, err)
-	secs, err := readSections(mod)
+	secs, err := wasmmod.Sections(mod)
 	require.NoError(t, err)
-	var layout []byte
-	for _, s := range secs {
-		if name := append([]byte{byte(len(FindFuncSection))}, FindFuncSection...); s.id == 0 && bytes.HasPrefix(s.body, name) {
-			layout = s.body[len(name):]
-		}
-	}
+	layout, _ := wasmmod.Custom(secs, FindFuncSection)
 	require.Len(t, layout, 28, "the findfunctab was taken out")
 	t.Logf("overlay core: %d bytes; its findfunctab, rebuilt on load: %d bytes", len(mod), binary.LittleEndian.Uint32(layout[4:]))
 	assert.LessOrEqual(t, len(mod), 3<<20)
@@ -160,7 +152,7 @@ func FuzzDataSection(f *testing.F) {
 		require.True(t, bytes.Equal(bytes.TrimRight(img, "\x00"), bytes.TrimRight(got, "\x00")), "the image changed when cut again")
 		// Whatever the section holds, the strip refuses or succeeds
 		// without a panic.
-		mod := appendSection(append([]byte{}, "\x00asm\x01\x00\x00\x00"...), 11, body)
+		mod := appendSection(append([]byte{}, wasmmod.Magic...), 11, body)
 		withoutFindFuncTab(mod)
 	})
 }
@@ -169,20 +161,19 @@ func FuzzDataSection(f *testing.F) {
 // or strips them, never panics, and what it strips reads back as a module
 // that carries FindFuncSection once.
 func FuzzStripModule(f *testing.F) {
-	f.Add([]byte("\x00asm\x01\x00\x00\x00"))
-	f.Add(appendSection([]byte("\x00asm\x01\x00\x00\x00"), 11, appendData(nil, []dataSegment{{16, []byte{0xf1, 0xff, 0xff, 0xff, 0, 0, 1, 8}}})))
-	f.Add(appendSection([]byte("\x00asm\x01\x00\x00\x00"), 0, []byte{3, 'a', 'b', 'c'}))
+	f.Add([]byte(wasmmod.Magic))
+	f.Add(appendSection([]byte(wasmmod.Magic), 11, appendData(nil, []dataSegment{{16, []byte{0xf1, 0xff, 0xff, 0xff, 0, 0, 1, 8}}})))
+	f.Add(appendSection([]byte(wasmmod.Magic), 0, []byte{3, 'a', 'b', 'c'}))
 	f.Fuzz(func(t *testing.T, mod []byte) {
 		out, why := withoutFindFuncTab(mod)
 		if why != "" {
 			return
 		}
-		secs, err := readSections(out)
+		secs, err := wasmmod.Sections(out)
 		require.NoError(t, err)
-		name := append([]byte{byte(len(FindFuncSection))}, FindFuncSection...)
 		n := 0
 		for _, s := range secs {
-			if s.id == 0 && bytes.HasPrefix(s.body, name) {
+			if _, ok := wasmmod.Custom([]wasmmod.Section{s}, FindFuncSection); ok {
 				n++
 			}
 		}

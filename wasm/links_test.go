@@ -3,8 +3,6 @@
 package main
 
 import (
-	"encoding/binary"
-	"errors"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -12,6 +10,8 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/require"
+
+	"standout/internal/wasmmod"
 )
 
 // TestOverlayCoreLinks builds the overlay core as the extension does, but
@@ -29,7 +29,7 @@ func TestOverlayCoreLinks(t *testing.T) {
 	require.NoError(t, err, "%s", b)
 	mod, err := os.ReadFile(out)
 	require.NoError(t, err)
-	names, err := functionNames(mod)
+	names, err := wasmmod.FunctionNames(mod)
 	require.NoError(t, err)
 	require.Greater(t, len(names), 1000, "the module's name section")
 	// The names spell a package's path with '_' for '/' and '.'.
@@ -39,55 +39,4 @@ func TestOverlayCoreLinks(t *testing.T) {
 		}
 	}
 	t.Logf("overlay core with its name section: %d bytes, %d functions", len(mod), len(names))
-}
-
-// functionNames reads the function names of a WebAssembly module's
-// "name" custom section (WebAssembly Core Specification 2.0, §7.4.1).
-func functionNames(mod []byte) ([]string, error) {
-	if len(mod) < 8 || string(mod[:4]) != "\x00asm" {
-		return nil, errors.New("not a WebAssembly module")
-	}
-	var out []string
-	i := 8
-	for i < len(mod) {
-		id := mod[i]
-		size, n := binary.Uvarint(mod[i+1:])
-		if n <= 0 || uint64(len(mod)-i-1-n) < size {
-			return nil, errors.New("a section runs past the module")
-		}
-		body := mod[i+1+n : i+1+n+int(size)]
-		i += 1 + n + int(size)
-		if id != 0 {
-			continue
-		}
-		l, n := binary.Uvarint(body)
-		if n <= 0 || uint64(len(body)-n) < l || string(body[n:n+int(l)]) != "name" {
-			continue
-		}
-		for s := body[n+int(l):]; len(s) > 0; {
-			sub := s[0]
-			sz, n := binary.Uvarint(s[1:])
-			if n <= 0 || uint64(len(s)-1-n) < sz {
-				return nil, errors.New("a name subsection runs past its section")
-			}
-			data := s[1+n : 1+n+int(sz)]
-			s = s[1+n+int(sz):]
-			if sub != 1 {
-				continue
-			}
-			count, n := binary.Uvarint(data)
-			data = data[n:]
-			for range count {
-				_, n := binary.Uvarint(data) // function index
-				data = data[n:]
-				l, m := binary.Uvarint(data)
-				if n <= 0 || m <= 0 || uint64(len(data)-m) < l {
-					return nil, errors.New("a function name runs past its subsection")
-				}
-				out = append(out, string(data[m:m+int(l)]))
-				data = data[m+int(l):]
-			}
-		}
-	}
-	return out, nil
 }

@@ -13,6 +13,7 @@ var Layer = map[string]int{
 	"internal/demo":     0, // the demo pages
 	"internal/browser":  0, // headless Chromium through chromedp
 	"internal/layers":   0, // this table
+	"internal/wasmmod":  0, // a WebAssembly module's sections
 
 	"snapshot":            1, // a chart as rendered and its JSON form
 	"perception":          1, // the perception model

@@ -3,7 +3,6 @@
 package testkit
 
 import (
-	"os"
 	"testing"
 
 	"standout/internal/browser"
@@ -18,11 +17,6 @@ func Chromium(t testing.TB) string {
 		t.Skip("testkit: -short skips the browser tests")
 	}
 	exe, err := browser.Find("")
-	if err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatalf("testkit: Chromium is required under CI=true: %v", err)
-		}
-		t.Skip(err)
-	}
+	Needs(t, "Chromium", err)
 	return exe
 }

@@ -3,7 +3,6 @@
 package testkit
 
 import (
-	"os"
 	"os/exec"
 	"testing"
 )
@@ -14,11 +13,6 @@ import (
 func Node(t testing.TB) string {
 	t.Helper()
 	node, err := exec.LookPath("node")
-	if err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatalf("testkit: Node is required under CI=true: %v", err)
-		}
-		t.Skip(err)
-	}
+	Needs(t, "Node", err)
 	return node
 }
