@@ -767,7 +767,10 @@ func sameStyle(a, b [StyleLen]float64) bool {
 type PageJSON struct {
 	Source    string
 	Snapshots []Snapshot
-	Problems  []string
+	// Raw holds each snapshot's JSON as read, a part of the decoded input:
+	// a caller may know a chart it has judged before by it.
+	Raw      [][]byte
+	Problems []string
 	// Rasters are the page's charts drawn as pixels, which no reader can
 	// read marks from.
 	Rasters []Raster
@@ -815,16 +818,18 @@ func DecodePage(b []byte) (*PageJSON, error) {
 		case "rasters":
 			p.Rasters, err = decodeRasters(d)
 		case "snapshots":
-			p.Snapshots = p.Snapshots[:0]
+			p.Snapshots, p.Raw = p.Snapshots[:0], p.Raw[:0]
 			// One buffer for every snapshot's numbers: a snapshot keeps
 			// none of them once interpreted.
 			var numbers []float64
 			total := 0
 			err = d.Array(func() error {
 				w := snapshotWire{Nodes: numbers}
+				start := d.Offset()
 				if err := readWire(d, &w); err != nil {
 					return err
 				}
+				p.Raw = append(p.Raw, b[start:len(b)-d.Remaining()])
 				numbers = w.Nodes[:0]
 				s, err := w.snapshot()
 				if err != nil {

@@ -284,8 +284,12 @@ func FuzzDecodePage(f *testing.F) {
 			return
 		}
 		require.Len(t, fast.Snapshots, len(want))
+		require.Len(t, fast.Raw, len(want))
 		for i := range want {
 			require.Equal(t, normalised(want[i]), normalised(fast.Snapshots[i]))
+			// Each snapshot's JSON as read is the value encoding/json
+			// finds there.
+			require.Equal(t, string(doc.Snapshots[i]), string(fast.Raw[i]))
 		}
 	})
 }

@@ -23,6 +23,12 @@ type Scanner struct {
 // New returns a Scanner at the start of b.
 func New(b []byte) *Scanner { return &Scanner{b: b} }
 
+// Offset is the offset of the next value, after any whitespace.
+func (d *Scanner) Offset() int {
+	d.ws()
+	return d.i
+}
+
 // Remaining is the number of bytes not yet read.
 func (d *Scanner) Remaining() int { return len(d.b) - d.i }
 
