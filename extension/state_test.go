@@ -1,8 +1,10 @@
 package extension
 
 import (
+	"encoding/json"
 	"regexp"
 	"strconv"
+	"strings"
 	"testing"
 	"time"
 
@@ -66,6 +68,35 @@ func TestPressOnUnchangedPageReusesTheAnswer(t *testing.T) {
 	// A phone's width is another request: the re-check runs the core.
 	chooseInOverlay(h, "screen", 1)
 	require.Eventually(t, func() bool { return calls() == 2 }, 10*time.Second, 20*time.Millisecond)
+	h.escape()
+	h.waitState("")
+}
+
+// A press after an edit to one of a page's two charts judges that chart
+// alone (the core recalls the other's digest, wasm/charts.go), and the
+// overlay shows what a core that kept nothing shows.
+func TestPressAfterEditJudgesTheEditedChartAlone(t *testing.T) {
+	h := newHarness(t)
+	second := strings.Replace(chartSVG, "<svg ", `<svg id="second" `, 1)
+	h.showPage(`<!doctype html><html><body style="margin:0">` + chartSVG + second + `</body></html>`)
+	h.trigger()
+	h.waitState("")
+	h.eval(`document.querySelectorAll('#second rect')[1].setAttribute('fill', '#3f5a8c'), ''`)
+	h.trigger()
+	h.waitState("ready")
+	var timing struct{ Core map[string]float64 }
+	require.NoError(t, json.Unmarshal([]byte(h.eval(`document.querySelector('`+hostSelector+`').getAttribute('data-timing')`)), &timing))
+	assert.Equal(t, 1.0, timing.Core["recalledCharts"], "the chart the edit left alone was judged again: %v", timing.Core)
+	recalled := h.overlayHTML()
+	h.trigger()
+	h.waitState("")
+	require.Equal(t, 1, h.stopWorker(t)) // a fresh core keeps nothing
+	h.worker = nil
+	h.trigger()
+	h.waitState("ready")
+	require.NoError(t, json.Unmarshal([]byte(h.eval(`document.querySelector('`+hostSelector+`').getAttribute('data-timing')`)), &timing))
+	require.Zero(t, timing.Core["recalledCharts"])
+	assert.Equal(t, withoutHostState(h.overlayHTML()), withoutHostState(recalled))
 	h.escape()
 	h.waitState("")
 }

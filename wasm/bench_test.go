@@ -54,6 +54,28 @@ func BenchmarkHandlePage5k(b *testing.B) {
 	b.SetBytes(int64(len(page)))
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
+		charts.forget() // judged anew each time, as after an edit
 		HandlePage(opts, page)
+	}
+}
+
+// BenchmarkRecheckOneOfFourEdited is a re-check of a page of four corpus
+// charts after an edit to one (the pages alternate): recalled keeps the
+// other charts' digests from the last request (charts.go), fresh forgets
+// them first, as the core did before it kept any.
+func BenchmarkRecheckOneOfFourEdited(b *testing.B) {
+	pages := [][]byte{corpusPage(b, false), corpusPage(b, true)}
+	opts := []byte(`{"type":"analyse"}`)
+	for _, keep := range []bool{true, false} {
+		name := map[bool]string{true: "recalled", false: "fresh"}[keep]
+		b.Run(name, func(b *testing.B) {
+			HandlePage(opts, pages[1])
+			for i := 0; i < b.N; i++ {
+				if !keep {
+					charts.forget()
+				}
+				HandlePage(opts, pages[i%2])
+			}
+		})
 	}
 }

@@ -50,6 +50,12 @@ type Request struct {
 	// report; Pick is a point the reader picked on one of them.
 	Pixels []PixelJudgement `json:"pixels"`
 	Pick   *PixelPick       `json:"pick"`
+
+	// options and raw are the request's options and each snapshot's JSON
+	// as the page gave them, when the charts' digests may be recalled and
+	// kept (charts.go).
+	options []byte
+	raw     [][]byte
 }
 
 // PixelJudgement is one chart drawn as pixels as the press judged it: its
@@ -142,6 +148,11 @@ func HandlePage(options, page []byte, frames ...[]byte) (out []byte) {
 		}
 	}
 	q.Source, q.Snapshots, q.Problems, q.Rasters = p.Source, p.Snapshots, p.Problems, p.Rasters
+	if len(frames) == 0 {
+		// A frame's charts are moved into the page after decoding: their
+		// JSON as read is not what is judged.
+		q.options, q.raw = options, p.Raw
+	}
 	return handle(q, t0)
 }
 
@@ -244,8 +255,10 @@ func stack() []byte {
 	}
 }
 
+// ms is the time since t in ms, to the microsecond.
+func ms(t time.Time) float64 { return float64(time.Since(t).Microseconds()) / 1000 }
+
 func handle(q *Request, t0 time.Time) []byte {
-	ms := func(t time.Time) float64 { return float64(time.Since(t).Microseconds()) / 1000 }
 	timing := map[string]float64{}
 	if q.Type != "analyse" {
 		return errorResponse("unknown request type " + strconv.Quote(q.Type))
@@ -264,23 +277,36 @@ func handle(q *Request, t0 time.Time) []byte {
 	}
 	timing["decodeMs"] = ms(t0)
 	t1 := time.Now()
+	if !q.Full {
+		return digestResponse(q, opt, timing, t1)
+	}
 	as, err := report.AnalyseSnapshots(q.Snapshots, opt)
 	timing["analyseMs"] = ms(t1)
 	if err != nil {
 		return errorResponse(err.Error())
 	}
-	t2 := time.Now()
-	if !q.Full {
-		// The overlay's digest, written by hand: encoding/json's
-		// reflection over thousands of marks is slow under WebAssembly.
-		b := append(make([]byte, 0, 64+80*report.CountMarks(as)), `{"ok":true,"overlay":`...)
-		b = report.AppendDigest(b, q.Source, append(q.Problems, report.UncheckedNotes(report.UncheckedOf(q.Rasters))...), as)
-		timing["encodeMs"] = ms(t2)
-		b = append(b, `,"timing":`...)
-		b = jsonio.AppendMap(b, timing, jsonio.AppendNumber)
-		return append(b, '}')
+	return fullReport(q, as, timing, time.Now())
+}
+
+// digestResponse answers with the overlay's digest, written by hand
+// (encoding/json's reflection over thousands of marks is slow under
+// WebAssembly), judging only the charts whose digests are not kept from
+// the last request (charts.go).
+func digestResponse(q *Request, opt report.Options, timing map[string]float64, t1 time.Time) []byte {
+	p := recallCharts(q)
+	as, err := report.AnalyseSnapshots(p.snapshots(), opt)
+	timing["analyseMs"] = ms(t1)
+	if err != nil {
+		return errorResponse(err.Error())
 	}
-	return fullReport(q, as, timing, t2)
+	timing["recalledCharts"] = float64(p.recalled())
+	t2 := time.Now()
+	b := append(make([]byte, 0, 64+80*report.CountMarks(as)), `{"ok":true,"overlay":`...)
+	b = p.write(b, append(q.Problems, report.UncheckedNotes(report.UncheckedOf(q.Rasters))...), as)
+	timing["encodeMs"] = ms(t2)
+	b = append(b, `,"timing":`...)
+	b = jsonio.AppendMap(b, timing, jsonio.AppendNumber)
+	return append(b, '}')
 }
 
 func errorResponse(msg string) []byte {

@@ -100,24 +100,38 @@ func CountMarks(as []Analysed) int {
 
 // AppendDigest writes the Digest of the analysed charts of one page.
 func AppendDigest(b []byte, source string, problems []string, as []Analysed) []byte {
-	b = append(b, `{"pages":[{"source":`...)
-	b = jsonio.AppendString(b, source)
-	b = append(b, `,"problems":`...)
-	b = jsonio.AppendStrings(b, problems)
-	b = append(b, `,"charts":[`...)
+	b = AppendDigestOpen(b, source, problems)
 	for ci, a := range as {
 		if ci > 0 {
 			b = append(b, ',')
 		}
-		b = appendDigestChart(b, a)
+		b = AppendDigestChart(b, a)
 	}
+	return AppendDigestClose(b)
+}
+
+// AppendDigestOpen writes a Digest up to its first chart; the charts
+// follow, each written by AppendDigestChart and separated by commas, and
+// AppendDigestClose ends it.
+func AppendDigestOpen(b []byte, source string, problems []string) []byte {
+	b = append(b, `{"pages":[{"source":`...)
+	b = jsonio.AppendString(b, source)
+	b = append(b, `,"problems":`...)
+	b = jsonio.AppendStrings(b, problems)
+	return append(b, `,"charts":[`...)
+}
+
+// AppendDigestClose ends a Digest begun by AppendDigestOpen.
+func AppendDigestClose(b []byte) []byte {
 	b = append(b, `]}],"caution":`...)
 	b = jsonio.AppendString(b, Caution)
 	return append(b, '}')
 }
 
-// appendDigestChart writes one chart of a Digest.
-func appendDigestChart(b []byte, a Analysed) []byte {
+// AppendDigestChart writes one chart of a Digest. It depends on the chart
+// alone, so a caller may keep it and write it again for the same chart
+// judged under the same options.
+func AppendDigestChart(b []byte, a Analysed) []byte {
 	ch := a.Chart
 	b = append(b, `{"path":`...)
 	b = jsonio.AppendString(b, ch.Path)

@@ -1,0 +1,115 @@
+package main
+
+import (
+	"sync"
+
+	"standout/internal/report"
+	"standout/snapshot"
+)
+
+// charts keeps the digest of each chart of the last page the core
+// answered, so that a re-check after an edit to one chart of a page
+// judges that chart alone. A chart is known by its snapshot as the read
+// pass wrote it, byte for byte, under the same options, byte for byte: a
+// chart's digest depends on nothing else (report.AppendDigestChart).
+var charts chartMemo
+
+type chartMemo struct {
+	mu      sync.Mutex
+	options string
+	digests map[string][]byte
+}
+
+// recall returns the kept digest of each raw snapshot judged under
+// options, nil where there is none.
+func (m *chartMemo) recall(options []byte, raw [][]byte) [][]byte {
+	m.mu.Lock()
+	defer m.mu.Unlock()
+	out := make([][]byte, len(raw))
+	if m.digests == nil || m.options != string(options) {
+		return out
+	}
+	for i, r := range raw {
+		out[i] = m.digests[string(r)]
+	}
+	return out
+}
+
+// keep replaces what is kept with the digests of one page's charts.
+func (m *chartMemo) keep(options []byte, raw, digests [][]byte) {
+	m.mu.Lock()
+	defer m.mu.Unlock()
+	m.options = string(options)
+	m.digests = make(map[string][]byte, len(raw))
+	for i, r := range raw {
+		m.digests[string(r)] = digests[i]
+	}
+}
+
+// forget drops what is kept.
+func (m *chartMemo) forget() {
+	m.mu.Lock()
+	defer m.mu.Unlock()
+	m.options, m.digests = "", nil
+}
+
+// pending is a page's charts being digested: the digest of each one
+// recalled, or nil until it is judged.
+type pending struct {
+	q       *Request
+	digests [][]byte
+	todo    []int // the charts to judge now
+}
+
+// recallCharts looks up q's charts among those kept, when q came with its
+// snapshots as read (q.raw), and lists the ones to judge.
+func recallCharts(q *Request) *pending {
+	p := &pending{q: q}
+	if q.raw != nil && len(q.raw) == len(q.Snapshots) {
+		p.digests = charts.recall(q.options, q.raw)
+	} else {
+		q.raw = nil
+		p.digests = make([][]byte, len(q.Snapshots))
+	}
+	for i, d := range p.digests {
+		if d == nil {
+			p.todo = append(p.todo, i)
+		}
+	}
+	return p
+}
+
+// snapshots are the charts to judge.
+func (p *pending) snapshots() []snapshot.Snapshot {
+	if len(p.todo) == len(p.q.Snapshots) {
+		return p.q.Snapshots
+	}
+	out := make([]snapshot.Snapshot, len(p.todo))
+	for k, i := range p.todo {
+		out[k] = p.q.Snapshots[i]
+	}
+	return out
+}
+
+// recalled is how many charts' digests were recalled.
+func (p *pending) recalled() int { return len(p.digests) - len(p.todo) }
+
+// write writes the digest of the page: as, the judged charts in the order
+// of todo, with the recalled ones. It keeps every chart's digest for the
+// next request when the request came with its snapshots as read.
+func (p *pending) write(b []byte, problems []string, as []report.Analysed) []byte {
+	for k, a := range as {
+		p.digests[p.todo[k]] = report.AppendDigestChart(make([]byte, 0, 256+80*len(a.Chart.Marks)), a)
+	}
+	b = report.AppendDigestOpen(b, p.q.Source, problems)
+	for i, d := range p.digests {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = append(b, d...)
+	}
+	if p.q.raw != nil {
+		charts.keep(p.q.options, p.q.raw, p.digests)
+	}
+	return report.AppendDigestClose(b)
+}

@@ -1,0 +1,107 @@
+package main
+
+import (
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"standout/internal/testkit"
+	"standout/static"
+
+	"github.com/stretchr/testify/require"
+)
+
+// corpusPage is one page of four corpus charts, as the core receives it,
+// with the second chart given an extra mark when edited.
+func corpusPage(t testing.TB, edited bool) []byte {
+	var body strings.Builder
+	body.WriteString("<html><body>")
+	for k, name := range []string{"vega-lite/bar.svg", "observable-plot/anscombeQuartet.svg", "vega-lite/area_gradient.svg", "observable-plot/aaplClose.svg"} {
+		b, err := os.ReadFile(filepath.Join(testkit.Corpus(t), name))
+		require.NoError(t, err)
+		svg := string(b[strings.Index(string(b), "<svg"):])
+		if edited && k == 1 {
+			svg = strings.Replace(svg, "</svg>", `<circle cx="30" cy="30" r="6" fill="#2a7f62"/></svg>`, 1)
+		}
+		body.WriteString(svg)
+	}
+	body.WriteString("</body></html>")
+	p, err := static.Build(strings.NewReader(body.String()), static.Options{Source: "four-charts"})
+	require.NoError(t, err)
+	require.Len(t, p.Charts, 4)
+	page, err := json.Marshal(map[string]any{"source": p.Source, "snapshots": p.Charts, "problems": p.Problems})
+	require.NoError(t, err)
+	return page
+}
+
+// answer is one digest request's response without its timing, and how
+// many charts the core recalled for it.
+func answer(t *testing.T, options string, page []byte, frames ...[]byte) (string, float64) {
+	t.Helper()
+	var r map[string]json.RawMessage
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(options), page, frames...), &r))
+	require.JSONEq(t, "true", string(r["ok"]), "%s", r["error"])
+	var timing map[string]float64
+	require.NoError(t, json.Unmarshal(r["timing"], &timing))
+	delete(r, "timing")
+	out, err := json.Marshal(r)
+	require.NoError(t, err)
+	return string(out), timing["recalledCharts"]
+}
+
+// A re-check after an edit to one chart judges that chart alone, and
+// answers as a core that kept nothing does.
+func TestEditedChartAloneIsJudgedAgain(t *testing.T) {
+	const opts = `{"type":"analyse"}`
+	page, edited := corpusPage(t, false), corpusPage(t, true)
+	charts.forget()
+	fresh, n := answer(t, opts, page)
+	require.Zero(t, n)
+	charts.forget()
+	freshEdited, _ := answer(t, opts, edited)
+	require.NotEqual(t, fresh, freshEdited, "the edit changes the digest")
+
+	got, n := answer(t, opts, page)
+	require.Equal(t, 3.0, n, "the three charts the edit left alone are recalled")
+	require.Equal(t, fresh, got)
+	got, n = answer(t, opts, page)
+	require.Equal(t, 4.0, n)
+	require.Equal(t, fresh, got)
+	got, n = answer(t, opts, edited)
+	require.Equal(t, 3.0, n)
+	require.Equal(t, freshEdited, got)
+
+	// Other options: nothing is recalled.
+	charts.forget()
+	freshSevere, _ := answer(t, `{"type":"analyse","severity":0.6}`, page)
+	answer(t, opts, page)
+	got, n = answer(t, `{"type":"analyse","severity":0.6}`, page)
+	require.Zero(t, n)
+	require.Equal(t, freshSevere, got)
+}
+
+// A bad page and a page with frames (whose charts are moved after
+// reading) neither use nor spoil what is kept.
+func TestRecallSkipsFramesAndSurvivesErrors(t *testing.T) {
+	const opts = `{"type":"analyse"}`
+	page := corpusPage(t, false)
+	charts.forget()
+	fresh, _ := answer(t, opts, page)
+	var bad map[string]any
+	require.NoError(t, json.Unmarshal(HandlePage([]byte(opts), []byte(`{"snapshots":[{"v":2,"nodes":[1,2`)), &bad))
+	require.Equal(t, false, bad["ok"])
+	got, n := answer(t, opts, page)
+	require.Equal(t, 4.0, n)
+	require.Equal(t, fresh, got)
+
+	framed := `{"type":"analyse","frames":[{"prefix":"frame0/","dx":10,"dy":20}]}`
+	charts.forget()
+	want, _ := answer(t, framed, page, page)
+	for i := 0; i < 2; i++ {
+		got, n := answer(t, framed, page, page)
+		require.Zero(t, n)
+		require.Equal(t, want, got)
+	}
+}
