@@ -3,6 +3,7 @@ package perception
 import (
 	"math"
 	"sort"
+	"sync"
 
 	"standout/perception/colour"
 )
@@ -153,6 +154,22 @@ func (fs *fixSearch) worst(c colour.SRGB) (float64, map[string]float64) {
 	return w, m
 }
 
+// worstBelow is worst's smallest margin alone, for a search that needs
+// it only where it reaches floor: once the margin is known to lie below
+// floor, it stops and returns a value below floor (the margin so far).
+func (fs *fixSearch) worstBelow(c colour.SRGB, floor float64) float64 {
+	w := math.Inf(1)
+	for vi, v := range Visions {
+		sc := fs.sim(v, c)
+		for _, o := range fs.simOthers[vi] {
+			if w = min(w, colour.NDUnits(sc, o, fs.nd)); w < floor {
+				return w
+			}
+		}
+	}
+	return w
+}
+
 // recolour searches CIELAB on a grid for the in-gamut colour, at 3:1
 // against the background, that is farthest from the other marks for the
 // worst-off vision type.
@@ -163,26 +180,24 @@ func (fs *fixSearch) recolour(res *Result) *Fix {
 	}
 	var cands []cand
 	best := -1
+	// A candidate whose margin lies below the best one's and below the
+	// colour margin can be neither chosen nor offered: it is not kept.
+	floor := math.Inf(-1)
 	own := colour.SRGBToLab(fs.target.Colour)
-	for L := 20.0; L <= 90; L += 5 {
-		for a := -96.0; a <= 96; a += 8 {
-			for b := -96.0; b <= 96; b += 8 {
-				c := colour.LabToSRGB(colour.Lab{L: L, A: a, B: b})
-				if !c.InGamut() {
-					continue
-				}
-				c = c.Clamped()
-				seen := fs.shown(c, fs.target.Alpha)
-				if colour.ContrastRatio(seen, fs.in.Background) < colour.NonTextContrast {
-					continue
-				}
-				w, _ := fs.worst(seen)
-				cands = append(cands, cand{c, w, colour.DeltaE2000(colour.SRGBToLab(seen), own)})
-				if best < 0 || w > cands[best].w {
-					best = len(cands) - 1
-				}
-			}
+	for _, c := range recolourGrid() {
+		seen := fs.shown(c, fs.target.Alpha)
+		if colour.ContrastRatio(seen, fs.in.Background) < colour.NonTextContrast {
+			continue
 		}
+		w := fs.worstBelow(seen, floor)
+		if w < floor {
+			continue
+		}
+		cands = append(cands, cand{c, w, colour.DeltaE2000(colour.SRGBToLab(seen), own)})
+		if best < 0 || w > cands[best].w {
+			best = len(cands) - 1
+		}
+		floor = min(cands[best].w, fs.p.ColourMargin)
 	}
 	if best < 0 || cands[best].w <= 0 {
 		return nil
@@ -204,6 +219,24 @@ func (fs *fixSearch) recolour(res *Result) *Fix {
 	}
 	return nil
 }
+
+// recolourGrid is the grid recolour searches: CIELAB from L* 20 to 90 in
+// steps of 5 and a*, b* from -96 to 96 in steps of 8, the in-gamut
+// points in sRGB, in that order. It is the same for every chart, so it is
+// converted once.
+var recolourGrid = sync.OnceValue(func() []colour.SRGB {
+	var out []colour.SRGB
+	for L := 20.0; L <= 90; L += 5 {
+		for a := -96.0; a <= 96; a += 8 {
+			for b := -96.0; b <= 96; b += 8 {
+				if c := colour.LabToSRGB(colour.Lab{L: L, A: a, B: b}); c.InGamut() {
+					out = append(out, c.Clamped())
+				}
+			}
+		}
+	}
+	return out
+})
 
 // recolourWith is the fix that paints the emphasis c, checked by
 // re-running the analysis.
@@ -300,9 +333,17 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 	// The marks of the kind in the analysis's order, which its
 	// neighbour lists and shared channels index.
 	idx := res.kinds[kind]
-	pos := map[int]int{}
+	// The emphasis's positions there (as before, 0 for a mark of
+	// another kind).
+	isEm := make(map[int]bool, len(em))
+	for _, i := range em {
+		isEm[i] = true
+	}
+	pos := make(map[int]int, len(em))
 	for p, i := range idx {
-		pos[i] = p
+		if isEm[i] {
+			pos[i] = p
+		}
 	}
 	// Positions, sizes, orientations and shapes do not change with a colour
 	// fix: the analysis's neighbours and those channels are reused; the
