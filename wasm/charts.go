@@ -91,8 +91,13 @@ func (p *pending) snapshots() []snapshot.Snapshot {
 	return out
 }
 
-// recalled is how many charts' digests were recalled.
-func (p *pending) recalled() int { return len(p.digests) - len(p.todo) }
+// recalled is how many charts' digests were recalled, and their bytes.
+func (p *pending) recalled() (n, bytes int) {
+	for _, d := range p.digests {
+		bytes += len(d)
+	}
+	return len(p.digests) - len(p.todo), bytes
+}
 
 // write writes the digest of the page: as, the judged charts in the order
 // of todo, with the recalled ones. It keeps every chart's digest for the

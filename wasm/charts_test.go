@@ -82,6 +82,20 @@ func TestEditedChartAloneIsJudgedAgain(t *testing.T) {
 	require.Equal(t, freshSevere, got)
 }
 
+// A fresh request judges every chart and leaves what is kept alone.
+func TestFreshRequestKeepsNothing(t *testing.T) {
+	const opts = `{"type":"analyse"}`
+	page, edited := corpusPage(t, false), corpusPage(t, true)
+	charts.forget()
+	want, _ := answer(t, opts, page)
+	got, n := answer(t, `{"type":"analyse","fresh":true}`, page)
+	require.Zero(t, n, "a fresh request recalled")
+	require.Equal(t, want, got)
+	answer(t, `{"type":"analyse","fresh":true}`, edited)
+	_, n = answer(t, opts, page)
+	require.Equal(t, 4.0, n, "a fresh request replaced what was kept")
+}
+
 // A bad page and a page with frames (whose charts are moved after
 // reading) neither use nor spoil what is kept.
 func TestRecallSkipsFramesAndSurvivesErrors(t *testing.T) {

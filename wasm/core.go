@@ -50,6 +50,10 @@ type Request struct {
 	// report; Pick is a point the reader picked on one of them.
 	Pixels []PixelJudgement `json:"pixels"`
 	Pick   *PixelPick       `json:"pick"`
+	// Fresh judges every chart again and keeps nothing for the next
+	// request (charts.go): the background's training requests, which
+	// must run the analysis and leave the last check's digests alone.
+	Fresh bool `json:"fresh"`
 
 	// options and raw are the request's options and each snapshot's JSON
 	// as the page gave them, when the charts' digests may be recalled and
@@ -148,7 +152,7 @@ func HandlePage(options, page []byte, frames ...[]byte) (out []byte) {
 		}
 	}
 	q.Source, q.Snapshots, q.Problems, q.Rasters = p.Source, p.Snapshots, p.Problems, p.Rasters
-	if len(frames) == 0 {
+	if len(frames) == 0 && !q.Fresh {
 		// A frame's charts are moved into the page after decoding: their
 		// JSON as read is not what is judged.
 		q.options, q.raw = options, p.Raw
@@ -206,6 +210,8 @@ func parseOptions(b []byte) (*Request, error) {
 			}
 		case "full":
 			q.Full, err = d.Bool()
+		case "fresh":
+			q.Fresh, err = d.Bool()
 		case "distanceCm":
 			q.DistanceCM, err = d.Number()
 		case "pxPerInch":
@@ -299,9 +305,10 @@ func digestResponse(q *Request, opt report.Options, timing map[string]float64, t
 	if err != nil {
 		return errorResponse(err.Error())
 	}
-	timing["recalledCharts"] = float64(p.recalled())
+	recalled, size := p.recalled()
+	timing["recalledCharts"] = float64(recalled)
 	t2 := time.Now()
-	b := append(make([]byte, 0, 64+80*report.CountMarks(as)), `{"ok":true,"overlay":`...)
+	b := append(make([]byte, 0, 64+80*report.CountMarks(as)+size), `{"ok":true,"overlay":`...)
 	b = p.write(b, append(q.Problems, report.UncheckedNotes(report.UncheckedOf(q.Rasters))...), as)
 	timing["encodeMs"] = ms(t2)
 	b = append(b, `,"timing":`...)
