@@ -85,6 +85,8 @@ type harness struct {
 	url    string
 	// dl is the downloads folder, once a test asked for one.
 	dl string
+	// close stops the browser before the test ends.
+	close func()
 }
 
 func chromium(t testing.TB) string { return testkit.Chromium(t) }
@@ -92,14 +94,18 @@ func chromium(t testing.TB) string { return testkit.Chromium(t) }
 func newHarness(t testing.TB) *harness { return newHarnessOf(t, built(t)) }
 
 // newHarnessOf starts Chromium with the extension built in dir.
-func newHarnessOf(t testing.TB, dir string) *harness {
+func newHarnessOf(t testing.TB, dir string) *harness { return newHarnessWith(t, dir, t.TempDir()) }
+
+// newHarnessWith starts Chromium with the extension built in dir and the
+// profile in profile, which a browser started before may have left.
+func newHarnessWith(t testing.TB, dir, profile string) *harness {
 	exe := chromium(t)
-	actx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, Extension: dir, UserDataDir: t.TempDir(), NoSandbox: browser.SandboxNote() != ""})
+	actx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, Extension: dir, UserDataDir: profile, NoSandbox: browser.SandboxNote() != ""})
 	t.Cleanup(cancel)
 	ctx, cancel2 := chromedp.NewContext(actx)
 	t.Cleanup(cancel2)
 	require.NoError(t, chromedp.Do(ctx, chromedp.Navigate("about:blank")))
-	h := &harness{t: t, ctx: ctx}
+	h := &harness{t: t, ctx: ctx, close: func() { cancel2(); cancel() }}
 	deadline := time.Now().Add(15 * time.Second)
 	for h.extID == "" && time.Now().Before(deadline) {
 		ts, _ := chromedp.Targets(ctx)

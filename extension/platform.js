@@ -18,7 +18,16 @@
 //   (Extensions.triggerAction); Firefox gives automation no way to, so its
 //   test build adds an entry that calls the same handler
 //   (testdata/firefox/test-entry.js, never shipped).
+// - Optimised code across loads. Chromium keeps the WebAssembly code V8
+//   has optimised and loads it with the module next time, in a service
+//   worker too (measured; DEVELOPERS.md); the background trains the core
+//   for it there (background.js: train). Firefox's event page is not
+//   trained: that was not measured there.
 export const ext = globalThis.browser ?? globalThis.chrome;
+
+// keepsOptimisedCode says whether the background runs as Chromium's
+// service worker.
+export const keepsOptimisedCode = typeof globalThis.ServiceWorkerGlobalScope === 'function' && globalThis instanceof globalThis.ServiceWorkerGlobalScope;
 
 // captureTab captures what the tab shows as a PNG data URL.
 export function captureTab(windowId) {

@@ -101,6 +101,48 @@ func TestPressAfterEditJudgesTheEditedChartAlone(t *testing.T) {
 	h.waitState("")
 }
 
+// After a slow check the background trains the core (background.js:
+// train): it runs the check's request again, fresh, until its budget is
+// spent; a check that needs the core stops it, and it takes up again
+// after that check's answer; the answers it leaves are the checks' own.
+func TestCoreTrainedAfterASlowCheck(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(scatterCharts(1, 5000, ""))
+	first := h.overlayHTML()
+	var st struct {
+		Requests int
+		SpentMs  float64
+		Stops    int
+		Running  bool
+		Finished bool
+	}
+	status := func() {
+		require.NoError(t, json.Unmarshal([]byte(h.workerValue(`JSON.stringify(globalThis.standoutTraining || {})`)), &st))
+	}
+	require.Eventually(t, func() bool { status(); return st.Requests > 0 }, 20*time.Second, 20*time.Millisecond, "no training after the first check")
+	require.False(t, st.Finished, "training ended after %d requests: %+v", st.Requests, st)
+	// A check on a changed page, while the core trains.
+	h.trigger()
+	h.waitState("")
+	h.eval(`document.querySelector('circle').setAttribute('fill', '#5d6e7f'), ''`)
+	h.trigger()
+	h.waitState("ready")
+	require.Eventually(t, func() bool { status(); return st.Finished }, 30*time.Second, 50*time.Millisecond, "training did not end: %+v", st)
+	assert.Positive(t, st.Stops, "the check did not stop the training")
+	assert.GreaterOrEqual(t, st.SpentMs, 2000.0, "training ended before its budget: %+v", st)
+	// The last answer is still the check's own: the page as it was first
+	// is another request, and the unchanged one is answered as before.
+	changed := h.overlayHTML()
+	h.trigger()
+	h.waitState("")
+	h.trigger()
+	h.waitState("ready")
+	assert.Equal(t, withoutHostState(changed), withoutHostState(h.overlayHTML()))
+	assert.NotEqual(t, withoutHostState(first), withoutHostState(changed))
+	h.escape()
+	h.waitState("")
+}
+
 // withoutHostState leaves out of the overlay's markup the host's state and
 // its record of the steps' timings, which differ from press to press.
 func withoutHostState(html string) string {
