@@ -293,6 +293,36 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 	}
 }
 
+// BenchmarkBrowserFirstPressAfterInstall reports the first press on a
+// 5,000-mark chart in a new profile, made after the reader has left the
+// browser alone for a while after the install (installPause; the
+// background trains the core meanwhile: background.js, trainAtInstall)
+// and the service worker has stopped, as it does when idle: first-ms.
+//
+//	go test ./extension -run '^$' -bench FirstPressAfterInstall -benchtime 1x -v
+func BenchmarkBrowserFirstPressAfterInstall(b *testing.B) {
+	const installPause = 16 * time.Second
+	body := scatterPage(5000, "")
+	var first float64
+	for i := 0; i < b.N; i++ {
+		h := newHarness(b)
+		srv := serve(b, func(w http.ResponseWriter, r *http.Request) {
+			w.Header().Set("Content-Type", "text/html; charset=utf-8")
+			fmt.Fprint(w, body)
+		})
+		time.Sleep(installPause)
+		b.Logf("the core's training after the install: %s", h.workerValue(`JSON.stringify(globalThis.standoutTraining || null)`))
+		h.worker = nil
+		h.stopWorker(b)
+		h.open(srv.URL + "/")
+		p := h.clickToOverlay(b)
+		first += p.Ready
+		b.Logf("first press after the install: %.0f ms to ready; %+v", p.Ready, p.Timing)
+		h.close()
+	}
+	b.ReportMetric(first/float64(b.N), "first-ms")
+}
+
 // saliencyJS draws, in the service worker, the saliency benchmark's
 // chart (perception/saliency: 20 grey bars on white, one of them red) as
 // 600 × 400 RGBA pixels and times the core's judgement of it (the map

@@ -51,6 +51,9 @@ func Build(dir string, firefox bool) error {
 	if err != nil {
 		return err
 	}
+	if err := writeTrainingPage(dir); err != nil {
+		return err
+	}
 	// Two cores: what every press loads, and what an export loads.
 	for _, c := range Cores {
 		out := filepath.Join(dir, c.File)

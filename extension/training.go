@@ -1,0 +1,59 @@
+package extension
+
+import (
+	"encoding/json"
+	"fmt"
+	"math/rand"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"standout/static"
+)
+
+// TrainingFile is the page the background trains the core on after an
+// install or an update when nothing has been checked yet (background.js:
+// trainAtInstall): the page's JSON as the read pass gives it to the core.
+const TrainingFile = "train.json"
+
+// TrainingPage is an invented page for that training: a scatter of 3,000
+// points in four colours with one dark point set apart, and a bar chart of
+// 24 labelled bars with one in its own colour, so that the walk's and the
+// model's paths for points, bars and text all run.
+func TrainingPage() string {
+	rng := rand.New(rand.NewSource(14))
+	cols := []string{"#3b6e8f", "#d0842c", "#5a9a4e", "#9a6aa6"}
+	var b strings.Builder
+	b.WriteString(`<!doctype html><html><body><svg width="900" height="600" aria-label="Invented scatter"><g>`)
+	for i := 0; i < 3000; i++ {
+		c := cols[rng.Intn(len(cols))]
+		if i == 1500 {
+			c = "#1d1d1d"
+		}
+		fmt.Fprintf(&b, `<circle cx="%.1f" cy="%.1f" r="3" fill="%s"/>`, 10+rng.Float64()*880, 10+rng.Float64()*580, c)
+	}
+	b.WriteString(`</g></svg><svg width="900" height="300" aria-label="Invented bars"><g>`)
+	for k := 0; k < 24; k++ {
+		h := 40 + rng.Float64()*200
+		fill := "#7d8a99"
+		if k == 9 {
+			fill = "#c0504d"
+		}
+		fmt.Fprintf(&b, `<rect x="%d" y="%.1f" width="28" height="%.1f" fill="%s"/><text x="%d" y="290" font-size="10">w%d</text>`, 20+k*36, 270-h, h, fill, 24+k*36, k+1)
+	}
+	b.WriteString(`</g></svg></body></html>`)
+	return b.String()
+}
+
+// writeTrainingPage writes TrainingFile into dir.
+func writeTrainingPage(dir string) error {
+	p, err := static.Build(strings.NewReader(TrainingPage()), static.Options{Source: "standout-training"})
+	if err != nil {
+		return fmt.Errorf("the training page: %w", err)
+	}
+	b, err := json.Marshal(map[string]any{"source": p.Source, "snapshots": p.Charts})
+	if err != nil {
+		return err
+	}
+	return os.WriteFile(filepath.Join(dir, TrainingFile), b, 0o644)
+}

@@ -1,0 +1,58 @@
+package extension
+
+import (
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"testing"
+	"time"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"standout/snapshot"
+)
+
+// The build ships the training page as the core reads a page: the
+// scatter and the bar chart, all their marks read.
+func TestTrainingPageShips(t *testing.T) {
+	b, err := os.ReadFile(filepath.Join(built(t), TrainingFile))
+	require.NoError(t, err)
+	p, err := snapshot.DecodePage(b)
+	require.NoError(t, err)
+	assert.Equal(t, "standout-training", p.Source)
+	require.Len(t, p.Snapshots, 2)
+	circles, rects := 0, 0
+	for _, s := range p.Snapshots {
+		for _, n := range s.Nodes {
+			switch n.Tag {
+			case "circle":
+				circles++
+			case "rect":
+				rects++
+			}
+		}
+	}
+	assert.Equal(t, 3000, circles)
+	assert.Equal(t, 24, rects)
+}
+
+// When nothing is checked in the first seconds after an install, the
+// background trains the core on the training page (background.js:
+// trainAtInstall) for its budget, and a press afterwards works.
+func TestCoreTrainedAtInstall(t *testing.T) {
+	h := newHarness(t)
+	var st struct {
+		Requests int
+		SpentMs  float64
+		Finished bool
+	}
+	require.Eventually(t, func() bool {
+		require.NoError(t, json.Unmarshal([]byte(h.workerValue(`JSON.stringify(globalThis.standoutTraining || {})`)), &st))
+		return st.Finished
+	}, 60*time.Second, 100*time.Millisecond, "no training after the install: %+v", st)
+	assert.Greater(t, st.Requests, 1, "%+v", st)
+	assert.GreaterOrEqual(t, st.SpentMs, 2000.0, "training ended before its budget: %+v", st)
+	h.showPage(chartPage)
+	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+}
