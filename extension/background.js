@@ -124,8 +124,8 @@ let lastCheck = null;
 // it, and takes it up after its answer. The first run tells whether the
 // core was optimised already (loaded from Chromium's cache): when it is
 // not twice as fast as the slow check, training ends there. Only Chromium's
-// service worker trains (platform.js). Its state is globalThis.
-// standoutTraining, for the tests and the benchmark.
+// service worker trains (platform.js). The tests and the benchmark read
+// its state in standoutTraining, on the worker's global object.
 const TRAIN_MIN_MS = 100;
 const TRAIN_DELAY_MS = 500;
 const TRAIN_GAP_MS = 20;
