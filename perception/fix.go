@@ -220,23 +220,31 @@ func (fs *fixSearch) recolour(res *Result) *Fix {
 	return nil
 }
 
+// recolourColours is recolourGrid's grid, converted once (sync.Once
+// rather than the generic OnceValue, which adds 5 KB to the .wasm).
+var (
+	recolourOnce    sync.Once
+	recolourColours []colour.SRGB
+)
+
 // recolourGrid is the grid recolour searches: CIELAB from L* 20 to 90 in
 // steps of 5 and a*, b* from -96 to 96 in steps of 8, the in-gamut
 // points in sRGB, in that order. It is the same for every chart, so it is
 // converted once.
-var recolourGrid = sync.OnceValue(func() []colour.SRGB {
-	var out []colour.SRGB
-	for L := 20.0; L <= 90; L += 5 {
-		for a := -96.0; a <= 96; a += 8 {
-			for b := -96.0; b <= 96; b += 8 {
-				if c := colour.LabToSRGB(colour.Lab{L: L, A: a, B: b}); c.InGamut() {
-					out = append(out, c.Clamped())
+func recolourGrid() []colour.SRGB {
+	recolourOnce.Do(func() {
+		for L := 20.0; L <= 90; L += 5 {
+			for a := -96.0; a <= 96; a += 8 {
+				for b := -96.0; b <= 96; b += 8 {
+					if c := colour.LabToSRGB(colour.Lab{L: L, A: a, B: b}); c.InGamut() {
+						recolourColours = append(recolourColours, c.Clamped())
+					}
 				}
 			}
 		}
-	}
-	return out
-})
+	})
+	return recolourColours
+}
 
 // recolourWith is the fix that paints the emphasis c, checked by
 // re-running the analysis.
