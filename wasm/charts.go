@@ -59,16 +59,18 @@ type pending struct {
 	q       *Request
 	digests [][]byte
 	todo    []int // the charts to judge now
+	// keep says whether the digests are kept for the next request: the
+	// request came with each of its snapshots as read.
+	keep bool
 }
 
 // recallCharts looks up q's charts among those kept, when q came with its
 // snapshots as read (q.raw), and lists the ones to judge.
 func recallCharts(q *Request) *pending {
-	p := &pending{q: q}
-	if q.raw != nil && len(q.raw) == len(q.Snapshots) {
+	p := &pending{q: q, keep: q.raw != nil && len(q.raw) == len(q.Snapshots)}
+	if p.keep {
 		p.digests = charts.recall(q.options, q.raw)
 	} else {
-		q.raw = nil
 		p.digests = make([][]byte, len(q.Snapshots))
 	}
 	for i, d := range p.digests {
@@ -113,7 +115,7 @@ func (p *pending) write(b []byte, problems []string, as []report.Analysed) []byt
 		}
 		b = append(b, d...)
 	}
-	if p.q.raw != nil {
+	if p.keep {
 		charts.keep(p.q.options, p.q.raw, p.digests)
 	}
 	return report.AppendDigestClose(b)
