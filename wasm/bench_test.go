@@ -4,26 +4,38 @@ import (
 	"encoding/json"
 	"fmt"
 	"math/rand"
+	"standout/snapshot"
 	"standout/static"
 	"strings"
 	"testing"
 )
 
-// benchRequest is a request with one scatter chart of n circles.
-func benchRequest(b *testing.B, n int) []byte {
-	rng := rand.New(rand.NewSource(1))
+// scatterSnapshots is one scatter chart of n circles in four colours, as
+// the static reader reads it, with the circles recolour names painted in
+// their own colours.
+func scatterSnapshots(b *testing.B, seed int64, n int, recolour map[int]string) []snapshot.Snapshot {
+	rng := rand.New(rand.NewSource(seed))
 	cols := []string{"#3b6e8f", "#d0842c", "#5a9a4e", "#9a6aa6"}
 	var s strings.Builder
 	s.WriteString(`<svg width="1000" height="800"><g>`)
 	for i := 0; i < n; i++ {
-		fmt.Fprintf(&s, `<circle cx="%.1f" cy="%.1f" r="3" fill="%s"/>`, 10+rng.Float64()*980, 10+rng.Float64()*780, cols[rng.Intn(4)])
+		x, y, c := 10+rng.Float64()*980, 10+rng.Float64()*780, cols[rng.Intn(4)]
+		if r, ok := recolour[i]; ok {
+			c = r
+		}
+		fmt.Fprintf(&s, `<circle cx="%.1f" cy="%.1f" r="3" fill="%s"/>`, x, y, c)
 	}
 	s.WriteString(`</g></svg>`)
 	p, err := static.Build(strings.NewReader(s.String()), static.Options{Source: "bench"})
 	if err != nil {
 		b.Fatal(err)
 	}
-	req, err := json.Marshal(Request{Type: "analyse", Source: "bench", Snapshots: p.Charts})
+	return p.Charts
+}
+
+// benchRequest is a request with one scatter chart of n circles.
+func benchRequest(b *testing.B, n int) []byte {
+	req, err := json.Marshal(Request{Type: "analyse", Source: "bench", Snapshots: scatterSnapshots(b, 1, n, nil)})
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -63,26 +75,8 @@ func BenchmarkHandlePage5k(b *testing.B) {
 // emphasis, one mark in a brown that stands out for normal vision but not
 // under every CVD, so that the digest's findings search for a fix.
 func BenchmarkHandlePage5kFix(b *testing.B) {
-	rng := rand.New(rand.NewSource(5000))
-	cols := []string{"#3b6e8f", "#d0842c", "#5a9a4e", "#9a6aa6"}
-	var s strings.Builder
-	s.WriteString(`<svg width="1000" height="800"><g>`)
-	for i := 0; i < 5000; i++ {
-		c := cols[rng.Intn(4)]
-		switch i {
-		case 0:
-			c = "#7f6e5d"
-		case 2500:
-			c = "#111111"
-		}
-		fmt.Fprintf(&s, `<circle cx="%.1f" cy="%.1f" r="3" fill="%s"/>`, 10+rng.Float64()*980, 10+rng.Float64()*780, c)
-	}
-	s.WriteString(`</g></svg>`)
-	p, err := static.Build(strings.NewReader(s.String()), static.Options{Source: "bench"})
-	if err != nil {
-		b.Fatal(err)
-	}
-	page, _ := json.Marshal(map[string]any{"source": "bench", "snapshots": p.Charts})
+	snaps := scatterSnapshots(b, 5000, 5000, map[int]string{0: "#7f6e5d", 2500: "#111111"})
+	page, _ := json.Marshal(map[string]any{"source": "bench", "snapshots": snaps})
 	opts := []byte(`{"type":"analyse"}`)
 	if out := HandlePage(opts, page); !strings.Contains(string(out), `"fix"`) {
 		b.Fatal("no fix was searched")
