@@ -202,7 +202,7 @@ ext.runtime.onInstalled.addListener(() => {
 
 // stopTraining stops the training between two of its requests.
 function stopTraining() {
-  if (trainer && trainer.run) trainer.run.stopped = true;
+  if (trainer.run) trainer.run.stopped = true;
 }
 
 // analyse reads the page and runs the core. It returns the core's
