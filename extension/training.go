@@ -37,7 +37,7 @@ func TrainingPage() string {
 		h := 40 + rng.Float64()*200
 		fill := "#7d8a99"
 		if k == 9 {
-			fill = "#c0504d"
+			fill = "#b5473a"
 		}
 		fmt.Fprintf(&b, `<rect x="%d" y="%.1f" width="28" height="%.1f" fill="%s"/><text x="%d" y="290" font-size="10">w%d</text>`, 20+k*36, 270-h, h, fill, 24+k*36, k+1)
 	}
