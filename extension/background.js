@@ -121,7 +121,8 @@ let lastCheck = null;
 // request again, fresh (nothing recalled or kept: wasm/charts.go), a task
 // at a time while the reader reads the answer, until TRAIN_BUDGET_MS of
 // core time is spent in this worker. A check that needs the core stops
-// it, and takes it up after its answer. The first run tells whether the
+// it, and takes it up after its answer, on that check's request when it
+// was slow too, else on the one it ran before. The first run tells whether the
 // core was optimised already (loaded from Chromium's cache): when it is
 // not twice as fast as the slow check, training ends there. Only Chromium's
 // service worker trains (platform.js). The tests and the benchmark read
@@ -132,17 +133,21 @@ const TRAIN_GAP_MS = 20;
 const TRAIN_BUDGET_MS = 2000;
 const TRAIN_MAX_REQUESTS = 400;
 // trainer is this worker's training so far.
-// slowMs is the first slow check's core time, 0 until there is one.
-const trainer = { done: !keepsOptimisedCode, slowMs: 0, requests: 0, spentMs: 0, stops: 0, run: null };
+// slowMs is the first slow check's core time, 0 until there is one, and
+// work the last slow check's request, which training runs.
+const trainer = { done: !keepsOptimisedCode, slowMs: 0, work: null, requests: 0, spentMs: 0, stops: 0, run: null };
 
-function train(checkMs, options, page, frames) {
+function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
   const t = trainer;
-  if (!t.slowMs && checkMs >= TRAIN_MIN_MS) t.slowMs = checkMs;
+  if (checkMs >= TRAIN_MIN_MS) {
+    t.slowMs ||= checkMs;
+    t.work = { opts: JSON.stringify({ ...JSON.parse(options), fresh: true }), page, frames };
+  }
   const handle = globalThis[CORES.overlay.handle];
-  if (t.done || !t.slowMs || (t.run && !t.run.stopped) || typeof handle !== 'function') return;
+  if (t.done || !t.work || (t.run && !t.run.stopped) || typeof handle !== 'function') return;
   const run = { stopped: false };
   t.run = run;
-  const opts = JSON.stringify({ ...JSON.parse(options), fresh: true });
+  const w = t.work;
   const report = () => {
     globalThis.standoutTraining = { requests: t.requests, spentMs: t.spentMs, stops: t.stops, running: t.run !== null, finished: t.done };
   };
@@ -156,7 +161,7 @@ function train(checkMs, options, page, frames) {
     if (run.stopped) return end(false);
     const t0 = performance.now();
     try {
-      if (!handle(opts, page, ...frames).startsWith('{"ok":true')) return end(true);
+      if (!handle(w.opts, w.page, ...w.frames).startsWith('{"ok":true')) return end(true);
     } catch {
       return end(false);
     }
@@ -168,15 +173,21 @@ function train(checkMs, options, page, frames) {
     report();
     setTimeout(step, TRAIN_GAP_MS);
   };
-  setTimeout(step, TRAIN_DELAY_MS);
+  setTimeout(step, delayMs);
 }
 
 // After an install or an update, the first press would run an untrained
-// core. So when nothing has been checked INSTALL_TRAIN_AFTER_MS after it
-// (a reader who presses by then gets the checks' own training), the core
-// is trained the same way on a page that ships with the extension
-// (train.json, an invented scatter and bar chart: extension/training.go),
-// one request first to see whether it is slow at all.
+// core. So the core is trained the same way on a page that ships with the
+// extension (train.json, an invented scatter and bar chart:
+// extension/training.go): at once after an install, since a reader who
+// has just installed Standout is likely to try it soon, and
+// INSTALL_TRAIN_AFTER_MS after an update, when the browser may be busy
+// starting. A press stops it as it stops any training; one that comes
+// first needs none (checked). The page is small, so that a press made
+// while the untrained core runs it waits briefly. There is no first run
+// to tell whether the core came optimised: a module new to the profile
+// has no optimised code kept, and a browser update drops what was kept,
+// so train is told the check was infinitely slow.
 const INSTALL_TRAIN_AFTER_MS = 10000;
 let checked = false;
 
@@ -185,19 +196,14 @@ async function trainAtInstall() {
   try {
     await loadCore(CORES.overlay);
     const page = await (await fetch(ext.runtime.getURL('train.json'))).text();
-    const options = JSON.stringify({ type: 'analyse', fresh: true });
-    const handle = globalThis[CORES.overlay.handle];
-    if (checked || typeof handle !== 'function') return;
-    const t0 = performance.now();
-    if (!handle(options, page).startsWith('{"ok":true')) return;
-    train(performance.now() - t0, options, page, []);
+    if (!checked) train(Infinity, JSON.stringify({ type: 'analyse' }), page, [], 0);
   } catch (e) {
     console.warn('Standout could not train its core:', e);
   }
 }
 
-ext.runtime.onInstalled.addListener(() => {
-  if (keepsOptimisedCode) setTimeout(trainAtInstall, INSTALL_TRAIN_AFTER_MS);
+ext.runtime.onInstalled.addListener(({ reason }) => {
+  if (keepsOptimisedCode) setTimeout(trainAtInstall, reason === 'install' ? 0 : INSTALL_TRAIN_AFTER_MS);
 });
 
 // stopTraining stops the training between two of its requests.

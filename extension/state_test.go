@@ -102,10 +102,11 @@ func TestPressAfterEditJudgesTheEditedChartAlone(t *testing.T) {
 	h.waitState("")
 }
 
-// After a slow check the background trains the core (background.js:
-// train): it runs the check's request again, fresh, until its budget is
-// spent; a check that needs the core stops it, and it takes up again
-// after that check's answer; the answers it leaves are the checks' own.
+// The background trains the core (background.js: train), from the install
+// on and after a slow check: it runs a request again, fresh, until its
+// budget is spent; a check that needs the core stops it, and it takes up
+// again after that check's answer, here on that check's request; the
+// answers it leaves are the checks' own.
 func TestCoreTrainedAfterASlowCheck(t *testing.T) {
 	h := newHarness(t)
 	h.showPage(scatterCharts(1, 5000, ""))
@@ -120,7 +121,7 @@ func TestCoreTrainedAfterASlowCheck(t *testing.T) {
 	status := func() {
 		require.NoError(t, json.Unmarshal([]byte(h.workerValue(`JSON.stringify(globalThis.standoutTraining || {})`)), &st))
 	}
-	require.Eventually(t, func() bool { status(); return st.Requests > 0 }, 20*time.Second, 20*time.Millisecond, "no training after the first check")
+	require.Eventually(t, func() bool { status(); return st.Requests > 0 }, 20*time.Second, 20*time.Millisecond, "no training after the install and the first check")
 	require.False(t, st.Finished, "training ended after %d requests: %+v", st.Requests, st)
 	// A check on a changed page, while the core trains.
 	h.trigger()

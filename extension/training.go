@@ -16,18 +16,24 @@ import (
 // trainAtInstall): the page's JSON as the read pass gives it to the core.
 const TrainingFile = "train.json"
 
-// TrainingPage is an invented page for that training: a scatter of 3,000
-// points in four colours with one dark point set apart, and a bar chart of
-// 24 labelled bars with one in its own colour, so that the walk's and the
-// model's paths for points, bars and text all run.
+// trainingPoints is the size of the training page's scatter: small, so
+// that a press made while the untrained core runs the page waits little
+// (an untrained core took 400–500 ms over 5,000 marks in the browser
+// benchmark), and the training is many short requests.
+const trainingPoints = 600
+
+// TrainingPage is an invented page for that training: a scatter of
+// trainingPoints points in four colours with one dark point set apart,
+// and a bar chart of 24 labelled bars with one in its own colour, so that
+// the walk's and the model's paths for points, bars and text all run.
 func TrainingPage() string {
 	rng := rand.New(rand.NewSource(14))
 	cols := []string{"#3b6e8f", "#d0842c", "#5a9a4e", "#9a6aa6"}
 	var b strings.Builder
 	b.WriteString(`<!doctype html><html><body><svg width="900" height="600" aria-label="Invented scatter"><g>`)
-	for i := 0; i < 3000; i++ {
+	for i := 0; i < trainingPoints; i++ {
 		c := cols[rng.Intn(len(cols))]
-		if i == 1500 {
+		if i == trainingPoints/2 {
 			c = "#1d1d1d"
 		}
 		fmt.Fprintf(&b, `<circle cx="%.1f" cy="%.1f" r="3" fill="%s"/>`, 10+rng.Float64()*880, 10+rng.Float64()*580, c)

@@ -33,13 +33,13 @@ func TestTrainingPageShips(t *testing.T) {
 			}
 		}
 	}
-	assert.Equal(t, 3000, circles)
+	assert.Equal(t, trainingPoints, circles)
 	assert.Equal(t, 24, rects)
 }
 
-// When nothing is checked in the first seconds after an install, the
-// background trains the core on the training page (background.js:
-// trainAtInstall) for its budget, and a press afterwards works.
+// When nothing is checked after an install, the background trains the
+// core on the training page (background.js: trainAtInstall) for its
+// budget, and a press afterwards works.
 func TestCoreTrainedAtInstall(t *testing.T) {
 	h := newHarness(t)
 	var st struct {
