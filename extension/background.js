@@ -154,6 +154,7 @@ function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
   const end = (finished) => {
     if (t.run === run) t.run = null;
     if (run.stopped) t.stops++;
+    if (finished && !t.done) markTrained();
     t.done = t.done || finished;
     report();
   };
@@ -191,9 +192,30 @@ function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
 const INSTALL_TRAIN_AFTER_MS = 10000;
 let checked = false;
 
+// A finished training leaves a mark in the extension's Cache Storage: the
+// build and the browser it was for. Chromium installs an extension loaded
+// from the command line (a developer's build, and the tests' and
+// benchmarks') again at every start, and keeps the optimised code across;
+// the mark spares such a start a second training. An update or a browser
+// update changes the stamp.
+const TRAINED_MARK = 'https://standout.invalid/trained';
+const trainedStamp = () => `${ext.runtime.getManifest().version} ${navigator.userAgent}`;
+
+async function trainedAlready() {
+  const r = await (await caches.open('standout')).match(TRAINED_MARK);
+  return r !== undefined && (await r.text()) === trainedStamp();
+}
+
+function markTrained() {
+  caches.open('standout')
+    .then((c) => c.put(TRAINED_MARK, new Response(trainedStamp())))
+    .catch((e) => console.warn('Standout could not mark its core trained:', e));
+}
+
 async function trainAtInstall() {
   if (checked || trainer.done) return;
   try {
+    if (await trainedAlready()) return;
     await loadCore(CORES.overlay);
     const page = await (await fetch(ext.runtime.getURL('train.json'))).text();
     if (!checked) train(Infinity, JSON.stringify({ type: 'analyse' }), page, [], 0);

@@ -185,13 +185,17 @@ const readingPause = 6 * time.Second
 // with the floor measured in the same run:
 //
 //   - cold-ms: a fresh browser, the first press on a loaded page, so the
-//     core is compiled and the scripts are injected first;
+//     scripts are injected first, and the core was loaded at the install
+//     and has barely begun training (background.js: trainAtInstall);
 //   - restart-ms: a press after the service worker was stopped, following
 //     a pause to read the last answer (readingPause; the core is loaded
 //     again, from the code Chromium kept of it; the scripts are in the
 //     page);
 //   - relaunch-ms: the first press after the browser was closed and
-//     started again with the same profile, on the page loaded again;
+//     started again with the same profile, on the page loaded again (the
+//     start installs the extension again, but the mark of the finished
+//     training spares it a second one, as a real restart, which installs
+//     nothing, would);
 //   - warm-ms: the median of five presses on the loaded page, to the
 //     overlay's ready state; warm-paint-ms to the end of the frame that
 //     shows it. The page has not changed, so from the second press on the

@@ -39,9 +39,12 @@ func TestTrainingPageShips(t *testing.T) {
 
 // When nothing is checked after an install, the background trains the
 // core on the training page (background.js: trainAtInstall) for its
-// budget, and a press afterwards works.
+// budget, and a press afterwards works. The browser started again on the
+// same profile installs the extension again, as Chromium does with one
+// loaded from the command line, and does not train a second time.
 func TestCoreTrainedAtInstall(t *testing.T) {
-	h := newHarness(t)
+	profile := t.TempDir()
+	h := newHarnessWith(t, built(t), profile)
 	var st struct {
 		Requests int
 		SpentMs  float64
@@ -53,6 +56,12 @@ func TestCoreTrainedAtInstall(t *testing.T) {
 	}, 60*time.Second, 100*time.Millisecond, "no training after the install: %+v", st)
 	assert.Greater(t, st.Requests, 1, "%+v", st)
 	assert.GreaterOrEqual(t, st.SpentMs, 2000.0, "training ended before its budget: %+v", st)
+	h.showPage(chartPage)
+	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+	h.close()
+	h = newHarnessWith(t, built(t), profile)
+	time.Sleep(3 * time.Second)
+	assert.Equal(t, "none", h.workerValue(`JSON.stringify(globalThis.standoutTraining) || 'none'`), "trained again after the browser started again")
 	h.showPage(chartPage)
 	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
 }
