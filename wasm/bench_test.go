@@ -34,40 +34,57 @@ func scatterSnapshots(b *testing.B, seed int64, n int, recolour map[int]string) 
 }
 
 // benchRequest is a request with one scatter chart of n circles.
-func benchRequest(b *testing.B, n int) []byte {
-	req, err := json.Marshal(Request{Type: "analyse", Source: "bench", Snapshots: scatterSnapshots(b, 1, n, nil)})
+func benchRequest(b *testing.B, seed int64, n int) []byte {
+	req, err := json.Marshal(Request{Type: "analyse", Source: "bench", Snapshots: scatterSnapshots(b, seed, n, nil)})
 	if err != nil {
 		b.Fatal(err)
 	}
 	return req
 }
 
+// benchPage is the extension's page JSON of one scatter chart of n
+// circles (scatterSnapshots).
+func benchPage(b *testing.B, seed int64, n int, recolour map[int]string) []byte {
+	page, err := json.Marshal(map[string]any{"source": "bench", "snapshots": scatterSnapshots(b, seed, n, recolour)})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return page
+}
+
 // BenchmarkHandle5k is the core's whole request for 5,000 marks: decode,
-// walk, analyse, encode the report and its Markdown.
+// walk, analyse, encode the report and its Markdown. Two charts whose
+// marks lie elsewhere alternate, so nothing kept from the last request
+// (perception's neighbour search) serves.
 func BenchmarkHandle5k(b *testing.B) {
-	req := benchRequest(b, 5000)
-	b.SetBytes(int64(len(req)))
+	reqs := [][]byte{benchRequest(b, 1, 5000), benchRequest(b, 2, 5000)}
+	b.SetBytes(int64(len(reqs[0])))
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		Handle(req)
+		Handle(reqs[i%2])
 	}
 }
 
 // BenchmarkHandlePage5k is the extension's form: options and page apart,
-// answered with the overlay's digest.
+// answered with the overlay's digest. The pages alternate as an edit that
+// moves the marks would: the whole chart is judged again each time.
+// recoloured alternates pages that differ in one mark's fill, as a check
+// again after a recolour, which finds every mark where it was.
 func BenchmarkHandlePage5k(b *testing.B) {
-	req := benchRequest(b, 5000)
-	var q Request
-	if err := json.Unmarshal(req, &q); err != nil {
-		b.Fatal(err)
-	}
-	page, _ := json.Marshal(map[string]any{"source": "bench", "snapshots": q.Snapshots})
 	opts := []byte(`{"type":"analyse"}`)
-	b.SetBytes(int64(len(page)))
-	b.ResetTimer()
-	for i := 0; i < b.N; i++ {
-		charts.forget() // judged anew each time, as after an edit
-		HandlePage(opts, page)
+	for _, c := range []struct {
+		name  string
+		pages [][]byte
+	}{
+		{"moved", [][]byte{benchPage(b, 1, 5000, nil), benchPage(b, 2, 5000, nil)}},
+		{"recoloured", [][]byte{benchPage(b, 1, 5000, nil), benchPage(b, 1, 5000, map[int]string{0: "#5d6e7f"})}},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			b.SetBytes(int64(len(c.pages[0])))
+			for i := 0; i < b.N; i++ {
+				HandlePage(opts, c.pages[i%2])
+			}
+		})
 	}
 }
 
