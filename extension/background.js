@@ -136,6 +136,9 @@ const TRAIN_MAX_REQUESTS = 400;
 // slowMs is the first slow check's core time, 0 until there is one, and
 // work the last slow check's request, which training runs.
 const trainer = { done: !keepsOptimisedCode, slowMs: 0, work: null, requests: 0, spentMs: 0, stops: 0, run: null };
+// serving counts the presses between their start and their answer
+// (analyse): training waits for none to be left.
+let serving = 0;
 
 function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
   const t = trainer;
@@ -144,7 +147,7 @@ function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
     t.work = { opts: JSON.stringify({ ...JSON.parse(options), fresh: true }), page, frames };
   }
   const handle = globalThis[CORES.overlay.handle];
-  if (t.done || !t.work || (t.run && !t.run.stopped) || typeof handle !== 'function') return;
+  if (serving || t.done || !t.work || (t.run && !t.run.stopped) || typeof handle !== 'function') return;
   const run = { stopped: false };
   t.run = run;
   const w = t.work;
@@ -240,14 +243,29 @@ function stopTraining() {
 // A request for the whole report passes on the press's judgements of the
 // charts drawn as pixels (judged) and a point picked on one (pick), which
 // the overlay keeps, so that the report holds them.
-async function analyse(tabId, { toggle = false, emphasisNodes = [], severity, full = false, phoneWidth = 0, judged, pick } = {}) {
+//
+// Training stops, and does not start, from a press to its answer: its
+// requests would hold the worker when the read comes back, and take the
+// processor from the page while it reads. Then it takes up again, on the
+// check's request when that was slow (train), else on what it ran.
+async function analyse(tabId, opts) {
+  serving++;
+  stopTraining();
+  try {
+    return await analyseNow(tabId, opts);
+  } finally {
+    serving--;
+    train(0);
+  }
+}
+
+async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity, full = false, phoneWidth = 0, judged, pick } = {}) {
   const t0 = performance.now();
   const core = full ? CORES.report : CORES.overlay;
   const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore(core)]);
   if (read.closed) return read;
-  // This check needs the core: training waits for the next answer.
+  // This check needs the core: nothing is left to train at the install.
   checked = true;
-  stopTraining();
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as
   // the read pass wrote it, for the core's fast snapshot decoder.
