@@ -50,6 +50,7 @@ function loadCore(core = CORES.overlay) {
 function dropCore(core) {
   globalThis[core.handle] = undefined;
   core.promise = null;
+  if (core === CORES.overlay) trainer.handle = null;
 }
 
 // callCore runs one request in a core, the readings of frames of other
@@ -134,8 +135,11 @@ const TRAIN_BUDGET_MS = 2000;
 const TRAIN_MAX_REQUESTS = 400;
 // trainer is this worker's training so far.
 // slowMs is the first slow check's core time, 0 until there is one, and
-// work the last slow check's request, which training runs.
-const trainer = { done: !keepsOptimisedCode, slowMs: 0, work: null, requests: 0, spentMs: 0, stops: 0, run: null };
+// work the last slow check's request, which training runs. handle is
+// the core's handle as the first run found it, kept until the core is
+// dropped: training runs the core it was loaded for, whatever a test
+// puts in the global afterwards.
+const trainer = { done: !keepsOptimisedCode, slowMs: 0, work: null, handle: null, requests: 0, spentMs: 0, stops: 0, run: null };
 // serving counts the presses between their start and their answer
 // (analyse): training waits for none to be left.
 let serving = 0;
@@ -146,7 +150,7 @@ function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
     t.slowMs ||= checkMs;
     t.work = { opts: JSON.stringify({ ...JSON.parse(options), fresh: true }), page, frames };
   }
-  const handle = globalThis[CORES.overlay.handle];
+  const handle = (t.handle ||= globalThis[CORES.overlay.handle]);
   if (serving || t.done || !t.work || (t.run && !t.run.stopped) || typeof handle !== 'function') return;
   const run = { stopped: false };
   t.run = run;
