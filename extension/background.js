@@ -121,11 +121,11 @@ let lastCheck = null;
 // check that took the core TRAIN_MIN_MS or more, the background runs its
 // request again, fresh (nothing recalled or kept: wasm/charts.go), a task
 // at a time while the reader reads the answer, until TRAIN_BUDGET_MS of
-// core time is spent in this worker. A check that needs the core stops
-// it, and takes it up after its answer, on that check's request when it
-// was slow too, else on the one it ran before. The first run tells whether the
-// core was optimised already (loaded from Chromium's cache): when it is
-// not twice as fast as the slow check, training ends there. Only Chromium's
+// core time is spent in this worker. A press stops it, and it takes up
+// again after the press's answer (analyse), on that check's request when
+// it was slow too, else on the one it ran before. The first run tells
+// whether the core was optimised already (loaded from Chromium's cache):
+// when it is not twice as fast as the slow check, training ends there. Only Chromium's
 // service worker trains (platform.js). The tests and the benchmark read
 // its state in standoutTraining, on the worker's global object.
 const TRAIN_MIN_MS = 100;
