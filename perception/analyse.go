@@ -114,7 +114,7 @@ func (res *Result) displays(in Input, p Params) []string {
 	sort.Strings(keys)
 	res.nbs, res.reuse, res.shares = map[string][][]int{}, map[string]*reuseData{}, map[string]*shared{}
 	for _, k := range keys {
-		res.nbs[k] = neighbours(in.Marks, res.kinds[k], p.Neighbours)
+		res.nbs[k] = neighbours(in.Marks, res.kinds[k], p.Neighbours, p.Kept)
 		res.reuse[k] = &reuseData{}
 		res.shares[k] = &shared{}
 	}

@@ -39,17 +39,8 @@ func BenchmarkFix10k(b *testing.B) {
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		forgetNeighbours()
 		Analyse(in, DefaultParams)
 	}
-}
-
-// forgetNeighbours drops the kept neighbour search (lastNeighbours), so
-// that a benchmark measures the whole analysis of a chart seen first.
-func forgetNeighbours() {
-	lastNeighbours.Lock()
-	defer lastNeighbours.Unlock()
-	lastNeighbours.xs, lastNeighbours.ys, lastNeighbours.nb = nil, nil, nil
 }
 
 func benchAnalyse(b *testing.B, n int) {
@@ -57,7 +48,6 @@ func benchAnalyse(b *testing.B, n int) {
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		forgetNeighbours()
 		Analyse(in, DefaultParams)
 	}
 }
@@ -71,7 +61,6 @@ func BenchmarkOverlayAnalyse5k(b *testing.B) {
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		forgetNeighbours()
 		Analyse(in, p)
 	}
 }
@@ -91,7 +80,6 @@ func BenchmarkNeighbours5k(b *testing.B) {
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		forgetNeighbours()
-		neighbours(in.Marks, idx, DefaultParams.Neighbours)
+		neighbours(in.Marks, idx, DefaultParams.Neighbours, nil)
 	}
 }

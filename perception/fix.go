@@ -364,7 +364,7 @@ func verify(in Input, p Params, em []int, res *Result, change func(int, *Mark)) 
 		sh = &c
 	}
 	if nb == nil {
-		nb = neighbours(marks, idx, p.Neighbours)
+		nb = neighbours(marks, idx, p.Neighbours, p.Kept)
 	}
 	if reuse == nil || !reuse.have {
 		reuse = &reuseData{}

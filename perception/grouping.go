@@ -112,7 +112,7 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 	}
 	nb := reuseNeighbours(in, g.Marks, kinds, kindNbs)
 	if nb == nil {
-		nb = neighboursXY(xs, ys, max(p.Neighbours, 1))
+		nb = neighboursXY(xs, ys, max(p.Neighbours, 1), p.Kept)
 	}
 	g.add(CueProximity, proximityGroups(xs, ys, nb, p.ProximityRatio))
 	g.add(CueColour, colourGroups(in, p, g.Marks))

@@ -113,9 +113,9 @@ func TestUpperMedianMatchesSort(t *testing.T) {
 }
 
 // A neighbour search of many points is kept for the next one on the same
-// points (lastNeighbours): the lists are those a new search finds, for
+// points given the same Kept: the lists are those a new search finds, for
 // the same points and after a point has moved, and the same points ask
-// for no search again.
+// for no search again; without a Kept every call searches.
 func TestNeighboursKeptForTheSamePoints(t *testing.T) {
 	rng := rand.New(rand.NewSource(9))
 	n := keepNeighboursFrom + 200
@@ -125,16 +125,19 @@ func TestNeighboursKeptForTheSamePoints(t *testing.T) {
 	}
 	moved := slices.Clone(xs)
 	moved[7] += 40
-	first := neighboursXY(slices.Clone(xs), slices.Clone(ys), 8)
+	kept := &Kept{}
+	first := neighboursXY(slices.Clone(xs), slices.Clone(ys), 8, kept)
 	assert.Equal(t, searchNeighbours(xs, ys, 8), first)
-	again := neighboursXY(slices.Clone(xs), slices.Clone(ys), 8)
+	again := neighboursXY(slices.Clone(xs), slices.Clone(ys), 8, kept)
 	assert.Same(t, &first[0][0], &again[0][0], "the same points were searched again")
-	assert.Equal(t, searchNeighbours(xs, ys, 5), neighboursXY(xs, ys, 5), "another k")
-	assert.Equal(t, searchNeighbours(moved, ys, 5), neighboursXY(moved, ys, 5))
+	assert.NotSame(t, &first[0][0], &neighboursXY(xs, ys, 8, nil)[0][0], "kept without a Kept")
+	assert.NotSame(t, &first[0][0], &neighboursXY(xs, ys, 8, &Kept{})[0][0], "kept in another Kept")
+	assert.Equal(t, searchNeighbours(xs, ys, 5), neighboursXY(xs, ys, 5, kept), "another k")
+	assert.Equal(t, searchNeighbours(moved, ys, 5), neighboursXY(moved, ys, 5, kept))
 	// The kept coordinates are a copy: a caller that changes its own
 	// afterwards does not change what is kept.
 	mine := slices.Clone(xs)
-	neighboursXY(mine, ys, 8)
+	neighboursXY(mine, ys, 8, kept)
 	mine[3] += 25
-	assert.Equal(t, searchNeighbours(mine, ys, 8), neighboursXY(mine, ys, 8))
+	assert.Equal(t, searchNeighbours(mine, ys, 8), neighboursXY(mine, ys, 8, kept))
 }

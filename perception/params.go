@@ -164,6 +164,11 @@ type Params struct {
 	// mark's CVD verdicts and every partition do not.
 	FindingsOnly bool
 
+	// Kept, when set, is what the last analysis given it kept for this
+	// one (Kept): no threshold, and nil in DefaultParams. The extension's
+	// core keeps one for the checks of a page again.
+	Kept *Kept
+
 	// MaxHues is the number of categorical colours above which categories
 	// get hard to tell apart: Ware's "easy to select six distinct colors"
 	// (REFERENCES §8, EXACT publisher summary).

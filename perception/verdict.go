@@ -33,7 +33,7 @@ func (d *display) judgeSome(only []int) []MarkResult {
 		j.stats[ci] = d.stats(c)
 	}
 	if j.nb == nil && n > 1 && d.p.Neighbours > 0 {
-		j.nb = neighbours(d.all, d.idx, d.p.Neighbours)
+		j.nb = neighbours(d.all, d.idx, d.p.Neighbours, d.p.Kept)
 	}
 	// One backing array for every mark's channel list: fewer allocations.
 	j.chBuf = make([]Channel, 0, n/4+8)
@@ -309,8 +309,8 @@ type reuseData struct {
 }
 
 // neighbours lists, for each of the marks idx of all, its k nearest
-// among them in space, as positions in idx.
-func neighbours(all []Mark, idx []int, k int) [][]int {
+// among them in space, as positions in idx (neighboursXY).
+func neighbours(all []Mark, idx []int, k int, kept *Kept) [][]int {
 	n := len(idx)
 	if n < 2 || k <= 0 {
 		return nil
@@ -319,41 +319,49 @@ func neighbours(all []Mark, idx []int, k int) [][]int {
 	for p, i := range idx {
 		xs[p], ys[p] = all[i].X, all[i].Y
 	}
-	return neighboursXY(xs, ys, k)
+	return neighboursXY(xs, ys, k, kept)
 }
 
-// neighboursXY lists each point's k nearest points, nearest first. The
-// lists are shared (lastNeighbours) and must not be changed.
-func neighboursXY(xs, ys []float64, k int) [][]int {
+// neighboursXY lists each point's k nearest points, nearest first, from
+// kept when it holds the search of these points (nil: none kept). The
+// lists may be kept's and must not be changed.
+func neighboursXY(xs, ys []float64, k int, kept *Kept) [][]int {
 	n := len(xs)
 	if n < 2 || k <= 0 {
 		return nil
 	}
-	if n < keepNeighboursFrom {
+	if kept == nil || n < keepNeighboursFrom {
 		return searchNeighbours(xs, ys, k)
 	}
-	last := &lastNeighbours
-	last.Lock()
-	defer last.Unlock()
-	if k != last.k || !slices.Equal(xs, last.xs) || !slices.Equal(ys, last.ys) {
-		last.xs, last.ys, last.k, last.nb = slices.Clone(xs), slices.Clone(ys), k, searchNeighbours(xs, ys, k)
+	kept.mu.Lock()
+	defer kept.mu.Unlock()
+	if k != kept.k || !slices.Equal(xs, kept.xs) || !slices.Equal(ys, kept.ys) {
+		kept.xs, kept.ys, kept.k, kept.nb = slices.Clone(xs), slices.Clone(ys), k, searchNeighbours(xs, ys, k)
 	}
-	return last.nb
+	return kept.nb
 }
 
-// lastNeighbours is the last search of neighboursXY on
-// keepNeighboursFrom points or more, kept: a check again after a
-// recolour, the edit the findings' fixes ask for, finds every mark where
-// it was, and the search is about a tenth of a check of a 5,000-mark
-// scatter.
-var lastNeighbours struct {
-	sync.Mutex
+// Kept is what an analysis keeps for the next one given the same Kept
+// (Params.Kept): its last k-nearest-neighbour search of
+// keepNeighboursFrom points or more. A check again after a recolour, the
+// edit the findings' fixes ask for, finds every mark where it was, and
+// the search is about a tenth of a check of a 5,000-mark scatter. The
+// zero value keeps nothing yet; it is safe for concurrent use.
+type Kept struct {
+	mu     sync.Mutex
 	xs, ys []float64
 	k      int
 	nb     [][]int
 }
 
 const keepNeighboursFrom = 1000
+
+// Points is how many points the kept search is of, 0 when none is kept.
+func (kept *Kept) Points() int {
+	kept.mu.Lock()
+	defer kept.mu.Unlock()
+	return len(kept.xs)
+}
 
 // searchNeighbours is neighboursXY's search.
 func searchNeighbours(xs, ys []float64, k int) [][]int {

@@ -13,7 +13,7 @@ import (
 // scatterSnapshots is one scatter chart of n circles in four colours, as
 // the static reader reads it, with the circles recolour names painted in
 // their own colours.
-func scatterSnapshots(b *testing.B, seed int64, n int, recolour map[int]string) []snapshot.Snapshot {
+func scatterSnapshots(b testing.TB, seed int64, n int, recolour map[int]string) []snapshot.Snapshot {
 	rng := rand.New(rand.NewSource(seed))
 	cols := []string{"#3b6e8f", "#d0842c", "#5a9a4e", "#9a6aa6"}
 	var s strings.Builder
@@ -44,7 +44,7 @@ func benchRequest(b *testing.B, seed int64, n int) []byte {
 
 // benchPage is the extension's page JSON of one scatter chart of n
 // circles (scatterSnapshots).
-func benchPage(b *testing.B, seed int64, n int, recolour map[int]string) []byte {
+func benchPage(b testing.TB, seed int64, n int, recolour map[int]string) []byte {
 	page, err := json.Marshal(map[string]any{"source": "bench", "snapshots": scatterSnapshots(b, seed, n, recolour)})
 	if err != nil {
 		b.Fatal(err)

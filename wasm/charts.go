@@ -4,6 +4,7 @@ import (
 	"sync"
 
 	"standout/internal/report"
+	"standout/perception"
 	"standout/snapshot"
 )
 
@@ -12,12 +13,27 @@ import (
 // judges that chart alone. A chart is known by its snapshot as the read
 // pass wrote it, byte for byte, under the same options, byte for byte: a
 // chart's digest depends on nothing else (report.AppendDigestChart).
+// Within a chart judged again, the analysis reuses what it kept of the
+// last one (perception.Kept: its neighbour search, which a recolour
+// leaves as it was).
 var charts chartMemo
 
 type chartMemo struct {
 	mu      sync.Mutex
 	options string
 	digests map[string][]byte
+	kept    *perception.Kept
+}
+
+// analysisKept is what the analyses of the core's requests keep for the
+// next.
+func (m *chartMemo) analysisKept() *perception.Kept {
+	m.mu.Lock()
+	defer m.mu.Unlock()
+	if m.kept == nil {
+		m.kept = &perception.Kept{}
+	}
+	return m.kept
 }
 
 // recall returns the kept digest of each raw snapshot judged under
@@ -50,7 +66,7 @@ func (m *chartMemo) keep(options []byte, raw, digests [][]byte) {
 func (m *chartMemo) forget() {
 	m.mu.Lock()
 	defer m.mu.Unlock()
-	m.options, m.digests = "", nil
+	m.options, m.digests, m.kept = "", nil, nil
 }
 
 // pending is a page's charts being digested: the digest of each one

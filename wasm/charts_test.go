@@ -119,3 +119,22 @@ func TestRecallSkipsFramesAndSurvivesErrors(t *testing.T) {
 		require.Equal(t, want, got)
 	}
 }
+
+// Within a chart judged again, the analysis reuses its kept neighbour
+// search (perception.Kept) when the marks are where they were; a fresh
+// request, the background's training, neither uses nor replaces it, so
+// that it runs the search as a first check does.
+func TestFreshRequestKeepsNoNeighbourSearch(t *testing.T) {
+	const opts = `{"type":"analyse"}`
+	big, other := benchPage(t, 1, 1500, nil), benchPage(t, 2, 1200, nil)
+	charts.forget()
+	answer(t, opts, big)
+	kept := charts.analysisKept()
+	require.Equal(t, 1500, kept.Points())
+	fresh, _ := answer(t, `{"type":"analyse","fresh":true}`, other)
+	require.Equal(t, 1500, kept.Points(), "a fresh request replaced the kept search")
+	charts.forget()
+	want, _ := answer(t, opts, other)
+	require.Equal(t, 1200, charts.analysisKept().Points())
+	require.Equal(t, want, fresh)
+}

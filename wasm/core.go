@@ -50,9 +50,10 @@ type Request struct {
 	// report; Pick is a point the reader picked on one of them.
 	Pixels []PixelJudgement `json:"pixels"`
 	Pick   *PixelPick       `json:"pick"`
-	// Fresh judges every chart again and keeps nothing for the next
-	// request (charts.go): the background's training requests, which
-	// must run the analysis and leave the last check's digests alone.
+	// Fresh judges every chart again, with nothing kept, and keeps
+	// nothing for the next request (charts.go): the background's training
+	// requests, which must run the whole analysis, the neighbour search
+	// included, and leave the last check's digests alone.
 	Fresh bool `json:"fresh"`
 
 	// options and raw are the request's options and each snapshot's JSON
@@ -280,6 +281,9 @@ func handle(q *Request, t0 time.Time) []byte {
 	opt, err := set.Options()
 	if err != nil {
 		return errorResponse("bad request: " + err.Error())
+	}
+	if !q.Fresh {
+		opt.Params.Kept = charts.analysisKept()
 	}
 	timing["decodeMs"] = ms(t0)
 	t1 := time.Now()
