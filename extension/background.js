@@ -121,21 +121,24 @@ let lastCheck = null;
 // check that took the core TRAIN_MIN_MS or more, the background runs its
 // request again, fresh (nothing recalled or kept: wasm/charts.go), a task
 // at a time while the reader reads the answer, until TRAIN_BUDGET_MS of
-// core time is spent in this worker. A press stops it, and it takes up
-// again after the press's answer (analyse), on that check's request when
-// it was slow too, else on the one it ran before. The first run tells
-// whether the core was optimised already (loaded from Chromium's cache):
-// when it is not twice as fast as the slow check, training ends there. Only Chromium's
-// service worker trains (platform.js). The tests and the benchmark read
-// its state in standoutTraining, on the worker's global object.
+// core time is spent in this worker (and as much again for a slow check
+// after the training at the install, trainAtInstall). A press stops it,
+// and it takes up again after the press's answer (analyse), on that
+// check's request when it was slow too, else on the one it ran before.
+// The first run tells whether the core was optimised already (loaded from
+// Chromium's cache): when it is not twice as fast as the slow check,
+// training ends there. Only Chromium's service worker trains
+// (platform.js). The tests and the benchmark read its state in
+// standoutTraining, on the worker's global object.
 const TRAIN_MIN_MS = 100;
 const TRAIN_DELAY_MS = 500;
 const TRAIN_GAP_MS = 20;
 const TRAIN_BUDGET_MS = 2000;
 const TRAIN_MAX_REQUESTS = 400;
 // trainer is this worker's training so far.
-// slowMs is the first slow check's core time, 0 until there is one, and
-// work the last slow check's request, which training runs. handle is
+// slowMs is the first slow check's core time (Infinity for the install's
+// page), 0 until there is one, and work the last slow check's request,
+// which training runs. handle is
 // the core's handle as the first run found it, kept until the core is
 // dropped: training runs the core it was loaded for, whatever a test
 // puts in the global afterwards.
