@@ -135,13 +135,12 @@ const TRAIN_DELAY_MS = 500;
 const TRAIN_GAP_MS = 20;
 const TRAIN_BUDGET_MS = 2000;
 const TRAIN_MAX_REQUESTS = 400;
-// trainer is this worker's training so far.
-// slowMs is the first slow check's core time (Infinity for the install's
-// page), 0 until there is one, and work the last slow check's request,
-// which training runs. handle is
-// the core's handle as the first run found it, kept until the core is
-// dropped: training runs the core it was loaded for, whatever a test
-// puts in the global afterwards.
+// trainer is this worker's training so far. slowMs is the first slow
+// check's core time (Infinity for the install's page), 0 until there is
+// one, and work the last slow check's request, which training runs.
+// handle is the core's handle as the first run found it, kept until the
+// core is dropped: training runs the core it was loaded for, whatever a
+// test puts in the global afterwards.
 const trainer = { done: !keepsOptimisedCode, slowMs: 0, work: null, handle: null, requests: 0, spentMs: 0, stops: 0, run: null };
 // serving counts the presses between their start and their answer
 // (analyse): training waits for none to be left.

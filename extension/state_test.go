@@ -111,16 +111,8 @@ func TestCoreTrainedAfterASlowCheck(t *testing.T) {
 	h := newHarness(t)
 	h.showPage(scatterCharts(1, 5000, ""))
 	first := h.overlayHTML()
-	var st struct {
-		Requests int
-		SpentMs  float64
-		Stops    int
-		Running  bool
-		Finished bool
-	}
-	status := func() {
-		require.NoError(t, json.Unmarshal([]byte(h.workerValue(`JSON.stringify(globalThis.standoutTraining || {})`)), &st))
-	}
+	var st training
+	status := func() { st = h.training(t) }
 	require.Eventually(t, func() bool { status(); return st.Requests > 0 }, 20*time.Second, 20*time.Millisecond, "no training after the install and the first check")
 	require.False(t, st.Finished, "training ended after %d requests: %+v", st.Requests, st)
 	// A check on a changed page, while the core trains.

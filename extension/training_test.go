@@ -45,15 +45,8 @@ func TestTrainingPageShips(t *testing.T) {
 func TestCoreTrainedAtInstall(t *testing.T) {
 	profile := t.TempDir()
 	h := newHarnessWith(t, built(t), profile)
-	var st struct {
-		Requests int
-		SpentMs  float64
-		Finished bool
-	}
-	require.Eventually(t, func() bool {
-		require.NoError(t, json.Unmarshal([]byte(h.workerValue(`JSON.stringify(globalThis.standoutTraining || {})`)), &st))
-		return st.Finished
-	}, 60*time.Second, 100*time.Millisecond, "no training after the install: %+v", st)
+	var st training
+	require.Eventually(t, func() bool { st = h.training(t); return st.Finished }, 60*time.Second, 100*time.Millisecond, "no training after the install: %+v", st)
 	assert.Greater(t, st.Requests, 1, "%+v", st)
 	assert.GreaterOrEqual(t, st.SpentMs, 2000.0, "training ended before its budget: %+v", st)
 	h.showPage(chartPage)
@@ -64,4 +57,20 @@ func TestCoreTrainedAtInstall(t *testing.T) {
 	assert.Equal(t, "none", h.workerValue(`JSON.stringify(globalThis.standoutTraining) || 'none'`), "trained again after the browser started again")
 	h.showPage(chartPage)
 	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+}
+
+// training is the background's training as it reports it in
+// standoutTraining (background.js: train), zero before any.
+type training struct {
+	Requests int
+	SpentMs  float64
+	Stops    int
+	Running  bool
+	Finished bool
+}
+
+func (h *harness) training(t testing.TB) training {
+	var st training
+	require.NoError(t, json.Unmarshal([]byte(h.workerValue(`JSON.stringify(globalThis.standoutTraining || {})`)), &st))
+	return st
 }
