@@ -748,6 +748,42 @@ func TestE2ESurvivesServiceWorkerStop(t *testing.T) {
 	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
 }
 
+func TestE2EPressesAfterTheFirstInjectNoScripts(t *testing.T) {
+	// A page's first press injects the scripts; later presses on the same
+	// page find the overlay in the isolated world and only press it. A
+	// page loaded again is a new document and gets the scripts again.
+	h := newHarness(t)
+	h.showPage(chartPage)
+	h.inWorker(`globalThis.injectedFiles = 0; globalThis.pressesRun = 0;
+	  const orig = chrome.scripting.executeScript;
+	  chrome.scripting.executeScript = function (inj) {
+	    if (inj.files) globalThis.injectedFiles++;
+	    if (inj.func && inj.func.name === 'pressInPage') globalThis.pressesRun++;
+	    return orig.call(this, inj);
+	  };`)
+	count := func() (files, presses string) {
+		return h.workerValue(`String(globalThis.injectedFiles)`), h.workerValue(`String(globalThis.pressesRun)`)
+	}
+	for range 2 {
+		h.trigger() // close
+		h.waitState("")
+		h.trigger()
+		h.waitState("ready")
+	}
+	files, presses := count()
+	assert.Equal(t, "0", files, "scripts injected again into a page that has them")
+	assert.Equal(t, "4", presses)
+	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+
+	h.open(h.url)
+	h.trigger()
+	h.waitState("ready")
+	files, presses = count()
+	assert.Equal(t, "1", files, "a page loaded again gets the scripts once")
+	assert.Equal(t, "5", presses)
+	assert.Len(t, layerRects(t, h.overlayHTML())["svg0"]["pops"], 1)
+}
+
 func TestE2EExportMarkdownAndPNG(t *testing.T) { suiteExportMarkdownAndPNG(t, newHarness(t)) }
 
 func suiteExportMarkdownAndPNG(t *testing.T, h e2eBrowser) {
