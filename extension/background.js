@@ -178,18 +178,21 @@ function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
   const report = () => {
     globalThis.standoutTraining = { requests: t.requests, spentMs: t.spentMs, stops: t.stops, running: t.run !== null, finished: t.done };
   };
-  const end = (finished) => {
+  // ended says the training is over in this worker; trained, that it ran
+  // to its end, which the mark records (an error answer ends it too, and
+  // leaves the mark alone).
+  const end = (ended, trained = ended) => {
     if (t.run === run) t.run = null;
     if (run.stopped) t.stops++;
-    if (finished && !t.done) markTrained();
-    t.done = t.done || finished;
+    if (trained && !t.done) markTrained();
+    t.done = t.done || ended;
     report();
   };
   const step = () => {
     if (run.stopped) return end(false);
     const t0 = performance.now();
     try {
-      if (!handle(w.opts, w.page, ...w.frames).startsWith('{"ok":true')) return end(true);
+      if (!handle(w.opts, w.page, ...w.frames).startsWith('{"ok":true')) return end(true, false);
     } catch {
       return end(false);
     }
