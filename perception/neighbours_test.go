@@ -141,3 +141,33 @@ func TestNeighboursKeptForTheSamePoints(t *testing.T) {
 	mine[3] += 25
 	assert.Equal(t, searchNeighbours(mine, ys, 8), neighboursXY(mine, ys, 8, kept))
 }
+
+// A Kept holds the keptSearches most recently used searches: a chart's
+// two searches (its points, and the grouping's marks when they are not
+// one kind's) and a page's several charts alternate without searching
+// again, and a further search drops the one least recently used.
+func TestNeighboursKeptForAFewPointSets(t *testing.T) {
+	rng := rand.New(rand.NewSource(11))
+	sets := make([][2][]float64, keptSearches+1)
+	for s := range sets {
+		n := keepNeighboursFrom + 10*s
+		sets[s] = [2][]float64{make([]float64, n), make([]float64, n)}
+		for i := 0; i < n; i++ {
+			sets[s][0][i], sets[s][1][i] = rng.Float64()*600, rng.Float64()*400
+		}
+	}
+	kept := &Kept{}
+	search := func(s int) [][]int { return neighboursXY(slices.Clone(sets[s][0]), slices.Clone(sets[s][1]), 6, kept) }
+	a, b := search(0), search(1)
+	assert.Same(t, &a[0][0], &search(0)[0][0], "the first set was searched again after a second")
+	assert.Same(t, &b[0][0], &search(1)[0][0], "the second set was searched again after the first")
+	assert.Equal(t, len(sets[1][0]), kept.Points(), "the most recently used")
+	// Now 1, 0 by use; three more sets fill the Kept and drop set 0.
+	for s := 2; s <= keptSearches; s++ {
+		search(s)
+	}
+	again := search(0)
+	assert.NotSame(t, &a[0][0], &again[0][0], "the least recently used search was kept")
+	assert.Equal(t, searchNeighbours(sets[0][0], sets[0][1], 6), again)
+	assert.Len(t, kept.searches, keptSearches)
+}

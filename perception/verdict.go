@@ -335,32 +335,60 @@ func neighboursXY(xs, ys []float64, k int, kept *Kept) [][]int {
 	}
 	kept.mu.Lock()
 	defer kept.mu.Unlock()
-	if k != kept.k || !slices.Equal(xs, kept.xs) || !slices.Equal(ys, kept.ys) {
-		kept.xs, kept.ys, kept.k, kept.nb = slices.Clone(xs), slices.Clone(ys), k, searchNeighbours(xs, ys, k)
+	for i, s := range kept.searches {
+		if s.k == k && slices.Equal(xs, s.xs) && slices.Equal(ys, s.ys) {
+			// The most recently used first.
+			copy(kept.searches[1:i+1], kept.searches[:i])
+			kept.searches[0] = s
+			return s.nb
+		}
 	}
-	return kept.nb
+	s := keptSearch{slices.Clone(xs), slices.Clone(ys), k, searchNeighbours(xs, ys, k)}
+	if len(kept.searches) == keptSearches {
+		kept.searches[keptSearches-1] = keptSearch{} // the least recently used goes
+		kept.searches = kept.searches[:keptSearches-1]
+	}
+	kept.searches = slices.Insert(kept.searches, 0, s)
+	return s.nb
 }
 
 // Kept is what an analysis keeps for the next one given the same Kept
-// (Params.Kept): its last k-nearest-neighbour search of
-// keepNeighboursFrom points or more. A check again after a recolour, the
-// edit the findings' fixes ask for, finds every mark where it was, and
-// the search is about a tenth of a check of a 5,000-mark scatter. The
-// zero value keeps nothing yet; it is safe for concurrent use.
+// (Params.Kept): its last k-nearest-neighbour searches of
+// keepNeighboursFrom points or more, the keptSearches most recently used.
+// A check again after a recolour, the edit the findings' fixes ask for,
+// finds every mark where it was, and the search is about a tenth of a
+// check of a 5,000-mark scatter. A page may have several large charts,
+// and a chart searches once per kind of mark and once more for the
+// grouping when its grouped marks are not one kind's, so one search kept
+// would be replaced before its next use (a re-check of two charts edited
+// in turn judges both).
+// The zero value keeps nothing yet; it is safe for concurrent use.
 type Kept struct {
-	mu     sync.Mutex
+	mu       sync.Mutex
+	searches []keptSearch // the most recently used first
+}
+
+// keptSearch is one search: its points, k and lists.
+type keptSearch struct {
 	xs, ys []float64
 	k      int
 	nb     [][]int
 }
 
-const keepNeighboursFrom = 1000
+const (
+	keepNeighboursFrom = 1000
+	keptSearches       = 4
+)
 
-// Points is how many points the kept search is of, 0 when none is kept.
+// Points is how many points the most recently used search is of, 0 when
+// none is kept.
 func (kept *Kept) Points() int {
 	kept.mu.Lock()
 	defer kept.mu.Unlock()
-	return len(kept.xs)
+	if len(kept.searches) == 0 {
+		return 0
+	}
+	return len(kept.searches[0].xs)
 }
 
 // searchNeighbours is neighboursXY's search.

@@ -65,11 +65,31 @@ func BenchmarkHandle5k(b *testing.B) {
 	}
 }
 
+// twoChartPage is a page of two scatter charts of n circles, with one
+// mark of chart edit (1 or 2; 0 for none) in another colour.
+func twoChartPage(b testing.TB, n, edit int) []byte {
+	re := func(c int) map[int]string {
+		if c == edit {
+			return map[int]string{0: "#5d6e7f"}
+		}
+		return nil
+	}
+	snaps := append(scatterSnapshots(b, 1, n, re(1)), scatterSnapshots(b, 2, n, re(2))...)
+	snaps[1].Path = "svg1"
+	page, err := json.Marshal(map[string]any{"source": "bench", "snapshots": snaps})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return page
+}
+
 // BenchmarkHandlePage5k is the extension's form: options and page apart,
 // answered with the overlay's digest. The pages alternate as an edit that
 // moves the marks would: the whole chart is judged again each time.
 // recoloured alternates pages that differ in one mark's fill, as a check
-// again after a recolour, which finds every mark where it was.
+// again after a recolour, which finds every mark where it was;
+// two-recoloured a page of two such charts recoloured in turn, so that
+// both are judged each time, on the neighbour searches kept of each.
 func BenchmarkHandlePage5k(b *testing.B) {
 	opts := []byte(`{"type":"analyse"}`)
 	for _, c := range []struct {
@@ -78,6 +98,7 @@ func BenchmarkHandlePage5k(b *testing.B) {
 	}{
 		{"moved", [][]byte{benchPage(b, 1, 5000, nil), benchPage(b, 2, 5000, nil)}},
 		{"recoloured", [][]byte{benchPage(b, 1, 5000, nil), benchPage(b, 1, 5000, map[int]string{0: "#5d6e7f"})}},
+		{"two-recoloured", [][]byte{twoChartPage(b, 5000, 1), twoChartPage(b, 5000, 2)}},
 	} {
 		b.Run(c.name, func(b *testing.B) {
 			b.SetBytes(int64(len(c.pages[0])))

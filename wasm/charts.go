@@ -14,8 +14,8 @@ import (
 // pass wrote it, byte for byte, under the same options, byte for byte: a
 // chart's digest depends on nothing else (report.AppendDigestChart).
 // Within a chart judged again, the analysis reuses what it kept of the
-// last one (perception.Kept: its neighbour search, which a recolour
-// leaves as it was).
+// last ones (perception.Kept: their last few neighbour searches, which
+// a recolour leaves as they were).
 var charts chartMemo
 
 type chartMemo struct {
