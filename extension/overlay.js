@@ -977,9 +977,28 @@
   function unpack(data) {
     const r = JSON.parse(data.response);
     if (!r.ok) throw new Error(r.error);
+    for (const page of r.overlay.pages) {
+      for (const c of page.charts) {
+        c.nodes = indices(c.nodes);
+        for (const f of c.findings) f.marks = indices(f.marks);
+        if (c.emphasis) c.emphasis.marks = indices(c.emphasis.marks);
+      }
+    }
     // The core sends the overlay's digest of the report; the whole report
     // is made when it is exported.
     return { report: r.overlay, pixels: data.pixels, frameOrigins: data.frameOrigins || [], timing: Object.assign({}, data.timing, { core: r.timing }) };
+  }
+
+  // indices expands one of the digest's lists of indices, written in
+  // runs: a negative entry −w after v stands for v+1 through w
+  // (report.Digest).
+  function indices(list) {
+    const out = [];
+    for (const v of list) {
+      if (v >= 0) out.push(v);
+      else for (let k = out[out.length - 1] + 1; k <= -v; k++) out.push(k);
+    }
+    return out;
   }
 
   // render shows a check's answer, if it is the one awaited (seq): a

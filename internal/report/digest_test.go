@@ -30,3 +30,47 @@ func TestAppendHundredths(t *testing.T) {
 		assert.Equal(t, want, got, "%v: %s vs %s", v, gs, ws)
 	}
 }
+
+// The digest's lists of indices are written in runs of three or more
+// consecutive ascending values, and read back as they were.
+func TestIndicesInRuns(t *testing.T) {
+	for _, c := range []struct {
+		in   []int
+		want string
+	}{
+		{nil, "[]"},
+		{[]int{0}, "[0]"},
+		{[]int{0, 1}, "[0,1]"},
+		{[]int{0, 1, 2}, "[0,-2]"},
+		{[]int{5, 6, 7, 9, 10, 12, 13, 14, 15}, "[5,-7,9,10,12,-15]"},
+		{[]int{3, 2, 1}, "[3,2,1]"},
+		{[]int{4, 4, 5, 6}, "[4,4,-6]"},
+		{[]int{-1, 0, 1, 2, 25, 3}, "[0,-3]"}, // outside [0, 20) left out
+	} {
+		got := appendInts(nil, c.in, 20)
+		assert.Equal(t, c.want, string(got), "%v", c.in)
+		var back Indices
+		require.NoError(t, back.UnmarshalJSON(got))
+		var kept []int
+		for _, x := range c.in {
+			if x >= 0 && x < 20 {
+				kept = append(kept, x)
+			}
+		}
+		assert.Equal(t, append(Indices{}, kept...), back, "%s", got)
+	}
+	rng := rand.New(rand.NewSource(4))
+	for trial := 0; trial < 200; trial++ {
+		var in []int
+		for x := rng.Intn(3); len(in) < 40; x += 1 + rng.Intn(3) - rng.Intn(2) {
+			in = append(in, x)
+		}
+		var back Indices
+		require.NoError(t, back.UnmarshalJSON(appendInts(nil, in, 1<<20)))
+		require.Equal(t, Indices(in), back)
+	}
+	for _, bad := range []string{"[-3]", "[5,-6]", "[5,-4]", "[1,x]", "{}"} {
+		var v Indices
+		assert.Error(t, v.UnmarshalJSON([]byte(bad)), bad)
+	}
+}
