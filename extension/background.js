@@ -304,11 +304,14 @@ async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity,
   if (full && pick) options.pick = pick;
   const request = [core.file, JSON.stringify(options), read.json, ...frames.pages];
   const reused = lastCheck && lastCheck.request.length === request.length && lastCheck.request.every((s, i) => s === request[i]);
+  const tc = performance.now();
   const response = reused ? lastCheck.response : await callCore(core, request[1], read.json, frames.pages);
   const t2 = performance.now();
   if (!reused && response.startsWith('{"ok":true')) {
     lastCheck = { request, response };
-    if (core === CORES.overlay) train(t2 - t1, request[1], read.json, frames.pages);
+    // The core's own time decides the training, which runs the core
+    // alone: coreMs also holds the reading of frames of other origins.
+    if (core === CORES.overlay) train(t2 - tc, request[1], read.json, frames.pages);
   }
   // A press judges the charts drawn as pixels; a re-check would capture
   // the overlay's own outlines over them.
