@@ -9,6 +9,7 @@ import (
 	"standout/internal/jsonio"
 	"standout/marks"
 	"standout/perception"
+	"standout/snapshot"
 )
 
 // Digest is the part of a report the overlay needs, columnar so that it
@@ -79,9 +80,14 @@ func (v *Indices) UnmarshalJSON(b []byte) error {
 		return nil
 	}
 	for _, f := range strings.Split(s, ",") {
-		x, err := strconv.Atoi(strings.TrimSpace(f))
-		if err != nil {
-			return errors.New("digest: " + err.Error())
+		f = strings.TrimSpace(f)
+		digits := strings.TrimPrefix(f, "-")
+		if digits == "" || digits[0] < '0' || digits[0] > '9' || digits[0] == '0' && len(digits) > 1 {
+			return errors.New("digest: " + strconv.Quote(f) + " is not an index")
+		}
+		x, err := strconv.Atoi(f)
+		if err != nil || x >= snapshot.MaxNodes || x <= -snapshot.MaxNodes {
+			return errors.New("digest: " + strconv.Quote(f) + " is not an index of a chart's marks")
 		}
 		if x >= 0 {
 			out = append(out, x)
@@ -89,6 +95,10 @@ func (v *Indices) UnmarshalJSON(b []byte) error {
 		}
 		if len(out) == 0 || -x < out[len(out)-1]+2 {
 			return errors.New("digest: a run's end " + strconv.Itoa(x) + " follows no value it can end")
+		}
+		// A chart has at most snapshot.MaxNodes marks.
+		if -x-out[len(out)-1] > snapshot.MaxNodes-len(out) {
+			return errors.New("digest: a list of indices longer than a chart's marks can be")
 		}
 		for k := out[len(out)-1] + 1; k <= -x; k++ {
 			out = append(out, k)

@@ -4,7 +4,9 @@ import (
 	"encoding/json"
 	"math"
 	"math/rand"
+	"slices"
 	"standout/internal/jsonio"
+	"standout/snapshot"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -69,8 +71,44 @@ func TestIndicesInRuns(t *testing.T) {
 		require.NoError(t, back.UnmarshalJSON(appendInts(nil, in, 1<<20)))
 		require.Equal(t, Indices(in), back)
 	}
-	for _, bad := range []string{"[-3]", "[5,-6]", "[5,-4]", "[1,x]", "{}"} {
+	for _, bad := range []string{"[-3]", "[5,-6]", "[5,-4]", "[1,x]", "{}", "[0,-2000000000]", "[07]", "[+1]", "[600000]"} {
 		var v Indices
 		assert.Error(t, v.UnmarshalJSON([]byte(bad)), bad)
 	}
+}
+
+// FuzzIndices holds the runs to a round trip: any list of indices,
+// written in runs, reads back as the list (within [0, n)); and any text
+// read as a list reads back the same after it is written again.
+func FuzzIndices(f *testing.F) {
+	f.Add([]byte{0, 1, 2, 3, 7, 8, 9, 9, 200}, "[2,-5001,7,9,10]")
+	f.Add([]byte{5, 4, 3}, "[0,1]")
+	f.Add([]byte{}, " [ 1 , -3 ] ")
+	f.Fuzz(func(t *testing.T, raw []byte, text string) {
+		var in []int
+		for _, b := range raw {
+			in = append(in, int(b)-8) // some below 0, left out
+		}
+		var kept Indices
+		for _, x := range in {
+			if x >= 0 && x < 240 {
+				kept = append(kept, x)
+			}
+		}
+		var back Indices
+		if err := back.UnmarshalJSON(appendInts(nil, in, 240)); err != nil {
+			t.Fatalf("%v: %v", in, err)
+		}
+		if !slices.Equal(append(Indices{}, kept...), back) {
+			t.Fatalf("%v: read back %v", in, back)
+		}
+		var v Indices
+		if v.UnmarshalJSON([]byte(text)) != nil {
+			return
+		}
+		var again Indices
+		if err := again.UnmarshalJSON(appendInts(nil, v, snapshot.MaxNodes)); err != nil || !slices.Equal(v, again) {
+			t.Fatalf("%q: read %v, written and read again %v (%v)", text, v, again, err)
+		}
+	})
 }
