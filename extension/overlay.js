@@ -333,11 +333,15 @@
   }
 
   function showSelection() {
+    const picked = state.view.picked;
     for (const [path, l] of state.layers) {
       const idx = [];
-      l.chart.nodes.forEach((node, i) => {
-        if (state.view.picked.has(path + '#' + node)) idx.push(i);
-      });
+      // Every render calls this; most have nothing picked.
+      if (picked.size) {
+        l.chart.nodes.forEach((node, i) => {
+          if (picked.has(path + '#' + node)) idx.push(i);
+        });
+      }
       l.selection.setAttribute('d', rectPath(l.chart, idx, l.readBox[0], l.readBox[1], 7));
     }
   }
