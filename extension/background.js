@@ -512,11 +512,20 @@ async function show(tabId, result) {
 // (exported for Firefox's test build, platform.js).
 export async function toggle(tab) {
   if (!tab || tab.id === undefined) return;
+  // The press's steps outside the read, the core and the render, on the
+  // clock the page shares (timeOrigin plus now): when the press reached
+  // the background, and when its answer left for the page (the overlay
+  // times the crossing; the benchmark's steps).
+  const startedAt = performance.timeOrigin + performance.now();
   let seq;
   try {
     const r = await analyse(tab.id, { toggle: true });
     seq = r.seq;
-    if (!r.closed) await show(tab.id, r);
+    if (!r.closed) {
+      r.timing.startedAt = startedAt;
+      r.timing.sentAt = performance.timeOrigin + performance.now();
+      await show(tab.id, r);
+    }
   } catch (e) {
     await showError(tab.id, e, seq);
   }

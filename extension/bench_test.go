@@ -49,12 +49,18 @@ type press struct {
 	// Ready is the milliseconds from the press to the overlay's ready
 	// state; Painted to the end of the first frame after it.
 	Ready, Painted float64
-	// Timing is what the extension recorded of its steps.
+	// Timing is what the extension recorded of its steps. StartedAt is
+	// when the press reached the background, on the clock the page
+	// shares (timeOrigin plus now); DeliveryMs the answer's crossing to
+	// the page, UnpackMs its unpacking there.
 	Timing struct {
 		ReadMs, StringifyMs, ReadTripMs, CoreLoadMs, CoreMs, RenderMs float64
+		StartedAt, DeliveryMs, UnpackMs                               float64
 		Reused                                                        bool
 		Core                                                          map[string]float64
 	}
+	// ClickMs is from the press to the background's handler.
+	ClickMs float64
 }
 
 // clickToOverlay presses the action once and times it in the page. A
@@ -77,19 +83,22 @@ func (h *harness) clickToOverlay(tb testing.TB) press {
 		h.press()
 		deadline := time.Now().Add(10 * time.Second)
 		for time.Now().Before(deadline) {
-			v := h.eval(`window.__t2 ? JSON.stringify([window.__t1 - window.__t0, window.__t2 - window.__t0, document.querySelector('` + hostSelector + `').getAttribute('data-timing')]) : ''`)
+			v := h.eval(`window.__t2 ? JSON.stringify([window.__t1 - window.__t0, window.__t2 - window.__t0, document.querySelector('` + hostSelector + `').getAttribute('data-timing'), performance.timeOrigin + window.__t0]) : ''`)
 			if v == "" {
 				time.Sleep(5 * time.Millisecond)
 				continue
 			}
-			var raw [3]json.RawMessage
+			var raw [4]json.RawMessage
 			require.NoError(tb, json.Unmarshal([]byte(v), &raw))
 			var p press
 			var timing string
+			var pressedAt float64
 			require.NoError(tb, json.Unmarshal(raw[0], &p.Ready))
 			require.NoError(tb, json.Unmarshal(raw[1], &p.Painted))
 			require.NoError(tb, json.Unmarshal(raw[2], &timing))
+			require.NoError(tb, json.Unmarshal(raw[3], &pressedAt))
 			require.NoError(tb, json.Unmarshal([]byte(timing), &p.Timing))
+			p.ClickMs = p.Timing.StartedAt - pressedAt
 			return p
 		}
 		tb.Logf("press %d was lost; pressing again", attempt)
@@ -164,7 +173,7 @@ func (h *harness) warmPresses(b *testing.B, n int, change bool) []press {
 			h.eval(`document.querySelector('circle').setAttribute('fill', '` + []string{"#5d6e7f", "#7f6e5d"}[k%2] + `'), ''`)
 		}
 		p := h.clickToOverlay(b)
-		b.Logf("%d marks, warm press %d (page changed: %v): %.0f ms to ready, %.0f ms to the frame; %+v", n, k, change, p.Ready, p.Painted, p.Timing)
+		b.Logf("%d marks, warm press %d (page changed: %v): %.0f ms to ready, %.0f ms to the frame, %.1f ms to the background; %+v", n, k, change, p.Ready, p.Painted, p.ClickMs, p.Timing)
 		out = append(out, p)
 		h.trigger()
 		h.waitState("")
@@ -206,8 +215,11 @@ const readingPause = 6 * time.Second
 //     once in a new isolated world; floor-warm-ms its median over three more
 //     runs in that world;
 //   - read (the read pass in the page), read-trip (from the service
-//     worker's call to the page's answer, the read included), core and
-//     render: the warm presses' median steps, in ms.
+//     worker's call to the page's answer, the read included), core,
+//     render, click (from the press to the background's handler) and
+//     delivery (the answer's crossing to the page): the warm presses'
+//     median steps, in ms; changed-core the core's step of the presses
+//     on a changed page.
 //
 // Run with:
 //
@@ -231,6 +243,7 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 		n, body := c.n, scatterCharts(c.charts, c.n/c.charts, c.css)
 		b.Run(c.name, func(b *testing.B) {
 			var cold, restart, relaunch, warm, changed, paint, floor, floorWarm, read, trip, core, render float64
+			var click, delivery, changedCore float64
 			for i := 0; i < b.N; i++ {
 				profile := b.TempDir()
 				h := newHarnessWith(b, built(b), profile)
@@ -241,19 +254,21 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 				h.open(srv.URL + "/")
 				p := h.clickToOverlay(b)
 				cold += p.Ready
-				b.Logf("%d marks, cold press: %.0f ms to ready, %.0f ms to the frame; %+v", n, p.Ready, p.Painted, p.Timing)
+				b.Logf("%d marks, cold press: %.0f ms to ready, %.0f ms to the frame, %.0f ms to the background; %+v", n, p.Ready, p.Painted, p.ClickMs, p.Timing)
 				h.trigger() // close
 				h.waitState("")
-				var ws, ps, rs, ts, cs, ds, wc []float64
+				var ws, ps, rs, ts, cs, ds, ks, ls, wc, cc []float64
 				for _, p := range h.warmPresses(b, n, false) {
 					ws, ps = append(ws, p.Ready), append(ps, p.Painted)
 					rs, ts = append(rs, p.Timing.ReadMs), append(ts, p.Timing.ReadTripMs)
 					cs, ds = append(cs, p.Timing.CoreMs), append(ds, p.Timing.RenderMs)
+					ks, ls = append(ks, p.ClickMs), append(ls, p.Timing.DeliveryMs)
 				}
 				for _, p := range h.warmPresses(b, n, true) {
-					wc = append(wc, p.Ready)
+					wc, cc = append(wc, p.Ready), append(cc, p.Timing.CoreMs)
 				}
-				changed += median(wc)
+				changed, changedCore = changed+median(wc), changedCore+median(cc)
+				click, delivery = click+median(ks), delivery+median(ls)
 				warm, paint = warm+median(ws), paint+median(ps)
 				read, trip = read+median(rs), trip+median(ts)
 				core, render = core+median(cs), render+median(ds)
@@ -293,6 +308,9 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 			b.ReportMetric(trip/k, "read-trip-ms")
 			b.ReportMetric(core/k, "core-ms")
 			b.ReportMetric(render/k, "render-ms")
+			b.ReportMetric(click/k, "click-ms")
+			b.ReportMetric(delivery/k, "delivery-ms")
+			b.ReportMetric(changedCore/k, "changed-core-ms")
 		})
 	}
 }

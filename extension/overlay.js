@@ -1008,9 +1008,12 @@
   // render shows a check's answer, if it is the one awaited (seq): a
   // core's error becomes the error panel.
   function render(data, seq) {
+    const arrived = performance.timeOrigin + performance.now();
     let result;
     try {
       result = unpack(data);
+      if (result.timing.sentAt) result.timing.deliveryMs = arrived - result.timing.sentAt;
+      result.timing.unpackMs = performance.timeOrigin + performance.now() - arrived;
     } catch (e) {
       return dispatch({ type: 'fail', seq }, String((e && e.message) || e)).length > 0;
     }
