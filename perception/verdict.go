@@ -344,11 +344,12 @@ func neighboursXY(xs, ys []float64, k int, kept *Kept) [][]int {
 		}
 	}
 	s := keptSearch{slices.Clone(xs), slices.Clone(ys), k, searchNeighbours(xs, ys, k)}
-	if len(kept.searches) == keptSearches {
-		kept.searches[keptSearches-1] = keptSearch{} // the least recently used goes
-		kept.searches = kept.searches[:keptSearches-1]
+	// In front; when the Kept is full, the least recently used goes.
+	if len(kept.searches) < keptSearches {
+		kept.searches = append(kept.searches, keptSearch{})
 	}
-	kept.searches = slices.Insert(kept.searches, 0, s)
+	copy(kept.searches[1:], kept.searches)
+	kept.searches[0] = s
 	return s.nb
 }
 
