@@ -92,8 +92,8 @@ async function run(tabId, injection) {
 // them and press.js, whose value is the press's outcome. The scripts stay
 // in the extension's isolated world until the page goes, so a page's
 // presses after its first pay neither the scripts' transfer nor their
-// compiling and running again (about 3 ms a press at 5,000 marks, from
-// the browser benchmark's steps). A re-check asks the overlay, which is
+// compiling and running again (2–3 ms a press at 5,000 marks, from the
+// browser benchmark's steps). A re-check asks the overlay, which is
 // there, to read again.
 async function readPage(tabId, toggle) {
   let r;
