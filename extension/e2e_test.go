@@ -873,6 +873,21 @@ func TestE2ESiblingStyleSharing(t *testing.T) {
 		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
 		{"a cross-origin style sheet", `<!doctype html><html><head><link rel="stylesheet" href="` + other.URL + `/s.css"></head><body>
 		  <svg width="400" height="200"><g>` + circles(30) + `</g></svg></body></html>`, false},
+		// Siblings that share a style and have no transform share their
+		// group's CTM: transforms by attribute, class, inline style and
+		// CSS's individual properties, among plain siblings, in nested
+		// and linked groups, and marks right under the <svg>.
+		{"transforms among alike siblings", `<!doctype html><html><head><style>
+		  .t { transform: translate(5px, 7px) } .u { translate: 3px 4px } .r { rotate: 10deg } .s { scale: 1.5 } .z { zoom: 2 }</style></head><body>
+		  <svg width="400" height="200" viewBox="0 0 800 400">` + circles(5) + `<g transform="translate(10,20) scale(1.5)">` + circles(10) +
+			`<circle transform="rotate(30)" cx="4" cy="4" r="2"/>` + circles(3) + `<circle class="t" cx="5" cy="5" r="2"/><circle class="u" cx="6" cy="6" r="2"/>
+		  <circle class="r" cx="7" cy="7" r="2"/><circle class="s" cx="8" cy="8" r="2"/><circle class="z" cx="8" cy="9" r="2"/><circle style="transform: scale(2)" cx="9" cy="9" r="2"/>
+		  <g class="t">` + circles(6) + `<g>` + circles(4) + `<text x="3" y="9">a</text><text x="5" y="9">b</text></g></g>
+		  <a href="#x"><rect x="1" y="1" width="4" height="4"/><rect x="6" y="1" width="4" height="4"/><rect x="11" y="1" width="4" height="4" transform="skewX(20)"/></a>
+		  <g class="u">` + circles(4) + `</g><g style="transform: rotate(45deg)"><path d="M0,0 L10,10"/><path d="M0,5 L10,15"/></g></g></svg></body></html>`, true},
+		{"a SMIL animation", `<!doctype html><html><head></head><body>
+		  <svg width="400" height="200"><g>` + circles(10) + `<circle cx="5" cy="5" r="3"><animateTransform attributeName="transform" type="translate" to="40 0" dur="60s"/></circle>` +
+			circles(10) + `</g></svg></body></html>`, false},
 		{"the demo page", string(demoPage(t)), true},
 	}
 	for _, f := range []string{"../testdata/cascade.html", "../testdata/transforms.svg"} {

@@ -247,7 +247,9 @@
   // combinators, :root, :host, and :is(), :where() and :not() of such
   // selectors (none of which tells alike siblings apart), and
   // pseudo-elements (which style no element itself); and no animation or
-  // transition may be running. Otherwise every element's style is read.
+  // transition may be running, nor any SMIL animation be in the root.
+  // Otherwise every element's style is read. Siblings that share a style
+  // and have no transform share their group's CTM too (ChartWalk.add).
   // The attributes that can reach the style a read pass reads: those
   // selectors and presentation attributes use, and those the browser's
   // own style sheet and <switch> test.
@@ -294,12 +296,30 @@
   function siblingsShareStyles(root) {
     const doc = root.ownerDocument || root;
     if (typeof doc.getAnimations !== 'function' || doc.getAnimations().length > 0) return false;
+    // SMIL animates an element by its children, which no style key sees.
+    if (root.querySelector('animate, animateTransform, animateMotion, set')) return false;
     const sheets = [...(root.styleSheets || []), ...(root.adoptedStyleSheets || [])];
     for (const sh of sheets) if (!sheetShareable(sh, 0)) return false;
     return true;
   }
 
   const STYLE_ATTR_SET = new Set(STYLE_ATTRS);
+
+  // The elements whose CTM is their parent's when they have no transform
+  // of their own (the shapes, text and groups; not <use>, whose x and y
+  // place its content, nor viewports or what is not rendered), and the
+  // parents whose CTM they then share: groups.
+  const PLAIN_TAGS = new Set(['g', 'a', 'circle', 'ellipse', 'rect', 'line', 'polyline', 'polygon', 'path', 'text']);
+  const GROUP_TAGS = new Set(['g', 'a']);
+
+  // untransformed says whether a computed style moves its element by
+  // none of CSS's transforms: transform (which holds the transform
+  // attribute too), the individual translate, rotate and scale, a motion
+  // path, or zoom.
+  function untransformed(cs) {
+    const none = (v) => v === undefined || v === '' || v === 'none';
+    return none(cs.transform) && none(cs.translate) && none(cs.rotate) && none(cs.scale) && none(cs.offsetPath) && (cs.zoom === undefined || cs.zoom === '' || cs.zoom === '1' || cs.zoom === 'normal');
+  }
 
   // styleKey is what of an element's attributes can reach its style: its
   // tag and those attributes, by name and value, in document order (the
@@ -309,6 +329,7 @@
     let k = tag;
     for (const a of el.getAttributeNames()) {
       if (STYLE_ATTR_SET.has(a)) k += '\u0000' + a + '\u0001' + el.getAttribute(a);
+      else if (a === 'transform') k += '\u0000transform'; // siblings share a CTM only without one
     }
     return k;
   }
@@ -552,17 +573,21 @@
     }
 
     // style reads el's style, shared among alike siblings where that is
-    // safe (shared maps their style keys to styles).
+    // safe (shared maps their style keys to {st, plain}: the style, and
+    // whether the siblings have neither a transform attribute nor a
+    // transform in their computed style, which sharing finds once for
+    // all of them). It returns {st, plain}; plain is false where the
+    // style was read alone.
     style(el, tag, parent, instanced, shared) {
-      if (instanced && parent >= 0) return styleOf(this.w, el, tag, this.w.styles[parent]);
-      if (!shared) return styleOf(this.w, el, tag, null);
+      if (instanced && parent >= 0) return { st: styleOf(this.w, el, tag, this.w.styles[parent]), plain: false };
+      if (!shared) return { st: styleOf(this.w, el, tag, null), plain: false };
       const key = styleKey(el, tag);
-      let st = shared.get(key);
-      if (!st) {
-        st = styleOf(this.w, el, tag, null);
-        shared.set(key, st);
+      let e = shared.get(key);
+      if (!e) {
+        e = { st: styleOf(this.w, el, tag, null), plain: PLAIN_TAGS.has(tag) && !el.hasAttribute('transform') && untransformed(getComputedStyle(el)) };
+        shared.set(key, e);
       }
-      return st;
+      return e;
     }
 
     // add writes el's record and walks its subtree. k is its index among
@@ -573,10 +598,15 @@
       this.count(useDepth);
       const w = this.w;
       const tag = el.localName.toLowerCase();
-      // An <svg> is a viewport of its own: measured directly.
-      const m = ctmOverride ? mul(ctmOverride, ownTransform(el)) : screenCTMOf(el, tag === 'svg' ? null : vp, this.sx, this.sy);
+      const { st, plain } = this.style(el, tag, parent, !!ctmOverride, shared);
+      // An <svg> is a viewport of its own: measured directly. An element
+      // with no transform of its own in a group has the group's CTM: a
+      // getCTM per mark was about a third of reading a large scatter.
+      let m;
+      if (ctmOverride) m = mul(ctmOverride, ownTransform(el));
+      else if (plain && parent >= 0 && GROUP_TAGS.has(w.tagName[parent])) m = w.ctms[parent];
+      else m = screenCTMOf(el, tag === 'svg' ? null : vp, this.sx, this.sy);
       const idx = w.begin(parent, tag, k, m);
-      const st = this.style(el, tag, parent, !!ctmOverride, shared);
       let has = w.style(st) | w.ctm(idx, m);
       if (geometry(el, tag, w.nodes, st[7], st[8])) has |= HAS_GEOM;
       if ((tag === 'text' || tag === 'path') && !ctmOverride && !(st[0] & C.NODE_HIDDEN)) has |= w.box(el.getBoundingClientRect(), this.sx, this.sy);
