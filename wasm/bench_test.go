@@ -42,14 +42,19 @@ func benchRequest(b *testing.B, seed int64, n int) []byte {
 	return req
 }
 
-// benchPage is the extension's page JSON of one scatter chart of n
-// circles (scatterSnapshots).
-func benchPage(b testing.TB, seed int64, n int, recolour map[int]string) []byte {
-	page, err := json.Marshal(map[string]any{"source": "bench", "snapshots": scatterSnapshots(b, seed, n, recolour)})
+// pageOf is the extension's page JSON of the charts snaps.
+func pageOf(b testing.TB, snaps []snapshot.Snapshot) []byte {
+	page, err := json.Marshal(map[string]any{"source": "bench", "snapshots": snaps})
 	if err != nil {
 		b.Fatal(err)
 	}
 	return page
+}
+
+// benchPage is the extension's page JSON of one scatter chart of n
+// circles (scatterSnapshots).
+func benchPage(b testing.TB, seed int64, n int, recolour map[int]string) []byte {
+	return pageOf(b, scatterSnapshots(b, seed, n, recolour))
 }
 
 // BenchmarkHandle5k is the core's whole request for 5,000 marks: decode,
@@ -76,11 +81,7 @@ func twoChartPage(b testing.TB, n, edit int) []byte {
 	}
 	snaps := append(scatterSnapshots(b, 1, n, re(1)), scatterSnapshots(b, 2, n, re(2))...)
 	snaps[1].Path = "svg1"
-	page, err := json.Marshal(map[string]any{"source": "bench", "snapshots": snaps})
-	if err != nil {
-		b.Fatal(err)
-	}
-	return page
+	return pageOf(b, snaps)
 }
 
 // BenchmarkHandlePage5k is the extension's form: options and page apart,
@@ -114,7 +115,7 @@ func BenchmarkHandlePage5k(b *testing.B) {
 // under every CVD, so that the digest's findings search for a fix.
 func BenchmarkHandlePage5kFix(b *testing.B) {
 	snaps := scatterSnapshots(b, 5000, 5000, map[int]string{0: "#7f6e5d", 2500: "#111111"})
-	page, _ := json.Marshal(map[string]any{"source": "bench", "snapshots": snaps})
+	page := pageOf(b, snaps)
 	opts := []byte(`{"type":"analyse"}`)
 	if out := HandlePage(opts, page); !strings.Contains(string(out), `"fix"`) {
 		b.Fatal("no fix was searched")
