@@ -158,15 +158,53 @@ func (j *judging) channel(k, ci int, c Channel) float64 {
 	if j.nb == nil {
 		return global
 	}
-	ld := math.Inf(1)
 	own := st.own(k, d.small)
-	for _, n := range j.nb[k] {
-		dj := d.dist(c, k, n)
+	ld := d.nearest(c, k, j.nb[k], own)
+	return max(global, localSalience(ld, m, h, global, !own))
+}
+
+// nearest is the least distance (dist) from mark k to the marks nb in a
+// channel that is not colour, counting, when own, only the distances of a
+// step or more: the hot loop of the channels on large charts, with the
+// channel chosen once rather than per neighbour.
+func (d *display) nearest(c Channel, k int, nb []int, own bool) float64 {
+	ld := math.Inf(1)
+	keep := func(dj float64) {
 		if (!own || dj >= 1) && dj < ld {
 			ld = dj
 		}
 	}
-	return max(global, localSalience(ld, m, h, global, !own))
+	switch c {
+	case Size:
+		s := d.size[k]
+		for _, n := range nb {
+			keep(math.Abs(s - d.size[n]))
+		}
+	case Orientation:
+		if d.oriP == 0 {
+			if len(nb) > 0 {
+				keep(0)
+			}
+			break
+		}
+		for _, n := range nb {
+			keep(d.dist(Orientation, k, n))
+		}
+	case Shape:
+		s := d.shape[k]
+		for _, n := range nb {
+			dj := 0.0
+			if d.shape[n] != s {
+				dj = 1
+			}
+			keep(dj)
+		}
+	default:
+		for _, n := range nb {
+			keep(d.dist(c, k, n))
+		}
+	}
+	return ld
 }
 
 // hueAndLightness are mark k's hue and lightness saliences. They share one
