@@ -25,15 +25,25 @@ func (d *display) judgeSome(only []int) []MarkResult {
 		return make([]MarkResult, len(only))
 	}
 	j := judging{d: d, nb: d.nb, reuse: d.reuse != nil && d.reuse.have, chromaRef: medianChroma(d), contrastRef: medianContrast(d)}
-	for ci, c := range Channels {
-		if j.reuse && !colourChannel(ci) {
-			j.stats[ci] = d.reuse.stats[ci]
-			continue
-		}
-		j.stats[ci] = d.stats(c)
-	}
 	if j.nb == nil && n > 1 && d.p.Neighbours > 0 {
 		j.nb = neighbours(d.all, d.idx, d.p.Neighbours, d.p.Kept)
+	}
+	// The channels that are not colour, judged of every mark: as an
+	// analysis before left them, when its display had these marks' sizes,
+	// angles, shapes and places (Kept.channelsOf).
+	keep := only == nil && !j.reuse && d.p.Kept != nil && n >= keepNeighboursFrom && j.nb != nil
+	if keep {
+		j.kept = d.p.Kept.channelsOf(d, j.nb)
+	}
+	for ci, c := range Channels {
+		switch {
+		case j.reuse && !colourChannel(ci):
+			j.stats[ci] = d.reuse.stats[ci]
+		case j.kept != nil && !colourChannel(ci):
+			j.stats[ci] = j.kept.stats[ci]
+		default:
+			j.stats[ci] = d.stats(c)
+		}
 	}
 	// One backing array for every mark's channel list: fewer allocations.
 	j.chBuf = make([]Channel, 0, n/4+8)
@@ -47,6 +57,9 @@ func (d *display) judgeSome(only []int) []MarkResult {
 	res := make([]MarkResult, n)
 	for k := range d.idx {
 		res[k] = j.one(k)
+	}
+	if keep && j.kept == nil {
+		d.p.Kept.keepChannels(j.channelsKept(res))
 	}
 	if d.reuse != nil && !d.reuse.have {
 		d.reuse.have = true
@@ -74,7 +87,10 @@ type judging struct {
 	stats       [nChannels]channelStats
 	nb          [][]int
 	reuse       bool
-	chBuf       []Channel
+	// kept, when set, holds the channels that are not colour as an
+	// earlier analysis judged them of these marks.
+	kept  *keptChannels
+	chBuf []Channel
 }
 
 // one is mark k's saliences, the channels that carry it and its verdict
@@ -89,6 +105,8 @@ func (j *judging) one(k int) MarkResult {
 		switch {
 		case j.reuse && !colourChannel(ci):
 			r.Salience[ci] = d.reuse.sal[k][ci]
+		case j.kept != nil && !colourChannel(ci):
+			r.Salience[ci] = j.kept.sal[k][ci]
 		case ci == lightnessAt:
 			// computed with hue
 		case ci == hueAt:
@@ -393,7 +411,8 @@ func neighboursXY(xs, ys []float64, k int, kept *Kept) [][]int {
 
 // Kept is what an analysis keeps for the next one given the same Kept
 // (Params.Kept): its last k-nearest-neighbour searches of
-// keepNeighboursFrom points or more, the keptSearches most recently used.
+// keepNeighboursFrom points or more, the keptSearches most recently used,
+// and as many judgings of those displays' channels that are not colour.
 // A check again after a recolour, the edit the findings' fixes ask for,
 // finds every mark where it was, and the search is about a tenth of a
 // check of a 5,000-mark scatter. A page may have several large charts,
@@ -405,6 +424,83 @@ func neighboursXY(xs, ys []float64, k int, kept *Kept) [][]int {
 type Kept struct {
 	mu       sync.Mutex
 	searches []keptSearch // the most recently used first
+	// channels are the last judgings of the channels that are not colour
+	// in displays of keepNeighboursFrom marks or more, the most recently
+	// used first: a recolour leaves them as they were too, and they are
+	// about a third of judging such a display.
+	channels []*keptChannels
+}
+
+// keptChannels is what judging one display computed of the channels that
+// do not depend on colour (size, orientation, shape), with all it was
+// computed from: the marks' sizes, angles, shapes and neighbours, the
+// size of their small groups and the parameters.
+type keptChannels struct {
+	p          Params // Kept left out
+	size, ori  []float64
+	oriP       float64
+	shape      []int32
+	small, grp int
+	nb         [][]int // a kept search's lists, known by identity
+	stats      [nChannels]channelStats
+	sal        []Saliences // per mark, of every mark, seen or not
+}
+
+// channelsOf is the kept judging of d's channels that are not colour, nil
+// when none was made of the same marks under the same parameters.
+func (kept *Kept) channelsOf(d *display, nb [][]int) *keptChannels {
+	p := *d.p
+	p.Kept = nil
+	kept.mu.Lock()
+	defer kept.mu.Unlock()
+	for i, c := range kept.channels {
+		if len(c.nb) == len(nb) && &c.nb[0] == &nb[0] && c.small == d.small && c.grp == d.group && c.p == p &&
+			sameFloats(c.oriP, d.oriP) && slices.Equal(c.shape, d.shape) && slices.EqualFunc(c.size, d.size, sameFloats) && slices.EqualFunc(c.ori, d.ori, sameFloats) {
+			copy(kept.channels[1:i+1], kept.channels[:i])
+			kept.channels[0] = c
+			return c
+		}
+	}
+	return nil
+}
+
+// sameFloats compares bit for bit: a NaN is the same as itself.
+func sameFloats(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
+
+// keepChannels keeps c in front; when full, the least recently used goes.
+func (kept *Kept) keepChannels(c *keptChannels) {
+	kept.mu.Lock()
+	defer kept.mu.Unlock()
+	if len(kept.channels) < keptSearches {
+		kept.channels = append(kept.channels, nil)
+	}
+	copy(kept.channels[1:], kept.channels)
+	kept.channels[0] = c
+}
+
+// channelsKept is what judging every mark of j's display, as res, computed
+// of the channels that are not colour. A mark the reader cannot see was
+// not judged (one); its saliences are computed here, as another analysis
+// of these marks in other colours may see it.
+func (j *judging) channelsKept(res []MarkResult) *keptChannels {
+	d := j.d
+	c := &keptChannels{p: *d.p, size: d.size, ori: d.ori, oriP: d.oriP, shape: d.shape, small: d.small, grp: d.group, nb: j.nb,
+		sal: make([]Saliences, len(res))}
+	c.p.Kept = nil
+	for ci, ch := range Channels {
+		if colourChannel(ci) {
+			continue
+		}
+		c.stats[ci] = j.stats[ci]
+		for k := range res {
+			if d.seen(k) {
+				c.sal[k][ci] = res[k].Salience[ci]
+			} else {
+				c.sal[k][ci] = j.channel(k, ci, ch)
+			}
+		}
+	}
+	return c
 }
 
 // keptSearch is one search: its points, k and lists.
