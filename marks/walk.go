@@ -987,14 +987,33 @@ func swatchPairs(h *Heuristics, cands []*cand, texts []*cand) []swatchPair {
 	sigOf := func(c *cand) sig {
 		return sig{c.n.Parent, c.g.Shape, int64(math.Round(c.g.BBox[2])), int64(math.Round(c.g.BBox[3]))}
 	}
-	alike := map[sig]int{}
-	for _, c := range cands {
-		alike[sigOf(c)]++
+	if !slices.ContainsFunc(texts, func(t *cand) bool { return t.role == RoleLabel || t.role == RoleMark }) {
+		return nil // no text to pair with
+	}
+	// Each shape's signature, numbered: siblings usually come in runs of
+	// one signature, which are numbered without a lookup.
+	ids, alike := make([]int32, len(cands)), []int{}
+	number := map[sig]int32{}
+	var last sig
+	for i, c := range cands {
+		s := sigOf(c)
+		if i == 0 || s != last {
+			id, ok := number[s]
+			if !ok {
+				id = int32(len(alike))
+				number[s] = id
+				alike = append(alike, 0)
+			}
+			ids[i], last = id, s
+		} else {
+			ids[i] = ids[i-1]
+		}
+		alike[ids[i]]++
 	}
 	var pairs []swatchPair
 	on := overShapes{}
-	for _, c := range cands {
-		if c.role != RoleMark || alike[sigOf(c)] > h.SwatchMaxSiblings {
+	for i, c := range cands {
+		if c.role != RoleMark || alike[ids[i]] > h.SwatchMaxSiblings {
 			continue
 		}
 		b := c.g.BBox
