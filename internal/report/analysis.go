@@ -17,21 +17,33 @@ import (
 func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input {
 	bg := snapshot.Unpack(ch.Background).SRGB
 	in := perception.Input{Background: bg}
-	conv := func(m marks.Mark) perception.Mark {
+	// The paints' hex forms, a few kept: a chart repeats a few colours.
+	var hexes [16]struct {
+		v uint32
+		s string
+	}
+	hex := func(v uint32) string {
+		e := &hexes[(v^v>>8^v>>16^v>>24)&15]
+		if e.s == "" || e.v != v {
+			e.v, e.s = v, snapshot.Hex(v)
+		}
+		return e.s
+	}
+	conv := func(m *marks.Mark) perception.Mark {
 		pm := perception.Mark{ID: m.ID, Kind: string(m.Kind), Size: m.Size, Angle: m.Angle, Fold: m.Fold,
 			Shape: string(m.Shape), X: m.Centroid.X, Y: m.Centroid.Y, Box: m.BBox}
 		filled := m.Fill != nil && m.FillOpacity > 0 && (m.Area > 0 || m.Kind == marks.KindText)
 		switch {
 		case filled:
 			pm.Colour = colour.Over(snapshot.Unpack(*m.Fill), m.FillOpacity*m.Opacity, bg)
-			pm.Paint, pm.Alpha = snapshot.Hex(*m.Fill), m.FillOpacity*m.Opacity
+			pm.Paint, pm.Alpha = hex(*m.Fill), m.FillOpacity*m.Opacity
 			if m.Stroke != nil && m.StrokeOpacity > 0 && m.StrokeWidth > 0 {
 				pm.Outline = colour.Over(snapshot.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
 				pm.HasOutline = true
 			}
 		case m.Stroke != nil:
 			pm.Colour = colour.Over(snapshot.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
-			pm.Paint, pm.Alpha = snapshot.Hex(*m.Stroke), m.StrokeOpacity*m.Opacity
+			pm.Paint, pm.Alpha = hex(*m.Stroke), m.StrokeOpacity*m.Opacity
 		default:
 			pm.Colour = bg
 		}
@@ -68,7 +80,8 @@ func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input
 		return pm
 	}
 	in.Marks = make([]perception.Mark, 0, len(ch.Marks))
-	for i, m := range ch.Marks {
+	for i := range ch.Marks {
+		m := &ch.Marks[i]
 		in.Marks = append(in.Marks, conv(m))
 		if emphasisIDs[m.ID] {
 			in.Emphasis = append(in.Emphasis, i)
@@ -79,8 +92,8 @@ func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input
 	}
 	in.Emphasis = append(in.Emphasis, ch.Selected...)
 	in.Emphasis = uniq(in.Emphasis)
-	for _, m := range ch.Legend {
-		in.Legend = append(in.Legend, conv(m))
+	for i := range ch.Legend {
+		in.Legend = append(in.Legend, conv(&ch.Legend[i]))
 	}
 	return in
 }
