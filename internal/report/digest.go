@@ -378,15 +378,29 @@ func appendHundredths(b []byte, v float64) []byte {
 		b = append(b, '-')
 		k = -k
 	}
-	b = strconv.AppendInt(b, k/100, 10)
-	switch f := k % 100; {
+	// The digits backwards into a buffer: strconv's general path costs
+	// more than the few digits a box's coordinate has.
+	var d [24]byte
+	i := len(d)
+	f := k % 100
+	switch {
 	case f == 0:
 	case f%10 == 0:
-		b = append(b, '.', byte('0'+f/10))
+		i -= 2
+		d[i], d[i+1] = '.', byte('0'+f/10)
 	default:
-		b = append(b, '.', byte('0'+f/10), byte('0'+f%10))
+		i -= 3
+		d[i], d[i+1], d[i+2] = '.', byte('0'+f/10), byte('0'+f%10)
 	}
-	return b
+	k /= 100
+	for {
+		i--
+		d[i] = byte('0' + k%10)
+		if k /= 10; k == 0 {
+			break
+		}
+	}
+	return append(b, d[i:]...)
 }
 
 // appendInts writes the indices of v that lie within [0, n), in runs.
