@@ -255,22 +255,15 @@ func lowContrast(in Input) (map[contrastKey]*lowGroup, []contrastKey) {
 		cr float64
 		k  contrastKey
 	}
-	cache := map[colour.SRGB]known{}
-	// Neighbouring marks often repeat a colour: the last one is at hand.
-	var lastC colour.SRGB
-	var last known
+	colours := newIndexer[colour.SRGB]()
+	var cache []known
 	lookup := func(c colour.SRGB) known {
-		if c == lastC && last.cr != 0 {
-			return last
-		}
-		v, ok := cache[c]
-		if !ok {
+		i := colours.of(c)
+		if i == len(cache) {
 			r, g, b := c.RGB8()
-			v = known{colour.ContrastRatio(c, in.Background), contrastKey{r, g, b, 0}}
-			cache[c] = v
+			cache = append(cache, known{colour.ContrastRatio(c, in.Background), contrastKey{r, g, b, 0}})
 		}
-		lastC, last = c, v
-		return v
+		return cache[i]
 	}
 	low := map[contrastKey]*lowGroup{}
 	var keys []contrastKey

@@ -15,12 +15,27 @@ func newIndexer[K comparable]() *indexer[K] {
 	return &indexer[K]{index: map[K]int{}, last: -1}
 }
 
+// scanKeys is how many distinct keys are looked up by comparing each
+// rather than by hashing: a chart has a few colours, kinds and shapes,
+// and == is what a map's lookup compares by too (a NaN is never found).
+const scanKeys = 8
+
 // of returns k's number, numbering it if it is new.
 func (x *indexer[K]) of(k K) int {
 	if x.last >= 0 && x.keys[x.last] == k {
 		return x.last
 	}
-	i, ok := x.index[k]
+	i, ok := -1, false
+	if len(x.keys) <= scanKeys {
+		for j := range x.keys {
+			if x.keys[j] == k {
+				i, ok = j, true
+				break
+			}
+		}
+	} else {
+		i, ok = x.index[k]
+	}
 	if !ok {
 		i = len(x.keys)
 		x.index[k] = i

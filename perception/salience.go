@@ -124,25 +124,17 @@ type palette struct {
 
 func newPalette(all []Mark, idx []int) *palette {
 	p := &palette{of: make([]int32, len(idx))}
-	index := map[colour.SRGB]int32{}
-	last := int32(-1)
+	colours := newIndexer[colour.SRGB]()
 	for k, i := range idx {
-		c := all[i].Colour
-		// Neighbouring marks often repeat a colour.
-		if last < 0 || c != p.colours[last] {
-			i, ok := index[c]
-			if !ok {
-				i = int32(len(p.colours))
-				index[c] = i
-				p.colours = append(p.colours, c)
-				p.first = append(p.first, k)
-				p.count = append(p.count, 0)
-			}
-			last = i
+		c := colours.of(all[i].Colour)
+		if c == len(p.first) {
+			p.first = append(p.first, k)
+			p.count = append(p.count, 0)
 		}
-		p.of[k] = last
-		p.count[last]++
+		p.of[k] = int32(c)
+		p.count[c]++
 	}
+	p.colours = colours.keys
 	return p
 }
 
