@@ -563,16 +563,21 @@ func (d *display) conjunctions(res []MarkResult, stats *[nChannels]channelStats)
 		}
 		return sig{int64(math.Round(l.L / nd[0])), int64(math.Round(l.A / nd[1])), int64(math.Round(l.B / nd[2])), sz, o, sh}
 	}
-	groups := map[sig][]int{}
+	sigs := newIndexer[sig]()
+	var groups [][]int
 	for k := range d.idx {
-		s := sigOf(k)
+		s := sigs.of(sigOf(k))
+		if s == len(groups) {
+			groups = append(groups, nil)
+		}
 		groups[s] = append(groups[s], k)
 	}
-	reps := make([]int, 0, len(groups))
-	for _, g := range groups {
-		reps = append(reps, g[0])
+	// Numbered in the order of their first marks: the representatives
+	// are in mark order.
+	reps := make([]int, len(groups))
+	for s, g := range groups {
+		reps[s] = g[0]
 	}
-	sort.Ints(reps)
 	for _, g := range groups {
 		if len(g) > d.small || len(g) >= n || res[g[0]].Verdict == Pops || !d.seen(g[0]) {
 			continue
