@@ -185,6 +185,8 @@ func newDisplayShared(p *Params, all []Mark, idx []int, bg colour.SRGB, v colour
 		ndIx := newIndexer[[3]float64]()
 		var nds [][3]float64
 		fold := -1
+		var lastSize, lastSteps float64
+		var lastLength bool
 		for k, i := range idx {
 			m := &all[i]
 			d.shape[k] = int32(shapes.of(m.Shape))
@@ -198,7 +200,12 @@ func newDisplayShared(p *Params, all []Mark, idx []int, bg colour.SRGB, v colour
 			if m.Length {
 				exp = p.StevensLength
 			}
-			d.size[k] = exp * math.Log(max(m.Size, 1e-9)) / math.Log(p.SizeStepRatio)
+			// Marks repeat their neighbours' sizes: a logarithm is dear.
+			if k == 0 || m.Size != lastSize || m.Length != lastLength {
+				lastSize, lastLength = m.Size, m.Length
+				lastSteps = exp * math.Log(max(m.Size, 1e-9)) / math.Log(p.SizeStepRatio)
+			}
+			d.size[k] = lastSteps
 			if fold == -1 {
 				fold = m.Fold
 			} else if fold != m.Fold {
@@ -239,10 +246,12 @@ func valueChannelSize(all []Mark, idx []int, size []float64) bool {
 	case "bar", "rule", "arc", "area":
 		return true
 	case "point":
-		steps := map[int64]bool{}
+		var steps []int64 // the distinct steps, up to three
 		for _, s := range size {
-			if steps[int64(math.Round(s))] = true; len(steps) > 2 {
-				return true
+			if v := int64(math.Round(s)); !slices.Contains(steps, v) {
+				if steps = append(steps, v); len(steps) > 2 {
+					return true
+				}
 			}
 		}
 	}
