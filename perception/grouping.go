@@ -303,7 +303,9 @@ func segDist(x, y float64, a, b [2]float64) float64 {
 
 // reuseNeighbours returns the neighbour lists the salience step already
 // computed when the grouped marks are exactly the marks of one kind (the
-// usual chart), re-indexed to positions in marks; else nil.
+// usual chart), re-indexed to positions in marks (the very lists when
+// marks are the kind's marks in order, as they usually are: they may be
+// a kept search's and must not be changed); else nil.
 func reuseNeighbours(in Input, marks []int, kinds map[string][]int, kindNbs map[string][][]int) [][]int {
 	if len(marks) == 0 {
 		return nil
@@ -312,6 +314,9 @@ func reuseNeighbours(in Input, marks []int, kinds map[string][]int, kindNbs map[
 	idx, nbs := kinds[k], kindNbs[k]
 	if len(idx) != len(marks) || len(nbs) != len(idx) {
 		return nil
+	}
+	if slices.Equal(idx, marks) {
+		return nbs // the same marks in the same order: the same lists
 	}
 	pos := make([]int, len(in.Marks))
 	for p, i := range marks {
