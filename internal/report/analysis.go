@@ -11,24 +11,29 @@ import (
 	"standout/snapshot"
 )
 
+// hexCache keeps a few paints' hex forms: a chart repeats a few colours,
+// and a string each is an allocation per mark.
+type hexCache [16]struct {
+	v uint32
+	s string
+}
+
+func (c *hexCache) of(v uint32) string {
+	e := &c[(v^v>>8^v>>16^v>>24)&15]
+	if e.s == "" || e.v != v {
+		e.v, e.s = v, snapshot.Hex(v)
+	}
+	return e.s
+}
+
 // ToPerception converts a walked chart into the analysis input: each mark's
 // painted colour composited over the chart background, its size channel
 // and geometry.
 func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input {
 	bg := snapshot.Unpack(ch.Background).SRGB
 	in := perception.Input{Background: bg}
-	// The paints' hex forms, a few kept: a chart repeats a few colours.
-	var hexes [16]struct {
-		v uint32
-		s string
-	}
-	hex := func(v uint32) string {
-		e := &hexes[(v^v>>8^v>>16^v>>24)&15]
-		if e.s == "" || e.v != v {
-			e.v, e.s = v, snapshot.Hex(v)
-		}
-		return e.s
-	}
+	var hexes hexCache
+	hex := hexes.of
 	conv := func(m *marks.Mark) perception.Mark {
 		pm := perception.Mark{ID: m.ID, Kind: string(m.Kind), Size: m.Size, Angle: m.Angle, Fold: m.Fold,
 			Shape: string(m.Shape), X: m.Centroid.X, Y: m.Centroid.Y, Box: m.BBox}
