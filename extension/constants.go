@@ -47,7 +47,8 @@ func Constants() []byte {
 		name string
 		v    int
 	}{{"HAS_CTM", snapshot.FieldCTM}, {"HAS_GEOM", snapshot.FieldGeom}, {"HAS_BBOX", snapshot.FieldBBox}, {"HAS_D", snapshot.FieldD},
-		{"HAS_TEXT", snapshot.FieldText}, {"HAS_LABEL", snapshot.FieldLabel}, {"HAS_NAME", snapshot.FieldName}, {"HAS_SAME_STYLE", snapshot.FieldSameStyle}, {"HAS_CLASS", snapshot.FieldClass}} {
+		{"HAS_TEXT", snapshot.FieldText}, {"HAS_LABEL", snapshot.FieldLabel}, {"HAS_NAME", snapshot.FieldName}, {"HAS_SAME_STYLE", snapshot.FieldSameStyle}, {"HAS_CLASS", snapshot.FieldClass},
+		{"HAS_STYLE_REF", snapshot.FieldStyleRef}} {
 		num(f.name, f.v)
 	}
 	for _, f := range []struct {

@@ -28,6 +28,7 @@ globalThis.standoutConstants = Object.freeze({
   HAS_NAME: 64,
   HAS_SAME_STYLE: 128,
   HAS_CLASS: 256,
+  HAS_STYLE_REF: 512,
   STYLE_FLAGS: 0,
   STYLE_FILL: 1,
   STYLE_STROKE: 2,

@@ -27,7 +27,7 @@ func TestNoHandCopyOfTheWireFormat(t *testing.T) {
 		src, err := os.ReadFile(f)
 		require.NoError(t, err)
 		for _, name := range []string{"SNAPSHOT_VERSION", "MAX_CHART_NODES", "MAX_PAGE_NODES", "MAX_USE_NODES", "HAS_CTM", "HAS_GEOM", "HAS_BBOX",
-			"HAS_D", "HAS_TEXT", "HAS_LABEL", "HAS_NAME", "HAS_SAME_STYLE", "NOT_RENDERED", "GEOM", "VERDICTS", "STYLE_FILL"} {
+			"HAS_D", "HAS_TEXT", "HAS_LABEL", "HAS_NAME", "HAS_SAME_STYLE", "HAS_STYLE_REF", "NOT_RENDERED", "GEOM", "VERDICTS", "STYLE_FILL"} {
 			decl := regexp.MustCompile(`(?m)^\s*(const|let|var)\s+` + name + `\s*=`)
 			assert.False(t, decl.Match(src), "%s declares %s by hand", f, name)
 		}

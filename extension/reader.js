@@ -337,8 +337,17 @@
   const IDENTITY = [1, 0, 0, 1, 0, 0];
   // The optional fields of a node record and the slots of its style
   // (snapshot/json.go).
-  const { HAS_CTM, HAS_GEOM, HAS_BBOX, HAS_D, HAS_TEXT, HAS_LABEL, HAS_NAME, HAS_SAME_STYLE, HAS_CLASS } = C;
+  const { HAS_CTM, HAS_GEOM, HAS_BBOX, HAS_D, HAS_TEXT, HAS_LABEL, HAS_NAME, HAS_SAME_STYLE, HAS_CLASS, HAS_STYLE_REF } = C;
   const { STYLE_FILL, STYLE_STROKE, STYLE_FILL_OPACITY, STYLE_STROKE_OPACITY, STYLE_STROKE_WIDTH } = C;
+
+  // sameStyle compares the seven numbers of two records' styles.
+  function sameStyle(a, b) {
+    return a[0] === b[0] && a[1] === b[1] && a[2] === b[2] && a[3] === b[3] && a[4] === b[4] && a[5] === b[5] && a[6] === b[6];
+  }
+
+  // How many of the styles written last a record's style is looked for
+  // among, by value, when it is not found by identity.
+  const STYLES_SEARCHED = 16;
 
   // capError is thrown when a chart passes a cap; its message is the note.
   class capError extends Error {}
@@ -369,6 +378,8 @@
       this.linkOf = [];
       this.tagName = [];
       this.prev = null;
+      this.full = []; // the styles written out, in order
+      this.written = new Map(); // style arrays → their number in full
     }
 
     get count() {
@@ -415,16 +426,30 @@
       return idx;
     }
 
-    // style writes the record's style, or, when it repeats the previous
-    // record's (as most marks' do), says so in the has bits it returns.
+    // style writes the record's style; when it repeats the previous
+    // record's (as runs of marks do), it says so in the has bits it
+    // returns, and when it repeats one written before (as marks of a few
+    // colours in no order do), it writes that style's number instead.
+    // A style shared among alike siblings is one array (ChartWalk.style):
+    // it is found by identity, others by their values among the last few
+    // written.
     style(st) {
       const p = this.prev;
       this.styles.push(st);
-      if (p && st[0] === p[0] && st[1] === p[1] && st[2] === p[2] && st[3] === p[3] && st[4] === p[4] && st[5] === p[5] && st[6] === p[6]) {
-        return HAS_SAME_STYLE;
-      }
-      this.nodes.push(st[0], st[1], st[2], st[3], st[4], st[5], st[6]);
       this.prev = st;
+      if (p && sameStyle(st, p)) return HAS_SAME_STYLE;
+      let ref = this.written.get(st);
+      for (let i = this.full.length - 1; ref === undefined && i >= Math.max(0, this.full.length - STYLES_SEARCHED); i--) {
+        if (sameStyle(st, this.full[i])) ref = i;
+      }
+      if (ref !== undefined) {
+        this.written.set(st, ref);
+        this.nodes.push(ref);
+        return HAS_STYLE_REF;
+      }
+      this.written.set(st, this.full.length);
+      this.full.push(st);
+      this.nodes.push(st[0], st[1], st[2], st[3], st[4], st[5], st[6]);
       return 0;
     }
 

@@ -23,9 +23,10 @@ import (
 // "paints" is a table of Paint entries, each its kind, its colour, the
 // number of its stops and the stops. Each node is one record of numbers in
 // "nodes", four fixed fields, then the node's style (seven numbers, unless
-// it repeats the previous record's) and then the optional fields:
+// it repeats the previous record's, or one number when it repeats a style
+// written before) and then the optional fields:
 //
-//	parent tag name has [flags fill stroke fillOpacity strokeOpacity opacity strokeWidth] …
+//	parent tag name has [flags fill stroke fillOpacity strokeOpacity opacity strokeWidth | style] …
 //
 // tag indexes "tags"; fill and stroke index the paint entries; flags are
 // Node.Flags. name derives Node.Name from the parent's: the root's is the
@@ -35,6 +36,9 @@ import (
 // this order:
 //
 //	128 the style is the previous record's and is not written
+//	512 the style is one written before: one number in its place, the
+//	    style's index among the styles written out, in their order (a
+//	    chart's marks take a few styles, not in runs)
 //	 1  CTM: six numbers; without it the parent's CTM (the root's: identity)
 //	 2  Geom: a count, at most maxGeom, then the numbers
 //	 4  BBox: four numbers
@@ -58,7 +62,8 @@ const (
 	FieldName
 	FieldSameStyle
 	FieldClass
-	fieldAll = FieldCTM | FieldGeom | FieldBBox | FieldD | FieldText | FieldLabel | FieldName | FieldSameStyle | FieldClass
+	FieldStyleRef
+	fieldAll = FieldCTM | FieldGeom | FieldBBox | FieldD | FieldText | FieldLabel | FieldName | FieldSameStyle | FieldClass | FieldStyleRef
 )
 
 // The slots of a node record's style, in order.
@@ -323,7 +328,8 @@ type nodeReader struct {
 	names  []byte
 	nameAt [][2]int32
 	slab   []float64
-	spans  []span // geometry (node ≥ 0) and boxes (−node−1), cut from slab
+	spans  []span  // geometry (node ≥ 0) and boxes (−node−1), cut from slab
+	styled []int32 // the nodes whose records write their styles out, in order
 }
 
 type span struct{ node, at, n int32 }
@@ -384,18 +390,30 @@ func (nr *nodeReader) next() error {
 	return nil
 }
 
-// style reads the record's style, or repeats the previous record's.
+// style reads the record's style, or repeats the previous record's or
+// one written before.
 func (nr *nodeReader) style(nd *Node, has int) error {
 	r, v := &nr.r, nr.r.v
-	if has&FieldSameStyle != 0 {
-		if r.node == 0 {
+	if has&FieldSameStyle != 0 || has&FieldStyleRef != 0 {
+		from := r.node - 1
+		switch {
+		case has&FieldSameStyle != 0 && has&FieldStyleRef != 0:
+			return r.error("a record repeats two styles")
+		case has&FieldStyleRef != 0:
+			k, err := r.int("style", 0, len(nr.styled))
+			if err != nil {
+				return err
+			}
+			from = int(nr.styled[k])
+		case r.node == 0:
 			return r.error("the first record cannot repeat a style")
 		}
-		prev := &nr.s.Nodes[r.node-1]
+		prev := &nr.s.Nodes[from]
 		nd.Flags, nd.Fill, nd.Stroke = prev.Flags, prev.Fill, prev.Stroke
 		nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = prev.FillOpacity, prev.StrokeOpacity, prev.Opacity, prev.StrokeWidth
 		return nil
 	}
+	nr.styled = append(nr.styled, int32(r.node))
 	flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
 	if err != nil {
 		return err
@@ -631,6 +649,7 @@ func (e *wireEncoder) str(s string) float64 {
 func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 	var out []float64
 	var prevStyle [StyleLen]float64
+	styles := map[[StyleLen]uint64]int{} // the styles written out, numbered
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
 		p := int(nd.Parent)
@@ -645,12 +664,21 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 		}
 		fill, stroke := e.paint(nd.Fill), e.paint(nd.Stroke)
 		style := [StyleLen]float64{float64(nd.Flags), fill, stroke, nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth}
-		if i > 0 && sameStyle(style, prevStyle) {
+		ref, written := styles[styleKey(style)]
+		switch {
+		case i > 0 && sameStyle(style, prevStyle):
 			has |= FieldSameStyle
+		case written:
+			has |= FieldStyleRef
 		}
 		out = append(out, float64(p), e.tag(nd.Tag), float64(nk), float64(has))
-		if has&FieldSameStyle == 0 {
+		switch {
+		case has&FieldSameStyle != 0:
+		case has&FieldStyleRef != 0:
+			out = append(out, float64(ref))
+		default:
 			out = append(out, style[:]...)
+			styles[styleKey(style)] = len(styles)
 		}
 		prevStyle = style
 		out = e.optional(out, nd, has)
@@ -754,6 +782,14 @@ func (e *wireEncoder) optional(out []float64, nd *Node, has int) []float64 {
 
 // sameStyle compares styles as the decoder will read them: bit for bit, so
 // that a NaN, written as null and read as 0, is never taken for another.
+// styleKey is a style bit for bit, as sameStyle compares it.
+func styleKey(a [StyleLen]float64) (k [StyleLen]uint64) {
+	for i, v := range a {
+		k[i] = math.Float64bits(v)
+	}
+	return k
+}
+
 func sameStyle(a, b [StyleLen]float64) bool {
 	for k := range a {
 		if math.Float64bits(a[k]) != math.Float64bits(b[k]) {

@@ -134,6 +134,51 @@ func TestSnapshotJSONRecords(t *testing.T) {
 	assert.Equal(t, normalised(s), normalised(again))
 }
 
+// A record may take a style written out before by its index among the
+// styles written out (has 512): a scatter's marks alternate a few styles.
+// The encoder writes each distinct style out once, and the decoder reads
+// the references back to the same snapshot.
+func TestSnapshotJSONStyleRefs(t *testing.T) {
+	in := `{"v":2,"path":"svg0","tags":["svg","circle"],"paints":[0,0,0, 1,4278190335,0, 1,16711935,0],
+	"nodes":[
+	  -1,0,0,0, 0,0,0, 1,1,1,0,
+	  0,1,0,2, 0,1,0, 1,1,1,0, 3,1,1,3,
+	  0,1,1,2, 0,2,0, 0.5,1,1,0, 3,2,2,3,
+	  0,1,2,514, 1, 3,3,3,3,
+	  0,1,3,514, 2, 3,4,4,3,
+	  0,1,4,130, 3,5,5,3
+	]}`
+	var s snapshot.Snapshot
+	require.NoError(t, json.Unmarshal([]byte(in), &s))
+	require.Len(t, s.Nodes, 6)
+	style := func(n snapshot.Node) []any {
+		return []any{n.Flags, n.Fill, n.Stroke, n.FillOpacity, n.StrokeOpacity, n.Opacity, n.StrokeWidth}
+	}
+	assert.Equal(t, style(s.Nodes[1]), style(s.Nodes[3]), "style 1: the first circle's")
+	assert.Equal(t, style(s.Nodes[2]), style(s.Nodes[4]), "style 2: the second circle's")
+	assert.Equal(t, style(s.Nodes[4]), style(s.Nodes[5]), "has 128 after a reference: the previous record's")
+	assert.NotEqual(t, style(s.Nodes[1]), style(s.Nodes[2]))
+
+	// The encoder writes three styles out and refers to them after.
+	c := snapshot.Snapshot{Version: snapshot.SnapshotVersion, Path: "svg0", Nodes: []snapshot.Node{{Parent: -1, Tag: "svg", Name: "svg0"}}}
+	for i := 0; i < 300; i++ {
+		c.Nodes = append(c.Nodes, snapshot.Node{Parent: 0, Tag: "circle", Name: "svg0/circle" + strconv.Itoa(i), Geom: []float64{float64(i), 1, 3},
+			Fill: snapshot.Paint{Kind: snapshot.PaintColour, RGBA: uint32(0x11223300 + i%3*0x10000 + 0xff)}, FillOpacity: 1, StrokeOpacity: 1, Opacity: 1})
+	}
+	b, err := json.Marshal(c)
+	require.NoError(t, err)
+	var wire struct{ Nodes []float64 }
+	require.NoError(t, json.Unmarshal(b, &wire))
+	// The root writes its CTM (a zero matrix) and the first style.
+	assert.Len(t, wire.Nodes, 4+7+6+3*(4+7+4)+297*(4+1+4), "each style written out once")
+	var again snapshot.Snapshot
+	require.NoError(t, json.Unmarshal(b, &again))
+	assert.Equal(t, normalised(c), normalised(again))
+	oracle, err := snapshot.DecodeByReflection(b)
+	require.NoError(t, err)
+	assert.Equal(t, normalised(again), normalised(oracle))
+}
+
 func TestSnapshotJSONErrors(t *testing.T) {
 	head := `{"v":2,"path":"svg0","tags":["svg"],"paints":[0,0,0],"strs":["x"],"nodes":`
 	for name, bad := range map[string]string{
@@ -154,8 +199,11 @@ func TestSnapshotJSONErrors(t *testing.T) {
 		"tag out of range":    head + `[-1,1,0,0,0,0,0,1,1,1,1]}`,
 		"paint out of range":  head + `[-1,0,0,0,0,1,0,1,1,1,1]}`,
 		"fractional index":    head + `[-1,0.5,0,0,0,0,0,1,1,1,1]}`,
-		"unknown has bit":     head + `[-1,0,0,256,0,0,0,1,1,1,1]}`,
+		"unknown has bit":     head + `[-1,0,0,1024,0,0,0,1,1,1,1]}`,
 		"first repeats style": head + `[-1,0,0,128]}`,
+		"first refers style":  head + `[-1,0,0,512,0]}`,
+		"style ref too far":   head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,0,512,1]}`,
+		"two styles repeated": head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,0,640,0]}`,
 		"unknown flag":        head + `[-1,0,0,0,4,0,0,1,1,1,1]}`,
 		"string out of range": head + `[-1,0,0,8,0,0,0,1,1,1,1,1]}`,
 		"geometry too long":   head + `[-1,0,0,2,0,0,0,1,1,1,1,17]}`,
@@ -191,6 +239,8 @@ func FuzzSnapshotJSON(f *testing.F) {
 	f.Add([]byte(`{"v":2,"path":"svg0","box":[0,0,10,10],"bg":4294967295,"tags":["svg","circle"],"paints":[0,0,0,1,255,0],"strs":["h\u00e9"],"nodes":[-1,0,0,0,0,0,0,1,1,1,1,0,1,0,18,0,1,0,1,1,1,1,3,1,2,3,0]}`))
 	f.Add([]byte(`{"v":2,"nodes":[],"problems":["a\\b"],"sel":[]}`))
 	f.Add([]byte(`{"v":2,"tags":["g"],"tags":["svg"],"nodes":[-1,0,0,65,0,0,0,1,1,1,1,1,2,3,4,5,6,0],"strs":["n"],"paints":[0,0,0],"V":2}`))
+	// Styles referred to by number (has 512).
+	f.Add([]byte(`{"v":2,"path":"svg0","tags":["svg","circle"],"paints":[0,0,0,1,255,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,0,0,1,0,2,0,1,0,1,1,1,0,3,1,1,3,0,1,1,514,0,3,2,2,3,0,1,2,642,1,3,3,3,3]}`))
 	f.Fuzz(func(t *testing.T, b []byte) {
 		slow, serr := snapshot.DecodeByReflection(b)
 		var fast snapshot.Snapshot
