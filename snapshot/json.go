@@ -805,7 +805,10 @@ type PageJSON struct {
 	Snapshots []Snapshot
 	// Raw holds each snapshot's JSON as read, a part of the decoded input:
 	// a caller may know a chart it has judged before by it.
-	Raw      [][]byte
+	Raw [][]byte
+	// Skipped, from DecodePageKnowing, says which snapshots were known and
+	// left undecoded (their Snapshots entries are empty); nil when none.
+	Skipped  []bool
 	Problems []string
 	// Rasters are the page's charts drawn as pixels, which no reader can
 	// read marks from.
@@ -841,7 +844,24 @@ var (
 // {"source": …, "snapshots": […], "problems": […], …}, with the fast
 // scanner throughout (encoding/json would first scan the whole input to
 // validate it, which costs as much again under WebAssembly).
-func DecodePage(b []byte) (*PageJSON, error) {
+func DecodePage(b []byte) (*PageJSON, error) { return DecodePageKnowing(b, nil) }
+
+var errPageNodes = errors.New("the page's charts have more than " + strconv.Itoa(MaxPageNodes) + " elements, more than one check takes")
+
+// Known is a chart a caller judged before: its snapshot's JSON as read,
+// and its number of nodes.
+type Known struct {
+	Raw   string
+	Nodes int
+}
+
+// DecodePageKnowing is DecodePage, except that the i-th snapshot, when its
+// JSON is known[i].Raw byte for byte, is neither scanned nor decoded: its
+// Snapshots entry is left empty and its Skipped entry true. It still
+// counts known[i].Nodes towards the page's limit. A caller that judged
+// the charts of the page before, most of them unchanged, decodes only
+// what changed.
+func DecodePageKnowing(b []byte, known []Known) (*PageJSON, error) {
 	d := jsonio.New(b)
 	var p PageJSON
 	err := d.Object(func(key string) error {
@@ -862,6 +882,21 @@ func DecodePage(b []byte) (*PageJSON, error) {
 			err = d.Array(func() error {
 				w := snapshotWire{Nodes: numbers}
 				start := d.Offset()
+				if i := len(p.Snapshots); i < len(known) && known[i].Raw != "" && len(b)-start >= len(known[i].Raw) && string(b[start:start+len(known[i].Raw)]) == known[i].Raw {
+					// A complete value, since the known one is: the scanner
+					// steps over it.
+					d.Advance(len(known[i].Raw))
+					p.Raw = append(p.Raw, b[start:start+len(known[i].Raw)])
+					p.Snapshots = append(p.Snapshots, Snapshot{})
+					for len(p.Skipped) < i {
+						p.Skipped = append(p.Skipped, false)
+					}
+					p.Skipped = append(p.Skipped, true)
+					if total += known[i].Nodes; total > MaxPageNodes {
+						return errPageNodes
+					}
+					return nil
+				}
 				if err := readWire(d, &w); err != nil {
 					return err
 				}
@@ -872,7 +907,7 @@ func DecodePage(b []byte) (*PageJSON, error) {
 					return wrap("snapshot "+strconv.Itoa(len(p.Snapshots))+": ", err)
 				}
 				if total += len(s.Nodes); total > MaxPageNodes {
-					return errors.New("the page's charts have more than " + strconv.Itoa(MaxPageNodes) + " elements, more than one check takes")
+					return errPageNodes
 				}
 				p.Snapshots = append(p.Snapshots, s)
 				return nil
@@ -887,6 +922,9 @@ func DecodePage(b []byte) (*PageJSON, error) {
 	}
 	if err != nil {
 		return nil, wrap("snapshot: page ", err)
+	}
+	for p.Skipped != nil && len(p.Skipped) < len(p.Snapshots) {
+		p.Skipped = append(p.Skipped, false)
 	}
 	return &p, nil
 }

@@ -341,5 +341,48 @@ func FuzzDecodePage(f *testing.F) {
 			// finds there.
 			require.Equal(t, string(doc.Snapshots[i]), string(fast.Raw[i]))
 		}
+		// Knowing every other chart as read, the decoder skips those and
+		// decodes the rest as before.
+		known := make([]snapshot.Known, len(want))
+		for i := 0; i < len(want); i += 2 {
+			known[i] = snapshot.Known{Raw: string(fast.Raw[i]), Nodes: len(want[i].Nodes)}
+		}
+		again, err := snapshot.DecodePageKnowing(b, known)
+		require.NoError(t, err)
+		require.Len(t, again.Snapshots, len(want))
+		for i := range want {
+			require.Equal(t, string(fast.Raw[i]), string(again.Raw[i]))
+			if i%2 == 0 {
+				require.True(t, again.Skipped[i], "snapshot %d is known", i)
+				continue
+			}
+			require.Equal(t, normalised(want[i]), normalised(again.Snapshots[i]))
+		}
 	})
+}
+
+// DecodePageKnowing skips a snapshot only where the page has the known
+// JSON in that place, whole: not a known chart in another place, nor one
+// that only starts as a known one does; and the known charts' nodes count
+// towards the page's limit.
+func TestDecodePageKnowing(t *testing.T) {
+	a := `{"v":2,"path":"svg0","tags":["svg"],"paints":[0,0,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,1]}`
+	b := `{"v":2,"path":"svg1","tags":["svg"],"paints":[0,0,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,1]}`
+	page := []byte(`{"snapshots":[` + a + `,` + b + `]}`)
+	p, err := snapshot.DecodePageKnowing(page, []snapshot.Known{{Raw: a, Nodes: 1}, {Raw: a, Nodes: 1}})
+	require.NoError(t, err)
+	assert.Equal(t, []bool{true, false}, p.Skipped)
+	assert.Empty(t, p.Snapshots[0].Nodes)
+	assert.Equal(t, "svg1", p.Snapshots[1].Path)
+	assert.Equal(t, a, string(p.Raw[0]))
+
+	p, err = snapshot.DecodePageKnowing(page, []snapshot.Known{{Raw: b, Nodes: 1}})
+	require.NoError(t, err)
+	assert.Nil(t, p.Skipped, "a known chart in another place")
+
+	_, err = snapshot.DecodePageKnowing([]byte(`{"snapshots":[`+a+`x]}`), []snapshot.Known{{Raw: a, Nodes: 1}})
+	assert.Error(t, err, "more after the known chart")
+
+	_, err = snapshot.DecodePageKnowing(page, []snapshot.Known{{Raw: a, Nodes: snapshot.MaxPageNodes}})
+	assert.ErrorContains(t, err, strconv.Itoa(snapshot.MaxPageNodes))
 }

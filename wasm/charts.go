@@ -22,7 +22,22 @@ type chartMemo struct {
 	mu      sync.Mutex
 	options string
 	digests map[string][]byte
-	kept    *perception.Kept
+	// last is the last page's charts in order, each's JSON (a key of
+	// digests) and number of nodes: a page checked again usually has the
+	// same charts in the same places, which need not be decoded
+	// (snapshot.DecodePageKnowing).
+	last []snapshot.Known
+	kept *perception.Kept
+}
+
+// known is the last page's charts, when they were judged under options.
+func (m *chartMemo) known(options []byte) []snapshot.Known {
+	m.mu.Lock()
+	defer m.mu.Unlock()
+	if m.digests == nil || m.options != string(options) {
+		return nil
+	}
+	return m.last
 }
 
 // analysisKept is what the analyses of the core's requests keep for the
@@ -51,14 +66,18 @@ func (m *chartMemo) recall(options []byte, raw [][]byte) [][]byte {
 	return out
 }
 
-// keep replaces what is kept with the digests of one page's charts.
-func (m *chartMemo) keep(options []byte, raw, digests [][]byte) {
+// keep replaces what is kept with the digests of one page's charts, and
+// their numbers of nodes.
+func (m *chartMemo) keep(options []byte, raw, digests [][]byte, nodes []int) {
 	m.mu.Lock()
 	defer m.mu.Unlock()
 	m.options = string(options)
 	m.digests = make(map[string][]byte, len(raw))
+	m.last = make([]snapshot.Known, len(raw))
 	for i, r := range raw {
-		m.digests[string(r)] = digests[i]
+		k := string(r)
+		m.digests[k] = digests[i]
+		m.last[i] = snapshot.Known{Raw: k, Nodes: nodes[i]}
 	}
 }
 
@@ -66,7 +85,7 @@ func (m *chartMemo) keep(options []byte, raw, digests [][]byte) {
 func (m *chartMemo) forget() {
 	m.mu.Lock()
 	defer m.mu.Unlock()
-	m.options, m.digests, m.kept = "", nil, nil
+	m.options, m.digests, m.last, m.kept = "", nil, nil, nil
 }
 
 // pending is a page's charts being digested: the digest of each one
@@ -74,6 +93,8 @@ func (m *chartMemo) forget() {
 type pending struct {
 	q       *Request
 	digests [][]byte
+	nodes   []int // each chart's number of nodes
+	decoded int   // how many charts were decoded
 	todo    []int // the charts to judge now
 	// keep says whether the digests are kept for the next request: the
 	// request came with each of its snapshots as read.
@@ -81,20 +102,35 @@ type pending struct {
 }
 
 // recallCharts looks up q's charts among those kept, when q came with its
-// snapshots as read (q.raw), and lists the ones to judge.
-func recallCharts(q *Request) *pending {
-	p := &pending{q: q, keep: q.raw != nil && len(q.raw) == len(q.Snapshots)}
+// snapshots as read (q.raw), and lists the ones to judge. A chart the
+// decoder skipped as known (q.skipped) is recalled; were it not, it is
+// decoded now.
+func recallCharts(q *Request) (*pending, error) {
+	p := &pending{q: q, keep: q.raw != nil && len(q.raw) == len(q.Snapshots), nodes: make([]int, len(q.Snapshots))}
 	if p.keep {
 		p.digests = charts.recall(q.options, q.raw)
 	} else {
 		p.digests = make([][]byte, len(q.Snapshots))
 	}
 	for i, d := range p.digests {
+		skipped := i < len(q.skipped) && q.skipped[i]
+		if skipped && d == nil {
+			if err := q.Snapshots[i].UnmarshalJSON(q.raw[i]); err != nil {
+				return nil, err
+			}
+			skipped = false
+		}
+		if !skipped {
+			p.decoded++
+			p.nodes[i] = len(q.Snapshots[i].Nodes)
+		} else {
+			p.nodes[i] = q.known[i].Nodes
+		}
 		if d == nil {
 			p.todo = append(p.todo, i)
 		}
 	}
-	return p
+	return p, nil
 }
 
 // snapshots are the charts to judge.
@@ -132,7 +168,7 @@ func (p *pending) write(b []byte, problems []string, as []report.Analysed) []byt
 		b = append(b, d...)
 	}
 	if p.keep {
-		charts.keep(p.q.options, p.q.raw, p.digests)
+		charts.keep(p.q.options, p.q.raw, p.digests, p.nodes)
 	}
 	return report.AppendDigestClose(b)
 }

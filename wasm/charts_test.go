@@ -40,6 +40,13 @@ func corpusPage(t testing.TB, edited bool) []byte {
 // many charts the core recalled for it.
 func answer(t *testing.T, options string, page []byte, frames ...[]byte) (string, float64) {
 	t.Helper()
+	out, timing := answerTimed(t, options, page, frames...)
+	return out, timing["recalledCharts"]
+}
+
+// answerTimed is answer with the core's timing.
+func answerTimed(t *testing.T, options string, page []byte, frames ...[]byte) (string, map[string]float64) {
+	t.Helper()
 	var r map[string]json.RawMessage
 	require.NoError(t, json.Unmarshal(HandlePage([]byte(options), page, frames...), &r))
 	require.JSONEq(t, "true", string(r["ok"]), "%s", r["error"])
@@ -48,7 +55,42 @@ func answer(t *testing.T, options string, page []byte, frames ...[]byte) (string
 	delete(r, "timing")
 	out, err := json.Marshal(r)
 	require.NoError(t, err)
-	return string(out), timing["recalledCharts"]
+	return string(out), timing
+}
+
+// A re-check decodes only the charts that are not where and as they were
+// on the page checked last under the same options; the others it skips
+// and recalls. A chart it skipped but cannot recall (what is kept lost
+// its digest) it decodes then, and answers as a core that kept nothing.
+func TestRecheckDecodesOnlyTheChangedCharts(t *testing.T) {
+	const opts = `{"type":"analyse"}`
+	page, edited := corpusPage(t, false), corpusPage(t, true)
+	charts.forget()
+	fresh, timing := answerTimed(t, opts, page)
+	require.Equal(t, 4.0, timing["decodedCharts"])
+	charts.forget()
+	freshEdited, _ := answerTimed(t, opts, edited)
+	charts.forget()
+	answerTimed(t, opts, page)
+
+	got, timing := answerTimed(t, opts, page)
+	require.Equal(t, fresh, got)
+	require.Equal(t, 0.0, timing["decodedCharts"], "the same page again")
+	got, timing = answerTimed(t, opts, edited)
+	require.Equal(t, freshEdited, got)
+	require.Equal(t, 1.0, timing["decodedCharts"], "one chart edited")
+	require.Equal(t, 3.0, timing["recalledCharts"])
+	_, timing = answerTimed(t, `{"type":"analyse","severity":0.6}`, edited)
+	require.Equal(t, 4.0, timing["decodedCharts"], "other options")
+	answerTimed(t, opts, edited)
+
+	charts.mu.Lock()
+	delete(charts.digests, charts.last[2].Raw)
+	charts.mu.Unlock()
+	got, timing = answerTimed(t, opts, edited)
+	require.Equal(t, freshEdited, got)
+	require.Equal(t, 1.0, timing["decodedCharts"], "the chart skipped but not recalled")
+	require.Equal(t, 3.0, timing["recalledCharts"])
 }
 
 // A re-check after an edit to one chart judges that chart alone, and

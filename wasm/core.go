@@ -61,6 +61,11 @@ type Request struct {
 	// kept (charts.go).
 	options []byte
 	raw     [][]byte
+	// known are the charts of the last page judged under these options,
+	// which the decoder skips where they come again in their places;
+	// skipped says which it skipped (their Snapshots are empty).
+	known   []snapshot.Known
+	skipped []bool
 }
 
 // PixelJudgement is one chart drawn as pixels as the press judged it: its
@@ -129,10 +134,15 @@ func HandlePage(options, page []byte, frames ...[]byte) (out []byte) {
 	if err != nil {
 		return errorResponse("bad request: " + err.Error())
 	}
-	p, err := snapshot.DecodePage(page)
+	if len(frames) == 0 && !q.Fresh && !q.Full {
+		// A digest: the charts judged last need not be decoded again.
+		q.known = charts.known(options)
+	}
+	p, err := snapshot.DecodePageKnowing(page, q.known)
 	if err != nil {
 		return errorResponse("bad page: " + err.Error())
 	}
+	q.skipped = p.Skipped
 	if len(frames) != len(q.Frames) {
 		return errorResponse("bad request: " + strconv.Itoa(len(frames)) + " frame readings for " + strconv.Itoa(len(q.Frames)) + " frames")
 	}
@@ -303,7 +313,10 @@ func handle(q *Request, t0 time.Time) []byte {
 // WebAssembly), judging only the charts whose digests are not kept from
 // the last request (charts.go).
 func digestResponse(q *Request, opt report.Options, timing map[string]float64, t1 time.Time) []byte {
-	p := recallCharts(q)
+	p, err := recallCharts(q)
+	if err != nil {
+		return errorResponse("bad page: " + err.Error())
+	}
 	as, err := report.AnalyseSnapshots(p.snapshots(), opt)
 	timing["analyseMs"] = ms(t1)
 	if err != nil {
@@ -311,6 +324,7 @@ func digestResponse(q *Request, opt report.Options, timing map[string]float64, t
 	}
 	recalled, size := p.recalled()
 	timing["recalledCharts"] = float64(recalled)
+	timing["decodedCharts"] = float64(p.decoded)
 	t2 := time.Now()
 	b := append(make([]byte, 0, 64+80*report.CountMarks(as)+size), `{"ok":true,"overlay":`...)
 	b = p.write(b, append(q.Problems, report.UncheckedNotes(report.UncheckedOf(q.Rasters))...), as)

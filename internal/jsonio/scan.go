@@ -29,6 +29,10 @@ func (d *Scanner) Offset() int {
 	return d.i
 }
 
+// Advance steps over the next n bytes, which the caller has checked form
+// a whole value.
+func (d *Scanner) Advance(n int) { d.i = min(d.i+n, len(d.b)) }
+
 // Remaining is the number of bytes not yet read.
 func (d *Scanner) Remaining() int { return len(d.b) - d.i }
 
