@@ -316,6 +316,16 @@ func (d *Scanner) Numbers(dst []float64) ([]float64, error) {
 		return dst, nil
 	}
 	for {
+		// Most numbers of the read pass's records are one digit (parents,
+		// tags, field bits, counts, references) written without spaces.
+		if i := d.i; i+1 < len(d.b) && d.b[i] >= '0' && d.b[i] <= '9' && (d.b[i+1] == ',' || d.b[i+1] == ']') {
+			dst = append(dst, float64(d.b[i]-'0'))
+			d.i = i + 2
+			if d.b[i+1] == ']' {
+				return dst, nil
+			}
+			continue
+		}
 		d.ws()
 		f, ok := d.plainNumber()
 		if !ok {

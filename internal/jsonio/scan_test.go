@@ -66,7 +66,7 @@ func FuzzPlainNumber(f *testing.F) {
 }
 
 func FuzzScannerMatchesEncodingJSON(f *testing.F) {
-	for _, s := range []string{`{"a":[1,2.5,-0.25,null],"b":"x\u00e9\n","c":true,"d":{"e":[]}}`, `[1e5, 1E-3, 0]`, `"\ud83d\ude00"`, `{"a":01}`, `[1,]`} {
+	for _, s := range []string{`{"a":[1,2.5,-0.25,null],"b":"x\u00e9\n","c":true,"d":{"e":[]}}`, `[1e5, 1E-3, 0]`, `"\ud83d\ude00"`, `{"a":01}`, `[1,]`, `[1,2,03]`, `[0,1,"a"]`, `[7,[8]]`} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
@@ -94,6 +94,10 @@ func FuzzScannerMatchesEncodingJSON(f *testing.F) {
 				nums = nil
 			}
 			assert.Equal(t, nums, got, "%q", s)
+		} else if jerr == nil {
+			// A value that is no array of numbers: Numbers refuses it.
+			_, err := New([]byte(s)).Numbers(nil)
+			assert.Error(t, err, "%q", s)
 		}
 		var str string
 		if json.Unmarshal([]byte(s), &str) == nil {
