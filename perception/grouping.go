@@ -114,7 +114,8 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 	if nb == nil {
 		nb = neighboursXY(xs, ys, max(p.Neighbours, 1), p.Kept)
 	}
-	g.add(CueProximity, proximityGroups(xs, ys, nb, p.ProximityRatio))
+	labels, k := p.Kept.proximity(xs, ys, nb, p.ProximityRatio)
+	g.addLabels(CueProximity, labels, k)
 	g.add(CueColour, colourGroups(in, p, g.Marks))
 	g.add(CueShape, shapeGroups(in, g.Marks))
 	if len(lines) > 0 {
@@ -285,6 +286,11 @@ func (g *Grouping) compare(p Params) {
 // group, and some group with more than one mark.
 func (g *Grouping) add(c Cue, uf unionFind) {
 	labels, k := uf.labels()
+	g.addLabels(c, labels, k)
+}
+
+// addLabels adds the partition of labels into k groups.
+func (g *Grouping) addLabels(c Cue, labels []int, k int) {
 	if k <= 1 || k >= len(labels) {
 		return
 	}

@@ -87,3 +87,21 @@ func TestChannelsKeptServeTheNextAnalysis(t *testing.T) {
 	assert.Equal(t, 7.0, after.Marks[k][0].Salience[shapeAt])
 	assert.Contains(t, after.Marks[k][0].Channels, Shape)
 }
+
+// The proximity grouping of a large display is kept with its neighbour
+// lists and ratio: an analysis of the same places takes it, one with
+// another ratio groups again, and both report what an analysis without a
+// Kept reports.
+func TestProximityGroupingKept(t *testing.T) {
+	in := keptScatter()
+	kept := &Kept{}
+	for _, ratio := range []float64{2, 2, 0.5} {
+		p := DefaultParams
+		p.ProximityRatio = ratio
+		want := Analyse(in, p)
+		p.Kept = kept
+		assert.Equal(t, visible(want), visible(Analyse(in, p)), "ratio %v", ratio)
+	}
+	require.Len(t, kept.groupings, 2, "the second analysis grouped again, or the third did not")
+	assert.Equal(t, 0.5, kept.groupings[0].ratio)
+}

@@ -429,6 +429,45 @@ type Kept struct {
 	// used first: a recolour leaves them as they were too, and they are
 	// about a third of judging such a display.
 	channels []*keptChannels
+	// groupings holds the last proximity groupings of as many points:
+	// they follow from the points' places alone.
+	groupings []keptProximity
+}
+
+// keptProximity is one proximity grouping: the neighbour lists it joined
+// (a kept search's, known by identity, which stands for the points), its
+// ratio, and its labels and number of groups.
+type keptProximity struct {
+	nb     [][]int
+	ratio  float64
+	labels []int
+	k      int
+}
+
+// proximity is the single-linkage grouping of the points xs, ys over
+// their neighbour lists nb (proximityGroups) as labels and a number of
+// groups: as kept when nb is a kept search's lists, grouped with this
+// ratio before. The labels are the caller's to keep.
+func (kept *Kept) proximity(xs, ys []float64, nb [][]int, ratio float64) (labels []int, k int) {
+	if kept == nil || len(xs) < keepNeighboursFrom || len(nb) == 0 {
+		return proximityGroups(xs, ys, nb, ratio).labels()
+	}
+	kept.mu.Lock()
+	defer kept.mu.Unlock()
+	for i, c := range kept.groupings {
+		if len(c.nb) == len(nb) && &c.nb[0] == &nb[0] && sameFloats(c.ratio, ratio) {
+			copy(kept.groupings[1:i+1], kept.groupings[:i])
+			kept.groupings[0] = c
+			return slices.Clone(c.labels), c.k
+		}
+	}
+	labels, k = proximityGroups(xs, ys, nb, ratio).labels()
+	if len(kept.groupings) < keptSearches {
+		kept.groupings = append(kept.groupings, keptProximity{})
+	}
+	copy(kept.groupings[1:], kept.groupings)
+	kept.groupings[0] = keptProximity{nb, ratio, slices.Clone(labels), k}
+	return labels, k
 }
 
 // keptChannels is what judging one display computed of the channels that
