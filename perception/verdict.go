@@ -412,7 +412,8 @@ func neighboursXY(xs, ys []float64, k int, kept *Kept) [][]int {
 // Kept is what an analysis keeps for the next one given the same Kept
 // (Params.Kept): its last k-nearest-neighbour searches of
 // keepNeighboursFrom points or more, the keptSearches most recently used,
-// and as many judgings of those displays' channels that are not colour.
+// and as many judgings of those displays' channels that are not colour
+// and groupings of those points by proximity.
 // A check again after a recolour, the edit the findings' fixes ask for,
 // finds every mark where it was, and the search is about a tenth of a
 // check of a 5,000-mark scatter. A page may have several large charts,
