@@ -177,49 +177,30 @@ func (j *judging) channel(k, ci int, c Channel) float64 {
 		return global
 	}
 	own := st.own(k, d.small)
-	ld := d.nearest(c, k, j.nb[k], own)
+	ld := d.nearest(ci, k, j.nb[k], own)
 	return max(global, localSalience(ld, m, h, global, !own))
 }
 
-// nearest is the least distance (dist) from mark k to the marks nb in a
-// channel that is not colour, counting, when own, only the distances of a
-// step or more: the hot loop of the channels on large charts, with the
-// channel chosen once rather than per neighbour.
-func (d *display) nearest(c Channel, k int, nb []int, own bool) float64 {
+// nearest is the least distance (dist) from mark k to the marks nb in
+// the channel at ci, which is not colour, counting, when own, only the
+// distances of a step or more: the hot loop of the channels on large
+// charts, choosing the channel by its position rather than by its name.
+func (d *display) nearest(ci, k int, nb []int, own bool) float64 {
 	ld := math.Inf(1)
-	keep := func(dj float64) {
-		if (!own || dj >= 1) && dj < ld {
-			ld = dj
-		}
-	}
-	switch c {
-	case Size:
-		s := d.size[k]
-		for _, n := range nb {
-			keep(math.Abs(s - d.size[n]))
-		}
-	case Orientation:
-		if d.oriP == 0 {
-			if len(nb) > 0 {
-				keep(0)
-			}
-			break
-		}
-		for _, n := range nb {
-			keep(d.dist(Orientation, k, n))
-		}
-	case Shape:
-		s := d.shape[k]
-		for _, n := range nb {
-			dj := 0.0
-			if d.shape[n] != s {
+	for _, n := range nb {
+		dj := 0.0
+		switch ci {
+		case sizeAt:
+			dj = math.Abs(d.size[k] - d.size[n])
+		case orientationAt:
+			dj = d.dist(Orientation, k, n)
+		case shapeAt:
+			if d.shape[n] != d.shape[k] {
 				dj = 1
 			}
-			keep(dj)
 		}
-	default:
-		for _, n := range nb {
-			keep(d.dist(c, k, n))
+		if (!own || dj >= 1) && dj < ld {
+			ld = dj
 		}
 	}
 	return ld
@@ -391,22 +372,41 @@ func neighboursXY(xs, ys []float64, k int, kept *Kept) [][]int {
 	}
 	kept.mu.Lock()
 	defer kept.mu.Unlock()
-	for i, s := range kept.searches {
-		if s.k == k && slices.Equal(xs, s.xs) && slices.Equal(ys, s.ys) {
-			// The most recently used first.
-			copy(kept.searches[1:i+1], kept.searches[:i])
-			kept.searches[0] = s
-			return s.nb
+	if s := kept.searches.find(func(s *keptSearch) bool { return s.k == k && slices.Equal(xs, s.xs) && slices.Equal(ys, s.ys) }); s != nil {
+		return s.nb
+	}
+	s := &keptSearch{slices.Clone(xs), slices.Clone(ys), k, searchNeighbours(xs, ys, k)}
+	kept.searches.push(s)
+	return s.nb
+}
+
+// recent is what a Kept keeps of one sort, the most recently used first,
+// at most keptSearches of it. P is a pointer type, so that every sort
+// shares one compiled copy of the code (the core's size is budgeted).
+type recent[P any] []P
+
+// find moves the first element match accepts to the front and returns
+// it, or returns the zero P when none does.
+func (r recent[P]) find(match func(P) bool) (zero P) {
+	for i, e := range r {
+		if match(e) {
+			copy(r[1:i+1], r[:i])
+			r[0] = e
+			return e
 		}
 	}
-	s := keptSearch{slices.Clone(xs), slices.Clone(ys), k, searchNeighbours(xs, ys, k)}
-	// In front; when the Kept is full, the least recently used goes.
-	if len(kept.searches) < keptSearches {
-		kept.searches = append(kept.searches, keptSearch{})
+	return zero
+}
+
+// push puts e in front; when the list is full, the least recently used
+// goes.
+func (r *recent[P]) push(e P) {
+	var zero P
+	if len(*r) < keptSearches {
+		*r = append(*r, zero)
 	}
-	copy(kept.searches[1:], kept.searches)
-	kept.searches[0] = s
-	return s.nb
+	copy((*r)[1:], *r)
+	(*r)[0] = e
 }
 
 // Kept is what an analysis keeps for the next one given the same Kept
@@ -424,15 +424,15 @@ func neighboursXY(xs, ys []float64, k int, kept *Kept) [][]int {
 // The zero value keeps nothing yet; it is safe for concurrent use.
 type Kept struct {
 	mu       sync.Mutex
-	searches []keptSearch // the most recently used first
+	searches recent[*keptSearch]
 	// channels are the last judgings of the channels that are not colour
 	// in displays of keepNeighboursFrom marks or more, the most recently
 	// used first: a recolour leaves them as they were too, and they are
 	// about a third of judging such a display.
-	channels []*keptChannels
+	channels recent[*keptChannels]
 	// groupings holds the last proximity groupings of as many points:
 	// they follow from the points' places alone.
-	groupings []keptProximity
+	groupings recent[*keptProximity]
 }
 
 // keptProximity is one proximity grouping: the neighbour lists it joined
@@ -450,24 +450,20 @@ type keptProximity struct {
 // groups: as kept when nb is a kept search's lists, grouped with this
 // ratio before. The labels are the caller's to keep.
 func (kept *Kept) proximity(xs, ys []float64, nb [][]int, ratio float64) (labels []int, k int) {
-	if kept == nil || len(xs) < keepNeighboursFrom || len(nb) == 0 {
-		return proximityGroups(xs, ys, nb, ratio).labels()
-	}
-	kept.mu.Lock()
-	defer kept.mu.Unlock()
-	for i, c := range kept.groupings {
-		if len(c.nb) == len(nb) && &c.nb[0] == &nb[0] && sameFloats(c.ratio, ratio) {
-			copy(kept.groupings[1:i+1], kept.groupings[:i])
-			kept.groupings[0] = c
+	keep := kept != nil && len(xs) >= keepNeighboursFrom && len(nb) > 0
+	if keep {
+		kept.mu.Lock()
+		defer kept.mu.Unlock()
+		if c := kept.groupings.find(func(c *keptProximity) bool {
+			return len(c.nb) == len(nb) && &c.nb[0] == &nb[0] && sameFloats(c.ratio, ratio)
+		}); c != nil {
 			return slices.Clone(c.labels), c.k
 		}
 	}
 	labels, k = proximityGroups(xs, ys, nb, ratio).labels()
-	if len(kept.groupings) < keptSearches {
-		kept.groupings = append(kept.groupings, keptProximity{})
+	if keep {
+		kept.groupings.push(&keptProximity{nb, ratio, slices.Clone(labels), k})
 	}
-	copy(kept.groupings[1:], kept.groupings)
-	kept.groupings[0] = keptProximity{nb, ratio, slices.Clone(labels), k}
 	return labels, k
 }
 
@@ -493,15 +489,10 @@ func (kept *Kept) channelsOf(d *display, nb [][]int) *keptChannels {
 	p.Kept = nil
 	kept.mu.Lock()
 	defer kept.mu.Unlock()
-	for i, c := range kept.channels {
-		if len(c.nb) == len(nb) && &c.nb[0] == &nb[0] && c.small == d.small && c.grp == d.group && c.p == p &&
-			sameFloats(c.oriP, d.oriP) && slices.Equal(c.shape, d.shape) && slices.EqualFunc(c.size, d.size, sameFloats) && slices.EqualFunc(c.ori, d.ori, sameFloats) {
-			copy(kept.channels[1:i+1], kept.channels[:i])
-			kept.channels[0] = c
-			return c
-		}
-	}
-	return nil
+	return kept.channels.find(func(c *keptChannels) bool {
+		return len(c.nb) == len(nb) && &c.nb[0] == &nb[0] && c.small == d.small && c.grp == d.group && c.p == p &&
+			sameFloats(c.oriP, d.oriP) && slices.Equal(c.shape, d.shape) && slices.EqualFunc(c.size, d.size, sameFloats) && slices.EqualFunc(c.ori, d.ori, sameFloats)
+	})
 }
 
 // sameFloats compares bit for bit: a NaN is the same as itself.
@@ -511,11 +502,7 @@ func sameFloats(a, b float64) bool { return math.Float64bits(a) == math.Float64b
 func (kept *Kept) keepChannels(c *keptChannels) {
 	kept.mu.Lock()
 	defer kept.mu.Unlock()
-	if len(kept.channels) < keptSearches {
-		kept.channels = append(kept.channels, nil)
-	}
-	copy(kept.channels[1:], kept.channels)
-	kept.channels[0] = c
+	kept.channels.push(c)
 }
 
 // channelsKept is what judging every mark of j's display, as res, computed

@@ -129,7 +129,11 @@ func (s *Snapshot) UnmarshalJSON(b []byte) error {
 }
 
 // readWire reads a snapshot document into w. A repeated key replaces what
-// the earlier one set, as encoding/json does.
+// the earlier one set, as encoding/json does. It is not inlined: each
+// caller would get its own copy of its closure, 6 KB of the extension's
+// core apiece.
+//
+//go:noinline
 func readWire(d *jsonio.Scanner, w *snapshotWire) error {
 	return d.Object(func(key string) error {
 		var err error
@@ -846,7 +850,11 @@ var (
 // validate it, which costs as much again under WebAssembly).
 func DecodePage(b []byte) (*PageJSON, error) { return DecodePageKnowing(b, nil) }
 
-var errPageNodes = errors.New("the page's charts have more than " + strconv.Itoa(MaxPageNodes) + " elements, more than one check takes")
+// errPageNodes is the error of a page past MaxPageNodes (built when
+// needed: a variable would be built at every start of the core).
+func errPageNodes() error {
+	return errors.New("the page's charts have more than " + strconv.Itoa(MaxPageNodes) + " elements, more than one check takes")
+}
 
 // Known is a chart a caller judged before: its snapshot's JSON as read,
 // and its number of nodes.
@@ -893,7 +901,7 @@ func DecodePageKnowing(b []byte, known []Known) (*PageJSON, error) {
 					}
 					p.Skipped = append(p.Skipped, true)
 					if total += known[i].Nodes; total > MaxPageNodes {
-						return errPageNodes
+						return errPageNodes()
 					}
 					return nil
 				}
@@ -907,7 +915,7 @@ func DecodePageKnowing(b []byte, known []Known) (*PageJSON, error) {
 					return wrap("snapshot "+strconv.Itoa(len(p.Snapshots))+": ", err)
 				}
 				if total += len(s.Nodes); total > MaxPageNodes {
-					return errPageNodes
+					return errPageNodes()
 				}
 				p.Snapshots = append(p.Snapshots, s)
 				return nil

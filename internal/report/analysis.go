@@ -33,7 +33,6 @@ func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input
 	bg := snapshot.Unpack(ch.Background).SRGB
 	in := perception.Input{Background: bg}
 	var hexes hexCache
-	hex := hexes.of
 	conv := func(m *marks.Mark) perception.Mark {
 		pm := perception.Mark{ID: m.ID, Kind: string(m.Kind), Size: m.Size, Angle: m.Angle, Fold: m.Fold,
 			Shape: string(m.Shape), X: m.Centroid.X, Y: m.Centroid.Y, Box: m.BBox}
@@ -41,14 +40,14 @@ func ToPerception(ch *marks.Chart, emphasisIDs map[string]bool) perception.Input
 		switch {
 		case filled:
 			pm.Colour = colour.Over(snapshot.Unpack(*m.Fill), m.FillOpacity*m.Opacity, bg)
-			pm.Paint, pm.Alpha = hex(*m.Fill), m.FillOpacity*m.Opacity
+			pm.Paint, pm.Alpha = hexes.of(*m.Fill), m.FillOpacity*m.Opacity
 			if m.Stroke != nil && m.StrokeOpacity > 0 && m.StrokeWidth > 0 {
 				pm.Outline = colour.Over(snapshot.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
 				pm.HasOutline = true
 			}
 		case m.Stroke != nil:
 			pm.Colour = colour.Over(snapshot.Unpack(*m.Stroke), m.StrokeOpacity*m.Opacity, bg)
-			pm.Paint, pm.Alpha = hex(*m.Stroke), m.StrokeOpacity*m.Opacity
+			pm.Paint, pm.Alpha = hexes.of(*m.Stroke), m.StrokeOpacity*m.Opacity
 		default:
 			pm.Colour = bg
 		}
