@@ -7,7 +7,6 @@ package main
 import (
 	"runtime"
 	"strconv"
-	"time"
 
 	"standout/internal/jsonio"
 	"standout/internal/report"
@@ -107,7 +106,7 @@ type Response struct {
 // crosses into JavaScript.
 func Handle(req []byte) (out []byte) {
 	defer recoverTo(&out)
-	t0 := time.Now()
+	t0 := now()
 	// The options' decoder skips the page's fields and the page's decoder
 	// the options'.
 	q, err := parseOptions(req)
@@ -129,7 +128,7 @@ func Handle(req []byte) (out []byte) {
 // of the options' frames.
 func HandlePage(options, page []byte, frames ...[]byte) (out []byte) {
 	defer recoverTo(&out)
-	t0 := time.Now()
+	t0 := now()
 	q, err := parseOptions(options)
 	if err != nil {
 		return errorResponse("bad request: " + err.Error())
@@ -272,10 +271,10 @@ func stack() []byte {
 	}
 }
 
-// ms is the time since t in ms, to the microsecond.
-func ms(t time.Time) float64 { return float64(time.Since(t).Microseconds()) / 1000 }
+// ms is the milliseconds since t (now).
+func ms(t float64) float64 { return now() - t }
 
-func handle(q *Request, t0 time.Time) []byte {
+func handle(q *Request, t0 float64) []byte {
 	timing := map[string]float64{}
 	if q.Type != "analyse" {
 		return errorResponse("unknown request type " + strconv.Quote(q.Type))
@@ -296,7 +295,7 @@ func handle(q *Request, t0 time.Time) []byte {
 		opt.Params.Kept = charts.analysisKept()
 	}
 	timing["decodeMs"] = ms(t0)
-	t1 := time.Now()
+	t1 := now()
 	if !q.Full {
 		return digestResponse(q, opt, timing, t1)
 	}
@@ -305,14 +304,14 @@ func handle(q *Request, t0 time.Time) []byte {
 	if err != nil {
 		return errorResponse(err.Error())
 	}
-	return fullReport(q, as, timing, time.Now())
+	return fullReport(q, as, timing, now())
 }
 
 // digestResponse answers with the overlay's digest, written by hand
 // (encoding/json's reflection over thousands of marks is slow under
 // WebAssembly), judging only the charts whose digests are not kept from
 // the last request (charts.go).
-func digestResponse(q *Request, opt report.Options, timing map[string]float64, t1 time.Time) []byte {
+func digestResponse(q *Request, opt report.Options, timing map[string]float64, t1 float64) []byte {
 	p, err := recallCharts(q)
 	if err != nil {
 		return errorResponse("bad page: " + err.Error())
@@ -325,7 +324,7 @@ func digestResponse(q *Request, opt report.Options, timing map[string]float64, t
 	recalled, size := p.recalled()
 	timing["recalledCharts"] = float64(recalled)
 	timing["decodedCharts"] = float64(p.decoded)
-	t2 := time.Now()
+	t2 := now()
 	b := append(make([]byte, 0, 64+80*report.CountMarks(as)+size), `{"ok":true,"overlay":`...)
 	b = p.write(b, append(q.Problems, report.UncheckedNotes(report.UncheckedOf(q.Rasters))...), as)
 	timing["encodeMs"] = ms(t2)

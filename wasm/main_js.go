@@ -8,7 +8,6 @@ import (
 	"sync"
 	"syscall"
 	"syscall/js"
-	"time"
 )
 
 // handleGlobal is the global the handler is registered as. The extension
@@ -37,17 +36,19 @@ func main() {
 		js.Global().Get("console").Call("warn", "Standout core: GOGC is "+strconv.Quote(v)+", not off; the collector will run within requests")
 	}
 	var collect sync.Mutex
+	// A timer hands control back to JavaScript first: the collection
+	// starts once the response has been returned.
+	gc := js.FuncOf(func(js.Value, []js.Value) any {
+		defer collect.Unlock()
+		runtime.GC()
+		return nil
+	})
+	defer gc.Release()
 	collectLater := func() {
 		if !collect.TryLock() {
 			return // one is pending
 		}
-		go func() {
-			defer collect.Unlock()
-			// A sleep hands control back to JavaScript first: the
-			// collection starts once the response has been returned.
-			time.Sleep(time.Millisecond)
-			runtime.GC()
-		}()
+		js.Global().Call("setTimeout", gc, 1)
 	}
 	handle := js.FuncOf(func(this js.Value, args []js.Value) any {
 		for _, a := range args {

@@ -5,7 +5,6 @@ package main
 import (
 	"math"
 	"strings"
-	"time"
 
 	"standout/internal/jsonio"
 	"standout/internal/report"
@@ -16,7 +15,7 @@ import (
 // overlaycore tag, report_none.go), so that what every press loads links
 // none of the report's formats; the extension loads the core built with
 // it only for an export.
-func fullReport(q *Request, as []report.Analysed, timing map[string]float64, t2 time.Time) []byte {
+func fullReport(q *Request, as []report.Analysed, timing map[string]float64, t2 float64) []byte {
 	page := report.PageOf(q.Source, q.Problems, as)
 	page.Unchecked = report.UncheckedOf(q.Rasters)
 	judged(page.Unchecked, q.Pixels, q.Pick)
@@ -25,7 +24,7 @@ func fullReport(q *Request, as []report.Analysed, timing map[string]float64, t2 
 	rep := &report.Report{Schema: "standout-report", Version: report.Version, Minor: report.Minor, Pages: []report.Page{page}, Caution: report.Caution}
 	var md strings.Builder
 	report.WriteMarkdown(&md, rep, nil)
-	timing["encodeMs"] = float64(time.Since(t2).Microseconds()) / 1000
+	timing["encodeMs"] = ms(t2)
 	// The response as encoding/json would write Response, by hand (the
 	// core does not link encoding/json: report.AppendJSON).
 	b := append(make([]byte, 0, 1<<16), `{"ok":true,"report":`...)

@@ -369,7 +369,8 @@ func checkOneFile(name string, opt report.Options, timeout time.Duration) (repor
 	if st, err := f.Stat(); err == nil && st.IsDir() {
 		return report.Page{}, errors.New("is a folder, not a page")
 	}
-	opt.Deadline = time.Now().Add(timeout)
+	deadline := time.Now().Add(timeout)
+	opt.Expired = func() bool { return time.Now().After(deadline) }
 	// Style sheets the page links by a relative path are read from its
 	// folder, through an os.Root: no path can leave it.
 	var sheets fs.FS
@@ -377,14 +378,14 @@ func checkOneFile(name string, opt report.Options, timeout time.Duration) (repor
 		defer root.Close()
 		sheets = root.FS()
 	}
-	return checkReader(name, f, sheets, opt)
+	return checkReader(name, f, sheets, opt, deadline)
 }
 
 // checkReader builds, walks and analyses every chart of one file with the
 // static reader; sheets holds the files beside it, for linked style
-// sheets.
-func checkReader(name string, r io.Reader, sheets fs.FS, opt report.Options) (report.Page, error) {
-	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: opt.Deadline, Sheets: sheets, Dark: opt.Dark})
+// sheets. The builder stops at deadline, when it is set.
+func checkReader(name string, r io.Reader, sheets fs.FS, opt report.Options, deadline time.Time) (report.Page, error) {
+	page, err := static.Build(r, static.Options{Source: name, Select: opt.Selector, Deadline: deadline, Sheets: sheets, Dark: opt.Dark})
 	if err != nil {
 		return report.Page{}, err
 	}

@@ -10,6 +10,7 @@ import (
 	"os"
 	"os/signal"
 	"path"
+	"time"
 
 	"standout/internal/browser"
 	"standout/internal/demo"
@@ -88,7 +89,7 @@ func serveDemo(sub fs.FS, names []string, addr string, stdout io.Writer) error {
 func demoStatic(sub fs.FS, names []string, stdout io.Writer) error {
 	for _, name := range names {
 		data, _ := fs.ReadFile(sub, name)
-		rp, err := checkReader(name, bytes.NewReader(data), sub, report.DefaultOptions)
+		rp, err := checkReader(name, bytes.NewReader(data), sub, report.DefaultOptions, time.Time{})
 		if err != nil {
 			return fmt.Errorf("%s: %w", name, err)
 		}
