@@ -652,7 +652,7 @@ func (e *wireEncoder) str(s string) float64 {
 // records writes every node's record.
 func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 	var out []float64
-	var prevStyle [StyleLen]float64
+	var prevKey [StyleLen]uint64
 	styles := map[[StyleLen]uint64]int{} // the styles written out, numbered
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
@@ -668,9 +668,10 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 		}
 		fill, stroke := e.paint(nd.Fill), e.paint(nd.Stroke)
 		style := [StyleLen]float64{float64(nd.Flags), fill, stroke, nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth}
-		ref, written := styles[styleKey(style)]
+		key := styleKey(style)
+		ref, written := styles[key]
 		switch {
-		case i > 0 && sameStyle(style, prevStyle):
+		case i > 0 && key == prevKey:
 			has |= FieldSameStyle
 		case written:
 			has |= FieldStyleRef
@@ -682,9 +683,9 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 			out = append(out, float64(ref))
 		default:
 			out = append(out, style[:]...)
-			styles[styleKey(style)] = len(styles)
+			styles[key] = len(styles)
 		}
-		prevStyle = style
+		prevKey = key
 		out = e.optional(out, nd, has)
 	}
 	return out, nil
@@ -784,23 +785,14 @@ func (e *wireEncoder) optional(out []float64, nd *Node, has int) []float64 {
 	return out
 }
 
-// sameStyle compares styles as the decoder will read them: bit for bit, so
-// that a NaN, written as null and read as 0, is never taken for another.
-// styleKey is a style bit for bit, as sameStyle compares it.
+// styleKey is a style bit for bit: styles are compared as the decoder
+// will read them, so that a NaN, written as null and read as 0, is never
+// taken for another.
 func styleKey(a [StyleLen]float64) (k [StyleLen]uint64) {
 	for i, v := range a {
 		k[i] = math.Float64bits(v)
 	}
 	return k
-}
-
-func sameStyle(a, b [StyleLen]float64) bool {
-	for k := range a {
-		if math.Float64bits(a[k]) != math.Float64bits(b[k]) {
-			return false
-		}
-	}
-	return true
 }
 
 // PageJSON is what the browser's read pass returns for a page.
