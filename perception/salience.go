@@ -284,17 +284,23 @@ func (d *display) dist(c Channel, a, b int) float64 {
 	case Size:
 		return math.Abs(d.size[a] - d.size[b])
 	case Orientation:
-		if d.oriP == 0 {
-			return 0
-		}
-		x := math.Mod(math.Abs(d.ori[a]-d.ori[b]), d.oriP)
-		return min(x, d.oriP-x)
+		return d.oriDist(a, b)
 	case Shape:
 		if d.shape[a] != d.shape[b] {
 			return 1
 		}
 	}
 	return 0
+}
+
+// oriDist is the circular distance between marks a and b in orientation,
+// in steps; 0 when the display has no orientation channel.
+func (d *display) oriDist(a, b int) float64 {
+	if d.oriP == 0 {
+		return 0
+	}
+	x := math.Mod(math.Abs(d.ori[a]-d.ori[b]), d.oriP)
+	return min(x, d.oriP-x)
 }
 
 func (d *display) margin(c Channel) float64 {

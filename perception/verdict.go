@@ -193,7 +193,7 @@ func (d *display) nearest(ci, k int, nb []int, own bool) float64 {
 		case sizeAt:
 			dj = math.Abs(d.size[k] - d.size[n])
 		case orientationAt:
-			dj = d.dist(Orientation, k, n)
+			dj = d.oriDist(k, n)
 		case shapeAt:
 			if d.shape[n] != d.shape[k] {
 				dj = 1
@@ -455,7 +455,7 @@ func (kept *Kept) proximity(xs, ys []float64, nb [][]int, ratio float64) (labels
 		kept.mu.Lock()
 		defer kept.mu.Unlock()
 		if c := kept.groupings.find(func(c *keptProximity) bool {
-			return len(c.nb) == len(nb) && &c.nb[0] == &nb[0] && sameFloats(c.ratio, ratio)
+			return sameLists(c.nb, nb) && sameFloats(c.ratio, ratio)
 		}); c != nil {
 			return slices.Clone(c.labels), c.k
 		}
@@ -490,10 +490,15 @@ func (kept *Kept) channelsOf(d *display, nb [][]int) *keptChannels {
 	kept.mu.Lock()
 	defer kept.mu.Unlock()
 	return kept.channels.find(func(c *keptChannels) bool {
-		return len(c.nb) == len(nb) && &c.nb[0] == &nb[0] && c.small == d.small && c.grp == d.group && c.p == p &&
+		return sameLists(c.nb, nb) && c.small == d.small && c.grp == d.group && c.p == p &&
 			sameFloats(c.oriP, d.oriP) && slices.Equal(c.shape, d.shape) && slices.EqualFunc(c.size, d.size, sameFloats) && slices.EqualFunc(c.ori, d.ori, sameFloats)
 	})
 }
+
+// sameLists says whether a and b are the same neighbour lists, by
+// identity: a kept search's lists, which whatever holds them keeps in
+// memory, stand for the points searched.
+func sameLists(a, b [][]int) bool { return len(a) == len(b) && len(a) > 0 && &a[0] == &b[0] }
 
 // sameFloats compares bit for bit: a NaN is the same as itself.
 func sameFloats(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
