@@ -7,6 +7,7 @@
 import './wasm_exec.js';
 import { captureTab, ext, keepsOptimisedCode } from './platform.js';
 import { restoreFindFuncTable } from './findfunc.js';
+import './patch.js';
 
 // The two builds of the Go core (extension/build.go): the overlay core
 // answers every press and re-check; the report core, which adds the
@@ -68,7 +69,15 @@ async function callCore(core, options, page, frames = []) {
   }
 }
 
-const SCRIPTS = ['constants.js', 'cvd-filters.js', 'reader.js', 'machine.js', 'overlay.js'];
+const SCRIPTS = ['constants.js', 'cvd-filters.js', 'reader.js', 'machine.js', 'patch.js', 'overlay.js'];
+
+// The strings each tab last sent (the page's readings) and was sent (the
+// core's answers to the overlay), so that the next of each crosses as a
+// patch against one the other side holds (patch.js): two per tab, for
+// the four tabs checked last.
+const { Keeper, sent: sentChars } = globalThis.standoutPatch;
+const readings = new Keeper(2, 4);
+const answers = new Keeper(2, 4);
 
 // run executes one injection in the tab and returns its result. The tab's
 // activeTab grant can land a moment after the action's click event (seen
@@ -95,14 +104,26 @@ async function run(tabId, injection) {
 // compiling and running again (2–3 ms a press at 5,000 marks, from the
 // browser benchmark's steps). A re-check asks the overlay, which is
 // there, to read again.
+//
+// The reading crosses as a patch against one this background holds
+// (readings); one against a reading it no longer holds (two reads of the
+// tab crossed) is read again, whole.
 async function readPage(tabId, toggle) {
   let r;
+  const theirs = readings.held(tabId);
   try {
     if (toggle) {
-      r = await run(tabId, { func: pressInPage });
+      r = await run(tabId, { func: pressInPage, args: [theirs] });
       if (r === null) r = await run(tabId, { files: [...SCRIPTS, 'press.js'] });
     } else {
-      r = await run(tabId, { func: () => globalThis.standoutOverlay.read() });
+      r = await run(tabId, { func: readInPage, args: [theirs] });
+    }
+    if (r && !r.closed) {
+      r.json = pageJSON(tabId, r);
+      if (r.json === null) {
+        r = await run(tabId, { func: readInPage, args: [[]] });
+        r.json = pageJSON(tabId, r);
+      }
     }
   } catch (e) {
     throw new Error(`reading the page: ${(e && e.message) || e}`, { cause: e });
@@ -111,10 +132,23 @@ async function readPage(tabId, toggle) {
   return r;
 }
 
+// pageJSON is the reading's JSON: from its message (null when that
+// patches a reading no longer held), or as an overlay of an earlier
+// version, still in the page, sends it.
+function pageJSON(tabId, r) {
+  if (r.sent === undefined) return r.json;
+  return readings.take(tabId, r.sent);
+}
+
 // pressInPage runs in the page: the press's outcome when the overlay is
 // there, and null when its scripts are still to be injected.
-function pressInPage() {
-  return globalThis.standoutOverlay ? globalThis.standoutOverlay.press() : null;
+function pressInPage(theirs) {
+  return globalThis.standoutOverlay ? globalThis.standoutOverlay.press(theirs) : null;
+}
+
+// readInPage runs in the page: a reading for a re-check.
+function readInPage(theirs) {
+  return globalThis.standoutOverlay.read(theirs);
 }
 
 // lastCheck is the last request the core answered well, and its answer.
@@ -316,8 +350,12 @@ async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity,
   // A press judges the charts drawn as pixels; a re-check would capture
   // the overlay's own outlines over them.
   const pixels = toggle ? await judgePixels(tabId, read, severity) : undefined;
+  // The overlay's answer crosses as a patch against one the page holds;
+  // the whole report goes to the export whole.
+  const answer = full ? undefined : answers.give(tabId, response, read.holds);
   return {
-    response,
+    response: full ? response : undefined,
+    answer,
     pixels,
     frameOrigins: frames.missing,
     seq: read.seq,
@@ -328,8 +366,12 @@ async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity,
       coreLoadMs: loadMs,
       coreMs: t2 - t1,
       reused: !!reused,
+      patchMs: read.patchMs,
       pageBytes: read.json.length,
       responseBytes: response.length,
+      // What crossed: the reading and the answer, whole or as patches.
+      readSent: read.sent ? sentChars(read.sent) : read.json.length,
+      answerSent: answer ? sentChars(answer) : response.length,
     },
   };
 }

@@ -73,6 +73,12 @@
   // about 0.1 s still feels instantaneous, so quicker answers need no sign
   // of progress (Nielsen 1993, Usability Engineering, ch. 5; from memory).
   const BUSY_AFTER_MS = 100;
+  // The strings this page last sent the background (its readings) and
+  // received from it (the core's answers), so that the next of each
+  // crosses as a patch against one the other side holds (patch.js). They
+  // live as long as the page, across closes.
+  const sentReadings = new globalThis.standoutPatch.Keeper(2, 1);
+  const heldAnswers = new globalThis.standoutPatch.Keeper(2, 1);
   const state = {
     machine: M.initial(),
     view: initialView(),
@@ -979,7 +985,7 @@
   // unpack turns the background's {response, timing} into {report,
   // timing}, or throws the core's error.
   function unpack(data) {
-    const r = JSON.parse(data.response);
+    const r = JSON.parse(answerText(data));
     if (!r.ok) throw new Error(r.error);
     for (const page of r.overlay.pages) {
       for (const c of page.charts) {
@@ -991,6 +997,16 @@
     // The core sends the overlay's digest of the report; the whole report
     // is made when it is exported.
     return { report: r.overlay, pixels: data.pixels, frameOrigins: data.frameOrigins || [], timing: Object.assign({}, data.timing, { core: r.timing }) };
+  }
+
+  // answerText is the core's answer in data: whole (response: the whole
+  // report, or from an earlier version's background), or as a message of
+  // the answers' line, kept for the next answer to patch against.
+  function answerText(data) {
+    if (typeof data.response === 'string') return data.response;
+    const text = heldAnswers.take('answer', data.answer);
+    if (text === null) throw new Error('the answer came as a patch of one this page no longer holds; press Standout again');
+    return text;
   }
 
   // indices expands one of the digest's lists of indices, written in
@@ -1085,8 +1101,11 @@
 
   // read reads the page for the core: the read pass's result as one JSON
   // string (it crosses the messaging layer far faster than a large object,
-  // and goes to the core as it is), with its timings and the check's seq.
-  async function read(seq) {
+  // and goes to the core as it is), sent as a patch against the newest
+  // reading the background holds (theirs: their ids) when this page holds
+  // it too, with the ids of the answers this page holds, its timings and
+  // the check's seq.
+  async function read(seq, theirs) {
     const page = await globalThis.standoutReader.readPage(document);
     const t1 = performance.now();
     // The read's own time stays out of what goes to the core, so that an
@@ -1099,6 +1118,8 @@
     const de = document.documentElement;
     const view = { x: window.scrollX, y: window.scrollY, w: de.clientWidth || window.innerWidth, h: de.clientHeight || window.innerHeight };
     const stringifyMs = performance.now() - t1;
+    const sent = sentReadings.give('page', json, Array.isArray(theirs) ? theirs : []);
+    const patchMs = performance.now() - t1 - stringifyMs;
     if (state.machine.phase === 'reading' && !state.host) {
       // Only for a check that takes a while: a quick one (a warm core)
       // answers before, and neither flashes the busy panel nor pays for it.
@@ -1107,7 +1128,7 @@
         if (state.machine.phase === 'reading' && state.machine.seq === seq && !state.host) busy(hidden);
       }, BUSY_AFTER_MS);
     }
-    return { json, seq, readMs, stringifyMs, rasters: page.rasters, frames: page.unreadFrames, view };
+    return { sent, holds: heldAnswers.held('answer'), seq, readMs, stringifyMs, patchMs, rasters: page.rasters, frames: page.unreadFrames, view };
   }
 
   // busy shows, when a press's check is still on its way a moment after the
@@ -1129,16 +1150,16 @@
   }
 
   // press is the toolbar action: it closes an open check (or one being
-  // read), or reads the page for a new one.
-  function press() {
+  // read), or reads the page for a new one (theirs: read).
+  function press(theirs) {
     if (!dispatch({ type: 'press' }).includes('read')) return { closed: true };
-    return read(state.machine.seq);
+    return read(state.machine.seq, theirs);
   }
 
   // recheck reads the page again for the background (a re-check the
   // overlay asked for), under the current seq.
-  function recheck() {
-    return read(state.machine.seq);
+  function recheck(theirs) {
+    return read(state.machine.seq, theirs);
   }
 
   // show and fail are the background's answers to a press.

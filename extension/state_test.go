@@ -102,6 +102,63 @@ func TestPressAfterEditJudgesTheEditedChartAlone(t *testing.T) {
 	h.waitState("")
 }
 
+// After the first press of a page, the reading and the answer cross
+// between the page and the background as patches against the ones the
+// other side holds (patch.js); after the background was stopped they
+// cross whole again, and the overlay shows the same either way.
+func TestPressesCrossAsPatches(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(scatterCharts(1, 1000, ""))
+	var timing struct {
+		PageBytes, ResponseBytes, ReadSent, AnswerSent float64
+		Reused                                         bool
+	}
+	read := func() {
+		require.NoError(t, json.Unmarshal([]byte(h.eval(`document.querySelector('`+hostSelector+`').getAttribute('data-timing')`)), &timing))
+		t.Logf("%+v", timing)
+	}
+	read()
+	require.Positive(t, timing.PageBytes)
+	assert.Equal(t, timing.PageBytes, timing.ReadSent, "the first reading crossed as a patch")
+	assert.Equal(t, timing.ResponseBytes, timing.AnswerSent, "the first answer crossed as a patch")
+	press := func() string {
+		h.trigger()
+		h.waitState("")
+		h.trigger()
+		h.waitState("ready")
+		read()
+		return withoutHostState(h.overlayHTML())
+	}
+	press()
+	assert.True(t, timing.Reused)
+	assert.Less(t, timing.ReadSent, timing.PageBytes/100, "the unchanged reading crossed whole")
+	assert.Less(t, timing.AnswerSent, timing.ResponseBytes/100, "the reused answer crossed whole")
+	// A new colour on the first mark renumbers the reading's paints and
+	// styles after it (snapshot/json.go), so that reading differs almost
+	// throughout; another colour in its place does not.
+	h.eval(`document.querySelector('circle').setAttribute('fill', '#5d6e7f'), ''`)
+	press()
+	assert.False(t, timing.Reused)
+	assert.Less(t, timing.AnswerSent, timing.ResponseBytes/4, "the edited page's answer crossed whole")
+	h.eval(`document.querySelector('circle').setAttribute('fill', '#7f6e5d'), ''`)
+	patched := press()
+	assert.False(t, timing.Reused)
+	assert.Less(t, timing.ReadSent, timing.PageBytes/100, "the edited reading crossed whole")
+	assert.Less(t, timing.AnswerSent, timing.ResponseBytes/4, "the edited page's answer crossed whole")
+	h.trigger()
+	h.waitState("")
+	require.Equal(t, 1, h.stopWorker(t)) // the background now holds nothing to patch against
+	h.worker = nil
+	h.trigger()
+	h.waitState("ready")
+	read()
+	assert.Equal(t, timing.PageBytes, timing.ReadSent)
+	assert.Equal(t, timing.ResponseBytes, timing.AnswerSent)
+	assert.Equal(t, patched, withoutHostState(h.overlayHTML()), "the overlay differs with whole crossings")
+	h.escape()
+	h.waitState("")
+}
+
 // The background trains the core (background.js: train), from the install
 // on and after a slow check: it runs a request again, fresh, until its
 // budget is spent; a check that needs the core stops it, and it takes up
