@@ -56,8 +56,12 @@ type press struct {
 	Timing struct {
 		ReadMs, StringifyMs, ReadTripMs, CoreLoadMs, CoreMs, RenderMs float64
 		StartedAt, DeliveryMs, UnpackMs                               float64
-		Reused                                                        bool
-		Core                                                          map[string]float64
+		// PatchMs is the page's making of its reading's patch; ReadSent
+		// and AnswerSent what crossed of the reading and the answer
+		// (patch.js).
+		PatchMs, ReadSent, AnswerSent float64
+		Reused                        bool
+		Core                          map[string]float64
 	}
 	// ClickMs is from the press to the background's handler.
 	ClickMs float64
