@@ -166,3 +166,44 @@ test('keepers hold perKey strings per line and drop the line used least recently
   assert.equal(k.held('x').length, 2);
   assert.equal(k.held('z').length, 1);
 });
+
+test('messages lost or taken out of order never give a wrong string', () => {
+  // A page sends its readings to a background that keeps two per tab:
+  // some messages are lost (the page closed, the worker stopped), some
+  // arrive after later ones (two reads of a tab crossing). Every string
+  // taken must be the one its message was made from, and a patch against
+  // a string no longer held is refused, never misapplied.
+  const r = rng(8);
+  const page = new Keeper(2, 1);
+  let background = new Keeper(2, 4);
+  let text = page1();
+  function page1() {
+    return JSON.stringify({ nodes: Array.from({ length: 3000 }, (_, i) => i % 97) });
+  }
+  const inFlight = [];
+  let refused = 0;
+  let patched = 0;
+  for (let step = 0; step < 400; step++) {
+    // The page changes a little, or not at all.
+    if (r() < 0.7) {
+      const at = Math.floor(r() * text.length);
+      text = text.slice(0, at) + String(Math.floor(r() * 100)) + text.slice(at + 1);
+    }
+    inFlight.push({ msg: page.give('page', text, background.held(1)), text });
+    if (r() < 0.05) background = new Keeper(2, 4); // the worker stopped
+    while (inFlight.length > 0 && r() < 0.6) {
+      const k = r() < 0.2 ? Math.floor(r() * inFlight.length) : 0;
+      const [{ msg, text: want }] = inFlight.splice(k, 1);
+      if (r() < 0.1) continue; // lost
+      const got = background.take(1, msg);
+      if (got === null) {
+        refused++;
+        continue;
+      }
+      if (msg.ops) patched++;
+      assert.equal(got, want, `step ${step}`);
+    }
+  }
+  assert.ok(patched > 100, `only ${patched} patches were taken`);
+  assert.ok(refused > 0, 'no patch was refused: the test did not lose or reorder enough');
+});
