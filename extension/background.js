@@ -351,10 +351,11 @@ async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity,
   // the overlay's own outlines over them.
   const pixels = toggle ? await judgePixels(tabId, read, severity) : undefined;
   // The overlay's answer crosses as a patch against one the page holds;
-  // the whole report goes to the export whole.
-  const answer = full ? undefined : answers.give(tabId, response, read.holds);
+  // the whole report goes to the export whole, and an answer to an
+  // overlay of an earlier version (no holds) as that overlay reads it.
+  const answer = full || !Array.isArray(read.holds) ? undefined : answers.give(tabId, response, read.holds);
   return {
-    response: full ? response : undefined,
+    response: answer ? undefined : response,
     answer,
     pixels,
     frameOrigins: frames.missing,

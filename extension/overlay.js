@@ -982,8 +982,8 @@
     }, { capture: true });
   }
 
-  // unpack turns the background's {response, timing} into {report,
-  // timing}, or throws the core's error.
+  // unpack turns the background's {response or answer, timing} into
+  // {report, timing}, or throws the core's error.
   function unpack(data) {
     const r = JSON.parse(answerText(data));
     if (!r.ok) throw new Error(r.error);

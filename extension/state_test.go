@@ -155,6 +155,28 @@ func TestPressesCrossAsPatches(t *testing.T) {
 	assert.Equal(t, timing.PageBytes, timing.ReadSent)
 	assert.Equal(t, timing.ResponseBytes, timing.AnswerSent)
 	assert.Equal(t, patched, withoutHostState(h.overlayHTML()), "the overlay differs with whole crossings")
+	h.trigger()
+	h.waitState("")
+	// An overlay of an earlier version, still in the page after an update,
+	// sends its reading whole as json and reads the answer whole from
+	// response.
+	h.inWorker(`globalThis.testOld = 0; chrome.tabs.query({}).then((ts) => chrome.scripting.executeScript({ target: { tabId: ts.find((x) => x.url.startsWith('http')).id }, func: () => {
+	  const o = globalThis.standoutOverlay;
+	  const old = (r) => (r && r.sent ? { json: r.sent.text, seq: r.seq, readMs: r.readMs, rasters: r.rasters, frames: r.frames, view: r.view } : r);
+	  globalThis.standoutOverlay = Object.freeze({
+	    press: () => { const r = o.press(); return r instanceof Promise ? r.then(old) : r; },
+	    read: () => o.read().then(old),
+	    show: (r) => { if (typeof r.response !== 'string' || r.answer !== undefined) throw new Error('the answer did not come whole'); return o.show(r); },
+	    showError: o.showError,
+	  });
+	} })).then(() => { globalThis.testOld = 1; })`)
+	require.Eventually(t, func() bool { return h.workerValue(`String(globalThis.testOld)`) == "1" }, 5*time.Second, 20*time.Millisecond)
+	h.eval(`document.querySelector('circle').setAttribute('fill', '#5d6e7f'), ''`)
+	h.trigger()
+	h.waitState("ready")
+	read()
+	assert.Equal(t, timing.PageBytes, timing.ReadSent)
+	assert.Equal(t, timing.ResponseBytes, timing.AnswerSent)
 	h.escape()
 	h.waitState("")
 }
