@@ -42,9 +42,12 @@
   const MAX_SEARCHES = 4096;
   // Before that, PROBES samples spread over the middle are looked for in
   // the old one: when fewer than half are there, as when an edit renumbers
-  // all that follows it (a new colour in a reading's paints), no patch
-  // would be worth sending, and none is looked for.
+  // all that follows it (a new colour in a reading's paints), the middle is
+  // sent as it is, without a search. The samples are placed by the golden
+  // ratio's multiples, so that edits at a regular step (one field of every
+  // record) cannot fall on all of them.
   const PROBES = 16;
+  const GOLDEN = (Math.sqrt(5) - 1) / 2;
 
   // A literal crosses as a string, which the messaging layer carries as
   // UTF-8: it must not begin or end inside a surrogate pair, where it
@@ -104,10 +107,10 @@
   // shared says whether most samples of b[b0, b1) are in a[a0, a1).
   function shared(a, a0, a1, b, b0, b1) {
     const within = a.slice(a0, a1);
-    const step = (b1 - b0 - PROBE) / (PROBES - 1);
+    const span = b1 - b0 - PROBE;
     let found = 0;
-    for (let k = 0; k < PROBES; k++) {
-      const at = b0 + Math.floor(k * step);
+    for (let k = 1; k <= PROBES; k++) {
+      const at = b0 + Math.floor(((k * GOLDEN) % 1) * span);
       if (within.includes(b.slice(at, at + PROBE))) found++;
     }
     return 2 * found >= PROBES;
@@ -148,14 +151,12 @@
   }
 
   // middle patches b[b0, b1) against a, whose a[a0, a1) lies between the
-  // same prefix and suffix; it returns false, having written nothing,
-  // when too little of it is in a.
+  // same prefix and suffix.
   function middle(a, a0, a1, b, b0, b1, ops) {
-    if (b1 - b0 < SMALL || a1 - a0 < PROBE) {
+    if (b1 - b0 < SMALL || a1 - a0 < PROBE || !shared(a, a0, a1, b, b0, b1)) {
       ops.literal(b.slice(b0, b1));
-      return true;
+      return;
     }
-    if (!shared(a, a0, a1, b, b0, b1)) return false;
     const search = new Search(a, b, b1);
     let i = a0;
     let j = b0;
@@ -183,7 +184,6 @@
       [i, j] = at;
     }
     if (lit < b1) ops.literal(b.slice(lit, b1));
-    return true;
   }
 
   // diff returns the patch that makes b from a, or null when it would not
@@ -195,7 +195,7 @@
     if (s > 0 && isLow(b.charCodeAt(b.length - s))) s--;
     const ops = new Ops();
     if (p > 0) ops.copy(0, p);
-    if (b.length - s > p && !middle(a, p, a.length - s, b, p, b.length - s, ops)) return null;
+    if (b.length - s > p) middle(a, p, a.length - s, b, p, b.length - s, ops);
     if (s > 0) ops.copy(a.length - s, s);
     return 2 * ops.cost > b.length ? null : ops.list;
   }

@@ -79,6 +79,24 @@ test('an edit that renumbers what follows it crosses whole', () => {
   assert.equal(diff(a, b), null);
 });
 
+test('edits at a regular step, and a block replaced, still cross as patches', () => {
+  const a = page(5000, 9);
+  // One field changed in records at a regular step: samples of the middle
+  // at a regular step would all fall on edits.
+  let edits = 0;
+  const b = a.replace(/,3\]|,3,/g, (m, off) => (off % 997 < 40 ? (edits++, m.replace('3', '4')) : m));
+  assert.ok(edits > 100, `${edits} edits`);
+  let n = roundTrip(a, b, 'edits at a regular step');
+  assert.ok(n < b.length / 10, `edits at a regular step: ${n} characters of ${b.length} crossed`);
+  // A third of the reading replaced by a reading of other marks: what
+  // comes before and after it is copied.
+  const k = Math.floor(a.length / 3);
+  const other = page(5000, 10).slice(k, 2 * k);
+  const c = a.slice(0, k) + other + a.slice(2 * k);
+  n = roundTrip(a, c, 'a third replaced');
+  assert.ok(n < other.length + 100, `a third replaced: ${n} characters of ${c.length} crossed`);
+});
+
 test('moved blocks are copied, not sent', () => {
   const a = page(3000, 4);
   const k = Math.floor(a.length / 3);
