@@ -170,6 +170,12 @@ func (h *harness) state() string { return state(h) }
 
 func (h *harness) waitState(want string) { waitState(h, want) }
 
+// hostTiming decodes the overlay host's data-timing attribute, the
+// steps of the last check, into v.
+func hostTiming(tb testing.TB, h e2eBrowser, v any) {
+	require.NoError(tb, json.Unmarshal([]byte(h.eval(`document.querySelector('`+hostSelector+`').getAttribute('data-timing')`)), v))
+}
+
 // overlayHTML serialises the overlay host with its closed shadow root.
 func (h *harness) overlayHTML() string {
 	s, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) (string, error) {
@@ -992,7 +998,7 @@ func suiteBusyWhileChecking(t *testing.T, h e2eBrowser) {
 	// The busy panel is due 100 ms after the read (BUSY_AFTER_MS): a core
 	// that took longer than that and the messaging leaves time for it.
 	var timing struct{ CoreMs float64 }
-	require.NoError(t, json.Unmarshal([]byte(h.eval(`document.querySelector('`+hostSelector+`').getAttribute('data-timing')`)), &timing))
+	hostTiming(t, h, &timing)
 	t.Logf("the browser's first check: the core took %.0f ms; the host's states %+v", timing.CoreMs, states)
 	if timing.CoreMs >= 150 {
 		require.Len(t, states, 2, "the host's states from the press to the answer, the core taking %.0f ms: %+v", timing.CoreMs, states)

@@ -1,7 +1,6 @@
 package extension
 
 import (
-	"encoding/json"
 	"regexp"
 	"strconv"
 	"strings"
@@ -86,7 +85,7 @@ func TestPressAfterEditJudgesTheEditedChartAlone(t *testing.T) {
 	h.trigger()
 	h.waitState("ready")
 	var timing struct{ Core map[string]float64 }
-	require.NoError(t, json.Unmarshal([]byte(h.eval(`document.querySelector('`+hostSelector+`').getAttribute('data-timing')`)), &timing))
+	hostTiming(t, h, &timing)
 	assert.Equal(t, 1.0, timing.Core["recalledCharts"], "the chart the edit left alone was judged again: %v", timing.Core)
 	recalled := h.overlayHTML()
 	h.trigger()
@@ -95,7 +94,7 @@ func TestPressAfterEditJudgesTheEditedChartAlone(t *testing.T) {
 	h.worker = nil
 	h.trigger()
 	h.waitState("ready")
-	require.NoError(t, json.Unmarshal([]byte(h.eval(`document.querySelector('`+hostSelector+`').getAttribute('data-timing')`)), &timing))
+	hostTiming(t, h, &timing)
 	require.Zero(t, timing.Core["recalledCharts"])
 	assert.Equal(t, withoutHostState(h.overlayHTML()), withoutHostState(recalled))
 	h.escape()
@@ -114,7 +113,7 @@ func TestPressesCrossAsPatches(t *testing.T) {
 		Reused                                         bool
 	}
 	read := func() {
-		require.NoError(t, json.Unmarshal([]byte(h.eval(`document.querySelector('`+hostSelector+`').getAttribute('data-timing')`)), &timing))
+		hostTiming(t, h, &timing)
 		t.Logf("%+v", timing)
 	}
 	read()
