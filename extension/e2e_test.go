@@ -101,11 +101,19 @@ func newHarnessOf(t testing.TB, dir string) *harness { return newHarnessWith(t, 
 func newHarnessWith(t testing.TB, dir, profile string) *harness {
 	exe := chromium(t)
 	actx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, Extension: dir, UserDataDir: profile, NoSandbox: browser.SandboxNote() != ""})
-	t.Cleanup(cancel)
 	ctx, cancel2 := chromedp.NewContext(actx)
-	t.Cleanup(cancel2)
+	// A stopped browser leaves its profile's lock folder in TMPDIR; the
+	// profile itself may serve a browser started again.
+	stop := func() {
+		cancel2()
+		cancel()
+		if d := browser.LockFolder(profile); d != "" {
+			os.RemoveAll(d)
+		}
+	}
+	t.Cleanup(stop)
 	require.NoError(t, chromedp.Do(ctx, chromedp.Navigate("about:blank")))
-	h := &harness{t: t, ctx: ctx, close: func() { cancel2(); cancel() }}
+	h := &harness{t: t, ctx: ctx, close: stop}
 	deadline := time.Now().Add(15 * time.Second)
 	for h.extID == "" && time.Now().Before(deadline) {
 		ts, _ := chromedp.Targets(ctx)

@@ -186,7 +186,7 @@ func readInBrowser(exe string, urls []string, o browser.ReadOptions, stderr io.W
 		if err != nil {
 			return nil, err
 		}
-		defer os.RemoveAll(udd)
+		defer browser.RemoveProfile(udd)
 		bctx, cancel := browser.NewAllocator(ctx, browser.Options{Exec: exe, UserDataDir: udd, NoSandbox: noSandbox})
 		defer cancel()
 		return browser.ReadPages(bctx, urls, o), nil

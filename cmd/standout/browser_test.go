@@ -308,7 +308,8 @@ func BenchmarkBatch(b *testing.B) {
 			var load, read, analyse, wall float64
 			views := 0
 			for i := 0; i < b.N; i++ {
-				ctx, cancel := browser.NewAllocator(b.Context(), browser.Options{Exec: exe, UserDataDir: b.TempDir(), NoSandbox: browser.SandboxNote() != ""})
+				profile := b.TempDir()
+				ctx, cancel := browser.NewAllocator(b.Context(), browser.Options{Exec: exe, UserDataDir: profile, NoSandbox: browser.SandboxNote() != ""})
 				t0 := time.Now()
 				res := browser.ReadPages(ctx, urls, browser.ReadOptions{Tabs: run.tabs, Reader: extension.Reader(), Views: run.views})
 				views += len(res)
@@ -323,6 +324,7 @@ func BenchmarkBatch(b *testing.B) {
 				}
 				wall += time.Since(t0).Seconds()
 				cancel()
+				browser.RemoveProfile(profile)
 			}
 			total := load + read + analyse
 			b.ReportMetric(float64(len(urls)*b.N)/wall*60, "pages/min")

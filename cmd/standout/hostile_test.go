@@ -181,8 +181,28 @@ func TestIssue10InterruptRemovesProfile(t *testing.T) {
 	require.ErrorAs(t, err, &exit)
 	assert.Equal(t, 2, exit.ExitCode(), stderr.String())
 	assert.Contains(t, stderr.String(), "interrupted")
-	m, _ := filepath.Glob(filepath.Join(tmp, "standout-profile-*"))
-	assert.Empty(t, m, "profile folders left behind")
+	// Nothing is left: neither the profile nor the browser's temporary
+	// files, which a killed Chromium leaves in its TMPDIR.
+	left, err := os.ReadDir(tmp)
+	require.NoError(t, err)
+	assert.Empty(t, left, "files left behind in TMPDIR")
+}
+
+// A browser run that ends well leaves nothing in TMPDIR either.
+func TestBrowserRunLeavesNoFiles(t *testing.T) {
+	needBrowser(t)
+	tmp := t.TempDir()
+	page := writePage(t, t.TempDir(), "p.html", `<!doctype html><body>`+lostEmphasis+`</body>`)
+	t.Setenv("TMPDIR", tmp)
+	code, _, errs := runCmd("check", "--browser", page)
+	require.Equal(t, 0, code, errs)
+	left, err := os.ReadDir(tmp)
+	require.NoError(t, err)
+	var names []string
+	for _, e := range left {
+		names = append(names, e.Name())
+	}
+	assert.Empty(t, names, "files left behind in TMPDIR")
 }
 
 // As root, Chromium runs without its sandbox and the command says so.

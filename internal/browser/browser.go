@@ -9,6 +9,8 @@ import (
 	"fmt"
 	"os"
 	"os/exec"
+	"path/filepath"
+	"time"
 
 	"github.com/chromedp/chromedp"
 )
@@ -111,4 +113,40 @@ func NewAllocator(parent context.Context, o Options) (context.Context, context.C
 		)
 	}
 	return chromedp.NewExecAllocator(parent, opts...)
+}
+
+// LockFolder is the folder Chromium made in TMPDIR for a profile's lock
+// (the profile's SingletonSocket links into it), or "" when there is
+// none. A browser that is killed, as cancelling the allocator does,
+// leaves it there.
+func LockFolder(profile string) string {
+	lock, err := os.Readlink(filepath.Join(profile, "SingletonSocket"))
+	if err != nil || filepath.Base(lock) != "SingletonSocket" {
+		return ""
+	}
+	// Only a folder of its own, in the TMPDIR the browser had from us.
+	d := filepath.Dir(lock)
+	if filepath.Dir(d) != filepath.Clean(os.TempDir()) {
+		return ""
+	}
+	return d
+}
+
+// RemoveProfile removes a profile folder once its browser was stopped,
+// with its LockFolder. Chromium's helper processes can outlive the main
+// process by a moment and write into the profile meanwhile, and
+// os.RemoveAll then fails ("directory not empty"): the removal is tried
+// again every 25 ms for up to five seconds, and the last error returned.
+func RemoveProfile(dir string) error {
+	if d := LockFolder(dir); d != "" {
+		os.RemoveAll(d)
+	}
+	deadline := time.Now().Add(5 * time.Second)
+	for {
+		err := os.RemoveAll(dir)
+		if err == nil || time.Now().After(deadline) {
+			return err
+		}
+		time.Sleep(25 * time.Millisecond)
+	}
 }
