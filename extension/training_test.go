@@ -4,13 +4,16 @@ import (
 	"encoding/json"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
+	"standout/internal/report"
 	"standout/snapshot"
+	"standout/static"
 )
 
 // The build ships the training page as the core reads a page: the
@@ -35,6 +38,18 @@ func TestTrainingPageShips(t *testing.T) {
 	}
 	assert.Equal(t, trainingPoints, circles)
 	assert.Equal(t, 24, rects)
+}
+
+// The training runs the paths a press runs, the search for a fix among
+// them: the model finds the dark point standing out, and the brown one
+// lost for some readers, with a fix suggested for it.
+func TestTrainingPageSearchesAFix(t *testing.T) {
+	p, err := static.Build(strings.NewReader(TrainingPage()), static.Options{Source: "standout-training"})
+	require.NoError(t, err)
+	pg, err := report.FromSnapshots("standout-training", p.Charts, nil, report.DefaultOptions)
+	require.NoError(t, err)
+	out := string(report.AppendJSON(nil, &report.Report{Pages: []report.Page{pg}}))
+	assert.True(t, strings.Contains(out, `"fix":{"kind":`), "no fix was searched on the training page")
 }
 
 // When nothing is checked after an install, the background trains the
