@@ -185,7 +185,8 @@ const TRAIN_BUDGET_MS = 2000;
 const TRAIN_MAX_REQUESTS = 400;
 // trainer is this worker's training so far. slowMs is the first slow
 // check's core time (Infinity for the install's page), 0 until there is
-// one, and work the last slow check's request, which training runs.
+// one, and work the last slow check's request, which training runs
+// (its pages in turn: the install's training has two).
 // handle is the core's handle as the first run found it, kept until the
 // core is dropped: training runs the core it was loaded for, whatever a
 // test puts in the global afterwards.
@@ -194,7 +195,7 @@ const trainer = { done: !keepsOptimisedCode, slowMs: 0, work: null, handle: null
 // (analyse): training waits for none to be left.
 let serving = 0;
 
-function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
+function train(checkMs, options, pages, frames, delayMs = TRAIN_DELAY_MS) {
   const t = trainer;
   if (checkMs >= TRAIN_MIN_MS) {
     // A slow check after the training at the install has a budget of its
@@ -202,7 +203,7 @@ function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
     // otherwise spend most of it before the check's paths get any.
     if (t.work && t.work.atInstall && checkMs !== Infinity) t.spentMs = t.requests = 0;
     t.slowMs ||= checkMs;
-    t.work = { opts: JSON.stringify({ ...JSON.parse(options), fresh: true }), page, frames, atInstall: checkMs === Infinity };
+    t.work = { opts: JSON.stringify({ ...JSON.parse(options), fresh: true }), pages, next: 0, frames, atInstall: checkMs === Infinity };
   }
   const handle = (t.handle ||= globalThis[CORES.overlay.handle]);
   if (serving || t.done || !t.work || (t.run && !t.run.stopped) || typeof handle !== 'function') return;
@@ -226,7 +227,8 @@ function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
     if (run.stopped) return end(false);
     const t0 = performance.now();
     try {
-      if (!handle(w.opts, w.page, ...w.frames).startsWith('{"ok":true')) return end(true, false);
+      const page = w.pages[w.next++ % w.pages.length];
+      if (!handle(w.opts, page, ...w.frames).startsWith('{"ok":true')) return end(true, false);
     } catch {
       return end(false);
     }
@@ -243,7 +245,8 @@ function train(checkMs, options, page, frames, delayMs = TRAIN_DELAY_MS) {
 
 // After an install or an update, the first press would run an untrained
 // core. So the core is trained the same way on a page that ships with the
-// extension (train.json, an invented scatter and bar chart:
+// extension (train.json, an invented scatter and bar chart, and
+// train-fix.json, the same with an emphasis that needs a fix, in turn:
 // extension/training.go): at once after an install, since a reader who
 // has just installed Standout is likely to try it soon, and
 // INSTALL_TRAIN_AFTER_MS after an update, when the browser may be busy
@@ -281,8 +284,8 @@ async function trainAtInstall() {
   try {
     if (await trainedAlready()) return;
     await loadCore(CORES.overlay);
-    const page = await (await fetch(ext.runtime.getURL('train.json'))).text();
-    if (!checked) train(Infinity, JSON.stringify({ type: 'analyse' }), page, [], 0);
+    const pages = await Promise.all(['train.json', 'train-fix.json'].map(async (f) => (await fetch(ext.runtime.getURL(f))).text()));
+    if (!checked) train(Infinity, JSON.stringify({ type: 'analyse' }), pages, [], 0);
   } catch (e) {
     console.warn('Standout could not train its core:', e);
   }
@@ -345,7 +348,7 @@ async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity,
     lastCheck = { request, response };
     // The core's own time decides the training, which runs the core
     // alone: coreMs also holds the reading of frames of other origins.
-    if (core === CORES.overlay) train(t2 - tc, request[1], read.json, frames.pages);
+    if (core === CORES.overlay) train(t2 - tc, request[1], [read.json], frames.pages);
   }
   // A press judges the charts drawn as pixels; a re-check would capture
   // the overlay's own outlines over them.

@@ -51,7 +51,7 @@ func Build(dir string, firefox bool) error {
 	if err != nil {
 		return err
 	}
-	if err := writeTrainingPage(dir); err != nil {
+	if err := writeTrainingPages(dir); err != nil {
 		return err
 	}
 	// Two cores: what every press loads, and what an export loads.
