@@ -174,9 +174,14 @@ func (h *harness) warmPresses(b *testing.B, n int, change bool) []press {
 	var out []press
 	for k := 0; k < 5; k++ {
 		if change {
-			h.eval(`document.querySelector('circle').setAttribute('fill', '` + []string{"#5d6e7f", "#7f6e5d"}[k%2] + `'), ''`)
+			// The other of two fills than the mark has now, so that every
+			// press finds the page changed, the first of a series too.
+			h.eval(`(() => { const c = document.querySelector('circle'); c.setAttribute('fill', c.getAttribute('fill') === '#5d6e7f' ? '#7f6e5d' : '#5d6e7f'); return ''; })()`)
 		}
 		p := h.clickToOverlay(b)
+		if change && p.Timing.Reused {
+			b.Fatalf("%d marks, warm press %d: the page changed, yet the last answer was reused", n, k)
+		}
 		b.Logf("%d marks, warm press %d (page changed: %v): %.0f ms to ready, %.0f ms to the frame, %.1f ms to the background; %+v", n, k, change, p.Ready, p.Painted, p.ClickMs, p.Timing)
 		out = append(out, p)
 		h.trigger()
