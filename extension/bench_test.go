@@ -224,10 +224,12 @@ const readingPause = 6 * time.Second
 //     engine optimises a function once it has run a while, from its next
 //     call on, and the background's training starts only half a second
 //     after a check: background.js, TRAIN_DELAY_MS);
-//   - paced-changed-ms: five presses on a changed page as well, made
-//     after a pause to read the last answer (readingPause), as a reader
-//     edits and checks again, on a core the training has optimised
-//     meanwhile; paced-core-ms is their core's step;
+//   - paced-changed-ms: the median of five more presses on a changed
+//     page, the first made after a pause to read the last answer
+//     (readingPause), as a reader edits and checks again, the others at
+//     once after it, all on a core the training has optimised meanwhile;
+//     paced-core-ms is their core's step (the log gives each press, the
+//     first of the five apart);
 //   - floor-ms: a loop reading every element's computed paint, CTM and box
 //     once in a new isolated world; floor-warm-ms its median over three more
 //     runs in that world;
