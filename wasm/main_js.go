@@ -36,11 +36,14 @@ func main() {
 		js.Global().Get("console").Call("warn", "Standout core: GOGC is "+strconv.Quote(v)+", not off; the collector will run within requests")
 	}
 	var collect sync.Mutex
+	var room headroom
 	// A timer hands control back to JavaScript first: the collection
-	// starts once the response has been returned.
+	// starts once the response has been returned. The heap is then kept
+	// large enough for the next request (heap.go).
 	gc := js.FuncOf(func(js.Value, []js.Value) any {
 		defer collect.Unlock()
 		runtime.GC()
+		room.keep()
 		return nil
 	})
 	defer gc.Release()

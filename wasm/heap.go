@@ -1,0 +1,74 @@
+package main
+
+import "runtime"
+
+// The core collects garbage between requests only (main_js.go), so a
+// request's allocations come from the memory the last ones freed, and
+// from memory new to the heap when that runs short. A page of new memory
+// costs a page fault at its first touch, and on this project's test
+// machines a costly one (about 2.7 ms per MB; DEVELOPERS.md): a
+// 5,000-mark request allocates about 12 MB. So after each collection,
+// headroom touches what the next request would need beyond the free
+// memory, while the reader reads the answer; the next request then meets
+// no new pages unless it is larger than the last. (The first request
+// after the core loads still does: nothing runs before it.)
+
+// headroomCap is the most heap the headroom grows to, well under the
+// core's memory limit (GOMEMLIMIT=256MiB).
+const headroomCap = 128 << 20
+
+// headroom tracks the allocations between collections.
+type headroom struct {
+	// total is the runtime's cumulative allocation at the last collection.
+	total uint64
+}
+
+// want is how many bytes of heap to hold at once, so that the free memory
+// that has been touched holds made bytes of allocation and a quarter more,
+// with live bytes in use; zero when free bytes already do, or when the
+// heap would pass headroomCap.
+func (h *headroom) want(made, free, live uint64) uint64 {
+	need := made + made/4
+	if free >= need || live+need > headroomCap {
+		return 0
+	}
+	return need
+}
+
+// keep runs after a collection: when the touched free memory would not
+// hold the allocations since the last collection again, it holds that
+// much at once, then collects it so that the next request finds it free.
+func (h *headroom) keep() {
+	var m runtime.MemStats
+	runtime.ReadMemStats(&m)
+	made := m.TotalAlloc - h.total
+	// Free memory that has been touched: idle spans not handed back (the
+	// wasm runtime never hands any back, but counts the spans it has not
+	// used yet as released) and the unused room in spans in use.
+	free := m.HeapIdle - m.HeapReleased + m.HeapInuse - m.HeapAlloc
+	if n := h.want(made, free, m.HeapAlloc); n > 0 {
+		touch(n)
+		runtime.GC()
+		runtime.ReadMemStats(&m)
+	}
+	h.total = m.TotalAlloc
+}
+
+// touch holds n bytes at once, in pieces, and writes one byte in every
+// page: the allocator takes free memory first and new memory for the
+// rest, so that when the collector frees the pieces, n bytes of touched
+// memory are free.
+//
+//go:noinline
+func touch(n uint64) {
+	const piece = 256 << 10
+	held := make([][]byte, 0, n/piece+1)
+	for got := uint64(0); got < n; got += piece {
+		b := make([]byte, piece)
+		for i := 0; i < len(b); i += 4096 {
+			b[i] = 1
+		}
+		held = append(held, b)
+	}
+	runtime.KeepAlive(held)
+}
