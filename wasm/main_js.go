@@ -35,24 +35,8 @@ func main() {
 	if v, _ := syscall.Getenv("GOGC"); v != "off" {
 		js.Global().Get("console").Call("warn", "Standout core: GOGC is "+strconv.Quote(v)+", not off; the collector will run within requests")
 	}
-	var collect sync.Mutex
-	var room headroom
-	// A timer hands control back to JavaScript first: the collection
-	// starts once the response has been returned. The heap is then kept
-	// large enough for the next request (heap.go).
-	gc := js.FuncOf(func(js.Value, []js.Value) any {
-		defer collect.Unlock()
-		runtime.GC()
-		room.keep()
-		return nil
-	})
-	defer gc.Release()
-	collectLater := func() {
-		if !collect.TryLock() {
-			return // one is pending
-		}
-		js.Global().Call("setTimeout", gc, 1)
-	}
+	collectLater, stop := collector()
+	defer stop()
 	handle := js.FuncOf(func(this js.Value, args []js.Value) any {
 		for _, a := range args {
 			if a.Type() != js.TypeString {
@@ -101,4 +85,26 @@ func main() {
 	}
 	js.Global().Set(handleGlobal, handle)
 	select {}
+}
+
+// collector returns collectLater, which collects garbage once the
+// response on its way has been returned (a timer hands control back to
+// JavaScript first; one collection pending at a time), then keeps the
+// heap large enough for the next request (heap.go); and the function
+// that releases its timer callback.
+func collector() (collectLater func(), release func()) {
+	var collect sync.Mutex
+	var room headroom
+	gc := js.FuncOf(func(js.Value, []js.Value) any {
+		defer collect.Unlock()
+		runtime.GC()
+		room.keep()
+		return nil
+	})
+	return func() {
+		if !collect.TryLock() {
+			return // one is pending
+		}
+		js.Global().Call("setTimeout", gc, 1)
+	}, gc.Release
 }
