@@ -332,6 +332,9 @@ func withoutFindFuncTab(mod []byte) ([]byte, string) {
 	if !bytes.Equal(table, img[l.table:l.table+l.size]) {
 		return nil, "the table built from the ftab is not the linker's"
 	}
+	if l.table%4 != 0 || l.ftab%4 != 0 {
+		return nil, "the tables are not aligned for findfunc.js's 32-bit view"
+	}
 	clear(img[l.table : l.table+l.size])
 	segs = segmentsOf(img)
 	out := []byte(wasmmod.Magic)

@@ -19,20 +19,29 @@ const SUBBUCKETS = 16;
 export function rebuildFindFuncTable(layout, buffer) {
   const v = new DataView(layout);
   const [table, size, ftab, nfunc, text, minpc, maxpc] = [0, 4, 8, 12, 16, 20, 24].map((o) => v.getUint32(o, true));
-  const mem = new DataView(buffer);
   // On WebAssembly a code address is the function's index shifted left by
   // 16, so every function begins a bucket (the build checks it): a bucket
   // holds the index of the function that begins it and, the memory being
   // zero there, its subbuckets need nothing written. Numbers stay exact in
-  // doubles far past 32 bits.
-  const entry = (k) => mem.getUint32(ftab + 8 * k, true) * 65536 + text;
-  const buckets = Math.ceil((maxpc - minpc) / BUCKET);
-  if ((buckets - 1) * (4 + SUBBUCKETS) + 4 > size) throw new Error('the core is damaged: its findfunctab is too small');
+  // doubles far past 32 bits. The loop runs as the worker starts, before
+  // the engine has optimised any script, so it reads and writes through
+  // one Uint32Array (the memory is little-endian, as WebAssembly's is,
+  // on every platform browsers run on) in plain arithmetic.
+  if (table % 4 !== 0 || ftab % 4 !== 0) throw new Error('the core is damaged: its function tables are not aligned');
+  const mem = new Uint32Array(buffer, 0, buffer.byteLength >> 2);
+  const stride = (4 + SUBBUCKETS) / 4;
+  const first = table / 4;
+  const span = maxpc - minpc;
+  const buckets = Math.ceil(span / BUCKET);
+  if ((buckets - 1) * (4 + SUBBUCKETS) + 4 > size || ftab / 4 + 2 * nfunc > mem.length || first + buckets * stride > mem.length) {
+    throw new Error('the core is damaged: its findfunctab is too small');
+  }
+  let p = mem[ftab / 4] * 65536 + text - minpc;
   for (let k = 0; k < nfunc; k++) {
-    const p = entry(k) - minpc;
-    const q = (k + 1 < nfunc ? entry(k + 1) : maxpc) - minpc;
-    if (p < 0 || q > maxpc - minpc || q <= p || p % BUCKET !== 0) throw new Error('the core is damaged: its function table is not as built');
-    for (let b = p / BUCKET; b * BUCKET < q; b++) mem.setUint32(table + b * (4 + SUBBUCKETS), k, true);
+    const q = (k + 1 < nfunc ? mem[ftab / 4 + 2 * (k + 1)] * 65536 + text : maxpc) - minpc;
+    if (p < 0 || q > span || q <= p || p % BUCKET !== 0) throw new Error('the core is damaged: its function table is not as built');
+    for (let b = p / BUCKET; b * BUCKET < q; b++) mem[first + b * stride] = k;
+    p = q;
   }
 }
 
