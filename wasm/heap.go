@@ -17,13 +17,20 @@ import "runtime"
 // core's memory limit (GOMEMLIMIT=256MiB).
 const headroomCap = 128 << 20
 
-// headroom tracks the allocations between collections.
+// headroom tracks the heap's use between collections.
 type headroom struct {
 	// total is the runtime's cumulative allocation at the last collection.
 	total uint64
+	// touched is the most heap that has been in use at once: the wasm
+	// runtime never hands memory back, so that much of the heap has been
+	// touched. (The runtime's own count of memory handed back, which its
+	// scavenger keeps, says nothing there: it hands back nothing.)
+	touched uint64
+	// inuse is the heap in use after the last collection.
+	inuse uint64
 }
 
-// want is how many bytes of heap to hold at once, so that the free memory
+// want is how many bytes of heap to hold at once so that the free memory
 // that has been touched holds made bytes of allocation and a quarter more,
 // with live bytes in use; zero when free bytes already do, or when the
 // heap would pass headroomCap.
@@ -38,20 +45,22 @@ func (h *headroom) want(made, free, live uint64) uint64 {
 // keep runs after a collection: when the touched free memory would not
 // hold the allocations since the last collection again, it holds that
 // much at once, then collects it so that the next request finds it free.
+// The allocator takes the lowest free pages first, which are the touched
+// ones, the heap having grown upwards.
 func (h *headroom) keep() {
 	var m runtime.MemStats
 	runtime.ReadMemStats(&m)
 	made := m.TotalAlloc - h.total
-	// Free memory that has been touched: idle spans not handed back (the
-	// wasm runtime never hands any back, but counts the spans it has not
-	// used yet as released) and the unused room in spans in use.
-	free := m.HeapIdle - m.HeapReleased + m.HeapInuse - m.HeapAlloc
-	if n := h.want(made, free, m.HeapAlloc); n > 0 {
+	// Without a collection in between, the heap held what was in use
+	// after the last one and all that was made since.
+	h.touched = max(h.touched, h.inuse+made, m.HeapInuse)
+	if n := h.want(made, h.touched-m.HeapInuse, m.HeapAlloc); n > 0 {
 		touch(n)
+		h.touched = max(h.touched, m.HeapInuse+n)
 		runtime.GC()
 		runtime.ReadMemStats(&m)
 	}
-	h.total = m.TotalAlloc
+	h.total, h.inuse = m.TotalAlloc, m.HeapInuse
 }
 
 // touch holds n bytes at once, in pieces, and writes one byte in every
