@@ -25,10 +25,13 @@ export function rebuildFindFuncTable(layout, buffer) {
   // zero there, its subbuckets need nothing written. Numbers stay exact in
   // doubles far past 32 bits. The loop runs as the worker starts, before
   // the engine has optimised any script, so it reads and writes through
-  // one Uint32Array (the memory is little-endian, as WebAssembly's is,
-  // on every platform browsers run on) in plain arithmetic.
+  // one Uint32Array in plain arithmetic. A typed array has the platform's
+  // byte order and WebAssembly's memory is little-endian, so on a
+  // big-endian platform each number is swapped.
   if (table % 4 !== 0 || ftab % 4 !== 0) throw new Error('the core is damaged: its function tables are not aligned');
   const mem = new Uint32Array(buffer, 0, buffer.byteLength >> 2);
+  const little = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
+  const order = (x) => (little ? x : (((x & 0xff) << 24) | ((x & 0xff00) << 8) | ((x >>> 8) & 0xff00) | (x >>> 24)) >>> 0);
   const stride = (4 + SUBBUCKETS) / 4;
   const first = table / 4;
   const span = maxpc - minpc;
@@ -36,11 +39,12 @@ export function rebuildFindFuncTable(layout, buffer) {
   if ((buckets - 1) * (4 + SUBBUCKETS) + 4 > size || ftab / 4 + 2 * nfunc > mem.length || first + buckets * stride > mem.length) {
     throw new Error('the core is damaged: its findfunctab is too small');
   }
-  let p = mem[ftab / 4] * 65536 + text - minpc;
+  let p = order(mem[ftab / 4]) * 65536 + text - minpc;
   for (let k = 0; k < nfunc; k++) {
-    const q = (k + 1 < nfunc ? mem[ftab / 4 + 2 * (k + 1)] * 65536 + text : maxpc) - minpc;
+    const q = (k + 1 < nfunc ? order(mem[ftab / 4 + 2 * (k + 1)]) * 65536 + text : maxpc) - minpc;
     if (p < 0 || q > span || q <= p || p % BUCKET !== 0) throw new Error('the core is damaged: its function table is not as built');
-    for (let b = p / BUCKET; b * BUCKET < q; b++) mem[first + b * stride] = k;
+    const w = order(k);
+    for (let b = p / BUCKET; b * BUCKET < q; b++) mem[first + b * stride] = w;
     p = q;
   }
 }
