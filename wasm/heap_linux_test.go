@@ -17,8 +17,8 @@ import (
 // last one meets no pages new to the process. The oracle is the kernel's
 // count of minor page faults, in a process of its own, whose heap no
 // other test has grown; a control without keep shows the faults are there
-// to be spared. The collector is off, as in the core (GOGC=off), which
-// also keeps the native runtime from handing idle memory back.
+// to be spared. The collector is off, as in the core (GOGC=off), so that
+// only the test's collections free memory.
 func TestHeadroomSparesTheNextRequestsPageFaults(t *testing.T) {
 	const child = "STANDOUT_HEADROOM_CHILD"
 	if os.Getenv(child) == "" {
