@@ -107,9 +107,7 @@ func newHarnessWith(t testing.TB, dir, profile string) *harness {
 	stop := func() {
 		cancel2()
 		cancel()
-		if d := browser.LockFolder(profile); d != "" {
-			os.RemoveAll(d)
-		}
+		browser.RemoveLockFolder(profile)
 	}
 	t.Cleanup(stop)
 	require.NoError(t, chromedp.Do(ctx, chromedp.Navigate("about:blank")))

@@ -115,11 +115,11 @@ func NewAllocator(parent context.Context, o Options) (context.Context, context.C
 	return chromedp.NewExecAllocator(parent, opts...)
 }
 
-// LockFolder is the folder Chromium made in TMPDIR for a profile's lock
+// lockFolder is the folder Chromium made in TMPDIR for a profile's lock
 // (the profile's SingletonSocket links into it), or "" when there is
 // none. A browser that is killed, as cancelling the allocator does,
 // leaves it there.
-func LockFolder(profile string) string {
+func lockFolder(profile string) string {
 	lock, err := os.Readlink(filepath.Join(profile, "SingletonSocket"))
 	if err != nil || filepath.Base(lock) != "SingletonSocket" {
 		return ""
@@ -132,15 +132,22 @@ func LockFolder(profile string) string {
 	return d
 }
 
+// RemoveLockFolder removes the lock folder a stopped browser left in
+// TMPDIR for profile, keeping the profile itself for a browser started
+// again.
+func RemoveLockFolder(profile string) {
+	if d := lockFolder(profile); d != "" {
+		os.RemoveAll(d)
+	}
+}
+
 // RemoveProfile removes a profile folder once its browser was stopped,
-// with its LockFolder. Chromium's helper processes can outlive the main
+// with its lock folder. Chromium's helper processes can outlive the main
 // process by a moment and write into the profile meanwhile, and
 // os.RemoveAll then fails ("directory not empty"): the removal is tried
 // again every 25 ms for up to five seconds, and the last error returned.
 func RemoveProfile(dir string) error {
-	if d := LockFolder(dir); d != "" {
-		os.RemoveAll(d)
-	}
+	RemoveLockFolder(dir)
 	deadline := time.Now().Add(5 * time.Second)
 	for {
 		err := os.RemoveAll(dir)
