@@ -70,10 +70,15 @@ func TrainingPage(fix bool) string {
 	return b.String()
 }
 
+// readTrainingPage reads TrainingPage(fix) as the static reader does.
+func readTrainingPage(fix bool) (*static.Page, error) {
+	return static.Build(strings.NewReader(TrainingPage(fix)), static.Options{Source: "standout-training"})
+}
+
 // writeTrainingPages writes TrainingFiles into dir.
 func writeTrainingPages(dir string) error {
 	for i, name := range TrainingFiles {
-		p, err := static.Build(strings.NewReader(TrainingPage(i == 1)), static.Options{Source: "standout-training"})
+		p, err := readTrainingPage(i == 1)
 		if err != nil {
 			return fmt.Errorf("the training page %s: %w", name, err)
 		}

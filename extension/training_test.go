@@ -13,7 +13,6 @@ import (
 
 	"standout/internal/report"
 	"standout/snapshot"
-	"standout/static"
 )
 
 // The build ships the training pages as the core reads a page: the
@@ -55,7 +54,7 @@ func TestBackgroundTrainsOnTheTrainingPages(t *testing.T) {
 // after the install may wait for, it searches none.
 func TestTrainingPageSearchesAFix(t *testing.T) {
 	for _, fix := range []bool{false, true} {
-		p, err := static.Build(strings.NewReader(TrainingPage(fix)), static.Options{Source: "standout-training"})
+		p, err := readTrainingPage(fix)
 		require.NoError(t, err)
 		pg, err := report.FromSnapshots("standout-training", p.Charts, nil, report.DefaultOptions)
 		require.NoError(t, err)
