@@ -33,10 +33,10 @@ const trainingPoints = 600
 // that the walk's and the model's paths for points, bars and text all
 // run. With fix, one more point is brown, which CVD readers lose among
 // the others, so that the search for a fix that a failed emphasis
-// starts runs too. Chromium keeps a module's optimised code once per
-// profile, when the first megabyte of it is compiled (DEVELOPERS.md):
-// code a press runs that the training never ran is compiled again after
-// every start of the worker. Left out of the training, the fix search
+// starts runs too. Chromium keeps a module's optimised code when the
+// first megabyte of it is compiled, and again only after another
+// megabyte (DEVELOPERS.md): code a press runs that the training never
+// ran is compiled again after every start of the worker. Left out of the training, the fix search
 // took 79–106 ms of the core of the second press after a restart (5,000
 // marks, recoloured, three restarts in each of two runs), against 46–62
 // with it.
