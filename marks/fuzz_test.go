@@ -61,7 +61,7 @@ func FuzzPath(f *testing.F) {
 		// the whole outline's box.
 		if pointCloud(&DefaultHeuristics, &g) {
 			nd := snapshot.Node{Tag: "path", D: d, CTM: snapshot.IdentityMatrix}
-			ms := cloudMarks(&cand{n: &nd, g: g, fillA: 1, kind: KindPoint})
+			ms := cloudMarks(nil, &cand{n: &nd, g: g, fillA: 1, kind: KindPoint}, &paintSlab{})
 			if len(ms) != len(g.Subpaths) {
 				t.Fatalf("%d marks for %d subpaths from %q", len(ms), len(g.Subpaths), d)
 			}
