@@ -1285,3 +1285,44 @@ func window(h e2eBrowser) [2]float64 {
 	}
 	return v
 }
+
+// A chart drawn as pixels taller than the window is not judged, and the
+// panel says how to have it judged: zoomed out until it fits (the tab's
+// zoom, set from the worker as the browser's zoom control sets it), the
+// press judges it, and the eye goes first to its highlighted bar.
+func TestE2EChartDrawnAsPixelsLargerThanTheWindow(t *testing.T) {
+	h := newHarness(t)
+	// Twelve bars on a canvas 400 px taller than the window; the sixth
+	// highlighted (invented data).
+	h.showPage(`<!doctype html><html><body style="margin:0"><canvas id="c" width="480"></canvas><script>
+	  const c = document.getElementById("c"), H = innerHeight + 400;
+	  c.height = H;
+	  const g = c.getContext("2d");
+	  g.fillStyle = "#ffffff"; g.fillRect(0, 0, 480, H);
+	  for (let k = 0; k < 12; k++) {
+	    const h = (0.2 + ((k * 53) % 200) / 300) * (H - 40);
+	    g.fillStyle = k === 5 ? "#d1495b" : "#7d8a99";
+	    g.fillRect(20 + k * 38, H - 20 - h, 26, h);
+	  }
+	</script></body></html>`)
+	ov := h.overlayHTML()
+	assert.Contains(t, ov, "canvas0 is larger than the window, so no reader sees it whole at a glance")
+	assert.Contains(t, ov, "Zoom the page out until it fits in the window, and press again.")
+	assert.NotContains(t, ov, `data-raster="canvas0"`, "outlines on a chart that was not judged")
+
+	h.trigger() // close
+	h.waitState("")
+	h.inWorker(`chrome.tabs.query({}).then((ts) => Promise.all(ts.filter((t) => t.url && t.url.startsWith('http')).map((t) => chrome.tabs.setZoom(t.id, 0.5))))`)
+	require.Eventually(t, func() bool { return h.eval(`String(innerHeight >= document.getElementById("c").height)`) == "true" }, 5*time.Second, 50*time.Millisecond, "the zoomed-out window holds the chart")
+	h.trigger()
+	h.waitState("ready")
+	ov = h.overlayHTML()
+	assert.NotContains(t, ov, "larger than the window")
+	assert.Regexp(t, `canvas0: the eye is predicted to go first to the outlined region`, ov)
+	m := regexp.MustCompile(`<svg class="layer pixels" data-raster="canvas0"[^>]*>.*?<path d="M([\d.]+) ([\d.]+)h([\d.]+)v([\d.]+)[^"]*"[^>]*data-rank="1"`).FindStringSubmatch(ov)
+	require.NotNil(t, m, "canvas0's first region: %s", ov)
+	x, _ := strconv.ParseFloat(m[1], 64)
+	w, _ := strconv.ParseFloat(m[3], 64)
+	// The highlighted bar spans x 210–236 of the canvas at the page's left.
+	assert.True(t, x <= 223 && 223 <= x+w, "first region from x %.0f, %.0f wide", x, w)
+}

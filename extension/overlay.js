@@ -542,7 +542,7 @@
     for (const p of pixels) {
       if (p.unseen) {
         sec.appendChild(el('p', {}, p.large
-          ? `${p.name} is larger than the window: its pixels were not judged; check it by eye.`
+          ? `${p.name} is larger than the window, so no reader sees it whole at a glance, and its pixels were not judged. Zoom the page out until it fits in the window, and press again.`
           : `${p.name} could not be captured in view: scroll it into view and press again to judge its pixels.`));
         continue;
       }
