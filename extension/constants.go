@@ -39,6 +39,7 @@ func Constants() []byte {
 	num("PAINT_COLOUR", int(snapshot.PaintColour))
 	num("PAINT_SERVER", int(snapshot.PaintServer))
 	num("NAME_USE", snapshot.NameUse)
+	num("NAME_NEXT", snapshot.NameNext)
 	num("GEOM_AUTO", snapshot.GeomAuto)
 	num("MAX_CLASS_BYTES", snapshot.MaxClassBytes)
 	num("MAX_RASTERS", snapshot.MaxRasters)

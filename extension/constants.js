@@ -15,6 +15,7 @@ globalThis.standoutConstants = Object.freeze({
   PAINT_COLOUR: 1,
   PAINT_SERVER: 2,
   NAME_USE: -1,
+  NAME_NEXT: -2,
   GEOM_AUTO: -1,
   MAX_CLASS_BYTES: 256,
   MAX_RASTERS: 1000,

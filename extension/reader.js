@@ -13,7 +13,7 @@
   // be judged wrongly) and the geometry layouts, generated from Go
   // (constants.js).
   const C = globalThis.standoutConstants;
-  const { SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES, NAME_USE, GEOM_AUTO } = C;
+  const { SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES, NAME_USE, NAME_NEXT, GEOM_AUTO } = C;
   const notRendered = new Set(C.NOT_RENDERED);
   // The read pass hands the tab back to the page after this much work
   // (ms), so that a large page stays responsive while it is read.
@@ -376,6 +376,7 @@
       this.ctms = [];
       this.parentOf = [];
       this.linkOf = [];
+      this.lastK = []; // per node, the link of its last child named by one, or -1
       this.tagName = [];
       this.prev = null;
       this.full = []; // the styles written out, in order
@@ -414,15 +415,24 @@
     }
 
     // begin starts a node's record and returns the node's index; its has
-    // bits are written by end.
+    // bits are written by end. A child's link that follows its parent's
+    // last one is written as NAME_NEXT, so that an element added or taken
+    // away leaves the records after it as they were, and the next reading
+    // crosses as a patch (patch.js).
     begin(parent, tag, link, ctm) {
       const idx = this.styles.length;
       this.at = this.nodes.length;
       this.ctms.push(ctm);
       this.parentOf.push(parent);
       this.linkOf.push(link);
+      this.lastK.push(-1);
       this.tagName.push(tag);
-      this.nodes.push(parent, this.tag(tag), link < 0 ? NAME_USE : link, 0);
+      let field = link < 0 ? NAME_USE : link;
+      if (link >= 0 && parent >= 0) {
+        if (link === this.lastK[parent] + 1) field = NAME_NEXT;
+        this.lastK[parent] = link;
+      }
+      this.nodes.push(parent, this.tag(tag), field, 0);
       return idx;
     }
 

@@ -31,7 +31,10 @@ import (
 // tag indexes "tags"; fill and stroke index the paint entries; flags are
 // Node.Flags. name derives Node.Name from the parent's: the root's is the
 // snapshot's Path; k ≥ 0 names the parent's k-th element child, parent +
-// "/" + tag + k; −1 content a <use> instantiates, parent + ">" + tag. has
+// "/" + tag + k; −2 the child after the one its parent's last such record
+// named (k one more, or 0 for the first), so that an element added or
+// taken away leaves its siblings' records as they were; −1 content a
+// <use> instantiates, parent + ">" + tag. has
 // says whether the style is there and which optional fields follow, in
 // this order:
 //
@@ -81,6 +84,9 @@ const (
 const (
 	// NameUse is the name field of content instantiated by <use>.
 	NameUse = -1
+	// NameNext is the name field of the element child after the one its
+	// parent's last record with a k ≥ 0 named.
+	NameNext = -2
 	// MaxClassBytes bounds a node's class attribute as the readers keep it.
 	MaxClassBytes = 256
 	// maxGeom bounds a record's geometry count.
@@ -311,7 +317,7 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 	// Room for the nodes, from the usual record length (a style repeated,
 	// a CTM inherited, three numbers of geometry) rather than the shortest.
 	s.Nodes = make([]Node, 0, min(len(v)/8+1, MaxNodes))
-	nr := nodeReader{w: w, s: s, paints: paints, r: record{v: v}, nameAt: make([][2]int32, 0, cap(s.Nodes))}
+	nr := nodeReader{w: w, s: s, paints: paints, r: record{v: v}, nameAt: make([][2]int32, 0, cap(s.Nodes)), lastK: make([]int32, 0, cap(s.Nodes))}
 	for nr.r.i < len(v) {
 		if err := nr.next(); err != nil {
 			return err
@@ -331,6 +337,7 @@ type nodeReader struct {
 	r      record
 	names  []byte
 	nameAt [][2]int32
+	lastK  []int32 // per node, the k its last child named by one had, or −1
 	slab   []float64
 	spans  []span  // geometry (node ≥ 0) and boxes (−node−1), cut from slab
 	styled []int32 // the nodes whose records write their styles out, in order
@@ -353,7 +360,7 @@ func (nr *nodeReader) next() error {
 	if err != nil {
 		return err
 	}
-	nk, err := r.int("name", NameUse, math.MaxInt32)
+	nk, err := r.int("name", NameNext, math.MaxInt32)
 	if err != nil {
 		return err
 	}
@@ -508,6 +515,16 @@ func (nr *nodeReader) strings(nd *Node, has int) error {
 // name derives the node's name from its parent's, or reads it.
 func (nr *nodeReader) name(nd *Node, has, p, nk int) error {
 	start := len(nr.names)
+	nr.lastK = append(nr.lastK, -1)
+	if p >= 0 && has&FieldName == 0 && nk != NameUse {
+		if nk == NameNext {
+			if nr.lastK[p] == math.MaxInt32 {
+				return nr.r.error("a name past the largest index")
+			}
+			nk = int(nr.lastK[p]) + 1
+		}
+		nr.lastK[p] = int32(nk)
+	}
 	switch {
 	case has&FieldName != 0:
 		explicit, err := nr.r.str(nr.w.Strs)
@@ -654,7 +671,9 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 	var out []float64
 	var prevKey [StyleLen]uint64
 	styles := map[[StyleLen]uint64]int{} // the styles written out, numbered
+	lastK := make([]int, len(s.Nodes))   // as nodeReader.lastK
 	for i := range s.Nodes {
+		lastK[i] = -1
 		nd := &s.Nodes[i]
 		p := int(nd.Parent)
 		if err := checkNode(s, i); err != nil {
@@ -662,9 +681,16 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 		}
 		nk, explicit := nameLink(s, i)
 		has := presentFields(s, i)
-		if explicit {
+		switch {
+		case explicit:
 			has |= FieldName
 			nk = 0
+		case p >= 0 && nk >= 0:
+			k := nk
+			if k == lastK[p]+1 {
+				nk = NameNext
+			}
+			lastK[p] = k
 		}
 		fill, stroke := e.paint(nd.Fill), e.paint(nd.Stroke)
 		style := [StyleLen]float64{float64(nd.Flags), fill, stroke, nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth}

@@ -179,6 +179,68 @@ func TestSnapshotJSONStyleRefs(t *testing.T) {
 	assert.Equal(t, normalised(again), normalised(oracle))
 }
 
+// A child's name field may say "the next one" (NameNext, −2): the k one
+// more than its parent's last child named by a k. The encoder writes it
+// wherever it holds, so that an element added or taken away leaves every
+// other record as it was, and a reading after the edit crosses as a patch
+// of the last (extension/patch.js).
+func TestSnapshotJSONNameNext(t *testing.T) {
+	in := `{"v":2,"path":"svg0","tags":["svg","g","circle"],"paints":[0,0,0],"strs":["own"],
+	"nodes":[
+	  -1,0,0,0, 0,0,0, 1,1,1,0,
+	  0,1,-2,128,
+	  1,2,-2,128,
+	  1,2,-2,128,
+	  1,2,-1,128,
+	  1,2,0,192,0,
+	  1,2,-2,128,
+	  0,1,-2,128,
+	  1,2,5,128,
+	  1,2,-2,128,
+	  7,2,-2,128
+	]}`
+	var s snapshot.Snapshot
+	require.NoError(t, json.Unmarshal([]byte(in), &s))
+	var names []string
+	for _, n := range s.Nodes {
+		names = append(names, n.Name)
+	}
+	assert.Equal(t, []string{"svg0", "svg0/g0", "svg0/g0/circle0", "svg0/g0/circle1", "svg0/g0>circle", "own",
+		"svg0/g0/circle2", "svg0/g1", "svg0/g0/circle5", "svg0/g0/circle6", "svg0/g1/circle0"}, names,
+		"−2 follows the parent's last k; content a <use> makes and written names leave it")
+
+	// A scatter of ten circles, and the same with one added third: the
+	// records of the other ten are the same numbers.
+	scatter := func(n, added int) []float64 {
+		c := snapshot.Snapshot{Version: snapshot.SnapshotVersion, Path: "svg0", Nodes: []snapshot.Node{{Parent: -1, Tag: "svg", Name: "svg0"}}}
+		for i := 0; i < n; i++ {
+			x := float64(i)
+			if added >= 0 && i > added {
+				x--
+			} else if i == added {
+				x = 99
+			}
+			c.Nodes = append(c.Nodes, snapshot.Node{Parent: 0, Tag: "circle", Name: "svg0/circle" + strconv.Itoa(i), Geom: []float64{x, 1, 3},
+				Fill: snapshot.Paint{Kind: snapshot.PaintColour, RGBA: 0x112233ff}, FillOpacity: 1, StrokeOpacity: 1, Opacity: 1})
+		}
+		b, err := json.Marshal(c)
+		require.NoError(t, err)
+		var wire struct{ Nodes []float64 }
+		require.NoError(t, json.Unmarshal(b, &wire))
+		var back snapshot.Snapshot
+		require.NoError(t, json.Unmarshal(b, &back))
+		assert.Equal(t, normalised(c), normalised(back))
+		return wire.Nodes
+	}
+	before, after := scatter(10, -1), scatter(11, 3)
+	const head, rec = 4 + 7 + 6, 4 + 7 + 4 // the root's record; the first circle's
+	cut := head + rec + 2*(4+4)            // where the added circle's record begins
+	require.Len(t, after, len(before)+4+4)
+	assert.Equal(t, before[:cut], after[:cut])
+	assert.Equal(t, before[cut:], after[cut+8:], "the records after the added circle changed")
+	assert.Equal(t, []float64{0, 1, snapshot.NameNext, 130, 3, 99, 1, 3}, after[cut:cut+8])
+}
+
 func TestSnapshotJSONErrors(t *testing.T) {
 	head := `{"v":2,"path":"svg0","tags":["svg"],"paints":[0,0,0],"strs":["x"],"nodes":`
 	for name, bad := range map[string]string{
@@ -208,6 +270,8 @@ func TestSnapshotJSONErrors(t *testing.T) {
 		"string out of range": head + `[-1,0,0,8,0,0,0,1,1,1,1,1]}`,
 		"geometry too long":   head + `[-1,0,0,2,0,0,0,1,1,1,1,17]}`,
 		"geometry cut short":  head + `[-1,0,0,2,0,0,0,1,1,1,1,3,1]}`,
+		"name below the next": head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,-3,128]}`,
+		"name past the last":  head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,2147483646,128, 0,0,-2,128, 0,0,-2,128]}`,
 		"selects nothing":     `{"v":2,"sel":[0]}`,
 	} {
 		t.Run(name, func(t *testing.T) {
