@@ -305,6 +305,8 @@ func FuzzSnapshotJSON(f *testing.F) {
 	f.Add([]byte(`{"v":2,"tags":["g"],"tags":["svg"],"nodes":[-1,0,0,65,0,0,0,1,1,1,1,1,2,3,4,5,6,0],"strs":["n"],"paints":[0,0,0],"V":2}`))
 	// Styles referred to by number (has 512).
 	f.Add([]byte(`{"v":2,"path":"svg0","tags":["svg","circle"],"paints":[0,0,0,1,255,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,0,0,1,0,2,0,1,0,1,1,1,0,3,1,1,3,0,1,1,514,0,3,2,2,3,0,1,2,642,1,3,3,3,3]}`))
+	// Names that follow the last (NameNext), around a gap and <use> content.
+	f.Add([]byte(`{"v":2,"path":"svg0","tags":["svg","circle"],"paints":[0,0,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,1,0,1,-2,128,0,1,-2,128,0,1,7,128,0,1,-1,128,0,1,-2,128]}`))
 	f.Fuzz(func(t *testing.T, b []byte) {
 		slow, serr := snapshot.DecodeByReflection(b)
 		var fast snapshot.Snapshot
