@@ -40,6 +40,8 @@ func Constants() []byte {
 	num("PAINT_SERVER", int(snapshot.PaintServer))
 	num("NAME_USE", snapshot.NameUse)
 	num("NAME_NEXT", snapshot.NameNext)
+	num("STR_NEXT", snapshot.StrNext)
+	num("PARENT_PREV", snapshot.ParentPrev)
 	num("GEOM_AUTO", snapshot.GeomAuto)
 	num("MAX_CLASS_BYTES", snapshot.MaxClassBytes)
 	num("MAX_RASTERS", snapshot.MaxRasters)
@@ -76,6 +78,14 @@ func Constants() []byte {
 		fmt.Fprintf(&b, "    %s: Object.freeze([%s]),\n", t, quoted(snapshot.GeomLayout[t]))
 	}
 	b.WriteString("  }),\n")
+	reportConstants(&b)
+	b.WriteString("});\n")
+	return b.Bytes()
+}
+
+// reportConstants writes the constants that come from the report's look:
+// the verdicts' styles, the panel's palette and the glossary.
+func reportConstants(b *bytes.Buffer) {
 	b.WriteString("  // The verdicts' styles (internal/report/look.go), strongest first.\n")
 	b.WriteString("  VERDICTS: Object.freeze([\n")
 	for _, s := range report.VerdictStyles {
@@ -83,22 +93,20 @@ func Constants() []byte {
 		for i, d := range s.Dash {
 			dash[i] = strconv.FormatFloat(d, 'g', -1, 64)
 		}
-		fmt.Fprintf(&b, "    Object.freeze({ verdict: %q, letter: %q, colour: %q, width: %s, dash: %q, corner: %q, halo: %t, words: %q }),\n",
+		fmt.Fprintf(b, "    Object.freeze({ verdict: %q, letter: %q, colour: %q, width: %s, dash: %q, corner: %q, halo: %t, words: %q }),\n",
 			s.Verdict, s.Letter, s.Colour, strconv.FormatFloat(s.Width, 'g', -1, 64), strings.Join(dash, " "), s.Corner, s.Halo, s.Words)
 	}
 	b.WriteString("  ]),\n")
 	b.WriteString("  // The panel's palette (internal/report/look.go).\n")
 	in := report.Ink
-	fmt.Fprintf(&b, "  INK: Object.freeze({ ink: %q, paper: %q, wash: %q, rule: %q, quiet: %q, focus: %q, highlight: %q, alert: %q }),\n",
+	fmt.Fprintf(b, "  INK: Object.freeze({ ink: %q, paper: %q, wash: %q, rule: %q, quiet: %q, focus: %q, highlight: %q, alert: %q }),\n",
 		in.Ink, in.Paper, in.Wash, in.Rule, in.Quiet, in.Focus, in.Highlight, in.Alert)
 	b.WriteString("  // The words the reports use (internal/report/glossary.go), for the panel.\n")
 	b.WriteString("  GLOSSARY: Object.freeze([\n")
 	for _, t := range report.Glossary {
-		fmt.Fprintf(&b, "    Object.freeze([%q, %q]),\n", t.Term, t.Means)
+		fmt.Fprintf(b, "    Object.freeze([%q, %q]),\n", t.Term, t.Means)
 	}
 	b.WriteString("  ]),\n")
-	b.WriteString("});\n")
-	return b.Bytes()
 }
 
 func quoted(ss []string) string {

@@ -16,6 +16,8 @@ globalThis.standoutConstants = Object.freeze({
   PAINT_SERVER: 2,
   NAME_USE: -1,
   NAME_NEXT: -2,
+  STR_NEXT: -1,
+  PARENT_PREV: -2,
   GEOM_AUTO: -1,
   MAX_CLASS_BYTES: 256,
   MAX_RASTERS: 1000,

@@ -13,7 +13,7 @@
   // be judged wrongly) and the geometry layouts, generated from Go
   // (constants.js).
   const C = globalThis.standoutConstants;
-  const { SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES, NAME_USE, NAME_NEXT, GEOM_AUTO } = C;
+  const { SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES, NAME_USE, NAME_NEXT, STR_NEXT, PARENT_PREV, GEOM_AUTO } = C;
   const notRendered = new Set(C.NOT_RENDERED);
   // The read pass hands the tab back to the page after this much work
   // (ms), so that a large page stays responsive while it is read.
@@ -416,8 +416,9 @@
 
     // begin starts a node's record and returns the node's index; its has
     // bits are written by end. A child's link that follows its parent's
-    // last one is written as NAME_NEXT, so that an element added or taken
-    // away leaves the records after it as they were, and the next reading
+    // last one is written as NAME_NEXT, and a parent that is the record
+    // just before as PARENT_PREV, so that an element added or taken away
+    // leaves the records after it as they were, and the next reading
     // crosses as a patch (patch.js).
     begin(parent, tag, link, ctm) {
       const idx = this.styles.length;
@@ -432,7 +433,7 @@
         if (link === this.lastK[parent] + 1) field = NAME_NEXT;
         this.lastK[parent] = link;
       }
-      this.nodes.push(parent, this.tag(tag), field, 0);
+      this.nodes.push(parent >= 0 && parent === idx - 1 ? PARENT_PREV : parent, this.tag(tag), field, 0);
       return idx;
     }
 
@@ -477,8 +478,10 @@
     }
 
     // text writes a string field (D, Text, Label or Name) with its bit.
+    // A string new to strs is written STR_NEXT, not its index, so that the
+    // records after an element added or taken away stay as they were.
     text(s, bit) {
-      this.nodes.push(this.strs.length);
+      this.nodes.push(STR_NEXT);
       this.strs.push(s);
       return bit;
     }
@@ -486,14 +489,13 @@
     // shared writes a string field that many records repeat (Class) once
     // into strs, every record pointing at it.
     shared(s, bit) {
-      let k = this.sharedIndex.get(s);
-      if (k === undefined) {
-        k = this.strs.length;
-        this.strs.push(s);
-        this.sharedIndex.set(s, k);
+      const k = this.sharedIndex.get(s);
+      if (k !== undefined) {
+        this.nodes.push(k);
+        return bit;
       }
-      this.nodes.push(k);
-      return bit;
+      this.sharedIndex.set(s, this.strs.length);
+      return this.text(s, bit);
     }
 
     end(has) {

@@ -28,8 +28,11 @@ import (
 //
 //	parent tag name has [flags fill stroke fillOpacity strokeOpacity opacity strokeWidth | style] …
 //
-// tag indexes "tags"; fill and stroke index the paint entries; flags are
-// Node.Flags. name derives Node.Name from the parent's: the root's is the
+// parent is the parent's record's index, −1 for the root, or −2
+// (ParentPrev) for the record just before, so that an element's first
+// child (a mark's <title>) names its parent the same wherever the element
+// stands. tag indexes "tags"; fill and stroke index the paint entries;
+// flags are Node.Flags. name derives Node.Name from the parent's: the root's is the
 // snapshot's Path; k ≥ 0 names the parent's k-th element child, parent +
 // "/" + tag + k; −2 the child after the one its parent's last such record
 // named (k one more, or 0 for the first), so that an element added or
@@ -50,6 +53,10 @@ import (
 //	32  Label: an index into "strs"
 //	64  Name: an index into "strs", replacing the derived name
 //	256 Class: an index into "strs" (records may share one)
+//
+// An index into "strs" may be −1 (StrNext): the string after the highest
+// one a field has named so far, as a string new to the reading is; so the
+// records after an element added or taken away name theirs as before.
 //
 // JavaScript writes NaN and the infinities as null; they read as 0, as
 // encoding/json reads null into a number.
@@ -87,6 +94,12 @@ const (
 	// NameNext is the name field of the element child after the one its
 	// parent's last record with a k ≥ 0 named.
 	NameNext = -2
+	// StrNext is a string field naming the string after the highest one
+	// a field has named.
+	StrNext = -1
+	// ParentPrev is the parent field of a record whose parent is the
+	// record just before it.
+	ParentPrev = -2
 	// MaxClassBytes bounds a node's class attribute as the readers keep it.
 	MaxClassBytes = 256
 	// maxGeom bounds a record's geometry count.
@@ -206,6 +219,8 @@ type record struct {
 	v    []float64
 	i    int
 	node int
+	// newStr is one past the highest index into strs a field has named.
+	newStr int
 }
 
 func (r *record) error(msg string) error {
@@ -232,12 +247,19 @@ func (r *record) int(what string, lo, hi int) (int, error) {
 	return int(f), nil
 }
 
-// str reads an index into strs.
+// str reads an index into strs, or StrNext.
 func (r *record) str(strs []string) (string, error) {
-	k, err := r.int("string", 0, len(strs))
+	k, err := r.int("string", StrNext, len(strs))
 	if err != nil {
 		return "", err
 	}
+	if k == StrNext {
+		if r.newStr >= len(strs) {
+			return "", r.error("a new string past the last of strs")
+		}
+		k = r.newStr
+	}
+	r.newStr = max(r.newStr, k+1)
 	return strs[k], nil
 }
 
@@ -352,9 +374,15 @@ func (nr *nodeReader) next() error {
 	if r.node >= MaxNodes {
 		return errors.New("snapshot: chart " + s.Path + " has more than " + strconv.Itoa(MaxNodes) + " elements")
 	}
-	p, err := r.int("parent", -1, r.node)
+	p, err := r.int("parent", ParentPrev, r.node)
 	if err != nil {
 		return err
+	}
+	if p == ParentPrev {
+		if r.node == 0 {
+			return r.error("the first record has no record before it")
+		}
+		p = r.node - 1
 	}
 	tag, err := r.int("tag", 0, len(nr.w.Tags))
 	if err != nil {
@@ -661,9 +689,11 @@ func (e *wireEncoder) paint(p Paint) float64 {
 	return float64(i)
 }
 
+// str writes a string field: a string of its own, after every one named
+// before, so StrNext.
 func (e *wireEncoder) str(s string) float64 {
 	e.strs = append(e.strs, s)
-	return float64(len(e.strs) - 1)
+	return StrNext
 }
 
 // records writes every node's record.
@@ -702,7 +732,11 @@ func (e *wireEncoder) records(s *Snapshot) ([]float64, error) {
 		case written:
 			has |= FieldStyleRef
 		}
-		out = append(out, float64(p), e.tag(nd.Tag), float64(nk), float64(has))
+		pf := float64(p)
+		if p >= 0 && p == i-1 {
+			pf = ParentPrev
+		}
+		out = append(out, pf, e.tag(nd.Tag), float64(nk), float64(has))
 		switch {
 		case has&FieldSameStyle != 0:
 		case has&FieldStyleRef != 0:

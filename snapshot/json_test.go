@@ -241,38 +241,95 @@ func TestSnapshotJSONNameNext(t *testing.T) {
 	assert.Equal(t, []float64{0, 1, snapshot.NameNext, 130, 3, 99, 1, 3}, after[cut:cut+8])
 }
 
+// A string field may say "a new string" (StrNext, −1): the one after the
+// highest a field has named. The encoder writes it for every string of
+// its own, so that an added path leaves the other paths' records as they
+// were (a class many records share keeps its index).
+func TestSnapshotJSONStrNext(t *testing.T) {
+	in := `{"v":2,"path":"svg0","tags":["svg","path","title"],"paints":[0,0,0],"strs":["M0 0h1","bars","M1 0h1","M2 0h1","a title"],
+	"nodes":[
+	  -1,0,0,0, 0,0,0, 1,1,1,0,
+	  -2,1,-2,392, -1,-1,
+	  0,1,-2,392, -1,1,
+	  0,1,-2,392, -1,1,
+	  -2,2,-2,144, -1
+	]}`
+	var s snapshot.Snapshot
+	require.NoError(t, json.Unmarshal([]byte(in), &s))
+	var got [][3]string
+	for _, n := range s.Nodes[1:] {
+		got = append(got, [3]string{n.D, n.Class, n.Text})
+	}
+	assert.Equal(t, [][3]string{{"M0 0h1", "bars", ""}, {"M1 0h1", "bars", ""}, {"M2 0h1", "bars", ""}, {"", "", "a title"}}, got,
+		"−1 after a class named again: the string after the highest named")
+	assert.Equal(t, []int32{-1, 0, 0, 0, 3}, []int32{s.Nodes[0].Parent, s.Nodes[1].Parent, s.Nodes[2].Parent, s.Nodes[3].Parent, s.Nodes[4].Parent},
+		"parent −2: the record just before")
+	assert.Equal(t, "svg0/path2/title0", s.Nodes[4].Name)
+
+	paths := func(n, added int) []float64 {
+		c := snapshot.Snapshot{Version: snapshot.SnapshotVersion, Path: "svg0", Nodes: []snapshot.Node{{Parent: -1, Tag: "svg", Name: "svg0"}}}
+		for i := 0; i < n; i++ {
+			d := "M" + strconv.Itoa(i) + " 0h1"
+			if added >= 0 && i > added {
+				d = "M" + strconv.Itoa(i-1) + " 0h1"
+			} else if i == added {
+				d = "M9 9h1"
+			}
+			c.Nodes = append(c.Nodes, snapshot.Node{Parent: 0, Tag: "path", Name: "svg0/path" + strconv.Itoa(i), D: d,
+				Fill: snapshot.Paint{Kind: snapshot.PaintColour, RGBA: 0x112233ff}, FillOpacity: 1, StrokeOpacity: 1, Opacity: 1})
+		}
+		b, err := json.Marshal(c)
+		require.NoError(t, err)
+		var wire struct{ Nodes []float64 }
+		require.NoError(t, json.Unmarshal(b, &wire))
+		var back snapshot.Snapshot
+		require.NoError(t, json.Unmarshal(b, &back))
+		assert.Equal(t, normalised(c), normalised(back))
+		return wire.Nodes
+	}
+	before, after := paths(6, -1), paths(7, 2)
+	cut := (4 + 7 + 6) + (4 + 7 + 1) + 1*(4+1) // the root, the first path, the second
+	require.Len(t, after, len(before)+5)
+	assert.Equal(t, before[:cut], after[:cut])
+	assert.Equal(t, before[cut:], after[cut+5:], "the records after the added path changed")
+}
+
 func TestSnapshotJSONErrors(t *testing.T) {
 	head := `{"v":2,"path":"svg0","tags":["svg"],"paints":[0,0,0],"strs":["x"],"nodes":`
 	for name, bad := range map[string]string{
-		"old version":         `{"v":1,"nodes":[]}`,
-		"no version":          `{"nodes":[]}`,
-		"string version":      `{"v":"2"}`,
-		"unclosed":            `{"v":2`,
-		"not an object":       `[1]`,
-		"control character":   `{"v":2,"path":"\x01"}`,
-		"leading zero":        `{"v":02}`,
-		"trailing data":       `{"v":2} x`,
-		"box of three":        `{"v":2,"box":[1,2,3]}`,
-		"bad background":      `{"v":2,"bg":-1}`,
-		"bad paint kind":      `{"v":2,"paints":[7,0,0]}`,
-		"paint cut short":     `{"v":2,"paints":[1,0,2,5]}`,
-		"short record":        head + `[-1,0,0,0,0,0,0,1,1,1]}`,
-		"parent after":        head + `[0,0,0,0,0,0,0,1,1,1,1]}`,
-		"tag out of range":    head + `[-1,1,0,0,0,0,0,1,1,1,1]}`,
-		"paint out of range":  head + `[-1,0,0,0,0,1,0,1,1,1,1]}`,
-		"fractional index":    head + `[-1,0.5,0,0,0,0,0,1,1,1,1]}`,
-		"unknown has bit":     head + `[-1,0,0,1024,0,0,0,1,1,1,1]}`,
-		"first repeats style": head + `[-1,0,0,128]}`,
-		"first refers style":  head + `[-1,0,0,512,0]}`,
-		"style ref too far":   head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,0,512,1]}`,
-		"two styles repeated": head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,0,640,0]}`,
-		"unknown flag":        head + `[-1,0,0,0,4,0,0,1,1,1,1]}`,
-		"string out of range": head + `[-1,0,0,8,0,0,0,1,1,1,1,1]}`,
-		"geometry too long":   head + `[-1,0,0,2,0,0,0,1,1,1,1,17]}`,
-		"geometry cut short":  head + `[-1,0,0,2,0,0,0,1,1,1,1,3,1]}`,
-		"name below the next": head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,-3,128]}`,
-		"name past the last":  head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,2147483646,128, 0,0,-2,128, 0,0,-2,128]}`,
-		"selects nothing":     `{"v":2,"sel":[0]}`,
+		"old version":           `{"v":1,"nodes":[]}`,
+		"no version":            `{"nodes":[]}`,
+		"string version":        `{"v":"2"}`,
+		"unclosed":              `{"v":2`,
+		"not an object":         `[1]`,
+		"control character":     `{"v":2,"path":"\x01"}`,
+		"leading zero":          `{"v":02}`,
+		"trailing data":         `{"v":2} x`,
+		"box of three":          `{"v":2,"box":[1,2,3]}`,
+		"bad background":        `{"v":2,"bg":-1}`,
+		"bad paint kind":        `{"v":2,"paints":[7,0,0]}`,
+		"paint cut short":       `{"v":2,"paints":[1,0,2,5]}`,
+		"short record":          head + `[-1,0,0,0,0,0,0,1,1,1]}`,
+		"parent after":          head + `[0,0,0,0,0,0,0,1,1,1,1]}`,
+		"tag out of range":      head + `[-1,1,0,0,0,0,0,1,1,1,1]}`,
+		"paint out of range":    head + `[-1,0,0,0,0,1,0,1,1,1,1]}`,
+		"fractional index":      head + `[-1,0.5,0,0,0,0,0,1,1,1,1]}`,
+		"unknown has bit":       head + `[-1,0,0,1024,0,0,0,1,1,1,1]}`,
+		"first repeats style":   head + `[-1,0,0,128]}`,
+		"first refers style":    head + `[-1,0,0,512,0]}`,
+		"style ref too far":     head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,0,512,1]}`,
+		"two styles repeated":   head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,0,640,0]}`,
+		"unknown flag":          head + `[-1,0,0,0,4,0,0,1,1,1,1]}`,
+		"string out of range":   head + `[-1,0,0,8,0,0,0,1,1,1,1,1]}`,
+		"geometry too long":     head + `[-1,0,0,2,0,0,0,1,1,1,1,17]}`,
+		"geometry cut short":    head + `[-1,0,0,2,0,0,0,1,1,1,1,3,1]}`,
+		"string below the next": head + `[-1,0,0,8,0,0,0,1,1,1,1,-2]}`,
+		"first parent before":   head + `[-2,0,0,0,0,0,0,1,1,1,1]}`,
+		"parent below the prev": head + `[-1,0,0,0,0,0,0,1,1,1,1, -3,0,0,128]}`,
+		"new string past strs":  head + `[-1,0,0,8,0,0,0,1,1,1,1,-1, 0,0,-2,136,-1]}`,
+		"name below the next":   head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,-3,128]}`,
+		"name past the last":    head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,2147483646,128, 0,0,-2,128, 0,0,-2,128]}`,
+		"selects nothing":       `{"v":2,"sel":[0]}`,
 	} {
 		t.Run(name, func(t *testing.T) {
 			var s snapshot.Snapshot
@@ -307,6 +364,8 @@ func FuzzSnapshotJSON(f *testing.F) {
 	f.Add([]byte(`{"v":2,"path":"svg0","tags":["svg","circle"],"paints":[0,0,0,1,255,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,0,0,1,0,2,0,1,0,1,1,1,0,3,1,1,3,0,1,1,514,0,3,2,2,3,0,1,2,642,1,3,3,3,3]}`))
 	// Names that follow the last (NameNext), around a gap and <use> content.
 	f.Add([]byte(`{"v":2,"path":"svg0","tags":["svg","circle"],"paints":[0,0,0],"nodes":[-1,0,0,0,0,0,0,1,1,1,1,0,1,-2,128,0,1,-2,128,0,1,7,128,0,1,-1,128,0,1,-2,128]}`))
+	// New strings (StrNext) and parents just before (ParentPrev).
+	f.Add([]byte(`{"v":2,"path":"svg0","tags":["svg","path","title"],"paints":[0,0,0],"strs":["M0 0h1","c","t"],"nodes":[-1,0,0,0,0,0,0,1,1,1,1,-2,1,-2,392,-1,-1,-2,2,-2,144,-1,0,1,-2,264,1]}`))
 	f.Fuzz(func(t *testing.T, b []byte) {
 		slow, serr := snapshot.DecodeByReflection(b)
 		var fast snapshot.Snapshot
