@@ -32,12 +32,12 @@ import (
 // (ParentPrev) for the record just before, so that an element's first
 // child (a mark's <title>) names its parent the same wherever the element
 // stands. tag indexes "tags"; fill and stroke index the paint entries;
-// flags are Node.Flags. name derives Node.Name from the parent's: the root's is the
-// snapshot's Path; k ≥ 0 names the parent's k-th element child, parent +
-// "/" + tag + k; −2 the child after the one its parent's last such record
-// named (k one more, or 0 for the first), so that an element added or
-// taken away leaves its siblings' records as they were; −1 content a
-// <use> instantiates, parent + ">" + tag. has
+// flags are Node.Flags. name derives Node.Name from the parent's: the
+// root's is the snapshot's Path; k ≥ 0 names the parent's k-th element
+// child, parent + "/" + tag + k; −2 (NameNext) the child after the one
+// its parent's last such record named (k one more, or 0 for the first),
+// so that an element added or taken away leaves its siblings' records as
+// they were; −1 content a <use> instantiates, parent + ">" + tag. has
 // says whether the style is there and which optional fields follow, in
 // this order:
 //
