@@ -212,7 +212,7 @@ func TestSnapshotJSONNameNext(t *testing.T) {
 	// A scatter of ten circles, and the same with one added third: the
 	// records of the other ten are the same numbers.
 	scatter := func(n, added int) []float64 {
-		c := snapshot.Snapshot{Version: snapshot.SnapshotVersion, Path: "svg0", Nodes: []snapshot.Node{{Parent: -1, Tag: "svg", Name: "svg0"}}}
+		c := rootOnly()
 		for i := 0; i < n; i++ {
 			x := float64(i)
 			if added >= 0 && i > added {
@@ -223,14 +223,7 @@ func TestSnapshotJSONNameNext(t *testing.T) {
 			c.Nodes = append(c.Nodes, snapshot.Node{Parent: 0, Tag: "circle", Name: "svg0/circle" + strconv.Itoa(i), Geom: []float64{x, 1, 3},
 				Fill: snapshot.Paint{Kind: snapshot.PaintColour, RGBA: 0x112233ff}, FillOpacity: 1, StrokeOpacity: 1, Opacity: 1})
 		}
-		b, err := json.Marshal(c)
-		require.NoError(t, err)
-		var wire struct{ Nodes []float64 }
-		require.NoError(t, json.Unmarshal(b, &wire))
-		var back snapshot.Snapshot
-		require.NoError(t, json.Unmarshal(b, &back))
-		assert.Equal(t, normalised(c), normalised(back))
-		return wire.Nodes
+		return wireRecords(t, c)
 	}
 	before, after := scatter(10, -1), scatter(11, 3)
 	const head, rec = 4 + 7 + 6, 4 + 7 + 4 // the root's record; the first circle's
@@ -239,6 +232,25 @@ func TestSnapshotJSONNameNext(t *testing.T) {
 	assert.Equal(t, before[:cut], after[:cut])
 	assert.Equal(t, before[cut:], after[cut+8:], "the records after the added circle changed")
 	assert.Equal(t, []float64{0, 1, snapshot.NameNext, 130, 3, 99, 1, 3}, after[cut:cut+8])
+}
+
+// rootOnly is a snapshot of a root <svg> alone, for a test to add to.
+func rootOnly() snapshot.Snapshot {
+	return snapshot.Snapshot{Version: snapshot.SnapshotVersion, Path: "svg0", Nodes: []snapshot.Node{{Parent: -1, Tag: "svg", Name: "svg0"}}}
+}
+
+// wireRecords encodes c and returns its "nodes" records, having checked
+// that the encoding decodes to c again.
+func wireRecords(t *testing.T, c snapshot.Snapshot) []float64 {
+	t.Helper()
+	b, err := json.Marshal(c)
+	require.NoError(t, err)
+	var wire struct{ Nodes []float64 }
+	require.NoError(t, json.Unmarshal(b, &wire))
+	var back snapshot.Snapshot
+	require.NoError(t, json.Unmarshal(b, &back))
+	assert.Equal(t, normalised(c), normalised(back))
+	return wire.Nodes
 }
 
 // A string field may say "a new string" (StrNext, −1): the one after the
@@ -267,7 +279,7 @@ func TestSnapshotJSONStrNext(t *testing.T) {
 	assert.Equal(t, "svg0/path2/title0", s.Nodes[4].Name)
 
 	paths := func(n, added int) []float64 {
-		c := snapshot.Snapshot{Version: snapshot.SnapshotVersion, Path: "svg0", Nodes: []snapshot.Node{{Parent: -1, Tag: "svg", Name: "svg0"}}}
+		c := rootOnly()
 		for i := 0; i < n; i++ {
 			d := "M" + strconv.Itoa(i) + " 0h1"
 			if added >= 0 && i > added {
@@ -278,14 +290,7 @@ func TestSnapshotJSONStrNext(t *testing.T) {
 			c.Nodes = append(c.Nodes, snapshot.Node{Parent: 0, Tag: "path", Name: "svg0/path" + strconv.Itoa(i), D: d,
 				Fill: snapshot.Paint{Kind: snapshot.PaintColour, RGBA: 0x112233ff}, FillOpacity: 1, StrokeOpacity: 1, Opacity: 1})
 		}
-		b, err := json.Marshal(c)
-		require.NoError(t, err)
-		var wire struct{ Nodes []float64 }
-		require.NoError(t, json.Unmarshal(b, &wire))
-		var back snapshot.Snapshot
-		require.NoError(t, json.Unmarshal(b, &back))
-		assert.Equal(t, normalised(c), normalised(back))
-		return wire.Nodes
+		return wireRecords(t, c)
 	}
 	before, after := paths(6, -1), paths(7, 2)
 	cut := (4 + 7 + 6) + (4 + 7 + 1) + 1*(4+1) // the root, the first path, the second
