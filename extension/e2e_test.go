@@ -1061,6 +1061,14 @@ func suiteBusyWhileChecking(t *testing.T, h e2eBrowser) {
 // a chart of testdata/rasters.html, in the chart's own pixels, holds the
 // highlighted bar's centre: the bar is 26 × 125 px at 210, 155.
 func firstRegionHoldsTheBar(t *testing.T, ov, name string) {
+	b := firstRegion(t, ov, name)
+	cx, cy := 210+13.0, 155+62.0
+	assert.True(t, cx >= b[0] && cx <= b[0]+b[2] && cy >= b[1] && cy <= b[1]+b[3], "%s: first region %v", name, b)
+}
+
+// firstRegion is the box (x y width height) of the first region the
+// overlay outlines on the chart drawn as pixels named name.
+func firstRegion(t *testing.T, ov, name string) [4]float64 {
 	m := regexp.MustCompile(`<svg class="layer pixels" data-raster="` + name + `"[^>]*>.*?<path d="M([\d.]+) ([\d.]+)h([\d.]+)v([\d.]+)[^"]*"[^>]*data-rank="1"`).FindStringSubmatch(ov)
 	require.NotNil(t, m, "%s's first region: %s", name, ov)
 	var b [4]float64
@@ -1069,8 +1077,7 @@ func firstRegionHoldsTheBar(t *testing.T, ov, name string) {
 		b[i], err = strconv.ParseFloat(m[i+1], 64)
 		require.NoError(t, err)
 	}
-	cx, cy := 210+13.0, 155+62.0
-	assert.True(t, cx >= b[0] && cx <= b[0]+b[2] && cy >= b[1] && cy <= b[1]+b[3], "%s: first region %v", name, b)
+	return b
 }
 
 // builtWithHosts is the extension as built, with host_permissions for
@@ -1319,10 +1326,7 @@ func TestE2EChartDrawnAsPixelsLargerThanTheWindow(t *testing.T) {
 	ov = h.overlayHTML()
 	assert.NotContains(t, ov, "larger than the window")
 	assert.Regexp(t, `canvas0: the eye is predicted to go first to the outlined region`, ov)
-	m := regexp.MustCompile(`<svg class="layer pixels" data-raster="canvas0"[^>]*>.*?<path d="M([\d.]+) ([\d.]+)h([\d.]+)v([\d.]+)[^"]*"[^>]*data-rank="1"`).FindStringSubmatch(ov)
-	require.NotNil(t, m, "canvas0's first region: %s", ov)
-	x, _ := strconv.ParseFloat(m[1], 64)
-	w, _ := strconv.ParseFloat(m[3], 64)
+	b := firstRegion(t, ov, "canvas0")
 	// The highlighted bar spans x 210–236 of the canvas at the page's left.
-	assert.True(t, x <= 223 && 223 <= x+w, "first region from x %.0f, %.0f wide", x, w)
+	assert.True(t, b[0] <= 223 && 223 <= b[0]+b[2], "first region %v", b)
 }
