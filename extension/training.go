@@ -36,10 +36,10 @@ const trainingPoints = 600
 // starts runs too. Chromium keeps a module's optimised code when the
 // first megabyte of it is compiled, and again only after another
 // megabyte (DEVELOPERS.md): code a press runs that the training never
-// ran is compiled again after every start of the worker. Left out of the training, the fix search
-// took 79–106 ms of the core of the second press after a restart (5,000
-// marks, recoloured, three restarts in each of two runs), against 46–62
-// with it.
+// ran is compiled again after every start of the worker. Left out of the
+// training, the fix search took 79–106 ms of the core of the second press
+// after a restart (5,000 marks, recoloured, three restarts in each of two
+// runs), against 46–62 with it.
 func TrainingPage(fix bool) string {
 	rng := rand.New(rand.NewSource(14))
 	cols := []string{"#3b6e8f", "#d0842c", "#5a9a4e", "#9a6aa6"}
