@@ -282,7 +282,9 @@ function markTrained() {
 async function trainAtInstall() {
   if (checked || trainer.done) return;
   try {
-    if (await trainedAlready()) return;
+    // Trained already: this build was installed again as the browser
+    // started (see the mark), so the core loads as at any start.
+    if (await trainedAlready()) return loadAtStart();
     await loadCore(CORES.overlay);
     const pages = await Promise.all(['train.json', 'train-fix.json'].map(async (f) => (await fetch(ext.runtime.getURL(f))).text()));
     if (!checked) train(Infinity, JSON.stringify({ type: 'analyse' }), pages, [], 0);
@@ -294,6 +296,43 @@ async function trainAtInstall() {
 ext.runtime.onInstalled.addListener(({ reason }) => {
   if (keepsOptimisedCode) setTimeout(trainAtInstall, reason === 'install' ? 0 : INSTALL_TRAIN_AFTER_MS);
 });
+
+// A press soon after the browser starts would wait for the core to load
+// while the page is read, on the worker's one thread, which the page's
+// reading must also cross (a third of the first press after a relaunch).
+// So the core loads as the browser starts, from the optimised code
+// Chromium kept of it, when Standout was used in the last LATELY_MS:
+// the load costs the worker's thread and V8's compile threads about a
+// fifth of a second each, and a browser whose reader has not checked a
+// chart lately need not pay that at every start. If no press comes, the
+// worker stops after half a minute idle and takes the core with it, and
+// the next press loads it as any press after a stop does. A press's
+// worker records the time in the extension's Cache Storage, once in its
+// lifetime (markPressed).
+const LATELY_MS = 7 * 24 * 3600 * 1000;
+const PRESSED_MARK = 'https://standout.invalid/pressed';
+let pressMarked = false;
+
+function markPressed() {
+  if (pressMarked) return;
+  pressMarked = true;
+  caches.open('standout')
+    .then((c) => c.put(PRESSED_MARK, new Response(String(Date.now()))))
+    .catch((e) => console.warn('Standout could not record its use:', e));
+}
+
+async function loadAtStart() {
+  if (!keepsOptimisedCode) return;
+  try {
+    const r = await (await caches.open('standout')).match(PRESSED_MARK);
+    if (r === undefined || !(Date.now() - Number(await r.text()) < LATELY_MS)) return;
+    await loadCore(CORES.overlay);
+  } catch (e) {
+    console.warn('Standout could not load its core:', e);
+  }
+}
+
+ext.runtime.onStartup.addListener(loadAtStart);
 
 // stopTraining stops the training between two of its requests.
 function stopTraining() {
@@ -330,6 +369,7 @@ async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity,
   if (read.closed) return read;
   // This check needs the core: nothing is left to train at the install.
   checked = true;
+  markPressed();
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as
   // the read pass wrote it, for the core's fast snapshot decoder.

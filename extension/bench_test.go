@@ -213,7 +213,12 @@ const readingPause = 6 * time.Second
 //     started again with the same profile, on the page loaded again (the
 //     start installs the extension again, but the mark of the finished
 //     training spares it a second one, as a real restart, which installs
-//     nothing, would);
+//     nothing, would; the core loads as the browser starts:
+//     background.js, loadAtStart);
+//   - relaunch-stopped-ms: the same, with the service worker stopped
+//     before the press, as Chromium stops it half a minute after the
+//     start when no press came (the core is loaded again, and the
+//     scripts are injected into the page);
 //   - warm-ms: the median of five presses on the loaded page, to the
 //     overlay's ready state; warm-paint-ms to the end of the frame that
 //     shows it. The page has not changed, so from the second press on the
@@ -262,7 +267,7 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 		n, body := c.n, scatterCharts(c.charts, c.n/c.charts, c.css)
 		b.Run(c.name, func(b *testing.B) {
 			var cold, restart, relaunch, warm, changed, paint, floor, floorWarm, read, trip, core, render float64
-			var click, delivery, changedCore, paced, pacedCore float64
+			var click, delivery, changedCore, paced, pacedCore, relaunchStopped float64
 			for i := 0; i < b.N; i++ {
 				profile := b.TempDir()
 				h := newHarnessWith(b, built(b), profile)
@@ -318,11 +323,19 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 				relaunch += p.Ready
 				b.Logf("%d marks, first press after the browser started again: %.0f ms to ready; %+v", n, p.Ready, p.Timing)
 				h.close()
+				h = newHarnessWith(b, built(b), profile)
+				h.open(srv.URL + "/")
+				h.stopWorker(b)
+				p = h.clickToOverlay(b)
+				relaunchStopped += p.Ready
+				b.Logf("%d marks, first press after the browser started again and its worker stopped: %.0f ms to ready; %+v", n, p.Ready, p.Timing)
+				h.close()
 			}
 			k := float64(b.N)
 			b.ReportMetric(cold/k, "cold-ms")
 			b.ReportMetric(restart/k, "restart-ms")
 			b.ReportMetric(relaunch/k, "relaunch-ms")
+			b.ReportMetric(relaunchStopped/k, "relaunch-stopped-ms")
 			b.ReportMetric(warm/k, "warm-ms")
 			b.ReportMetric(paint/k, "warm-paint-ms")
 			b.ReportMetric(floor/k, "floor-ms")
