@@ -17,11 +17,17 @@ import (
 //	 "sel": [node, …], "problems": ["…", …],
 //	 "tags": ["svg", "g", "circle", …],
 //	 "paints": [kind, rgba, count, stop…, kind, rgba, count, stop…, …],
+//	 "styles": [flags, fill, stroke, fillOpacity, strokeOpacity, opacity, strokeWidth, …],
 //	 "strs": ["…", …],
 //	 "nodes": [record, record, …]}
 //
 // "paints" is a table of Paint entries, each its kind, its colour, the
-// number of its stops and the stops. Each node is one record of numbers in
+// number of its stops and the stops. "styles", which may be left out, is
+// a table of styles of seven numbers each, as a record writes one; a
+// record may name one as a style written before (512, below), so that a
+// reader that keeps the table in order from one reading of a chart to
+// the next leaves the records alone when a style new to the chart comes
+// first. Each node is one record of numbers in
 // "nodes", four fixed fields, then the node's style (seven numbers, unless
 // it repeats the previous record's, or one number when it repeats a style
 // written before) and then the optional fields:
@@ -43,8 +49,9 @@ import (
 //
 //	128 the style is the previous record's and is not written
 //	512 the style is one written before: one number in its place, the
-//	    style's index among the styles written out, in their order (a
-//	    chart's marks take a few styles, not in runs)
+//	    style's index among the styles of "styles" and then those the
+//	    records before wrote out, in their order (a chart's marks take a
+//	    few styles, not in runs)
 //	 1  CTM: six numbers; without it the parent's CTM (the root's: identity)
 //	 2  Geom: a count, at most maxGeom, then the numbers
 //	 4  BBox: four numbers
@@ -123,11 +130,12 @@ type snapshotWire struct {
 	Problems []string  `json:"problems"`
 	Tags     []string  `json:"tags"`
 	Paints   []float64 `json:"paints"`
+	Styles   []float64 `json:"styles"`
 	Strs     []string  `json:"strs"`
 	Nodes    []float64 `json:"nodes"`
 }
 
-var wireKeys = []string{"v", "source", "path", "title", "anchor", "box", "bg", "sel", "problems", "tags", "paints", "strs", "nodes"}
+var wireKeys = []string{"v", "source", "path", "title", "anchor", "box", "bg", "sel", "problems", "tags", "paints", "styles", "strs", "nodes"}
 
 // UnmarshalJSON decodes a snapshot's columnar JSON form.
 func (s *Snapshot) UnmarshalJSON(b []byte) error {
@@ -179,6 +187,8 @@ func readWire(d *jsonio.Scanner, w *snapshotWire) error {
 			w.Tags, err = d.Strings(w.Tags[:0])
 		case "paints":
 			w.Paints, err = d.Numbers(w.Paints[:0])
+		case "styles":
+			w.Styles, err = d.Numbers(w.Styles[:0])
 		case "strs":
 			w.Strs, err = d.Strings(w.Strs[:0])
 		case "nodes":
@@ -219,12 +229,18 @@ type record struct {
 	v    []float64
 	i    int
 	node int
+	// entry names what node counts in errors: "node " when empty.
+	entry string
 	// newStr is one past the highest index into strs a field has named.
 	newStr int
 }
 
 func (r *record) error(msg string) error {
-	return errors.New("snapshot: node " + strconv.Itoa(r.node) + ": " + msg)
+	entry := r.entry
+	if entry == "" {
+		entry = "node "
+	}
+	return errors.New("snapshot: " + entry + strconv.Itoa(r.node) + ": " + msg)
 }
 
 func (r *record) num() (float64, error) {
@@ -340,6 +356,18 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 	// a CTM inherited, three numbers of geometry) rather than the shortest.
 	s.Nodes = make([]Node, 0, min(len(v)/8+1, MaxNodes))
 	nr := nodeReader{w: w, s: s, paints: paints, r: record{v: v}, nameAt: make([][2]int32, 0, cap(s.Nodes)), lastK: make([]int32, 0, cap(s.Nodes))}
+	if len(w.Styles)%StyleLen != 0 {
+		return errors.New("snapshot: styles has " + strconv.Itoa(len(w.Styles)) + " numbers, not a multiple of " + strconv.Itoa(StyleLen))
+	}
+	if len(w.Styles) > 0 {
+		nr.table = make([]Node, len(w.Styles)/StyleLen)
+		t := record{v: w.Styles, entry: "style "}
+		for ; t.i < len(t.v); t.node++ {
+			if err := nr.inlineStyle(&t, &nr.table[t.node]); err != nil {
+				return err
+			}
+		}
+	}
 	for nr.r.i < len(v) {
 		if err := nr.next(); err != nil {
 			return err
@@ -363,6 +391,7 @@ type nodeReader struct {
 	slab   []float64
 	spans  []span  // geometry (node ≥ 0) and boxes (−node−1), cut from slab
 	styled []int32 // the nodes whose records write their styles out, in order
+	table  []Node  // the styles of "styles", only their style fields set
 }
 
 type span struct{ node, at, n int32 }
@@ -432,27 +461,41 @@ func (nr *nodeReader) next() error {
 // style reads the record's style, or repeats the previous record's or
 // one written before.
 func (nr *nodeReader) style(nd *Node, has int) error {
-	r, v := &nr.r, nr.r.v
+	r := &nr.r
 	if has&FieldSameStyle != 0 || has&FieldStyleRef != 0 {
 		from := r.node - 1
 		switch {
 		case has&FieldSameStyle != 0 && has&FieldStyleRef != 0:
 			return r.error("a record repeats two styles")
 		case has&FieldStyleRef != 0:
-			k, err := r.int("style", 0, len(nr.styled))
+			k, err := r.int("style", 0, len(nr.table)+len(nr.styled))
 			if err != nil {
 				return err
 			}
-			from = int(nr.styled[k])
+			if k < len(nr.table) {
+				copyStyle(nd, &nr.table[k])
+				return nil
+			}
+			from = int(nr.styled[k-len(nr.table)])
 		case r.node == 0:
 			return r.error("the first record cannot repeat a style")
 		}
-		prev := &nr.s.Nodes[from]
-		nd.Flags, nd.Fill, nd.Stroke = prev.Flags, prev.Fill, prev.Stroke
-		nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = prev.FillOpacity, prev.StrokeOpacity, prev.Opacity, prev.StrokeWidth
+		copyStyle(nd, &nr.s.Nodes[from])
 		return nil
 	}
 	nr.styled = append(nr.styled, int32(r.node))
+	return nr.inlineStyle(r, nd)
+}
+
+func copyStyle(nd, from *Node) {
+	nd.Flags, nd.Fill, nd.Stroke = from.Flags, from.Fill, from.Stroke
+	nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = from.FillOpacity, from.StrokeOpacity, from.Opacity, from.StrokeWidth
+}
+
+// inlineStyle reads a style's seven numbers, from a record or from
+// "styles".
+func (nr *nodeReader) inlineStyle(r *record, nd *Node) error {
+	v := r.v
 	flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
 	if err != nil {
 		return err

@@ -299,6 +299,49 @@ func TestSnapshotJSONStrNext(t *testing.T) {
 	assert.Equal(t, before[cut:], after[cut+5:], "the records after the added path changed")
 }
 
+// "styles" is a table of styles a record may name as written before,
+// ahead of those the records write out: a reader keeps it from one
+// reading to the next, so that a style new to the chart takes the next
+// entry and leaves the other records' numbers alone.
+func TestSnapshotJSONStyles(t *testing.T) {
+	in := `{"v":2,"path":"svg0","tags":["svg","circle"],"paints":[0,0,0, 1,4286611711,0, 1,2155905279,0],
+	"styles":[0,1,0,1,1,1,1, 0,2,0,0.5,1,1,2],
+	"nodes":[
+	  -1,0,0,0, 0,0,0,1,1,1,1,
+	  -2,1,0,512, 1,
+	  0,1,-2,512, 0,
+	  0,1,-2,512, 2,
+	  0,1,-2,128
+	]}`
+	var s snapshot.Snapshot
+	require.NoError(t, json.Unmarshal([]byte(in), &s))
+	require.Len(t, s.Nodes, 5)
+	type style struct {
+		fill      uint32
+		fo, width float64
+	}
+	var got []style
+	for _, n := range s.Nodes {
+		got = append(got, style{n.Fill.RGBA, n.FillOpacity, n.StrokeWidth})
+	}
+	assert.Equal(t, []style{{0, 1, 1}, {2155905279, 0.5, 2}, {4286611711, 1, 1}, {0, 1, 1}, {0, 1, 1}}, got,
+		"512 names the table's styles first, then the records' own")
+	without := `{"v":2,"path":"svg0","tags":["svg","circle"],"paints":[0,0,0, 1,4286611711,0, 1,2155905279,0],
+	"nodes":[
+	  -1,0,0,0, 0,0,0,1,1,1,1,
+	  -2,1,0,0, 0,2,0,0.5,1,1,2,
+	  0,1,-2,0, 0,1,0,1,1,1,1,
+	  0,1,-2,512, 0,
+	  0,1,-2,128
+	]}`
+	var w snapshot.Snapshot
+	require.NoError(t, json.Unmarshal([]byte(without), &w))
+	assert.Equal(t, normalised(w), normalised(s), "the same chart with its styles written in its records")
+	o, err := snapshot.DecodeByReflection([]byte(in))
+	require.NoError(t, err)
+	assert.Equal(t, normalised(s), normalised(o), "the oracle")
+}
+
 func TestSnapshotJSONErrors(t *testing.T) {
 	head := `{"v":2,"path":"svg0","tags":["svg"],"paints":[0,0,0],"strs":["x"],"nodes":`
 	for name, bad := range map[string]string{
@@ -335,6 +378,10 @@ func TestSnapshotJSONErrors(t *testing.T) {
 		"name below the next":   head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,-3,128]}`,
 		"name past the last":    head + `[-1,0,0,0,0,0,0,1,1,1,1, 0,0,2147483646,128, 0,0,-2,128, 0,0,-2,128]}`,
 		"selects nothing":       `{"v":2,"sel":[0]}`,
+		"styles of six":         `{"v":2,"styles":[0,0,0,1,1,1]}`,
+		"styles paint too far":  `{"v":2,"paints":[0,0,0],"styles":[0,1,0,1,1,1,1]}`,
+		"styles flag unknown":   `{"v":2,"paints":[0,0,0],"styles":[4,0,0,1,1,1,1]}`,
+		"style ref past both":   `{"v":2,"tags":["svg"],"paints":[0,0,0],"styles":[0,0,0,1,1,1,1],"nodes":[-1,0,0,0,0,0,0,1,1,1,1, 0,0,0,512,2]}`,
 	} {
 		t.Run(name, func(t *testing.T) {
 			var s snapshot.Snapshot
