@@ -345,12 +345,34 @@
     return a[0] === b[0] && a[1] === b[1] && a[2] === b[2] && a[3] === b[3] && a[4] === b[4] && a[5] === b[5] && a[6] === b[6];
   }
 
-  // How many of the styles written last a record's style is looked for
-  // among, by value, when it is not found by identity.
-  const STYLES_SEARCHED = 16;
+  // styleHash is a number that alike styles share, and unlike ones seldom.
+  function styleHash(st) {
+    return st[0] + 3 * (st[1] + 4099 * (st[2] + 4099 * (st[3] + 7 * (st[4] + 7 * (st[5] + 7 * st[6])))));
+  }
 
   // capError is thrown when a chart passes a cap; its message is the note.
   class capError extends Error {}
+
+  // The paints and styles of the charts read last, by path: the computed
+  // values of the paints table's entries 1…, and the styles written out
+  // (seven numbers each), in order. A chart's next reading starts from
+  // them, writing the styles as its "styles" table (snapshot/json.go), so
+  // that a paint or a style new to the chart (a mark given a colour of
+  // its own) takes the next entry instead of shifting, in every record
+  // after the mark, the numbers of those first met after it; the reading
+  // then crosses as a patch (patch.js). Entries the reading does not use
+  // stay, up to as many as it uses (and KEPT_SPARE); past that the table
+  // starts again from the entries in use, and the styles with the paints.
+  const keptPaints = new Map();
+  const keptStyles = new Map();
+  const KEPT_SPARE = 16;
+
+  // keptIn is the list of values whose used flag is set, or all of them
+  // while the unused are few enough.
+  function keptIn(values, used) {
+    const inUse = values.filter((_, i) => used[i]);
+    return values.length - inUse.length > inUse.length + KEPT_SPARE ? inUse : values;
+  }
 
   // SnapshotWriter writes one chart's snapshot in its columnar JSON form,
   // record by record, as snapshot/json.go's encoder does: the tags, paints
@@ -367,6 +389,9 @@
       this.paints = [0, 0, 0]; // entry 0: none
       this.nPaints = 1;
       this.paintIndex = new Map();
+      this.paintValues = []; // the computed value of each entry from 1 on
+      this.paintUsed = []; // whether a record uses each entry from 1 on
+      for (const v of keptPaints.get(path) || []) this.entry(v, false);
       this.sharedIndex = new Map(); // strings many records repeat, by text
       this.strs = [];
       this.nodes = [];
@@ -379,8 +404,24 @@
       this.lastK = []; // per node, the link of its last child named by one, or -1
       this.tagName = [];
       this.prev = null;
-      this.full = []; // the styles written out, in order
+      this.full = []; // the styles table: those kept, then those new, in order
+      this.fullUsed = []; // whether a record uses each of full
+      this.byKey = new Map(); // styleHash → the numbers in full of its styles
       this.written = new Map(); // style arrays → their number in full
+      for (const st of keptStyles.get(path) || []) this.add(st, false);
+    }
+
+    // add puts a style in full and returns its number.
+    add(st, used) {
+      const n = this.full.length;
+      this.full.push(st);
+      this.fullUsed.push(used);
+      this.written.set(st, n);
+      const k = styleHash(st);
+      const b = this.byKey.get(k);
+      if (b) b.push(n);
+      else this.byKey.set(k, [n]);
+      return n;
     }
 
     get count() {
@@ -399,19 +440,40 @@
 
     // paint is the index of a computed paint's entry in the paints table.
     paint(v) {
-      let i = this.paintIndex.get(v);
-      if (i === undefined) {
-        const p = this.paintOf(v);
-        if (!p) {
-          i = 0;
-        } else {
-          i = this.nPaints++;
-          this.paints.push(p.k, p.c, p.st.length);
-          for (const c of p.st) this.paints.push(c);
-        }
-        this.paintIndex.set(v, i);
-      }
+      const i = this.paintIndex.get(v);
+      if (i === undefined) return this.entry(v, true);
+      if (i > 0) this.paintUsed[i - 1] = true;
       return i;
+    }
+
+    // entry adds v's entry to the paints table and returns its index, 0
+    // for none. A kept value that no longer resolves (a gradient taken
+    // away) keeps its place, as an entry of kind none.
+    entry(v, used) {
+      const p = this.paintOf(v);
+      if (!p && used) {
+        this.paintIndex.set(v, 0);
+        return 0;
+      }
+      const i = this.nPaints++;
+      this.paintValues.push(v);
+      this.paintUsed.push(used);
+      if (p) {
+        this.paints.push(p.k, p.c, p.st.length);
+        for (const c of p.st) this.paints.push(c);
+      } else {
+        this.paints.push(0, 0, 0);
+      }
+      this.paintIndex.set(v, p ? i : 0);
+      return p ? i : 0;
+    }
+
+    // keep keeps the paints and the styles for the chart's next reading.
+    // Styles name paints by number, so they start again with the paints.
+    keep() {
+      const paints = keptIn(this.paintValues, this.paintUsed);
+      keptPaints.set(this.path, paints);
+      keptStyles.set(this.path, paints === this.paintValues ? keptIn(this.full, this.fullUsed) : []);
     }
 
     // begin starts a node's record and returns the node's index; its has
@@ -439,29 +501,30 @@
 
     // style writes the record's style; when it repeats the previous
     // record's (as runs of marks do), it says so in the has bits it
-    // returns, and when it repeats one written before (as marks of a few
-    // colours in no order do), it writes that style's number instead.
-    // A style shared among alike siblings is one array (ChartWalk.style):
-    // it is found by identity, others by their values among the last few
-    // written.
+    // returns, and otherwise it writes the style's number in the styles
+    // table, which it adds to when the style is new. So a reading of an
+    // unchanged chart is the same string as the last, although its table
+    // started from the last one's. A style shared among alike siblings is
+    // one array (ChartWalk.style): it is found by identity, others by their
+    // values (among those with their hash).
     style(st) {
       const p = this.prev;
       this.styles.push(st);
       this.prev = st;
       if (p && sameStyle(st, p)) return HAS_SAME_STYLE;
       let ref = this.written.get(st);
-      for (let i = this.full.length - 1; ref === undefined && i >= Math.max(0, this.full.length - STYLES_SEARCHED); i--) {
-        if (sameStyle(st, this.full[i])) ref = i;
+      const b = (ref === undefined && this.byKey.get(styleHash(st))) || [];
+      for (let i = 0; ref === undefined && i < b.length; i++) {
+        if (sameStyle(st, this.full[b[i]])) ref = b[i];
       }
-      if (ref !== undefined) {
+      if (ref === undefined) {
+        ref = this.add(st, true);
+      } else {
         this.written.set(st, ref);
-        this.nodes.push(ref);
-        return HAS_STYLE_REF;
+        this.fullUsed[ref] = true;
       }
-      this.written.set(st, this.full.length);
-      this.full.push(st);
-      this.nodes.push(st[0], st[1], st[2], st[3], st[4], st[5], st[6]);
-      return 0;
+      this.nodes.push(ref);
+      return HAS_STYLE_REF;
     }
 
     // ctm writes the node's CTM where it is not its parent's.
@@ -509,10 +572,13 @@
     }
 
     snapshot(source, title, anchor, box, bg) {
+      this.keep();
       const snap = {
         v: SNAPSHOT_VERSION, source, path: this.path, box, bg, problems: this.problems,
         tags: this.tags, paints: this.paints, strs: this.strs, nodes: this.nodes,
       };
+      // A walk's style array holds more than a record writes (ChartWalk).
+      snap.styles = this.full.flatMap((st) => st.slice(0, 7));
       if (title) snap.title = title;
       if (anchor) snap.anchor = anchor;
       if (this.sel.length) snap.sel = this.sel;

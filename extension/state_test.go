@@ -1,6 +1,7 @@
 package extension
 
 import (
+	"encoding/json"
 	"fmt"
 	"regexp"
 	"strconv"
@@ -133,12 +134,13 @@ func TestPressesCrossAsPatches(t *testing.T) {
 	assert.True(t, timing.Reused)
 	assert.Less(t, timing.ReadSent, timing.PageBytes/100, "the unchanged reading crossed whole")
 	assert.Less(t, timing.AnswerSent, timing.ResponseBytes/100, "the reused answer crossed whole")
-	// A new colour on the first mark renumbers the reading's paints and
-	// styles after it (snapshot/json.go), so that reading differs almost
-	// throughout; another colour in its place does not.
+	// A new colour on the first mark takes the next entry of the chart's
+	// paints table, which the reader keeps from its last reading, instead
+	// of renumbering the paints after it (reader.js: keptPaints).
 	h.eval(`document.querySelector('circle').setAttribute('fill', '#5d6e7f'), ''`)
 	press()
 	assert.False(t, timing.Reused)
+	assert.Less(t, timing.ReadSent, timing.PageBytes/100, "the reading after a new colour on the first mark crossed whole")
 	assert.Less(t, timing.AnswerSent, timing.ResponseBytes/4, "the edited page's answer crossed whole")
 	// A mark added, then one taken away: the records after it are the
 	// same numbers (snapshot/json.go, NameNext), and the reading crosses
@@ -225,6 +227,62 @@ func TestAddedPathCrossesAsPatch(t *testing.T) {
 	h.eval(`document.querySelectorAll('path')[200].remove(), ''`)
 	press()
 	assert.Less(t, timing.ReadSent, timing.PageBytes/50, "the reading after a bar was taken away crossed whole")
+}
+
+// The paints and styles tables the reader keeps from one reading of a
+// chart to the next (reader.js: keptPaints) keep the entries no longer
+// used only while they do not outnumber those in use by more than
+// sixteen: a chart recoloured again and again reads with bounded tables,
+// and each reading decodes. A chart of fifty styles of one fill (an
+// opacity for each mark) reads the same, reading after reading, once the
+// tables have started again from the entries in use.
+func TestKeptTablesStayBounded(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(scatterCharts(1, 50, ""))
+	// Forty readings in the overlay's world, the first mark given a colour
+	// of its own before each: the paints and styles each reading carries.
+	h.inWorker(`globalThis.testTables = null; chrome.tabs.query({}).then((ts) => chrome.scripting.executeScript({ target: { tabId: ts.find((x) => x.url.startsWith('http')).id }, func: async () => {
+	  const sizes = [];
+	  for (let i = 0; i < 40; i++) {
+	    document.querySelector('circle').setAttribute('fill', 'rgb(' + (10 + i) + ', 90, 120)');
+	    const s = (await globalThis.standoutReader.readPage(document)).snapshots[0];
+	    sizes.push([s.paints.length / 3, s.styles.length / 7]);
+	  }
+	  document.querySelectorAll('circle').forEach((c, i) => (c.setAttribute('fill', '#3b6e8f'), c.setAttribute('fill-opacity', String((i + 1) / 60))));
+	  const again = [];
+	  for (let i = 0; i < 4; i++) again.push(JSON.stringify((await globalThis.standoutReader.readPage(document)).snapshots[0]));
+	  return JSON.stringify({ sizes, same: again[1] === again[2] && again[2] === again[3] });
+	} })).then(([r]) => { globalThis.testTables = r.result; })`)
+	var got struct {
+		Sizes [][2]int
+		Same  bool
+	}
+	require.Eventually(t, func() bool { return h.workerValue(`String(globalThis.testTables)`) != "null" }, 20*time.Second, 50*time.Millisecond)
+	require.NoError(t, json.Unmarshal([]byte(h.workerValue(`globalThis.testTables`)), &got))
+	sizes := got.Sizes
+	require.Len(t, sizes, 40)
+	assert.True(t, got.Same, "readings of a chart of fifty styles of one fill differ")
+	t.Logf("paints and styles of each reading: %v", sizes)
+	// In use: the chart's five colours, the first mark's own and the
+	// root's and the group's black (the paints, after entry 0, none); at
+	// most eight styles: the root's, the group's and those of the marks. A
+	// reading carries what the last kept, at most twice what it used and
+	// sixteen, and one new entry.
+	grew, shrank := false, false
+	for i, sz := range sizes {
+		assert.LessOrEqual(t, sz[0], 1+2*7+16+1, "reading %d's paints", i)
+		assert.LessOrEqual(t, sz[1], 2*8+16+1, "reading %d's styles", i)
+		if i > 0 {
+			grew = grew || sz[0] > sizes[i-1][0]
+			shrank = shrank || sz[0] < sizes[i-1][0]
+		}
+	}
+	assert.True(t, grew && shrank, "the tables kept the entries no longer used, then started again: %v", sizes)
+	h.trigger()
+	h.waitState("")
+	h.trigger()
+	h.waitState("ready")
+	assert.NotEmpty(t, layerRects(t, h.overlayHTML())["svg0"], "the last reading judged")
 }
 
 // The background trains the core (background.js: train), from the install
