@@ -1143,6 +1143,14 @@
         problems.push(`${c.path}: could not be read: ${e && e.message}`);
       }
     }
+    // The tables kept for charts the page no longer has go.
+    const paths = new Set(charts.map((c) => c.path));
+    for (const p of keptPaints.keys()) {
+      if (!paths.has(p)) {
+        keptPaints.delete(p);
+        keptStyles.delete(p);
+      }
+    }
     return { source: location.href, snapshots, problems, rasters, unreadFrames, readMs: performance.now() - t0 - yieldMs, sharedStyles: shared };
   }
 

@@ -235,7 +235,8 @@ func TestAddedPathCrossesAsPatch(t *testing.T) {
 // sixteen: a chart recoloured again and again reads with bounded tables,
 // and each reading decodes. A chart of fifty styles of one fill (an
 // opacity for each mark) reads the same, reading after reading, once the
-// tables have started again from the entries in use.
+// tables have started again from the entries in use. A reading of the
+// page drops the tables of the charts it no longer has.
 func TestKeptTablesStayBounded(t *testing.T) {
 	h := newHarness(t)
 	h.showPage(scatterCharts(1, 50, ""))
@@ -248,20 +249,31 @@ func TestKeptTablesStayBounded(t *testing.T) {
 	    const s = (await globalThis.standoutReader.readPage(document)).snapshots[0];
 	    sizes.push([s.paints.length / 3, s.styles.length / 7]);
 	  }
+	  const svg = document.querySelector('svg');
+	  const at = svg.nextSibling;
+	  svg.remove();
+	  await globalThis.standoutReader.readPage(document);
+	  document.body.insertBefore(svg, at);
+	  const back = (await globalThis.standoutReader.readPage(document)).snapshots[0];
+	  const returned = [back.paints.length / 3, back.styles.length / 7];
 	  document.querySelectorAll('circle').forEach((c, i) => (c.setAttribute('fill', '#3b6e8f'), c.setAttribute('fill-opacity', String((i + 1) / 60))));
 	  const again = [];
 	  for (let i = 0; i < 4; i++) again.push(JSON.stringify((await globalThis.standoutReader.readPage(document)).snapshots[0]));
-	  return JSON.stringify({ sizes, same: again[1] === again[2] && again[2] === again[3] });
+	  return JSON.stringify({ sizes, returned, same: again[1] === again[2] && again[2] === again[3] });
 	} })).then(([r]) => { globalThis.testTables = r.result; })`)
 	var got struct {
-		Sizes [][2]int
-		Same  bool
+		Sizes    [][2]int
+		Returned [2]int
+		Same     bool
 	}
 	require.Eventually(t, func() bool { return h.workerValue(`String(globalThis.testTables)`) != "null" }, 20*time.Second, 50*time.Millisecond)
 	require.NoError(t, json.Unmarshal([]byte(h.workerValue(`globalThis.testTables`)), &got))
 	sizes := got.Sizes
 	require.Len(t, sizes, 40)
 	assert.True(t, got.Same, "readings of a chart of fifty styles of one fill differ")
+	// A chart the page no longer had when it was read lost its tables: put
+	// back, it reads as at first.
+	assert.Equal(t, sizes[0], got.Returned, "the tables of a chart taken away and put back")
 	t.Logf("paints and styles of each reading: %v", sizes)
 	// In use: the chart's five colours, the first mark's own and the
 	// root's and the group's black (the paints, after entry 0, none); at
