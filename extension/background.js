@@ -314,7 +314,7 @@ const PRESSED_MARK = 'https://standout.invalid/pressed';
 let pressMarked = false;
 
 function markPressed() {
-  if (pressMarked) return;
+  if (pressMarked || !keepsOptimisedCode) return;
   pressMarked = true;
   caches.open('standout')
     .then((c) => c.put(PRESSED_MARK, new Response(String(Date.now()))))
