@@ -359,6 +359,9 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 	if len(w.Styles)%StyleLen != 0 {
 		return errors.New("snapshot: styles has " + strconv.Itoa(len(w.Styles)) + " numbers, not a multiple of " + strconv.Itoa(StyleLen))
 	}
+	if len(w.Styles) > MaxNodes*StyleLen {
+		return errors.New("snapshot: styles has more than " + strconv.Itoa(MaxNodes) + " styles, one for each element a chart may have")
+	}
 	if len(w.Styles) > 0 {
 		nr.table = make([]Node, len(w.Styles)/StyleLen)
 		t := record{v: w.Styles, entry: "style "}

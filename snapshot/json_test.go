@@ -382,6 +382,7 @@ func TestSnapshotJSONErrors(t *testing.T) {
 		"styles paint too far":  `{"v":2,"paints":[0,0,0],"styles":[0,1,0,1,1,1,1]}`,
 		"styles flag unknown":   `{"v":2,"paints":[0,0,0],"styles":[4,0,0,1,1,1,1]}`,
 		"style ref past both":   `{"v":2,"tags":["svg"],"paints":[0,0,0],"styles":[0,0,0,1,1,1,1],"nodes":[-1,0,0,0,0,0,0,1,1,1,1, 0,0,0,512,2]}`,
+		"styles past the cap":   `{"v":2,"styles":[` + strings.Repeat("0,", (snapshot.MaxNodes+1)*snapshot.StyleLen-1) + `0]}`,
 	} {
 		t.Run(name, func(t *testing.T) {
 			var s snapshot.Snapshot
