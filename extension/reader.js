@@ -368,10 +368,13 @@
   const KEPT_SPARE = 16;
 
   // keptIn is the list of values whose used flag is set, or all of them
-  // while the unused are few enough.
+  // while the unused are few enough and all are no more than a chart's
+  // elements (so a reading's styles table, what was kept and what the
+  // reading added, stays within what the core takes: snapshot/json.go).
   function keptIn(values, used) {
     const inUse = values.filter((_, i) => used[i]);
-    return values.length - inUse.length > inUse.length + KEPT_SPARE ? inUse : values;
+    const spare = values.length - inUse.length;
+    return spare > inUse.length + KEPT_SPARE || values.length > MAX_CHART_NODES ? inUse : values;
   }
 
   // SnapshotWriter writes one chart's snapshot in its columnar JSON form,

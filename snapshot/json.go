@@ -27,7 +27,9 @@ import (
 // record may name one as a style written before (512, below), so that a
 // reader that keeps the table in order from one reading of a chart to
 // the next leaves the records alone when a style new to the chart comes
-// first. Each node is one record of numbers in
+// first (at most 2 × MaxNodes styles: a reader keeps at most one for each
+// element a chart may have, and adds at most as many). Each node is one
+// record of numbers in
 // "nodes", four fixed fields, then the node's style (seven numbers, unless
 // it repeats the previous record's, or one number when it repeats a style
 // written before) and then the optional fields:
@@ -359,14 +361,17 @@ func (w *snapshotWire) nodes(s *Snapshot, paints []Paint) error {
 	if len(w.Styles)%StyleLen != 0 {
 		return errors.New("snapshot: styles has " + strconv.Itoa(len(w.Styles)) + " numbers, not a multiple of " + strconv.Itoa(StyleLen))
 	}
-	if len(w.Styles) > MaxNodes*StyleLen {
-		return errors.New("snapshot: styles has more than " + strconv.Itoa(MaxNodes) + " styles, one for each element a chart may have")
+	// A reader keeps at most a style for each element a chart may have and
+	// adds at most as many.
+	if len(w.Styles) > 2*MaxNodes*StyleLen {
+		return errors.New("snapshot: styles has more than " + strconv.Itoa(2*MaxNodes) + " styles, two for each element a chart may have")
 	}
 	if len(w.Styles) > 0 {
-		nr.table = make([]Node, len(w.Styles)/StyleLen)
+		nr.table = make([]style, len(w.Styles)/StyleLen)
 		t := record{v: w.Styles, entry: "style "}
 		for ; t.i < len(t.v); t.node++ {
-			if err := nr.inlineStyle(&t, &nr.table[t.node]); err != nil {
+			var err error
+			if nr.table[t.node], err = nr.readStyle(&t); err != nil {
 				return err
 			}
 		}
@@ -394,7 +399,7 @@ type nodeReader struct {
 	slab   []float64
 	spans  []span  // geometry (node ≥ 0) and boxes (−node−1), cut from slab
 	styled []int32 // the nodes whose records write their styles out, in order
-	table  []Node  // the styles of "styles", only their style fields set
+	table  []style // the styles of "styles"
 }
 
 type span struct{ node, at, n int32 }
@@ -476,7 +481,7 @@ func (nr *nodeReader) style(nd *Node, has int) error {
 				return err
 			}
 			if k < len(nr.table) {
-				copyStyle(nd, &nr.table[k])
+				nr.table[k].set(nd, nr.paints)
 				return nil
 			}
 			from = int(nr.styled[k-len(nr.table)])
@@ -487,7 +492,12 @@ func (nr *nodeReader) style(nd *Node, has int) error {
 		return nil
 	}
 	nr.styled = append(nr.styled, int32(r.node))
-	return nr.inlineStyle(r, nd)
+	st, err := nr.readStyle(r)
+	if err != nil {
+		return err
+	}
+	st.set(nd, nr.paints)
+	return nil
 }
 
 func copyStyle(nd, from *Node) {
@@ -495,29 +505,41 @@ func copyStyle(nd, from *Node) {
 	nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = from.FillOpacity, from.StrokeOpacity, from.Opacity, from.StrokeWidth
 }
 
-// inlineStyle reads a style's seven numbers, from a record or from
+// style is a style as a record writes it: its paints by their index.
+type style struct {
+	flags                      uint8
+	fill, stroke               int32
+	fillOpacity, strokeOpacity float64
+	opacity, strokeWidth       float64
+}
+
+func (st *style) set(nd *Node, paints []Paint) {
+	nd.Flags, nd.Fill, nd.Stroke = st.flags, paints[st.fill], paints[st.stroke]
+	nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = st.fillOpacity, st.strokeOpacity, st.opacity, st.strokeWidth
+}
+
+// readStyle reads a style's seven numbers, from a record or from
 // "styles".
-func (nr *nodeReader) inlineStyle(r *record, nd *Node) error {
+func (nr *nodeReader) readStyle(r *record) (style, error) {
 	v := r.v
 	flags, err := r.int("flags", 0, int(Hidden|Invisible)+1)
 	if err != nil {
-		return err
+		return style{}, err
 	}
 	fill, err := r.int("fill", 0, len(nr.paints))
 	if err != nil {
-		return err
+		return style{}, err
 	}
 	stroke, err := r.int("stroke", 0, len(nr.paints))
 	if err != nil {
-		return err
+		return style{}, err
 	}
 	if len(v)-r.i < 4 {
-		return r.error("the record is cut short")
+		return style{}, r.error("the record is cut short")
 	}
-	nd.Flags, nd.Fill, nd.Stroke = uint8(flags), nr.paints[fill], nr.paints[stroke]
-	nd.FillOpacity, nd.StrokeOpacity, nd.Opacity, nd.StrokeWidth = v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]
+	st := style{uint8(flags), int32(fill), int32(stroke), v[r.i], v[r.i+1], v[r.i+2], v[r.i+3]}
 	r.i += 4
-	return nil
+	return st, nil
 }
 
 // ctm reads the record's CTM, or takes the parent's (the root's:
