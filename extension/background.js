@@ -299,7 +299,8 @@ ext.runtime.onInstalled.addListener(({ reason }) => {
 
 // A press soon after the browser starts would wait for the core to load
 // while the page is read, on the worker's one thread, which the page's
-// reading must also cross (a third of the first press after a relaunch).
+// reading must also cross (at 5,000 marks the reading reached the worker
+// 300-430 ms into a 570-737 ms press: DEVELOPERS.md).
 // So the core loads as the browser starts, from the optimised code
 // Chromium kept of it, when Standout was used in the last LATELY_MS:
 // the load costs the worker's thread and V8's compile threads about a
