@@ -268,15 +268,27 @@ let checked = false;
 const TRAINED_MARK = 'https://standout.invalid/trained';
 const trainedStamp = () => `${ext.runtime.getManifest().version} ${navigator.userAgent}`;
 
+// readMark resolves to the text of a mark in the extension's Cache
+// Storage, or undefined when there is none.
+async function readMark(url) {
+  const r = await (await caches.open('standout')).match(url);
+  return r === undefined ? undefined : r.text();
+}
+
+// writeMark writes a mark. A mark only spares work, so a failure is
+// reported on the console and nothing more; doing names what failed.
+function writeMark(url, text, doing) {
+  caches.open('standout')
+    .then((c) => c.put(url, new Response(text)))
+    .catch((e) => console.warn(`Standout could not ${doing}:`, e));
+}
+
 async function trainedAlready() {
-  const r = await (await caches.open('standout')).match(TRAINED_MARK);
-  return r !== undefined && (await r.text()) === trainedStamp();
+  return (await readMark(TRAINED_MARK)) === trainedStamp();
 }
 
 function markTrained() {
-  caches.open('standout')
-    .then((c) => c.put(TRAINED_MARK, new Response(trainedStamp())))
-    .catch((e) => console.warn('Standout could not mark its core trained:', e));
+  writeMark(TRAINED_MARK, trainedStamp(), 'mark its core trained');
 }
 
 async function trainAtInstall() {
@@ -317,16 +329,14 @@ let pressMarked = false;
 function markPressed() {
   if (pressMarked || !keepsOptimisedCode) return;
   pressMarked = true;
-  caches.open('standout')
-    .then((c) => c.put(PRESSED_MARK, new Response(String(Date.now()))))
-    .catch((e) => console.warn('Standout could not record its use:', e));
+  writeMark(PRESSED_MARK, String(Date.now()), 'record its use');
 }
 
 async function loadAtStart() {
   if (!keepsOptimisedCode) return;
   try {
-    const r = await (await caches.open('standout')).match(PRESSED_MARK);
-    if (r === undefined || !(Date.now() - Number(await r.text()) < LATELY_MS)) return;
+    const at = await readMark(PRESSED_MARK);
+    if (at === undefined || !(Date.now() - Number(at) < LATELY_MS)) return;
     await loadCore(CORES.overlay);
   } catch (e) {
     console.warn('Standout could not load its core:', e);
