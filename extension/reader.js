@@ -461,14 +461,15 @@
       const i = this.nPaints++;
       this.paintValues.push(v);
       this.paintUsed.push(used);
-      if (p) {
-        this.paints.push(p.k, p.c, p.st.length);
-        for (const c of p.st) this.paints.push(c);
-      } else {
+      if (!p) {
         this.paints.push(0, 0, 0);
+        this.paintIndex.set(v, 0);
+        return 0;
       }
-      this.paintIndex.set(v, p ? i : 0);
-      return p ? i : 0;
+      this.paints.push(p.k, p.c, p.st.length);
+      for (const c of p.st) this.paints.push(c);
+      this.paintIndex.set(v, i);
+      return i;
     }
 
     // keep keeps the paints and the styles for the chart's next reading.
