@@ -535,6 +535,126 @@ func suiteOverlayMatchesStaticPath(t *testing.T, h e2eBrowser) {
 	}
 }
 
+// A finding the pointer rests on in the panel outlines its marks, as many as the
+// static path's report of the demo page names: the answer carries each
+// finding's marks in runs, which the overlay expands when the finding is
+// shown (overlay.js, expandLater).
+func TestE2EFindingOutlinesItsMarks(t *testing.T) {
+	h := newHarness(t)
+	body := demoPage(t)
+	showPage(h, string(body))
+	built, err := static.Build(bytes.NewReader(body), static.Options{Source: "demo"})
+	require.NoError(t, err)
+	rep, err := report.FromSnapshots("demo", built.Charts, built.Problems, report.DefaultOptions)
+	require.NoError(t, err)
+	checked := 0
+	for _, c := range rep.Charts {
+		if !c.IsChart {
+			continue
+		}
+		for i, f := range c.Findings {
+			if len(f.Marks) < 2 {
+				continue
+			}
+			h.hoverFinding(c.Path, i, f.ID)
+			doc, err := html.Parse(strings.NewReader(h.overlayHTML()))
+			require.NoError(t, err)
+			d, ok := highlightOf(doc, c.Path)
+			require.True(t, ok, "%s: no highlight path", c.Path)
+			subs, _, err := marks.ParsePath(d)
+			require.NoError(t, err)
+			assert.Len(t, subs, len(f.Marks), "%s: finding %d (%s) outlines", c.Path, i, f.ID)
+			checked++
+		}
+	}
+	require.GreaterOrEqual(t, checked, 2, "findings of two or more marks on the demo page")
+}
+
+// hoverFinding moves the pointer, as a person does, onto the i-th finding
+// in the panel's section of the chart at path, which must have the id
+// want.
+func (h *harness) hoverFinding(path string, i int, want string) {
+	_, err := chromedp.Run(h.ctx, func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		depth := int64(-1)
+		pierce := true
+		doc, err := cdp.Call(ctx, tg, dom.GetDocument, dom.GetDocumentParams{Depth: &depth, Pierce: &pierce})
+		if err != nil {
+			return chromedp.Void{}, err
+		}
+		attr := func(n *cdp.Node, k string) string {
+			for j := 0; j+1 < len(n.Attributes); j += 2 {
+				if n.Attributes[j] == k {
+					return n.Attributes[j+1]
+				}
+			}
+			return ""
+		}
+		var buttons []*cdp.Node
+		var walk func(n *cdp.Node, in bool)
+		walk = func(n *cdp.Node, in bool) {
+			if n.LocalName == "section" {
+				l := attr(n, "aria-label")
+				in = l == "Chart "+path || strings.HasSuffix(l, " ("+path+")")
+			}
+			if in && n.LocalName == "button" && attr(n, "class") == "finding" {
+				buttons = append(buttons, n)
+			}
+			for _, c := range append(append([]*cdp.Node{}, n.ShadowRoots...), n.Children...) {
+				walk(c, in)
+			}
+		}
+		walk(doc.Root, false)
+		if i >= len(buttons) {
+			return chromedp.Void{}, fmt.Errorf("%s: %d findings in the panel, not %d", path, len(buttons), i+1)
+		}
+		if got := attr(buttons[i], "data-id"); got != want {
+			return chromedp.Void{}, fmt.Errorf("%s: finding %d is %s in the panel, %s in the report", path, i, got, want)
+		}
+		n := buttons[i]
+		if _, err := cdp.Call(ctx, tg, dom.ScrollIntoViewIfNeeded, dom.ScrollIntoViewIfNeededParams{NodeID: n.NodeID}); err != nil {
+			return chromedp.Void{}, err
+		}
+		box, err := cdp.Call(ctx, tg, dom.GetBoxModel, dom.GetBoxModelParams{NodeID: n.NodeID})
+		if err != nil {
+			return chromedp.Void{}, err
+		}
+		q := box.Model.Border
+		_, err = cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: input.DispatchMouseEventTypeMouseMoved, X: (q[0] + q[4]) / 2, Y: (q[1] + q[5]) / 2})
+		return chromedp.Void{}, err
+	})
+	require.NoError(h.t, err)
+}
+
+// highlightOf finds the path data of the highlight in the overlay's layer
+// of the chart at path.
+func highlightOf(n *html.Node, path string) (string, bool) {
+	if n.Type == html.ElementNode && n.Data == "svg" && htmlAttr(n, "data-chart") == path {
+		var d string
+		var found bool
+		for c := n.FirstChild; c != nil; c = c.NextSibling {
+			if c.Type == html.ElementNode && c.Data == "path" && htmlAttr(c, "data-role") == "highlight" {
+				d, found = htmlAttr(c, "d"), true
+			}
+		}
+		return d, found
+	}
+	for c := n.FirstChild; c != nil; c = c.NextSibling {
+		if d, ok := highlightOf(c, path); ok {
+			return d, true
+		}
+	}
+	return "", false
+}
+
+func htmlAttr(n *html.Node, k string) string {
+	for _, a := range n.Attr {
+		if a.Key == k {
+			return a.Val
+		}
+	}
+	return ""
+}
+
 // chartPage is a small bar chart with an emphasis.
 const chartSVG = `<svg width="240" height="120"><g>
 <rect x="10" y="40" width="30" height="80" fill="#8a8a8a"/><rect x="50" y="30" width="30" height="90" fill="#8a8a8a"/>

@@ -296,8 +296,8 @@
           svg.appendChild(svgEl('path', { d: cornerPath(c, groups[v], readBox[0], readBox[1], 'ring'), fill: INK.paper, stroke: st.colour, 'stroke-width': 2 }));
         }
       }
-      const highlight = svgEl('path', { d: '', fill: 'none', stroke: INK.highlight, 'stroke-width': 4, 'stroke-dasharray': '2 2' });
-      const selection = svgEl('path', { d: '', fill: 'none', stroke: INK.ink, 'stroke-width': 3, 'stroke-dasharray': '10 2 2 2' });
+      const highlight = svgEl('path', { 'data-role': 'highlight', d: '', fill: 'none', stroke: INK.highlight, 'stroke-width': 4, 'stroke-dasharray': '2 2' });
+      const selection = svgEl('path', { 'data-role': 'selection', d: '', fill: 'none', stroke: INK.ink, 'stroke-width': 3, 'stroke-dasharray': '10 2 2 2' });
       svg.append(highlight, selection);
       state.root.insertBefore(svg, state.panel);
       state.layers.set(c.path, { svg, entry, readBox, chart: c, highlight, selection });
@@ -436,7 +436,7 @@
       if (!c.isChart) continue;
       n++;
       const sec = el('section', { 'aria-label': c.title ? `${c.title} (${c.path})` : 'Chart ' + c.path });
-      sec.appendChild(el('h2', {}, `${c.title ? `${c.title} (${c.path})` : `Chart ${c.path}`}: ${c.nodes.length} marks`));
+      sec.appendChild(el('h2', {}, `${c.title ? `${c.title} (${c.path})` : `Chart ${c.path}`}: ${c.verdicts.length} marks`));
       const counts = { pops: 0, conjunction: 0, blends: 0 };
       for (const v of c.verdicts) counts[VERDICT_OF[v] || 'blends']++;
       sec.appendChild(el('p', {}, `${counts.pops} ${WORDS.pops}; ${counts.conjunction} only by a slow search; ${counts.blends} ${WORDS.blends}.`));
@@ -619,7 +619,7 @@
       const dy = pb[1] - l.readBox[1];
       const b = l.chart.boxes;
       const pad = 3;
-      for (let i = 0; i < l.chart.nodes.length; i++) {
+      for (let i = 0; i < l.chart.verdicts.length; i++) {
         const x = b[4 * i] + dx;
         const y = b[4 * i + 1] + dy;
         const w = b[4 * i + 2];
@@ -989,9 +989,9 @@
     if (!r.ok) throw new Error(r.error);
     for (const page of r.overlay.pages) {
       for (const c of page.charts) {
-        c.nodes = indices(c.nodes);
-        for (const f of c.findings) f.marks = indices(f.marks);
-        if (c.emphasis) c.emphasis.marks = indices(c.emphasis.marks);
+        expandLater(c, 'nodes');
+        for (const f of c.findings) expandLater(f, 'marks');
+        if (c.emphasis) expandLater(c.emphasis, 'marks');
       }
     }
     // The core sends the overlay's digest of the report; the whole report
@@ -1019,6 +1019,19 @@
       else for (let k = out[out.length - 1] + 1; k <= -v; k++) out.push(k);
     }
     return out;
+  }
+
+  // expandLater makes obj[key], a list of indices in runs, the expanded
+  // list at its first use. An answer's lists name some 16,000 marks at
+  // 5,000 (the chart's nodes, and every mark of a category a finding is
+  // about), and a finding's list is used only when it is shown: expanded
+  // at once, they took about 18 ms of a freshly loaded page's first
+  // answer, whose script runs unoptimised (a CPU profile of the browser
+  // benchmark's press after a restart).
+  function expandLater(obj, key) {
+    const runs = obj[key];
+    let list = null;
+    Object.defineProperty(obj, key, { enumerable: true, configurable: true, get: () => list || (list = indices(runs)) });
   }
 
   // render shows a check's answer, if it is the one awaited (seq): a
