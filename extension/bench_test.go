@@ -314,7 +314,7 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 				h.stopWorker(b)
 				p = h.clickToOverlay(b)
 				restart += p.Ready
-				b.Logf("%d marks, press after the worker stopped: %.0f ms to ready; %+v", n, p.Ready, p.Timing)
+				b.Logf("%d marks, press after the worker stopped: %.0f ms to ready, %.0f ms to the background; %+v", n, p.Ready, p.ClickMs, p.Timing)
 				time.Sleep(readingPause)
 				h.close()
 				// The browser started again on the profile, and the page
@@ -328,7 +328,7 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 					}
 					p := h.clickToOverlay(b)
 					*sum += p.Ready
-					b.Logf("%d marks, first press after the browser started again%s: %.0f ms to ready; %+v", n, what, p.Ready, p.Timing)
+					b.Logf("%d marks, first press after the browser started again%s: %.0f ms to ready, %.0f ms to the background; %+v", n, what, p.Ready, p.ClickMs, p.Timing)
 					h.close()
 				}
 				relaunched(false, &relaunch, "")
@@ -401,7 +401,7 @@ func BenchmarkBrowserFirstPressAfterInstall(b *testing.B) {
 			} else {
 				soon += p.Ready
 			}
-			b.Logf("first press after the install (idle and stopped: %v): %.0f ms to ready; %+v", idle, p.Ready, p.Timing)
+			b.Logf("first press after the install (idle and stopped: %v): %.0f ms to ready, %.0f ms to the background; %+v", idle, p.Ready, p.ClickMs, p.Timing)
 			h.close()
 		}
 	}
