@@ -1024,10 +1024,10 @@
   // expandLater makes obj[key], a list of indices in runs, the expanded
   // list at its first use. An answer's lists name some 16,000 marks at
   // 5,000 (the chart's nodes, and every mark of a category a finding is
-  // about), and a finding's list is used only when it is shown: expanded
-  // at once, they took about 18 ms of a freshly loaded page's first
-  // answer, whose script runs unoptimised (a CPU profile of the browser
-  // benchmark's press after a restart).
+  // about), and a finding's list is used only when it is shown. Expanded
+  // at once, by a page's first answer, whose script runs unoptimised,
+  // they made most of the 10-11 ms that unpacking the first answer in a
+  // new profile took in the browser benchmark (1.6-8.8 ms since).
   function expandLater(obj, key) {
     const runs = obj[key];
     let list = null;
