@@ -265,18 +265,27 @@ func (h *harness) clickInOverlay(action string) {
 		if err != nil {
 			return chromedp.Void{}, err
 		}
-		if _, err := cdp.Call(ctx, tg, dom.ScrollIntoViewIfNeeded, dom.ScrollIntoViewIfNeededParams{NodeID: n.NodeID}); err != nil {
-			return chromedp.Void{}, err
-		}
-		box, err := cdp.Call(ctx, tg, dom.GetBoxModel, dom.GetBoxModelParams{NodeID: n.NodeID})
+		x, y, err := centreInView(ctx, tg, n.NodeID)
 		if err != nil {
 			return chromedp.Void{}, err
 		}
-		q := box.Model.Border
-		x, y := (q[0]+q[4])/2, (q[1]+q[5])/2
 		return chromedp.Void{}, mouseClick(ctx, tg, x, y)
 	})
 	require.NoError(h.t, err)
+}
+
+// centreInView scrolls a node into view and returns its centre in the
+// viewport's px.
+func centreInView(ctx context.Context, tg *chromedp.Target, id cdp.NodeID) (x, y float64, err error) {
+	if _, err := cdp.Call(ctx, tg, dom.ScrollIntoViewIfNeeded, dom.ScrollIntoViewIfNeededParams{NodeID: id}); err != nil {
+		return 0, 0, err
+	}
+	box, err := cdp.Call(ctx, tg, dom.GetBoxModel, dom.GetBoxModelParams{NodeID: id})
+	if err != nil {
+		return 0, 0, err
+	}
+	q := box.Model.Border
+	return (q[0] + q[4]) / 2, (q[1] + q[5]) / 2, nil
 }
 
 func (h *harness) clickAt(x, y float64) {
@@ -610,16 +619,11 @@ func (h *harness) hoverFinding(path string, i int, want string) {
 		if got := attr(buttons[i], "data-id"); got != want {
 			return chromedp.Void{}, fmt.Errorf("%s: finding %d is %s in the panel, %s in the report", path, i, got, want)
 		}
-		n := buttons[i]
-		if _, err := cdp.Call(ctx, tg, dom.ScrollIntoViewIfNeeded, dom.ScrollIntoViewIfNeededParams{NodeID: n.NodeID}); err != nil {
-			return chromedp.Void{}, err
-		}
-		box, err := cdp.Call(ctx, tg, dom.GetBoxModel, dom.GetBoxModelParams{NodeID: n.NodeID})
+		x, y, err := centreInView(ctx, tg, buttons[i].NodeID)
 		if err != nil {
 			return chromedp.Void{}, err
 		}
-		q := box.Model.Border
-		_, err = cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: input.DispatchMouseEventTypeMouseMoved, X: (q[0] + q[4]) / 2, Y: (q[1] + q[5]) / 2})
+		_, err = cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: input.DispatchMouseEventTypeMouseMoved, X: x, Y: y})
 		return chromedp.Void{}, err
 	})
 	require.NoError(h.t, err)
