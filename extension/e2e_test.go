@@ -227,6 +227,17 @@ func hasAttr(n *cdp.Node, name string) bool {
 	return false
 }
 
+// nodeAttr is the value of a protocol node's attribute, "" when it has
+// none.
+func nodeAttr(n *cdp.Node, name string) string {
+	for i := 0; i+1 < len(n.Attributes); i += 2 {
+		if n.Attributes[i] == name {
+			return n.Attributes[i+1]
+		}
+	}
+	return ""
+}
+
 // findInOverlay finds the first element of the overlay's shadow root with
 // the data-action attribute.
 func findInOverlay(ctx context.Context, tg *chromedp.Target, action string) (*cdp.Node, error) {
@@ -238,10 +249,8 @@ func findInOverlay(ctx context.Context, tg *chromedp.Target, action string) (*cd
 	}
 	var find func(n *cdp.Node) *cdp.Node
 	find = func(n *cdp.Node) *cdp.Node {
-		for i := 0; i+1 < len(n.Attributes); i += 2 {
-			if n.Attributes[i] == "data-action" && n.Attributes[i+1] == action {
-				return n
-			}
+		if nodeAttr(n, "data-action") == action {
+			return n
 		}
 		for _, c := range append(append([]*cdp.Node{}, n.ShadowRoots...), n.Children...) {
 			if f := find(c); f != nil {
@@ -373,14 +382,7 @@ func layerRects(t testing.TB, overlay string) map[string]map[string][][4]float64
 	px := regexp.MustCompile(`(?:^|;)\s*(left|top):\s*([-\d.]+)px`)
 	var walk func(n *html.Node, chart string, ox, oy float64)
 	walk = func(n *html.Node, chart string, ox, oy float64) {
-		attr := func(k string) string {
-			for _, a := range n.Attr {
-				if a.Key == k {
-					return a.Val
-				}
-			}
-			return ""
-		}
+		attr := func(k string) string { return htmlAttr(n, k) }
 		if n.Type == html.ElementNode && n.Data == "svg" && strings.Contains(attr("class"), "layer") {
 			chart = attr("data-chart")
 			for _, m := range px.FindAllStringSubmatch(attr("style"), -1) {
@@ -544,10 +546,10 @@ func suiteOverlayMatchesStaticPath(t *testing.T, h e2eBrowser) {
 	}
 }
 
-// A finding the pointer rests on in the panel outlines its marks, as many as the
-// static path's report of the demo page names: the answer carries each
-// finding's marks in runs, which the overlay expands when the finding is
-// shown (overlay.js, expandLater).
+// A finding the pointer rests on in the panel outlines its marks, as many
+// as the static path's report of the demo page names: the answer carries
+// each finding's marks in runs, which the overlay expands when the
+// finding is shown (overlay.js, expandLater).
 func TestE2EFindingOutlinesItsMarks(t *testing.T) {
 	h := newHarness(t)
 	body := demoPage(t)
@@ -590,22 +592,14 @@ func (h *harness) hoverFinding(path string, i int, want string) {
 		if err != nil {
 			return chromedp.Void{}, err
 		}
-		attr := func(n *cdp.Node, k string) string {
-			for j := 0; j+1 < len(n.Attributes); j += 2 {
-				if n.Attributes[j] == k {
-					return n.Attributes[j+1]
-				}
-			}
-			return ""
-		}
 		var buttons []*cdp.Node
 		var walk func(n *cdp.Node, in bool)
 		walk = func(n *cdp.Node, in bool) {
 			if n.LocalName == "section" {
-				l := attr(n, "aria-label")
+				l := nodeAttr(n, "aria-label")
 				in = l == "Chart "+path || strings.HasSuffix(l, " ("+path+")")
 			}
-			if in && n.LocalName == "button" && attr(n, "class") == "finding" {
+			if in && n.LocalName == "button" && nodeAttr(n, "class") == "finding" {
 				buttons = append(buttons, n)
 			}
 			for _, c := range append(append([]*cdp.Node{}, n.ShadowRoots...), n.Children...) {
@@ -616,7 +610,7 @@ func (h *harness) hoverFinding(path string, i int, want string) {
 		if i >= len(buttons) {
 			return chromedp.Void{}, fmt.Errorf("%s: %d findings in the panel, not %d", path, len(buttons), i+1)
 		}
-		if got := attr(buttons[i], "data-id"); got != want {
+		if got := nodeAttr(buttons[i], "data-id"); got != want {
 			return chromedp.Void{}, fmt.Errorf("%s: finding %d is %s in the panel, %s in the report", path, i, got, want)
 		}
 		x, y, err := centreInView(ctx, tg, buttons[i].NodeID)
