@@ -34,9 +34,9 @@ type Heuristics struct {
 	// group only in groups of this many; more is a data series of rules.
 	PooledGroupMin, PooledGroupMax int
 	// TickMaxLen: an aligned segment shorter than this is a tick, a longer
-	// one a gridline, unless it passes through the centres of two closed
-	// shapes (within half its stroke plus ThroughTol): then it connects
-	// data.
+	// one a gridline, unless most long segments of its group pass through
+	// the centres of two closed shapes each (within half the stroke plus
+	// ThroughTol): then they connect data.
 	TickMaxLen, ThroughTol float64
 	// AxisTickTouches: a long line that this many tick ends touch (within
 	// AlignTol) is an axis line.

@@ -448,8 +448,7 @@ func classifyFurniture(h *Heuristics, ch *Chart, cands []*cand) {
 	backgrounds(h, ch, cands)
 	panels(h, ch, cands)
 	segs := alignedSegments(h, cands)
-	grid := gridGroups(h, segs)
-	tickEnds := ticksAndGridlines(h, cands, segs, grid)
+	grid, tickEnds := ticksAndGridlines(h, cands, segs, gridGroups(h, segs))
 	axisLines(h, segs, grid, tickEnds)
 	baselines(h, cands, segs)
 	spines(h, cands, segs)
@@ -563,9 +562,14 @@ func alignedSegments(h *Heuristics, cands []*cand) []seg {
 // gridGroups finds the segments that come in parallel groups of equal
 // length and stroke whose starts or ends line up: ticks and gridlines.
 // Groups are formed per parent, then pooled across parents (some
-// generators wrap each tick in a <g> of its own).
-func gridGroups(h *Heuristics, segs []seg) []bool {
-	grid := make([]bool, len(segs))
+// generators wrap each tick in a <g> of its own). It gives each segment
+// its group's number, or -1 outside any group.
+func gridGroups(h *Heuristics, segs []seg) []int {
+	group := make([]int, len(segs))
+	for i := range group {
+		group[i] = -1
+	}
+	groups := 0
 	lineUp := func(idx []int) {
 		if len(idx) < 2 {
 			return
@@ -579,8 +583,9 @@ func gridGroups(h *Heuristics, segs []seg) []bool {
 			}
 		}
 		for _, i := range idx {
-			grid[i] = true
+			group[i] = groups
 		}
+		groups++
 	}
 	type key struct {
 		vert   bool
@@ -601,7 +606,7 @@ func gridGroups(h *Heuristics, segs []seg) []bool {
 	for _, end := range []bool{false, true} {
 		pooled := map[key][]int{}
 		for i, s := range segs {
-			if grid[i] {
+			if group[i] >= 0 {
 				continue
 			}
 			p := s.a
@@ -621,7 +626,7 @@ func gridGroups(h *Heuristics, segs []seg) []bool {
 			}
 		}
 	}
-	return grid
+	return group
 }
 
 // throughCentres counts (up to two) the closed shapes centred on the
@@ -648,24 +653,38 @@ func throughCentres(h *Heuristics, s seg, cands []*cand) int {
 }
 
 // ticksAndGridlines gives the grouped segments their roles: short ones are
-// ticks, long ones gridlines, unless a long one passes through the
-// centres of data shapes, which it then connects. It returns the ticks'
-// ends.
-func ticksAndGridlines(h *Heuristics, cands []*cand, segs []seg, grid []bool) []Point {
-	var tickEnds []Point
+// ticks, long ones gridlines, unless most of a group's long segments pass
+// through the centres of data shapes, which the group then connects (the
+// stems of a lollipop chart). A group decides as one: a gridline among
+// lined-up siblings whose ends happen to meet two scattered points stays
+// a gridline. It reports which segments are ticks or gridlines, and the
+// ticks' ends.
+func ticksAndGridlines(h *Heuristics, cands []*cand, segs []seg, group []int) (grid []bool, tickEnds []Point) {
+	long, through := map[int]int{}, map[int]int{}
 	for i, s := range segs {
+		if g := group[i]; g >= 0 && s.L >= h.TickMaxLen {
+			long[g]++
+			if throughCentres(h, s, cands) >= 2 {
+				through[g]++
+			}
+		}
+	}
+	grid = make([]bool, len(segs))
+	for i, s := range segs {
+		g := group[i]
 		switch {
-		case !grid[i]:
-		case s.L >= h.TickMaxLen && throughCentres(h, s, cands) >= 2:
-			grid[i] = false
+		case g < 0:
+		case s.L >= h.TickMaxLen && 2*through[g] > long[g]:
 		case s.L < h.TickMaxLen:
+			grid[i] = true
 			s.c.role = RoleTick
 			tickEnds = append(tickEnds, s.a, s.b)
 		default:
+			grid[i] = true
 			s.c.role = RoleGridline
 		}
 	}
-	return tickEnds
+	return grid, tickEnds
 }
 
 // axisLines: a long line that ticks hang from is an axis line.

@@ -1,0 +1,53 @@
+package marks
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+)
+
+// A group of lined-up segments decides as one whether it is grid or
+// connects data. In a scatter over a grid, one gridline's two ends may
+// each fall on a point's centre by chance (a Vega-Lite scatter of 240
+// random points did so): it is still a gridline, like its siblings. A
+// dumbbell chart's connectors, which all join two dots, stay data.
+func TestGridlineGroupDecidesAsOne(t *testing.T) {
+	grid := func(stroke string) string {
+		var b strings.Builder
+		b.WriteString(`<g>`)
+		for x := 0; x <= 200; x += 40 {
+			fmt.Fprintf(&b, `<line x1="%d" y1="0" x2="%d" y2="200" stroke="%s"/>`, x, x, stroke)
+		}
+		b.WriteString(`</g>`)
+		return b.String()
+	}
+	t.Run("a gridline whose ends meet two points", func(t *testing.T) {
+		var b strings.Builder
+		b.WriteString(`<svg width="220" height="220">` + grid("#dddddd") + `<g fill="#3b6e8f">`)
+		// Two points sit on the gridline at x = 80, one at each end.
+		for _, p := range [][2]int{{80, 0}, {80, 200}, {13, 27}, {57, 151}, {101, 66}, {133, 122}, {177, 39}, {191, 173}, {29, 95}, {149, 187}} {
+			fmt.Fprintf(&b, `<circle cx="%d" cy="%d" r="3"/>`, p[0], p[1])
+		}
+		b.WriteString(`</g></svg>`)
+		ch := walkPage(t, b.String())
+		assert.Len(t, ch.Marks, 10, "the points alone are data")
+		assert.Equal(t, 6, ch.Furniture[RoleGridline])
+	})
+	t.Run("a dumbbell chart's connectors", func(t *testing.T) {
+		var b strings.Builder
+		b.WriteString(`<svg width="220" height="160"><g stroke="#7d8a99">`)
+		for y := 20; y <= 110; y += 30 {
+			fmt.Fprintf(&b, `<line x1="50" y1="%d" x2="150" y2="%d"/>`, y, y)
+		}
+		b.WriteString(`</g><g fill="#b5473a">`)
+		for y := 20; y <= 110; y += 30 {
+			fmt.Fprintf(&b, `<circle cx="50" cy="%d" r="5"/><circle cx="150" cy="%d" r="5"/>`, y, y)
+		}
+		b.WriteString(`</g></svg>`)
+		ch := walkPage(t, b.String())
+		assert.Len(t, ch.Marks, 12, "four connectors and their eight dots")
+		assert.Zero(t, ch.Furniture[RoleGridline])
+	})
+}
