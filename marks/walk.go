@@ -165,6 +165,11 @@ func WalkWith(s *snapshot.Snapshot, h *Heuristics) (*Chart, error) {
 	switch {
 	case w > 0 && ht > 0 && w <= h.IconMax && ht <= h.IconMax:
 		ch.Reason = "icon-sized drawing (" + strconv.FormatFloat(w, 'f', 0, 64) + "×" + strconv.FormatFloat(ht, 'f', 0, 64) + " px)"
+	case ht > 0 && s.Box[1]+ht <= 0:
+		// A drawing put above the page's top, as some libraries put the
+		// one they measure text in: no reader can scroll to it. (Left of
+		// the page is another matter: a right-to-left page scrolls there.)
+		ch.Reason = "drawn above the top of the page, where no reader can scroll"
 	case len(ch.Marks) == 0:
 		ch.Reason = "no data marks"
 	default:

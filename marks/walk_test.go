@@ -6,6 +6,9 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"standout/static"
 )
 
 // A group of lined-up segments decides as one whether it is grid or
@@ -50,4 +53,27 @@ func TestGridlineGroupDecidesAsOne(t *testing.T) {
 		assert.Len(t, ch.Marks, 12, "four connectors and their eight dots")
 		assert.Zero(t, ch.Furniture[RoleGridline])
 	})
+}
+
+// A drawing placed wholly above the page's top (a library's hidden
+// drawing for measuring text sat at top: -10000px, 9,000 px tall, with
+// one black square in it) is not a chart: no reader can scroll to it.
+// One that reaches into the page still is.
+func TestDrawingAboveThePageIsNoChart(t *testing.T) {
+	page := `<svg width="300" height="200"><g fill="#3b6e8f"><rect x="10" y="50" width="30" height="150"/><rect x="60" y="90" width="30" height="110"/><rect x="110" y="20" width="30" height="180"/></g></svg>`
+	for _, c := range []struct {
+		y     float64
+		chart bool
+	}{{-10000, false}, {-200, false}, {-150, true}, {0, true}} {
+		p, err := static.Build(strings.NewReader(page), static.Options{Source: t.Name()})
+		require.NoError(t, err)
+		s := &p.Charts[0]
+		s.Box[1] = c.y
+		ch, err := Walk(s)
+		require.NoError(t, err)
+		assert.Equal(t, c.chart, ch.IsChart, "top at %g px", c.y)
+		if !c.chart {
+			assert.Contains(t, ch.Reason, "above the top of the page")
+		}
+	}
 }
