@@ -452,11 +452,71 @@ func straight(g *Geometry) (Point, Point, bool) {
 func classifyFurniture(h *Heuristics, ch *Chart, cands []*cand) {
 	backgrounds(h, ch, cands)
 	panels(h, ch, cands)
+	brackets(h, cands)
 	segs := alignedSegments(h, cands)
 	grid, tickEnds := ticksAndGridlines(h, cands, segs, gridGroups(h, segs))
 	axisLines(h, segs, grid, tickEnds)
 	baselines(h, cands, segs)
 	spines(h, cands, segs)
+}
+
+// brackets: a long axis-aligned line with a short stub at each end, both
+// square to it and on the same side, is an axis line: the path D3's axes
+// draw along the axis, with the outer ticks at its ends ("M0,6V0H559V6").
+// A data line does not turn back on itself at both ends within a tick's
+// length.
+func brackets(h *Heuristics, cands []*cand) {
+	for _, c := range cands {
+		if c.role == RoleMark && isBracket(h, &c.g) {
+			c.role = RoleAxis
+		}
+	}
+}
+
+// isBracket reports whether an outline is such a bracket: one open
+// subpath of four points (collinear points aside) without curves.
+func isBracket(h *Heuristics, g *Geometry) bool {
+	if g.Closed || len(g.Subpaths) != 1 || g.Info.Curves > 0 {
+		return false
+	}
+	var pts []Point
+	for _, p := range g.Subpaths[0].Pts {
+		if n := len(pts); n >= 2 && collinear(pts[n-2], pts[n-1], p) {
+			pts[n-1] = p
+			continue
+		}
+		if n := len(pts); n == 0 || pts[n-1] != p {
+			pts = append(pts, p)
+		}
+	}
+	if len(pts) != 4 {
+		return false
+	}
+	a, b, c, d := pts[0], pts[1], pts[2], pts[3]
+	slack := h.AxisAlignSlack
+	level := math.Abs(c.Y-b.Y) <= slack // the long side runs across
+	if !level && math.Abs(c.X-b.X) > slack {
+		return false
+	}
+	long := math.Hypot(c.X-b.X, c.Y-b.Y)
+	stub := func(from, to Point) (float64, bool) {
+		dx, dy := to.X-from.X, to.Y-from.Y
+		if level {
+			dx, dy = dy, dx
+		}
+		// Square to the long side: along it by no more than the slack.
+		return dx, math.Abs(dy) <= slack && math.Abs(dx) > slack && math.Abs(dx) <= h.TickMaxLen
+	}
+	s1, ok1 := stub(b, a)
+	s2, ok2 := stub(c, d)
+	return ok1 && ok2 && s1*s2 > 0 && long >= 2*h.TickMaxLen
+}
+
+// collinear reports whether q lies on the line through a and b, within
+// half a pixel.
+func collinear(a, b, q Point) bool {
+	L := math.Hypot(b.X-a.X, b.Y-a.Y)
+	return L > 0 && math.Abs((b.X-a.X)*(a.Y-q.Y)-(a.X-q.X)*(b.Y-a.Y))/L <= 0.5
 }
 
 // coverRole is the role of a rectangle that covers others: a background

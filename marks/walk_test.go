@@ -77,3 +77,46 @@ func TestDrawingAboveThePageIsNoChart(t *testing.T) {
 		}
 	}
 }
+
+// D3's axes draw the line along the axis as one path with the outer
+// ticks at its ends, a bracket ("M0,6V0H300V6"). It is an axis line, on
+// both axes, with its ticks or without; a data line of four points that
+// turns back at both ends farther than a tick's length stays data.
+func TestAxisBracketIsAxis(t *testing.T) {
+	bars := `<g fill="#3b6e8f"><rect x="20" y="80" width="40" height="120"/><rect x="90" y="40" width="40" height="160"/><rect x="160" y="120" width="40" height="80"/><rect x="230" y="60" width="40" height="140"/></g>`
+	ticks := func(axis string) string {
+		var b strings.Builder
+		for k := 0; k < 4; k++ {
+			if axis == "x" {
+				fmt.Fprintf(&b, `<g class="tick" transform="translate(%d,0)"><line stroke="currentColor" y2="6"/><text fill="currentColor" y="9" dy="0.71em">w%d</text></g>`, 40+70*k, k+1)
+			} else {
+				fmt.Fprintf(&b, `<g class="tick" transform="translate(0,%d)"><line stroke="currentColor" x2="-6"/><text fill="currentColor" x="-9" dy="0.32em">%d</text></g>`, 200-50*k, 10*k)
+			}
+		}
+		return b.String()
+	}
+	for name, c := range map[string]struct {
+		x, y  string
+		marks int
+		axes  int
+	}{
+		"with ticks": {
+			`<g transform="translate(40,210)" fill="none" font-size="10">` + ticks("x") + `<path class="domain" stroke="currentColor" d="M0.5,6V0.5H300.5V6"/></g>`,
+			`<g transform="translate(40,10)" fill="none" font-size="10">` + ticks("y") + `<path class="domain" stroke="currentColor" d="M-6,200.5H0.5V0.5H-6"/></g>`,
+			4, 2},
+		"without ticks": {
+			`<g transform="translate(40,210)" fill="none"><path stroke="#333333" d="M0.5,6V0.5H300.5V6"/></g>`,
+			`<g transform="translate(40,10)" fill="none"><path stroke="#333333" d="M-6,200.5H0.5V0.5H-6"/></g>`,
+			4, 2},
+		"a data line that turns back far": {
+			`<g transform="translate(40,10)" fill="none"><path stroke="#b5473a" d="M10,180V40H290V180"/></g>`,
+			``,
+			5, 0},
+	} {
+		t.Run(name, func(t *testing.T) {
+			ch := walkPage(t, `<svg width="360" height="240" color="#333333"><g transform="translate(40,10)">`+bars+`</g>`+c.x+c.y+`</svg>`)
+			assert.Len(t, ch.Marks, c.marks)
+			assert.Equal(t, c.axes, ch.Furniture[RoleAxis])
+		})
+	}
+}
