@@ -22,7 +22,7 @@ const Caution = "CVD simulation is a model of average readers and real readers v
 // docs/report.md); Minor counts the fields added within it.
 const (
 	Version = 1
-	Minor   = 4
+	Minor   = 5
 )
 
 // Mark is one mark of a chart as the report states it: what it is, its
