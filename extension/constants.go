@@ -68,6 +68,7 @@ func Constants() []byte {
 	}
 	sort.Strings(tags)
 	fmt.Fprintf(&b, "  NOT_RENDERED: Object.freeze([%s]),\n", strings.Join(tags, ", "))
+	fmt.Fprintf(&b, "  CLIP_TAG: %s,\n", strconv.Quote(snapshot.ClipTag))
 	b.WriteString("  GEOM: Object.freeze({\n")
 	layout := make([]string, 0, len(snapshot.GeomLayout))
 	for t := range snapshot.GeomLayout {

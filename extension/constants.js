@@ -41,6 +41,7 @@ globalThis.standoutConstants = Object.freeze({
   STYLE_STROKE_WIDTH: 6,
   STYLE_LEN: 7,
   NOT_RENDERED: Object.freeze(["clippath", "defs", "filter", "foreignobject", "lineargradient", "marker", "mask", "metadata", "pattern", "radialgradient", "script", "style", "symbol"]),
+  CLIP_TAG: "#clip",
   GEOM: Object.freeze({
     circle: Object.freeze(["cx", "cy", "r"]),
     ellipse: Object.freeze(["cx", "cy", "rx", "ry"]),

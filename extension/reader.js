@@ -309,6 +309,8 @@
   // of their own (the shapes, text and groups; not <use>, whose x and y
   // place its content, nor viewports or what is not rendered), and the
   // parents whose CTM they then share: groups.
+  // The style of a clip region's node: no paint, nothing hidden.
+  const CLIP_STYLE = Object.freeze([0, 0, 0, 1, 1, 1, 0, 0, 0]);
   const PLAIN_TAGS = new Set(['g', 'a', 'circle', 'ellipse', 'rect', 'line', 'polyline', 'polygon', 'path', 'text']);
   const GROUP_TAGS = new Set(['g', 'a']);
 
@@ -735,6 +737,7 @@
         this.expandUse(el, idx, m, useDepth);
         return;
       }
+      if (!ctmOverride && GROUP_TAGS.has(tag)) this.clip(el, idx, m);
       const childVp = tag === 'svg' ? {} : vp;
       const siblings = this.share && !ctmOverride ? new Map() : null;
       let i = 0;
@@ -743,6 +746,34 @@
         if (c.namespaceURI !== SVG_NS) continue;
         this.add(c, idx, i, childVp, ctmOverride ? m : null, useDepth, siblings);
       }
+    }
+
+    // clip writes the clip region of a group (a <g> or <a>, CTM m) as a
+    // node of its own (snapshot.ClipTag), as the static builder does
+    // (static/build.go: clipRegion): when its clip-path refers to a
+    // <clipPath> of one <rect> in the group's user space, as charts clip
+    // their plot area. The core sets aside what lies wholly outside it.
+    clip(el, idx, m) {
+      const v = getComputedStyle(el).clipPath;
+      if (!v || !v.startsWith('url(')) return;
+      const ref = /^url\(\s*["']?#([^"')]*)["']?\s*\)$/.exec(v);
+      const cp = ref && findById(this.root, ref[1]);
+      if (!cp || cp.localName.toLowerCase() !== 'clippath' || (cp.getAttribute('clipPathUnits') || '').toLowerCase() === 'objectboundingbox') return;
+      const kids = cp.children;
+      const rect = kids.length === 1 ? kids[0] : null;
+      if (!rect || rect.localName.toLowerCase() !== 'rect') return;
+      // Lengths in percent are left to the browser alone: the static
+      // builder cannot resolve them, and the two ways in read alike.
+      if (['x', 'y', 'width', 'height'].some((k) => (rect.getAttribute(k) || '').includes('%'))) return;
+      const g = [];
+      geometry(rect, 'rect', g, 0, 0);
+      this.count(0);
+      const w = this.w;
+      const cm = mul(mul(m, ownTransform(cp)), ownTransform(rect));
+      const ci = w.begin(idx, C.CLIP_TAG, NAME_USE, cm);
+      const has = w.style(CLIP_STYLE) | w.ctm(ci, cm);
+      w.nodes.push(4, g[1], g[2], g[3], g[4]);
+      w.end(has | HAS_GEOM);
     }
 
     // expandUse instantiates the content a <use> refers to under it.

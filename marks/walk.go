@@ -209,6 +209,7 @@ func (ch *Chart) candidates(s *snapshot.Snapshot) (cands, texts []*cand, err err
 	// walk allocates per chart, not per mark.
 	slab := make([]cand, 0, n)
 	cands = make([]*cand, 0, n)
+	clips, clipped := clipBoxes(s)
 	for i := range s.Nodes {
 		nd := &s.Nodes[i]
 		switch nd.Tag {
@@ -222,7 +223,12 @@ func (ch *Chart) candidates(s *snapshot.Snapshot) (cands, texts []*cand, err err
 		}
 		slab = append(slab, cand{node: i, n: nd, opacity: opac[i], label: labels[i]})
 		c := &slab[len(slab)-1]
-		switch ch.sortOut(c) {
+		what := ch.sortOut(c)
+		if what != notDrawn && clipped != nil && clipped[i] && outside(clips[i], c) {
+			ch.Furniture[RoleHidden]++
+			continue
+		}
+		switch what {
 		case isText:
 			texts = append(texts, c)
 		case isShape:
@@ -230,6 +236,76 @@ func (ch *Chart) candidates(s *snapshot.Snapshot) (cands, texts []*cand, err err
 		}
 	}
 	return cands, texts, nil
+}
+
+// clipBoxes gives each node the page box (x0 y0 x1 y1) that the clip
+// regions of it and its ancestors leave (snapshot.ClipTag nodes), and
+// whether any clips it; both are nil when nothing in the chart is
+// clipped. A region is taken by its bounds in page px, so under a
+// rotation it clips less than it does on screen, never more; one that
+// is empty or not finite is left out, as if the group were unclipped.
+func clipBoxes(s *snapshot.Snapshot) ([][4]float64, []bool) {
+	var own map[int32][4]float64
+	for i := range s.Nodes {
+		nd := &s.Nodes[i]
+		if nd.Tag != snapshot.ClipTag || nd.Parent < 0 || len(nd.Geom) != 4 || !(nd.Geom[2] > 0 && nd.Geom[3] > 0) {
+			continue
+		}
+		x, y, w, h := nd.Geom[0], nd.Geom[1], nd.Geom[2], nd.Geom[3]
+		m := snapshot.Matrix(nd.CTM)
+		b := [4]float64{math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)}
+		for _, p := range [4][2]float64{{x, y}, {x + w, y}, {x, y + h}, {x + w, y + h}} {
+			px, py := m.Apply(p[0], p[1])
+			b = [4]float64{min(b[0], px), min(b[1], py), max(b[2], px), max(b[3], py)}
+		}
+		if !finiteBox(b) {
+			continue
+		}
+		if own == nil {
+			own = map[int32][4]float64{}
+		}
+		if o, ok := own[nd.Parent]; ok {
+			b = meet(o, b)
+		}
+		own[nd.Parent] = b
+	}
+	if own == nil {
+		return nil, nil
+	}
+	boxes, clipped := make([][4]float64, len(s.Nodes)), make([]bool, len(s.Nodes))
+	for i := range s.Nodes {
+		if p := s.Nodes[i].Parent; p >= 0 && clipped[p] {
+			boxes[i], clipped[i] = boxes[p], true
+		}
+		if o, ok := own[int32(i)]; ok {
+			if clipped[i] {
+				o = meet(boxes[i], o)
+			}
+			boxes[i], clipped[i] = o, true
+		}
+	}
+	return boxes, clipped
+}
+
+// meet is the overlap of two boxes (x0 y0 x1 y1), which may be empty
+// (x0 > x1 or y0 > y1).
+func meet(a, b [4]float64) [4]float64 {
+	return [4]float64{max(a[0], b[0]), max(a[1], b[1]), min(a[2], b[2]), min(a[3], b[3])}
+}
+
+// outside reports whether a measured candidate lies wholly outside the
+// clip box, its stroke included: nothing of it is drawn. A text is
+// taken by its box where the browser measured one, else by its anchor.
+func outside(clip [4]float64, c *cand) bool {
+	b := c.g.BBox
+	if c.n.Tag == "text" {
+		b = [4]float64{c.textPos.X, c.textPos.Y, 0, 0}
+		if len(c.n.BBox) == 4 {
+			b = [4]float64{c.n.BBox[0], c.n.BBox[1], c.n.BBox[2], c.n.BBox[3]}
+		}
+	}
+	pad := c.strokeW / 2
+	return b[0]+b[2]+pad < clip[0] || b[0]-pad > clip[2] || b[1]+b[3]+pad < clip[1] || b[1]-pad > clip[3]
 }
 
 // collect makes the marks, the legend and the furniture counts of the

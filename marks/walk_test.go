@@ -120,3 +120,35 @@ func TestAxisBracketIsAxis(t *testing.T) {
 		})
 	}
 }
+
+// What a clip region leaves wholly outside is not drawn, so it is no
+// mark: a chart library parks its hover line left of the plot area in a
+// group clipped to it, and a zoomed chart leaves the points beyond its
+// axes in the markup. A mark the region cuts stays. The region is a
+// <clipPath> of one <rect>, named by the clip-path attribute or by a
+// style rule, with the <clipPath>'s and the <rect>'s transforms.
+func TestClippedOutIsNotDrawn(t *testing.T) {
+	const defs = `<defs><clipPath id="plot"><rect width="200" height="100"/></clipPath>` +
+		`<clipPath id="moved" transform="translate(100,0)"><rect width="100" height="100"/></clipPath>` +
+		`<clipPath id="box" clipPathUnits="objectBoundingBox"><rect width="0.5" height="1"/></clipPath>` +
+		`<clipPath id="left"><rect width="50" height="100"/></clipPath><clipPath id="right"><rect x="150" width="50" height="100"/></clipPath></defs>`
+	points := `<circle cx="20" cy="50" r="3"/><circle cx="120" cy="30" r="3"/><circle cx="199" cy="70" r="3"/><circle cx="260" cy="40" r="3"/><circle cx="90" cy="140" r="3"/>`
+	for name, c := range map[string]struct {
+		body          string
+		marks, hidden int
+	}{
+		"by the attribute": {`<g transform="translate(40,10)"><g clip-path="url(#plot)"><line x1="-10" x2="-10" y1="0" y2="100" stroke="#aaaaaa"/></g>` +
+			`<g clip-path="url(#plot)" fill="#3b6e8f">` + points + `</g></g>`, 3, 3},
+		"by a style rule":                            {`<style>.plot { clip-path: url("#plot") }</style><g transform="translate(40,10)"><g class="plot" fill="#3b6e8f">` + points + `</g></g>`, 3, 2},
+		"with the clip path's transform":             {`<g clip-path="url(#moved)" fill="#3b6e8f">` + points + `</g>`, 2, 3},
+		"in the bounding box's units, left as drawn": {`<g clip-path="url(#box)" fill="#3b6e8f">` + points + `</g>`, 5, 0},
+		"two regions that do not meet":               {`<g clip-path="url(#left)"><g clip-path="url(#right)" fill="#3b6e8f">` + points + `</g></g>`, 0, 5},
+		"unclipped":                                  {`<g fill="#3b6e8f">` + points + `</g>`, 5, 0},
+	} {
+		t.Run(name, func(t *testing.T) {
+			ch := walkPage(t, `<svg width="320" height="200">`+defs+c.body+`</svg>`)
+			assert.Len(t, ch.Marks, c.marks)
+			assert.Equal(t, c.hidden, ch.Furniture[RoleHidden])
+		})
+	}
+}

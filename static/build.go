@@ -546,7 +546,77 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 	if tag == "use" {
 		return b.expandUse(n, idx, name, st, ctm, useDepth)
 	}
+	if (tag == "g" || tag == "a") && useDepth == 0 {
+		if err := b.clipRegion(idx, name, st, ctm); err != nil {
+			return err
+		}
+	}
 	return b.addChildren(n, idx, name, st, ctm, useDepth)
+}
+
+// clipRegion adds the clip region of the group at idx as a node of its
+// own (snapshot.ClipTag) when its clip-path refers to a <clipPath> of one
+// <rect> in the group's user space, as charts clip their plot area; the
+// read pass does the same (extension/reader.js: ChartWalk.clip). Other
+// clip paths are left out: the group is then read as if unclipped.
+func (b *builder) clipRegion(idx int32, name string, st *computed, ctm snapshot.Matrix) error {
+	v := strings.TrimSpace(st.v[pClipPath])
+	if len(v) < 5 || !strings.EqualFold(v[:4], "url(") {
+		return nil
+	}
+	end := strings.IndexByte(v, ')')
+	if end < 0 {
+		return nil
+	}
+	ref := strings.Trim(strings.TrimSpace(v[4:end]), `'"`)
+	cp, ok := b.ids[strings.TrimPrefix(ref, "#")]
+	if !ok || !strings.HasPrefix(ref, "#") || !strings.EqualFold(cp.Data, "clippath") || strings.EqualFold(attr(cp, "clipPathUnits"), "objectBoundingBox") {
+		return nil
+	}
+	var rect *html.Node
+	for c := cp.FirstChild; c != nil; c = c.NextSibling {
+		if c.Type != html.ElementNode {
+			continue
+		}
+		if rect != nil || !strings.EqualFold(c.Data, "rect") {
+			return nil
+		}
+		rect = c
+	}
+	if rect == nil {
+		return nil
+	}
+	m := ctm
+	for _, e := range []*html.Node{cp, rect} {
+		if t := attr(e, "transform"); t != "" {
+			tm, err := ParseTransform(t)
+			if err != nil {
+				return nil
+			}
+			m = m.Mul(tm)
+		}
+	}
+	geom := make([]float64, 4)
+	for i, k := range []string{"x", "y", "width", "height"} {
+		if a := attr(rect, k); a != "" {
+			x, ok := length(a, 0)
+			if !ok {
+				return nil
+			}
+			geom[i] = x
+		}
+	}
+	for _, v := range append(geom, m[:]...) {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil
+		}
+	}
+	if err := b.count(0); err != nil {
+		return err
+	}
+	b.snap.Nodes = append(b.snap.Nodes, snapshot.Node{Parent: idx, Tag: snapshot.ClipTag, Name: name + ">" + snapshot.ClipTag,
+		Geom: geom, CTM: m, Opacity: 1, FillOpacity: 1, StrokeOpacity: 1})
+	return nil
 }
 
 // count enforces the caps and the deadline before a node is added.

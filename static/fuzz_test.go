@@ -117,6 +117,9 @@ func FuzzDocument(f *testing.F) {
 	// Colour schemes: a light-dark() kept in a custom property, nested
 	// color-scheme, the page's meta, and broken forms of each.
 	f.Add([]byte(`<html style="color-scheme: light dark"><head><meta name="color-scheme" content="dark only"><style>:root{--a:light-dark(var(--b,#123),light-dark(#fff,));--b:var(--a)}</style></head><body><figure style="color-scheme:dark"><svg><rect width="9" height="9" style="fill:var(--a)"/><rect width="9" height="9" style="fill:light-dark(#000)"/></svg></figure></body></html>`))
+	// Clip regions: by attribute and by rule, with transforms that
+	// overflow, lengths that are no numbers, and two that do not meet.
+	f.Add([]byte(`<style>.p{clip-path:url('#c')}</style><svg><defs><clipPath id="c" transform="scale(1e300)"><rect width="1e300" height="NaN"/></clipPath><clipPath id="d"><rect x="5" width="2" height="2"/></clipPath></defs><g class="p" transform="scale(1e300)"><g clip-path="url(#d)"><circle r="3"/></g></g><g clip-path="url(#missing)"><rect width="3" height="3"/></g></svg>`))
 	f.Fuzz(func(t *testing.T, b []byte) {
 		if len(b) > 1<<18 {
 			return

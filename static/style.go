@@ -30,6 +30,7 @@ const (
 	pWidth
 	pHeight
 	pColorScheme
+	pClipPath
 	nProps
 )
 
@@ -40,6 +41,7 @@ var propIndex = map[string]int{
 	"stop-color": pStopColor, "stop-opacity": pStopOpacity,
 	"background-color": pBackgroundColor, "background": pBackground,
 	"color-scheme": pColorScheme, "background-image": pBackgroundImage, "width": pWidth, "height": pHeight,
+	"clip-path": pClipPath,
 }
 
 // inherited marks the properties that inherit by default (SVG 2 property
@@ -57,7 +59,7 @@ var initial = [nProps]string{
 	pStrokeWidth: "1", pDisplay: "inline", pVisibility: "visible", pColor: "black",
 	pFontSize: "16px", pFontWeight: "400", pStopColor: "black", pStopOpacity: "1",
 	pBackgroundColor: "transparent", pBackground: "", pColorScheme: "normal",
-	pBackgroundImage: "none", pWidth: "auto", pHeight: "auto",
+	pBackgroundImage: "none", pWidth: "auto", pHeight: "auto", pClipPath: "none",
 }
 
 // computed is the computed style of one element: for each property its
