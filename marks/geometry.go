@@ -332,6 +332,15 @@ func (g *Geometry) classify() {
 	case len(corners) == 12 && solidity < 0.9 && !curved:
 		g.Shape, g.Fold = ShapeCross, 4
 		g.Angle = foldAngle(cornerPts, g.Centroid, 4, 0)
+	case curved && g.Area >= 0.9*g.BBox[2]*g.BBox[3] && solidity > 0.95:
+		// A rectangle with rounded corners, as some libraries draw bars:
+		// it fills nine tenths of its box, which no wedge does (a quarter
+		// disc fills 79% of its box, a circle as much).
+		box := []Point{{g.BBox[0], g.BBox[1]}, {g.BBox[0] + g.BBox[2], g.BBox[1]}, {g.BBox[0] + g.BBox[2], g.BBox[1] + g.BBox[3]}}
+		g.Shape, g.Fold = ShapeSquare, 4
+		if !squareish(box) {
+			g.Fold, g.Angle = 2, principalAngle(g.Subpaths, g.Centroid)
+		}
 	case curved && len(corners) >= 1 && len(corners) <= 4 && g.wedge(pts, corners):
 	default:
 		g.Angle = principalAngle(g.Subpaths, g.Centroid)

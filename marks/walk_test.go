@@ -152,3 +152,26 @@ func TestClippedOutIsNotDrawn(t *testing.T) {
 		})
 	}
 }
+
+// Bars drawn with rounded corners (paths of lines and arcs, as a chart
+// library draws its columns by default) are bars, not pie wedges, and
+// the line they stand on is their baseline. Wedges stay wedges.
+func TestRoundedBarsAreBars(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="400" height="300"><g>`)
+	for k, top := range []float64{94.5, 198.5, 33.5, 150.5, 120.5} {
+		x := 66.5 + 52*float64(k)
+		fill := "#8d96a0"
+		if k == 2 {
+			fill = "#b5473a"
+		}
+		fmt.Fprintf(&b, `<path fill="%s" d="M %g %g L %g %g A 3 3 0 0 1 %g %g L %g 269.5 A 0 0 0 0 1 %g 269.5 L %g 269.5 A 0 0 0 0 1 %g 269.5 L %g %g A 3 3 0 0 1 %g %g Z"/>`,
+			fill, x+3, top, x+23, top, x+26, top+3, x+26, x+26, x, x, x, top+3, x+3, top)
+	}
+	b.WriteString(`</g><path fill="none" stroke="#333333" d="M 60 270 L 330 270"/>`)
+	// Two pie wedges with arcs, for contrast.
+	b.WriteString(`<g fill="#3b6e8f"><path d="M350,60 L350,20 A40,40 0 0 1 390,60 Z"/><path d="M350,60 L390,60 A40,40 0 0 1 350,100 Z"/></g></svg>`)
+	ch := walkPage(t, b.String())
+	assert.Equal(t, map[Kind]int{KindBar: 5, KindArc: 2}, kinds(ch))
+	assert.Equal(t, 1, ch.Furniture[RoleAxis], "the line the bars stand on")
+}
