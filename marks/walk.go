@@ -534,6 +534,7 @@ func classifyFurniture(h *Heuristics, ch *Chart, cands []*cand) {
 	axisLines(h, segs, grid, tickEnds)
 	baselines(h, cands, segs)
 	spines(h, cands, segs)
+	gridEdges(h, segs)
 }
 
 // brackets: a long axis-aligned line with a short stub at each end, both
@@ -914,6 +915,54 @@ func spines(h *Heuristics, cands []*cand, segs []seg) {
 			}
 		}
 	}
+}
+
+// gridEdges: a line on the outermost gridline of its direction, end to
+// end with it, is an axis line (gridEdge).
+func gridEdges(h *Heuristics, segs []seg) {
+	var grid []seg
+	for _, s := range segs {
+		if s.c.role == RoleGridline {
+			grid = append(grid, s)
+		}
+	}
+	for _, s := range segs {
+		if s.c.role == RoleMark && gridEdge(h, s, grid) {
+			s.c.role = RoleAxis
+		}
+	}
+}
+
+// gridEdge: s lies on a gridline of its own direction, end to end, and no
+// parallel gridline lies beyond it: it is the axis line drawn over the
+// grid's outermost line, as libraries draw an axis without ticks (a
+// legend below the plot may keep it from being an edge of the marks). A
+// rule drawn there, end to end with the grid, would look the same.
+func gridEdge(h *Heuristics, s seg, grid []seg) bool {
+	tol := h.AlignTol + s.c.strokeW/2
+	pos := func(g seg) (at, a, b float64) {
+		if g.vert {
+			return g.a.X, g.a.Y, g.b.Y
+		}
+		return g.a.Y, g.a.X, g.b.X
+	}
+	at, a, b := pos(s)
+	on, before, after := false, 0, 0
+	for _, g := range grid {
+		if g.vert != s.vert {
+			continue
+		}
+		gat, ga, gb := pos(g)
+		switch d := gat - at; {
+		case math.Abs(d) <= tol && math.Abs(ga-a) <= tol && math.Abs(gb-b) <= tol:
+			on = true
+		case d < -tol:
+			before++
+		case d > tol:
+			after++
+		}
+	}
+	return on && (before == 0 || after == 0)
 }
 
 // alongEdge: s spans SpineMinSpan of the data's extent and has every

@@ -175,3 +175,23 @@ func TestRoundedBarsAreBars(t *testing.T) {
 	assert.Equal(t, map[Kind]int{KindBar: 5, KindArc: 2}, kinds(ch))
 	assert.Equal(t, 1, ch.Furniture[RoleAxis], "the line the bars stand on")
 }
+
+// A line drawn over the grid's outermost gridline, end to end with it,
+// is the axis line of a chart whose axes have no ticks, even with a
+// legend below it. A rule over a gridline inside the grid stays data.
+func TestLineOnTheGridEdgeIsAxis(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`<svg width="600" height="360"><g>`)
+	for _, y := range []float64{46.5, 102.5, 159.5, 216.5, 273.5} {
+		fmt.Fprintf(&b, `<path fill="none" stroke="#e6e6e6" d="M 64 %g L 590 %g"/>`, y, y)
+	}
+	b.WriteString(`</g><path fill="none" stroke="#333333" d="M 64 273.5 L 590 273.5"/>`)
+	b.WriteString(`<path fill="none" stroke="#c2410c" stroke-width="2" d="M 64 159.5 L 590 159.5"/>`)
+	b.WriteString(`<g fill="none" stroke-width="2"><path stroke="#3b6e8f" d="M 90 200 L 143 120 L 196 150 L 249 90 L 302 130 L 355 100"/>` +
+		`<path stroke="#5a9a4e" d="M 90 240 L 143 230 L 196 190 L 249 210 L 302 170 L 355 180"/></g>`)
+	b.WriteString(`<g font-size="12"><path stroke="#3b6e8f" stroke-width="2" d="M 256 331 L 270 331"/><text x="274" y="335">s1</text>` +
+		`<path stroke="#5a9a4e" stroke-width="2" d="M 310 331 L 324 331"/><text x="328" y="335">s2</text></g></svg>`)
+	ch := walkPage(t, b.String())
+	assert.Equal(t, 1, ch.Furniture[RoleAxis])
+	assert.Equal(t, map[Kind]int{KindLine: 2, KindRule: 1}, kinds(ch), "the two series and the rule across the middle")
+}
