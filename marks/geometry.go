@@ -332,19 +332,27 @@ func (g *Geometry) classify() {
 	case len(corners) == 12 && solidity < 0.9 && !curved:
 		g.Shape, g.Fold = ShapeCross, 4
 		g.Angle = foldAngle(cornerPts, g.Centroid, 4, 0)
-	case curved && g.Area >= 0.9*g.BBox[2]*g.BBox[3] && solidity > 0.95:
-		// A rectangle with rounded corners, as some libraries draw bars:
-		// it fills nine tenths of its box, which no wedge does (a quarter
-		// disc fills 79% of its box, a circle as much).
-		box := []Point{{g.BBox[0], g.BBox[1]}, {g.BBox[0] + g.BBox[2], g.BBox[1]}, {g.BBox[0] + g.BBox[2], g.BBox[1] + g.BBox[3]}}
-		g.Shape, g.Fold = ShapeSquare, 4
-		if !squareish(box) {
-			g.Fold, g.Angle = 2, principalAngle(g.Subpaths, g.Centroid)
-		}
+	case curved && solidity > 0.95 && g.roundedRect():
 	case curved && len(corners) >= 1 && len(corners) <= 4 && g.wedge(pts, corners):
 	default:
 		g.Angle = principalAngle(g.Subpaths, g.Centroid)
 	}
+}
+
+// roundedRect classifies a solid curved outline as a rectangle with
+// rounded corners, as some libraries draw bars, when it fills nine
+// tenths of its box, which no wedge does (a quarter disc fills 79% of its
+// box, a circle as much).
+func (g *Geometry) roundedRect() bool {
+	if g.Area < 0.9*g.BBox[2]*g.BBox[3] {
+		return false
+	}
+	box := []Point{{g.BBox[0], g.BBox[1]}, {g.BBox[0] + g.BBox[2], g.BBox[1]}, {g.BBox[0] + g.BBox[2], g.BBox[1] + g.BBox[3]}}
+	g.Shape, g.Fold = ShapeSquare, 4
+	if !squareish(box) {
+		g.Fold, g.Angle = 2, principalAngle(g.Subpaths, g.Centroid)
+	}
+	return true
 }
 
 // wedge classifies a curved outline with one to four corners as a wedge

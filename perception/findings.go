@@ -132,32 +132,40 @@ func findings(in Input, p Params, res *Result) []Finding {
 	return out
 }
 
+// noEmphasisFindings are the findings of a chart with no emphasis: when
+// it was to be inferred, either too many marks pop out for one of them to
+// be it, or none does.
+func noEmphasisFindings(in Input, res *Result) []Finding {
+	var out []Finding
+	var pops []int
+	for i := range in.Marks {
+		if res.Marks[i][0].Verdict == Pops {
+			pops = append(pops, i)
+		}
+	}
+	switch {
+	case !res.Inferred || len(in.Marks) <= 1:
+	case len(pops) > 0:
+		// Marks pop, but too many of them for one to be the place the
+		// eye goes first (inferEmphasis): say so, not that nothing
+		// stands out.
+		out = append(out, Finding{ID: "too-many-pop-out", Severity: Info, Marks: pops,
+			Message:  itoa(len(pops)) + " of the " + itoa(len(in.Marks)) + " marks " + plural(len(pops), "stands", "stand") + " out at a glance: too many to read as a highlight, so the eye has no one place to go first. If the chart means to highlight something, set only that apart, and let the rest share one look.",
+			Evidence: itoa(len(pops)) + " of " + itoa(len(in.Marks)) + " marks differ from the rest by the pop-out margin; an emphasis is taken to be at most a third of a chart's marks.",
+			Source:   srcSearch})
+	default:
+		out = append(out, Finding{ID: "no-standout-mark", Severity: Info,
+			Message:  "Nothing in this chart draws the eye before the reader looks for it. If it means to highlight something, give that a colour, size or shape no other mark shares.",
+			Evidence: "No mark or small group differs from the rest by the pop-out margin in any channel.", Source: srcSearch})
+	}
+	return out
+}
+
 func emphasisFindings(in Input, p Params, res *Result) []Finding {
 	var out []Finding
 	em := res.Emphasis
 	if len(em) == 0 {
-		var pops []int
-		for i := range in.Marks {
-			if res.Marks[i][0].Verdict == Pops {
-				pops = append(pops, i)
-			}
-		}
-		switch {
-		case !res.Inferred || len(in.Marks) <= 1:
-		case len(pops) > 0:
-			// Marks pop, but too many of them for one to be the place the
-			// eye goes first (inferEmphasis): say so, not that nothing
-			// stands out.
-			out = append(out, Finding{ID: "too-many-pop-out", Severity: Info, Marks: pops,
-				Message:  itoa(len(pops)) + " of the " + itoa(len(in.Marks)) + " marks " + plural(len(pops), "stands", "stand") + " out at a glance: too many to read as a highlight, so the eye has no one place to go first. If the chart means to highlight something, set only that apart, and let the rest share one look.",
-				Evidence: itoa(len(pops)) + " of " + itoa(len(in.Marks)) + " marks differ from the rest by the pop-out margin; an emphasis is taken to be at most a third of a chart's marks.",
-				Source:   srcSearch})
-		default:
-			out = append(out, Finding{ID: "no-standout-mark", Severity: Info,
-				Message:  "Nothing in this chart draws the eye before the reader looks for it. If it means to highlight something, give that a colour, size or shape no other mark shares.",
-				Evidence: "No mark or small group differs from the rest by the pop-out margin in any channel.", Source: srcSearch})
-		}
-		return out
+		return noEmphasisFindings(in, res)
 	}
 	who := "The emphasised " + plural(len(em), "mark", "marks")
 	if res.Inferred {
