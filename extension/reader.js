@@ -311,6 +311,9 @@
   // parents whose CTM they then share: groups.
   // The style of a clip region's node: no paint, nothing hidden.
   const CLIP_STYLE = Object.freeze([0, 0, 0, 1, 1, 1, 0, 0, 0]);
+  // The overflow values with which an <svg> clips what lies outside it
+  // (auto is visible for an <svg>).
+  const VIEWPORT_CLIPS = new Set(['hidden', 'clip', 'scroll']);
   const PLAIN_TAGS = new Set(['g', 'a', 'circle', 'ellipse', 'rect', 'line', 'polyline', 'polygon', 'path', 'text']);
   const GROUP_TAGS = new Set(['g', 'a']);
 
@@ -767,12 +770,28 @@
       if (['x', 'y', 'width', 'height'].some((k) => (rect.getAttribute(k) || '').includes('%'))) return;
       const g = [];
       geometry(rect, 'rect', g, 0, 0);
+      this.clipNode(idx, g.slice(1, 5), mul(mul(m, ownTransform(cp)), ownTransform(rect)));
+    }
+
+    // viewportClip writes the box of the chart's outermost <svg> (at idx)
+    // as its clip region when the <svg> clips what is drawn outside it,
+    // as browsers' own style sheet has it do (static/build.go:
+    // clipsOverflow).
+    viewportClip(el, idx) {
+      const cs = getComputedStyle(el);
+      if (!VIEWPORT_CLIPS.has(cs.overflowX) || !VIEWPORT_CLIPS.has(cs.overflowY)) return;
+      const r = el.getBoundingClientRect();
+      this.clipNode(idx, [r.left + this.sx, r.top + this.sy, r.width, r.height], IDENTITY);
+    }
+
+    // clipNode writes a clip region, x y width height mapped to page px by
+    // m, as a child of the node at idx.
+    clipNode(idx, rect, m) {
       this.count(0);
       const w = this.w;
-      const cm = mul(mul(m, ownTransform(cp)), ownTransform(rect));
-      const ci = w.begin(idx, C.CLIP_TAG, NAME_USE, cm);
-      const has = w.style(CLIP_STYLE) | w.ctm(ci, cm);
-      w.nodes.push(4, g[1], g[2], g[3], g[4]);
+      const ci = w.begin(idx, C.CLIP_TAG, NAME_USE, m);
+      const has = w.style(CLIP_STYLE) | w.ctm(ci, m);
+      w.nodes.push(4, rect[0], rect[1], rect[2], rect[3]);
       w.end(has | HAS_GEOM);
     }
 
@@ -852,6 +871,9 @@
     const box = svg.getBoundingClientRect();
     const walk = new ChartWalk(svg, path, root, off, emphasis, share, budget);
     walk.add(svg, -1, 0, null, null, 0);
+    // The <svg>'s own clip region comes last, so that the elements keep
+    // their places.
+    walk.viewportClip(svg, 0);
     const title = chartTitle(svg, heading, caches.captions);
     return walk.w.snapshot(svg.ownerDocument.location.href, title, anchorOf(svg, caches.anchors), [box.left + off[0], box.top + off[1], box.width, box.height], background(svg, caches.canvas));
   }

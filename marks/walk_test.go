@@ -195,3 +195,15 @@ func TestLineOnTheGridEdgeIsAxis(t *testing.T) {
 	assert.Equal(t, 1, ch.Furniture[RoleAxis])
 	assert.Equal(t, map[Kind]int{KindLine: 2, KindRule: 1}, kinds(ch), "the two series and the rule across the middle")
 }
+
+// A chart's outermost <svg> clips what lies outside its box, as
+// browsers' own style sheet has it, unless its overflow is made visible.
+func TestOutsideTheDrawingIsNotDrawn(t *testing.T) {
+	points := `<g fill="#3b6e8f"><circle cx="20" cy="50" r="4"/><circle cx="60" cy="40" r="4"/><circle cx="100" cy="60" r="4"/><circle cx="500" cy="50" r="4"/><circle cx="-30" cy="50" r="4"/></g>`
+	for style, want := range map[string]int{"": 3, "overflow: hidden": 3, "overflow: visible": 5, "overflow: auto": 5} {
+		ch := walkPage(t, `<svg width="200" height="100" style="`+style+`">`+points+`</svg>`)
+		assert.Len(t, ch.Marks, want, "style %q", style)
+	}
+	ch := walkPage(t, `<svg width="200" height="100" overflow="visible">`+points+`</svg>`)
+	assert.Len(t, ch.Marks, 5, "the presentation attribute")
+}

@@ -112,13 +112,16 @@ const (
 )
 
 // ClipTag tags a node that is no element but the clip region of its
-// parent, a group (<g> or <a>) whose clip-path refers to a <clipPath> of
-// one <rect> in the group's user space: Geom holds the rectangle's x, y,
-// width and height, which CTM maps to page CSS px (the group's CTM, with
-// the <clipPath>'s and the <rect>'s own transforms). It follows the group
-// as its first child, named the group's name and ">#clip". No element's
-// local name can begin with "#". Both ways in write it; Walk sets aside
-// what lies wholly outside a region that clips it.
+// parent: a group (<g> or <a>) whose clip-path refers to a <clipPath> of
+// one <rect> in the group's user space, or the chart's outermost <svg>
+// when its overflow clips what lies outside its box (as browsers' own
+// style sheet has it). Geom holds the rectangle's x, y, width and height,
+// which CTM maps to page CSS px: for a group, the group's CTM with the
+// <clipPath>'s and the <rect>'s own transforms; for the <svg>, its Box
+// with the identity. It follows a group as its first child, and comes
+// last for the <svg>, named its parent's name and ">#clip". No element's local name can begin with
+// "#". Both ways in write it; Walk sets aside what lies wholly outside a
+// region that clips it.
 const ClipTag = "#clip"
 
 // Paint is a computed fill or stroke.

@@ -356,6 +356,13 @@ func (b *builder) chart(svg *html.Node, path string) (*snapshot.Snapshot, error)
 	if err := b.addNode(svg, -1, path, st, snapshot.IdentityMatrix, ctm, 0); err != nil {
 		return nil, err
 	}
+	// The <svg>'s own clip region comes last, so that the elements keep
+	// their places.
+	if clipsOverflow(st.v[pOverflow]) {
+		if err := b.addClip(0, path, snap.Box[:], snapshot.IdentityMatrix); err != nil {
+			return nil, err
+		}
+	}
 	return snap, nil
 }
 
@@ -606,7 +613,13 @@ func (b *builder) clipRegion(idx int32, name string, st *computed, ctm snapshot.
 			geom[i] = x
 		}
 	}
-	for _, v := range append(geom, m[:]...) {
+	return b.addClip(idx, name, geom, m)
+}
+
+// addClip adds a clip region (x y width height, mapped to page px by m)
+// as a child of the node at idx, unless a value is not finite.
+func (b *builder) addClip(idx int32, name string, rect []float64, m snapshot.Matrix) error {
+	for _, v := range append(append([]float64(nil), rect...), m[:]...) {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			return nil
 		}
@@ -615,8 +628,25 @@ func (b *builder) clipRegion(idx int32, name string, st *computed, ctm snapshot.
 		return err
 	}
 	b.snap.Nodes = append(b.snap.Nodes, snapshot.Node{Parent: idx, Tag: snapshot.ClipTag, Name: name + ">" + snapshot.ClipTag,
-		Geom: geom, CTM: m, Opacity: 1, FillOpacity: 1, StrokeOpacity: 1})
+		Geom: append([]float64(nil), rect...), CTM: m, Opacity: 1, FillOpacity: 1, StrokeOpacity: 1})
 	return nil
+}
+
+// clipsOverflow says whether a chart's outermost <svg> clips what is
+// drawn outside its box, by its overflow: browsers' own style sheet
+// gives it hidden, which an author may make visible (auto, for an <svg>,
+// means visible too). With two values, both must clip.
+func clipsOverflow(v string) bool {
+	f := strings.Fields(strings.ToLower(v))
+	if len(f) == 0 {
+		return true
+	}
+	for _, t := range f {
+		if t != "hidden" && t != "clip" && t != "scroll" {
+			return false
+		}
+	}
+	return true
 }
 
 // count enforces the caps and the deadline before a node is added.

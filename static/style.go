@@ -31,6 +31,7 @@ const (
 	pHeight
 	pColorScheme
 	pClipPath
+	pOverflow
 	nProps
 )
 
@@ -41,7 +42,7 @@ var propIndex = map[string]int{
 	"stop-color": pStopColor, "stop-opacity": pStopOpacity,
 	"background-color": pBackgroundColor, "background": pBackground,
 	"color-scheme": pColorScheme, "background-image": pBackgroundImage, "width": pWidth, "height": pHeight,
-	"clip-path": pClipPath,
+	"clip-path": pClipPath, "overflow": pOverflow,
 }
 
 // inherited marks the properties that inherit by default (SVG 2 property
@@ -113,7 +114,7 @@ func (a prio) less(b prio) bool {
 
 // presentation lists the SVG presentation attributes the cascade reads.
 var presentation = []string{"fill", "stroke", "fill-opacity", "stroke-opacity", "opacity", "stroke-width",
-	"display", "visibility", "color", "font-size", "font-weight", "clip-path", "mask", "stop-color", "stop-opacity", "pointer-events"}
+	"display", "visibility", "color", "font-size", "font-weight", "clip-path", "mask", "stop-color", "stop-opacity", "pointer-events", "overflow"}
 
 // compute returns n's computed style given its parent's (nil for the root).
 // Inline-style parse errors are recorded as problems.
