@@ -462,12 +462,14 @@ func demoPage(t testing.TB) []byte {
 func TestE2EOverlayMatchesStaticPath(t *testing.T) { suiteOverlayMatchesStaticPath(t, newHarness(t)) }
 
 func suiteOverlayMatchesStaticPath(t *testing.T, h e2eBrowser) {
-	// On the demo page and on a fixture of rotated, skewed, nested and
-	// <use>-instantiated shapes: every outline sits on its mark's
-	// getBoundingClientRect within 1 px (the read pass measures only text
-	// and paths; the core computes the other boxes), and the verdicts are
-	// the static path's.
+	// On the demo page, on a fixture of rotated, skewed, nested and
+	// <use>-instantiated shapes, and on one of marks its clip regions
+	// leave out: every outline sits on its mark's getBoundingClientRect
+	// within 1 px (the read pass measures only text and paths; the core
+	// computes the other boxes), and the verdicts are the static path's.
 	transforms, err := os.ReadFile("../testdata/transforms.svg")
+	require.NoError(t, err)
+	clipped, err := os.ReadFile("../testdata/clipped.html")
 	require.NoError(t, err)
 	pages := []struct {
 		name   string
@@ -476,6 +478,7 @@ func suiteOverlayMatchesStaticPath(t *testing.T, h e2eBrowser) {
 	}{
 		{"demo", demoPage(t), 3},
 		{"transforms", []byte(`<!doctype html><html><body style="margin:0">` + string(transforms) + `</body></html>`), 1},
+		{"clipped", clipped, 1},
 	}
 	for _, pg := range pages {
 		showPage(h, string(pg.body))
