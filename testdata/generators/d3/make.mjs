@@ -171,6 +171,51 @@ function donutLegend() {
   save("donut-legend.svg", svg, { arc: parts.length }, parts.map((p) => p[1]), parts.length);
 }
 
+// Invented monthly ferry crossings as columns with rounded tops (paths of
+// lines and arcs), one in its own colour, on D3's own axes: the line
+// along each axis is a bracket with the outer ticks at its ends, and the
+// value axis's ticks run across the plot as gridlines.
+function barsD3Axes() {
+  const svg = svgRoot();
+  const months = d3.range(12);
+  const x = d3.scaleBand(months, [margin.left, W - margin.right]).padding(0.25);
+  const y = d3.scaleLinear([0, 100], [H - margin.bottom, margin.top]);
+  svg.append("g").attr("transform", `translate(0,${H - margin.bottom})`).call(d3.axisBottom(x).tickFormat((m) => `m${m + 1}`));
+  svg.append("g").attr("transform", `translate(${margin.left},0)`).call(d3.axisLeft(y).ticks(5).tickSizeInner(-(W - margin.left - margin.right)))
+    .call((g) => g.selectAll(".tick line").attr("stroke", "#dddddd"));
+  const colours = months.map((m) => (m === 7 ? FLARE : ASH));
+  const r = 4;
+  svg.append("g").selectAll("path").data(months).join("path")
+    .attr("d", (m) => {
+      const [x0, w, top, base] = [x(m), x.bandwidth(), y(between(25, 95)), y(0)];
+      return `M${x0},${base}V${top + r}A${r},${r},0,0,1,${x0 + r},${top}H${x0 + w - r}A${r},${r},0,0,1,${x0 + w},${top + r}V${base}Z`;
+    })
+    .attr("fill", (m) => colours[m]);
+  save("bars-d3axes.svg", svg, { bar: 12 }, colours, 0, FLARE);
+}
+
+// Invented tide readings zoomed to the morning: the plot area is clipped
+// (a <clipPath> of one <rect>), and the readings outside the zoomed
+// domain stay in the markup, drawn outside it; a hover line waits left of
+// the plot, inside the clipped group. The truth counts the readings
+// inside the domain.
+function scatterZoomed() {
+  const svg = svgRoot();
+  const x = d3.scaleLinear([6, 12], [margin.left, W - margin.right]);
+  const y = d3.scaleLinear([0, 4], [H - margin.bottom, margin.top]);
+  svg.append("g").attr("transform", `translate(0,${H - margin.bottom})`).call(d3.axisBottom(x));
+  svg.append("g").attr("transform", `translate(${margin.left},0)`).call(d3.axisLeft(y).ticks(4));
+  svg.append("defs").append("clipPath").attr("id", "plot-area").append("rect")
+    .attr("x", margin.left).attr("y", margin.top).attr("width", W - margin.left - margin.right).attr("height", H - margin.top - margin.bottom);
+  const plot = svg.append("g").attr("clip-path", "url(#plot-area)");
+  plot.append("line").attr("x1", margin.left - 10).attr("x2", margin.left - 10).attr("y1", margin.top).attr("y2", H - margin.bottom).attr("stroke", "#aaaaaa");
+  const readings = d3.range(80).map((i) => [i * 0.25, between(0.5, 3.5)]);
+  const inside = readings.filter(([h]) => h >= 6 && h <= 12);
+  plot.append("g").attr("fill", SLATE).selectAll("circle").data(readings).join("circle")
+    .attr("cx", ([h]) => x(h).toFixed(2)).attr("cy", ([, v]) => y(v).toFixed(2)).attr("r", 4);
+  save("scatter-zoomed.svg", svg, { dot: inside.length }, inside.map(() => SLATE));
+}
+
 wellScatter("scatter-spines.svg", 100, (i) => i % 9 === 4);
 wellScatter("scatter-one.svg", 120, (i) => i === 57);
 linesLegend();
@@ -178,4 +223,6 @@ barsLegend();
 bubbles();
 heatmapBar();
 donutLegend();
+barsD3Axes();
+scatterZoomed();
 writeFileSync(join(out, "truth.json"), JSON.stringify({ generator: "d3 7.9.0 under jsdom 24.1.3", charts: truth }, null, 1) + "\n");
