@@ -796,11 +796,11 @@ func throughCentres(h *Heuristics, s seg, cands []*cand) int {
 
 // ticksAndGridlines gives the grouped segments their roles: short ones are
 // ticks, long ones gridlines, unless most of a group's long segments pass
-// through the centres of data shapes, which the group then connects (the
-// stems of a lollipop chart). A group decides as one: a gridline among
-// lined-up siblings whose ends happen to meet two scattered points stays
-// a gridline. It reports which segments are ticks or gridlines, and the
-// ticks' ends.
+// through the centres of two data shapes each, which the group then
+// connects (a dumbbell chart's connectors). A group decides as one: a
+// gridline among lined-up siblings whose ends happen to meet two
+// scattered points stays a gridline. It reports which segments are ticks
+// or gridlines, and the ticks' ends.
 func ticksAndGridlines(h *Heuristics, cands []*cand, segs []seg, group []int) (grid []bool, tickEnds []Point) {
 	long, through := map[int]int{}, map[int]int{}
 	for i, s := range segs {
