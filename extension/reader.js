@@ -305,15 +305,16 @@
 
   const STYLE_ATTR_SET = new Set(STYLE_ATTRS);
 
-  // The elements whose CTM is their parent's when they have no transform
-  // of their own (the shapes, text and groups; not <use>, whose x and y
-  // place its content, nor viewports or what is not rendered), and the
-  // parents whose CTM they then share: groups.
   // The style of a clip region's node: no paint, nothing hidden.
   const CLIP_STYLE = Object.freeze([0, 0, 0, 1, 1, 1, 0, 0, 0]);
   // The overflow values with which an <svg> clips what lies outside it
   // (auto is visible for an <svg>).
   const VIEWPORT_CLIPS = new Set(['hidden', 'clip', 'scroll']);
+
+  // The elements whose CTM is their parent's when they have no transform
+  // of their own (the shapes, text and groups; not <use>, whose x and y
+  // place its content, nor viewports or what is not rendered), and the
+  // parents whose CTM they then share: groups.
   const PLAIN_TAGS = new Set(['g', 'a', 'circle', 'ellipse', 'rect', 'line', 'polyline', 'polygon', 'path', 'text']);
   const GROUP_TAGS = new Set(['g', 'a']);
 
@@ -773,20 +774,22 @@
       this.clipNode(idx, g.slice(1, 5), mul(mul(m, ownTransform(cp)), ownTransform(rect)));
     }
 
-    // viewportClip writes the box of the chart's outermost <svg> (at idx)
-    // as its clip region when the <svg> clips what is drawn outside it,
+    // viewportClip writes the box of the chart's outermost <svg> (at idx,
+    // in page px) as its clip region when the <svg> clips what is drawn
+    // outside it,
     // as browsers' own style sheet has it do (static/build.go:
     // clipsOverflow).
-    viewportClip(el, idx) {
+    viewportClip(el, idx, box) {
       const cs = getComputedStyle(el);
-      if (!VIEWPORT_CLIPS.has(cs.overflowX) || !VIEWPORT_CLIPS.has(cs.overflowY)) return;
-      const r = el.getBoundingClientRect();
-      this.clipNode(idx, [r.left + this.sx, r.top + this.sy, r.width, r.height], IDENTITY);
+      if (VIEWPORT_CLIPS.has(cs.overflowX) && VIEWPORT_CLIPS.has(cs.overflowY)) this.clipNode(idx, box, IDENTITY);
     }
 
     // clipNode writes a clip region, x y width height mapped to page px by
     // m, as a child of the node at idx.
     clipNode(idx, rect, m) {
+      // A transform that overflows leaves the group unclipped, as the
+      // static builder does; JSON has no infinity.
+      if (!rect.every(Number.isFinite) || !m.every(Number.isFinite)) return;
       this.count(0);
       const w = this.w;
       const ci = w.begin(idx, C.CLIP_TAG, NAME_USE, m);
@@ -868,14 +871,15 @@
   // paths, whose extent only the browser knows (the walk computes the
   // other shapes' boxes from their geometry, as the browser does).
   function readChart(svg, path, root, off, emphasis, share, budget, heading, caches) {
-    const box = svg.getBoundingClientRect();
+    const r = svg.getBoundingClientRect();
+    const box = [r.left + off[0], r.top + off[1], r.width, r.height];
     const walk = new ChartWalk(svg, path, root, off, emphasis, share, budget);
     walk.add(svg, -1, 0, null, null, 0);
     // The <svg>'s own clip region comes last, so that the elements keep
     // their places.
-    walk.viewportClip(svg, 0);
+    walk.viewportClip(svg, 0, box);
     const title = chartTitle(svg, heading, caches.captions);
-    return walk.w.snapshot(svg.ownerDocument.location.href, title, anchorOf(svg, caches.anchors), [box.left + off[0], box.top + off[1], box.width, box.height], background(svg, caches.canvas));
+    return walk.w.snapshot(svg.ownerDocument.location.href, title, anchorOf(svg, caches.anchors), box, background(svg, caches.canvas));
   }
 
   const PLAIN_IDENT = /^[A-Za-z_][A-Za-z0-9_-]*$/;
