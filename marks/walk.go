@@ -510,13 +510,11 @@ func straight(g *Geometry) (Point, Point, bool) {
 	}
 	pts := g.Subpaths[0].Pts
 	a, b := pts[0], pts[len(pts)-1]
-	L := math.Hypot(b.X-a.X, b.Y-a.Y)
-	if L == 0 {
+	if a == b {
 		return a, b, false
 	}
 	for _, p := range pts[1 : len(pts)-1] {
-		d := math.Abs((b.X-a.X)*(a.Y-p.Y)-(a.X-p.X)*(b.Y-a.Y)) / L
-		if d > 0.5 {
+		if !collinear(a, b, p) {
 			return a, b, false
 		}
 	}
