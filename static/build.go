@@ -567,17 +567,12 @@ func (b *builder) addNode(n *html.Node, parent int32, name string, st *computed,
 // read pass does the same (extension/reader.js: ChartWalk.clip). Other
 // clip paths are left out: the group is then read as if unclipped.
 func (b *builder) clipRegion(idx int32, name string, st *computed, ctm snapshot.Matrix) error {
-	v := strings.TrimSpace(st.v[pClipPath])
-	if len(v) < 5 || !strings.EqualFold(v[:4], "url(") {
+	ref, _, ok := urlRef(strings.TrimSpace(st.v[pClipPath]))
+	if !ok || !strings.HasPrefix(ref, "#") {
 		return nil
 	}
-	end := strings.IndexByte(v, ')')
-	if end < 0 {
-		return nil
-	}
-	ref := strings.Trim(strings.TrimSpace(v[4:end]), `'"`)
-	cp, ok := b.ids[strings.TrimPrefix(ref, "#")]
-	if !ok || !strings.HasPrefix(ref, "#") || !strings.EqualFold(cp.Data, "clippath") || strings.EqualFold(attr(cp, "clipPathUnits"), "objectBoundingBox") {
+	cp, ok := b.ids[ref[1:]]
+	if !ok || !strings.EqualFold(cp.Data, "clippath") || strings.EqualFold(attr(cp, "clipPathUnits"), "objectBoundingBox") {
 		return nil
 	}
 	var rect *html.Node
@@ -619,10 +614,8 @@ func (b *builder) clipRegion(idx int32, name string, st *computed, ctm snapshot.
 // addClip adds a clip region (x y width height, mapped to page px by m)
 // as a child of the node at idx, unless a value is not finite.
 func (b *builder) addClip(idx int32, name string, rect []float64, m snapshot.Matrix) error {
-	for _, v := range append(append([]float64(nil), rect...), m[:]...) {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return nil
-		}
+	if !allFinite(rect) || !allFinite(m[:]) {
+		return nil
 	}
 	if err := b.count(0); err != nil {
 		return err
@@ -683,13 +676,21 @@ func (b *builder) nodeCTM(n *html.Node, tag string, parent int32, name string, c
 		}
 	}
 	ctm = ctm.Mul(inner)
-	for _, v := range ctm {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: the accumulated transform overflows; the element is not drawn", name))
-			return snapshot.IdentityMatrix, snapshot.Matrix{}
-		}
+	if !allFinite(ctm[:]) {
+		b.snap.Problems = append(b.snap.Problems, fmt.Sprintf("%s: the accumulated transform overflows; the element is not drawn", name))
+		return snapshot.IdentityMatrix, snapshot.Matrix{}
 	}
 	return ctm, inner
+}
+
+// allFinite says whether no value is NaN or infinite.
+func allFinite(vs []float64) bool {
+	for _, v := range vs {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return false
+		}
+	}
+	return true
 }
 
 // styledNode is a node with the computed paint, opacities, stroke width
@@ -888,12 +889,10 @@ func (b *builder) paint(v string, st *computed, name string) snapshot.Paint {
 		return snapshot.Paint{}
 	}
 	if strings.HasPrefix(lv, "url(") {
-		end := strings.IndexByte(v, ')')
-		if end < 0 {
+		ref, fallback, ok := urlRef(v)
+		if !ok {
 			return snapshot.Paint{}
 		}
-		ref := strings.Trim(strings.TrimSpace(v[4:end]), `'"`)
-		fallback := strings.TrimSpace(v[end+1:])
 		if p, ok := b.server(ref, st, name); ok {
 			return p
 		}
@@ -909,6 +908,20 @@ func (b *builder) paint(v string, st *computed, name string) snapshot.Paint {
 		return snapshot.Paint{}
 	}
 	return snapshot.Paint{Kind: snapshot.PaintColour, RGBA: snapshot.RGBA(c)}
+}
+
+// urlRef splits a value that begins with url(…) (in any case) into the
+// reference it holds, unquoted, and what follows it, such as a paint's
+// fallback; ok is false for any other value, or one without its ")".
+func urlRef(v string) (ref, rest string, ok bool) {
+	if len(v) < 4 || !strings.EqualFold(v[:4], "url(") {
+		return "", "", false
+	}
+	end := strings.IndexByte(v, ')')
+	if end < 0 {
+		return "", "", false
+	}
+	return strings.Trim(strings.TrimSpace(v[4:end]), `'"`), strings.TrimSpace(v[end+1:]), true
 }
 
 // server resolves a gradient or pattern to the colours it paints.
