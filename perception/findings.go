@@ -136,6 +136,9 @@ func findings(in Input, p Params, res *Result) []Finding {
 // it was to be inferred, either too many marks pop out for one of them to
 // be it, or none does.
 func noEmphasisFindings(in Input, res *Result) []Finding {
+	if !res.Inferred || len(in.Marks) <= 1 {
+		return nil
+	}
 	var out []Finding
 	var pops []int
 	for i := range in.Marks {
@@ -144,7 +147,6 @@ func noEmphasisFindings(in Input, res *Result) []Finding {
 		}
 	}
 	switch {
-	case !res.Inferred || len(in.Marks) <= 1:
 	case len(pops) > 0:
 		// Marks pop, but too many of them for one to be the place the
 		// eye goes first (inferEmphasis): say so, not that nothing
