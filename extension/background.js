@@ -1,73 +1,23 @@
-// The extension's background: it runs the Go core (WebAssembly) under the
-// extension's own CSP, so pages with strict CSPs are checked too. Nothing
-// here is needed between events: if the browser stops the background (a
-// service worker in Chromium, an event page in Firefox: platform.js), the
-// next event loads the core again. The only state kept between events is
-// a screenshot waiting for its export page, for a few seconds.
-import './wasm_exec.js';
+// The extension's background: it reads the page and runs the Go core
+// (WebAssembly, core.js) under the extension's own CSP, so pages with
+// strict CSPs are checked too. Nothing here is needed between events: if
+// the browser stops the background (a service worker in Chromium, an
+// event page in Firefox: platform.js), the next event loads the core
+// again. The only state kept between events is a screenshot waiting for
+// its export page, for a few seconds.
 import { captureTab, ext, keepsOptimisedCode } from './platform.js';
-import { restoreFindFuncTable } from './findfunc.js';
+import { readMark, requests, startTraining, trainedAlready, writeMark } from './core.js';
 import './patch.js';
 
-// The two builds of the Go core (extension/build.go): the overlay core
-// answers every press and re-check; the report core, which adds the
-// report's formats, is loaded for the first export only.
-const CORES = {
-  overlay: { file: 'standout.wasm', handle: 'standoutHandle', promise: null },
-  report: { file: 'standout-report.wasm', handle: 'standoutReport', promise: null },
-};
-
-// loadCore instantiates a core once per service-worker lifetime and
-// resolves to how long that took (0 when it was already running). When
-// the Go program exits (it never should; a wasm memory that cannot grow
-// ends it), its handle is dropped so that the next check loads a fresh
-// core instead of failing in every tab.
-function loadCore(core = CORES.overlay) {
-  if (globalThis[core.handle]) return Promise.resolve(0);
-  if (!core.promise) {
-    const t0 = performance.now();
-    core.promise = (async () => {
-      const go = new Go();
-      // The collector runs between requests only, or within one when the
-      // heap reaches 256 MiB (wasm/main_js.go).
-      go.env = { GOGC: 'off', GOMEMLIMIT: '256MiB' };
-      const url = ext.runtime.getURL(core.file);
-      const { module, instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
-      restoreFindFuncTable(module, instance);
-      go.run(instance).finally(() => dropCore(core)); // settles only when Go exits
-      for (let i = 0; i < 200 && !globalThis[core.handle]; i++) {
-        await new Promise((r) => setTimeout(r, 5));
-      }
-      if (!globalThis[core.handle]) throw new Error('the Standout core did not start');
-      return performance.now() - t0;
-    })().catch((e) => {
-      core.promise = null;
-      throw e;
-    });
-  }
-  return core.promise;
+// core asks the core for one of its requests (core.js: requests) and
+// resolves to the answer.
+async function core(op, ...args) {
+  return requests[op](...args);
 }
 
-function dropCore(core) {
-  globalThis[core.handle] = undefined;
-  core.promise = null;
-  if (core === CORES.overlay) trainer.handle = null;
-}
-
-// callCore runs one request in a core, the readings of frames of other
-// origins after the page. A core that has exited is reloaded once and the
-// request run again.
-async function callCore(core, options, page, frames = []) {
-  for (let attempt = 0; ; attempt++) {
-    await loadCore(core);
-    try {
-      return globalThis[core.handle](options, page, ...frames);
-    } catch (e) {
-      if (attempt > 0 || !/exited|not a function|standoutHandle|standoutReport/i.test(String((e && e.message) || e))) throw e;
-      dropCore(core);
-    }
-  }
-}
+// The core trains in Chromium, where V8 keeps its optimised code for the
+// next load (core.js: train).
+if (keepsOptimisedCode) startTraining();
 
 const SCRIPTS = ['constants.js', 'cvd-filters.js', 'reader.js', 'machine.js', 'patch.js', 'overlay.js'];
 
@@ -159,147 +109,16 @@ function readInPage(theirs) {
 // error is never kept.
 let lastCheck = null;
 
-// The overlay core is trained after a slow check. Chromium keeps a
-// module's optimised code for its next load, in the service worker too,
-// but only once V8 has optimised about a megabyte of its code, and V8
-// optimises a function only after it has run a good while: without
-// training, a check after the worker was stopped (half a minute idle) or
-// after the browser restarts runs unoptimised until eight or so checks of
-// a 5,000-mark chart have run in one worker (DEVELOPERS.md). So after a
-// check that took the core TRAIN_MIN_MS or more, the background runs its
-// request again, fresh (nothing recalled or kept: wasm/charts.go), a task
-// at a time while the reader reads the answer, until TRAIN_BUDGET_MS of
-// core time is spent in this worker (and as much again for a slow check
-// after the training at the install, trainAtInstall). A press stops it,
-// and it takes up again after the press's answer (analyse), on that
-// check's request when it was slow too, else on the one it ran before.
-// The first run tells whether the core was optimised already (loaded from
-// Chromium's cache): when it is not twice as fast as the slow check,
-// training ends there. Only Chromium's service worker trains
-// (platform.js). The tests and the benchmark read its state in
-// standoutTraining, on the worker's global object.
-const TRAIN_MIN_MS = 100;
-const TRAIN_DELAY_MS = 500;
-const TRAIN_GAP_MS = 20;
-const TRAIN_BUDGET_MS = 2000;
-const TRAIN_MAX_REQUESTS = 400;
-// trainer is this worker's training so far. slowMs is the first slow
-// check's core time (Infinity for the install's page), 0 until there is
-// one, and work the last slow check's request, which training runs
-// (its pages in turn: the install's training has two).
-// handle is the core's handle as the first run found it, kept until the
-// core is dropped: training runs the core it was loaded for, whatever a
-// test puts in the global afterwards.
-const trainer = { done: !keepsOptimisedCode, slowMs: 0, work: null, handle: null, requests: 0, spentMs: 0, stops: 0, run: null };
-// serving counts the presses between their start and their answer
-// (analyse): training waits for none to be left.
-let serving = 0;
-
-function train(checkMs, options, pages, frames, delayMs = TRAIN_DELAY_MS) {
-  const t = trainer;
-  if (checkMs >= TRAIN_MIN_MS) {
-    // A slow check after the training at the install has a budget of its
-    // own: that training's requests, many of them run unoptimised, would
-    // otherwise spend most of it before the check's paths get any.
-    if (t.work && t.work.atInstall && checkMs !== Infinity) t.spentMs = t.requests = 0;
-    t.slowMs ||= checkMs;
-    t.work = { opts: JSON.stringify({ ...JSON.parse(options), fresh: true }), pages, next: 0, frames, atInstall: checkMs === Infinity };
-  }
-  const handle = (t.handle ||= globalThis[CORES.overlay.handle]);
-  if (serving || t.done || !t.work || (t.run && !t.run.stopped) || typeof handle !== 'function') return;
-  const run = { stopped: false };
-  t.run = run;
-  const w = t.work;
-  const report = () => {
-    globalThis.standoutTraining = { requests: t.requests, spentMs: t.spentMs, stops: t.stops, running: t.run !== null, finished: t.done };
-  };
-  // ended says the training is over in this worker; trained, that it ran
-  // to its end, which the mark records (an error answer ends it too, and
-  // leaves the mark alone).
-  const end = (ended, trained = ended) => {
-    if (t.run === run) t.run = null;
-    if (run.stopped) t.stops++;
-    if (trained && !t.done) markTrained();
-    t.done = t.done || ended;
-    report();
-  };
-  const step = () => {
-    if (run.stopped) return end(false);
-    const t0 = performance.now();
-    try {
-      const page = w.pages[w.next++ % w.pages.length];
-      if (!handle(w.opts, page, ...w.frames).startsWith('{"ok":true')) return end(true, false);
-    } catch {
-      return end(false);
-    }
-    const ms = performance.now() - t0;
-    t.requests++;
-    t.spentMs += ms;
-    const optimisedAlready = t.requests === 1 && 2 * ms > t.slowMs;
-    if (optimisedAlready || t.spentMs >= TRAIN_BUDGET_MS || t.requests >= TRAIN_MAX_REQUESTS) return end(true);
-    report();
-    setTimeout(step, TRAIN_GAP_MS);
-  };
-  setTimeout(step, delayMs);
-}
-
-// After an install or an update, the first press would run an untrained
-// core. So the core is trained the same way on a page that ships with the
-// extension (train.json, an invented scatter and bar chart, and
-// train-fix.json, the same with an emphasis that needs a fix, in turn:
-// extension/training.go): at once after an install, since a reader who
-// has just installed Standout is likely to try it soon, and
-// INSTALL_TRAIN_AFTER_MS after an update, when the browser may be busy
-// starting. A press stops it as it stops any training; one that comes
-// first needs none (checked). The page is small, so that a press made
-// while the untrained core runs it waits briefly. There is no first run
-// to tell whether the core came optimised: a module new to the profile
-// has no optimised code kept, and a browser update drops what was kept,
-// so train is told the check was infinitely slow.
 const INSTALL_TRAIN_AFTER_MS = 10000;
-let checked = false;
 
-// A finished training leaves a mark in the extension's Cache Storage: the
-// build and the browser it was for. Chromium installs an extension loaded
-// from the command line (a developer's build, and the tests' and
-// benchmarks') again at every start, and keeps the optimised code across;
-// the mark spares such a start a second training. An update or a browser
-// update changes the stamp.
-const TRAINED_MARK = 'https://standout.invalid/trained';
-const trainedStamp = () => `${ext.runtime.getManifest().version} ${navigator.userAgent}`;
-
-// readMark resolves to the text of a mark in the extension's Cache
-// Storage, or undefined when there is none.
-async function readMark(url) {
-  const r = await (await caches.open('standout')).match(url);
-  return r === undefined ? undefined : r.text();
-}
-
-// writeMark writes a mark. A mark only spares work, so a failure is
-// reported on the console and nothing more; doing names what failed.
-function writeMark(url, text, doing) {
-  caches.open('standout')
-    .then((c) => c.put(url, new Response(text)))
-    .catch((e) => console.warn(`Standout could not ${doing}:`, e));
-}
-
-async function trainedAlready() {
-  return (await readMark(TRAINED_MARK)) === trainedStamp();
-}
-
-function markTrained() {
-  writeMark(TRAINED_MARK, trainedStamp(), 'mark its core trained');
-}
-
+// trainAtInstall trains the core after an install or an update (core.js),
+// unless the mark says this build was trained already: then it was
+// installed again as the browser started, and the core loads as at any
+// start.
 async function trainAtInstall() {
-  if (checked || trainer.done) return;
   try {
-    // Trained already: this build was installed again as the browser
-    // started (see the mark), so the core loads as at any start.
     if (await trainedAlready()) return loadAtStart();
-    await loadCore(CORES.overlay);
-    const pages = await Promise.all(['train.json', 'train-fix.json'].map(async (f) => (await fetch(ext.runtime.getURL(f))).text()));
-    if (!checked) train(Infinity, JSON.stringify({ type: 'analyse' }), pages, [], 0);
+    await core('trainAtInstall');
   } catch (e) {
     console.warn('Standout could not train its core:', e);
   }
@@ -337,18 +156,14 @@ async function loadAtStart() {
   try {
     const at = await readMark(PRESSED_MARK);
     if (at === undefined || !(Date.now() - Number(at) < LATELY_MS)) return;
-    await loadCore(CORES.overlay);
+    await core('begin', 'overlay');
+    await core('end');
   } catch (e) {
     console.warn('Standout could not load its core:', e);
   }
 }
 
 ext.runtime.onStartup.addListener(loadAtStart);
-
-// stopTraining stops the training between two of its requests.
-function stopTraining() {
-  if (trainer.run) trainer.run.stopped = true;
-}
 
 // analyse reads the page and runs the core. It returns the core's
 // response (a JSON string: {ok, overlay} or {ok, report, markdown}, or
@@ -358,28 +173,25 @@ function stopTraining() {
 // charts drawn as pixels (judged) and a point picked on one (pick), which
 // the overlay keeps, so that the report holds them.
 //
-// Training stops, and does not start, from a press to its answer: its
-// requests would hold the worker when the read comes back, and take the
-// processor from the page while it reads. Then it takes up again, on the
-// check's request when that was slow (train), else on what it ran.
+// The core's training stops, and does not start, from a press to its
+// answer (core.js: begin and end): its requests would hold the core when
+// the read comes back, and take the processor from the page while it
+// reads. Then it takes up again, on the check's request when that was
+// slow, else on what it ran.
 async function analyse(tabId, opts) {
-  serving++;
-  stopTraining();
+  const name = opts.full ? 'report' : 'overlay';
+  const loaded = core('begin', name);
   try {
-    return await analyseNow(tabId, opts);
+    return await analyseNow(tabId, opts, name, loaded);
   } finally {
-    serving--;
-    train(0);
+    core('end').catch((e) => console.warn('Standout could not reach its core:', e));
   }
 }
 
-async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity, full = false, phoneWidth = 0, judged, pick } = {}) {
+async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity, full = false, phoneWidth = 0, judged, pick }, name, loaded) {
   const t0 = performance.now();
-  const core = full ? CORES.report : CORES.overlay;
-  const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loadCore(core)]);
+  const [read, loadMs] = await Promise.all([readPage(tabId, toggle), loaded]);
   if (read.closed) return read;
-  // This check needs the core: nothing is left to train at the install.
-  checked = true;
   markPressed();
   const t1 = performance.now();
   // The options and the page go to the core as two strings: the page as
@@ -390,17 +202,11 @@ async function analyseNow(tabId, { toggle = false, emphasisNodes = [], severity,
   if (phoneWidth) options.phoneWidth = phoneWidth;
   if (full && judged) options.pixels = judged;
   if (full && pick) options.pick = pick;
-  const request = [core.file, JSON.stringify(options), read.json, ...frames.pages];
+  const request = [name, JSON.stringify(options), read.json, ...frames.pages];
   const reused = lastCheck && lastCheck.request.length === request.length && lastCheck.request.every((s, i) => s === request[i]);
-  const tc = performance.now();
-  const response = reused ? lastCheck.response : await callCore(core, request[1], read.json, frames.pages);
+  const response = reused ? lastCheck.response : await core('check', name, request[1], read.json, frames.pages);
   const t2 = performance.now();
-  if (!reused && response.startsWith('{"ok":true')) {
-    lastCheck = { request, response };
-    // The core's own time decides the training, which runs the core
-    // alone: coreMs also holds the reading of frames of other origins.
-    if (core === CORES.overlay) train(t2 - tc, request[1], [read.json], frames.pages);
-  }
+  if (!reused && response.startsWith('{"ok":true')) lastCheck = { request, response };
   // A press judges the charts drawn as pixels; a re-check would capture
   // the overlay's own outlines over them.
   const pixels = toggle ? await judgePixels(tabId, read, severity) : undefined;
@@ -510,12 +316,12 @@ async function judgePixels(tabId, read, severity) {
         continue;
       }
       shot = shot || (await shots.take(v));
-      out[i] = judgeRaster(shot, r, sev);
+      out[i] = await judgeRaster(shot, r, sev);
     }
     for (const i of later.slice(0, MAX_SCROLLED)) {
       const r = rasters[i];
       const at = await shots.scrollTo(r.box[0] - (v.w - r.box[2]) / 2, r.box[1] - (v.h - r.box[3]) / 2, v);
-      if (inView(r.box, at)) out[i] = judgeRaster(await shots.take(at), r, sev);
+      if (inView(r.box, at)) out[i] = await judgeRaster(await shots.take(at), r, sev);
     }
   } catch (e) {
     console.warn('Standout could not capture the tab for its charts drawn as pixels:', e);
@@ -580,7 +386,7 @@ function scrollPage(x, y) {
 
 // judgeRaster cuts one chart out of a capture and asks the core where the
 // eye goes first, for every vision type.
-function judgeRaster(shot, r, sev) {
+async function judgeRaster(shot, r, sev) {
   const v = shot.view;
   const k = shot.bitmap.width / v.w;
   const w = Math.round(r.box[2]);
@@ -588,7 +394,7 @@ function judgeRaster(shot, r, sev) {
   const c = new OffscreenCanvas(w, h);
   const g = c.getContext('2d');
   g.drawImage(shot.bitmap, (r.box[0] - v.x) * k, (r.box[1] - v.y) * k, w * k, h * k, 0, 0, w, h);
-  const res = JSON.parse(globalThis.standoutSaliency(g.getImageData(0, 0, w, h).data, w, h, sev));
+  const res = JSON.parse(await core('saliency', g.getImageData(0, 0, w, h).data, w, h, sev));
   return res.ok ? { name: r.name, box: r.box, regions: res.regions } : { name: r.name, box: r.box, unseen: true };
 }
 

@@ -192,7 +192,7 @@ func (h *harness) warmPresses(b *testing.B, n int, change bool) []press {
 
 // readingPause is how long the benchmark's reader reads an answer
 // before the service worker is stopped or the browser closed: long enough
-// for the background's training (background.js: train) and V8's caching
+// for the background's training (core.js: train) and V8's caching
 // of the optimised code two seconds after its last compile.
 const readingPause = 6 * time.Second
 
@@ -228,7 +228,7 @@ const readingPause = 6 * time.Second
 //     first at once, and find the core's code partly unoptimised (the
 //     engine optimises a function once it has run a while, from its next
 //     call on, and the background's training starts only half a second
-//     after a check: background.js, TRAIN_DELAY_MS);
+//     after a check: core.js, TRAIN_DELAY_MS);
 //   - paced-changed-ms: the median of five more presses on a changed
 //     page, the first made after a pause to read the last answer
 //     (readingPause), as a reader edits and checks again, the others at

@@ -297,7 +297,7 @@ func TestKeptTablesStayBounded(t *testing.T) {
 	assert.NotEmpty(t, layerRects(t, h.overlayHTML())["svg0"], "the last reading judged")
 }
 
-// The background trains the core (background.js: train), from the install
+// The core is trained (core.js: train), from the install
 // on and after a slow check: it runs a request again, fresh, until its
 // budget is spent; a check that needs the core stops it, and it takes up
 // again after that check's answer, here on that check's request; the

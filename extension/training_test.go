@@ -41,9 +41,9 @@ func TestTrainingPageShips(t *testing.T) {
 	}
 }
 
-// The background trains on the pages the build writes.
-func TestBackgroundTrainsOnTheTrainingPages(t *testing.T) {
-	bg, err := Files.ReadFile("background.js")
+// The core trains on the pages the build writes.
+func TestCoreTrainsOnTheTrainingPages(t *testing.T) {
+	bg, err := Files.ReadFile("core.js")
 	require.NoError(t, err)
 	assert.Contains(t, string(bg), `['`+strings.Join(TrainingFiles, `', '`)+`']`)
 }
@@ -99,7 +99,7 @@ func TestCoreTrainedAtInstall(t *testing.T) {
 }
 
 // training is the background's training as it reports it in
-// standoutTraining (background.js: train), zero before any.
+// standoutTraining (core.js: train), zero before any.
 type training struct {
 	Requests int
 	SpentMs  float64

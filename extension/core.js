@@ -1,0 +1,265 @@
+// The Go core (WebAssembly) and its training, in the background that
+// runs them (background.js: core), which asks for requests by name
+// (requests, below), with strings, numbers and pixels. Nothing here
+// touches a page.
+import './wasm_exec.js';
+import { ext } from './platform.js';
+import { restoreFindFuncTable } from './findfunc.js';
+
+// The two builds of the Go core (extension/build.go): the overlay core
+// answers every press and re-check; the report core, which adds the
+// report's formats, is loaded for the first export only.
+const CORES = {
+  overlay: { file: 'standout.wasm', handle: 'standoutHandle', promise: null },
+  report: { file: 'standout-report.wasm', handle: 'standoutReport', promise: null },
+};
+
+// loadCore instantiates a core once in the lifetime of the context that
+// runs it and resolves to how long that took (0 when it was already running). When
+// the Go program exits (it never should; a wasm memory that cannot grow
+// ends it), its handle is dropped so that the next check loads a fresh
+// core instead of failing in every tab.
+function loadCore(core = CORES.overlay) {
+  if (globalThis[core.handle]) return Promise.resolve(0);
+  if (!core.promise) {
+    const t0 = performance.now();
+    core.promise = (async () => {
+      const go = new Go();
+      // The collector runs between requests only, or within one when the
+      // heap reaches 256 MiB (wasm/main_js.go).
+      go.env = { GOGC: 'off', GOMEMLIMIT: '256MiB' };
+      const url = ext.runtime.getURL(core.file);
+      const { module, instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
+      restoreFindFuncTable(module, instance);
+      go.run(instance).finally(() => dropCore(core)); // settles only when Go exits
+      for (let i = 0; i < 200 && !globalThis[core.handle]; i++) {
+        await new Promise((r) => setTimeout(r, 5));
+      }
+      if (!globalThis[core.handle]) throw new Error('the Standout core did not start');
+      return performance.now() - t0;
+    })().catch((e) => {
+      core.promise = null;
+      throw e;
+    });
+  }
+  return core.promise;
+}
+
+function dropCore(core) {
+  globalThis[core.handle] = undefined;
+  core.promise = null;
+  if (core === CORES.overlay) trainer.handle = null;
+}
+
+// callCore runs one request in a core, the readings of frames of other
+// origins after the page. A core that has exited is reloaded once and the
+// request run again.
+async function callCore(core, options, page, frames = []) {
+  for (let attempt = 0; ; attempt++) {
+    await loadCore(core);
+    try {
+      return globalThis[core.handle](options, page, ...frames);
+    } catch (e) {
+      if (attempt > 0 || !/exited|not a function|standoutHandle|standoutReport/i.test(String((e && e.message) || e))) throw e;
+      dropCore(core);
+    }
+  }
+}
+
+// The overlay core is trained after a slow check. Chromium keeps a
+// module's optimised code for its next load, in the service worker too,
+// but only once V8 has optimised about a megabyte of its code, and V8
+// optimises a function only after it has run a good while: without
+// training, a check after the worker was stopped (half a minute idle) or
+// after the browser restarts runs unoptimised until eight or so checks of
+// a 5,000-mark chart have run in one context (DEVELOPERS.md). So after a
+// check that took the core TRAIN_MIN_MS or more, its request runs again,
+// fresh (nothing recalled or kept: wasm/charts.go), a task at a time
+// while the reader reads the answer, until TRAIN_BUDGET_MS of core time
+// is spent in this context (and as much again for a slow check after the
+// training at the install, trainAtInstall). A press stops it (begin), and
+// it takes up again after the press's answer (end), on that check's
+// request when it was slow too, else on the one it ran before. The first
+// run tells whether the core was optimised already (loaded from
+// Chromium's cache): when it is not twice as fast as the slow check,
+// training ends there. Only Chromium trains (startTraining). The tests
+// and the benchmark read its state in standoutTraining, on the global
+// object of the context that runs the core.
+const TRAIN_MIN_MS = 100;
+const TRAIN_DELAY_MS = 500;
+const TRAIN_GAP_MS = 20;
+const TRAIN_BUDGET_MS = 2000;
+const TRAIN_MAX_REQUESTS = 400;
+// trainer is this context's training so far. slowMs is the first slow
+// check's core time (Infinity for the install's page), 0 until there is
+// one, and work the last slow check's request, which training runs
+// (its pages in turn: the install's training has two).
+// handle is the core's handle as the first run found it, kept until the
+// core is dropped: training runs the core it was loaded for, whatever a
+// test puts in the global afterwards.
+const trainer = { done: true, slowMs: 0, work: null, handle: null, requests: 0, spentMs: 0, stops: 0, run: null };
+// serving counts the presses between their start and their answer
+// (begin and end): training waits for none to be left.
+let serving = 0;
+
+function train(checkMs, options, pages, frames, delayMs = TRAIN_DELAY_MS) {
+  const t = trainer;
+  if (checkMs >= TRAIN_MIN_MS) {
+    // A slow check after the training at the install has a budget of its
+    // own: that training's requests, many of them run unoptimised, would
+    // otherwise spend most of it before the check's paths get any.
+    if (t.work && t.work.atInstall && checkMs !== Infinity) t.spentMs = t.requests = 0;
+    t.slowMs ||= checkMs;
+    t.work = { opts: JSON.stringify({ ...JSON.parse(options), fresh: true }), pages, next: 0, frames, atInstall: checkMs === Infinity };
+  }
+  const handle = (t.handle ||= globalThis[CORES.overlay.handle]);
+  if (serving || t.done || !t.work || (t.run && !t.run.stopped) || typeof handle !== 'function') return;
+  const run = { stopped: false };
+  t.run = run;
+  const w = t.work;
+  const report = () => {
+    globalThis.standoutTraining = { requests: t.requests, spentMs: t.spentMs, stops: t.stops, running: t.run !== null, finished: t.done };
+  };
+  // ended says the training is over in this worker; trained, that it ran
+  // to its end, which the mark records (an error answer ends it too, and
+  // leaves the mark alone).
+  const end = (ended, trained = ended) => {
+    if (t.run === run) t.run = null;
+    if (run.stopped) t.stops++;
+    if (trained && !t.done) markTrained();
+    t.done = t.done || ended;
+    report();
+  };
+  const step = () => {
+    if (run.stopped) return end(false);
+    const t0 = performance.now();
+    try {
+      const page = w.pages[w.next++ % w.pages.length];
+      if (!handle(w.opts, page, ...w.frames).startsWith('{"ok":true')) return end(true, false);
+    } catch {
+      return end(false);
+    }
+    const ms = performance.now() - t0;
+    t.requests++;
+    t.spentMs += ms;
+    const optimisedAlready = t.requests === 1 && 2 * ms > t.slowMs;
+    if (optimisedAlready || t.spentMs >= TRAIN_BUDGET_MS || t.requests >= TRAIN_MAX_REQUESTS) return end(true);
+    report();
+    setTimeout(step, TRAIN_GAP_MS);
+  };
+  setTimeout(step, delayMs);
+}
+
+// After an install or an update, the first press would run an untrained
+// core. So the core is trained the same way on a page that ships with the
+// extension (train.json, an invented scatter and bar chart, and
+// train-fix.json, the same with an emphasis that needs a fix, in turn:
+// extension/training.go): at once after an install, since a reader who
+// has just installed Standout is likely to try it soon, and
+// a while after an update (background.js), when the browser may be busy
+// starting. A press stops it as it stops any training; one that comes
+// first needs none (checked). The page is small, so that a press made
+// while the untrained core runs it waits briefly. There is no first run
+// to tell whether the core came optimised: a module new to the profile
+// has no optimised code kept, and a browser update drops what was kept,
+// so train is told the check was infinitely slow.
+let checked = false;
+
+// A finished training leaves a mark in the extension's Cache Storage: the
+// build and the browser it was for. Chromium installs an extension loaded
+// from the command line (a developer's build, and the tests' and
+// benchmarks') again at every start, and keeps the optimised code across;
+// the mark spares such a start a second training. An update or a browser
+// update changes the stamp.
+const TRAINED_MARK = 'https://standout.invalid/trained';
+const trainedStamp = () => `${ext.runtime.getManifest().version} ${navigator.userAgent}`;
+
+// readMark resolves to the text of a mark in the extension's Cache
+// Storage, or undefined when there is none.
+export async function readMark(url) {
+  const r = await (await caches.open('standout')).match(url);
+  return r === undefined ? undefined : r.text();
+}
+
+// writeMark writes a mark. A mark only spares work, so a failure is
+// reported on the console and nothing more; doing names what failed.
+export function writeMark(url, text, doing) {
+  caches.open('standout')
+    .then((c) => c.put(url, new Response(text)))
+    .catch((e) => console.warn(`Standout could not ${doing}:`, e));
+}
+
+export async function trainedAlready() {
+  return (await readMark(TRAINED_MARK)) === trainedStamp();
+}
+
+function markTrained() {
+  writeMark(TRAINED_MARK, trainedStamp(), 'mark its core trained');
+}
+
+async function trainAtInstall() {
+  if (checked || trainer.done) return;
+  try {
+    await loadCore(CORES.overlay);
+    const pages = await Promise.all(['train.json', 'train-fix.json'].map(async (f) => (await fetch(ext.runtime.getURL(f))).text()));
+    if (!checked) train(Infinity, JSON.stringify({ type: 'analyse' }), pages, [], 0);
+  } catch (e) {
+    console.warn('Standout could not train its core:', e);
+  }
+}
+
+// stopTraining stops the training between two of its requests.
+function stopTraining() {
+  if (trainer.run) trainer.run.stopped = true;
+}
+
+// named is the core of that name.
+function named(name) {
+  if (!Object.hasOwn(CORES, name)) throw new Error(`no core named ${name}`);
+  return CORES[name];
+}
+
+// startTraining lets the core train: in Chromium, where V8 keeps the
+// optimised code for the next load (platform.js). Firefox's event page is
+// not trained: that was not measured there.
+export function startTraining() {
+  trainer.done = false;
+}
+
+// requests are what the background asks of the core, by name, with
+// strings, numbers and pixels for arguments (background.js: core).
+export const requests = Object.freeze({
+  // begin marks a press's start, stopping the training until its end,
+  // and loads the core it needs, resolving to how long that took (0 when
+  // it was running).
+  begin(name) {
+    serving++;
+    stopTraining();
+    return loadCore(named(name));
+  },
+  // end marks a press's end: the training takes up again (train).
+  end() {
+    serving = Math.max(0, serving - 1);
+    train(0);
+  },
+  // check runs one request in a core (the options and the page's
+  // reading as the read pass wrote them, and the readings of frames of
+  // other origins): its answer, a JSON string. A slow check trains the
+  // overlay core.
+  async check(name, options, page, frames) {
+    checked = true;
+    const core = named(name);
+    const t0 = performance.now();
+    const response = await callCore(core, options, page, frames);
+    if (core === CORES.overlay && response.startsWith('{"ok":true')) train(performance.now() - t0, options, [page], frames);
+    return response;
+  },
+  // saliency judges a chart drawn as pixels (RGBA, w × h) for every
+  // vision type: where the eye goes first (a JSON string).
+  async saliency(pixels, w, h, severity) {
+    await loadCore(CORES.overlay);
+    return globalThis.standoutSaliency(pixels, w, h, severity);
+  },
+  // trainAtInstall trains the core after an install or an update.
+  trainAtInstall,
+});
