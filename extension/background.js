@@ -2,22 +2,104 @@
 // (WebAssembly, core.js) under the extension's own CSP, so pages with
 // strict CSPs are checked too. Nothing here is needed between events: if
 // the browser stops the background (a service worker in Chromium, an
-// event page in Firefox: platform.js), the next event loads the core
-// again. The only state kept between events is a screenshot waiting for
-// its export page, for a few seconds.
-import { captureTab, ext, keepsOptimisedCode } from './platform.js';
+// event page in Firefox: platform.js), the next event finds the core in
+// its offscreen document (Chromium, core-host.js) or loads it again. The
+// only state kept between events is a screenshot waiting for its export
+// page, for a few seconds.
+import { captureTab, ext, hostsCore, keepsOptimisedCode } from './platform.js';
 import { readMark, requests, startTraining, trainedAlready, writeMark } from './core.js';
 import './patch.js';
 
 // core asks the core for one of its requests (core.js: requests) and
-// resolves to the answer.
-async function core(op, ...args) {
+// resolves to the answer: in Chromium from the offscreen document that
+// runs it (core-host.js), in Firefox, and in Chromium until the first
+// press has granted "offscreen", here. A worker keeps to one way for its
+// lifetime, so that it never loads the core twice.
+let coreWay = null;
+function core(op, ...args) {
+  coreWay ||= hostsCore() ? hosted : here;
+  return coreWay(op, ...args);
+}
+
+async function here(op, ...args) {
   return requests[op](...args);
 }
 
 // The core trains in Chromium, where V8 keeps its optimised code for the
 // next load (core.js: train).
 if (keepsOptimisedCode) startTraining();
+
+// The offscreen document that runs the core in Chromium, once found or
+// made in this worker's lifetime; closing while closeHost closes it, and
+// inFlight counts the requests awaiting its answers.
+const HOST_URL = ext.runtime.getURL('core.html');
+let host = null;
+let closing = null;
+let inFlight = 0;
+
+// hostClient finds the document, or makes it (it outlives the worker).
+async function hostClient() {
+  if (closing) await closing;
+  host ||= (async () => {
+    for (let made = false, i = 0; i < 200; i++) {
+      const c = (await clients.matchAll({ includeUncontrolled: true, type: 'window' })).find((c) => c.url === HOST_URL);
+      if (c) return c.id;
+      if (!made) {
+        made = true;
+        await ext.offscreen.createDocument({ url: 'core.html', reasons: ['WORKERS'], justification: 'Runs the WebAssembly core that checks charts, so that it outlives the service worker.' });
+      } else await new Promise((ok) => setTimeout(ok, 10));
+    }
+    throw new Error('the Standout core did not start');
+  })().catch((e) => {
+    host = null;
+    throw e;
+  });
+  const id = await host;
+  const c = await clients.get(id);
+  if (c) return c;
+  // Closed since (by the browser, or a closeHost of an earlier worker).
+  host = null;
+  return hostClient();
+}
+
+// hosted sends one request to the document and waits for its answer. A
+// document that goes away meanwhile (closed by the browser, or its
+// process lost) would never answer: the request fails once it is gone.
+const HOST_WATCH_MS = 1000;
+
+async function hosted(op, ...args) {
+  inFlight++;
+  let watch = 0;
+  try {
+    const c = await hostClient();
+    return await new Promise((ok, fail) => {
+      const ch = new MessageChannel();
+      ch.port1.onmessage = ({ data }) => (data && 'error' in data ? fail(new Error(data.error)) : ok(data && data.value));
+      watch = setInterval(() => {
+        clients.get(c.id).then((there) => {
+          if (there) return;
+          host = null;
+          fail(new Error('the Standout core stopped before it answered; press again'));
+        }, fail);
+      }, HOST_WATCH_MS);
+      c.postMessage({ op, args }, [ch.port2]);
+    });
+  } finally {
+    clearInterval(watch);
+    inFlight--;
+  }
+}
+
+// closeHost closes the document when it has been idle (core-host.js:
+// IDLE_MS) and no request of this worker awaits it.
+async function closeHost() {
+  if (!hostsCore() || inFlight || closing) return;
+  host = null;
+  closing = ext.offscreen.closeDocument().catch((e) => console.warn('Standout could not close its core:', e)).finally(() => {
+    closing = null;
+  });
+  await closing;
+}
 
 const SCRIPTS = ['constants.js', 'cvd-filters.js', 'reader.js', 'machine.js', 'patch.js', 'overlay.js'];
 
@@ -129,18 +211,15 @@ ext.runtime.onInstalled.addListener(({ reason }) => {
 });
 
 // A press soon after the browser starts would wait for the core to load
-// while the page is read, on the worker's one thread, which the page's
-// reading must also cross (at 5,000 marks the reading reached the worker
-// 300-430 ms into a 570-737 ms press: DEVELOPERS.md).
-// So the core loads as the browser starts, from the optimised code
-// Chromium kept of it, when Standout was used in the last LATELY_MS:
-// the load costs the worker's thread and V8's compile threads about a
-// fifth of a second each, and a browser whose reader has not checked a
-// chart lately need not pay that at every start. If no press comes, the
-// worker stops after half a minute idle and takes the core with it, and
-// the next press loads it as any press after a stop does. A press's
-// worker records the time in the extension's Cache Storage, once in its
-// lifetime (markPressed).
+// while the page is read (at 5,000 marks the reading reached the worker
+// 300-430 ms into a 570-737 ms press: DEVELOPERS.md). So the core loads
+// as the browser starts, from the optimised code Chromium kept of it,
+// when Standout was used in the last LATELY_MS: the load costs about a
+// fifth of a second of one thread and as much of V8's compile threads,
+// and holds the core's memory until its document closes (core-host.js:
+// IDLE_MS), which a browser whose reader has not checked a chart lately
+// need not pay at every start. A press's worker records the time in the
+// extension's Cache Storage, once in its lifetime (markPressed).
 const LATELY_MS = 7 * 24 * 3600 * 1000;
 const PRESSED_MARK = 'https://standout.invalid/pressed';
 let pressMarked = false;
@@ -420,6 +499,13 @@ export async function toggle(tab) {
   // the background, and when its answer left for the page (the overlay
   // times the crossing; the benchmark's steps).
   const startedAt = performance.timeOrigin + performance.now();
+  // The press is the gesture a permission must be asked in; "offscreen"
+  // comes without a prompt, and serves from the next worker on.
+  if (keepsOptimisedCode && !hostsCore()) {
+    ext.permissions.request({ permissions: ['offscreen'] })
+      .then((granted) => granted && setTimeout(prepareHost, HOST_AFTER_GRANT_MS))
+      .catch((e) => console.warn('Standout could not ask to keep its core:', e));
+  }
   let seq;
   try {
     const r = await analyse(tab.id, { toggle: true });
@@ -432,6 +518,18 @@ export async function toggle(tab) {
   } catch (e) {
     await showError(tab.id, e, seq);
   }
+}
+
+// A press that granted "offscreen" ran the core in this worker, which
+// keeps to it (core); prepareHost loads the core in its document a moment
+// after, while the reader reads the answer, so that the worker after this
+// one finds it loaded.
+const HOST_AFTER_GRANT_MS = 3000;
+
+function prepareHost() {
+  hosted('begin', 'overlay')
+    .then(() => hosted('end'))
+    .catch((e) => console.warn('Standout could not load its core:', e));
 }
 
 async function showError(tabId, e, seq) {
@@ -540,6 +638,8 @@ function validMessage(msg, sender) {
     case 'standout/take-grant':
     case 'standout/granted':
       return typeof d === 'string' && d.length <= 64 && typeof sender.url === 'string' && sender.url.startsWith(ext.runtime.getURL('grant.html'));
+    case 'standout/host-idle':
+      return d === undefined && sender.url === HOST_URL;
   }
   return false;
 }
@@ -576,6 +676,8 @@ ext.runtime.onMessage.addListener((msg, sender, sendResponse) => {
     }
     case 'standout/granted':
       return reply(recheckWithFrames(msg.data));
+    case 'standout/host-idle':
+      return reply(closeHost());
   }
   return false;
 });

@@ -206,19 +206,21 @@ const readingPause = 6 * time.Second
 //     scripts are injected first, and the core was loaded at the install
 //     and has barely begun training (background.js: trainAtInstall);
 //   - restart-ms: a press after the service worker was stopped, following
-//     a pause to read the last answer (readingPause; the core is loaded
-//     again, from the code Chromium kept of it; the scripts are in the
-//     page);
+//     a pause to read the last answer (readingPause; the first press got
+//     "offscreen", so the core is loaded again in the offscreen document
+//     it runs in from then on, from the code Chromium kept of it:
+//     core-host.js; the scripts are in the page);
 //   - relaunch-ms: the first press after the browser was closed and
 //     started again with the same profile, on the page loaded again (the
 //     start installs the extension again, but the mark of the finished
 //     training spares it a second one, as a real restart, which installs
-//     nothing, would; the core loads as the browser starts:
-//     background.js, loadAtStart);
+//     nothing, would; the grant of "offscreen" holds, as a real restart
+//     keeps it: grantOffscreen; the core loads as the browser starts, in
+//     its offscreen document: background.js, loadAtStart);
 //   - relaunch-stopped-ms: the same, with the service worker stopped
 //     before the press, as Chromium stops it half a minute after the
-//     start when no press came (the core is loaded again, and the
-//     scripts are injected into the page);
+//     start when no press came (the offscreen document keeps the core;
+//     the scripts are injected into the page);
 //   - warm-ms: the median of five presses on the loaded page, to the
 //     overlay's ready state; warm-paint-ms to the end of the frame that
 //     shows it. The page has not changed, so from the second press on the
@@ -269,8 +271,8 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 			var cold, restart, relaunch, warm, changed, paint, floor, floorWarm, read, trip, core, render float64
 			var click, delivery, changedCore, paced, pacedCore, relaunchStopped float64
 			for i := 0; i < b.N; i++ {
-				profile := b.TempDir()
-				h := newHarnessWith(b, built(b), profile)
+				profile, dir := b.TempDir(), builtCopy(b)
+				h := newHarnessWith(b, dir, profile)
 				srv := serve(b, func(w http.ResponseWriter, r *http.Request) {
 					w.Header().Set("Content-Type", "text/html; charset=utf-8")
 					fmt.Fprint(w, body)
@@ -319,9 +321,11 @@ func BenchmarkBrowserClickToOverlay(b *testing.B) {
 				h.close()
 				// The browser started again on the profile, and the page
 				// loaded; the press made at once, or once the worker is
-				// stopped.
+				// stopped. The first press's grant of "offscreen" holds, as
+				// in a reader's browser (grantOffscreen).
+				grantOffscreen(b, dir)
 				relaunched := func(stopped bool, sum *float64, what string) {
-					h := newHarnessWith(b, built(b), profile)
+					h := newHarnessWith(b, dir, profile)
 					h.open(srv.URL + "/")
 					if stopped {
 						h.stopWorker(b)
@@ -409,8 +413,9 @@ func BenchmarkBrowserFirstPressAfterInstall(b *testing.B) {
 	b.ReportMetric(first/float64(b.N), "first-ms")
 }
 
-// saliencyJS draws, in the service worker, the saliency benchmark's
-// chart (perception/saliency: 20 grey bars on white, one of them red) as
+// saliencyJS draws, in the service worker, which runs the core until the
+// first press's grant takes effect (background.js: core), the saliency
+// benchmark's chart (perception/saliency: 20 grey bars on white, one of them red) as
 // 600 × 400 RGBA pixels and times the core's judgement of it (the map
 // for normal vision and each CVD type's simulation) once cold, then five
 // times more, in ms.

@@ -1,5 +1,8 @@
-// The Go core (WebAssembly) and its training, in the background that
-// runs them (background.js: core), which asks for requests by name
+// The Go core (WebAssembly) and its training, in the context that runs
+// them: in Chromium the offscreen document core.html (core-host.js),
+// which outlives the service worker, or the worker itself until the
+// reader's first press has granted "offscreen"; in Firefox the event page
+// (background.js: core). The background asks for requests by name
 // (requests, below), with strings, numbers and pixels. Nothing here
 // touches a page.
 import './wasm_exec.js';
@@ -70,8 +73,9 @@ async function callCore(core, options, page, frames = []) {
 // module's optimised code for its next load, in the service worker too,
 // but only once V8 has optimised about a megabyte of its code, and V8
 // optimises a function only after it has run a good while: without
-// training, a check after the worker was stopped (half a minute idle) or
-// after the browser restarts runs unoptimised until eight or so checks of
+// training, a check after the core's context was stopped (a worker after
+// half a minute idle, an offscreen document after IDLE_MS) or after the
+// browser restarts runs unoptimised until eight or so checks of
 // a 5,000-mark chart have run in one context (DEVELOPERS.md). So after a
 // check that took the core TRAIN_MIN_MS or more, its request runs again,
 // fresh (nothing recalled or kept: wasm/charts.go), a task at a time
@@ -219,9 +223,9 @@ function named(name) {
   return CORES[name];
 }
 
-// startTraining lets the core train: in Chromium, where V8 keeps the
-// optimised code for the next load (platform.js). Firefox's event page is
-// not trained: that was not measured there.
+// startTraining lets the core train: Chromium's offscreen document, where
+// V8 keeps the optimised code for the next load (core-host.js). Firefox's
+// event page is not trained: that was not measured there.
 export function startTraining() {
   trainer.done = false;
 }

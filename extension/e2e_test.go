@@ -76,12 +76,44 @@ func built(t testing.TB) string {
 	return builtDir
 }
 
+// builtCopy copies the build into a folder of the test's own, whose
+// manifest the test may rewrite: an unpacked extension's ID follows its
+// folder, so the copy is one extension across its browser's starts.
+func builtCopy(t testing.TB) string {
+	src := built(t)
+	dst := t.TempDir()
+	require.NoError(t, os.CopyFS(dst, os.DirFS(src)))
+	return dst
+}
+
+// grantOffscreen declares "offscreen" among the required permissions of a
+// build copy: the grant the reader's first press gets (background.js:
+// toggle). A browser keeps it across its starts, but forgets it for an
+// extension loaded from the command line, which every start installs
+// again, so a test that starts the browser again after a press declares
+// it instead.
+func grantOffscreen(t testing.TB, dir string) {
+	p := filepath.Join(dir, "manifest.json")
+	b, err := os.ReadFile(p)
+	require.NoError(t, err)
+	var m map[string]any
+	require.NoError(t, json.Unmarshal(b, &m))
+	m["permissions"] = append(m["permissions"].([]any), "offscreen")
+	b, err = json.Marshal(m)
+	require.NoError(t, err)
+	require.NoError(t, os.WriteFile(p, b, 0o644))
+}
+
 type harness struct {
 	t     testing.TB
 	ctx   context.Context
 	extID string
 	// worker is the service worker's context, once a test reached into it.
 	worker context.Context
+	// core is the context of the offscreen document that runs the core
+	// (core-host.js), coreID its target, once a test reached into it.
+	core   context.Context
+	coreID target.ID
 	url    string
 	// dl is the downloads folder, once a test asked for one.
 	dl string
@@ -830,6 +862,7 @@ func TestE2EShortcutDeclared(t *testing.T) {
 			Permissions []string `json:"permissions"`
 			HostPerms   []string `json:"host_permissions"`
 			Optional    []string `json:"optional_host_permissions"`
+			OptionalAPI []string `json:"optional_permissions"`
 		}
 		require.NoError(t, json.Unmarshal(b, &m), f)
 		assert.Equal(t, "Alt+Shift+S", m.Commands["_execute_action"].SuggestedKey["default"], f)
@@ -838,6 +871,14 @@ func TestE2EShortcutDeclared(t *testing.T) {
 		// Frames of other origins are read only once the reader allows
 		// their origin, one by one, when a check finds them.
 		assert.ElementsMatch(t, []string{"http://*/*", "https://*/*"}, m.Optional, f)
+		// Chromium's background asks at the first press, without a
+		// prompt, to keep the core in an offscreen document
+		// (core-host.js); Firefox's event page needs none.
+		if f == "manifest.json" {
+			assert.Equal(t, []string{"offscreen"}, m.OptionalAPI, f)
+		} else {
+			assert.Empty(t, m.OptionalAPI, f)
+		}
 	}
 }
 

@@ -4,8 +4,10 @@
 // - The background. Chromium runs background.js as a module service
 //   worker (manifest.json: background.service_worker); Firefox as a module
 //   event page (manifest.firefox.json: background.scripts). Both stop it
-//   when idle, so nothing is kept between events but the loaded core,
-//   which loadCore loads again when it is gone.
+//   when idle. Chromium's worker runs the core in an offscreen document
+//   that outlives it (core-host.js) once the reader has granted
+//   "offscreen" (hostsCore); Firefox's event page runs the core itself,
+//   and loads it again after a stop.
 // - The namespace. Firefox names the API browser.*, Chromium chrome.*;
 //   Firefox also answers to chrome.* with promises in Manifest V3. The
 //   background takes `ext`; the scripts injected into pages use chrome.*,
@@ -20,14 +22,21 @@
 //   (testdata/firefox/test-entry.js, never shipped).
 // - Optimised code across loads. Chromium keeps the WebAssembly code V8
 //   has optimised and loads it with the module next time, in a service
-//   worker too (measured; DEVELOPERS.md); the background trains the core
-//   for it there (background.js: train). Firefox's event page is not
-//   trained: that was not measured there.
+//   worker and an offscreen document too (measured; DEVELOPERS.md); the
+//   core is trained for it there (core.js: train). Firefox's event page is
+//   not trained: that was not measured there.
 export const ext = globalThis.browser ?? globalThis.chrome;
 
 // keepsOptimisedCode says whether the background runs as Chromium's
 // service worker.
 export const keepsOptimisedCode = typeof globalThis.ServiceWorkerGlobalScope === 'function' && globalThis instanceof globalThis.ServiceWorkerGlobalScope;
+
+// hostsCore says whether the core can run in an offscreen document
+// (core-host.js): Chromium's service worker can make one once the reader
+// has granted "offscreen", an optional permission without a warning that
+// the first press asks for (background.js: toggle). Firefox's event page,
+// itself a document, needs none.
+export const hostsCore = () => keepsOptimisedCode && !!(ext.offscreen && ext.offscreen.createDocument);
 
 // captureTab captures what the tab shows as a PNG data URL.
 export function captureTab(windowId) {

@@ -21,12 +21,12 @@ func TestIssue11NoWatchAfterError(t *testing.T) {
 	h := newHarness(t)
 	h.showPage(`<!doctype html><html><body style="margin:0">` + chartSVG + `</body></html>`)
 	// The core now answers every check with an error, and counts them.
-	h.inWorker(`globalThis.testCalls = 0; globalThis.standoutHandle = () => { globalThis.testCalls++; return JSON.stringify({ ok: false, error: 'the core refused this check' }); }; 0`)
+	h.inCore(`globalThis.testCalls = 0; globalThis.standoutHandle = () => { globalThis.testCalls++; return JSON.stringify({ ok: false, error: 'the core refused this check' }); }; 0`)
 	h.eval(`document.querySelector('` + hostSelector + `').removeAttribute('data-state'), document.querySelectorAll('rect')[0].setAttribute('height', '70'), ''`)
 	h.waitState("error")
 	assert.Contains(t, h.overlayHTML(), "the core refused this check")
 	calls := func() int {
-		n, err := strconv.Atoi(h.workerValue(`String(globalThis.testCalls)`))
+		n, err := strconv.Atoi(h.coreValue(`String(globalThis.testCalls)`))
 		require.NoError(t, err)
 		return n
 	}
@@ -50,9 +50,9 @@ func TestPressOnUnchangedPageReusesTheAnswer(t *testing.T) {
 	h.trigger()
 	h.waitState("")
 	// Checks are counted; the background's training runs (fresh) are not.
-	h.inWorker(`globalThis.testCalls = 0; globalThis.testReal = globalThis.standoutHandle; globalThis.standoutHandle = (...a) => { if (!String(a[0]).includes('"fresh":true')) globalThis.testCalls++; return globalThis.testReal(...a); }; 0`)
+	h.inCore(`globalThis.testCalls = 0; globalThis.testReal = globalThis.standoutHandle; globalThis.standoutHandle = (...a) => { if (!String(a[0]).includes('"fresh":true')) globalThis.testCalls++; return globalThis.testReal(...a); }; 0`)
 	calls := func() int {
-		n, err := strconv.Atoi(h.workerValue(`String(globalThis.testCalls)`))
+		n, err := strconv.Atoi(h.coreValue(`String(globalThis.testCalls)`))
 		require.NoError(t, err)
 		return n
 	}
@@ -336,4 +336,83 @@ func TestCoreTrainedAfterASlowCheck(t *testing.T) {
 // its record of the steps' timings, which differ from press to press.
 func withoutHostState(html string) string {
 	return regexp.MustCompile(` data-(timing|state)="[^"]*"`).ReplaceAllString(html, "")
+}
+
+// In Chromium the first press asks for "offscreen" (an optional permission
+// that comes without a prompt), and from the next worker on the core runs
+// in an offscreen document (core-host.js), loaded soon after the grant,
+// that outlives the worker: a
+// press after the worker stopped finds the core loaded and its memory of
+// the page kept (wasm/charts.go), and shows what a fresh core shows. When
+// the document has been idle (core-host.js: IDLE_MS) the background closes
+// it, and the next press makes it again.
+func TestCoreOutlivesTheWorker(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(chartPage)
+	first := withoutHostState(h.overlayHTML())
+	require.Eventually(t, func() bool {
+		return h.workerValue(`chrome.permissions.contains({ permissions: ['offscreen'] }).then((g) => { globalThis.testGranted = g; }), String(globalThis.testGranted)`) == "true"
+	}, 5*time.Second, 50*time.Millisecond, "the press did not get the offscreen permission")
+	// The worker that asked keeps its core; the document loads one for
+	// the next worker (background.js: prepareHost).
+	assert.Equal(t, "function", h.workerValue(`typeof globalThis.standoutHandle`), "the worker that asked moved its core")
+	require.Eventually(t, func() bool {
+		return h.coreTarget() != "" && h.docValue(`typeof globalThis.standoutHandle`) == "function"
+	}, 10*time.Second, 50*time.Millisecond, "no core loaded in an offscreen document after the grant")
+	doc := h.coreTarget()
+	var timing struct {
+		CoreLoadMs float64
+		Core       map[string]float64
+	}
+	press := func(what string) {
+		h.trigger()
+		h.waitState("")
+		require.Equal(t, 1, h.stopWorker(t), what)
+		h.worker = nil
+		h.trigger()
+		h.waitState("ready")
+		hostTiming(t, h, &timing)
+		assert.Equal(t, first, withoutHostState(h.overlayHTML()), what)
+	}
+	press("the first press in the document")
+	assert.Equal(t, doc, h.coreTarget(), "the press did not find the document")
+	assert.Zero(t, timing.Core["recalledCharts"], "a new core recalled a chart")
+	press("a press after the worker stopped again")
+	assert.Equal(t, doc, h.coreTarget(), "the document did not outlive the worker")
+	assert.Equal(t, 1.0, timing.Core["recalledCharts"], "the core did not keep its memory of the page: %v", timing.Core)
+	// The document tells the background it has been idle.
+	h.docValue(`chrome.runtime.sendMessage({ type: 'standout/host-idle' }).catch(() => {}), ''`)
+	require.Eventually(t, func() bool { return h.coreTarget() == "" }, 5*time.Second, 50*time.Millisecond, "the idle document stayed open")
+	press("the press after the idle document closed")
+	require.NotEmpty(t, h.coreTarget(), "no document after the idle one closed")
+	assert.Zero(t, timing.Core["recalledCharts"], "a new core recalled a chart")
+	h.escape()
+	h.waitState("")
+}
+
+// A press whose offscreen document goes away before it answers (closed by
+// the browser, or its process lost) fails with an error that says so,
+// instead of waiting for ever; the next press makes the document again.
+func TestPressWhenTheCoreDocumentCloses(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(chartPage)
+	require.Eventually(t, func() bool { return h.coreTarget() != "" }, 10*time.Second, 50*time.Millisecond, "no offscreen document after the grant")
+	h.trigger()
+	h.waitState("")
+	require.Equal(t, 1, h.stopWorker(t))
+	h.worker = nil
+	// The document's core now never answers.
+	h.docValue(`globalThis.standoutHandle = () => new Promise(() => {}), ''`)
+	h.trigger()
+	h.waitState("reading")
+	closeTarget(t, h, h.coreTarget())
+	h.waitState("error")
+	assert.Contains(t, h.overlayHTML(), "the Standout core stopped before it answered")
+	h.escape()
+	h.waitState("")
+	h.core = nil
+	h.trigger()
+	h.waitState("ready")
+	assert.NotEmpty(t, layerRects(t, h.overlayHTML())["svg0"]["pops"])
+	assert.NotEmpty(t, h.coreTarget(), "no document for the press after")
 }
