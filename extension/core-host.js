@@ -1,7 +1,7 @@
 // The offscreen document that runs the core in Chromium (core.html). The
 // service worker that answers the toolbar button is stopped after half a
 // minute idle, and took the loaded core with it: the next press started
-// the extension's process again and loaded the core again, 450-650 ms of
+// the extension's process again and loaded the core again, 450-700 ms of
 // a press at 5,000 marks (DEVELOPERS.md). This document outlives the
 // worker, so a press after a stop finds the core loaded and its memory
 // of the last page kept. It closes when no press has come for IDLE_MS,
@@ -14,7 +14,7 @@
 import { requests, startTraining } from './core.js';
 import { ext } from './platform.js';
 
-export const IDLE_MS = 10 * 60 * 1000;
+const IDLE_MS = 10 * 60 * 1000;
 
 startTraining();
 

@@ -223,9 +223,11 @@ function named(name) {
   return CORES[name];
 }
 
-// startTraining lets the core train: Chromium's offscreen document, where
-// V8 keeps the optimised code for the next load (core-host.js). Firefox's
-// event page is not trained: that was not measured there.
+// startTraining lets the core train, in Chromium, where V8 keeps the
+// optimised code for the next load: in the offscreen document
+// (core-host.js), and in the worker that runs the core until the grant
+// (background.js). Firefox's event page is not trained: that was not
+// measured there.
 export function startTraining() {
   trainer.done = false;
 }
