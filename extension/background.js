@@ -90,8 +90,8 @@ async function hosted(op, ...args) {
   }
 }
 
-// closeHost closes the document when it has been idle (core-host.js:
-// IDLE_MS) and no request of this worker awaits it.
+// closeHost closes the document when it has been idle (its time in
+// keep.js) and no request of this worker awaits it.
 async function closeHost() {
   if (!hostsCore() || inFlight || closing) return;
   host = null;
@@ -216,8 +216,8 @@ ext.runtime.onInstalled.addListener(({ reason }) => {
 // as the browser starts, from the optimised code Chromium kept of it,
 // when Standout was used in the last LATELY_MS: the load costs about a
 // fifth of a second of one thread and as much of V8's compile threads,
-// and holds the core's memory until its document closes (core-host.js:
-// IDLE_MS), which a browser whose reader has not checked a chart lately
+// and holds the core's memory until its document closes (its time in
+// keep.js), which a browser whose reader has not checked a chart lately
 // need not pay at every start. A press's worker records the time in the
 // extension's Cache Storage, once in its lifetime (markPressed).
 const LATELY_MS = 7 * 24 * 3600 * 1000;

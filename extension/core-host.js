@@ -4,17 +4,17 @@
 // the extension's process again and loaded the core again, 450-700 ms of
 // a press at 5,000 marks (DEVELOPERS.md). This document outlives the
 // worker, so a press after a stop finds the core loaded and its memory
-// of the last page kept. It closes when no press has come for IDLE_MS,
-// giving back the core's memory: the background closes it when asked
+// of the last page kept. It closes when no request has come for a while
+// (keep.js: ten minutes, one when the cores hold much memory), giving
+// back the core's memory: the background closes it when asked
 // (background.js: closeHost), since only the worker may.
 //
 // Requests come from the extension's own service worker only (a
 // document receives no other worker's messages), each with a port for
 // its answer: {op, args} → {value} or {error}.
-import { requests, startTraining } from './core.js';
+import { heldBytes, requests, startTraining } from './core.js';
+import { keepMs } from './keep.js';
 import { ext } from './platform.js';
-
-const IDLE_MS = 10 * 60 * 1000;
 
 startTraining();
 
@@ -23,7 +23,7 @@ function touch() {
   clearTimeout(idleTimer);
   idleTimer = setTimeout(() => {
     ext.runtime.sendMessage({ type: 'standout/host-idle' }).catch((e) => console.warn('Standout could not close its core:', e));
-  }, IDLE_MS);
+  }, keepMs(heldBytes()));
 }
 
 navigator.serviceWorker.addEventListener('message', async (ev) => {

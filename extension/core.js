@@ -13,8 +13,8 @@ import { restoreFindFuncTable } from './findfunc.js';
 // answers every press and re-check; the report core, which adds the
 // report's formats, is loaded for the first export only.
 const CORES = {
-  overlay: { file: 'standout.wasm', handle: 'standoutHandle', promise: null },
-  report: { file: 'standout-report.wasm', handle: 'standoutReport', promise: null },
+  overlay: { file: 'standout.wasm', handle: 'standoutHandle', promise: null, memory: null },
+  report: { file: 'standout-report.wasm', handle: 'standoutReport', promise: null, memory: null },
 };
 
 // loadCore instantiates a core once in the lifetime of the context that
@@ -34,6 +34,7 @@ function loadCore(core = CORES.overlay) {
       const url = ext.runtime.getURL(core.file);
       const { module, instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
       restoreFindFuncTable(module, instance);
+      core.memory = instance.exports.mem;
       go.run(instance).finally(() => dropCore(core)); // settles only when Go exits
       for (let i = 0; i < 200 && !globalThis[core.handle]; i++) {
         await new Promise((r) => setTimeout(r, 5));
@@ -51,6 +52,7 @@ function loadCore(core = CORES.overlay) {
 function dropCore(core) {
   globalThis[core.handle] = undefined;
   core.promise = null;
+  core.memory = null;
   if (core === CORES.overlay) trainer.handle = null;
 }
 
@@ -74,7 +76,7 @@ async function callCore(core, options, page, frames = []) {
 // but only once V8 has optimised about a megabyte of its code, and V8
 // optimises a function only after it has run a good while: without
 // training, a check after the core's context was stopped (a worker after
-// half a minute idle, an offscreen document after IDLE_MS) or after the
+// half a minute idle, an offscreen document after keep.js's time) or after the
 // browser restarts runs unoptimised until eight or so checks of
 // a 5,000-mark chart have run in one context (DEVELOPERS.md). So after a
 // check that took the core TRAIN_MIN_MS or more, its request runs again,
@@ -215,6 +217,13 @@ async function trainAtInstall() {
 // stopTraining stops the training between two of its requests.
 function stopTraining() {
   if (trainer.run) trainer.run.stopped = true;
+}
+
+// heldBytes is the WebAssembly memory the loaded cores hold.
+export function heldBytes() {
+  let n = 0;
+  for (const c of Object.values(CORES)) if (c.memory) n += c.memory.buffer.byteLength;
+  return n;
 }
 
 // named is the core of that name.

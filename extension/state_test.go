@@ -344,7 +344,7 @@ func withoutHostState(html string) string {
 // that outlives the worker: a
 // press after the worker stopped finds the core loaded and its memory of
 // the page kept (wasm/charts.go), and shows what a fresh core shows. When
-// the document has been idle (core-host.js: IDLE_MS) the background closes
+// the document has been idle (keep.js) the background closes
 // it, and the next press makes it again.
 func TestCoreOutlivesTheWorker(t *testing.T) {
 	h := newHarness(t)
