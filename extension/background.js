@@ -46,7 +46,7 @@ async function hostClient() {
       if (c) return c.id;
       if (!made) {
         made = true;
-        await ext.offscreen.createDocument({ url: 'core.html', reasons: ['WORKERS'], justification: 'Runs the WebAssembly core that checks charts, so that it outlives the service worker.' });
+        await ext.offscreen.createDocument({ url: 'core.html', reasons: ['WORKERS'], justification: 'Runs the WebAssembly core that checks charts in a worker that outlives the service worker.' });
       } else await new Promise((ok) => setTimeout(ok, 10));
     }
     throw new Error('the Standout core did not start');

@@ -1,13 +1,17 @@
 // The Go core (WebAssembly) and its training, in the context that runs
-// them: in Chromium the offscreen document core.html (core-host.js),
-// which outlives the service worker, or the worker itself until the
+// them: in Chromium a dedicated worker of the offscreen document
+// core.html (core-host.js, core-worker.js), which outlives the service
+// worker, or the service worker itself until the
 // reader's first press has granted "offscreen"; in Firefox the event page
 // (background.js: core). The background asks for requests by name
 // (requests, below), with strings, numbers and pixels. Nothing here
 // touches a page.
 import './wasm_exec.js';
-import { ext } from './platform.js';
 import { restoreFindFuncTable } from './findfunc.js';
+
+// packaged is the URL of a file of the extension: this module's
+// neighbour (a dedicated worker has no extension API to ask).
+const packaged = (file) => new URL(file, import.meta.url).href;
 
 // The two builds of the Go core (extension/build.go): the overlay core
 // answers every press and re-check; the report core, which adds the
@@ -31,7 +35,7 @@ function loadCore(core = CORES.overlay) {
       // The collector runs between requests only, or within one when the
       // heap reaches 256 MiB (wasm/main_js.go).
       go.env = { GOGC: 'off', GOMEMLIMIT: '256MiB' };
-      const url = ext.runtime.getURL(core.file);
+      const url = packaged(core.file);
       const { module, instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
       restoreFindFuncTable(module, instance);
       core.memory = instance.exports.mem;
@@ -125,6 +129,7 @@ function train(checkMs, options, pages, frames, delayMs = TRAIN_DELAY_MS) {
   const w = t.work;
   const report = () => {
     globalThis.standoutTraining = { requests: t.requests, spentMs: t.spentMs, stops: t.stops, running: t.run !== null, finished: t.done };
+    if (reporter) reporter();
   };
   // ended says the training is over in this worker; trained, that it ran
   // to its end, which the mark records (an error answer ends it too, and
@@ -178,7 +183,10 @@ let checked = false;
 // the mark spares such a start a second training. An update or a browser
 // update changes the stamp.
 const TRAINED_MARK = 'https://standout.invalid/trained';
-const trainedStamp = () => `${ext.runtime.getManifest().version} ${navigator.userAgent}`;
+async function trainedStamp() {
+  const m = await (await fetch(packaged('manifest.json'))).json();
+  return `${m.version} ${navigator.userAgent}`;
+}
 
 // readMark resolves to the text of a mark in the extension's Cache
 // Storage, or undefined when there is none.
@@ -196,18 +204,21 @@ export function writeMark(url, text, doing) {
 }
 
 export async function trainedAlready() {
-  return (await readMark(TRAINED_MARK)) === trainedStamp();
+  return (await readMark(TRAINED_MARK)) === (await trainedStamp());
 }
 
 function markTrained() {
-  writeMark(TRAINED_MARK, trainedStamp(), 'mark its core trained');
+  trainedStamp().then(
+    (stamp) => writeMark(TRAINED_MARK, stamp, 'mark its core trained'),
+    (e) => console.warn('Standout could not mark its core trained:', e),
+  );
 }
 
 async function trainAtInstall() {
   if (checked || trainer.done) return;
   try {
     await loadCore(CORES.overlay);
-    const pages = await Promise.all(['train.json', 'train-fix.json'].map(async (f) => (await fetch(ext.runtime.getURL(f))).text()));
+    const pages = await Promise.all(['train.json', 'train-fix.json'].map(async (f) => (await fetch(packaged(f))).text()));
     if (!checked) train(Infinity, JSON.stringify({ type: 'analyse' }), pages, [], 0);
   } catch (e) {
     console.warn('Standout could not train its core:', e);
@@ -217,6 +228,23 @@ async function trainAtInstall() {
 // stopTraining stops the training between two of its requests.
 function stopTraining() {
   if (trainer.run) trainer.run.stopped = true;
+}
+
+// reporter, when set (onReport), is called whenever the training's state
+// changes.
+let reporter = null;
+
+// onReport asks for fn to be called whenever the training's state
+// (standoutTraining) changes.
+export function onReport(fn) {
+  reporter = fn;
+}
+
+// state is what the context that runs the core tells of it: the
+// WebAssembly memory the loaded cores hold, whether the overlay core is
+// loaded, and the training's state (null before any).
+export function state() {
+  return { held: heldBytes(), loaded: typeof globalThis[CORES.overlay.handle] === 'function', training: globalThis.standoutTraining || null };
 }
 
 // heldBytes is the WebAssembly memory the loaded cores hold.

@@ -8,7 +8,7 @@ import "embed"
 // Files are the extension's source files (manifests, scripts and icons). The
 // WebAssembly core and wasm_exec.js are added at build time.
 //
-//go:embed manifest.json manifest.firefox.json background.js reader.js overlay.js machine.js patch.js constants.js cvd-filters.js press.js platform.js findfunc.js core.js core.html core-host.js keep.js export.html export.js grant.html grant.js icons/*.png
+//go:embed manifest.json manifest.firefox.json background.js reader.js overlay.js machine.js patch.js constants.js cvd-filters.js press.js platform.js findfunc.js core.js core.html core-host.js core-worker.js keep.js export.html export.js grant.html grant.js icons/*.png
 var Files embed.FS
 
 // Reader is the read pass (reader.js, after the constants it reads from

@@ -67,33 +67,33 @@ func closeTarget(t testing.TB, h *harness, id target.ID) {
 	require.NoError(t, err)
 }
 
-// coreValue evaluates expr, a string, where this worker's core runs: the
-// worker itself when it has loaded one (until the first press has
-// granted "offscreen", a worker keeps to the core it loaded:
-// background.js, core), else the offscreen document (core-host.js).
+// coreValue evaluates expr, a string, in the service worker, which runs
+// the core until the first press has granted "offscreen" (a worker keeps
+// to the core it loaded: background.js, core). After that the core runs
+// in the offscreen document's worker, which DevTools does not reach from
+// here: its state is read through the document (hostValue,
+// standoutCore).
 func (h *harness) coreValue(expr string) string {
-	if h.workerValue(`typeof globalThis.standoutHandle`) == "function" || h.coreTarget() == "" {
-		return h.workerValue(expr)
-	}
-	return h.docValue(expr)
+	require.Equal(h.t, "function", h.workerValue(`typeof globalThis.standoutHandle`), "the service worker runs no core")
+	return h.workerValue(expr)
 }
 
-// docValue evaluates expr, a string, in the offscreen document that runs
-// the core. Promises are awaited.
-func (h *harness) docValue(expr string) string {
+// hostValue evaluates expr, a string, in the offscreen document
+// (core-host.js). Promises are awaited.
+func (h *harness) hostValue(expr string) string {
 	id := h.coreTarget()
-	require.NotEmpty(h.t, id, "no offscreen document runs the core")
+	require.NotEmpty(h.t, id, "no offscreen document")
 	if h.core == nil || h.coreID != id {
-		cctx, cancel := chromedp.NewContext(h.ctx, chromedp.WithTargetID(id))
+		ctx, cancel := chromedp.NewContext(h.ctx, chromedp.WithTargetID(id))
 		h.t.Cleanup(cancel)
-		h.core, h.coreID = cctx, id
+		h.core, h.coreID = ctx, id
 	}
 	v, err := chromedp.Run(h.core, chromedp.Evaluate[string](expr, chromedp.EvalAwaitPromise))
 	require.NoError(h.t, err)
 	return v
 }
 
-// inCore evaluates expr where the core runs.
+// inCore evaluates expr in the service worker's core (coreValue).
 func (h *harness) inCore(expr string) {
 	h.coreValue(expr + "\n;''")
 }

@@ -357,7 +357,7 @@ func TestCoreOutlivesTheWorker(t *testing.T) {
 	// the next worker (background.js: prepareHost).
 	assert.Equal(t, "function", h.workerValue(`typeof globalThis.standoutHandle`), "the worker that asked moved its core")
 	require.Eventually(t, func() bool {
-		return h.coreTarget() != "" && h.docValue(`typeof globalThis.standoutHandle`) == "function"
+		return h.coreTarget() != "" && h.hostValue(`String(globalThis.standoutCore.loaded)`) == "true"
 	}, 10*time.Second, 50*time.Millisecond, "no core loaded in an offscreen document after the grant")
 	doc := h.coreTarget()
 	var timing struct {
@@ -381,7 +381,7 @@ func TestCoreOutlivesTheWorker(t *testing.T) {
 	assert.Equal(t, doc, h.coreTarget(), "the document did not outlive the worker")
 	assert.Equal(t, 1.0, timing.Core["recalledCharts"], "the core did not keep its memory of the page: %v", timing.Core)
 	// The document tells the background it has been idle.
-	h.docValue(`chrome.runtime.sendMessage({ type: 'standout/host-idle' }).catch(() => {}), ''`)
+	h.hostValue(`chrome.runtime.sendMessage({ type: 'standout/host-idle' }).catch(() => {}), ''`)
 	require.Eventually(t, func() bool { return h.coreTarget() == "" }, 5*time.Second, 50*time.Millisecond, "the idle document stayed open")
 	press("the press after the idle document closed")
 	require.NotEmpty(t, h.coreTarget(), "no document after the idle one closed")
@@ -401,8 +401,9 @@ func TestPressWhenTheCoreDocumentCloses(t *testing.T) {
 	h.waitState("")
 	require.Equal(t, 1, h.stopWorker(t))
 	h.worker = nil
-	// The document's core now never answers.
-	h.docValue(`globalThis.standoutHandle = () => new Promise(() => {}), ''`)
+	// The document no longer hands requests to its core's worker, so
+	// none is answered.
+	h.hostValue(`Worker.prototype.postMessage = function () {}, ''`)
 	h.trigger()
 	h.waitState("reading")
 	closeTarget(t, h, h.coreTarget())
@@ -410,7 +411,6 @@ func TestPressWhenTheCoreDocumentCloses(t *testing.T) {
 	assert.Contains(t, h.overlayHTML(), "the Standout core stopped before it answered")
 	h.escape()
 	h.waitState("")
-	h.core = nil
 	h.trigger()
 	h.waitState("ready")
 	assert.NotEmpty(t, layerRects(t, h.overlayHTML())["svg0"]["pops"])

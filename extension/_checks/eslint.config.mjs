@@ -17,7 +17,7 @@ export default [
     },
   },
   {
-    files: ['background.js', 'core.js', 'core-host.js', 'keep.js', 'platform.js', 'findfunc.js', 'testdata/firefox/test-entry.js'],
+    files: ['background.js', 'core.js', 'core-host.js', 'core-worker.js', 'keep.js', 'platform.js', 'findfunc.js', 'testdata/firefox/test-entry.js'],
     languageOptions: { sourceType: 'module' },
   },
   {
