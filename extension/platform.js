@@ -22,9 +22,10 @@
 //   (testdata/firefox/test-entry.js, never shipped).
 // - Optimised code across loads. Chromium keeps the WebAssembly code V8
 //   has optimised and loads it with the module next time, in a service
-//   worker and an offscreen document too (measured; DEVELOPERS.md); the
-//   core is trained for it there (core.js: train). Firefox's event page is
-//   not trained: that was not measured there.
+//   worker and an extension page too (measured; DEVELOPERS.md; not
+//   measured on its own in the offscreen document's worker); the core is
+//   trained for it wherever it runs in Chromium (core.js: train).
+//   Firefox's event page is not trained: that was not measured there.
 export const ext = globalThis.browser ?? globalThis.chrome;
 
 // keepsOptimisedCode says whether the background runs as Chromium's
