@@ -110,8 +110,8 @@ type harness struct {
 	extID string
 	// worker is the service worker's context, once a test reached into it.
 	worker context.Context
-	// core is the context of the offscreen document that runs the core
-	// (core-host.js), coreID its target, once a test reached into it.
+	// core is the context of the offscreen document (core-host.js), and
+	// coreID its target, once a test reached into it (hostValue).
 	core   context.Context
 	coreID target.ID
 	url    string
