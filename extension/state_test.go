@@ -341,11 +341,10 @@ func withoutHostState(html string) string {
 // In Chromium the first press asks for "offscreen" (an optional permission
 // that comes without a prompt), and from the next worker on the core runs
 // in an offscreen document (core-host.js), loaded soon after the grant,
-// that outlives the worker: a
-// press after the worker stopped finds the core loaded and its memory of
-// the page kept (wasm/charts.go), and shows what a fresh core shows. When
-// the document has been idle (keep.js) the background closes
-// it, and the next press makes it again.
+// that outlives the worker: a press after the worker stopped finds the
+// core loaded and its memory of the page kept (wasm/charts.go), and shows
+// what a fresh core shows. When the document has been idle (keep.js) the
+// background closes it, and the next press makes it again.
 func TestCoreOutlivesTheWorker(t *testing.T) {
 	h := newHarness(t)
 	h.showPage(chartPage)
