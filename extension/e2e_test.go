@@ -93,15 +93,9 @@ func builtCopy(t testing.TB) string {
 // again, so a test that starts the browser again after a press declares
 // it instead.
 func grantOffscreen(t testing.TB, dir string) {
-	p := filepath.Join(dir, "manifest.json")
-	b, err := os.ReadFile(p)
-	require.NoError(t, err)
-	var m map[string]any
-	require.NoError(t, json.Unmarshal(b, &m))
-	m["permissions"] = append(m["permissions"].([]any), "offscreen")
-	b, err = json.Marshal(m)
-	require.NoError(t, err)
-	require.NoError(t, os.WriteFile(p, b, 0o644))
+	require.NoError(t, editManifest(dir, func(m map[string]any) {
+		m["permissions"] = append(m["permissions"].([]any), "offscreen")
+	}))
 }
 
 type harness struct {
@@ -1247,8 +1241,7 @@ func firstRegion(t *testing.T, ov, name string) [4]float64 {
 // reader who allowed those origins through optional_host_permissions (the
 // browser's prompt is a window no test can press).
 func builtWithHosts(t *testing.T) string {
-	dir := t.TempDir()
-	require.NoError(t, os.CopyFS(dir, os.DirFS(built(t))))
+	dir := builtCopy(t)
 	require.NoError(t, editManifest(dir, func(m map[string]any) {
 		m["host_permissions"] = []string{"http://127.0.0.1/*"}
 	}))
