@@ -235,8 +235,7 @@ async function loadAtStart() {
   try {
     const at = await readMark(PRESSED_MARK);
     if (at === undefined || !(Date.now() - Number(at) < LATELY_MS)) return;
-    await core('begin', 'overlay');
-    await core('end');
+    await core('load', 'overlay');
   } catch (e) {
     console.warn('Standout could not load its core:', e);
   }
@@ -527,9 +526,7 @@ export async function toggle(tab) {
 const HOST_AFTER_GRANT_MS = 3000;
 
 function prepareHost() {
-  hosted('begin', 'overlay')
-    .then(() => hosted('end'))
-    .catch((e) => console.warn('Standout could not load its core:', e));
+  hosted('load', 'overlay').catch((e) => console.warn('Standout could not load its core:', e));
 }
 
 async function showError(tabId, e, seq) {

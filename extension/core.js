@@ -272,6 +272,9 @@ export function startTraining() {
 // requests are what the background asks of the core, by name, with
 // strings, numbers and pixels for arguments (background.js: core).
 export const requests = Object.freeze({
+  // load loads a core ahead of the presses, resolving to how long that
+  // took (0 when it was running).
+  load: (name) => loadCore(named(name)),
   // begin marks a press's start, stopping the training until its end,
   // and loads the core it needs, resolving to how long that took (0 when
   // it was running).
