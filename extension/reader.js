@@ -776,8 +776,7 @@
 
     // viewportClip writes the box of the chart's outermost <svg> (at idx,
     // in page px) as its clip region when the <svg> clips what is drawn
-    // outside it,
-    // as browsers' own style sheet has it do (static/build.go:
+    // outside it, as browsers' own style sheet has it do (static/build.go:
     // clipsOverflow).
     viewportClip(el, idx, box) {
       const cs = getComputedStyle(el);

@@ -119,9 +119,9 @@ const (
 // which CTM maps to page CSS px: for a group, the group's CTM with the
 // <clipPath>'s and the <rect>'s own transforms; for the <svg>, its Box
 // with the identity. It follows a group as its first child, and comes
-// last for the <svg>, named its parent's name and ">#clip". No element's local name can begin with
-// "#". Both ways in write it; Walk sets aside what lies wholly outside a
-// region that clips it.
+// last for the <svg>, named its parent's name and ">#clip". No element's
+// local name can begin with "#". Both ways in write it; Walk sets aside
+// what lies wholly outside a region that clips it.
 const ClipTag = "#clip"
 
 // Paint is a computed fill or stroke.
