@@ -10,8 +10,10 @@ import "runtime"
 // 5,000-mark request allocates about 12 MB. So after each collection,
 // headroom touches what the next request would need beyond the free
 // memory, while the reader reads the answer; the next request then meets
-// no new pages unless it is larger than the last. (The first request
-// after the core loads still does: nothing runs before it.)
+// no new pages unless it is larger than the last. The first request
+// after the core loads would meet them all, so a core loaded ahead of a
+// press touches, as it starts, the heap the last core's requests needed
+// (reserve; core.js: STANDOUT_ROOM).
 
 // headroomCap is the most heap the headroom grows to, well under the
 // core's memory limit (GOMEMLIMIT=256MiB).
@@ -28,6 +30,9 @@ type headroom struct {
 	touched uint64
 	// inuse is the heap in use after the last collection.
 	inuse uint64
+	// made is what was allocated between the last two collections: the
+	// last request's allocations (one collection follows each request).
+	made uint64
 }
 
 // want is how many bytes of heap to hold at once so that the free memory
@@ -51,6 +56,7 @@ func (h *headroom) keep() {
 	var m runtime.MemStats
 	runtime.ReadMemStats(&m)
 	made := m.TotalAlloc - h.total
+	h.made = made
 	// Without a collection in between, the heap held what was in use
 	// after the last one and all that was made since.
 	h.touched = max(h.touched, h.inuse+made, m.HeapInuse)
@@ -60,6 +66,24 @@ func (h *headroom) keep() {
 		runtime.GC()
 		runtime.ReadMemStats(&m)
 	}
+	h.total, h.inuse = m.TotalAlloc, m.HeapInuse
+}
+
+// reserve runs as the core starts, before any request, given made, the
+// most a request of the last core allocated: it touches that and a
+// quarter more, as keep would after such a request, and frees it, so that
+// a first request like it meets no new pages. A heap that would pass
+// headroomCap is left as it is.
+func (h *headroom) reserve(made uint64) {
+	var m runtime.MemStats
+	runtime.ReadMemStats(&m)
+	if n := h.want(made, 0, m.HeapAlloc); n > 0 {
+		touch(n)
+		runtime.GC()
+		h.touched = m.HeapInuse + n
+		runtime.ReadMemStats(&m)
+	}
+	h.touched = max(h.touched, m.HeapInuse)
 	h.total, h.inuse = m.TotalAlloc, m.HeapInuse
 }
 

@@ -35,7 +35,17 @@ func main() {
 	if v, _ := syscall.Getenv("GOGC"); v != "off" {
 		js.Global().Get("console").Call("warn", "Standout core: GOGC is "+strconv.Quote(v)+", not off; the collector will run within requests")
 	}
-	collectLater, stop := collector()
+	// The loader gives the heap the first request will need, in bytes,
+	// as STANDOUT_ROOM: the most a request of the last core allocated,
+	// which the collector tells it as <handleGlobal>Allocated (heap.go:
+	// reserve and keep; core.js: roomToReserve).
+	var room headroom
+	if v, ok := syscall.Getenv("STANDOUT_ROOM"); ok {
+		if n, err := strconv.ParseUint(v, 10, 64); err == nil {
+			room.reserve(n)
+		}
+	}
+	collectLater, stop := collector(&room)
 	defer stop()
 	handle := js.FuncOf(func(this js.Value, args []js.Value) any {
 		for _, a := range args {
@@ -90,15 +100,16 @@ func main() {
 // collector returns collectLater, which collects garbage once the
 // response on its way has been returned (a timer hands control back to
 // JavaScript first; one collection pending at a time), then keeps the
-// heap large enough for the next request (heap.go); and the function
-// that releases its timer callback.
-func collector() (collectLater func(), release func()) {
+// heap large enough for the next request (heap.go) and tells the loader
+// what the request allocated; and the function that releases its timer
+// callback.
+func collector(room *headroom) (collectLater func(), release func()) {
 	var collect sync.Mutex
-	var room headroom
 	gc := js.FuncOf(func(js.Value, []js.Value) any {
 		defer collect.Unlock()
 		runtime.GC()
 		room.keep()
+		js.Global().Set(handleGlobal+"Allocated", float64(room.made))
 		return nil
 	})
 	return func() {
