@@ -36,7 +36,11 @@ function loadCore(core = CORES.overlay) {
       // heap reaches 256 MiB (wasm/main_js.go).
       go.env = { GOGC: 'off', GOMEMLIMIT: '256MiB' };
       const url = packaged(core.file);
-      const { module, instance } = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
+      const [roomBytes, { module, instance }] = await Promise.all([
+        core === CORES.overlay ? roomToReserve() : 0,
+        WebAssembly.instantiateStreaming(fetch(url), go.importObject),
+      ]);
+      if (roomBytes > 0) go.env.STANDOUT_ROOM = String(roomBytes);
       restoreFindFuncTable(module, instance);
       core.memory = instance.exports.mem;
       go.run(instance).finally(() => dropCore(core)); // settles only when Go exits
@@ -51,6 +55,48 @@ function loadCore(core = CORES.overlay) {
     });
   }
   return core.promise;
+}
+
+// A page of memory new to the core's process costs a page fault at its
+// first touch: about 2.7 ms per MB on this project's test machines
+// (DEVELOPERS.md), and a fresh core's first request on a 5,000-mark
+// chart meets some 15 MB of them. Between requests the core keeps the
+// memory the next one needs touched (wasm/heap.go); a core loaded ahead
+// of a press, as the browser starts or after the grant, has its start
+// for that. So the most a request of the overlay core allocated in this
+// context (its collector tells it, as standoutHandleAllocated) is kept
+// in a mark for the next context's core, which touches that and a
+// quarter more as it loads (wasm/heap.go: reserve). The mark counts up
+// to ROOM_CAP, the project's choice: at most about 110 ms of faults at a
+// load, and a document well under keep.js's large memory.
+const ROOM_MARK = 'https://standout.invalid/room';
+const ROOM_CAP = 32 << 20;
+const ROOM_STEP = 1 << 20;
+const ROOM_NOTE_MS = 100;
+const room = { most: 0, written: -1 };
+
+// roomToReserve is the bytes the mark holds, for a core loading now
+// (0 without one).
+async function roomToReserve() {
+  try {
+    const n = Number(await readMark(ROOM_MARK));
+    return Number.isFinite(n) && n > 0 ? Math.min(ROOM_CAP, Math.round(n)) : 0;
+  } catch {
+    return 0;
+  }
+}
+
+// noteRoom keeps the most a request of the overlay core has allocated in
+// this context, and writes it to the mark when it moved by more than
+// ROOM_STEP from what this context wrote (the first time, always).
+function noteRoom() {
+  const n = globalThis.standoutHandleAllocated;
+  if (!Number.isFinite(n)) return;
+  room.most = Math.max(room.most, n);
+  if (Math.abs(room.most - room.written) > ROOM_STEP) {
+    room.written = room.most;
+    writeMark(ROOM_MARK, String(room.most), 'record its heap');
+  }
 }
 
 function dropCore(core) {
@@ -297,7 +343,12 @@ export const requests = Object.freeze({
     const core = named(name);
     const t0 = performance.now();
     const response = await callCore(core, options, page, frames);
-    if (core === CORES.overlay && response.startsWith('{"ok":true')) train(performance.now() - t0, options, [page], frames);
+    if (core === CORES.overlay && response.startsWith('{"ok":true')) {
+      train(performance.now() - t0, options, [page], frames);
+      // The core collects, and tells what the request allocated, a
+      // moment after it answered (wasm/main_js.go: collector).
+      setTimeout(noteRoom, ROOM_NOTE_MS);
+    }
     return response;
   },
   // saliency judges a chart drawn as pixels (RGBA, w × h) for every

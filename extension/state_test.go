@@ -389,6 +389,38 @@ func TestCoreOutlivesTheWorker(t *testing.T) {
 	h.waitState("")
 }
 
+// A core loaded ahead of a press touches, as it starts, the heap the last
+// core's requests needed (core.js: roomToReserve; wasm/heap.go:
+// reserve), so that its first request meets no new pages: the press's
+// core records the most a request allocated in a mark, and the core the
+// offscreen document loads after the grant (background.js: prepareHost)
+// holds that and a quarter more. A fresh core holds about 3 MB; the
+// request on 3,000 marks allocates several times that.
+func TestCoreLoadsWithTheRoomItNeeds(t *testing.T) {
+	h := newHarness(t)
+	h.showPage(scatterPage(3000, ""))
+	mark := func() float64 {
+		v, err := strconv.ParseFloat(h.workerValue(`caches.open('standout').then((c) => c.match('https://standout.invalid/room')).then((r) => (r ? r.text() : '')).then((v) => { globalThis.testRoom = v; }), String(globalThis.testRoom || '')`), 64)
+		if err != nil {
+			return 0
+		}
+		return v
+	}
+	var room float64
+	require.Eventually(t, func() bool { room = mark(); return room > 0 }, 5*time.Second, 50*time.Millisecond, "the press left no mark of its heap")
+	allocated, err := strconv.ParseFloat(h.coreValue(`String(globalThis.standoutHandleAllocated)`), 64)
+	require.NoError(t, err)
+	assert.GreaterOrEqual(t, room, allocated, "the mark holds less than the press's core allocated")
+	assert.Greater(t, room, float64(4<<20), "a check of 3,000 marks allocated only %.0f bytes", room)
+	require.Eventually(t, func() bool {
+		return h.coreTarget() != "" && h.hostValue(`String(globalThis.standoutCore.loaded)`) == "true"
+	}, 10*time.Second, 50*time.Millisecond, "no core loaded in an offscreen document after the grant")
+	held, err := strconv.ParseFloat(h.hostValue(`String(globalThis.standoutCore.held)`), 64)
+	require.NoError(t, err)
+	t.Logf("the mark: %.0f bytes; the document's core holds %.0f before any request", room, held)
+	assert.GreaterOrEqual(t, held, 1.25*room, "the document's core holds %.0f bytes before any request, against a mark of %.0f", held, room)
+}
+
 // A press whose offscreen document goes away before it answers (closed by
 // the browser, or its process lost) fails with an error that says so,
 // instead of waiting for ever; the next press makes the document again.
