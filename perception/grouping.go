@@ -114,7 +114,7 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 	if nb == nil {
 		nb = neighboursXY(xs, ys, max(p.Neighbours, 1), p.Kept)
 	}
-	labels, k := p.Kept.proximity(xs, ys, nb, p.ProximityRatio)
+	labels, k := p.Kept.proximity(xs, ys, nb, p.ProximityRatio, p.ProximityGap)
 	g.addLabels(CueProximity, labels, k)
 	g.add(CueColour, colourGroups(in, p, g.Marks))
 	g.add(CueShape, shapeGroups(in, g.Marks))
@@ -129,33 +129,139 @@ func group(in Input, p Params, kinds map[string][]int, kindNbs map[string][][]in
 	return g
 }
 
-// proximityGroups is single linkage at ratio × the median nearest-
-// neighbour distance, over each mark's nearest neighbours nb (a
-// k-nearest-neighbour graph, which joins the same groups wherever groups
-// are denser than one mark per neighbourhood, and keeps the step
-// O(n log n)).
-func proximityGroups(xs, ys []float64, nb [][]int, ratio float64) unionFind {
+// proximityGroups groups the marks by proximity as a reader sees them:
+// into groups whose gaps are clearly wider than the spacing within them.
+// Grouping by proximity follows the ratio of distances (Kubovy, Holcombe
+// & Wagemans 1998), so a cut of single linkage at ratio × the median
+// nearest-neighbour distance, which cuts any cloud somewhere, makes groups
+// a reader sees only where no mark of another group is within gap times
+// the widest link that joined a group. From that cut, the next links are
+// joined, shortest first, until that holds (Kruskal over the neighbour
+// lists nb, a k-nearest-neighbour graph, then a search of the grid for
+// pairs the lists left out). A scatter whose density merely varies has
+// no such gap and ends as one group, with at most a few outliers, which
+// make no second structure (addLabels); three clusters far apart stay
+// three, their edges' stragglers joined to them.
+func proximityGroups(xs, ys []float64, nb [][]int, ratio, gap float64) unionFind {
 	n := len(xs)
+	uf := newUF(n)
 	nn := make([]float64, n)
-	for k := range nn {
-		if len(nb[k]) > 0 {
-			j := nb[k][0]
-			nn[k] = math.Hypot(xs[j]-xs[k], ys[j]-ys[k])
+	for k, l := range nb {
+		if len(l) > 0 {
+			nn[k] = math.Hypot(xs[l[0]]-xs[k], ys[l[0]]-ys[k])
 		}
 	}
 	thr := ratio * upperMedian(nn)
-	uf := newUF(n)
-	if thr > 0 {
-		thr2 := thr * thr
-		for k := range nb {
-			for _, j := range nb[k] {
-				if dx, dy := xs[j]-xs[k], ys[j]-ys[k]; dx*dx+dy*dy <= thr2 {
-					uf.union(k, j)
+	if !(thr > 0) {
+		return uf
+	}
+	// The links, each once, as the squared length's float32 bits (which
+	// order as the lengths do) over the link's index, sorted by the
+	// length's bits alone: a radix sort of plain integers, several times
+	// faster than a comparison sort.
+	total := 0
+	for _, l := range nb {
+		total += len(l)
+	}
+	ends := make([][2]int32, 0, total)
+	keys := make([]uint64, 0, total)
+	for k, l := range nb {
+		for _, j := range l {
+			if j < k && slices.Contains(nb[j], k) {
+				continue // listed from j's side too
+			}
+			d2 := float32((xs[j]-xs[k])*(xs[j]-xs[k]) + (ys[j]-ys[k])*(ys[j]-ys[k]))
+			keys = append(keys, uint64(math.Float32bits(d2))<<32|uint64(len(ends)))
+			ends = append(ends, [2]int32{int32(k), int32(j)})
+		}
+	}
+	sortByHigh32(keys)
+	thr2, gap2 := float32(thr*thr), float32(gap*gap)
+	widest2 := float32(0)
+	for _, key := range keys {
+		e, d2 := ends[uint32(key)], math.Float32frombits(uint32(key>>32))
+		ra, rb := uf.find(int(e[0])), uf.find(int(e[1]))
+		if ra == rb {
+			continue
+		}
+		if d2 > thr2 && d2 >= gap2*widest2 {
+			break
+		}
+		uf[ra] = rb
+		widest2 = d2
+	}
+	// The lists hold each mark's nearest few only: pairs of groups within
+	// reach that no list joined are joined from the grid, a pass at a
+	// time, each reaching as far as the links joined so far allow. Groups
+	// that have not settled after proximityPasses have no clear gaps:
+	// they are one group.
+	if widest2 > 0 && groupsOfMany(uf, 2) {
+		grd := newGrid(xs, ys, 2)
+		for pass, joined := 0, true; joined; pass++ {
+			if pass == proximityPasses {
+				for k := 1; k < n; k++ {
+					uf.union(0, k)
 				}
+				break
+			}
+			joined = false
+			r := gap * math.Sqrt(float64(widest2))
+			for k := range xs {
+				grd.some(xs[k], ys[k], r, func(j int) bool {
+					if ra, rb := uf.find(k), uf.find(j); ra != rb {
+						uf[ra] = rb
+						widest2 = max(widest2, float32((xs[j]-xs[k])*(xs[j]-xs[k])+(ys[j]-ys[k])*(ys[j]-ys[k])))
+						joined = true
+					}
+					return false
+				})
 			}
 		}
 	}
 	return uf
+}
+
+// proximityPasses is how many passes over the grid proximityGroups makes
+// at most: each joins every pair within its reach, so groups that need
+// more are joined by gaps that grow little by little, which a crafted
+// page could make many of.
+const proximityPasses = 8
+
+// sortByHigh32 sorts keys by their upper 32 bits, a byte at a time
+// (least significant first, each pass stable).
+func sortByHigh32(keys []uint64) {
+	tmp := make([]uint64, len(keys))
+	for shift := 32; shift < 64; shift += 8 {
+		var count [257]int
+		for _, k := range keys {
+			count[(k>>shift)&0xff+1]++
+		}
+		for b := 1; b < len(count); b++ {
+			count[b] += count[b-1]
+		}
+		for _, k := range keys {
+			b := (k >> shift) & 0xff
+			tmp[count[b]] = k
+			count[b]++
+		}
+		keys, tmp = tmp, keys
+	}
+}
+
+// groupsOfMany says whether at least want sets of uf hold more than one
+// member each.
+func groupsOfMany(uf unionFind, want int) bool {
+	size := make([]int32, len(uf))
+	many := 0
+	for i := range uf {
+		r := uf.find(i)
+		if size[r]++; size[r] == 2 {
+			if many++; many >= want {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // colourGroups joins the marks whose colours are not noticeably different
@@ -282,16 +388,28 @@ func (g *Grouping) compare(p Params) {
 	}
 }
 
-// add keeps a partition only when it structures the marks: more than one
-// group, and some group with more than one mark.
+// add keeps a partition only when it structures the marks (addLabels).
 func (g *Grouping) add(c Cue, uf unionFind) {
 	labels, k := uf.labels()
 	g.addLabels(c, labels, k)
 }
 
-// addLabels adds the partition of labels into k groups.
+// addLabels adds the partition of labels into k groups when it structures
+// the marks: when at least two of its groups hold more than one mark. A
+// mark alone in its group is an emphasis or an outlier, which the pop-out
+// analysis judges; beside one large group it makes no second structure.
 func (g *Grouping) addLabels(c Cue, labels []int, k int) {
 	if k <= 1 || k >= len(labels) {
+		return
+	}
+	size := make([]int, k)
+	many := 0
+	for _, l := range labels {
+		if size[l]++; size[l] == 2 {
+			many++
+		}
+	}
+	if many < 2 {
 		return
 	}
 	g.Partitions = append(g.Partitions, Partition{Cue: c, Labels: labels, Groups: k})

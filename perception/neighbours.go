@@ -159,6 +159,26 @@ func (g *grid) within(x, y, r float64) []int {
 	return out
 }
 
+// some says whether f holds for a point within radius r of (x, y),
+// asking no further once it does.
+func (g *grid) some(x, y, r float64, f func(int) bool) bool {
+	x0, x1 := g.cx(x-r), g.cx(x+r)
+	y0, y1 := g.cy(y-r), g.cy(y+r)
+	r2 := r * r
+	for yy := y0; yy <= y1; yy++ {
+		for xx := x0; xx <= x1; xx++ {
+			c := g.cellIndex(xx, yy)
+			for _, j32 := range g.items[g.start[c]:g.start[c+1]] {
+				j := int(j32)
+				if dx, dy := g.x[j]-x, g.y[j]-y; dx*dx+dy*dy <= r2 && f(j) {
+					return true
+				}
+			}
+		}
+	}
+	return false
+}
+
 // upperMedian is the element at position len(v)/2 of v in ascending order
 // (slices.Sort's order: NaN first), found by selection in expected linear
 // time rather than by a sort; it reorders v, which must not be empty.

@@ -131,6 +131,12 @@ type Params struct {
 	// median nearest-neighbour distance: an engineering convention, not
 	// published (REFERENCES §7.2, after Kubovy et al. 1998's ratio law).
 	ProximityRatio float64
+	// ProximityGap is how many times wider than the widest link within
+	// them the gaps between proximity groups must be for a reader to see
+	// the groups (grouping.go: clearlyApart): an engineering convention
+	// after the ratio law (Kubovy et al. 1998), not a published threshold.
+	// Provisional.
+	ProximityGap float64
 	// ConnectTolerancePx is how far a mark centre may sit from a line and
 	// still count as on it, beyond half the line's stroke width.
 	ConnectTolerancePx float64
@@ -201,6 +207,7 @@ var DefaultParams = Params{
 	IsolationRatio:     6,
 	Neighbours:         8,
 	ProximityRatio:     2,
+	ProximityGap:       1.5,
 	ConnectTolerancePx: 1.5,
 	ConflictARI:        0.2,
 	AgreeARI:           0.8,

@@ -437,32 +437,32 @@ type Kept struct {
 
 // keptProximity is one proximity grouping: the neighbour lists it joined
 // (a kept search's, known by identity, which stands for the points), its
-// ratio, and its labels and number of groups.
+// ratio and gap, and its labels and number of groups.
 type keptProximity struct {
-	nb     [][]int
-	ratio  float64
-	labels []int
-	k      int
+	nb         [][]int
+	ratio, gap float64
+	labels     []int
+	k          int
 }
 
-// proximity is the single-linkage grouping of the points xs, ys over
-// their neighbour lists nb (proximityGroups) as labels and a number of
-// groups: as kept when nb is a kept search's lists, grouped with this
-// ratio before. The labels are the caller's to keep.
-func (kept *Kept) proximity(xs, ys []float64, nb [][]int, ratio float64) (labels []int, k int) {
+// proximity is the grouping by proximity of the points xs, ys over their
+// neighbour lists nb (proximityGroups) as labels and a number of groups:
+// as kept when nb is a kept search's lists, grouped with this ratio and
+// gap before. The labels are the caller's to keep.
+func (kept *Kept) proximity(xs, ys []float64, nb [][]int, ratio, gap float64) (labels []int, k int) {
 	keep := kept != nil && len(xs) >= keepNeighboursFrom && len(nb) > 0
 	if keep {
 		kept.mu.Lock()
 		defer kept.mu.Unlock()
 		if c := kept.groupings.find(func(c *keptProximity) bool {
-			return sameLists(c.nb, nb) && sameFloats(c.ratio, ratio)
+			return sameLists(c.nb, nb) && sameFloats(c.ratio, ratio) && sameFloats(c.gap, gap)
 		}); c != nil {
 			return slices.Clone(c.labels), c.k
 		}
 	}
-	labels, k = proximityGroups(xs, ys, nb, ratio).labels()
+	labels, k = proximityGroups(xs, ys, nb, ratio, gap).labels()
 	if keep {
-		kept.groupings.push(&keptProximity{nb, ratio, slices.Clone(labels), k})
+		kept.groupings.push(&keptProximity{nb, ratio, gap, slices.Clone(labels), k})
 	}
 	return labels, k
 }
