@@ -206,7 +206,7 @@ func proximityGroups(xs, ys []float64, nb [][]int, ratio, gap float64) unionFind
 			}
 			joined = false
 			r := gap * math.Sqrt(float64(widest2))
-			for k := range xs {
+			for _, k := range grd.mixedWithin(r, uf.find) {
 				grd.some(xs[k], ys[k], r, func(j int) bool {
 					if ra, rb := uf.find(k), uf.find(j); ra != rb {
 						uf[ra] = rb

@@ -144,3 +144,18 @@ func TestOneHighlightedMarkIsNoGrouping(t *testing.T) {
 	_, ok := relation(g, CueProximity, CueColour)
 	assert.False(t, ok, "%+v", g.Agreements)
 }
+
+func TestProximityGroupsJoinWhatTheListsLeftOut(t *testing.T) {
+	// Neighbour lists that name each mark's partner only: the pairs are
+	// joined at 10 px, and the search of the grid finds what the lists
+	// left out, another pair within 1.5 × 10 px (one group), or none (two).
+	nb := [][]int{{1}, {0}, {3}, {2}}
+	for _, c := range []struct {
+		at     float64
+		groups int
+	}{{20, 1}, {500, 2}} {
+		xs := []float64{0, 10, c.at, c.at + 10}
+		_, k := proximityGroups(xs, make([]float64, 4), nb, DefaultParams.ProximityRatio, DefaultParams.ProximityGap).labels()
+		assert.Equal(t, c.groups, k, "the second pair at %.0f px", c.at)
+	}
+}

@@ -179,6 +179,59 @@ func (g *grid) some(x, y, r float64, f func(int) bool) bool {
 	return false
 }
 
+// mixedWithin lists the points that may have a point of another group
+// (as groupOf says) within radius r: those of the cells with another
+// group's point in a cell within r's reach. The points of a cell whose
+// reach holds its own group alone are left out, so that a search over
+// groups far apart looks at their edges only.
+func (g *grid) mixedWithin(r float64, groupOf func(int) int) []int {
+	label := make([]int, g.nx*g.ny)
+	for c := range label {
+		label[c] = cellEmpty
+		for _, j := range g.items[g.start[c]:g.start[c+1]] {
+			if l := groupOf(int(j)); label[c] == cellEmpty {
+				label[c] = l
+			} else if label[c] != l {
+				label[c] = cellMixed
+				break
+			}
+		}
+	}
+	reach := int(math.Ceil(r / g.cell))
+	var out []int
+	for cy := 0; cy < g.ny; cy++ {
+		for cx := 0; cx < g.nx; cx++ {
+			c := g.cellIndex(cx, cy)
+			if label[c] == cellEmpty || !g.othersNear(label, c, cx, cy, reach) {
+				continue
+			}
+			for _, j := range g.items[g.start[c]:g.start[c+1]] {
+				out = append(out, int(j))
+			}
+		}
+	}
+	return out
+}
+
+// A cell's label in mixedWithin: its points' group, or one of these.
+const cellEmpty, cellMixed = -1, -2
+
+// othersNear says whether a cell within reach cells of cell c (at cx,
+// cy) holds a group other than c's, or c holds several.
+func (g *grid) othersNear(label []int, c, cx, cy, reach int) bool {
+	if label[c] == cellMixed {
+		return true
+	}
+	for yy := max(cy-reach, 0); yy <= min(cy+reach, g.ny-1); yy++ {
+		for xx := max(cx-reach, 0); xx <= min(cx+reach, g.nx-1); xx++ {
+			if l := label[g.cellIndex(xx, yy)]; l != cellEmpty && l != label[c] {
+				return true
+			}
+		}
+	}
+	return false
+}
+
 // upperMedian is the element at position len(v)/2 of v in ascending order
 // (slices.Sort's order: NaN first), found by selection in expected linear
 // time rather than by a sort; it reorders v, which must not be empty.
