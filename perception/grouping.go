@@ -198,7 +198,7 @@ func proximityGroups(xs, ys []float64, nb [][]int, ratio, gap float64) unionFind
 	if widest2 > 0 && groupsOfMany(uf, 2) {
 		grd := newGrid(xs, ys, 2)
 		for pass, joined := 0, true; joined; pass++ {
-			if pass == proximityPasses {
+			if pass == proximityPasses || gap*math.Sqrt(float64(widest2)) > proximityReach*grd.cell {
 				for k := 1; k < n; k++ {
 					uf.union(0, k)
 				}
@@ -224,8 +224,15 @@ func proximityGroups(xs, ys []float64, nb [][]int, ratio, gap float64) unionFind
 // proximityPasses is how many passes over the grid proximityGroups makes
 // at most: each joins every pair within its reach, so groups that need
 // more are joined by gaps that grow little by little, which a crafted
-// page could make many of.
-const proximityPasses = 8
+// page could make many of. proximityReach is how many of the grid's
+// cells (about two points each, spread over the chart) a pass may
+// reach: groups whose own links span more than that, beside marks
+// packed much closer elsewhere, would make each search cover much of
+// the grid, and are taken as one group, as without clear gaps.
+const (
+	proximityPasses = 8
+	proximityReach  = 7
+)
 
 // sortByHigh32 sorts keys by their upper 32 bits, a byte at a time
 // (least significant first, each pass stable).

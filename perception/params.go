@@ -133,7 +133,7 @@ type Params struct {
 	ProximityRatio float64
 	// ProximityGap is how many times wider than the widest link within
 	// them the gaps between proximity groups must be for a reader to see
-	// the groups (grouping.go: clearlyApart): an engineering convention
+	// the groups (grouping.go: proximityGroups): an engineering convention
 	// after the ratio law (Kubovy et al. 1998), not a published threshold.
 	// Provisional.
 	ProximityGap float64
