@@ -170,7 +170,7 @@ func proximityGroups(xs, ys []float64, nb [][]int, ratio, gap float64) unionFind
 			if j < k && slices.Contains(nb[j], k) {
 				continue // listed from j's side too
 			}
-			d2 := float32((xs[j]-xs[k])*(xs[j]-xs[k]) + (ys[j]-ys[k])*(ys[j]-ys[k]))
+			d2 := float32(dist2(xs, ys, j, k))
 			keys = append(keys, uint64(math.Float32bits(d2))<<32|uint64(len(ends)))
 			ends = append(ends, [2]int32{int32(k), int32(j)})
 		}
@@ -195,25 +195,26 @@ func proximityGroups(xs, ys []float64, nb [][]int, ratio, gap float64) unionFind
 	// time, each reaching as far as the links joined so far allow. Groups
 	// that have not settled after proximityPasses have no clear gaps:
 	// they are one group.
-	if widest2 > 0 && groupsOfMany(uf, 2) {
+	if widest2 > 0 && manyMembered(uf.labels()) >= 2 {
 		grd := newGrid(xs, ys, 2)
 		for pass, joined := 0, true; joined; pass++ {
-			if pass == proximityPasses || gap*math.Sqrt(float64(widest2)) > proximityReach*grd.cell {
+			r := gap * math.Sqrt(float64(widest2))
+			if pass == proximityPasses || r > proximityReach*grd.cell {
 				for k := 1; k < n; k++ {
 					uf.union(0, k)
 				}
 				break
 			}
 			joined = false
-			r := gap * math.Sqrt(float64(widest2))
 			for _, k := range grd.mixedWithin(r, uf.find) {
-				grd.some(xs[k], ys[k], r, func(j int) bool {
-					if ra, rb := uf.find(k), uf.find(j); ra != rb {
-						uf[ra] = rb
-						widest2 = max(widest2, float32((xs[j]-xs[k])*(xs[j]-xs[k])+(ys[j]-ys[k])*(ys[j]-ys[k])))
-						joined = true
+				grd.near(xs[k], ys[k], r, func(j int) {
+					if d2 := dist2(xs, ys, j, k); d2 <= r*r {
+						if ra, rb := uf.find(k), uf.find(j); ra != rb {
+							uf[ra] = rb
+							widest2 = max(widest2, float32(d2))
+							joined = true
+						}
 					}
-					return false
 				})
 			}
 		}
@@ -255,20 +256,23 @@ func sortByHigh32(keys []uint64) {
 	}
 }
 
-// groupsOfMany says whether at least want sets of uf hold more than one
-// member each.
-func groupsOfMany(uf unionFind, want int) bool {
-	size := make([]int32, len(uf))
+// dist2 is the squared distance of points j and k.
+func dist2(xs, ys []float64, j, k int) float64 {
+	dx, dy := xs[j]-xs[k], ys[j]-ys[k]
+	return dx*dx + dy*dy
+}
+
+// manyMembered is how many of the k groups of labels hold more than one
+// member.
+func manyMembered(labels []int, k int) int {
+	size := make([]int, k)
 	many := 0
-	for i := range uf {
-		r := uf.find(i)
-		if size[r]++; size[r] == 2 {
-			if many++; many >= want {
-				return true
-			}
+	for _, l := range labels {
+		if size[l]++; size[l] == 2 {
+			many++
 		}
 	}
-	return false
+	return many
 }
 
 // colourGroups joins the marks whose colours are not noticeably different
@@ -409,14 +413,7 @@ func (g *Grouping) addLabels(c Cue, labels []int, k int) {
 	if k <= 1 || k >= len(labels) {
 		return
 	}
-	size := make([]int, k)
-	many := 0
-	for _, l := range labels {
-		if size[l]++; size[l] == 2 {
-			many++
-		}
-	}
-	if many < 2 {
+	if manyMembered(labels, k) < 2 {
 		return
 	}
 	g.Partitions = append(g.Partitions, Partition{Cue: c, Labels: labels, Groups: k})

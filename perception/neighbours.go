@@ -143,40 +143,28 @@ func (g *grid) knnInto(i, k int, js []int, ds []float64) []int {
 // within returns the points within radius r of (x, y).
 func (g *grid) within(x, y, r float64) []int {
 	var out []int
-	x0, x1 := g.cx(x-r), g.cx(x+r)
-	y0, y1 := g.cy(y-r), g.cy(y+r)
-	for yy := y0; yy <= y1; yy++ {
-		for xx := x0; xx <= x1; xx++ {
-			c := g.cellIndex(xx, yy)
-			for _, j32 := range g.items[g.start[c]:g.start[c+1]] {
-				j := int(j32)
-				if math.Hypot(g.x[j]-x, g.y[j]-y) <= r {
-					out = append(out, j)
-				}
-			}
+	g.near(x, y, r, func(j int) {
+		if math.Hypot(g.x[j]-x, g.y[j]-y) <= r {
+			out = append(out, j)
 		}
-	}
+	})
 	return out
 }
 
-// some says whether f holds for a point within radius r of (x, y),
-// asking no further once it does.
-func (g *grid) some(x, y, r float64, f func(int) bool) bool {
+// near calls f with every point of the cells that a disc of radius r
+// about (x, y) reaches: the points within r and some beyond, which f
+// tells apart as it needs.
+func (g *grid) near(x, y, r float64, f func(j int)) {
 	x0, x1 := g.cx(x-r), g.cx(x+r)
 	y0, y1 := g.cy(y-r), g.cy(y+r)
-	r2 := r * r
 	for yy := y0; yy <= y1; yy++ {
 		for xx := x0; xx <= x1; xx++ {
 			c := g.cellIndex(xx, yy)
-			for _, j32 := range g.items[g.start[c]:g.start[c+1]] {
-				j := int(j32)
-				if dx, dy := g.x[j]-x, g.y[j]-y; dx*dx+dy*dy <= r2 && f(j) {
-					return true
-				}
+			for _, j := range g.items[g.start[c]:g.start[c+1]] {
+				f(int(j))
 			}
 		}
 	}
-	return false
 }
 
 // mixedWithin lists the points that may have a point of another group
