@@ -61,10 +61,7 @@ func (h *headroom) keep() {
 	// after the last one and all that was made since.
 	h.touched = max(h.touched, h.inuse+made, m.HeapInuse)
 	if n := h.want(made, h.touched-m.HeapInuse, m.HeapAlloc); n > 0 {
-		touch(n)
-		h.touched = max(h.touched, m.HeapInuse+n)
-		runtime.GC()
-		runtime.ReadMemStats(&m)
+		h.hold(n, &m)
 	}
 	h.total, h.inuse = m.TotalAlloc, m.HeapInuse
 }
@@ -78,13 +75,19 @@ func (h *headroom) reserve(made uint64) {
 	var m runtime.MemStats
 	runtime.ReadMemStats(&m)
 	if n := h.want(made, 0, m.HeapAlloc); n > 0 {
-		touch(n)
-		runtime.GC()
-		h.touched = m.HeapInuse + n
-		runtime.ReadMemStats(&m)
+		h.hold(n, &m)
 	}
 	h.touched = max(h.touched, m.HeapInuse)
 	h.total, h.inuse = m.TotalAlloc, m.HeapInuse
+}
+
+// hold touches n bytes beyond the m.HeapInuse in use, counts them as
+// touched, collects them and reads the heap's statistics into m again.
+func (h *headroom) hold(n uint64, m *runtime.MemStats) {
+	touch(n)
+	h.touched = max(h.touched, m.HeapInuse+n)
+	runtime.GC()
+	runtime.ReadMemStats(m)
 }
 
 // touch holds n bytes at once, in pieces, and writes one byte in every
