@@ -83,3 +83,25 @@ func BenchmarkNeighbours5k(b *testing.B) {
 		neighbours(in.Marks, idx, DefaultParams.Neighbours, nil)
 	}
 }
+
+// BenchmarkAnalyseCrowded20k is a crafted page's chart: 20,000 points
+// packed into 3 px, two more 20,000 px apart, which crowd a uniform
+// grid's few cells (the index turns to its tree), and a line drawn
+// 10,000 times back and forth over the crowd (connectedGroups).
+func BenchmarkAnalyseCrowded20k(b *testing.B) {
+	in := benchMarks(20000)
+	rng := rand.New(rand.NewSource(2))
+	for i := range in.Marks[:20000] {
+		in.Marks[i].X, in.Marks[i].Y = rng.Float64()*3, rng.Float64()*3
+	}
+	in.Marks[0].X, in.Marks[1].X = -1e4, 1e4
+	line := Mark{Kind: "line", Type: colour.Line, Colour: colour.MustHex("#333333"), MinPx: 2, MaxPx: 2, X: 1.5, Y: 1.5}
+	for s := 0; s < 10000; s++ {
+		line.Vertices = append(line.Vertices, [2]float64{float64(s%2) * 3, 1.5})
+	}
+	in.Marks = append(in.Marks, line)
+	b.ReportAllocs()
+	for b.Loop() {
+		Analyse(in, DefaultParams)
+	}
+}

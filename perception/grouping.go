@@ -196,7 +196,7 @@ func proximityGroups(xs, ys []float64, nb [][]int, ratio, gap float64) unionFind
 	// that have not settled after proximityPasses have no clear gaps:
 	// they are one group.
 	if widest2 > 0 && manyMembered(uf.labels()) >= 2 {
-		grd := newGrid(xs, ys, 2)
+		grd := newIndex(xs, ys, 2)
 		for pass, joined := 0, true; joined; pass++ {
 			r := gap * math.Sqrt(float64(widest2))
 			if pass == proximityPasses || r > proximityReach*grd.cell {
@@ -328,24 +328,17 @@ func shapeGroups(in Input, marks []int) unionFind {
 // connectedGroups joins the marks whose centres lie on the same line,
 // within half its stroke and tol px.
 func connectedGroups(lines []*Mark, xs, ys []float64, tol float64) unionFind {
-	grd := newGrid(xs, ys, 2)
+	search := newKDTree(xs, ys).lineSearch()
 	uf := newUF(len(xs))
 	for _, l := range lines {
-		t := l.MinPx/2 + tol
-		prev := -1
-		for s := 0; s+1 < len(l.Vertices); s++ {
-			a, b := l.Vertices[s], l.Vertices[s+1]
-			cx, cy := (a[0]+b[0])/2, (a[1]+b[1])/2
-			r := math.Hypot(b[0]-a[0], b[1]-a[1])/2 + t
-			for _, k := range grd.within(cx, cy, r) {
-				if segDist(xs[k], ys[k], a, b) <= t {
-					if prev >= 0 {
-						uf.union(prev, k)
-					}
-					prev = k
-				}
+		first := -1
+		search.alongPolyline(l.Vertices, l.MinPx/2+tol, func(k int) {
+			if first < 0 {
+				first = k
+			} else {
+				uf.union(first, k)
 			}
-		}
+		})
 	}
 	return uf
 }

@@ -1,6 +1,7 @@
 package perception
 
 import (
+	"fmt"
 	"math"
 	"math/rand"
 	"slices"
@@ -8,51 +9,191 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
-func TestKNNAgainstBruteForce(t *testing.T) {
-	// A slow, obviously correct reference: sort all distances.
-	rng := rand.New(rand.NewSource(8))
-	for _, n := range []int{1, 2, 5, 50, 500} {
-		x, y := make([]float64, n), make([]float64, n)
-		for i := range x {
-			x[i], y[i] = rng.Float64()*300, rng.Float64()*80
-			if i%7 == 0 && i > 0 {
-				x[i], y[i] = x[i-1], y[i-1] // duplicates
-			}
-		}
-		for _, perCell := range []float64{0.5, 2, 4, 50} {
-			g := newGrid(x, y, perCell)
-			for i := 0; i < n; i++ {
-				got := g.knn(i, 8)
-				// Nearest first; at equal distances, lowest index first.
-				want := []int{}
-				for j := range x {
-					if j != i {
-						want = append(want, j)
-					}
-				}
-				d2 := func(j int) float64 { return (x[j]-x[i])*(x[j]-x[i]) + (y[j]-y[i])*(y[j]-y[i]) }
-				sort.SliceStable(want, func(a, b int) bool { return d2(want[a]) < d2(want[b]) })
-				if len(want) > 8 {
-					want = want[:8]
-				}
-				assert.Equal(t, want, got, "n=%d i=%d perCell=%v", n, i, perCell)
-			}
-		}
-		g := newGrid(x, y, 2)
-		for i := 0; i < n; i++ {
-			// within agrees with a scan.
-			r := 20.0
-			cnt := 0
-			for j := range x {
-				if math.Hypot(x[j]-x[i], y[j]-y[i]) <= r {
-					cnt++
-				}
-			}
-			assert.Len(t, g.within(x[i], y[i], r), cnt)
+// bruteNearest is the slow, obviously correct reference for the
+// k-nearest searches: all other points sorted by distance, stably, so
+// that equal distances keep the lowest index first.
+func bruteNearest(x, y []float64, i, k int) []int {
+	want := []int{}
+	for j := range x {
+		if j != i {
+			want = append(want, j)
 		}
 	}
+	d2 := func(j int) float64 { return (x[j]-x[i])*(x[j]-x[i]) + (y[j]-y[i])*(y[j]-y[i]) }
+	sort.SliceStable(want, func(a, b int) bool { return d2(want[a]) < d2(want[b]) })
+	return want[:min(k, len(want))]
+}
+
+// nearestSearchers are the indexes the analysis may search: the grid at
+// several cell sizes, and the k-d tree.
+func nearestSearchers(x, y []float64) map[string]func(i, k int) []int {
+	out := map[string]func(i, k int) []int{}
+	for _, perCell := range []float64{0.5, 2, 4, 50} {
+		g := newGrid(x, y, perCell)
+		out[fmt.Sprintf("grid %v a cell", perCell)] = g.knn
+	}
+	tr := newKDTree(x, y)
+	out["tree"] = func(i, k int) []int { return tr.knnInto(i, k, make([]int, 0, k), make([]float64, 0, k)) }
+	return out
+}
+
+// pointLayouts are layouts of n points that stress a spatial index:
+// spread with duplicates, packed into a few pixels beside far outliers,
+// all at one place, on one line, and on a lattice (equal distances).
+func pointLayouts(rng *rand.Rand, n int) map[string][2][]float64 {
+	out := map[string][2][]float64{}
+	add := func(name string, f func(i int) (float64, float64)) {
+		x, y := make([]float64, n), make([]float64, n)
+		for i := range x {
+			x[i], y[i] = f(i)
+		}
+		out[name] = [2][]float64{x, y}
+	}
+	var px, py float64
+	add("spread", func(i int) (float64, float64) {
+		if i%7 != 0 || i == 0 {
+			px, py = rng.Float64()*300, rng.Float64()*80
+		}
+		return px, py // every seventh a duplicate
+	})
+	add("crowded", func(i int) (float64, float64) {
+		if i < 2 {
+			return float64(1-2*i) * 1e4, float64(1-2*i) * 1e4
+		}
+		return rng.Float64() * 3, rng.Float64() * 3
+	})
+	add("one place", func(int) (float64, float64) { return 7, 7 })
+	add("one line", func(i int) (float64, float64) { return float64(i % 37), 0 })
+	add("lattice", func(i int) (float64, float64) { return float64(i % 9), float64(i / 9) })
+	return out
+}
+
+func TestKNNAgainstBruteForce(t *testing.T) {
+	rng := rand.New(rand.NewSource(8))
+	for _, n := range []int{1, 2, 5, 50, 500} {
+		for layout, pts := range pointLayouts(rng, n) {
+			x, y := pts[0], pts[1]
+			searchers := nearestSearchers(x, y)
+			for i := 0; i < n; i++ {
+				want := bruteNearest(x, y, i, 8)
+				for name, knn := range searchers {
+					require.Equal(t, want, knn(i, 8), "%s, n=%d i=%d, %s", layout, n, i, name)
+				}
+			}
+		}
+	}
+}
+
+// connectedGroups joins the points within the tolerance of each line,
+// as a scan of every point against every segment does: for lines across
+// each layout, back and forth over it, and through a few of its points.
+func TestConnectedGroupsAgainstAScan(t *testing.T) {
+	rng := rand.New(rand.NewSource(13))
+	for _, n := range []int{3, 40, 400} {
+		for layout, pts := range pointLayouts(rng, n) {
+			x, y := pts[0], pts[1]
+			minX, maxX := slices.Min(x), slices.Max(x)
+			midY := (slices.Min(y) + slices.Max(y)) / 2
+			back := &Mark{MinPx: 2}
+			for s := 0; s < 50; s++ {
+				back.Vertices = append(back.Vertices, [2]float64{[2]float64{minX, maxX}[s%2], midY + float64(s%3)})
+			}
+			through := &Mark{MinPx: 1}
+			for s := 0; s < 5; s++ {
+				j := rng.Intn(n)
+				through.Vertices = append(through.Vertices, [2]float64{x[j] + 0.3, y[j]})
+			}
+			lines := []*Mark{back, through}
+			const tol = 0.5
+			want := newUF(n)
+			for _, l := range lines {
+				first := -1
+				for k := range x {
+					for s := 0; s+1 < len(l.Vertices); s++ {
+						if segDist(x[k], y[k], l.Vertices[s], l.Vertices[s+1]) <= l.MinPx/2+tol {
+							if first < 0 {
+								first = k
+							} else {
+								want.union(first, k)
+							}
+							break
+						}
+					}
+				}
+			}
+			wantLabels, wantGroups := want.labels()
+			gotLabels, gotGroups := connectedGroups(lines, x, y, tol).labels()
+			require.Equal(t, wantGroups, gotGroups, "%s, n=%d", layout, n)
+			require.Equal(t, wantLabels, gotLabels, "%s, n=%d", layout, n)
+		}
+	}
+}
+
+// orderBy orders as a stable sort by value does (the standard
+// library's, with -0 before 0 as orderBy documents), on values of both
+// signs, many magnitudes and many ties.
+func TestOrderByMatchesAStableSort(t *testing.T) {
+	rng := rand.New(rand.NewSource(14))
+	pool := []float64{0, math.Copysign(0, -1), 1, -1, 1e-300, -1e300, math.MaxFloat64, -math.SmallestNonzeroFloat64, math.Inf(1), math.Inf(-1)}
+	for trial := 0; trial < 300; trial++ {
+		v := make([]float64, rng.Intn(400))
+		for i := range v {
+			switch trial % 3 {
+			case 0:
+				v[i] = pool[rng.Intn(len(pool))]
+			case 1:
+				v[i] = float64(rng.Intn(20) - 10)
+			default:
+				v[i] = rng.NormFloat64() * math.Pow(10, float64(rng.Intn(40)-20))
+			}
+		}
+		want := make([]int32, len(v))
+		for i := range want {
+			want[i] = int32(i)
+		}
+		sort.SliceStable(want, func(a, b int) bool {
+			va, vb := v[want[a]], v[want[b]]
+			return va < vb || va == vb && math.Signbit(va) && !math.Signbit(vb)
+		})
+		require.Equal(t, want, orderBy(v), "trial %d: %v", trial, v)
+	}
+}
+
+// The index turns to the tree where the points crowd the grid's cells,
+// and keeps the grid where they spread: a search then scans about what
+// kdCrowd allows.
+func TestIndexTurnsToTheTreeWhereThePointsCrowd(t *testing.T) {
+	rng := rand.New(rand.NewSource(12))
+	layouts := pointLayouts(rng, 2000)
+	for layout, tree := range map[string]bool{"spread": false, "lattice": false, "crowded": true, "one place": true} {
+		pts := layouts[layout]
+		ix := newIndex(pts[0], pts[1], 4)
+		assert.Equal(t, tree, ix.tree != nil, "%s: %.0f points scanned a search", layout, ix.scanned()/2000)
+	}
+}
+
+// A search of points packed into 3 px beside two points 20,000 px away
+// scans the crowd through the grid, and a few leaves through the tree.
+func BenchmarkNeighboursCrowded(b *testing.B) {
+	layout := pointLayouts(rand.New(rand.NewSource(4)), 20000)["crowded"]
+	x, y := layout[0], layout[1]
+	b.Run("grid", func(b *testing.B) {
+		js, ds := make([]int, 0, 8), make([]float64, 0, 8)
+		for b.Loop() {
+			g := newGrid(x, y, 4)
+			for i := range x {
+				g.knnInto(i, 8, js, ds)
+			}
+		}
+	})
+	b.Run("index", func(b *testing.B) {
+		for b.Loop() {
+			searchNeighbours(x, y, 8)
+		}
+	})
 }
 
 func TestKNNTiesOnALattice(t *testing.T) {

@@ -60,7 +60,7 @@ func neighboursOf(all []Mark, need []int, k int) [][]int {
 	for i := range all {
 		xs[i], ys[i] = all[i].X, all[i].Y
 	}
-	g := newGrid(xs, ys, max(2, float64(k)/2))
+	g := newIndex(xs, ys, max(2, float64(k)/2))
 	nb := make([][]int, len(all))
 	ds := make([]float64, 0, k)
 	for _, i := range need {

@@ -563,7 +563,7 @@ func searchNeighbours(xs, ys []float64, k int) [][]int {
 	n := len(xs)
 	// About k/2 points a cell: the k nearest then usually lie within the
 	// first ring of cells.
-	g := newGrid(xs, ys, max(2, float64(k)/2))
+	g := newIndex(xs, ys, max(2, float64(k)/2))
 	nb := make([][]int, n)
 	flat := make([]int, n*k)
 	ds := make([]float64, 0, k)
