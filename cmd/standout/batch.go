@@ -187,8 +187,12 @@ func readInBrowser(exe string, urls []string, o browser.ReadOptions, stderr io.W
 			return nil, err
 		}
 		defer browser.RemoveProfile(udd)
-		bctx, cancel := browser.NewAllocator(ctx, browser.Options{Exec: exe, UserDataDir: udd, NoSandbox: noSandbox})
+		// The allocator's context is not ctx: an interrupt closes the
+		// browser through o.Stop, which lets it tidy up, rather than
+		// killing it.
+		bctx, cancel := browser.NewAllocator(context.Background(), browser.Options{Exec: exe, UserDataDir: udd, NoSandbox: noSandbox})
 		defer cancel()
+		o.Stop = ctx
 		return browser.ReadPages(bctx, urls, o), nil
 	}
 	note := browser.SandboxNote()

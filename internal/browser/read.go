@@ -61,7 +61,17 @@ type ReadOptions struct {
 	// result per page and view; none, or the zero View, leaves the
 	// browser's own.
 	Views []View
+	// Stop, when done, ends the reads by closing the browser as a user
+	// would (CDP's Browser.close, for up to closeWait), so that it tidies
+	// up after itself: a browser killed at once can leave its temporary
+	// files behind in TMPDIR. The allocator's own context should not be
+	// Stop's, or the browser is killed first.
+	Stop context.Context
 }
+
+// closeWait is how long a browser closed by ReadOptions.Stop may take to
+// stop before it is killed.
+const closeWait = 5 * time.Second
 
 // View is how a reader gets the page: the viewport's width in CSS px (a
 // phone's is narrow) and the colour scheme its prefers-color-scheme
@@ -133,6 +143,20 @@ func ReadPages(browserCtx context.Context, urls []string, o ReadOptions) []PageR
 	// Start the browser once before the tabs fan out.
 	bctx, cancel := chromedp.NewContext(browserCtx)
 	defer cancel()
+	if o.Stop != nil {
+		closed := make(chan struct{})
+		stop := context.AfterFunc(o.Stop, func() {
+			defer close(closed)
+			ctx, cancel := context.WithTimeout(bctx, closeWait)
+			defer cancel()
+			chromedp.Cancel(ctx)
+		})
+		defer func() {
+			if !stop() {
+				<-closed
+			}
+		}()
+	}
 	views := o.Views
 	if len(views) == 0 {
 		views = []View{{}}
