@@ -298,9 +298,27 @@
     if (typeof doc.getAnimations !== 'function' || doc.getAnimations().length > 0) return false;
     // SMIL animates an element by its children, which no style key sees.
     if (root.querySelector('animate, animateTransform, animateMotion, set')) return false;
-    const sheets = [...(root.styleSheets || []), ...(root.adoptedStyleSheets || [])];
-    for (const sh of sheets) if (!sheetShareable(sh, 0)) return false;
+    const adopted = adoptedSheets(root);
+    if (!adopted) return false;
+    for (const sh of [...(root.styleSheets || []), ...adopted]) if (!sheetShareable(sh, 0)) return false;
     return true;
+  }
+
+  // adoptedSheets lists root's adopted style sheets, or null when they
+  // cannot be listed. Firefox (ESR 140.10) hands a content script the
+  // page's list through a wrapper that is neither iterable nor has a
+  // length; there the page's own list tells whether it is empty, and a
+  // list that is not empty counts as unknown.
+  function adoptedSheets(root) {
+    const list = root.adoptedStyleSheets;
+    if (list == null) return [];
+    if (typeof list[Symbol.iterator] === 'function') return [...list];
+    try {
+      const own = root.wrappedJSObject && root.wrappedJSObject.adoptedStyleSheets;
+      return own && own.length === 0 ? [] : null;
+    } catch {
+      return null;
+    }
   }
 
   const STYLE_ATTR_SET = new Set(STYLE_ATTRS);
