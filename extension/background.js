@@ -489,9 +489,8 @@ async function show(tabId, result) {
   }
 }
 
-// toggle closes an open check, or runs one: the toolbar action's handler
-// (exported for Firefox's test build, platform.js).
-export async function toggle(tab) {
+// toggle closes an open check, or runs one: the toolbar action's handler.
+async function toggle(tab) {
   if (!tab || tab.id === undefined) return;
   // The press's steps outside the read, the core and the render, on the
   // clock the page shares (timeOrigin plus now): when the press reached

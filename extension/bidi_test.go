@@ -42,6 +42,9 @@ type bidi struct {
 	context string
 	// downloads is the folder the profile saves downloads to.
 	downloads string
+	// chrome is the session's Marionette side, in the browser's window,
+	// where the toolbar button is.
+	chrome *marionette
 }
 
 type bidiAnswer struct {
@@ -93,17 +96,21 @@ user_pref("extensions.autoDisableScopes", 0);
 user_pref("browser.shell.checkDefaultBrowser", false);
 user_pref("datareporting.policy.dataSubmissionEnabled", false);
 user_pref("toolkit.telemetry.reportingpolicy.firstRun", false);
+user_pref("marionette.port", 0);
 `
 
 // startFirefox starts a headless Firefox with a fresh profile (with more
-// user_pref lines, if any), opens a BiDi session and finds its tab.
+// user_pref lines, if any), opens a session through Marionette (Firefox
+// allows one, and BiDi does not reach the browser's window) with BiDi
+// on it, as geckodriver does, and finds its tab.
 func startFirefox(t testing.TB, prefs ...string) *bidi {
 	exe := firefox(t)
 	profile, downloads := t.TempDir(), t.TempDir()
 	userJS := fmt.Sprintf(profilePrefs, downloads) + strings.Join(prefs, "\n")
 	require.NoError(t, os.WriteFile(filepath.Join(profile, "user.js"), []byte(userJS), 0o644))
 	ctx, cancel := context.WithCancel(context.Background())
-	cmd := exec.CommandContext(ctx, exe, "--headless", "--no-remote", "--profile", profile, "--remote-debugging-port=0", "--remote-allow-origins=http://127.0.0.1", "about:blank")
+	cmd := exec.CommandContext(ctx, exe, "--headless", "--no-remote", "--profile", profile, "--remote-debugging-port=0", "--remote-allow-origins=http://127.0.0.1",
+		"--marionette", "--remote-allow-system-access", "about:blank")
 	cmd.Env = append(os.Environ(), "MOZ_CRASHREPORTER_DISABLE=1")
 	stderr, err := cmd.StderrPipe()
 	require.NoError(t, err)
@@ -122,19 +129,18 @@ func startFirefox(t testing.TB, prefs ...string) *bidi {
 			}
 		}
 	}()
-	var url string
 	select {
-	case url = <-addr:
+	case <-addr:
 	case <-time.After(60 * time.Second):
 		t.Fatal("Firefox did not start its WebDriver BiDi server within 60 s")
 	}
-	ws, err := websocket.Dial(strings.TrimSuffix(url, "/")+"/session", "", "http://127.0.0.1/")
+	chrome, url := dialMarionette(t, profile)
+	ws, err := websocket.Dial(url, "", "http://127.0.0.1/")
 	require.NoError(t, err)
 	ws.MaxPayloadBytes = 64 << 20
-	b := &bidi{t: t, ws: ws, waiting: map[int]chan bidiAnswer{}, events: make(chan bidiEvent, 256), downloads: downloads}
+	b := &bidi{t: t, ws: ws, waiting: map[int]chan bidiAnswer{}, events: make(chan bidiEvent, 256), downloads: downloads, chrome: chrome}
 	go b.readLoop()
 	t.Cleanup(func() { ws.Close() })
-	b.call("session.new", map[string]any{"capabilities": map[string]any{}}, nil)
 	var tree struct {
 		Contexts []struct {
 			Context string `json:"context"`
@@ -223,11 +229,9 @@ func (b *bidi) call(method string, params any, out any) {
 type foxHarness struct {
 	*bidi
 	url string
+	// extension is the installed extension's id.
+	extension string
 }
-
-// The test build's entry for a press: a page event its content script
-// forwards to the background, which runs the toolbar action's handler.
-const foxPress = `document.dispatchEvent(new CustomEvent('standout-test-press'))`
 
 func (h *foxHarness) open(url string) {
 	h.url = url
@@ -310,7 +314,7 @@ func (h *foxHarness) overlayHTML() string {
 
 func (h *foxHarness) tb() testing.TB { return h.t }
 
-func (h *foxHarness) press() { h.eval(foxPress + `, ''`) }
+func (h *foxHarness) press() { h.chrome.pressToolbar(h.t, h.extension) }
 
 // control is the centre of the overlay's control with that data-action,
 // scrolled into view, in viewport px.
@@ -382,28 +386,17 @@ func (h *foxHarness) downloads() string { return h.bidi.downloads }
 
 var _, _ e2eBrowser = (*harness)(nil), (*foxHarness)(nil)
 
-// builtForFirefoxTest is the Firefox build with the test entry for a
-// press (testdata/firefox): its background starts at test-entry.js, its
-// content script on loopback pages forwards the test's press, and it
-// declares loopback pages as allowed hosts, standing for the activeTab
-// grant a real press gives.
+// builtForFirefoxTest is the Firefox build for the tests: the shipped
+// one, declaring every page an allowed host (the origins a reader grants
+// for framed charts, FrameOfAllowedOrigin).
 func builtForFirefoxTest(t testing.TB) string {
 	foxOnce.Do(func() {
 		d, err := os.MkdirTemp("", "standout-fox-")
 		if err == nil {
 			err = Build(d, true)
 		}
-		for _, f := range []string{"test-entry.js", "test-press.js"} {
-			if err != nil {
-				break
-			}
-			var b []byte
-			if b, err = os.ReadFile(filepath.Join("testdata", "firefox", f)); err == nil {
-				err = os.WriteFile(filepath.Join(d, f), b, 0o644)
-			}
-		}
 		if err == nil {
-			err = editManifest(d, foxTestManifest)
+			err = editManifest(d, func(m map[string]any) { m["host_permissions"] = []string{"<all_urls>"} })
 		}
 		foxDir, foxErr = d, err
 	})
@@ -417,19 +410,16 @@ var (
 	foxErr  error
 )
 
-// foxTestManifest points the build's background at the test entry, adds
-// its content script and allows every page.
-func foxTestManifest(m map[string]any) {
-	m["background"] = map[string]any{"scripts": []string{"test-entry.js"}, "type": "module"}
-	m["host_permissions"] = []string{"<all_urls>"}
-	m["content_scripts"] = []any{map[string]any{"matches": []string{"http://127.0.0.1/*"}, "js": []string{"test-press.js"}, "run_at": "document_start"}}
-}
-
 // newFox starts Firefox with the test build installed (as a temporary
-// add-on, through BiDi's webExtension.install).
+// add-on, through BiDi's webExtension.install), and reaches its window
+// through Marionette to press the toolbar button.
 func newFox(t testing.TB, prefs ...string) *foxHarness {
 	dir := builtForFirefoxTest(t)
 	b := startFirefox(t, prefs...)
-	b.call("webExtension.install", map[string]any{"extensionData": map[string]any{"type": "path", "path": dir}}, nil)
-	return &foxHarness{bidi: b}
+	var installed struct {
+		Extension string `json:"extension"`
+	}
+	b.call("webExtension.install", map[string]any{"extensionData": map[string]any{"type": "path", "path": dir}}, &installed)
+	require.NotEmpty(t, installed.Extension, "webExtension.install named no extension")
+	return &foxHarness{bidi: b, extension: installed.Extension}
 }

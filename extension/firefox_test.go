@@ -4,9 +4,8 @@ import "testing"
 
 // TestFirefoxE2E runs the end-to-end suite in Firefox (Debian's
 // firefox-esr) through WebDriver BiDi, a fresh browser for each part, as
-// the Chromium tests do. Firefox gives automation no toolbar button to
-// press, so the test build's own entry (testdata/firefox) runs the
-// action's handler; everything after the press is the shipped code.
+// the Chromium tests do. The toolbar button is pressed through
+// Marionette (marionette_test.go), as a click would press it.
 func TestFirefoxE2E(t *testing.T) {
 	for _, s := range []struct {
 		name string

@@ -17,9 +17,9 @@
 //   which Standout does not ask for). A capture holds every frame the tab
 //   shows, so it stays in extension pages.
 // - Pressing the button in tests. Chromium's DevTools protocol presses it
-//   (Extensions.triggerAction); Firefox gives automation no way to, so its
-//   test build adds an entry that calls the same handler
-//   (testdata/firefox/test-entry.js, never shipped).
+//   (Extensions.triggerAction); Firefox's WebDriver BiDi does not reach
+//   the toolbar, so its tests press it through Marionette in the
+//   browser's window (extension/marionette_test.go).
 // - Optimised code across loads. Chromium keeps the WebAssembly code V8
 //   has optimised and loads it with the module next time, in a service
 //   worker and an extension page too (measured; DEVELOPERS.md; not
