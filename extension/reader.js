@@ -1234,6 +1234,6 @@
 
   // The pure parts, which need no page, are exported too, for the unit
   // tests under Node (test/reader.test.js).
-  const pure = Object.freeze({ packColour, stopAt, mul, invert, viewBoxMatrix, clamp01 });
+  const pure = Object.freeze({ packColour, stopAt, mul, invert, viewBoxMatrix, clamp01, adoptedSheets });
   globalThis.standoutReader = Object.freeze({ readPage, findCharts, pageBox, pure, SNAPSHOT_VERSION, MAX_CHART_NODES, MAX_PAGE_NODES, MAX_USE_NODES });
 })();

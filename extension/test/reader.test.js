@@ -55,3 +55,19 @@ test('viewBoxMatrix follows preserveAspectRatio', () => {
   assert.deepEqual(plain(pure.viewBoxMatrix([0, 0, 100, 50], 200, 200, 'xMidYMid slice')), [4, 0, 0, 4, -100, 0]);
   assert.deepEqual(plain(pure.viewBoxMatrix([10, 20, 100, 50], 200, 200, 'none')), [2, 0, 0, 4, -20, -80]);
 });
+
+test('adoptedSheets lists adopted sheets, or says they are unknown', () => {
+  // Chromium hands a content script the page's list as an array; Firefox
+  // ESR 140.10 as an opaque list with neither an iterator nor a length
+  // (seen in that browser; extension/firefox_test.go), whose page-side
+  // list (wrappedJSObject) still has its length.
+  const sheet = { cssRules: [] };
+  assert.deepEqual(pure.adoptedSheets({ adoptedStyleSheets: [sheet] }), [sheet]);
+  assert.deepEqual(pure.adoptedSheets({}), [], 'no list: an old browser, nothing adopted');
+  const opaque = Object.create(null);
+  assert.deepEqual(pure.adoptedSheets({ adoptedStyleSheets: opaque, wrappedJSObject: { adoptedStyleSheets: [] } }), []);
+  assert.equal(pure.adoptedSheets({ adoptedStyleSheets: opaque, wrappedJSObject: { adoptedStyleSheets: [sheet] } }), null, 'sheets it cannot read');
+  assert.equal(pure.adoptedSheets({ adoptedStyleSheets: opaque }), null, 'no page-side list');
+  const hostile = { adoptedStyleSheets: opaque, wrappedJSObject: { get adoptedStyleSheets() { throw new Error('no'); } } };
+  assert.equal(pure.adoptedSheets(hostile), null, 'a page that throws');
+});
