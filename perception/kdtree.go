@@ -15,9 +15,10 @@ import (
 // O(log n) rather than a scan of the crowd.
 //
 // Each node splits its points at the median of its box's longer side, in
-// the order (coordinate, index): equal coordinates split by index, so the
-// tree is the same whatever the input's order of ties and every split
-// halves. A node's points lie contiguous in order, sorted by x.
+// the order (coordinate, index): equal coordinates split by index, so
+// every split halves its points however many share a coordinate (all of
+// them, on a crafted page). A node's points lie contiguous in order,
+// sorted by x.
 type kdTree struct {
 	nodes  []kdNode
 	order  []int32   // point indices, node by node
@@ -64,8 +65,9 @@ func newKDTree(x, y []float64) *kdTree {
 // orderBy lists the indices of v in the order (v[i], i), -0 before 0:
 // a stable radix sort (least significant byte first) of the values'
 // bits, with the sign bit turned so that the bits order as the numbers
-// do (finite values; NaN sorts above +Inf). A pass over a byte that
-// every value shares is skipped. Unlike slices.SortFunc, it adds no
+// do (the analysis's coordinates are finite; a NaN would sort beyond
+// the infinity of its sign). A pass over a byte that every value shares
+// is skipped. Unlike slices.SortFunc, it adds no
 // copy of a generic sort to the module.
 func orderBy(v []float64) []int32 {
 	n := len(v)
