@@ -227,15 +227,12 @@ func (t *kdTree) search(q *kdQuery, n int32) {
 }
 
 // insertNearest puts point j at squared distance d into js and ds (the
-// nearest found, at most k, ordered by distance and then index), unless
-// k nearer are there already (which the searches test before the call,
-// for speed).
+// nearest found, at most k, ordered by distance and then index). The
+// caller has made sure that j belongs there: that fewer than k are
+// found, or that j comes before the k-th (the searches test that in
+// their loops, where most points end, rather than in a call).
 func insertNearest(js []int, ds []float64, k, j int, d float64) ([]int, []float64) {
-	full := len(js) == k
-	if full && (d > ds[k-1] || d == ds[k-1] && j > js[k-1]) {
-		return js, ds
-	}
-	if !full {
+	if len(js) < k {
 		js, ds = append(js, j), append(ds, d)
 	}
 	p := len(js) - 1

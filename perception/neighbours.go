@@ -167,7 +167,7 @@ func (g *grid) knnInto(i, k int, js []int, ds []float64) []int {
 					ex, ey := g.x[j]-px, g.y[j]-py
 					d := ex*ex + ey*ey
 					if len(js) == k && (d > ds[k-1] || d == ds[k-1] && j > js[k-1]) {
-						continue // most points: tested here, not in a call
+						continue // not among the k nearest (insertNearest)
 					}
 					js, ds = insertNearest(js, ds, k, j, d)
 				}
