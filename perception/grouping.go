@@ -175,7 +175,7 @@ func proximityGroups(xs, ys []float64, nb [][]int, ratio, gap float64) unionFind
 			ends = append(ends, [2]int32{int32(k), int32(j)})
 		}
 	}
-	sortByHigh32(keys)
+	keys, _ = radixSort(keys, nil, 32)
 	thr2, gap2 := float32(thr*thr), float32(gap*gap)
 	widest2 := float32(0)
 	for _, key := range keys {
@@ -235,25 +235,40 @@ const (
 	proximityReach  = 7
 )
 
-// sortByHigh32 sorts keys by their upper 32 bits, a byte at a time
-// (least significant first, each pass stable).
-func sortByHigh32(keys []uint64) {
-	tmp := make([]uint64, len(keys))
-	for shift := 32; shift < 64; shift += 8 {
+// radixSort sorts keys by their bits from bit from up, a byte at a time
+// (least significant first, each pass stable), moving idx with them
+// when it is not nil, and skipping a byte that every key shares. It
+// returns the sorted slices, which may be other than those given.
+func radixSort(keys []uint64, idx []int32, from int) ([]uint64, []int32) {
+	n := len(keys)
+	tk := make([]uint64, n)
+	var ti []int32
+	if idx != nil {
+		ti = make([]int32, n)
+	}
+	for shift := from; shift < 64; shift += 8 {
 		var count [257]int
 		for _, k := range keys {
 			count[(k>>shift)&0xff+1]++
 		}
+		if slices.Contains(count[1:], n) {
+			continue
+		}
 		for b := 1; b < len(count); b++ {
 			count[b] += count[b-1]
 		}
-		for _, k := range keys {
+		for p, k := range keys {
 			b := (k >> shift) & 0xff
-			tmp[count[b]] = k
+			tk[count[b]] = k
+			if idx != nil {
+				ti[count[b]] = idx[p]
+			}
 			count[b]++
 		}
-		keys, tmp = tmp, keys
+		keys, tk = tk, keys
+		idx, ti = ti, idx
 	}
+	return keys, idx
 }
 
 // dist2 is the squared distance of points j and k.

@@ -1,9 +1,6 @@
 package perception
 
-import (
-	"math"
-	"slices"
-)
+import "math"
 
 // kdTree is a k-d tree of points (Bentley 1975, "Multidimensional binary
 // search trees used for associative searching", CACM 18(9)) with the
@@ -63,12 +60,10 @@ func newKDTree(x, y []float64) *kdTree {
 }
 
 // orderBy lists the indices of v in the order (v[i], i), -0 before 0:
-// a stable radix sort (least significant byte first) of the values'
-// bits, with the sign bit turned so that the bits order as the numbers
-// do (the analysis's coordinates are finite; a NaN would sort beyond
-// the infinity of its sign). A pass over a byte that every value shares
-// is skipped. Unlike slices.SortFunc, it adds no
-// copy of a generic sort to the module.
+// a stable radix sort of the values' bits, with the sign bit turned so
+// that the bits order as the numbers do (the analysis's coordinates are
+// finite; a NaN would sort beyond the infinity of its sign). Unlike
+// slices.SortFunc, it adds no copy of a generic sort to the module.
 func orderBy(v []float64) []int32 {
 	n := len(v)
 	keys, idx := make([]uint64, n), make([]int32, n)
@@ -81,25 +76,7 @@ func orderBy(v []float64) []int32 {
 		}
 		keys[i], idx[i] = b, int32(i)
 	}
-	tk, ti := make([]uint64, n), make([]int32, n)
-	for shift := 0; shift < 64; shift += 8 {
-		var count [257]int
-		for _, k := range keys {
-			count[(k>>shift)&0xff+1]++
-		}
-		if slices.Contains(count[1:], n) {
-			continue
-		}
-		for b := 1; b < len(count); b++ {
-			count[b] += count[b-1]
-		}
-		for p, k := range keys {
-			b := (k >> shift) & 0xff
-			tk[count[b]], ti[count[b]] = k, idx[p]
-			count[b]++
-		}
-		keys, tk, idx, ti = tk, keys, ti, idx
-	}
+	_, idx = radixSort(keys, idx, 0)
 	return idx
 }
 
